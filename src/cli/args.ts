@@ -1,0 +1,55 @@
+/**
+ * Command-line argument parsing shared by every verb: positional arguments and `--name value` or
+ * `--flag` options, each declared by the verb. Unknown options and missing values are errors.
+ */
+
+export type OptionKind = 'string' | 'boolean';
+
+export interface ParsedArgs {
+  positional: string[];
+  options: Record<string, string | boolean>;
+}
+
+/** Parses `argv` against declared options; throws an Error with a one-line message on misuse. */
+export function parseArgs(argv: string[], declared: Record<string, OptionKind>, verb: string): ParsedArgs {
+  const positional: string[] = [];
+  const options: Record<string, string | boolean> = {};
+  for (let i = 0; i < argv.length; i++) {
+    const a = argv[i]!;
+    if (a.startsWith('--')) {
+      const eq = a.indexOf('=');
+      const name = eq > 0 ? a.slice(2, eq) : a.slice(2);
+      const kind = declared[name];
+      if (!kind) throw new Error(`${verb}: unknown option --${name} (known: ${Object.keys(declared).map((k) => '--' + k).join(', ') || 'none'})`);
+      if (kind === 'boolean') { options[name] = true; continue; }
+      const value = eq > 0 ? a.slice(eq + 1) : argv[++i];
+      if (value === undefined) throw new Error(`${verb}: option --${name} needs a value`);
+      options[name] = value;
+    } else {
+      positional.push(a);
+    }
+  }
+  return { positional, options };
+}
+
+/** Parses `x,y,z` into three finite numbers, or throws naming the option. */
+export function parseVec3(text: string, option: string): [number, number, number] {
+  const parts = text.split(',').map((s) => Number(s.trim()));
+  if (parts.length !== 3 || parts.some((v) => !Number.isFinite(v))) {
+    throw new Error(`--${option}: expected three numbers x,y,z, got "${text}"`);
+  }
+  return parts as [number, number, number];
+}
+
+/** Parses a finite number, or throws naming the option. */
+export function parseNumber(text: string, option: string): number {
+  const v = Number(text);
+  if (text.trim() === '' || !Number.isFinite(v)) throw new Error(`--${option}: expected a number, got "${text}"`);
+  return v;
+}
+
+/** A string option's value, or undefined. */
+export function str(args: ParsedArgs, name: string): string | undefined {
+  const v = args.options[name];
+  return typeof v === 'string' ? v : undefined;
+}

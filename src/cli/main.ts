@@ -1,0 +1,49 @@
+/**
+ * The `fieldtally` command: dispatches to a verb module by name. Exit code 0 on success; on failure a
+ * one-line error on stderr and a non-zero code.
+ */
+import { existsSync, readdirSync } from 'node:fs';
+import { dirname, join } from 'node:path';
+import { fileURLToPath } from 'node:url';
+import type { Verb, VerbIO } from './verb.ts';
+
+const VERB_DIR = join(dirname(fileURLToPath(import.meta.url)), 'verbs');
+
+/** Names of the verbs present in `src/cli/verbs`. */
+export function verbNames(): string[] {
+  return readdirSync(VERB_DIR).filter((f) => f.endsWith('.ts')).map((f) => f.slice(0, -3)).sort();
+}
+
+/** Loads a verb by name, or undefined if there is none. */
+export async function loadVerb(name: string): Promise<Verb | undefined> {
+  if (!/^[a-z][a-z-]*$/.test(name) || !existsSync(join(VERB_DIR, `${name}.ts`))) return undefined;
+  return ((await import(`./verbs/${name}.ts`)) as { default: Verb }).default;
+}
+
+const stdio: VerbIO = {
+  out: (t) => process.stdout.write(t.endsWith('\n') ? t : t + '\n'),
+  err: (t) => process.stderr.write(t.endsWith('\n') ? t : t + '\n'),
+};
+
+async function usage(io: VerbIO): Promise<void> {
+  const lines = ['usage: fieldtally <verb> [arguments] (fieldtally <verb> --help for details)', '', 'verbs:'];
+  for (const n of verbNames()) lines.push(`  ${n.padEnd(10)} ${(await loadVerb(n))!.summary}`);
+  io.out(lines.join('\n'));
+}
+
+/** Runs the command line; returns the process exit code. */
+export async function main(argv: string[], io: VerbIO = stdio): Promise<number> {
+  const [name, ...rest] = argv;
+  if (!name || name === '--help' || name === '-h' || name === 'help') { await usage(io); return name ? 0 : 2; }
+  const verb = await loadVerb(name);
+  if (!verb) { io.err(`fieldtally: unknown verb "${name}" (known: ${verbNames().join(', ')})`); return 2; }
+  if (rest.includes('--help')) { io.out(verb.usage); return 0; }
+  try {
+    return await verb.run(rest, io);
+  } catch (e) {
+    const msg = e instanceof Error ? e.message : String(e);
+    io.err(`fieldtally ${name}: ${msg.split('\n')[0]}`);
+    if (process.env.FIELDTALLY_DEBUG && e instanceof Error && e.stack) io.err(e.stack);
+    return 1;
+  }
+}

@@ -1,0 +1,72 @@
+/**
+ * `fieldtally bench <file> [--json] [--stages a,b]`: times the stages of this tool on one file — load,
+ * then every compute stage in `src/cli/benchStages` — and reports the peak resident memory.
+ */
+import { readdirSync } from 'node:fs';
+import { stat } from 'node:fs/promises';
+import { dirname, join } from 'node:path';
+import { fileURLToPath } from 'node:url';
+import { loadDatasetFile } from '../../io/nodeFiles.ts';
+import { totalCells, totalPoints, type Dataset } from '../../model/dataset.ts';
+import { parseArgs, str } from '../args.ts';
+import type { BenchStage } from '../benchStages/stage.ts';
+import type { Verb } from '../verb.ts';
+
+const STAGE_DIR = join(dirname(fileURLToPath(import.meta.url)), '..', 'benchStages');
+
+async function stages(): Promise<BenchStage[]> {
+  const files = readdirSync(STAGE_DIR).filter((f) => f.endsWith('.ts') && f !== 'stage.ts');
+  const list = await Promise.all(files.map(async (f) => ((await import(`../benchStages/${f}`)) as { default: BenchStage }).default));
+  return list.sort((a, b) => a.order - b.order);
+}
+
+/** Bytes of the decoded arrays of a dataset (points, topology, fields). */
+export function decodedBytes(d: Dataset): number {
+  let n = 0;
+  for (const p of d.pieces) {
+    n += p.points.byteLength + p.cellTypes.byteLength + p.offsets.byteLength + p.connectivity.byteLength;
+    if (p.polyFaces) n += p.polyFaces.cellFaceStart.byteLength + p.polyFaces.faceOffsets.byteLength + p.polyFaces.faceConnectivity.byteLength;
+    for (const f of [...p.pointData, ...p.cellData]) n += f.values.byteLength;
+  }
+  return n;
+}
+
+const bench: Verb = {
+  summary: 'time each stage of the tool on a file and report peak memory (JSON)',
+  usage: 'fieldtally bench <file> [--json] [--stages load,cut,…]\n  Times load and every compute stage; prints JSON (always) with times in ms, sizes in bytes, rates in MB/s (10^6 bytes).',
+  options: { json: 'boolean', stages: 'string' },
+  async run(argv, io) {
+    const args = parseArgs(argv, this.options, 'bench');
+    const file = args.positional[0];
+    if (!file || args.positional.length > 1) throw new Error('expected one result file: fieldtally bench <file> [--json]');
+    const only = str(args, 'stages')?.split(',').map((s) => s.trim());
+    const fileBytes = (await stat(file)).size;
+    const rssBefore = process.memoryUsage().rss;
+    const t0 = performance.now();
+    const dataset = await loadDatasetFile(file);
+    const loadMs = performance.now() - t0;
+    const decoded = decodedBytes(dataset);
+    const out: Record<string, unknown> = {
+      file, fileBytes, points: totalPoints(dataset), cells: totalCells(dataset),
+      load: {
+        ms: round(loadMs), fileMBps: round(fileBytes / 1e3 / loadMs), decodedBytes: decoded,
+        decodedMBps: round(decoded / 1e3 / loadMs),
+      },
+    };
+    for (const s of await stages()) {
+      if (only && !only.includes(s.name)) continue;
+      out[s.name] = await s.run(dataset);
+    }
+    const peak = process.resourceUsage().maxRSS * 1024;
+    out.memory = {
+      peakRssBytes: peak, rssBeforeLoadBytes: rssBefore,
+      peakOverDecoded: round((peak - rssBefore) / Math.max(1, decoded)),
+      note: 'peakOverDecoded = (peak RSS − RSS before load) / decoded array bytes',
+    };
+    io.out(JSON.stringify(out, null, 2));
+    return 0;
+  },
+};
+
+function round(v: number): number { return Math.round(v * 100) / 100; }
+export default bench;
