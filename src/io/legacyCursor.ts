@@ -1,0 +1,179 @@
+/**
+ * A forward cursor over the bytes of a legacy `.vtk` file: whitespace-separated words for keywords,
+ * counts and names, whole lines for the header and metadata blocks, the start of binary data, and
+ * positions named for messages (line numbers in ASCII files, byte offsets in binary ones).
+ */
+
+/** Longest word accepted; legacy names and keywords are short, so a longer one means we are lost in data. */
+const MAX_WORD = 4096;
+
+const isSpace = (c: number) => c === 32 || c === 10 || c === 13 || c === 9 || c === 11 || c === 12;
+
+const utf8 = new TextDecoder('utf-8');
+
+/** Marks a byte position in a message, to be turned into a line number by `resolve`. */
+const MARK = '\u0001';
+const MARKED = /\u0001(\d+)\u0001/g;
+
+/** A word quoted for a message: printable ASCII only, at most 40 characters. */
+export function quoted(s: string): string {
+  const t = s.length > 40 ? `${s.slice(0, 40)}…` : s;
+  return `"${t.replace(/[^\x20-\x7e…]/g, '?')}"`;
+}
+
+/** Decodes VTK's `%XX` escapes in legacy names (a space is written as `%20`). */
+export function decodeName(s: string): string {
+  if (!s.includes('%')) return s;
+  const src = new TextEncoder().encode(s), out = new Uint8Array(src.length);
+  const hex = (c: number) => (c >= 48 && c <= 57 ? c - 48 : c >= 65 && c <= 70 ? c - 55 : c >= 97 && c <= 102 ? c - 87 : -1);
+  let n = 0;
+  for (let i = 0; i < src.length; i++) {
+    const hi = i + 2 < src.length && src[i] === 37 ? hex(src[i + 1]!) : -1;
+    const lo = hi >= 0 ? hex(src[i + 2]!) : -1;
+    if (lo >= 0) { out[n++] = hi * 16 + lo; i += 2; } else out[n++] = src[i]!;
+  }
+  return utf8.decode(out.subarray(0, n));
+}
+
+export class LegacyCursor {
+  /** Current byte position. */
+  pos = 0;
+  /** Where the last word read started (messages point at keywords). */
+  wordStart = 0;
+  /** Whether data blocks are big-endian binary (set once the header is read). */
+  binary = false;
+  private memoPos = 0;
+  private memoLine = 1;
+
+  constructor(readonly bytes: Uint8Array, readonly file: string) {}
+
+  /** Bytes left from the current position. */
+  get remaining(): number {
+    return this.bytes.length - this.pos;
+  }
+
+  /** 1-based line number of byte `pos`; counts forward from the last query, so a pass over the file is linear. */
+  lineOf(pos: number): number {
+    const b = this.bytes;
+    if (pos < this.memoPos) { this.memoPos = 0; this.memoLine = 1; }
+    let line = this.memoLine;
+    for (let i = b.indexOf(10, this.memoPos); i >= 0 && i < pos; i = b.indexOf(10, i + 1)) line++;
+    this.memoPos = pos;
+    this.memoLine = line;
+    return line;
+  }
+
+  /**
+   * `line N` in ASCII files, `byte N` in binary ones (line numbers mean little after binary data). Line
+   * numbers are only counted if a message is shown: `at` leaves a mark that `resolve` replaces.
+   */
+  at(pos: number = this.wordStart): string {
+    return this.binary ? `byte ${pos}` : `line ${MARK}${pos}${MARK}`;
+  }
+
+  /** Replaces the position marks left by `at` in a message with line numbers. */
+  resolve(message: string): string {
+    return message.replace(MARKED, (_, p: string) => String(this.lineOf(Number(p))));
+  }
+
+  /** Message prefix naming the file, the section and its position: `f.vtk: POINTS (line 5)`. */
+  where(section: string, pos: number = this.wordStart): string {
+    return `${this.file}: ${section} (${this.at(pos)})`;
+  }
+
+  /** Skips whitespace; false at the end of the file. */
+  skipSpace(): boolean {
+    const b = this.bytes, n = b.length;
+    let p = this.pos;
+    while (p < n && isSpace(b[p]!)) p++;
+    this.pos = p;
+    return p < n;
+  }
+
+  /** The next whitespace-separated word (UTF-8), or undefined at the end of the file. */
+  word(): string | undefined {
+    if (!this.skipSpace()) return undefined;
+    const b = this.bytes, n = b.length, start = this.pos;
+    let p = start;
+    while (p < n && !isSpace(b[p]!)) {
+      p++;
+      if (p - start > MAX_WORD) {
+        throw new Error(`${this.file}: expected a keyword or name at ${this.at(start)}, found ${MAX_WORD}+ bytes without a space (is a data block longer than declared?)`);
+      }
+    }
+    this.wordStart = start;
+    this.pos = p;
+    return utf8.decode(b.subarray(start, p));
+  }
+
+  /** The next word without consuming it. */
+  peekWord(): string | undefined {
+    const pos = this.pos, ws = this.wordStart;
+    try {
+      return this.word();
+    } catch {
+      return undefined;
+    } finally {
+      this.pos = pos;
+      this.wordStart = ws;
+    }
+  }
+
+  /** The next word, or an error (prefixed by `where`) saying what was expected. */
+  need(what: string, where: string): string {
+    const w = this.word();
+    if (w === undefined) throw new Error(`${where}: the file ends where ${what} was expected`);
+    return w;
+  }
+
+  /** The next word as a non-negative integer (a count or size), or an error naming what was expected. */
+  count(what: string, where: string): number {
+    const w = this.need(what, where);
+    if (!/^\+?\d+$/.test(w) || !Number.isSafeInteger(Number(w))) {
+      throw new Error(`${where}: ${what} is ${quoted(w)}, expected a non-negative integer`);
+    }
+    return Number(w);
+  }
+
+  /** The rest of the current line (without `\r`), moving past its end; undefined at the end of the file. */
+  line(): string | undefined {
+    const b = this.bytes, n = b.length;
+    if (this.pos >= n) return undefined;
+    const start = this.pos;
+    let p = start;
+    while (p < n && b[p] !== 10) p++;
+    this.pos = p < n ? p + 1 : p;
+    let end = p;
+    if (end > start && b[end - 1] === 13) end--;
+    return utf8.decode(b.subarray(start, end));
+  }
+
+  /** Moves past the end of the current line: binary data start right after the newline of their header line. */
+  toNextLine(where: string): void {
+    const b = this.bytes, n = b.length;
+    let p = this.pos;
+    while (p < n && b[p] !== 10) p++;
+    if (p >= n) throw new Error(`${where}: the file ends before the binary data of this section`);
+    this.pos = p + 1;
+  }
+
+  /**
+   * Skips a `METADATA` block if one comes next (VTK writes them after arrays: component names and
+   * information keys). The block ends at a blank line, or just before a line that starts a new section.
+   */
+  skipMetadata(): void {
+    const w = this.peekWord();
+    if (w === undefined || w.toUpperCase() !== 'METADATA') return;
+    this.word();
+    this.line();
+    for (;;) {
+      const start = this.pos;
+      const l = this.line();
+      if (l === undefined || l.trim() === '') return;
+      if (SECTION_START.test(l)) { this.pos = start; return; }
+    }
+  }
+}
+
+/** Lines that cannot belong to a metadata block (guards against a block missing its blank line). */
+const SECTION_START = /^\s*(POINTS|CELLS|CELL_TYPES|VERTICES|LINES|POLYGONS|TRIANGLE_STRIPS|POINT_DATA|CELL_DATA|SCALARS|COLOR_SCALARS|VECTORS|NORMALS|TENSORS6?|TEXTURE_COORDINATES|FIELD|GLOBAL_IDS|PEDIGREE_IDS|EDGE_FLAGS|LOOKUP_TABLE|OFFSETS|CONNECTIVITY)\s/i;

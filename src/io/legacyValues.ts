@@ -1,0 +1,229 @@
+/**
+ * Data blocks of legacy `.vtk` files: `count` values of one type at the cursor, either whitespace-
+ * separated text (parsed in chunks of `ASCII_CHUNK` values with a checkpoint between chunks) or
+ * big-endian binary starting right after the header line. Sizes are checked against the bytes left
+ * before anything is allocated: a binary value takes its element size, a text value at least 2 bytes
+ * (a digit and a separator).
+ */
+import { parseNumbers, type NumberSink } from './asciiNumbers.ts';
+import { ELEMENT_SIZE, allocateFor, decodeElements, toIds, type ElementType } from './elementTypes.ts';
+import type { Checkpoint } from './loadOptions.ts';
+import { quoted, type LegacyCursor } from './legacyCursor.ts';
+import { integerRange } from './legacyTypes.ts';
+import type { NumericArray } from '../model/fieldArray.ts';
+
+/** Text values parsed between two checkpoints. */
+export const ASCII_CHUNK = 1 << 20;
+
+const STAGE = 'reading legacy .vtk';
+
+// Integer and colour values are parsed into doubles first, then checked and narrowed.
+let scratch = new Float64Array(0);
+function scratchOf(n: number): Float64Array {
+  if (scratch.length < n) scratch = new Float64Array(Math.max(n, Math.min(ASCII_CHUNK, 2 * scratch.length)));
+  return scratch.subarray(0, n);
+}
+
+/** Throws unless `count` values of `size` bytes (binary) or 2 bytes (text) fit in what is left of the file. */
+export function checkRoom(cur: LegacyCursor, count: number, size: number, where: string): void {
+  if (count === 0) return;
+  const need = cur.binary ? count * size : 2 * count - 1;
+  if (need > cur.remaining) {
+    throw new Error(`${where}: declares ${count} values, which need at least ${need} bytes${cur.binary ? '' : ' as text'}, but only ${cur.remaining} bytes are left (file truncated, or a wrong count)`);
+  }
+}
+
+const isSpace = (c: number) => c === 32 || (c >= 9 && c <= 13);
+
+/** Start and end of the `index`-th whitespace-separated token from `from`, or undefined if the file ends first. */
+function tokenAt(bytes: Uint8Array, from: number, index: number): [number, number] | undefined {
+  const n = bytes.length;
+  let p = from;
+  for (let k = 0; ; k++) {
+    while (p < n && isSpace(bytes[p]!)) p++;
+    if (p >= n) return undefined;
+    const s = p;
+    while (p < n && !isSpace(bytes[p]!)) p++;
+    if (k === index) return [s, p];
+  }
+}
+
+const text = (bytes: Uint8Array, s: number, e: number) => new TextDecoder('latin1').decode(bytes.subarray(s, Math.min(e, s + 64)));
+
+function isNumberToken(t: string): boolean {
+  return !Number.isNaN(Number(t)) || /^[+-]?(nan|inf(inity)?)$/i.test(t);
+}
+
+/** Rebuilds a parse failure inside a chunk into a message with the value's number and line. */
+function parseFailureFrom(cur: LegacyCursor, from: number, index: number, left: number, total: number, where: string): Error {
+  let p = from;
+  for (let j = 0; j < left; j++) {
+    const t = tokenAt(cur.bytes, p, 0);
+    if (!t) return new Error(`${where}: expected ${total} values, but the file ends after ${index + j}`);
+    const s = text(cur.bytes, t[0], t[1]);
+    if (!isNumberToken(s)) {
+      return new Error(`${where}: value ${index + j} (${cur.at(t[0])}) is ${quoted(s)}, expected a number (the section declares ${total} values)`);
+    }
+    p = t[1];
+  }
+  return new Error(`${where}: cannot parse the values (the section declares ${total})`);
+}
+
+/** Parses `out.length` text values at the cursor; failures name the value and its line. */
+function parseChunk(cur: LegacyCursor, out: NumberSink, base: number, total: number, where: string): void {
+  const start = cur.pos;
+  try {
+    cur.pos = parseNumbers(cur.bytes, start, cur.bytes.length, out, where);
+  } catch {
+    throw parseFailureFrom(cur, start, base, out.length, total, where);
+  }
+}
+
+/**
+ * Reads `out.length` text values into `out` (room already checked), checking integer targets against
+ * `range`. Values go straight into float targets and through the scratch buffer into integer ones.
+ */
+async function readAscii(cur: LegacyCursor, out: NumericArray | Int32Array, range: [number, number] | undefined, what: string, where: string, cp: Checkpoint): Promise<void> {
+  const total = out.length;
+  for (let i = 0; i < total; i += ASCII_CHUNK) {
+    const k = Math.min(ASCII_CHUNK, total - i), start = cur.pos;
+    if (!range) {
+      parseChunk(cur, out.subarray(i, i + k), i, total, where);
+    } else {
+      const s = scratchOf(k), lo = range[0], hi = range[1];
+      parseChunk(cur, s, i, total, where);
+      for (let j = 0; j < k; j++) {
+        const v = s[j]!;
+        if (!(v >= lo && v <= hi) || Math.floor(v) !== v) {
+          const t = tokenAt(cur.bytes, start, j)!;
+          throw new Error(`${where}: value ${i + j} (${cur.at(t[0])}) is ${quoted(text(cur.bytes, t[0], t[1]))}, expected ${what} in ${lo}..${hi}`);
+        }
+        out[i + j] = v;
+      }
+    }
+    await cp.at(STAGE, cur.pos);
+  }
+}
+
+/** Decodes `count` big-endian binary values starting on the line after the header. */
+function readBinary(cur: LegacyCursor, count: number, type: ElementType, where: string): NumericArray {
+  cur.toNextLine(where);
+  checkRoom(cur, count, ELEMENT_SIZE[type], where);
+  const a = decodeElements(cur.bytes, cur.pos, count, type, false, where);
+  cur.pos += count * ELEMENT_SIZE[type];
+  // Byte arrays come back as views of the file; a copy lets the file's buffer go (and be transferred alone).
+  return a.buffer === cur.bytes.buffer ? a.slice() : a;
+}
+
+/** Reads `count` values of `type` into the model's array for that type (64-bit integers as Float64Array, exact to 2^53). */
+export async function readValues(cur: LegacyCursor, count: number, type: ElementType, where: string, cp: Checkpoint): Promise<NumericArray> {
+  if (cur.binary) {
+    const a = readBinary(cur, count, type, where);
+    await cp.at(STAGE, cur.pos);
+    return a;
+  }
+  checkRoom(cur, count, 1, where);
+  const out = allocateFor(type, count);
+  const range = integerRange(type);
+  await readAscii(cur, out, range, `an integer (${type})`, where, cp);
+  return out;
+}
+
+/**
+ * Big-endian 32/64-bit integers straight into ids, checked in `min..max`. Why: cell lists are the bulk
+ * of a binary file, and the general path (aligned copy, BigInt for 64-bit, then narrowing) is several
+ * times slower for them.
+ */
+function bigEndianIds(cur: LegacyCursor, count: number, type: 'Int32' | 'Int64', where: string, min: number, max: number): Int32Array {
+  cur.toNextLine(where);
+  const size = ELEMENT_SIZE[type];
+  checkRoom(cur, count, size, where);
+  const b = cur.bytes, out = new Int32Array(count);
+  for (let i = 0, o = cur.pos; i < count; i++, o += size) {
+    let v = (b[o]! << 24) | (b[o + 1]! << 16) | (b[o + 2]! << 8) | b[o + 3]!;
+    if (size === 8) v = v * 4294967296 + (((b[o + 4]! << 24) | (b[o + 5]! << 16) | (b[o + 6]! << 8) | b[o + 7]!) >>> 0);
+    if (v < min || v > max) throw new Error(`${where}: value ${v} at index ${i} is not an id in ${min}..${max}`);
+    out[i] = v;
+  }
+  cur.pos += count * size;
+  return out;
+}
+
+/** Reads `count` integer values of `type` as ids, each checked in `min..max`. */
+export async function readIds(cur: LegacyCursor, count: number, type: ElementType, where: string, cp: Checkpoint, min = 0, max = 0x7fffffff): Promise<Int32Array> {
+  if (cur.binary) {
+    const ids = type === 'Int32' || type === 'Int64'
+      ? bigEndianIds(cur, count, type, where, min, max)
+      : toIds(readBinary(cur, count, type, where), where, min, max);
+    await cp.at(STAGE, cur.pos);
+    return ids;
+  }
+  checkRoom(cur, count, 1, where);
+  const out = new Int32Array(count);
+  await readAscii(cur, out, [min, max], 'an integer id', where, cp);
+  return out;
+}
+
+/**
+ * Reads colour scalars (`COLOR_SCALARS`): binary files hold unsigned bytes, text files floats in 0..1,
+ * which become bytes as VTK's reader makes them (×255, rounded). Returns `count` bytes.
+ */
+export async function readColors(cur: LegacyCursor, count: number, where: string, cp: Checkpoint): Promise<Uint8Array> {
+  if (cur.binary) return (await readValues(cur, count, 'UInt8', where, cp)) as Uint8Array;
+  checkRoom(cur, count, 1, where);
+  const out = new Uint8Array(count);
+  for (let i = 0; i < count; i += ASCII_CHUNK) {
+    const k = Math.min(ASCII_CHUNK, count - i), s = scratchOf(k);
+    parseChunk(cur, s, i, count, where);
+    for (let j = 0; j < k; j++) {
+      const v = Math.floor(s[j]! * 255 + 0.5);
+      out[i + j] = v < 0 ? 0 : v > 255 ? 255 : v;
+    }
+    await cp.at(STAGE, cur.pos);
+  }
+  return out;
+}
+
+/** Skips `count` values whose binary form has `binaryType` (an inline lookup table: floats as text, bytes in binary). */
+export async function skipValues(cur: LegacyCursor, count: number, binaryType: ElementType, where: string, cp: Checkpoint): Promise<void> {
+  if (cur.binary) {
+    cur.toNextLine(where);
+    checkRoom(cur, count, ELEMENT_SIZE[binaryType], where);
+    cur.pos += count * ELEMENT_SIZE[binaryType];
+    return;
+  }
+  checkRoom(cur, count, 1, where);
+  for (let i = 0; i < count; i += ASCII_CHUNK) {
+    const k = Math.min(ASCII_CHUNK, count - i);
+    parseChunk(cur, scratchOf(k), i, count, where);
+    await cp.at(STAGE, cur.pos);
+  }
+}
+
+/**
+ * Skips `count` strings of a string array. Text files hold one (%-escaped) string per line; binary files
+ * a big-endian length whose first two bits give its size (11: 6-bit length in 1 byte, 10: 14 bits in 2,
+ * 01: 30 bits in 4, 00: 62 bits in 8), then the bytes.
+ */
+export function skipStrings(cur: LegacyCursor, count: number, where: string): void {
+  cur.toNextLine(where);
+  if (count > cur.remaining + 1) {
+    throw new Error(`${where}: declares ${count} strings, but only ${cur.remaining} bytes are left (file truncated, or a wrong count)`);
+  }
+  const b = cur.bytes;
+  for (let i = 0; i < count; i++) {
+    if (!cur.binary) {
+      if (cur.line() === undefined) throw new Error(`${where}: expected ${count} strings, but the file ends after ${i}`);
+      continue;
+    }
+    if (cur.remaining < 1) throw new Error(`${where}: expected ${count} strings, but the file ends after ${i}`);
+    const first = b[cur.pos]!, kind = first >> 6, head = kind === 3 ? 1 : kind === 2 ? 2 : kind === 1 ? 4 : 8;
+    if (cur.remaining < head) throw new Error(`${where}: string ${i} has a ${head}-byte length, but the file ends`);
+    let len = first & 0x3f;
+    for (let k = 1; k < head; k++) len = len * 256 + b[cur.pos + k]!;
+    if (head + len > cur.remaining) {
+      throw new Error(`${where}: string ${i} declares ${len} bytes, but only ${cur.remaining - head} are left`);
+    }
+    cur.pos += head + len;
+  }
+}
