@@ -30,3 +30,24 @@ describe('parseNumbers', () => {
     expect(() => parseNumbers(enc('1 2'), 0, 3, new Float64Array(3), 'f.vtk: POINTS')).toThrow('expected 3 numbers, found only 2');
   });
 });
+
+describe('parseNumbers on long mantissas', () => {
+  it('16–19 significant digits and exponents up to ±44 equal Number() (shortest round-trip output, 200k values)', () => {
+    // Reference: ECMAScript Number() is correctly rounded (IEEE 754 round-to-nearest-even).
+    let seed = 12345;
+    const rand = () => { seed = (seed * 1103515245 + 12345) % 2147483648; return seed / 2147483648; };
+    const tokens: string[] = [];
+    for (let i = 0; i < 200000; i++) {
+      const v = (rand() - 0.5) * 10 ** Math.floor(rand() * 80 - 40);
+      tokens.push(i % 4 === 0 ? String(v) : i % 4 === 1 ? v.toExponential(15 + (i % 4)) : i % 4 === 2 ? v.toPrecision(17) : v.toExponential(18));
+    }
+    // Halfway cases: 2^53 + 1 and its neighbours are exact ties between two doubles.
+    tokens.push('9007199254740993', '9007199254740995', '9007199254740993.0000', '1.7976931348623157e308', '2.2250738585072014e-308');
+    const text = tokens.join('\n');
+    const out = new Float64Array(tokens.length);
+    parseNumbers(new TextEncoder().encode(text), 0, text.length, out, 't');
+    let bad = 0;
+    tokens.forEach((t, i) => { if (!Object.is(out[i], Number(t))) bad++; });
+    expect(bad).toBe(0);
+  });
+});
