@@ -34,7 +34,8 @@ export async function readDataset(name: string, bytes: Uint8Array, opts: LoadOpt
   if (format === 'legacy') return readLegacyVtk(name, bytes, opts);
   if (format === 'xml') {
     const type = xmlFileType(bytes);
-    if (type === 'PUnstructuredGrid' || type === 'PPolyData' || type === 'vtkMultiBlockDataSet') return readVtkSet(name, bytes, opts);
+    if (type === 'PUnstructuredGrid' || type === 'PPolyData' || type === 'vtkMultiBlockDataSet'
+      || type === 'vtkPartitionedDataSet' || type === 'vtkPartitionedDataSetCollection') return readVtkSet(name, bytes, opts);
     return readVtkXml(name, bytes, opts);
   }
   const start = new TextDecoder('latin1').decode(bytes.subarray(0, 40)).replace(/[^\x20-\x7e]/g, '?');

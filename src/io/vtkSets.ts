@@ -1,0 +1,158 @@
+/**
+ * Reader for multi-file VTK XML sets: `PUnstructuredGrid` (.pvtu) and `PPolyData` (.pvtp), whose
+ * `<Piece Source="…">` entries name piece files, and `vtkMultiBlockDataSet` (.vtm) — also
+ * `vtkPartitionedDataSet` (.vtpd) and `vtkPartitionedDataSetCollection` (.vtpc) — whose nested
+ * `<Block>` / `<Piece>` / `<DataSet file="…">` elements are flattened: every leaf file's pieces become
+ * pieces of one dataset, in file order. Leaves without a file are skipped. Leaf files may themselves
+ * be sets (a .pvtu named by a .vtm). Pieces may use different encodings.
+ *
+ * Files are fetched with `opts.resolve(path)`, paths relative to the set file's folder, normalised
+ * (`/` separators, no `.` or `x/..` segments).
+ */
+import type { Dataset } from '../model/dataset.ts';
+import type { FieldArray } from '../model/fieldArray.ts';
+import type { Piece } from '../model/piece.ts';
+import { checkAborted, type LoadOptions, type ResolveFile } from './loadOptions.ts';
+import { fileSettings, readVtkXmlDocument, unsupportedTypeError } from './vtkXml.ts';
+import { child, scanXml, type XmlElement } from './xmlScan.ts';
+
+const PARALLEL: Readonly<Record<string, string>> = { PUnstructuredGrid: 'UnstructuredGrid', PPolyData: 'PolyData' };
+const COMPOSITE = new Set(['vtkMultiBlockDataSet', 'vtkPartitionedDataSet', 'vtkPartitionedDataSetCollection']);
+/** Sets naming sets: deeper than this is taken for a cycle. */
+const MAX_DEPTH = 8;
+
+/** Joins a relative path onto a folder (`/`-separated), resolving `.` and `..`. Absolute paths pass through. */
+export function joinPath(folder: string, rel: string): string {
+  const r = rel.replace(/\\/g, '/');
+  if (r.startsWith('/') || /^[A-Za-z]:\//.test(r)) return r;
+  const parts = folder === '' ? [] : folder.split('/');
+  for (const seg of r.split('/')) {
+    if (seg === '' || seg === '.') continue;
+    if (seg === '..' && parts.length > 0 && parts[parts.length - 1] !== '..') parts.pop();
+    else parts.push(seg);
+  }
+  return parts.join('/');
+}
+
+/** Folder part of a `/`-separated path ('' for a bare name). */
+function folderOf(path: string): string {
+  const i = path.lastIndexOf('/');
+  return i < 0 ? '' : path.slice(0, i);
+}
+
+/** Leaf file paths of a composite set, depth first, in file order. */
+function compositeLeaves(el: XmlElement, out: string[]): string[] {
+  for (const c of el.children) {
+    if (c.name === 'DataSet') {
+      const f = c.attrs.get('file');
+      if (f) out.push(f);
+    } else {
+      compositeLeaves(c, out);
+    }
+  }
+  return out;
+}
+
+/** Arrays declared by `<PPointData>`/`<PCellData>`, for a warning when a piece lacks one. */
+function declaredNames(el: XmlElement | undefined): string[] {
+  return el ? el.children.filter((c) => c.name === 'PDataArray').map((c) => c.attrs.get('Name') ?? '').filter((n) => n !== '') : [];
+}
+
+interface Collected {
+  pieces: Piece[];
+  fieldData: FieldArray[];
+  warnings: string[];
+  fileCellTypes: Record<number, number>;
+  allPolyData: boolean;
+}
+
+async function fetchPiece(setName: string, resolve: ResolveFile, path: string): Promise<Uint8Array> {
+  try {
+    return await resolve(path);
+  } catch (e) {
+    if (e instanceof Error && e.name === 'AbortError') throw e;
+    const msg = e instanceof Error ? e.message : String(e);
+    throw new Error(`${setName}: piece file "${path}" is missing or unreadable (${msg})`);
+  }
+}
+
+/** Adds the pieces of one leaf dataset; warns about arrays the parallel set declares but the leaf lacks. */
+function addLeaf(acc: Collected, d: Dataset, path: string, declared: { point: string[]; cell: string[] } | undefined): void {
+  if (d.kind !== 'polydata') acc.allPolyData = false;
+  acc.pieces.push(...d.pieces);
+  for (const f of d.fieldData) if (!acc.fieldData.some((g) => g.name === f.name)) acc.fieldData.push(f);
+  acc.warnings.push(...d.warnings.map((w) => `${path}: ${w}`));
+  for (const [t, n] of Object.entries(d.fileCellTypes)) acc.fileCellTypes[Number(t)] = (acc.fileCellTypes[Number(t)] ?? 0) + n;
+  if (!declared) return;
+  for (const p of d.pieces) {
+    for (const [assoc, names] of [['point', declared.point], ['cell', declared.cell]] as const) {
+      const have = (assoc === 'point' ? p.pointData : p.cellData).map((f) => f.name);
+      const missing = names.filter((n) => !have.includes(n));
+      if (missing.length) acc.warnings.push(`${path}: ${assoc} arrays declared by the set are missing: ${missing.map((n) => `"${n}"`).join(', ')}`);
+    }
+  }
+}
+
+/** Leaf paths of a set file, the leaf type a parallel set requires, and the arrays it declares. */
+function setLeaves(setName: string, type: string, body: XmlElement) {
+  if (PARALLEL[type]) {
+    const leaves = body.children.filter((c) => c.name === 'Piece').map((c, k) => {
+      const src = c.attrs.get('Source');
+      if (!src) throw new Error(`${setName}: <Piece> ${k} has no Source attribute`);
+      return src;
+    });
+    const declared = { point: declaredNames(child(body, 'PPointData')), cell: declaredNames(child(body, 'PCellData')) };
+    return { leaves, expectLeafType: PARALLEL[type], declared };
+  }
+  if (COMPOSITE.has(type)) return { leaves: compositeLeaves(body, []), expectLeafType: undefined, declared: undefined };
+  throw unsupportedTypeError(setName, type);
+}
+
+async function collect(setName: string, bytes: Uint8Array, resolve: ResolveFile, opts: LoadOptions, depth: number, acc: Collected): Promise<void> {
+  const doc = scanXml(bytes, setName);
+  const { type } = fileSettings(doc, setName);
+  const body = child(doc.root, type);
+  if (!body) throw new Error(`${setName}: <VTKFile type="${type}"> has no <${type}> element`);
+  const { leaves, expectLeafType, declared } = setLeaves(setName, type, body);
+  for (let i = 0; i < leaves.length; i++) {
+    checkAborted(opts.signal, setName);
+    const path = joinPath('', leaves[i]!);
+    const leafBytes = await fetchPiece(setName, resolve, path);
+    const leafName = `${setName}: ${path}`;
+    const leafDoc = scanXml(leafBytes, leafName);
+    const leafType = fileSettings(leafDoc, leafName).type;
+    if (expectLeafType && leafType !== expectLeafType) {
+      throw new Error(`${leafName}: piece file holds "${leafType}", but a ${type} set needs "${expectLeafType}" pieces`);
+    }
+    if (PARALLEL[leafType] || COMPOSITE.has(leafType)) {
+      if (depth >= MAX_DEPTH) throw new Error(`${leafName}: sets nested more than ${MAX_DEPTH} deep (does a set name itself?)`);
+      const folder = folderOf(path);
+      await collect(leafName, leafBytes, (p) => resolve(joinPath(folder, p)), opts, depth + 1, acc);
+      continue;
+    }
+    const progress = opts.onProgress;
+    const leafOpts: LoadOptions = {
+      ...(opts.signal ? { signal: opts.signal } : {}),
+      ...(progress ? { onProgress: (p) => progress({ ...p, stage: `piece ${i + 1} of ${leaves.length}: ${p.stage}` }) } : {}),
+    };
+    addLeaf(acc, await readVtkXmlDocument(leafName, leafBytes, leafDoc, leafOpts), path, declared);
+  }
+  if (leaves.length === 0) acc.warnings.push(`${setName}: the set names no piece files (empty dataset)`);
+}
+
+/**
+ * Reads a multi-file set (.pvtu, .pvtp, .vtm, .vtpd, .vtpc) from the set file's bytes, fetching pieces
+ * with `opts.resolve` (required). Errors name the set file and the piece file. Mixed unstructured and
+ * polygonal leaves give an 'unstructured' dataset; coordinates and fields are in the files' units.
+ */
+export async function readVtkSet(name: string, bytes: Uint8Array, opts: LoadOptions = {}): Promise<Dataset> {
+  const resolve = opts.resolve;
+  if (!resolve) throw new Error(`${name}: a multi-file set needs its piece files, but no way to fetch them was given (LoadOptions.resolve)`);
+  const acc: Collected = { pieces: [], fieldData: [], warnings: [], fileCellTypes: {}, allPolyData: true };
+  await collect(name, bytes, resolve, opts, 0, acc);
+  return {
+    source: name,
+    kind: acc.allPolyData && acc.pieces.length > 0 ? 'polydata' : 'unstructured',
+    pieces: acc.pieces, fieldData: acc.fieldData, warnings: acc.warnings, fileCellTypes: acc.fileCellTypes,
+  };
+}

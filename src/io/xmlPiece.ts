@@ -1,0 +1,161 @@
+/**
+ * One `<Piece>` of a VTK XML UnstructuredGrid or PolyData file → a validated model piece.
+ *
+ * Unstructured: `<Points>`, `<Cells>` (`connectivity`, `offsets` holding each cell's end, `types`, and
+ * polyhedron faces in either VTK layout), `<PointData>`, `<CellData>`. Polygonal data: `<Verts>`,
+ * `<Lines>`, `<Strips>`, `<Polys>` (each `connectivity` + `offsets`), stored as typed cells in VTK's
+ * order (verts, lines, polys, strips), which is also the order of its cell data.
+ */
+import type { Piece, PolyFaces } from '../model/piece.ts';
+import { validatePiece } from '../model/validate.ts';
+import { linearizeCells, polyDataCells, type PolySection } from './cellAssembly.ts';
+import { toFloat64 } from './elementTypes.ts';
+import { arrayLabel, componentsOf, intAttr, readDataArray, readIdDataArray, type XmlFileContext } from './xmlArrays.ts';
+import { readSectionFields } from './xmlFields.ts';
+import { facesFromStream, facesFromTables } from './xmlPolyhedra.ts';
+import { child, type XmlElement } from './xmlScan.ts';
+
+/** A piece with what the file declared about its cells. */
+export interface PieceResult {
+  piece: Piece;
+  /** Cell-type counts as declared (before higher-order cells were linearised). */
+  fileCellTypes: Record<number, number>;
+  warnings: string[];
+}
+
+const MAX_COUNT = 0x7fffffff;
+
+function countAttr(el: XmlElement, attr: string, where: string, required: boolean): number {
+  const v = intAttr(el, attr, where);
+  if (v === undefined) {
+    if (required) throw new Error(`${where}: <Piece> has no ${attr} attribute`);
+    return 0;
+  }
+  if (v > MAX_COUNT) throw new Error(`${where}: ${attr}="${v}" exceeds the ${MAX_COUNT} items a piece can hold`);
+  return v;
+}
+
+/** The DataArray child of `sec` named one of `names` (first match). */
+function namedArray(sec: XmlElement, names: readonly string[]): XmlElement | undefined {
+  return sec.children.find((c) => c.name === 'DataArray' && names.includes(c.attrs.get('Name') ?? ''));
+}
+
+async function readIdArray(ctx: XmlFileContext, sec: XmlElement, names: readonly string[], where: string, expected: number | undefined, min = 0): Promise<Int32Array> {
+  const el = namedArray(sec, names);
+  if (!el) throw new Error(`${where}: <${sec.name}> has no DataArray named "${names[0]}"`);
+  return readIdDataArray(ctx, el, `${where}: ${arrayLabel(el, names[0]!)}`, expected, min);
+}
+
+/** Cell end offsets as in the file → model offsets (leading 0), checking they never decrease. */
+function startOffsets(ends: Int32Array, where: string): Int32Array {
+  const out = new Int32Array(ends.length + 1);
+  let prev = 0;
+  for (let i = 0; i < ends.length; i++) {
+    const e = ends[i]!;
+    if (e < prev) throw new Error(`${where}: offsets entry ${i} is ${e}, less than the previous end ${prev}`);
+    out[i + 1] = prev = e;
+  }
+  return out;
+}
+
+async function readPoints(ctx: XmlFileContext, pieceEl: XmlElement, nPts: number, where: string): Promise<Float64Array> {
+  const sec = child(pieceEl, 'Points');
+  const da = sec && child(sec, 'DataArray');
+  if (!da) {
+    if (nPts === 0) return new Float64Array(0);
+    throw new Error(`${where}: NumberOfPoints="${nPts}" but the piece has no <Points> DataArray`);
+  }
+  const label = `${where}: ${arrayLabel(da, 'Points')}`;
+  const nc = componentsOf(da, label);
+  if (nc !== 3) throw new Error(`${label}: points have ${nc} components, expected 3`);
+  const { values } = await readDataArray(ctx, da, label, nPts * 3);
+  return toFloat64(values);
+}
+
+const SNAKE = {
+  faceConnectivity: ['face_connectivity', 'FaceConnectivity'],
+  faceOffsets: ['face_offsets', 'FaceOffsets'],
+  polyhedronToFaces: ['polyhedron_to_faces', 'PolyhedronToFaces'],
+  polyhedronOffsets: ['polyhedron_offsets', 'PolyhedronOffsets'],
+} as const;
+
+async function readPolyFaces(ctx: XmlFileContext, cells: XmlElement, types: ArrayLike<number>, where: string): Promise<PolyFaces> {
+  const nCells = types.length;
+  if (namedArray(cells, ['faceoffsets'])) {
+    const ends = await readIdArray(ctx, cells, ['faceoffsets'], where, nCells, -1);
+    let max = 0;
+    for (let i = 0; i < ends.length; i++) if (ends[i]! > max) max = ends[i]!;
+    const faces = await readIdArray(ctx, cells, ['faces'], where, max, -1);
+    return facesFromStream(types, faces, ends, where);
+  }
+  if (namedArray(cells, SNAKE.polyhedronOffsets)) {
+    const polyhedronEnds = await readIdArray(ctx, cells, SNAKE.polyhedronOffsets, where, nCells);
+    const polyhedronToFaces = await readIdArray(ctx, cells, SNAKE.polyhedronToFaces, where, nCells > 0 ? polyhedronEnds[nCells - 1]! : 0);
+    const faceEnds = await readIdArray(ctx, cells, SNAKE.faceOffsets, where, undefined);
+    const faceConnectivity = await readIdArray(ctx, cells, SNAKE.faceConnectivity, where, faceEnds.length > 0 ? faceEnds[faceEnds.length - 1]! : 0);
+    return facesFromTables(types, { faceConnectivity, faceEnds, polyhedronToFaces, polyhedronEnds }, where);
+  }
+  throw new Error(`${where}: the piece has polyhedron cells (type 42) but <Cells> holds no "faces"/"faceoffsets" or "polyhedron_offsets" arrays`);
+}
+
+async function readUnstructuredCells(ctx: XmlFileContext, pieceEl: XmlElement, nCells: number, where: string) {
+  const cells = child(pieceEl, 'Cells');
+  if (!cells) {
+    if (nCells === 0) return { lin: linearizeCells(new Uint8Array(0), new Int32Array(1), new Int32Array(0), where), polyFaces: undefined };
+    throw new Error(`${where}: NumberOfCells="${nCells}" but the piece has no <Cells> section`);
+  }
+  const typesEl = namedArray(cells, ['types']);
+  if (!typesEl) throw new Error(`${where}: <Cells> has no DataArray named "types"`);
+  const { values: types } = await readDataArray(ctx, typesEl, `${where}: ${arrayLabel(typesEl, 'types')}`, nCells);
+  const offsets = startOffsets(await readIdArray(ctx, cells, ['offsets'], where, nCells), `${where}: DataArray "offsets"`);
+  const connectivity = await readIdArray(ctx, cells, ['connectivity'], where, offsets[nCells]!);
+  const lin = linearizeCells(types, offsets, connectivity, where);
+  let polyFaces: PolyFaces | undefined;
+  if (lin.fileCellTypes[42]) polyFaces = await readPolyFaces(ctx, cells, types, where);
+  return { lin, polyFaces };
+}
+
+const POLY_SECTIONS = [['Verts', 'verts'], ['Lines', 'lines'], ['Strips', 'strips'], ['Polys', 'polys']] as const;
+
+async function readPolyDataCells(ctx: XmlFileContext, pieceEl: XmlElement, where: string) {
+  const sections: PolySection[] = [];
+  for (const [tag, kind] of POLY_SECTIONS) {
+    const n = countAttr(pieceEl, `NumberOf${tag}`, where, false);
+    if (n === 0) continue;
+    const sec = child(pieceEl, tag);
+    if (!sec) throw new Error(`${where}: NumberOf${tag}="${n}" but the piece has no <${tag}> section`);
+    const sw = `${where}: ${tag}`;
+    const offsets = startOffsets(await readIdArray(ctx, sec, ['offsets'], sw, n), `${sw}: DataArray "offsets"`);
+    const connectivity = await readIdArray(ctx, sec, ['connectivity'], sw, offsets[n]!);
+    sections.push({ kind, offsets, connectivity });
+  }
+  const cells = polyDataCells(sections);
+  return linearizeCells(cells.cellTypes, cells.offsets, cells.connectivity, where);
+}
+
+/**
+ * Reads piece number `index` (`pieceEl`) of an UnstructuredGrid (`kind` 'unstructured') or PolyData
+ * ('polydata') file and validates it. Messages start with `file: piece k`.
+ */
+export async function readXmlPiece(ctx: XmlFileContext, pieceEl: XmlElement, kind: 'unstructured' | 'polydata', index: number): Promise<PieceResult> {
+  const where = `${ctx.name}: piece ${index}`;
+  const nPts = countAttr(pieceEl, 'NumberOfPoints', where, true);
+  const points = await readPoints(ctx, pieceEl, nPts, where);
+  let lin, polyFaces: PolyFaces | undefined;
+  if (kind === 'unstructured') {
+    const nCells = countAttr(pieceEl, 'NumberOfCells', where, true);
+    ({ lin, polyFaces } = await readUnstructuredCells(ctx, pieceEl, nCells, where));
+  } else {
+    lin = await readPolyDataCells(ctx, pieceEl, where);
+  }
+  const nCells = lin.cellTypes.length;
+  const pointData = await readSectionFields(ctx, child(pieceEl, 'PointData'), 'point', nPts, where);
+  const cellData = await readSectionFields(ctx, child(pieceEl, 'CellData'), 'cell', nCells, where);
+  const piece: Piece = {
+    points, cellTypes: lin.cellTypes, offsets: lin.offsets, connectivity: lin.connectivity,
+    ...(polyFaces ? { polyFaces } : {}),
+    pointData, cellData,
+  };
+  validatePiece(piece, where);
+  return { piece, fileCellTypes: lin.fileCellTypes, warnings: lin.warnings.map((w) => `piece ${index}: ${w}`) };
+}

@@ -1,0 +1,250 @@
+/**
+ * A minimal tag scanner for VTK XML files, working on bytes. It builds a small tree of the elements
+ * (names, attributes, children) and records where each element's text lies, but never turns the file
+ * into a string or a DOM: inline array data are left in place as byte ranges, and scanning stops at
+ * `<AppendedData>`, whose raw bytes may hold anything.
+ *
+ * Supported XML: start/end/empty tags, attributes in single or double quotes with the five predefined
+ * entities and numeric character references, comments, processing instructions and `<!DOCTYPE …>`.
+ * CDATA sections are refused (VTK never writes them).
+ */
+
+/** One element: name, attributes, children, and the byte range of its trailing text. */
+export interface XmlElement {
+  readonly name: string;
+  readonly attrs: ReadonlyMap<string, string>;
+  readonly children: XmlElement[];
+  /**
+   * Byte range `[textStart, textEnd)` of the element's first non-blank run of text between tags (for a
+   * DataArray, its inline data, whether written before or after `<InformationKey>` children). Empty
+   * (`textStart === textEnd`) when the element holds no text.
+   */
+  textStart: number;
+  textEnd: number;
+  /** Byte offset of the start tag, for messages. */
+  readonly at: number;
+}
+
+/** The `<AppendedData>` section: `start` is the byte after the `_` marker; data offsets count from there. */
+export interface AppendedSection {
+  readonly encoding: 'raw' | 'base64';
+  readonly start: number;
+  /** First byte after the data (the `<` of `</AppendedData>`). */
+  readonly end: number;
+}
+
+export interface XmlDocument {
+  readonly root: XmlElement;
+  readonly appended?: AppendedSection;
+}
+
+const LT = 60, GT = 62, SLASH = 47, QMARK = 63, BANG = 33, EQ = 61, UNDERSCORE = 95;
+const isSpace = (c: number) => c === 32 || c === 10 || c === 13 || c === 9;
+const utf8 = new TextDecoder('utf-8');
+const TAIL_SEARCH = 4096;
+
+/** Position of the byte sequence `seq` in `bytes` at or after `from`, or −1. */
+export function findBytes(bytes: Uint8Array, seq: Uint8Array, from: number, to = bytes.length): number {
+  const first = seq[0]!, n = seq.length;
+  let i = bytes.indexOf(first, from);
+  while (i >= 0 && i + n <= to) {
+    let k = 1;
+    while (k < n && bytes[i + k] === seq[k]) k++;
+    if (k === n) return i;
+    i = bytes.indexOf(first, i + 1);
+  }
+  return -1;
+}
+
+/** Last position of `seq` in `bytes[from, to)`, or −1. */
+function findBytesBackward(bytes: Uint8Array, seq: Uint8Array, from: number, to: number): number {
+  const n = seq.length;
+  for (let i = to - n; i >= from; i--) {
+    let k = 0;
+    while (k < n && bytes[i + k] === seq[k]) k++;
+    if (k === n) return i;
+  }
+  return -1;
+}
+
+const ascii = (s: string) => Uint8Array.from(s, (c) => c.charCodeAt(0));
+const PI_END = ascii('?>'), COMMENT_END = ascii('-->'), CDATA = ascii('<![CDATA[');
+const APPENDED_CLOSE = ascii('</AppendedData>'), FILE_CLOSE = ascii('</VTKFile>');
+
+function latin1(bytes: Uint8Array, start: number, end: number): string {
+  let s = '';
+  for (let i = start; i < end; i++) s += String.fromCharCode(bytes[i]!);
+  return s;
+}
+
+const ENTITIES: Readonly<Record<string, string>> = { amp: '&', lt: '<', gt: '>', quot: '"', apos: "'" };
+
+function decodeEntities(s: string): string {
+  if (!s.includes('&')) return s;
+  return s.replace(/&(#x[0-9a-fA-F]+|#[0-9]+|[a-z]+);/g, (m, e: string) => {
+    if (e[0] === '#') {
+      const code = e[1] === 'x' ? parseInt(e.slice(2), 16) : parseInt(e.slice(1), 10);
+      return code > 0 && code <= 0x10ffff ? String.fromCodePoint(code) : m;
+    }
+    return ENTITIES[e] ?? m;
+  });
+}
+
+/** Whether `bytes[start, end)` holds anything but whitespace (stops at the first such byte). */
+function hasText(bytes: Uint8Array, start: number, end: number): boolean {
+  for (let i = start; i < end; i++) if (!isSpace(bytes[i]!)) return true;
+  return false;
+}
+
+/** Error for a file that ends before the structure does. */
+function truncated(where: string, what: string): Error {
+  return new Error(`${where}: file ends ${what}; expected the rest of the XML (is the file truncated?)`);
+}
+
+interface StartTag { el: XmlElement; end: number; selfClosing: boolean }
+
+/** Reads a start tag at `lt` (the `<`): name and attributes. */
+function readStartTag(bytes: Uint8Array, lt: number, where: string): StartTag {
+  const n = bytes.length;
+  let p = lt + 1;
+  while (p < n && !isSpace(bytes[p]!) && bytes[p] !== GT && bytes[p] !== SLASH) p++;
+  if (p >= n) throw truncated(where, `inside a tag at byte ${lt}`);
+  const name = latin1(bytes, lt + 1, p);
+  if (name.length === 0) throw new Error(`${where}: empty tag name at byte ${lt}`);
+  const attrs = new Map<string, string>();
+  for (;;) {
+    while (p < n && isSpace(bytes[p]!)) p++;
+    if (p >= n) throw truncated(where, `inside the <${name}> tag at byte ${lt}`);
+    const c = bytes[p]!;
+    if (c === GT) {
+      const el: XmlElement = { name, attrs, children: [], textStart: p + 1, textEnd: p + 1, at: lt };
+      return { el, end: p + 1, selfClosing: false };
+    }
+    if (c === SLASH) {
+      if (bytes[p + 1] !== GT) {
+        if (p + 1 >= n) throw truncated(where, `inside the <${name}> tag at byte ${lt}`);
+        throw new Error(`${where}: expected "/>" in the <${name}> tag at byte ${p}`);
+      }
+      const el: XmlElement = { name, attrs, children: [], textStart: p + 2, textEnd: p + 2, at: lt };
+      return { el, end: p + 2, selfClosing: true };
+    }
+    const a0 = p;
+    while (p < n && !isSpace(bytes[p]!) && bytes[p] !== EQ && bytes[p] !== GT && bytes[p] !== SLASH) p++;
+    const aname = latin1(bytes, a0, p);
+    while (p < n && isSpace(bytes[p]!)) p++;
+    if (p >= n) throw truncated(where, `inside the <${name}> tag at byte ${lt}`);
+    if (bytes[p] !== EQ) throw new Error(`${where}: attribute "${aname}" of <${name}> at byte ${a0} has no value (expected =)`);
+    p++;
+    while (p < n && isSpace(bytes[p]!)) p++;
+    if (p >= n) throw truncated(where, `inside the <${name}> tag at byte ${lt}`);
+    const q = bytes[p]!;
+    if (q !== 34 && q !== 39) throw new Error(`${where}: value of attribute "${aname}" of <${name}> at byte ${p} is not quoted`);
+    const close = bytes.indexOf(q, p + 1);
+    if (close < 0) throw truncated(where, `inside the value of attribute "${aname}" of <${name}> at byte ${p}`);
+    attrs.set(aname, decodeEntities(utf8.decode(bytes.subarray(p + 1, close))));
+    p = close + 1;
+  }
+}
+
+/** Locates the appended data after the `<AppendedData …>` start tag ending at `end`. */
+function appendedSection(bytes: Uint8Array, el: XmlElement, end: number, where: string): AppendedSection {
+  const enc = el.attrs.get('encoding') ?? 'raw';
+  if (enc !== 'raw' && enc !== 'base64') {
+    throw new Error(`${where}: <AppendedData encoding="${enc}"> is not supported (expected "raw" or "base64")`);
+  }
+  let p = end;
+  while (p < bytes.length && isSpace(bytes[p]!)) p++;
+  if (p >= bytes.length) throw truncated(where, 'right after <AppendedData>');
+  if (bytes[p] !== UNDERSCORE) {
+    throw new Error(`${where}: appended data must start with "_", found "${String.fromCharCode(bytes[p]!)}" at byte ${p}`);
+  }
+  const start = p + 1;
+  let dataEnd: number;
+  if (enc === 'base64') {
+    dataEnd = bytes.indexOf(LT, start);
+    if (dataEnd < 0 || findBytes(bytes, APPENDED_CLOSE, dataEnd, dataEnd + APPENDED_CLOSE.length) !== dataEnd) {
+      throw truncated(where, 'inside the base64 appended data (no </AppendedData> after it)');
+    }
+  } else {
+    // Raw bytes may contain anything, so the closing tag is found from the end of the file.
+    dataEnd = findBytesBackward(bytes, APPENDED_CLOSE, Math.max(start, bytes.length - TAIL_SEARCH), bytes.length);
+    if (dataEnd < 0) throw truncated(where, 'inside the raw appended data (no </AppendedData> at the end)');
+  }
+  if (findBytes(bytes, FILE_CLOSE, dataEnd) < 0) throw truncated(where, 'before </VTKFile>');
+  return { encoding: enc, start, end: dataEnd };
+}
+
+/**
+ * Scans a VTK XML file's structure. `where` (the file name) prefixes every error. Throws on malformed or
+ * truncated XML with the byte position.
+ */
+export function scanXml(bytes: Uint8Array, where: string): XmlDocument {
+  const stack: XmlElement[] = [];
+  let root: XmlElement | undefined;
+  let pos = 0;
+  for (;;) {
+    const lt = bytes.indexOf(LT, pos);
+    if (lt < 0) break;
+    const top = stack[stack.length - 1];
+    if (top && top.textStart === top.textEnd && lt > pos && hasText(bytes, pos, lt)) {
+      top.textStart = pos;
+      top.textEnd = lt;
+    }
+    const c = bytes[lt + 1];
+    if (c === undefined) throw truncated(where, `inside a tag at byte ${lt}`);
+    if (c === QMARK) {
+      const e = findBytes(bytes, PI_END, lt + 2);
+      if (e < 0) throw truncated(where, `inside a <?…?> instruction at byte ${lt}`);
+      pos = e + 2;
+      continue;
+    }
+    if (c === BANG) {
+      if (bytes[lt + 2] === 45 && bytes[lt + 3] === 45) {
+        const e = findBytes(bytes, COMMENT_END, lt + 4);
+        if (e < 0) throw truncated(where, `inside a comment at byte ${lt}`);
+        pos = e + 3;
+      } else if (findBytes(bytes, CDATA, lt, lt + CDATA.length) === lt) {
+        throw new Error(`${where}: CDATA section at byte ${lt} is not supported in VTK XML files`);
+      } else {
+        const e = bytes.indexOf(GT, lt);
+        if (e < 0) throw truncated(where, `inside a <!…> declaration at byte ${lt}`);
+        pos = e + 1;
+      }
+      continue;
+    }
+    if (c === SLASH) {
+      const e = bytes.indexOf(GT, lt);
+      if (e < 0) throw truncated(where, `inside a closing tag at byte ${lt}`);
+      const name = latin1(bytes, lt + 2, e).trim();
+      const open = stack.pop();
+      if (!open) throw new Error(`${where}: closing tag </${name}> at byte ${lt} has no matching start tag`);
+      if (open.name !== name) throw new Error(`${where}: closing tag </${name}> at byte ${lt} does not match <${open.name}> opened at byte ${open.at}`);
+      pos = e + 1;
+      continue;
+    }
+    const { el, end, selfClosing } = readStartTag(bytes, lt, where);
+    const parent = stack[stack.length - 1];
+    if (parent) parent.children.push(el);
+    else if (root) throw new Error(`${where}: a second top-level element <${el.name}> at byte ${lt}`);
+    else root = el;
+    pos = end;
+    if (el.name === 'AppendedData') {
+      if (!parent) throw new Error(`${where}: <AppendedData> at byte ${lt} is outside <VTKFile>`);
+      return { root: root!, appended: appendedSection(bytes, el, end, where) };
+    }
+    if (!selfClosing) stack.push(el);
+  }
+  if (stack.length > 0) throw truncated(where, `inside <${stack[stack.length - 1]!.name}> opened at byte ${stack[stack.length - 1]!.at}`);
+  if (!root) throw new Error(`${where}: no XML element found (expected <VTKFile …>)`);
+  return { root };
+}
+
+/** The first child element with the given name, or undefined. */
+export function child(el: XmlElement, name: string): XmlElement | undefined {
+  return el.children.find((c) => c.name === name);
+}
+
+/** All child elements with the given name. */
+export function childrenNamed(el: XmlElement, name: string): XmlElement[] {
+  return el.children.filter((c) => c.name === name);
+}
