@@ -43,8 +43,23 @@ function alignedCopy(bytes: Uint8Array, offset: number, count: number, size: num
   const out = new Uint8Array(n);
   if (littleEndian === HOST_LITTLE || size === 1) {
     out.set(bytes.subarray(offset, offset + n));
+    return out.buffer;
+  }
+  // Swap by whole words through a DataView: several times faster than byte by byte.
+  const dv = new DataView(bytes.buffer, bytes.byteOffset + offset, n);
+  if (size === 2) {
+    const o16 = new Uint16Array(out.buffer);
+    for (let i = 0; i < count; i++) o16[i] = dv.getUint16(2 * i, littleEndian);
+  } else if (size === 4) {
+    const o32 = new Uint32Array(out.buffer);
+    for (let i = 0; i < count; i++) o32[i] = dv.getUint32(4 * i, littleEndian);
   } else {
-    for (let i = 0; i < n; i += size) for (let k = 0; k < size; k++) out[i + k] = bytes[offset + i + size - 1 - k]!;
+    const o32 = new Uint32Array(out.buffer);
+    const lo = HOST_LITTLE ? 0 : 1;
+    for (let i = 0; i < count; i++) {
+      o32[2 * i + lo] = dv.getUint32(8 * i + (littleEndian ? 0 : 4), littleEndian);
+      o32[2 * i + 1 - lo] = dv.getUint32(8 * i + (littleEndian ? 4 : 0), littleEndian);
+    }
   }
   return out.buffer;
 }
@@ -84,12 +99,21 @@ export function decodeElements(bytes: Uint8Array, offset: number, count: number,
 
 const MAX_EXACT = 2n ** 53n;
 
+/** 64-bit integers → doubles from their two 32-bit halves (no BigInt per value); beyond ±2^53 is an error. */
 function bigToFloat64(src: BigInt64Array | BigUint64Array, where: string): Float64Array {
   const out = new Float64Array(src.length);
+  const w = new Uint32Array(src.buffer, src.byteOffset, src.length * 2);
+  const signed = src instanceof BigInt64Array;
+  const lo = HOST_LITTLE ? 0 : 1;
   for (let i = 0; i < src.length; i++) {
-    const v = src[i]!;
-    if (v > MAX_EXACT || v < -MAX_EXACT) throw new Error(`${where}: 64-bit value ${v} at index ${i} is beyond ±2^53 and cannot be held exactly`);
-    out[i] = Number(v);
+    const l = w[2 * i + lo]!, h = w[2 * i + 1 - lo]!;
+    const hs = signed ? h | 0 : h;
+    // |value| ≤ 2^53 exactly when the high word lies in [-2^21, 2^21] (2^21 itself only with a zero low word).
+    if (hs > 0x200000 || hs < -0x200000 || ((hs === 0x200000) && l !== 0)) {
+      const v = src[i]!;
+      if (v > MAX_EXACT || v < -MAX_EXACT) throw new Error(`${where}: 64-bit value ${v} at index ${i} is beyond ±2^53 and cannot be held exactly`);
+    }
+    out[i] = hs * 4294967296 + l;
   }
   return out;
 }
