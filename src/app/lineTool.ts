@@ -1,0 +1,196 @@
+/**
+ * Line probes: a segment with draggable end points (or typed ones), sampled in the worker as it moves
+ * (latest request wins), drawn as a chart with a field choice and downloadable as CSV. Each line's
+ * numbers (length inside the mesh, means along it) go to the pins and the table.
+ */
+import type GUI from 'lil-gui';
+import type * as THREE from 'three';
+import type { LineReply, Vec3 } from '../../workers/api.ts';
+import { CAUTION } from '../ui/caution.ts';
+import { download } from '../ui/download.ts';
+import { formatVec } from '../ui/format.ts';
+import { LineChart, type ChartData } from '../ui/lineChart.ts';
+import type { ProbeResult, Quantity } from '../ui/results.ts';
+import { UNITS, fieldUnit } from '../ui/units.ts';
+import { LineProbeWidget } from '../view/lineProbeWidget.ts';
+import { latestWins } from './latestWins.ts';
+import type { Viewer } from './viewer.ts';
+
+/** Samples per line at first (evenly spaced, both ends included). */
+export const DEFAULT_SAMPLES = 201;
+
+interface Line {
+  id: string;
+  number: number;
+  widget: LineProbeWidget;
+  ax: number; ay: number; az: number;
+  bx: number; by: number; bz: number;
+  samples: number;
+  reply?: LineReply;
+}
+
+export class LineTool {
+  private lines: Line[] = [];
+  private current: Line | undefined;
+  private readonly folder: GUI;
+  private readonly request;
+  private dragged: Line | undefined;
+
+  constructor(private readonly v: Viewer, private readonly chart: LineChart) {
+    this.folder = v.gui.addFolder('Line probe');
+    this.request = latestWins(
+      (l: Line) => v.track(v.compute.sample({ from: [l.ax, l.ay, l.az], to: [l.bx, l.by, l.bz], samples: l.samples })),
+      (reply, l) => this.show(l, reply),
+      (e) => v.banner.error(`Line probe: ${(e as Error).message}`),
+    );
+    chart.download.onclick = () => this.downloadCsv();
+    v.onDataset(() => { for (const l of [...this.lines]) this.remove(l.id); this.buildPanel(); });
+    v.onResultRemoved((id) => this.remove(id));
+    v.addPointerTool(this.pointer());
+    this.buildPanel();
+  }
+
+  /** Adds a line across the shown geometry's centre along its shortest side, spanning the data. */
+  add(): void {
+    const b = this.v.bounds, { center } = this.v.view.extent;
+    const sides = [b[1] - b[0], b[3] - b[2], b[5] - b[4]];
+    const axis = sides.indexOf(Math.min(...sides));
+    const a: Vec3 = [center.x, center.y, center.z], e: Vec3 = [center.x, center.y, center.z];
+    a[axis] = b[2 * axis]!; e[axis] = b[2 * axis + 1]!;
+    const number = Math.max(0, ...this.lines.map((l) => l.number)) + 1;
+    const l: Line = {
+      id: `line-${number}`, number, widget: new LineProbeWidget(this.v.diagonal),
+      ax: a[0], ay: a[1], az: a[2], bx: e[0], by: e[1], bz: e[2], samples: DEFAULT_SAMPLES,
+    };
+    this.lines.push(l);
+    this.v.view.root.add(l.widget.group);
+    this.current = l;
+    this.buildPanel();
+    this.changed(l);
+  }
+
+  private remove(id: string): void {
+    const l = this.lines.find((x) => x.id === id);
+    if (!l) return;
+    this.v.view.root.remove(l.widget.group);
+    this.lines = this.lines.filter((x) => x !== l);
+    this.v.removeResult(id, false);
+    if (this.current === l) { this.current = this.lines.at(-1); this.buildPanel(); this.chart.set(this.chartData(this.current)); }
+    this.v.view.requestRender();
+  }
+
+  private changed(l: Line): void {
+    l.widget.set([l.ax, l.ay, l.az], [l.bx, l.by, l.bz]);
+    for (const c of this.folder.controllersRecursive()) c.updateDisplay();
+    this.v.view.requestRender();
+    this.request.request(l);
+  }
+
+  private show(l: Line, reply: LineReply): void {
+    if (!this.lines.includes(l)) return;
+    l.reply = reply;
+    this.v.setResult(lineResult(l, reply));
+    if (l === this.current) this.chart.set(this.chartData(l));
+  }
+
+  private chartData(l: Line | undefined): ChartData | undefined {
+    const r = l?.reply;
+    if (!l || !r || r.outside) return undefined;
+    const series: ChartData['series'] = [];
+    for (const f of r.fields) {
+      const unit = fieldUnit(f.name);
+      if (f.components > 1) {
+        const mag = new Float64Array(r.count);
+        for (let i = 0; i < r.count; i++) {
+          let s2 = 0;
+          for (const c of f.columns) s2 += c[i]! * c[i]!;
+          mag[i] = Math.sqrt(s2);
+        }
+        series.push({ label: `|${f.name}|`, unit, values: mag });
+      }
+      f.columns.forEach((c, k) => series.push({ label: f.labels[k]!, unit, values: c }));
+    }
+    return { title: `Line ${l.number}`, s: r.s, series };
+  }
+
+  private downloadCsv(): void {
+    const l = this.current, r = l?.reply;
+    if (!l || !r) return;
+    const head = ['s', 'x', 'y', 'z', 'valid', ...r.fields.flatMap((f) => f.labels)];
+    const rows = [`# fieldtally line probe ${l.number}: ${formatVec([l.ax, l.ay, l.az], 17, true)} → ${formatVec([l.bx, l.by, l.bz], 17, true)} m; ` +
+      'lengths in m, values in the file\'s units (SI assumed); samples outside the mesh have valid = 0 and empty values',
+    `# Caution: ${CAUTION}`, head.join(',')];
+    for (let i = 0; i < r.count; i++) {
+      const cells = [r.s[i], r.x[i], r.y[i], r.z[i]].map(String);
+      cells.push(String(r.valid[i]));
+      for (const f of r.fields) for (const c of f.columns) cells.push(Number.isFinite(c[i]!) ? String(c[i]) : '');
+      rows.push(cells.join(','));
+    }
+    download(`line-${l.number}.csv`, rows.join('\n') + '\n', 'text/csv');
+  }
+
+  private buildPanel(): void {
+    for (const c of [...this.folder.controllers]) c.destroy();
+    this.folder.add({ add: () => this.add() }, 'add').name('+ new line probe');
+    const l = this.current;
+    if (!l) return;
+    if (this.lines.length > 1) {
+      const opts: Record<string, string> = {};
+      for (const x of this.lines) opts[`Line ${x.number}`] = x.id;
+      this.folder.add({ which: l.id }, 'which', opts).name('editing').onChange((id: string) => {
+        this.current = this.lines.find((x) => x.id === id);
+        this.buildPanel();
+        this.chart.set(this.chartData(this.current));
+      });
+    }
+    const num = (k: 'ax' | 'ay' | 'az' | 'bx' | 'by' | 'bz', label: string) => this.folder.add(l, k).name(label).onFinishChange(() => this.changed(l));
+    num('ax', 'start x [m]'); num('ay', 'start y [m]'); num('az', 'start z [m]');
+    num('bx', 'end x [m]'); num('by', 'end y [m]'); num('bz', 'end z [m]');
+    this.folder.add(l, 'samples', 2, 5000, 1).name('samples').onFinishChange(() => this.changed(l));
+  }
+
+  private pointer() {
+    return {
+      down: (_ev: PointerEvent, ray: THREE.Raycaster): boolean => {
+        const l = this.lines.find((x) => x.widget.startDrag(ray, this.v.view.camera));
+        if (!l) return false;
+        this.dragged = l;
+        if (this.current !== l) { this.current = l; this.buildPanel(); this.chart.set(this.chartData(l)); }
+        return true;
+      },
+      move: (_ev: PointerEvent, ray: THREE.Raycaster): void => {
+        const l = this.dragged;
+        if (!l || !l.widget.drag(ray)) return;
+        [l.ax, l.ay, l.az] = l.widget.from;
+        [l.bx, l.by, l.bz] = l.widget.to;
+        this.changed(l);
+      },
+      up: (): void => { this.dragged?.widget.endDrag(); this.dragged = undefined; },
+    };
+  }
+}
+
+/** The numbers of a line for pins, table and exports. */
+function lineResult(l: Line, r: LineReply): ProbeResult {
+  const definition = `${formatVec([l.ax, l.ay, l.az])} → ${formatVec([l.bx, l.by, l.bz])} m, ${l.samples} samples`;
+  const mid: Vec3 = [(l.ax + l.bx) / 2, (l.ay + l.by) / 2, (l.az + l.bz) / 2];
+  const base = { id: l.id, kind: 'line' as const, label: `Line ${l.number}`, anchor: [l.bx, l.by, l.bz] as Vec3, definition, pinVisible: true };
+  if (r.outside) return { ...base, anchor: mid, quantities: [], note: 'the line lies wholly outside the mesh: no samples' };
+  const q: Quantity[] = [
+    { key: 'length', label: 'L', value: r.length, unit: UNITS.length, pinned: false },
+    { key: 'coveredLength', label: 'L inside the mesh', value: r.stats.coveredLength, unit: UNITS.length, pinned: true },
+  ];
+  let pinnedMeans = 0;
+  for (const s of r.stats.series) {
+    if (s.component >= 0 && r.fields.find((f) => f.name === s.field)!.components > 1) {
+      q.push({ key: `${s.label}.mean`, label: `${s.label} mean`, value: s.stats.mean, unit: fieldUnit(s.field), pinned: false });
+      continue;
+    }
+    const unit = fieldUnit(s.field);
+    q.push({ key: `${s.label}.mean`, label: `${s.label} mean`, value: s.stats.mean, unit, pinned: pinnedMeans++ < 2 });
+    q.push({ key: `${s.label}.min`, label: `${s.label} min`, value: s.stats.min, unit, pinned: false });
+    q.push({ key: `${s.label}.max`, label: `${s.label} max`, value: s.stats.max, unit, pinned: false });
+  }
+  const gaps = r.stats.gaps.length ? `; ${r.stats.gaps.length} stretch(es) outside the mesh left out` : '';
+  return { ...base, quantities: q, ...(gaps ? { note: `${r.validCount} of ${r.count} samples inside the mesh${gaps}` } : {}) };
+}

@@ -1,0 +1,58 @@
+/**
+ * Entry of the viewer page: builds the viewer and its tools, wires the file inputs, and opens the
+ * bundled sample field (served from this origin, like every other asset).
+ */
+import '../ui/styles.css';
+import sampleUrl from '../../sample-fields/sphere-stokes.vtu?url';
+import { startCompute } from './computeClient.ts';
+import { loadRequestFor } from './fileChoice.ts';
+import { ExportTool } from './exportTool.ts';
+import { ForceTool } from './forceTool.ts';
+import { LineTool } from './lineTool.ts';
+import { PlaneTool } from './planeTool.ts';
+import { LineChart } from '../ui/lineChart.ts';
+import { Viewer } from './viewer.ts';
+
+/** The bundled sample opened at start (slow viscous flow past a small sphere; see sample-fields/). */
+const SAMPLE_NAME = 'sphere-stokes.vtu';
+
+const $ = <T extends HTMLElement>(id: string): T => document.getElementById(id) as T;
+
+const viewer = new Viewer(startCompute(), {
+  canvas: $('view-canvas'), overlay: $('overlay'), side: $('side'), tools: $('view-tools'),
+  results: $('results-pane'), progress: $('progress-host'), summary: $('file-summary'),
+});
+
+const planes = new PlaneTool(viewer);
+new LineTool(viewer, new LineChart($('chart-pane')));
+new ForceTool(viewer);
+new ExportTool(viewer, viewer.gui);
+
+for (const id of ['file-input', 'folder-input']) {
+  const input = $<HTMLInputElement>(id);
+  input.addEventListener('change', () => {
+    const files = [...(input.files ?? [])];
+    input.value = '';
+    if (files.length === 0) return;
+    performance.mark('fieldtally:files-chosen');
+    try {
+      void viewer.load(loadRequestFor(files));
+    } catch (e) {
+      viewer.banner.error(`Could not open the files: ${(e as Error).message}`);
+    }
+  });
+}
+$('about-button').addEventListener('click', () => viewer.about.open());
+
+/** Inspection hook for the browser tests: where the cut-plane's drag knob is on screen (CSS pixels of the page). */
+(window as unknown as { __fieldtally: unknown }).__fieldtally = {
+  knobScreen(): [number, number] | undefined {
+    const k = planes.knobPosition();
+    if (!k) return undefined;
+    const p = viewer.view.project(k), r = viewer.view.canvas.getBoundingClientRect();
+    return [r.left + p.x, r.top + p.y];
+  },
+};
+
+document.body.dataset['state'] = 'empty';
+void viewer.load({ kind: 'url', url: new URL(sampleUrl, document.baseURI).href, name: SAMPLE_NAME });

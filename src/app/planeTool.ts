@@ -1,0 +1,261 @@
+/**
+ * Cut-planes: placed by typed origin and normal, slid along the normal (slider, or dragging the knob
+ * or the cut in the view) with live recomputation, optionally restricted to one passage by a seed
+ * point picked on the plane. Each plane's numbers go to the pins and the table.
+ */
+import type GUI from 'lil-gui';
+import type * as THREE from 'three';
+import type { CutReply, Vec3 } from '../../workers/api.ts';
+import { formatNumber, formatVec } from '../ui/format.ts';
+import type { ProbeResult, Quantity } from '../ui/results.ts';
+import { UNITS, fieldUnit } from '../ui/units.ts';
+import { CutPlaneLayer } from '../view/cutPlaneLayer.ts';
+import { latestWins } from './latestWins.ts';
+import type { Viewer } from './viewer.ts';
+
+/** Density offered at first: water at 20 °C, 998.207 kg/m³ (REFERENCES §10, IAPWS-95). */
+export const DEFAULT_DENSITY = 998.207;
+
+interface Plane {
+  id: string;
+  number: number;
+  layer: CutPlaneLayer;
+  ox: number; oy: number; oz: number;
+  nx: number; ny: number; nz: number;
+  seed: Vec3 | undefined;
+  /** Last computed reply (kept for exports). */
+  reply?: CutReply;
+}
+
+export class PlaneTool {
+  private planes: Plane[] = [];
+  private current: Plane | undefined;
+  private readonly folder: GUI;
+  private readonly settings = {
+    density: DEFAULT_DENSITY,
+    velocity: '',
+    pressure: '',
+    slide: 0,
+    pickingSeed: false,
+  };
+  private readonly request;
+  private drag: { t0: number; origin: Vec3 } | undefined;
+
+  constructor(private readonly v: Viewer) {
+    this.folder = v.gui.addFolder('Cut-plane');
+    this.request = latestWins(
+      (p: Plane) => v.track(v.compute.cut({
+        origin: [p.ox, p.oy, p.oz], normal: [p.nx, p.ny, p.nz], ...(p.seed ? { seed: p.seed } : {}),
+        ...(v.colorChoice ? { color: v.colorChoice } : {}),
+        velocity: this.settings.velocity, pressure: this.settings.pressure, rho: this.settings.density,
+      })),
+      (reply, p) => this.show(p, reply),
+      (e) => v.banner.error(`Cut-plane: ${(e as Error).message}`),
+    );
+    v.onDataset(() => this.reset());
+    v.onColor(() => { for (const p of this.planes) this.request.request(p); });
+    v.onColorSettings(() => this.applyColorSettings());
+    v.onResultRemoved((id) => this.remove(id));
+    v.addPointerTool(this.pointer());
+    this.buildPanel();
+  }
+
+  private reset(): void {
+    for (const p of [...this.planes]) this.remove(p.id);
+    this.settings.velocity = '';
+    this.settings.pressure = '';
+    this.buildPanel();
+  }
+
+  /** World position of the current plane's drag knob, or undefined without a plane. */
+  knobPosition(): Vec3 | undefined {
+    return this.current?.layer.knobPosition;
+  }
+
+  /** Adds a plane through the middle of the shown geometry, normal along the longest side of its box. */
+  add(): void {
+    const b = this.v.bounds, { center } = this.v.view.extent;
+    const sides = [b[1] - b[0], b[3] - b[2], b[5] - b[4]];
+    const axis = sides.indexOf(Math.max(...sides));
+    const number = Math.max(0, ...this.planes.map((p) => p.number)) + 1;
+    const p: Plane = {
+      id: `plane-${number}`, number, layer: new CutPlaneLayer(this.v.colorMap, this.v.diagonal),
+      ox: center.x, oy: center.y, oz: center.z, nx: axis === 0 ? 1 : 0, ny: axis === 1 ? 1 : 0, nz: axis === 2 ? 1 : 0, seed: undefined,
+    };
+    this.planes.push(p);
+    this.v.view.root.add(p.layer.group);
+    // the cut lies inside the walls: let it show through the first time
+    if (this.v.settings.opacity === 1) this.v.setSurfaceOpacity(0.35);
+    this.select(p);
+    this.changed();
+  }
+
+  private select(p: Plane | undefined): void {
+    this.current = p;
+    for (const q of this.planes) q.layer.setEditing(q === p);
+    this.settings.pickingSeed = false;
+    this.buildPanel();
+  }
+
+  private remove(id: string): void {
+    const p = this.planes.find((q) => q.id === id);
+    if (!p) return;
+    this.v.view.root.remove(p.layer.group);
+    p.layer.dispose();
+    this.planes = this.planes.filter((q) => q !== p);
+    this.v.removeResult(id, false);
+    if (this.current === p) this.select(this.planes.at(-1));
+    this.v.view.requestRender();
+  }
+
+  /** The current plane moved or changed: redraw its marker, recompute (latest request wins). */
+  private changed(): void {
+    const p = this.current;
+    if (!p) return;
+    const n = Math.hypot(p.nx, p.ny, p.nz);
+    if (!(n > 0)) { this.v.banner.error('Cut-plane: the normal (0, 0, 0) has no direction; type a non-zero normal.'); return; }
+    p.layer.setPlane([p.ox, p.oy, p.oz], [p.nx, p.ny, p.nz]);
+    p.layer.setSeed(p.seed);
+    this.settings.slide = (p.ox * p.nx + p.oy * p.ny + p.oz * p.nz) / n;
+    for (const c of this.folder.controllersRecursive()) c.updateDisplay();
+    this.v.view.requestRender();
+    this.request.request(p);
+  }
+
+  private show(p: Plane, reply: CutReply): void {
+    if (!this.planes.includes(p)) return;
+    p.reply = reply;
+    const colored = !!this.v.colorChoice && !!reply.drawing;
+    p.layer.setTriangles(reply.drawing, colored);
+    p.layer.material.setRange(...this.v.colorRange);
+    p.layer.material.setColorMap(this.v.colorMap);
+    this.v.setResult(planeResult(p, reply, this.settings.density));
+    this.v.view.requestRender();
+  }
+
+  /** Range and map follow the surface's. */
+  private applyColorSettings(): void {
+    for (const p of this.planes) { p.layer.material.setRange(...this.v.colorRange); p.layer.material.setColorMap(this.v.colorMap); }
+  }
+
+  private buildPanel(): void {
+    for (const c of [...this.folder.controllers]) c.destroy();
+    for (const f of [...this.folder.folders]) f.destroy();
+    this.folder.domElement.querySelectorAll('.panel-note').forEach((n) => n.remove());
+    const s = this.settings;
+    this.folder.add({ add: () => this.add() }, 'add').name('+ new cut-plane');
+    const p = this.current;
+    if (!p) return;
+    if (this.planes.length > 1) {
+      const opts: Record<string, string> = {};
+      for (const q of this.planes) opts[`Plane ${q.number}`] = q.id;
+      this.folder.add({ which: p.id }, 'which', opts).name('editing').onChange((id: string) => this.select(this.planes.find((q) => q.id === id)));
+    }
+    const num = (key: 'ox' | 'oy' | 'oz' | 'nx' | 'ny' | 'nz', label: string) =>
+      this.folder.add(p, key).name(label).onFinishChange(() => this.changed());
+    num('ox', 'origin x [m]'); num('oy', 'origin y [m]'); num('oz', 'origin z [m]');
+    num('nx', 'normal x'); num('ny', 'normal y'); num('nz', 'normal z');
+    const [lo, hi] = this.slideRange(p);
+    this.folder.add(s, 'slide', lo, hi, (hi - lo) / 1000).name('slide along normal [m]').onChange((d: number) => {
+      const n = Math.hypot(p.nx, p.ny, p.nz), cur = (p.ox * p.nx + p.oy * p.ny + p.oz * p.nz) / n, k = (d - cur) / n;
+      const r6 = (x: number) => Number(x.toPrecision(6));
+      p.ox = r6(p.ox + k * p.nx); p.oy = r6(p.oy + k * p.ny); p.oz = r6(p.oz + k * p.nz);
+      this.changed();
+    });
+    this.folder.add(s, 'density').name(`density ρ [${UNITS.density}]`).onFinishChange(() => this.recomputeAll());
+    const vectors: Record<string, string> = { '(by name)': '' }, scalars: Record<string, string> = { '(by name)': '' };
+    for (const f of this.v.fields) (f.components === 3 ? vectors : f.components === 1 ? scalars : {})[`${f.name} (${f.association})`] = `${f.association}:${f.name}`;
+    this.folder.add(s, 'velocity', vectors).name('velocity field').onChange(() => this.recomputeAll());
+    this.folder.add(s, 'pressure', scalars).name('pressure field').onChange(() => this.recomputeAll());
+    this.folder.add(s, 'pickingSeed').name('pick seed on the plane').listen();
+    this.folder.add({ clear: () => { p.seed = undefined; this.changed(); } }, 'clear').name('clear seed (whole cut)');
+    const note = document.createElement('div');
+    note.className = 'panel-note';
+    note.textContent = 'Drag the blue knob or the cut to slide the plane. A seed point keeps only the passage it lies in. Flow is positive along the normal.';
+    this.folder.domElement.querySelector('.lil-children')?.append(note);
+  }
+
+  private slideRange(p: Plane): [number, number] {
+    const b = this.v.bounds, n = Math.hypot(p.nx, p.ny, p.nz) || 1;
+    let lo = Infinity, hi = -Infinity;
+    for (const x of [b[0], b[1]]) for (const y of [b[2], b[3]]) for (const z of [b[4], b[5]]) {
+      const d = (x * p.nx + y * p.ny + z * p.nz) / n;
+      lo = Math.min(lo, d); hi = Math.max(hi, d);
+    }
+    return [Number(lo.toPrecision(6)), Number(hi.toPrecision(6))];
+  }
+
+  private recomputeAll(): void { for (const p of this.planes) this.request.request(p); }
+
+  private pointer() {
+    return {
+      down: (_ev: PointerEvent, ray: THREE.Raycaster): boolean => {
+        const p = this.current;
+        if (!p || this.settings.pickingSeed || !p.layer.grabbed(ray)) return false;
+        const t0 = p.layer.alongNormal(ray.ray);
+        if (t0 === undefined) return false;
+        this.drag = { t0, origin: [p.ox, p.oy, p.oz] };
+        return true;
+      },
+      move: (_ev: PointerEvent, ray: THREE.Raycaster): void => {
+        const p = this.current, d = this.drag;
+        if (!p || !d) return;
+        // measure along the normal line through the origin at drag start
+        p.layer.setPlane(d.origin, [p.nx, p.ny, p.nz]);
+        const t = p.layer.alongNormal(ray.ray);
+        if (t === undefined) return;
+        const n = p.layer.unitNormal, k = t - d.t0;
+        // 6 significant figures: what the panel shows is exactly what is computed
+        const r6 = (x: number) => Number(x.toPrecision(6));
+        p.ox = r6(d.origin[0] + k * n.x); p.oy = r6(d.origin[1] + k * n.y); p.oz = r6(d.origin[2] + k * n.z);
+        this.changed();
+      },
+      up: (): void => { this.drag = undefined; },
+      click: (_ev: PointerEvent, ray: THREE.Raycaster): boolean => {
+        const p = this.current;
+        if (!p || !this.settings.pickingSeed) return false;
+        const hit = p.layer.rayHit(ray.ray);
+        if (!hit) return false;
+        p.seed = [hit.x, hit.y, hit.z];
+        this.settings.pickingSeed = false;
+        this.changed();
+        return true;
+      },
+    };
+  }
+}
+
+/** The numbers of a plane for pins, table and exports. */
+function planeResult(p: Plane, r: CutReply, density: number): ProbeResult {
+  const s = r.integrals;
+  const n = r.normal;
+  const definition = `origin ${formatVec([p.ox, p.oy, p.oz])} m, normal ${formatVec(n)}` +
+    (p.seed ? `, seed ${formatVec(p.seed)} m` : '') + `, ρ = ${formatNumber(density)} kg/m³`;
+  const anchor: Vec3 = s.centroid ? [...s.centroid] : [p.ox, p.oy, p.oz];
+  const base = { id: p.id, kind: 'plane' as const, label: `Plane ${p.number}`, anchor, definition, pinVisible: true };
+  if (s.empty) return { ...base, quantities: [], note: s.reason ?? 'the plane cuts no cell' };
+  const pres = s.roles.pressure?.replace(/ \((point|cell)\)$/, '');
+  const vel = s.roles.velocity?.replace(/ \((point|cell)\)$/, '');
+  const q: Quantity[] = [];
+  const add = (key: string, label: string, value: number | null | undefined, unit: string, pinned = false) => {
+    if (value !== null && value !== undefined) q.push({ key, label, value, unit, pinned });
+  };
+  add('massFlowRate', 'ṁ', s.massFlowRate, UNITS.massFlow, true);
+  add('volumeFlowRate', 'Q', s.volumeFlowRate, UNITS.volumeFlow, true);
+  add('area', 'A', s.area, UNITS.area, true);
+  if (s.volumeFlowRate !== null && s.area) add('meanNormalVelocity', 'ū·n = Q/A', s.volumeFlowRate / s.area, UNITS.velocity);
+  if (pres) {
+    const unit = fieldUnit(pres) || UNITS.pressure;
+    add('pressureAreaMean', `${pres} area-mean`, s.areaMean[pres] as number, unit);
+    add('pressureMassMean', `${pres} mass-mean`, s.massFlowMean[pres] as number, unit);
+  }
+  if (s.totalPressure) {
+    add('totalPressureAreaMean', 'p₀ area-mean', s.totalPressure.areaMean, UNITS.pressure);
+    add('totalPressureMassMean', 'p₀ mass-mean', s.totalPressure.massFlowMean, UNITS.pressure, true);
+  }
+  if (vel) add('velocityMagnitudeMassMean', `|${vel}| mass-mean`, s.magnitudeMassFlowMean[vel], UNITS.velocity);
+  add('uniformityIndex', 'uniformity γ', s.uniformityIndex, '');
+  if (s.reverseFlow) add('reverseFlowAreaShare', 'reverse-flow area share', s.reverseFlow.areaShare, '');
+  const notes = [...s.notes, ...(r.region.length ? [`region: ${r.region.join('; ')}`] : [])];
+  return { ...base, quantities: q, ...(notes.length ? { note: notes.join('; ') } : {}) };
+}

@@ -1,0 +1,429 @@
+/**
+ * The viewer's core: loading (with progress, cancel, memory warning and error reporting), the boundary
+ * surface and its colouring, display settings, the probes' results (pins and table), and pointer
+ * dispatch to the probe tools. The tools (cut-plane, line probe, force total, export) attach to it.
+ */
+import * as Comlink from 'comlink';
+import GUI from 'lil-gui';
+import * as THREE from 'three';
+import type { Description, FieldChoice, LoadRequest } from '../../workers/api.ts';
+import type { Bounds } from '../model/bounds.ts';
+import type { LoadReport } from '../model/loadReport.ts';
+import { AboutBox } from '../ui/aboutBox.ts';
+import { Banner } from '../ui/banner.ts';
+import { formatBytes, formatNumber } from '../ui/format.ts';
+import { LegendView, type LegendState } from '../ui/legend.ts';
+import { PinOverlay } from '../ui/pins.ts';
+import { ProgressBar } from '../ui/progressBar.ts';
+import type { ProbeResult } from '../ui/results.ts';
+import { ResultsTable } from '../ui/resultsTable.ts';
+import { fieldUnit } from '../ui/units.ts';
+import { COLOR_MAPS, DEFAULT_COLOR_MAP, colorMap, type ColorMap } from '../view/colorMaps.ts';
+import { CutPlaneLayer } from '../view/cutPlaneLayer.ts';
+import { LineProbeWidget } from '../view/lineProbeWidget.ts';
+import { SurfaceLayer } from '../view/surfaceLayer.ts';
+import { ViewScene, type ViewPreset } from '../view/viewScene.ts';
+import type { Compute } from './computeClient.ts';
+import { memoryWarning, requestBytes } from './fileChoice.ts';
+
+/** A field the panel offers: `key` is `point:name` or `cell:name`. */
+export interface FieldEntry {
+  key: string;
+  name: string;
+  association: 'point' | 'cell';
+  components: number;
+  range: [number, number] | null;
+}
+
+/** A tool's share of pointer input over the view; handlers return true when they took the event. */
+export interface PointerTool {
+  down?(ev: PointerEvent, ray: THREE.Raycaster): boolean;
+  move?(ev: PointerEvent, ray: THREE.Raycaster): void;
+  up?(ev: PointerEvent, ray: THREE.Raycaster): void;
+  click?(ev: PointerEvent, ray: THREE.Raycaster): boolean;
+}
+
+const COMPONENTS = ['magnitude', 'x', 'y', 'z'] as const;
+
+export class Viewer {
+  readonly view: ViewScene;
+  readonly gui: GUI;
+  readonly banner: Banner;
+  readonly legend: LegendView;
+  readonly pins: PinOverlay;
+  readonly table: ResultsTable;
+  readonly progress: ProgressBar;
+  readonly about: AboutBox;
+  description: Description | undefined;
+  surface: SurfaceLayer | undefined;
+  fields: FieldEntry[] = [];
+  private results = new Map<string, ProbeResult>();
+  private readonly datasetListeners: ((d: Description) => void)[] = [];
+  private readonly colorListeners: (() => void)[] = [];
+  private readonly colorSettingListeners: (() => void)[] = [];
+  private readonly resultListeners: ((id: string) => void)[] = [];
+  private readonly tools: PointerTool[] = [];
+  private pending = 0;
+  private colorFolder: GUI;
+  private groupFolder: GUI | undefined;
+  /** Colour and display settings, edited by the panel. */
+  readonly settings = {
+    field: '',
+    component: 'magnitude' as (typeof COMPONENTS)[number],
+    map: DEFAULT_COLOR_MAP as string,
+    autoRange: true,
+    min: 0,
+    max: 1,
+    edges: true,
+    opacity: 1,
+  };
+  private dataRange: [number, number] = [0, 1];
+
+  constructor(readonly compute: Compute, els: { canvas: HTMLCanvasElement; overlay: HTMLElement; side: HTMLElement; tools: HTMLElement;
+    results: HTMLElement; progress: HTMLElement; summary: HTMLElement }) {
+    this.view = new ViewScene(els.canvas);
+    this.banner = new Banner(els.overlay.parentElement!);
+    this.legend = new LegendView(els.overlay);
+    this.pins = new PinOverlay(els.overlay, (p) => this.view.project(p));
+    this.view.onFrame(() => this.pins.update());
+    this.progress = new ProgressBar(els.progress);
+    this.progress.cancel.onclick = () => void this.compute.cancelLoad();
+    this.about = new AboutBox(document.body);
+    this.summary = els.summary;
+    this.table = new ResultsTable(els.results, {
+      onTogglePin: (id, on) => { const r = this.results.get(id); if (r) { r.pinVisible = on; this.refreshResults(); } },
+      onRemove: (id) => this.removeResult(id, true),
+      onCopy: () => this.emit('copy'),
+    });
+    this.table.set([]);
+    this.gui = new GUI({ container: els.side, title: 'Panel' });
+    this.colorFolder = this.gui.addFolder('Colour');
+    this.buildViewTools(els.tools);
+    this.bindPointer(els.canvas);
+    void this.view.warmUp(warmUpObjects(this.colorMap));
+  }
+
+  private readonly summary: HTMLElement;
+  private readonly handlers = new Map<string, (() => void)[]>();
+
+  /** Named UI events (e.g. `copy`) that tools handle. */
+  on(event: string, f: () => void): void { this.handlers.set(event, [...(this.handlers.get(event) ?? []), f]); }
+  private emit(event: string): void { for (const f of this.handlers.get(event) ?? []) f(); }
+
+  onDataset(f: (d: Description) => void): void { this.datasetListeners.push(f); }
+  /** The colouring field changed (values must be fetched again). */
+  onColor(f: () => void): void { this.colorListeners.push(f); }
+  /** Range or colour map changed (no new values needed). */
+  onColorSettings(f: () => void): void { this.colorSettingListeners.push(f); }
+  /** Called when a result is removed from the table (the tool drops its probe). */
+  onResultRemoved(f: (id: string) => void): void { this.resultListeners.push(f); }
+  addPointerTool(t: PointerTool): void { this.tools.push(t); }
+
+  /** Marks work in progress for the page's `data-busy` attribute (tests wait on it). */
+  async track<T>(p: Promise<T>): Promise<T> {
+    this.pending++;
+    document.body.dataset['busy'] = 'true';
+    try { return await p; } finally {
+      if (--this.pending === 0) document.body.dataset['busy'] = 'false';
+    }
+  }
+
+  get bounds(): Bounds {
+    return this.description?.report.bounds ?? [-1, 1, -1, 1, -1, 1];
+  }
+
+  get diagonal(): number {
+    const b = this.bounds;
+    return Math.max(1e-12, Math.hypot(b[1] - b[0], b[3] - b[2], b[5] - b[4]));
+  }
+
+  get colorMap(): ColorMap { return colorMap(this.settings.map); }
+
+  /** The chosen colouring field, or undefined for plain grey. */
+  get colorChoice(): FieldChoice | undefined {
+    const f = this.fields.find((x) => x.key === this.settings.field);
+    if (!f) return undefined;
+    const component = f.components === 1 ? 0 : COMPONENTS.indexOf(this.settings.component) - 1;
+    return { name: f.name, association: f.association, component };
+  }
+
+  /** The range mapped to the colour map's ends. */
+  get colorRange(): [number, number] {
+    if (!this.settings.autoRange) return [this.settings.min, this.settings.max];
+    const [lo, hi] = this.dataRange;
+    // a diverging map centres on zero when the data change sign, so its neutral colour means 0
+    if (this.colorMap.diverging && lo < 0 && hi > 0) { const m = Math.max(-lo, hi); return [-m, m]; }
+    return this.dataRange;
+  }
+
+  // ---- loading ----
+
+  /**
+   * Loads a request; on success replaces everything, on failure shows the reader's error and keeps
+   * the previous state (the worker keeps its dataset too).
+   */
+  async load(request: LoadRequest): Promise<boolean> {
+    const bytes = requestBytes(request);
+    const warn = memoryWarning(bytes);
+    if (warn && !(await this.banner.confirm(warn, 'Open anyway', 'Cancel'))) return false;
+    this.banner.clear();
+    document.body.dataset['state'] = 'loading';
+    this.progress.show('starting', 0, bytes);
+    const onProgress = Comlink.proxy((p: { stage: string; bytesDone: number; bytesTotal: number }) => this.progress.show(p.stage, p.bytesDone, p.bytesTotal));
+    try {
+      const d = await this.track(this.compute.load(request, onProgress));
+      this.progress.show('building the surface', 1, 1);
+      const drawing = await this.track(this.compute.surface());
+      this.install(d, drawing);
+      document.body.dataset['state'] = 'ready';
+      return true;
+    } catch (e) {
+      const err = e as Error;
+      if (err.name === 'AbortError' || /cancelled/.test(err.message)) this.banner.notice('Loading cancelled; the previous file stays open.');
+      else this.banner.error(`Could not open the file: ${err.message}`);
+      document.body.dataset['state'] = this.description ? 'ready' : 'empty';
+      return false;
+    } finally {
+      this.progress.hide();
+    }
+  }
+
+  private install(d: Description, drawing: Awaited<ReturnType<Compute['surface']>>): void {
+    this.description = d;
+    for (const id of [...this.results.keys()]) this.removeResult(id, true);
+    if (this.surface) { this.view.root.remove(this.surface.group); this.surface.dispose(); }
+    const groupCount = Math.max(1, ...d.groups.map((g) => g.id + 1));
+    this.surface = new SurfaceLayer(drawing, this.colorMap, groupCount);
+    this.settings.opacity = 1;
+    this.surface.setEdgesVisible(this.settings.edges);
+    this.surface.setOpacity(this.settings.opacity);
+    this.view.root.add(this.surface.group);
+    this.view.setBounds(this.bounds);
+    this.fields = fieldEntries(d.report);
+    this.summary.textContent = summaryLine(d);
+    this.summary.title = d.report.warnings.join('\n');
+    const pick = this.fields.find((f) => /^p$|pressure/i.test(f.name)) ?? this.fields[0];
+    this.settings.field = pick?.key ?? '';
+    this.settings.autoRange = true;
+    this.rebuildColorPanel();
+    this.rebuildGroupPanel();
+    for (const l of this.datasetListeners) l(d);
+    this.fitToShown();
+    this.view.view('iso');
+    // the benchmark times "files chosen" → this mark (first coloured picture on screen)
+    void this.recolor().then(() => this.view.nextFrame()).then(() => performance.mark('fieldtally:coloured'));
+    if (d.report.warnings.length) this.banner.notice(`Opened with warnings: ${d.report.warnings.slice(0, 3).join('; ')}`);
+  }
+
+  // ---- colour ----
+
+  /** Recolours the surface by the chosen field and tells the tools (the cut-plane recolours too). */
+  async recolor(): Promise<void> {
+    const s = this.surface, choice = this.colorChoice;
+    if (!s) return;
+    if (!choice) {
+      s.setValues(null);
+      this.legend.set(null);
+    } else {
+      try {
+        const v = await this.track(this.compute.surfaceValues(choice));
+        if (this.surface !== s) return;
+        s.setValues(v);
+        if (Number.isFinite(v.range[0])) this.dataRange = v.range;
+        else {
+          const f = this.fields.find((x) => x.key === this.settings.field);
+          this.dataRange = f?.range ?? [0, 1];
+        }
+      } catch (e) {
+        this.banner.error(`Could not colour by ${choice.name}: ${(e as Error).message}`);
+      }
+    }
+    this.applyColorSettings();
+    for (const l of this.colorListeners) l();
+  }
+
+  /** Range and map changes need no worker call. */
+  applyColorSettings(): void {
+    const [lo, hi] = this.colorRange;
+    if (this.settings.autoRange) { this.settings.min = Number(lo.toPrecision(6)); this.settings.max = Number(hi.toPrecision(6)); }
+    for (const c of this.colorFolder.controllersRecursive()) c.updateDisplay();
+    if (this.surface) {
+      this.surface.material.setRange(lo, hi);
+      this.surface.material.setColorMap(this.colorMap);
+    }
+    this.legend.set(this.legendState());
+    for (const l of this.colorSettingListeners) l();
+    this.view.requestRender();
+  }
+
+  /** What the legend shows, or null without a colouring field. */
+  legendState(): LegendState | null {
+    const c = this.colorChoice;
+    if (!c) return null;
+    const f = this.fields.find((x) => x.key === this.settings.field)!;
+    const part = f.components === 1 ? '' : ` (${this.settings.component})`;
+    return { title: `${c.name}${part}`, unit: fieldUnit(c.name), range: this.colorRange, fixed: !this.settings.autoRange, map: this.colorMap };
+  }
+
+  private rebuildColorPanel(): void {
+    for (const c of [...this.colorFolder.controllers]) c.destroy();
+    const opts: Record<string, string> = { '(none: grey)': '' };
+    for (const f of this.fields) opts[`${f.name} (${f.association === 'point' ? 'points' : 'cells'})`] = f.key;
+    this.colorFolder.add(this.settings, 'field', opts).name('field').onChange(() => void this.recolor());
+    this.colorFolder.add(this.settings, 'component', [...COMPONENTS]).name('vector part').onChange(() => void this.recolor());
+    const maps: Record<string, string> = {};
+    for (const m of COLOR_MAPS) maps[m.label] = m.id;
+    this.colorFolder.add(this.settings, 'map', maps).name('colour map').onChange(() => this.applyColorSettings());
+    this.colorFolder.add(this.settings, 'autoRange').name('range from data').onChange(() => this.applyColorSettings());
+    this.colorFolder.add(this.settings, 'min').name('range low').onFinishChange(() => { this.settings.autoRange = false; this.applyColorSettings(); });
+    this.colorFolder.add(this.settings, 'max').name('range high').onFinishChange(() => { this.settings.autoRange = false; this.applyColorSettings(); });
+  }
+
+  /** Makes the surfaces see-through (so a cut or a probe inside shows). */
+  setSurfaceOpacity(a: number): void {
+    this.settings.opacity = a;
+    this.surface?.setOpacity(a);
+    this.view.requestRender();
+  }
+
+  /** Groups currently drawn. */
+  readonly shownGroups = new Set<number>();
+
+  /** Fit and presets frame the shown groups (all data when none is shown). */
+  private fitToShown(): void {
+    const b = SurfaceLayer.boundsOf(this.description?.groups ?? [], this.shownGroups);
+    this.view.setFitBounds((b as Bounds | undefined) ?? this.bounds);
+  }
+
+  private rebuildGroupPanel(): void {
+    this.shownGroups.clear();
+    this.groupFolder?.destroy();
+    const d = this.description!;
+    this.groupFolder = this.gui.addFolder('Surfaces');
+    this.groupFolder.add(this.settings, 'edges').name('face outlines').onChange((on: boolean) => { this.surface?.setEdgesVisible(on); this.view.requestRender(); });
+    this.groupFolder.add(this.settings, 'opacity', 0.1, 1, 0.05).name('surface opacity').listen()
+      .onChange((a: number) => this.setSurfaceOpacity(a));
+    const hide = enclosingGroups(d, this.bounds);
+    for (const g of d.groups) {
+      const o = { shown: !hide.has(g.id) };
+      this.surface?.setGroupVisible(g.id, o.shown);
+      if (o.shown) this.shownGroups.add(g.id); else this.shownGroups.delete(g.id);
+      this.groupFolder.add(o, 'shown').name(`${g.name} (${formatNumber(g.area)} m²)`).onChange((on: boolean) => {
+        this.surface?.setGroupVisible(g.id, on);
+        if (on) this.shownGroups.add(g.id); else this.shownGroups.delete(g.id);
+        this.fitToShown();
+        this.view.requestRender();
+      });
+    }
+    // the surfaces folder sits right after colour
+    this.gui.domElement.querySelector('.lil-children')?.insertBefore(this.groupFolder.domElement, this.colorFolder.domElement.nextSibling);
+  }
+
+  // ---- results ----
+
+  setResult(r: ProbeResult): void {
+    const prev = this.results.get(r.id);
+    if (prev) r.pinVisible = prev.pinVisible;
+    this.results.set(r.id, r);
+    this.refreshResults();
+  }
+
+  removeResult(id: string, tellTools: boolean): void {
+    if (!this.results.delete(id)) return;
+    if (tellTools) for (const l of this.resultListeners) l(id);
+    this.refreshResults();
+  }
+
+  get allResults(): ProbeResult[] {
+    return [...this.results.values()].sort((a, b) => (a.id < b.id ? -1 : 1));
+  }
+
+  private refreshResults(): void {
+    const all = this.allResults;
+    this.table.set(all);
+    this.pins.setResults(all);
+    this.view.requestRender();
+  }
+
+  // ---- view tools and pointer ----
+
+  private buildViewTools(host: HTMLElement): void {
+    const presets: [ViewPreset, string, string][] = [
+      ['+x', '+X', 'look from +x'], ['-x', '−X', 'look from −x'], ['+y', '+Y', 'look from +y'], ['-y', '−Y', 'look from −y'],
+      ['+z', '+Z', 'look from +z'], ['-z', '−Z', 'look from −z'], ['iso', 'Iso', 'isometric view'],
+    ];
+    for (const [p, label, title] of presets) host.append(toolButton(label, title, () => this.view.view(p)));
+    host.append(toolButton('Fit', 'fit everything in the view', () => this.view.fit()));
+  }
+
+  private bindPointer(canvas: HTMLCanvasElement): void {
+    const ray = new THREE.Raycaster();
+    let active: PointerTool | undefined, downAt: [number, number] | undefined;
+    const cast = (ev: PointerEvent) => { ray.setFromCamera(this.view.pointerNdc(ev), this.view.camera); return ray; };
+    // capture phase: runs before the orbit controls, so a tool can claim the drag
+    canvas.addEventListener('pointerdown', (ev) => {
+      downAt = [ev.clientX, ev.clientY];
+      active = this.tools.find((t) => t.down?.(ev, cast(ev)));
+      if (active) { this.view.controls.enabled = false; canvas.setPointerCapture(ev.pointerId); }
+    }, { capture: true });
+    canvas.addEventListener('pointermove', (ev) => { if (active) active.move?.(ev, cast(ev)); });
+    canvas.addEventListener('pointerup', (ev) => {
+      const r = cast(ev);
+      if (active) { active.up?.(ev, r); active = undefined; this.view.controls.enabled = true; }
+      else if (downAt && Math.hypot(ev.clientX - downAt[0], ev.clientY - downAt[1]) < 4) this.tools.some((t) => t.click?.(ev, r));
+      downAt = undefined;
+    });
+  }
+}
+
+/** One tiny instance of every kind of drawn object, for compiling their shaders at start. */
+function warmUpObjects(map: ColorMap): THREE.Object3D[] {
+  const tri = () => ({ positions: new Float32Array([0, 0, 0, 1, 0, 0, 0, 1, 0]), normals: new Float32Array([0, 0, 1, 0, 0, 1, 0, 0, 1]), groups: new Float32Array(3) });
+  const box: [number, number, number, number, number, number] = [0, 1, 0, 1, 0, 0];
+  const surface = new SurfaceLayer({ ...tri(), edges: new Float32Array(6), edgeGroups: new Float32Array(2), box }, map, 1);
+  const seeThrough = new SurfaceLayer({ ...tri(), edges: new Float32Array(6), edgeGroups: new Float32Array(2), box }, map, 1);
+  seeThrough.setOpacity(0.35);
+  const plane = new CutPlaneLayer(map, 1);
+  plane.setTriangles({ ...tri(), values: new Float32Array(3), range: [0, 1] }, true);
+  plane.setSeed([0, 0, 0]);
+  const line = new LineProbeWidget(1);
+  line.set([0, 0, 0], [1, 1, 1]);
+  return [surface.group, seeThrough.group, plane.group, line.group];
+}
+
+function toolButton(label: string, title: string, f: () => void): HTMLButtonElement {
+  const b = document.createElement('button');
+  b.type = 'button';
+  b.textContent = label;
+  b.title = title;
+  b.onclick = f;
+  return b;
+}
+
+/** Fields offered for colouring: every point and cell array with 1–3 components (vectors by part). */
+function fieldEntries(r: LoadReport): FieldEntry[] {
+  const out: FieldEntry[] = [];
+  for (const a of [...r.pointData, ...r.cellData]) {
+    if (a.components > 3 || a.pieces !== r.pieces) continue;
+    const association = a.association === 'point' ? 'point' : 'cell';
+    out.push({ key: `${association}:${a.name}`, name: a.name, association, components: a.components, range: a.range });
+  }
+  return out;
+}
+
+/**
+ * Groups hidden at first: an outer boundary that encloses everything else (its bounds are the data's
+ * bounds while another group lies wholly inside), so a body inside a far field is visible on opening.
+ */
+function enclosingGroups(d: Description, b: Bounds): Set<number> {
+  const tol = 1e-6 * Math.hypot(b[1] - b[0], b[3] - b[2], b[5] - b[4]);
+  const touchesAll = (g: Bounds) => [0, 1, 2, 3, 4, 5].every((i) => Math.abs(g[i]! - b[i]!) <= tol);
+  const inside = (g: Bounds) => [0, 2, 4].every((i) => g[i]! > b[i]! + tol) && [1, 3, 5].every((i) => g[i]! < b[i]! - tol);
+  const hasInner = d.groups.some((g) => inside(g.bounds));
+  return new Set(hasInner ? d.groups.filter((g) => touchesAll(g.bounds)).map((g) => g.id) : []);
+}
+
+function summaryLine(d: Description): string {
+  const r = d.report;
+  return `${r.source} — ${r.cells.toLocaleString('en')} cells, ${r.points.toLocaleString('en')} points, ${r.pieces} piece${r.pieces === 1 ? '' : 's'} — ${formatBytes(d.fileBytes)} read in ${d.loadSeconds.toFixed(2)} s`;
+}

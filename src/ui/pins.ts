@@ -1,0 +1,158 @@
+/**
+ * Pins: each probe's key numbers in a small box beside the geometry, tied to the probe's anchor by a
+ * leader line. The overlay follows the camera (re-laid out after every frame) and the same layout and
+ * drawing serve the PNG export (`drawPins`).
+ */
+import { withUnit } from './format.ts';
+import { layoutPins, leaderEnd, type PinBox, type PlacedPin } from './pinLayout.ts';
+import type { ProbeResult } from './results.ts';
+
+/** Pin colours (also looked for in exported pictures by the browser test). */
+export const PIN_STYLE = {
+  border: '#1d4ed8',
+  leader: '#1d4ed8',
+  background: 'rgba(255,255,255,0.94)',
+  title: '#1d4ed8',
+  text: '#111827',
+  font: '12px system-ui, -apple-system, "Segoe UI", Roboto, "Helvetica Neue", Arial, sans-serif',
+  titleFont: '600 12px system-ui, -apple-system, "Segoe UI", Roboto, "Helvetica Neue", Arial, sans-serif',
+  lineHeight: 16,
+  padding: 6,
+} as const;
+
+/** Screen position of a world point, as the view computes it. */
+export type Projector = (p: [number, number, number]) => { x: number; y: number; behind: boolean };
+
+/** Text lines of a pin: title, then `label = value unit` per pinned quantity (or the note). */
+export function pinLines(r: ProbeResult): { title: string; rows: { key: string; text: string }[] } {
+  const rows = r.quantities.filter((q) => q.pinned).map((q) => ({ key: q.key, text: `${q.label} = ${withUnit(q.value, q.unit)}` }));
+  if (rows.length === 0 && r.note) rows.push({ key: 'note', text: r.note });
+  return { title: r.label, rows };
+}
+
+/** The DOM overlay of pins over the view. */
+export class PinOverlay {
+  private readonly svg: SVGSVGElement;
+  private readonly boxes = new Map<string, { el: HTMLDivElement; width: number; height: number }>();
+  private results: ProbeResult[] = [];
+
+  constructor(private readonly host: HTMLElement, private readonly project: Projector) {
+    this.svg = document.createElementNS('http://www.w3.org/2000/svg', 'svg');
+    this.svg.classList.add('pin-leaders');
+    host.append(this.svg);
+  }
+
+  /** Replaces the pins' content (after a probe is computed, hidden or removed). */
+  setResults(results: readonly ProbeResult[]): void {
+    this.results = results.filter((r) => r.pinVisible);
+    const keep = new Set(this.results.map((r) => r.id));
+    for (const [id, b] of this.boxes) if (!keep.has(id)) { b.el.remove(); this.boxes.delete(id); }
+    for (const r of this.results) {
+      let b = this.boxes.get(r.id);
+      if (!b) {
+        const el = document.createElement('div');
+        el.className = 'pin';
+        el.dataset['pin'] = r.id;
+        this.host.append(el);
+        b = { el, width: 0, height: 0 };
+        this.boxes.set(r.id, b);
+      }
+      const { title, rows } = pinLines(r);
+      b.el.replaceChildren();
+      const t = document.createElement('div');
+      t.className = 'pin-title';
+      t.textContent = title;
+      b.el.append(t);
+      for (const row of rows) {
+        const d = document.createElement('div');
+        d.className = 'pin-row';
+        d.dataset['quantity'] = row.key;
+        d.textContent = row.text;
+        b.el.append(d);
+      }
+      // measured once per content change, not per frame
+      b.width = b.el.offsetWidth;
+      b.height = b.el.offsetHeight;
+    }
+    this.update();
+  }
+
+  /** Re-projects anchors and re-lays out the boxes (call after each rendered frame). */
+  update(): void {
+    const w = this.host.clientWidth, h = this.host.clientHeight;
+    const boxes: PinBox[] = [];
+    for (const r of this.results) {
+      const b = this.boxes.get(r.id)!;
+      const p = this.project(r.anchor);
+      b.el.style.display = p.behind ? 'none' : '';
+      if (!p.behind) boxes.push({ id: r.id, anchorX: p.x, anchorY: p.y, width: b.width, height: b.height });
+    }
+    const placed = layoutPins(boxes, w, h);
+    this.svg.setAttribute('width', String(w));
+    this.svg.setAttribute('height', String(h));
+    const parts: string[] = [];
+    for (const p of placed) {
+      const b = this.boxes.get(p.id)!;
+      b.el.style.transform = `translate(${Math.round(p.x)}px, ${Math.round(p.y)}px)`;
+      const [ex, ey] = leaderEnd(p);
+      parts.push(`<line x1="${p.anchorX}" y1="${p.anchorY}" x2="${ex}" y2="${ey}" stroke="${PIN_STYLE.leader}" stroke-width="1.5"/>`,
+        `<circle cx="${p.anchorX}" cy="${p.anchorY}" r="3.5" fill="${PIN_STYLE.leader}" stroke="white" stroke-width="1"/>`);
+    }
+    this.svg.innerHTML = parts.join('');
+  }
+}
+
+/** Measures a pin's box for canvas drawing at `scale` (device pixels per CSS pixel). */
+function measure(ctx: CanvasRenderingContext2D, r: ProbeResult, scale: number): { width: number; height: number } {
+  const { title, rows } = pinLines(r);
+  ctx.font = PIN_STYLE.titleFont;
+  let w = ctx.measureText(title).width;
+  ctx.font = PIN_STYLE.font;
+  for (const row of rows) w = Math.max(w, ctx.measureText(row.text).width);
+  return { width: (w + 2 * PIN_STYLE.padding) * scale, height: ((rows.length + 1) * PIN_STYLE.lineHeight + 2 * PIN_STYLE.padding) * scale };
+}
+
+/**
+ * Draws the pins with their leader lines onto an exported picture. `project` maps world points to
+ * pixels of the picture; `scale` sizes text so the picture reads like the screen at its resolution.
+ * Returns where each pin went (the browser test looks for pin pixels there).
+ */
+export function drawPins(ctx: CanvasRenderingContext2D, results: readonly ProbeResult[], project: Projector, scale: number): PlacedPin[] {
+  const shown = results.filter((r) => r.pinVisible);
+  const boxes: PinBox[] = [];
+  ctx.save();
+  for (const r of shown) {
+    const p = project(r.anchor);
+    if (p.behind) continue;
+    const m = measure(ctx, r, 1);
+    boxes.push({ id: r.id, anchorX: p.x, anchorY: p.y, width: m.width * scale, height: m.height * scale });
+  }
+  const placed = layoutPins(boxes, ctx.canvas.width, ctx.canvas.height, { offset: 28 * scale, gap: 6 * scale, margin: 8 * scale });
+  for (const p of placed) {
+    const r = shown.find((x) => x.id === p.id)!;
+    const [ex, ey] = leaderEnd(p);
+    ctx.strokeStyle = PIN_STYLE.leader;
+    ctx.lineWidth = 1.5 * scale;
+    ctx.beginPath(); ctx.moveTo(p.anchorX, p.anchorY); ctx.lineTo(ex, ey); ctx.stroke();
+    ctx.fillStyle = PIN_STYLE.leader;
+    ctx.beginPath(); ctx.arc(p.anchorX, p.anchorY, 3.5 * scale, 0, 2 * Math.PI); ctx.fill();
+    ctx.fillStyle = PIN_STYLE.background;
+    ctx.fillRect(p.x, p.y, p.width, p.height);
+    ctx.strokeStyle = PIN_STYLE.border;
+    ctx.lineWidth = 1.5 * scale;
+    ctx.strokeRect(p.x, p.y, p.width, p.height);
+    const { title, rows } = pinLines(r);
+    ctx.textBaseline = 'top';
+    const x = p.x + PIN_STYLE.padding * scale;
+    let y = p.y + PIN_STYLE.padding * scale + 2 * scale;
+    ctx.setTransform(1, 0, 0, 1, 0, 0);
+    ctx.font = PIN_STYLE.titleFont.replace('12px', `${12 * scale}px`);
+    ctx.fillStyle = PIN_STYLE.title;
+    ctx.fillText(title, x, y);
+    ctx.font = PIN_STYLE.font.replace('12px', `${12 * scale}px`);
+    ctx.fillStyle = PIN_STYLE.text;
+    for (const row of rows) { y += PIN_STYLE.lineHeight * scale; ctx.fillText(row.text, x, y); }
+  }
+  ctx.restore();
+  return placed;
+}

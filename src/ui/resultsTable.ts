@@ -1,0 +1,85 @@
+/**
+ * The results table: every probe and all its numbers, with a pin toggle and a remove button per probe
+ * and "copy as text" for the whole table.
+ */
+import { withUnit } from './format.ts';
+import type { ProbeResult } from './results.ts';
+
+export interface ResultsTableEvents {
+  onTogglePin: (id: string, visible: boolean) => void;
+  onRemove: (id: string) => void;
+  onCopy: () => void;
+}
+
+export class ResultsTable {
+  private readonly body: HTMLDivElement;
+
+  constructor(host: HTMLElement, private readonly events: ResultsTableEvents) {
+    const head = document.createElement('div');
+    head.className = 'pane-head';
+    const title = document.createElement('span');
+    title.textContent = 'Results';
+    const copy = document.createElement('button');
+    copy.type = 'button';
+    copy.textContent = 'Copy as text';
+    copy.className = 'copy-results';
+    copy.onclick = () => events.onCopy();
+    head.append(title, copy);
+    this.body = document.createElement('div');
+    this.body.className = 'results-body';
+    host.append(head, this.body);
+  }
+
+  set(results: readonly ProbeResult[]): void {
+    if (results.length === 0) {
+      const p = document.createElement('p');
+      p.className = 'empty';
+      p.textContent = 'No probes yet. Place a cut-plane, a line probe or select surfaces for a force total.';
+      this.body.replaceChildren(p);
+      return;
+    }
+    const table = document.createElement('table');
+    table.className = 'results';
+    for (const r of results) {
+      const tr = table.insertRow();
+      tr.className = 'probe-head';
+      tr.dataset['probe'] = r.id;
+      const th = document.createElement('th');
+      th.colSpan = 2;
+      const name = document.createElement('span');
+      name.textContent = r.label;
+      const def = document.createElement('span');
+      def.className = 'probe-def';
+      def.textContent = r.definition;
+      const pin = document.createElement('label');
+      const box = document.createElement('input');
+      box.type = 'checkbox';
+      box.checked = r.pinVisible;
+      box.onchange = () => this.events.onTogglePin(r.id, box.checked);
+      pin.append(box, ' pin');
+      const rm = document.createElement('button');
+      rm.type = 'button';
+      rm.textContent = 'Remove';
+      rm.onclick = () => this.events.onRemove(r.id);
+      th.append(name, def, pin, rm);
+      tr.append(th);
+      if (r.note) {
+        const nr = table.insertRow();
+        const td = nr.insertCell();
+        td.colSpan = 2;
+        td.className = 'note';
+        td.textContent = r.note;
+      }
+      for (const q of r.quantities) {
+        const row = table.insertRow();
+        row.dataset['probe'] = r.id;
+        row.dataset['quantity'] = q.key;
+        row.insertCell().textContent = q.label;
+        const v = row.insertCell();
+        v.className = 'num';
+        v.textContent = withUnit(q.value, q.unit);
+      }
+    }
+    this.body.replaceChildren(table);
+  }
+}

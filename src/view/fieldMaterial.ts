@@ -1,0 +1,171 @@
+/**
+ * The material of every coloured surface in the view (boundary surfaces and the cut-plane): the value
+ * attribute is mapped through the colour-map texture on the GPU, so changing the range or the map costs
+ * no pass over the data on the main thread. Per-group flags (visible, selected) come from a small
+ * texture indexed by the group attribute. Colours are managed as three.js does (sRGB table decoded on
+ * sampling, encoded again on output), so the published table values reach the screen and exports unchanged.
+ */
+import * as THREE from 'three';
+import { colorMapStrip, type ColorMap } from './colorMaps.ts';
+
+/** Width of the flags texture; group g is at texel (g mod width, g div width). */
+const FLAG_WIDTH = 1024;
+
+const VERTEX = /* glsl */ `
+attribute float aValue;
+attribute float aGroup;
+uniform vec2 uRange;
+uniform sampler2D uFlags;
+varying float vT;
+varying vec3 vNormal;
+varying float vSelected;
+varying float vHidden;
+void main() {
+  float span = uRange.y - uRange.x;
+  vT = span > 0.0 ? (aValue - uRange.x) / span : 0.5;
+  int g = int(aGroup + 0.5);
+  vec4 f = texelFetch(uFlags, ivec2(g % ${FLAG_WIDTH}, g / ${FLAG_WIDTH}), 0);
+  vHidden = f.r < 0.5 ? 1.0 : 0.0;
+  vSelected = f.g;
+  vNormal = normalize(normalMatrix * normal);
+  gl_Position = projectionMatrix * modelViewMatrix * vec4(position, 1.0);
+}`;
+
+const FRAGMENT = /* glsl */ `
+uniform sampler2D uMap;
+uniform float uSolid;
+uniform vec3 uSolidColor;
+uniform vec3 uSelectColor;
+uniform float uOpacity;
+varying float vT;
+varying vec3 vNormal;
+varying float vSelected;
+varying float vHidden;
+void main() {
+  if (vHidden > 0.5) discard;
+  vec3 c = uSolid > 0.5 ? uSolidColor : texture2D(uMap, vec2(clamp(vT, 0.0, 1.0) * 0.99609375 + 0.001953125, 0.5)).rgb;
+  // selected groups get diagonal stripes of the highlight colour; the colours between stay readable
+  float stripe = step(0.65, fract((gl_FragCoord.x + gl_FragCoord.y) / 16.0));
+  c = mix(c, uSelectColor, vSelected * stripe * 0.8);
+  // a mild headlight: enough to read the shape, little enough to keep colours readable against the legend
+  float light = 0.72 + 0.28 * abs(normalize(vNormal).z);
+  gl_FragColor = vec4(c * light, uOpacity);
+  #include <colorspace_fragment>
+}`;
+
+/** Uniforms of a field material, as set by `FieldMaterial`. */
+interface FieldUniforms {
+  [k: string]: THREE.IUniform;
+  uRange: THREE.IUniform<THREE.Vector2>;
+  uMap: THREE.IUniform<THREE.DataTexture>;
+  uFlags: THREE.IUniform<THREE.DataTexture>;
+  uSolid: THREE.IUniform<number>;
+  uSolidColor: THREE.IUniform<THREE.Color>;
+  uSelectColor: THREE.IUniform<THREE.Color>;
+  uOpacity: THREE.IUniform<number>;
+}
+
+/** Colour-map texture (256×1 RGBA, linear filtering between table entries). */
+export function colorMapTexture(map: ColorMap): THREE.DataTexture {
+  const tex = new THREE.DataTexture(colorMapStrip(map), 256, 1, THREE.RGBAFormat, THREE.UnsignedByteType);
+  tex.magFilter = THREE.LinearFilter;
+  tex.minFilter = THREE.LinearFilter;
+  tex.wrapS = THREE.ClampToEdgeWrapping;
+  tex.colorSpace = THREE.SRGBColorSpace;
+  tex.needsUpdate = true;
+  return tex;
+}
+
+/** A ShaderMaterial colouring by `aValue` through a colour map, hiding and highlighting by `aGroup`. */
+export class FieldMaterial extends THREE.ShaderMaterial {
+  declare uniforms: FieldUniforms;
+  private flags: Uint8Array;
+  private flagTexture: THREE.DataTexture;
+
+  constructor(map: ColorMap, groupCount = 1) {
+    const rows = Math.max(1, Math.ceil(groupCount / FLAG_WIDTH));
+    const flags = new Uint8Array(4 * FLAG_WIDTH * rows);
+    for (let i = 0; i < flags.length; i += 4) flags[i] = 255;
+    const flagTexture = new THREE.DataTexture(flags, FLAG_WIDTH, rows, THREE.RGBAFormat, THREE.UnsignedByteType);
+    flagTexture.needsUpdate = true;
+    super({
+      vertexShader: VERTEX,
+      fragmentShader: FRAGMENT,
+      side: THREE.DoubleSide,
+      polygonOffset: true,
+      polygonOffsetFactor: 1,
+      polygonOffsetUnits: 1,
+      uniforms: {
+        uRange: { value: new THREE.Vector2(0, 1) },
+        uMap: { value: colorMapTexture(map) },
+        uFlags: { value: flagTexture },
+        uSolid: { value: 0 },
+        uSolidColor: { value: new THREE.Color(0xb8bec6) },
+        uSelectColor: { value: new THREE.Color(0xff7a00) },
+        uOpacity: { value: 1 },
+      },
+    });
+    this.flags = flags;
+    this.flagTexture = flagTexture;
+  }
+
+  /** Range of values mapped to the two ends of the colour map (file units). */
+  setRange(lo: number, hi: number): void { this.uniforms.uRange.value.set(lo, hi); }
+
+  setColorMap(map: ColorMap): void {
+    this.uniforms.uMap.value.dispose();
+    this.uniforms.uMap.value = colorMapTexture(map);
+  }
+
+  /** Solid grey instead of the colour map (no field chosen). */
+  setSolid(solid: boolean): void { this.uniforms.uSolid.value = solid ? 1 : 0; }
+
+  /** Shows or hides group `g`. */
+  setGroupVisible(g: number, visible: boolean): void { this.setFlag(g, 0, visible); }
+
+  /** Highlights group `g` (selected for a force total). */
+  setGroupSelected(g: number, selected: boolean): void { this.setFlag(g, 1, selected); }
+
+  private setFlag(g: number, channel: number, on: boolean): void {
+    const i = 4 * g + channel;
+    if (i >= this.flags.length) return;
+    this.flags[i] = on ? 255 : 0;
+    this.flagTexture.needsUpdate = true;
+  }
+
+  /** The flags texture, shared with the outline material so hidden groups lose their outlines too. */
+  get groupFlags(): THREE.DataTexture { return this.flagTexture; }
+
+  override dispose(): void {
+    this.uniforms.uMap.value.dispose();
+    this.flagTexture.dispose();
+    super.dispose();
+  }
+}
+
+/** Face outlines: thin dark lines, hidden with their group (reads the field material's flags). */
+export class OutlineMaterial extends THREE.ShaderMaterial {
+  constructor(flags: THREE.DataTexture) {
+    super({
+      vertexShader: /* glsl */ `
+        attribute float aGroup;
+        uniform sampler2D uFlags;
+        varying float vHidden;
+        void main() {
+          int g = int(aGroup + 0.5);
+          vHidden = texelFetch(uFlags, ivec2(g % ${FLAG_WIDTH}, g / ${FLAG_WIDTH}), 0).r < 0.5 ? 1.0 : 0.0;
+          gl_Position = projectionMatrix * modelViewMatrix * vec4(position, 1.0);
+        }`,
+      fragmentShader: /* glsl */ `
+        uniform vec3 uColor;
+        varying float vHidden;
+        void main() {
+          if (vHidden > 0.5) discard;
+          gl_FragColor = vec4(uColor, 0.35);
+          #include <colorspace_fragment>
+        }`,
+      transparent: true,
+      uniforms: { uFlags: { value: flags }, uColor: { value: new THREE.Color(0x30343b) } },
+    });
+  }
+}

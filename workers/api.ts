@@ -1,0 +1,202 @@
+/**
+ * The one contract between the viewer (main thread) and the compute worker. A few coarse calls; the
+ * dataset stays in the worker. Every typed array in a reply is freshly allocated for that reply and is
+ * transferred (not copied); the worker never transfers a buffer it still uses.
+ *
+ * Units: the file's units throughout (the viewer labels them as SI). Vectors are `[x, y, z]`.
+ */
+import type { LoadProgress } from '../src/io/loadOptions.ts';
+import type { SurfaceIntegrals } from '../src/cut/integrals.ts';
+import type { LineStats } from '../src/locate/lineStats.ts';
+import type { LoadReport } from '../src/model/loadReport.ts';
+import type { ForceResult } from '../src/surface/forces.ts';
+
+export type Vec3 = [number, number, number];
+
+/** One input file: its path relative to the set file's folder (`/`-separated) and its bytes. */
+export interface InputFile {
+  path: string;
+  data: Blob | Uint8Array;
+}
+
+/**
+ * What to load: the file to open (a single result file, or the set file of a `.pvtu`/`.vtm`), the
+ * other chosen files a set may refer to, or a same-origin URL (the bundled sample field).
+ */
+export type LoadRequest =
+  | { kind: 'files'; main: InputFile; others: InputFile[] }
+  | { kind: 'url'; url: string; name: string };
+
+/** Progress callback, throttled by the worker (at most ~10 calls per second). */
+export type ProgressCallback = (p: LoadProgress) => void;
+
+/** A surface group: a part of the mesh boundary (a wall, an inlet …) that can be shown, hidden and selected. */
+export interface GroupInfo {
+  /** Index of the group (0 … n−1): what drawings carry per vertex and what force requests name. */
+  id: number;
+  /** The group's stable id in the file (its group-array value, or a number after them for feature parts). */
+  fileId: number;
+  name: string;
+  /** Where it came from: 'cell-array', 'surface-file', 'feature-angle', or 'surface-cells' (a file without volume cells). */
+  source: string;
+  /** m² (file length unit squared). */
+  area: number;
+  faces: number;
+  centroid: Vec3;
+  /** [xmin, xmax, ymin, ymax, zmin, zmax] (m). */
+  bounds: [number, number, number, number, number, number];
+}
+
+/** What the worker holds after a load. */
+export interface Description {
+  report: LoadReport;
+  /** Bytes of every file read. */
+  fileBytes: number;
+  /** Seconds the read took in the worker. */
+  loadSeconds: number;
+  groups: GroupInfo[];
+}
+
+/** A field to colour by or to sample: a scalar, one component, or the magnitude (component −1). */
+export interface FieldChoice {
+  name: string;
+  association: 'point' | 'cell';
+  component: number;
+}
+
+/**
+ * Triangles to draw, non-indexed (vertex v of triangle t is at `3t + v`), so cell data can stay
+ * constant per face. `positions` and `normals` are xyz per vertex; `groups` is the group id per vertex
+ * (float, for the shader).
+ */
+export interface TriangleDrawing {
+  positions: Float32Array;
+  normals: Float32Array;
+  groups: Float32Array;
+}
+
+/** The boundary surface for drawing, plus the outline of its faces as line segments (xyz pairs) with their group per vertex. */
+export interface SurfaceDrawing extends TriangleDrawing {
+  edges: Float32Array;
+  edgeGroups: Float32Array;
+  /** Box around the triangles, [xmin, xmax, ymin, ymax, zmin, zmax] (m), so the view need not scan them. */
+  box: [number, number, number, number, number, number];
+}
+
+/** Per-vertex values of a field in a drawing's vertex order, and their range (NaN range when empty). */
+export interface DrawingValues {
+  values: Float32Array;
+  range: [number, number];
+}
+
+/** A cut-plane request. `rho` is a constant density (kg/m³) or the name of a density field. */
+export interface CutRequest {
+  origin: Vec3;
+  /** Need not be unit length; positive flow is along it. */
+  normal: Vec3;
+  /** Restricts the cut to the connected part that contains this point. */
+  seed?: Vec3;
+  color?: FieldChoice;
+  velocity?: string;
+  pressure?: string;
+  rho: number | string;
+}
+
+/**
+ * A cut's reply: the drawn part of the cut (the region when a seed restricts it) and its integrals
+ * (`integratePlane` of src/cut/planeIntegrals.ts, the same path as the command line). An empty cut or
+ * region has `integrals.empty` and a reason, never zeros.
+ */
+export interface CutReply {
+  drawing: (TriangleDrawing & DrawingValues) | null;
+  integrals: SurfaceIntegrals;
+  /** Unit normal used (fluxes are positive along it). */
+  normal: Vec3;
+  /** Region filters applied, as text (empty: the whole cut). */
+  region: string[];
+  /** Cells the plane cut. */
+  cellsCut: number;
+}
+
+export interface LineRequest {
+  from: Vec3;
+  to: Vec3;
+  /** Evenly spaced samples including both ends (2 … 100 000). */
+  samples: number;
+}
+
+/** One sampled field along a line: a column per component, NaN where a sample lies outside the mesh. */
+export interface LineField {
+  name: string;
+  association: 'point' | 'cell';
+  components: number;
+  /** Column labels: `name`, or `name_x, name_y, name_z`. */
+  labels: string[];
+  columns: Float64Array[];
+}
+
+/**
+ * A line probe's samples (`probeLine` of src/locate/lineProbe.ts) and their statistics (`lineStats`).
+ * A line wholly outside the mesh has `outside` and no samples.
+ */
+export interface LineReply {
+  /** |to − from| (m). */
+  length: number;
+  count: number;
+  validCount: number;
+  outside: boolean;
+  /** Arc length from `from` per sample (m). */
+  s: Float64Array;
+  x: Float64Array;
+  y: Float64Array;
+  z: Float64Array;
+  /** 1 where the sample lies in the mesh. */
+  valid: Uint8Array;
+  fields: LineField[];
+  stats: LineStats;
+}
+
+/** Reference values and choices for a force total (SI). */
+export interface ForceRequest {
+  /** Group ids (indices, see `GroupInfo.id`). */
+  groups: number[];
+  rho: number;
+  speed: number;
+  area: number;
+  /** Reference length for moment coefficients (m); 0 leaves them out. */
+  length: number;
+  dragDir: Vec3;
+  liftDir: Vec3;
+  momentPoint: Vec3;
+  /** Dynamic viscosity (Pa·s) for the velocity-gradient traction when the file has no wall-shear array; 0: none. */
+  mu: number;
+  /** Reference pressure (Pa). */
+  pRef: number;
+}
+
+/** A force total (`forceTotals` of src/surface/forces.ts) with the centroid of the selected faces (pin anchor). */
+export interface ForceReply {
+  result: ForceResult;
+  centroid: Vec3;
+  groupNames: string[];
+}
+
+/** The worker's API. */
+export interface ComputeApi {
+  /** Reads a file or set; replaces the held dataset only on success. Rejects with the reader's error. */
+  load(request: LoadRequest, onProgress?: ProgressCallback): Promise<Description>;
+  /** Aborts a running load at the reader's next checkpoint (the load rejects with an AbortError). */
+  cancelLoad(): void;
+  /** The held dataset's description; rejects when nothing is loaded. */
+  describe(): Promise<Description>;
+  /** The boundary surface for drawing. */
+  surface(): Promise<SurfaceDrawing>;
+  /** A field's values on the boundary surface, in `surface()`'s vertex order. */
+  surfaceValues(field: FieldChoice): Promise<DrawingValues>;
+  /** Cuts the dataset by a plane: triangles coloured by `request.color`, and integrals. */
+  cut(request: CutRequest): Promise<CutReply>;
+  /** Samples every field along a line (point fields, then cell fields with other names). */
+  sample(request: LineRequest): Promise<LineReply>;
+  /** Force total over surface groups. */
+  forces(request: ForceRequest): Promise<ForceReply>;
+}

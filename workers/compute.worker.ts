@@ -1,0 +1,254 @@
+/**
+ * The compute worker: holds the dataset and answers the viewer through the `ComputeApi` contract
+ * (workers/api.ts). In a browser it exposes itself with comlink on load; under Node the test
+ * bootstrap imports `createComputeApi` and exposes it on a worker_threads port.
+ */
+import * as Comlink from 'comlink';
+import { integratePlane } from '../src/cut/planeIntegrals.ts';
+import type { RegionSpec } from '../src/cut/region.ts';
+import { readDataset } from '../src/io/readDataset.ts';
+import { probeLine } from '../src/locate/lineProbe.ts';
+import { lineStats } from '../src/locate/lineStats.ts';
+import { forceTotals } from '../src/surface/forces.ts';
+import { surfaceLoads } from '../src/surface/surfaceLoads.ts';
+import type { LoadProgress } from '../src/io/loadOptions.ts';
+import { loadReport } from '../src/model/loadReport.ts';
+import type { Dataset } from '../src/model/dataset.ts';
+import { datasetBounds } from '../src/model/bounds.ts';
+import { boundaryFaces, type BoundaryFaces } from '../src/surface/boundaryFaces.ts';
+import { facesOfGroups, surfaceGroups, type SurfaceGroups } from '../src/surface/surfaceGroups.ts';
+import type {
+  ComputeApi, CutReply, CutRequest, Description, DrawingValues, FieldChoice, ForceReply, ForceRequest,
+  LineReply, LineRequest, LoadRequest, ProgressCallback, SurfaceDrawing,
+} from './api.ts';
+import { drawFaces, drawTriangleSet, faceValues, surfaceCellFaces, type FaceList } from './surfaceDrawing.ts';
+
+/** Smallest interval between two progress calls to the main thread (ms). */
+const PROGRESS_INTERVAL_MS = 100;
+
+/** Everything derived from one loaded dataset; replaced as a whole by the next successful load. */
+interface Held {
+  dataset: Dataset;
+  description: Description;
+  /** Faces drawn as the surface: the boundary faces, or the 2D cells of a file without volume cells. */
+  faces: FaceList;
+  /** The boundary faces and their groups (absent for a file without volume cells). */
+  boundary?: { faces: BoundaryFaces; groups: SurfaceGroups };
+}
+
+async function bytesOf(data: Blob | Uint8Array): Promise<Uint8Array> {
+  return data instanceof Uint8Array ? data : new Uint8Array(await data.arrayBuffer());
+}
+
+/** Reads a same-origin URL with byte progress. */
+async function fetchBytes(url: string, report: (done: number, total: number) => void, signal: AbortSignal): Promise<Uint8Array> {
+  const res = await fetch(url, { signal });
+  if (!res.ok) throw new Error(`${url}: could not fetch (HTTP ${res.status})`);
+  const total = Number(res.headers.get('content-length') ?? 0);
+  if (!res.body) return new Uint8Array(await res.arrayBuffer());
+  const parts: Uint8Array[] = [];
+  let done = 0;
+  const reader = res.body.getReader();
+  for (;;) {
+    const { value, done: end } = await reader.read();
+    if (end) break;
+    parts.push(value);
+    done += value.length;
+    report(done, total);
+  }
+  const out = new Uint8Array(done);
+  let o = 0;
+  for (const p of parts) { out.set(p, o); o += p.length; }
+  return out;
+}
+
+/** Rate-limits progress calls; the last call of a stage always goes through via `flush`. */
+function throttle(cb: ProgressCallback | undefined): { send: (p: LoadProgress) => void; flush: () => void } {
+  let last = 0, pending: LoadProgress | undefined;
+  return {
+    send(p) {
+      pending = p;
+      const now = performance.now();
+      if (cb && now - last >= PROGRESS_INTERVAL_MS) { last = now; pending = undefined; void cb(p); }
+    },
+    flush() { if (cb && pending) void cb(pending); pending = undefined; },
+  };
+}
+
+/** Builds the API over a fresh, empty state. */
+export function createComputeApi(): ComputeApi {
+  let held: Held | undefined;
+  let loading: AbortController | undefined;
+
+  const need = (): Held => {
+    if (!held) throw new Error('no result file is loaded');
+    return held;
+  };
+
+  const facesOf = (h: Held): FaceList => h.faces;
+
+  return {
+    async load(request: LoadRequest, onProgress?: ProgressCallback): Promise<Description> {
+      loading?.abort();
+      const controller = new AbortController();
+      loading = controller;
+      const progress = throttle(onProgress);
+      const t0 = performance.now();
+      try {
+        let name: string, bytes: Uint8Array, fileBytes: number;
+        let resolve: ((rel: string) => Promise<Uint8Array>) | undefined;
+        if (request.kind === 'url') {
+          name = request.name;
+          bytes = await fetchBytes(request.url, (done, total) => progress.send({ stage: 'fetching', bytesDone: done, bytesTotal: total }), controller.signal);
+          fileBytes = bytes.length;
+        } else {
+          name = request.main.path.split('/').pop()!;
+          const size = request.main.data instanceof Uint8Array ? request.main.data.length : request.main.data.size;
+          progress.send({ stage: 'reading file', bytesDone: 0, bytesTotal: size });
+          bytes = await bytesOf(request.main.data);
+          fileBytes = bytes.length;
+          const folder = request.main.path.includes('/') ? request.main.path.slice(0, request.main.path.lastIndexOf('/') + 1) : '';
+          const byPath = new Map(request.others.map((f) => [normalisePath(f.path), f]));
+          resolve = async (rel) => {
+            const want = normalisePath(folder + rel);
+            // files chosen one by one carry no folder: fall back to a unique match of the file name
+            const base = want.split('/').pop()!;
+            const sameName = [...byPath.entries()].filter(([p]) => p.split('/').pop() === base);
+            const f = byPath.get(want) ?? byPath.get(normalisePath(rel)) ?? (sameName.length === 1 ? sameName[0]![1] : undefined);
+            if (!f) throw new Error(`${name}: piece "${rel}" is missing: choose it together with the set file (or open the folder)`);
+            const b = await bytesOf(f.data);
+            fileBytes += b.length;
+            return b;
+          };
+        }
+        const dataset = await readDataset(name, bytes, {
+          onProgress: (p) => progress.send(p),
+          signal: controller.signal,
+          ...(resolve ? { resolve } : {}),
+        });
+        progress.send({ stage: 'summarising', bytesDone: fileBytes, bytesTotal: fileBytes });
+        progress.flush();
+        progress.send({ stage: 'finding boundary surfaces', bytesDone: fileBytes, bytesTotal: fileBytes });
+        held = describe(dataset, fileBytes, t0);
+        return held.description;
+      } finally {
+        if (loading === controller) loading = undefined;
+      }
+    },
+
+    cancelLoad(): void { loading?.abort(); },
+
+    async describe(): Promise<Description> { return need().description; },
+
+    async surface(): Promise<SurfaceDrawing> {
+      const h = need();
+      const d = drawFaces(h.dataset, facesOf(h), h.boundary?.groups.faceGroup ?? null);
+      return Comlink.transfer(d, [d.positions.buffer, d.normals.buffer, d.groups.buffer, d.edges.buffer, d.edgeGroups.buffer]);
+    },
+
+    async surfaceValues(field: FieldChoice): Promise<DrawingValues> {
+      const h = need();
+      const v = faceValues(h.dataset, facesOf(h), field);
+      return Comlink.transfer(v, [v.values.buffer]);
+    },
+
+    async cut(request: CutRequest): Promise<CutReply> {
+      const h = need();
+      checkVec(request.origin, 'cut-plane origin');
+      checkVec(request.normal, 'cut-plane normal');
+      if (Math.hypot(...request.normal) === 0) throw new Error('cut-plane normal: (0, 0, 0) has no direction; give a non-zero vector');
+      const region: RegionSpec[] = request.seed ? [{ kind: 'seed', point: request.seed }] : [];
+      const r = integratePlane(h.dataset, {
+        origin: request.origin, normal: request.normal, region,
+        integral: { velocity: request.velocity || undefined, pressure: request.pressure || undefined, density: request.rho },
+      });
+      const drawing = r.region.set.indices.length > 0 ? drawTriangleSet(r.region.set, r.cut.normal, request.color) : null;
+      const reply: CutReply = { drawing, integrals: r.integrals, normal: [...r.cut.normal], region: r.region.applied, cellsCut: r.cut.stats.cutCells };
+      return drawing ? Comlink.transfer(reply, [drawing.positions.buffer, drawing.normals.buffer, drawing.groups.buffer, drawing.values.buffer]) : reply;
+    },
+
+    async sample(request: LineRequest): Promise<LineReply> {
+      const h = need();
+      checkVec(request.from, 'line probe start');
+      checkVec(request.to, 'line probe end');
+      const r = probeLine(h.dataset, request.from, request.to, { samples: request.samples });
+      const reply: LineReply = {
+        length: r.length, count: r.count, validCount: r.validCount, outside: r.outside,
+        s: r.s, x: r.x, y: r.y, z: r.z, valid: r.valid,
+        fields: r.fields.map((f) => ({ name: f.name, association: f.association, components: f.components, labels: [...f.labels], columns: f.columns })),
+        stats: lineStats(r),
+      };
+      return Comlink.transfer(reply, [r.s.buffer, r.x.buffer, r.y.buffer, r.z.buffer, r.valid.buffer, ...r.fields.flatMap((f) => f.columns.map((c) => c.buffer))]);
+    },
+
+    async forces(request: ForceRequest): Promise<ForceReply> {
+      const h = need();
+      if (!h.boundary) throw new Error('force totals need volume cells: this file holds surface cells only');
+      const { faces, groups } = h.boundary;
+      for (const v of [request.dragDir, request.liftDir, request.momentPoint]) checkVec(v, 'force reference vector');
+      const picked = request.groups.filter((g) => Number.isInteger(g) && g >= 0 && g < groups.groups.length);
+      if (picked.length === 0) throw new Error('choose at least one surface for the force total (click it in the view)');
+      const selection = facesOfGroups(groups, picked);
+      const loads = surfaceLoads(h.dataset, faces, selection, { pRef: request.pRef, ...(request.mu > 0 ? { mu: request.mu } : {}) }, groups.faceSurfaceCell);
+      const result = forceTotals(h.dataset, faces, loads, {
+        momentPoint: request.momentPoint, dragDirection: request.dragDir, liftDirection: request.liftDir,
+        reference: { rho: request.rho, speed: request.speed, area: request.area, ...(request.length > 0 ? { length: request.length } : {}) },
+      });
+      let cx = 0, cy = 0, cz = 0, a = 0;
+      for (const i of picked) { const g = groups.groups[i]!; cx += g.area * g.centroid[0]; cy += g.area * g.centroid[1]; cz += g.area * g.centroid[2]; a += g.area; }
+      return { result, centroid: a > 0 ? [cx / a, cy / a, cz / a] : [0, 0, 0], groupNames: picked.map((i) => groups.groups[i]!.name) };
+    },
+  };
+}
+
+/** Boundary faces, their groups and the description of a freshly read dataset. */
+function describe(dataset: Dataset, fileBytes: number, t0: number): Held {
+  const report = loadReport(dataset);
+  const faces = boundaryFaces(dataset);
+  if (faces.count > 0) {
+    const groups = surfaceGroups(dataset, faces);
+    return {
+      dataset, faces, boundary: { faces, groups },
+      description: {
+        report, fileBytes, loadSeconds: (performance.now() - t0) / 1000,
+        groups: groups.groups.map((g, i) => ({
+          id: i, fileId: g.id, name: g.name, source: g.source, area: g.area, faces: g.faces, centroid: [...g.centroid], bounds: [...g.bounds],
+        })),
+      },
+    };
+  }
+  const cells = surfaceCellFaces(dataset);
+  let area = 0;
+  const A = cells.areaVector;
+  for (let f = 0; f < cells.count; f++) area += Math.hypot(A[3 * f]!, A[3 * f + 1]!, A[3 * f + 2]!);
+  const b = datasetBounds(dataset);
+  return {
+    dataset, faces: cells,
+    description: {
+      report, fileBytes, loadSeconds: (performance.now() - t0) / 1000,
+      groups: [{ id: 0, fileId: 0, name: 'surface cells', source: 'surface-cells', area, faces: cells.count,
+        centroid: [(b[0] + b[1]) / 2, (b[2] + b[3]) / 2, (b[4] + b[5]) / 2], bounds: b }],
+    },
+  };
+}
+
+/** Validates a vector at the API edge. */
+function checkVec(v: unknown, what: string): void {
+  if (!Array.isArray(v) || v.length !== 3 || v.some((x) => typeof x !== 'number' || !Number.isFinite(x))) {
+    throw new Error(`${what}: expected three finite numbers, got ${JSON.stringify(v)}`);
+  }
+}
+
+/** `a/./b/../c` → `a/c`, backslashes to slashes. */
+function normalisePath(p: string): string {
+  const out: string[] = [];
+  for (const s of p.replace(/\\/g, '/').split('/')) {
+    if (s === '' || s === '.') continue;
+    if (s === '..') out.pop(); else out.push(s);
+  }
+  return out.join('/');
+}
+
+// In a browser worker, expose the API on the worker's own port.
+declare const WorkerGlobalScope: unknown;
+if (typeof WorkerGlobalScope !== 'undefined' && typeof self !== 'undefined') Comlink.expose(createComputeApi());
