@@ -1,0 +1,69 @@
+/**
+ * Bench stage `surface`: boundary extraction (first run and the best of the repeats), grouping (group array
+ * or feature angle), and the force total over all boundary faces (first, best and median of 10 runs) —
+ * pressure plus the wall-shear array when the file has one, and separately the viscous force from the
+ * velocity gradient when it has a velocity array.
+ */
+import type { Dataset } from '../../model/dataset.ts';
+import { boundaryFaces } from '../../surface/boundaryFaces.ts';
+import { forceTotals } from '../../surface/forces.ts';
+import { surfaceGroups } from '../../surface/surfaceGroups.ts';
+import { surfaceLoads } from '../../surface/surfaceLoads.ts';
+import type { BenchStage } from './stage.ts';
+
+const r2 = (v: number) => Math.round(v * 100) / 100;
+
+/** Times the surface pipeline on a dataset; `repeats` extraction runs after the first. */
+export async function benchSurface(d: Dataset, repeats = 2): Promise<Record<string, unknown>> {
+  let t = performance.now();
+  let faces = boundaryFaces(d);
+  const firstMs = performance.now() - t;
+  const again: number[] = [];
+  for (let i = 0; i < repeats; i++) {
+    t = performance.now();
+    faces = boundaryFaces(d);
+    again.push(performance.now() - t);
+  }
+  t = performance.now();
+  const groups = surfaceGroups(d, faces);
+  const groupMs = performance.now() - t;
+  const out: Record<string, unknown> = {
+    boundaryFaces: faces.count, cells3d: faces.cells3d, pointMatching: faces.merge.method,
+    extraction: { firstMs: r2(firstMs), bestMs: r2(Math.min(firstMs, ...again)), runs: 1 + repeats },
+    grouping: { ms: r2(groupMs), groups: groups.groups.length, source: groups.groupArray ? `cell array "${groups.groupArray}"` : `feature angle ${groups.featureAngle}°` },
+  };
+  const all = Int32Array.from({ length: faces.count }, (_, i) => i);
+  const pressureName = d.pieces[0]?.pointData.find((f) => /^(p|pressure)$/i.test(f.name) && f.components === 1)?.name;
+  if (!pressureName || faces.count === 0) {
+    out.force = { skipped: 'no point array named p or pressure' };
+    return out;
+  }
+  // 'auto' without μ: pressure plus the wall-shear array when there is one; 'gradient': from the velocity.
+  const timeForce = (viscous: 'auto' | 'gradient') => {
+    const ms: number[] = [];
+    let loadsMs = 0, method = '';
+    for (let i = 0; i < 10; i++) {
+      const t0 = performance.now();
+      const loads = surfaceLoads(d, faces, all, { pressure: pressureName, viscous, ...(viscous === 'gradient' ? { mu: 1e-3 } : {}) }, groups.faceSurfaceCell);
+      const t1 = performance.now();
+      forceTotals(d, faces, loads);
+      ms.push(performance.now() - t0);
+      loadsMs = t1 - t0; method = loads.viscous.method;
+    }
+    const sorted = [...ms].sort((x, y) => x - y);
+    return {
+      faces: faces.count, firstMs: r2(ms[0]!), bestMs: r2(sorted[0]!), medianMs: r2(sorted[5]!), runs: ms.length,
+      gatherMsLast: r2(loadsMs), viscous: method,
+    };
+  };
+  out.force = timeForce('auto');
+  if (d.pieces[0]!.pointData.some((f) => /^(velocity|u|vel)$/i.test(f.name) && f.components === 3)) out.forceFromGradient = timeForce('gradient');
+  return out;
+}
+
+const stage: BenchStage = {
+  name: 'surface',
+  order: 40,
+  run: (d) => benchSurface(d),
+};
+export default stage;

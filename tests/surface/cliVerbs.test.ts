@@ -1,0 +1,91 @@
+/**
+ * The `surfaces` and `force` verbs end to end on a Stokes-sphere file written to a temporary folder.
+ * Reference: ../shared/REFERENCES.md §3 (drag 3πμUD, pressure 1/3, viscous 2/3, C_D = 24/Re).
+ */
+import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { main } from '../../src/cli/main.ts';
+import { writeVtu } from '../../src/io/writeVtu.ts';
+import { sphereCase, sphereExact } from '../../src/samples/sphere.ts';
+
+let dir = '', file = '';
+const o = { refinement: 1 };
+const e = sphereExact(o);
+
+beforeAll(() => {
+  dir = mkdtempSync(join(tmpdir(), 'fieldtally-surface-cli-'));
+  file = join(dir, 'bead.vtu');
+  writeFileSync(file, writeVtu(sphereCase(o)));
+});
+afterAll(() => rmSync(dir, { recursive: true, force: true }));
+
+async function run(...argv: string[]): Promise<{ code: number; out: string; err: string }> {
+  let out = '', err = '';
+  const code = await main(argv, { out: (t) => { out += t + '\n'; }, err: (t) => { err += t + '\n'; } });
+  return { code, out, err };
+}
+
+describe('fieldtally surfaces', () => {
+  it('lists the groups with area, centroid, bounds and closedness (JSON)', async () => {
+    const r = await run('surfaces', file, '--json');
+    expect(r.code).toBe(0);
+    const j = JSON.parse(r.out);
+    expect(j.groups.map((g: { id: number; name: string }) => [g.id, g.name])).toEqual([[1, 'group 1'], [2, 'group 2']]);
+    expect(j.groups[0].closed).toBe(true);
+    expect(j.groups[0].area / (4 * Math.PI * e.a ** 2)).toBeGreaterThan(0.99);
+    expect(j.groups[1].bounds[1]).toBeCloseTo(e.outerRadius, 12);
+    expect(j.caution).toMatch(/only as good as the simulation/);
+  });
+
+  it('prints a readable list; a feature angle outside 0…180 is refused', async () => {
+    const r = await run('surfaces', file, '--feature-angle', '30');
+    expect(r.code).toBe(0);
+    expect(r.out).toMatch(/2 group\(s\) from cell array "group"/);
+    expect(r.out).toMatch(/closed/);
+    expect((await run('surfaces', file, '--feature-angle', '200')).err).toMatch(/--feature-angle: expected degrees in 0…180/);
+  });
+});
+
+describe('fieldtally force', () => {
+  it('JSON has the forces, moment, coefficients with pressure and viscous parts, sign convention and units', async () => {
+    const r = await run('force', file, '--groups', '1', '--rho', String(e.rho), '--speed', String(e.U), '--area', String(e.frontalArea),
+      '--length', String(2 * e.a), '--json');
+    expect(r.code).toBe(0);
+    const j = JSON.parse(r.out);
+    for (const k of ['pressureForce', 'viscousForce', 'force', 'moment']) expect(j[k]).toHaveLength(3);
+    expect(j.force[0] / e.dragTotal).toBeCloseTo(1, 1);
+    expect(j.pressureForce[0] / j.force[0]).toBeCloseTo(1 / 3, 2);
+    expect(j.viscousForce[0] / j.force[0]).toBeCloseTo(2 / 3, 2);
+    expect(j.coefficients.drag / e.CD).toBeCloseTo(1, 1);
+    expect(j.coefficients.pressure.drag + j.coefficients.viscous.drag).toBeCloseTo(j.coefficients.drag, 10);
+    expect(Math.abs(j.coefficients.lift)).toBeLessThan(1e-9);
+    expect(j.coefficients.moment).not.toBeNull();
+    expect(j.signConvention).toMatch(/on the wall/);
+    expect(j.units).toMatch(/N for Pa and m/);
+    expect(j.caution).toMatch(/licensed professional/);
+  });
+
+  it('viscous part from the velocity gradient with --mu; by group name; with a drag distribution', async () => {
+    const r = await run('force', file, '--groups', 'group 1', '--viscous', 'gradient', '--mu', String(e.mu), '--bins', '4', '--json');
+    expect(r.code).toBe(0);
+    const j = JSON.parse(r.out);
+    expect(j.viscous.method).toBe('velocity-gradient');
+    expect(j.viscousForce[0] / e.dragViscous).toBeGreaterThan(0.8);
+    expect(j.coefficients).toBeNull();
+    expect(j.distribution.cumulativeDrag[4] / j.force[0]).toBeCloseTo(1, 12);
+  });
+
+  it('prints a text report; refuses incomplete reference values and unknown groups with one-line errors', async () => {
+    const t = await run('force', file, '--groups', '1');
+    expect(t.code).toBe(0);
+    expect(t.out).toMatch(/total force/);
+    expect(t.out).toMatch(/Caution:/);
+    expect((await run('force', file, '--groups', '1', '--rho', '1')).err).toMatch(/need all of --rho, --speed and --area/);
+    const bad = await run('force', file, '--groups', 'wing');
+    expect(bad.code).toBe(1);
+    expect(bad.err).toMatch(/no surface group "wing"/);
+    expect((await run('force', file)).err).toMatch(/--groups is required/);
+  });
+});
