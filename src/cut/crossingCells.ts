@@ -1,0 +1,82 @@
+/**
+ * Which cells a plane can cut: the candidates the cut kernel visits.
+ *
+ * Two sources, same answer up to extra candidates (the kernel decides exactly):
+ *  - `tree`: the flat bounding-box tree of `src/locate/cellTree.ts` (built once per dataset, then each query
+ *    visits only the boxes the plane touches);
+ *  - `scan`: signed distances of every point, then a sign test per cell — no set-up cost, a full pass per cut.
+ * `auto` uses the tree when it is already built for this dataset, and otherwise scans while it is cheap
+ * (the first cuts of a file), building the tree on the cut that follows `AUTO_SCANS` scans.
+ */
+import { cellDimension, CellType } from '../model/cellTypes.ts';
+import { cellStarts, type Dataset } from '../model/dataset.ts';
+import { cellsCrossingPlane, getCellTree } from '../locate/cellTree.ts';
+
+export type CandidateSource = 'auto' | 'tree' | 'scan';
+
+/** Scans allowed per dataset before `auto` builds the tree (the first cut stays fast; dragging then gets the tree). */
+export const AUTO_SCANS = 1;
+
+const scansDone = new WeakMap<Dataset, number>();
+const treeBuilt = new WeakSet<Dataset>();
+
+let side = new Uint8Array(0);
+let found = new Int32Array(1024);
+
+/** Whether `auto` would use the tree for this dataset now. */
+export function treeReady(d: Dataset): boolean { return treeBuilt.has(d); }
+
+/**
+ * Global ids of the cells the plane n·(x − o) = 0 may cut (every 3D cell with nodes on both sides, or
+ * with nodes on the plane, is among them). `tol` is the distance below which a node counts as on the plane.
+ * Returns a view of a scratch buffer, valid until the next call. `used` reports which source ran.
+ */
+export function candidateCells(d: Dataset, ox: number, oy: number, oz: number, nx: number, ny: number, nz: number,
+  tol: number, source: CandidateSource = 'auto'): { cells: Int32Array; used: 'tree' | 'scan' } {
+  let use: 'tree' | 'scan' = source === 'auto' ? 'scan' : source;
+  if (source === 'auto') {
+    if (treeBuilt.has(d)) use = 'tree';
+    else {
+      const n = scansDone.get(d) ?? 0;
+      if (n >= AUTO_SCANS) use = 'tree'; else scansDone.set(d, n + 1);
+    }
+  }
+  if (use === 'tree') {
+    const tree = getCellTree(d);
+    treeBuilt.add(d);
+    return { cells: cellsCrossingPlane(tree, ox, oy, oz, nx, ny, nz), used: 'tree' };
+  }
+  return { cells: scan(d, ox, oy, oz, nx, ny, nz, tol), used: 'scan' };
+}
+
+function scan(d: Dataset, ox: number, oy: number, oz: number, nx: number, ny: number, nz: number, tol: number): Int32Array {
+  const starts = cellStarts(d);
+  let nFound = 0;
+  for (let k = 0; k < d.pieces.length; k++) {
+    const p = d.pieces[k]!, pts = p.points, np = pts.length / 3;
+    if (side.length < np) side = new Uint8Array(Math.max(np, 2 * side.length));
+    // One byte per point (1 below, 2 on, 4 above): the per-cell pass ORs bytes instead of comparing doubles.
+    for (let i = 0, j = 0; i < np; i++, j += 3) {
+      const s = nx * (pts[j]! - ox) + ny * (pts[j + 1]! - oy) + nz * (pts[j + 2]! - oz);
+      side[i] = s <= tol && s >= -tol ? 2 : s < 0 ? 1 : 4;
+    }
+    const types = p.cellTypes, off = p.offsets, conn = p.connectivity, pf = p.polyFaces, nc = types.length, g0 = starts[k]!;
+    for (let c = 0; c < nc; c++) {
+      const t = types[c]!;
+      let a = off[c]!, b = off[c + 1]!, ids = conn;
+      if (t === CellType.POLYHEDRON) {
+        if (a === b && pf) { ids = pf.faceConnectivity; a = pf.faceOffsets[pf.cellFaceStart[c]!]!; b = pf.faceOffsets[pf.cellFaceStart[c + 1]!]!; }
+      } else if (t < CellType.TETRA || t > CellType.HEXAGONAL_PRISM) {
+        if (cellDimension(t) !== 3) continue;
+      }
+      let m = 0;
+      for (let q = a; q < b; q++) m |= side[ids[q]!]!;
+      // Below with anything else (3, 5, 7), or on-plane nodes above the plane (6: a boundary face may lie in it).
+      if (m === 3 || m >= 5) {
+        if (nFound === found.length) { const g = new Int32Array(2 * found.length); g.set(found); found = g; }
+        found[nFound++] = g0 + c;
+      }
+    }
+  }
+  return found.subarray(0, nFound);
+}

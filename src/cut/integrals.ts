@@ -1,0 +1,409 @@
+/**
+ * Surface integrals over a triangle set (a cut, a region of it, or a boundary-surface group): area,
+ * centroid, volume-flow rate Q = ∫u·n dA, mass-flow rate ṁ = ∫ρ u·n dA, area-weighted and
+ * mass-flow-weighted means of every field, total pressure, min/max, flow-uniformity index and reverse flow.
+ *
+ * Conventions (repeated in every report):
+ *  - n is each triangle's unit normal by its winding ((b − a) × (c − a)); for a cut, the plane normal.
+ *    Fluxes are positive along n.
+ *  - Point fields are linear over each triangle, cell fields constant. Every integral of a product of up to
+ *    three such fields (ρ · u·n · φ) uses the degree-3 rule `TRI7`, so it is exact to rounding; on a field
+ *    linear over each cell the mass-flow-weighted mean of a quadratic quantity (|u|² with constant ρ) is exact.
+ *  - Magnitudes |v| are not polynomial: they are evaluated at the rule's points from the interpolated
+ *    components (the magnitude of the interpolated vector, not an interpolated magnitude).
+ *  - Total pressure p₀ = p + ½ρ|u|² (kinematic files, p/ρ stored: p₀/ρ = p/ρ + ½|u|², reported in that form).
+ *    With ρ a field, ρ²·u·n·|u|² is of degree 5 and the rule is not exact for it.
+ *  - Min/max are over the vertices (exact for the linear interpolants of components; for magnitudes the max
+ *    is exact, the min is the least vertex value) and over the arc quadrature points of a disk region.
+ *  - Reverse flow (u·n < 0) and ∫|u·n − ū_n| dA split each triangle exactly along the line where the linear
+ *    u·n crosses the threshold; on the arc pieces of a disk region they go by the sign at each quadrature point.
+ *  - Uniformity index, common practice: γ = 1 − Σ|u_n,i − ū_n|A_i / (2|ū_n|A), here in its continuous form
+ *    with ū_n = Q/A.
+ * An empty surface (or one of zero area) gives `empty: true` and null numbers — never zeros as if measured.
+ */
+import { TRI7 } from './quadrature.ts';
+import { guessRole, pickField, type FieldInfo } from './fieldRoles.ts';
+import { triangleCount, type SurfaceField, type TriangleSet } from './triangleSet.ts';
+
+/** Extra quadrature points with field values (the curved pieces of a disk region; see `regionClip.ts`). */
+export interface ArcCloud {
+  /** xyz per point. */
+  readonly positions: Float64Array;
+  /** Area weight per point (length unit squared). */
+  readonly weights: Float64Array;
+  /** Unit normal shared by every point. */
+  readonly normal: readonly [number, number, number];
+  /** Values per point, one array per field of the triangle set, in the set's field order (tuple-interleaved). */
+  readonly values: readonly Float64Array[];
+}
+
+/** Options of `integrateSurface`; every field optional. */
+export interface IntegralOptions {
+  /** Velocity field (`name`, `point:name` or `cell:name`), null for none. Default (undefined): by the rule of `fieldRoles.ts`. */
+  velocity: string | null | undefined;
+  /** Pressure field, as `velocity`. Default: by the rule. */
+  pressure: string | null | undefined;
+  /** Density: a constant (mass per length cubed, file's units) or a field spec; null for none. Default: a field by the rule, else none. */
+  density: number | string | null | undefined;
+  /** The pressure field holds p/ρ (kinematic): total pressure is reported as p₀/ρ = p/ρ + ½|u|². Default false. */
+  kinematicPressure: boolean;
+}
+
+export type Stat = number | number[];
+
+export interface SurfaceIntegrals {
+  empty: boolean;
+  /** Why the result is empty, or null. */
+  reason: string | null;
+  triangles: number;
+  area: number | null;
+  centroid: [number, number, number] | null;
+  /** Unit area-weighted mean normal (for a planar cut, the plane's normal). */
+  normal: [number, number, number] | null;
+  volumeFlowRate: number | null;
+  massFlowRate: number | null;
+  /** ∫φ dA of every field (vectors per component). */
+  integral: Record<string, Stat>;
+  areaMean: Record<string, Stat>;
+  massFlowMean: Record<string, Stat>;
+  /** Means of |v| of every vector field. */
+  magnitudeAreaMean: Record<string, number>;
+  magnitudeMassFlowMean: Record<string, number>;
+  min: Record<string, Stat>;
+  max: Record<string, Stat>;
+  magnitudeMin: Record<string, number>;
+  magnitudeMax: Record<string, number>;
+  /** Means of the pressure field (as stored: p, or p/ρ when kinematic), or null without one. */
+  staticPressure: { areaMean: number; massFlowMean: number | null; kinematic: boolean } | null;
+  totalPressure: { areaMean: number | null; massFlowMean: number | null; kinematic: boolean } | null;
+  uniformityIndex: number | null;
+  reverseFlow: { area: number; areaShare: number; volumeFlowRate: number; massFlowRate: number | null; massShare: number | null } | null;
+  /** The fields and density used, as `name (association)` or a number. */
+  roles: { velocity: string | null; pressure: string | null; density: string | number | null; kinematicPressure: boolean };
+  notes: string[];
+}
+
+// ---- scratch ------------------------------------------------------------------------------------------
+let vv = new Float64Array(96);   // vertex values: channel ch, vertex j at vv[3ch + j]
+let triUn = new Float64Array(0), triArea = new Float64Array(0); // per triangle: u·n at the vertices, area
+let e7 = new Float64Array(64);   // channel ch at rule point q: e7[7ch + q]
+const wmq = new Float64Array(7); // mass weight ρu_n·w at each rule point
+let pv = new Float64Array(32);   // values at one quadrature point
+let acc = new Float64Array(64);  // per channel: ∫φ dA, then ∫ρu_nφ dA
+const sub = new Float64Array(12); // barycentric vertices of a clipped sub-polygon (≤ 4)
+
+/** Key of a field in result records: its name, with " (cell)" when a point field has the same name. */
+function keyOf(fields: readonly SurfaceField[], f: SurfaceField): string {
+  return f.association === 'cell' && fields.some((g) => g.association === 'point' && g.name === f.name) ? `${f.name} (cell)` : f.name;
+}
+
+function resolve(set: TriangleSet, spec: string | null | undefined, role: 'velocity' | 'pressure' | 'density', notes: string[]): number {
+  const infos: FieldInfo[] = set.fields.map((f) => ({ name: f.name, association: f.association, components: f.components }));
+  let info: FieldInfo | null;
+  if (spec === null) return -1;
+  if (spec === undefined) {
+    const g = guessRole(infos, role);
+    info = g.field;
+    if (!info && g.candidates.length > 1) notes.push(`${role}: several fields qualify (${g.candidates.join(', ')}); name one`);
+  } else {
+    info = pickField(infos, spec, role);
+  }
+  if (!info) return -1;
+  const want = role === 'velocity' ? 3 : 1;
+  if (info.components !== want) throw new Error(`${role}: field "${info.name}" has ${info.components} components, expected ${want}`);
+  return set.fields.findIndex((f) => f.name === info!.name && f.association === info!.association);
+}
+
+/** Integrates over `set` (and the optional arc points of a disk region). Units: those of the file. */
+export function integrateSurface(set: TriangleSet, options: Partial<IntegralOptions> = {}, arcs?: ArcCloud): SurfaceIntegrals {
+  const notes: string[] = [];
+  const fields = set.fields;
+  const iu = resolve(set, options.velocity, 'velocity', notes);
+  const ip = resolve(set, options.pressure, 'pressure', notes);
+  const rhoConst = typeof options.density === 'number' ? options.density : null;
+  if (rhoConst !== null && !(Number.isFinite(rhoConst) && rhoConst > 0)) throw new Error(`density: expected a positive number, got ${rhoConst}`);
+  const ir = rhoConst !== null ? -1 : resolve(set, options.density as string | null | undefined, 'density', notes);
+  const kinematic = options.kinematicPressure ?? false;
+  const hasRho = rhoConst !== null || ir >= 0;
+  const label = (i: number) => (i < 0 ? null : `${fields[i]!.name} (${fields[i]!.association})`);
+  const roles = { velocity: label(iu), pressure: label(ip), density: rhoConst ?? label(ir), kinematicPressure: kinematic };
+
+  // Channels: every component of every field, in field order.
+  const chOf = new Int32Array(fields.length + 1);
+  for (let i = 0; i < fields.length; i++) chOf[i + 1] = chOf[i]! + fields[i]!.components;
+  const C = chOf[fields.length]!;
+  const vecs = fields.map((f, i) => (f.components > 1 ? i : -1)).filter((i) => i >= 0);
+  const nMag = vecs.length;
+  const magCh = Int32Array.from(vecs, (i) => chOf[i]!), magNc = Int32Array.from(vecs, (i) => fields[i]!.components);
+  // acc layout: [0,C) ∫φ, [C,2C) ∫ρu_nφ, then per vector: ∫|v|, ∫ρu_n|v|.
+  if (vv.length < 3 * C) vv = new Float64Array(3 * C);
+  if (pv.length < C) pv = new Float64Array(C);
+  if (acc.length < 2 * C + 2 * nMag) acc = new Float64Array(2 * C + 2 * nMag);
+  acc.fill(0);
+  const uCh = iu >= 0 ? chOf[iu]! : -1, pCh = ip >= 0 ? chOf[ip]! : -1, rCh = ir >= 0 ? chOf[ir]! : -1;
+  const rho0 = rhoConst ?? 1, withP0 = pCh >= 0 && uCh >= 0, halfRho = kinematic ? 0 : 1;
+
+  let A = 0, cx = 0, cy = 0, cz = 0, Q = 0, M = 0, P0a = 0, P0m = 0, Nx = 0, Ny = 0, Nz = 0;
+  let Aneg = 0, Qneg = 0, Mneg = 0;
+
+  const nt = triangleCount(set), P = set.positions, I = set.indices;
+  const wts = TRI7.weight;
+  if (triUn.length < 3 * nt) { triUn = new Float64Array(3 * nt); triArea = new Float64Array(nt); }
+  // Channels needed at the rule's points: vector fields (magnitudes), and velocity, pressure, density for p₀.
+  const need = new Set<number>();
+  vecs.forEach((i) => { for (let c = 0; c < fields[i]!.components; c++) need.add(chOf[i]! + c); });
+  if (withP0) { for (let c = 0; c < 3; c++) need.add(uCh + c); need.add(pCh); if (rCh >= 0) need.add(rCh); }
+  const needCh = Int32Array.from(need);
+  if (e7.length < 7 * C) e7 = new Float64Array(7 * C);
+
+  for (let t = 0; t < nt; t++) {
+    const a = 3 * I[3 * t]!, b = 3 * I[3 * t + 1]!, c = 3 * I[3 * t + 2]!;
+    const ax = P[a]!, ay = P[a + 1]!, az = P[a + 2]!;
+    const ux = P[b]! - ax, uy = P[b + 1]! - ay, uz = P[b + 2]! - az, wx = P[c]! - ax, wy = P[c + 1]! - ay, wz = P[c + 2]! - az;
+    let nx = uy * wz - uz * wy, ny = uz * wx - ux * wz, nz = ux * wy - uy * wx;
+    const n2 = Math.sqrt(nx * nx + ny * ny + nz * nz);
+    triArea[t] = 0.5 * n2;
+    if (n2 === 0) continue;
+    const area = 0.5 * n2, a3 = area / 3;
+    Nx += 0.5 * nx; Ny += 0.5 * ny; Nz += 0.5 * nz;
+    nx /= n2; ny /= n2; nz /= n2;
+    A += area;
+    cx += a3 * (3 * ax + ux + wx); cy += a3 * (3 * ay + uy + wy); cz += a3 * (3 * az + uz + wz);
+    gather(fields, chOf, set, t);
+    let g0 = 0, g1 = 0, g2 = 0;
+    if (uCh >= 0) {
+      g0 = vv[3 * uCh]! * nx + vv[3 * uCh + 3]! * ny + vv[3 * uCh + 6]! * nz;
+      g1 = vv[3 * uCh + 1]! * nx + vv[3 * uCh + 4]! * ny + vv[3 * uCh + 7]! * nz;
+      g2 = vv[3 * uCh + 2]! * nx + vv[3 * uCh + 5]! * ny + vv[3 * uCh + 8]! * nz;
+    }
+    triUn[3 * t] = g0; triUn[3 * t + 1] = g1; triUn[3 * t + 2] = g2;
+    const r0 = rCh >= 0 ? vv[3 * rCh]! : rho0, r1 = rCh >= 0 ? vv[3 * rCh + 1]! : rho0, r2 = rCh >= 0 ? vv[3 * rCh + 2]! : rho0;
+    // Values of the non-linear parts' inputs at the rule's 7 points (vertices, midpoints, centroid).
+    for (let i = 0; i < needCh.length; i++) {
+      const ch = needCh[i]!, v0 = vv[3 * ch]!, v1 = vv[3 * ch + 1]!, v2 = vv[3 * ch + 2]!, o = 7 * ch;
+      e7[o] = v0; e7[o + 1] = v1; e7[o + 2] = v2;
+      e7[o + 3] = 0.5 * (v0 + v1); e7[o + 4] = 0.5 * (v1 + v2); e7[o + 5] = 0.5 * (v0 + v2); e7[o + 6] = (v0 + v1 + v2) / 3;
+    }
+    // Mass weights ρu_n·w at the points; for a linear φ, ∫ρu_nφ = Σ_q wm_q Σ_j λ_qj φ_j = Σ_j M_j φ_j.
+    const gm3 = 0.5 * (g0 + g1), gm4 = 0.5 * (g1 + g2), gm5 = 0.5 * (g0 + g2), gc = (g0 + g1 + g2) / 3;
+    const wv = area * wts[0]!, wmid = area * wts[3]!, wc = area * wts[6]!;
+    wmq[0] = wv * r0 * g0; wmq[1] = wv * r1 * g1; wmq[2] = wv * r2 * g2;
+    wmq[3] = wmid * 0.5 * (r0 + r1) * gm3; wmq[4] = wmid * 0.5 * (r1 + r2) * gm4; wmq[5] = wmid * 0.5 * (r0 + r2) * gm5;
+    wmq[6] = wc * ((r0 + r1 + r2) / 3) * gc;
+    const c3 = wmq[6]! / 3;
+    const M0 = wmq[0]! + 0.5 * (wmq[3]! + wmq[5]!) + c3, M1 = wmq[1]! + 0.5 * (wmq[3]! + wmq[4]!) + c3, M2 = wmq[2]! + 0.5 * (wmq[4]! + wmq[5]!) + c3;
+    Q += a3 * (g0 + g1 + g2); M += M0 + M1 + M2;
+    for (let k = 0; k < nMag; k++) {
+      const o = 7 * magCh[k]!, nc = magNc[k]!;
+      let sa = 0, sm = 0;
+      for (let q = 0; q < 7; q++) {
+        let s2 = 0;
+        for (let cc = 0; cc < nc; cc++) { const v = e7[o + 7 * cc + q]!; s2 += v * v; }
+        const m = Math.sqrt(s2);
+        sa += area * wts[q]! * m; sm += wmq[q]! * m;
+      }
+      acc[2 * C + 2 * k] += sa; acc[2 * C + 2 * k + 1] += sm;
+    }
+    if (withP0) {
+      const ou = 7 * uCh, op = 7 * pCh, or = 7 * rCh;
+      for (let q = 0; q < 7; q++) {
+        const vx = e7[ou + q]!, vy = e7[ou + 7 + q]!, vz = e7[ou + 14 + q]!;
+        const rho = halfRho ? (rCh >= 0 ? e7[or + q]! : rho0) : 1;
+        const p0 = e7[op + q]! + 0.5 * rho * (vx * vx + vy * vy + vz * vz);
+        P0a += area * wts[q]! * p0; P0m += wmq[q]! * p0;
+      }
+    }
+    for (let ch = 0; ch < C; ch++) {
+      const v0 = vv[3 * ch]!, v1 = vv[3 * ch + 1]!, v2 = vv[3 * ch + 2]!;
+      acc[ch] += a3 * (v0 + v1 + v2);
+      acc[C + ch] += M0 * v0 + M1 * v1 + M2 * v2;
+    }
+    if (uCh >= 0 && (g0 < 0 || g1 < 0 || g2 < 0)) {
+      belowPart(area, g0, g1, g2, r0, r1, r2);
+      Aneg += partArea; Qneg += partInt; Mneg += partWeighted;
+    }
+  }
+  const { lo, hi } = ranges(fields, chOf, magCh, magNc);
+
+  if (arcs) {
+    const [nx, ny, nz] = arcs.normal, W = arcs.weights, X = arcs.positions, na = W.length;
+    for (let i = 0; i < na; i++) {
+      for (let f = 0; f < fields.length; f++) {
+        const nc = fields[f]!.components, o = chOf[f]!, src = arcs.values[f]!;
+        for (let c = 0; c < nc; c++) pv[o + c] = src[i * nc + c]!;
+      }
+      for (let ch = 0; ch < C; ch++) { const v = pv[ch]!; if (v < lo[ch]!) lo[ch] = v; if (v > hi[ch]!) hi[ch] = v; }
+      const w = W[i]!;
+      let un = 0, u2 = 0;
+      if (uCh >= 0) { const ux = pv[uCh]!, uy = pv[uCh + 1]!, uz = pv[uCh + 2]!; un = ux * nx + uy * ny + uz * nz; u2 = ux * ux + uy * uy + uz * uz; }
+      const rho = rCh >= 0 ? pv[rCh]! : rho0, wm = w * rho * un;
+      A += w; cx += w * X[3 * i]!; cy += w * X[3 * i + 1]!; cz += w * X[3 * i + 2]!; Q += w * un; M += wm;
+      Nx += w * nx; Ny += w * ny; Nz += w * nz;
+      if (un < 0) { Aneg += w; Qneg += w * un; Mneg += wm; }
+      for (let ch = 0; ch < C; ch++) { const v = pv[ch]!; acc[ch] += w * v; acc[C + ch] += wm * v; }
+      for (let k = 0; k < nMag; k++) {
+        let s2 = 0;
+        for (let c = 0; c < magNc[k]!; c++) { const v = pv[magCh[k]! + c]!; s2 += v * v; }
+        const m = Math.sqrt(s2);
+        acc[2 * C + 2 * k] += w * m; acc[2 * C + 2 * k + 1] += wm * m;
+        if (m < lo[C + k]!) lo[C + k] = m; if (m > hi[C + k]!) hi[C + k] = m;
+      }
+      if (withP0) { const p0 = pv[pCh]! + 0.5 * (halfRho ? rho : 1) * u2; P0a += w * p0; P0m += wm * p0; }
+    }
+  }
+
+  const base: SurfaceIntegrals = {
+    empty: true, reason: null, triangles: nt, area: null, centroid: null, normal: null, volumeFlowRate: null, massFlowRate: null,
+    integral: {}, areaMean: {}, massFlowMean: {}, magnitudeAreaMean: {}, magnitudeMassFlowMean: {}, min: {}, max: {},
+    magnitudeMin: {}, magnitudeMax: {}, staticPressure: null, totalPressure: null, uniformityIndex: null, reverseFlow: null, roles, notes,
+  };
+  if (!(A > 0)) { base.reason = nt === 0 && !arcs?.weights.length ? 'the surface has no triangles (the plane misses the mesh or the region is empty)' : 'the surface has zero area'; return base; }
+
+  const res = base;
+  res.empty = false;
+  res.area = A;
+  res.centroid = [cx / A, cy / A, cz / A];
+  const nl = Math.hypot(Nx, Ny, Nz);
+  res.normal = nl > 0 ? [Nx / nl, Ny / nl, Nz / nl] : null;
+  const massOk = uCh >= 0 && hasRho;
+  if (uCh >= 0) res.volumeFlowRate = Q; else notes.push('no velocity field: flow rates, mass-flow means and total pressure are not computed');
+  if (uCh >= 0 && !hasRho) notes.push('no density (give a constant or a field): mass-flow rate and mass-flow-weighted means are not computed');
+  if (massOk) res.massFlowRate = M;
+  // Mass-flow means divide by ṁ; when inflow and outflow nearly cancel they mean nothing.
+  const absM = M - 2 * Mneg;
+  const mMeanOk = massOk && M !== 0 && Math.abs(M) > 1e-9 * Math.abs(absM);
+  if (massOk && !mMeanOk) notes.push('net mass-flow rate is zero: mass-flow-weighted means are undefined');
+  for (let i = 0; i < fields.length; i++) {
+    const f = fields[i]!, o = chOf[i]!, nc = f.components, key = keyOf(fields, f);
+    const pick = (arr: (ch: number) => number): Stat => (nc === 1 ? arr(o) : Array.from({ length: nc }, (_, c) => arr(o + c)));
+    res.integral[key] = pick((ch) => acc[ch]!);
+    res.areaMean[key] = pick((ch) => acc[ch]! / A);
+    if (mMeanOk) res.massFlowMean[key] = pick((ch) => acc[C + ch]! / M);
+    res.min[key] = pick((ch) => lo[ch]!);
+    res.max[key] = pick((ch) => hi[ch]!);
+  }
+  vecs.forEach((fi, q) => {
+    const key = keyOf(fields, fields[fi]!);
+    res.magnitudeAreaMean[key] = acc[2 * C + 2 * q]! / A;
+    if (mMeanOk) res.magnitudeMassFlowMean[key] = acc[2 * C + 2 * q + 1]! / M;
+    res.magnitudeMin[key] = lo[C + q]!;
+    res.magnitudeMax[key] = hi[C + q]!;
+  });
+  if (pCh >= 0) res.staticPressure = { areaMean: acc[pCh]! / A, massFlowMean: mMeanOk ? acc[C + pCh]! / M : null, kinematic };
+  if (pCh >= 0 && uCh >= 0 && (hasRho || kinematic)) {
+    res.totalPressure = { areaMean: P0a / A, massFlowMean: mMeanOk ? P0m / M : null, kinematic };
+    if (rCh >= 0 && !kinematic) notes.push('density is a field: the mass-flow mean of total pressure (degree 5) is not integrated exactly');
+  } else if (uCh >= 0) {
+    notes.push(pCh < 0 ? 'no pressure field: total pressure not computed' : 'no density: total pressure needs ρ (or kinematic pressure)');
+  }
+  if (uCh >= 0) {
+    res.reverseFlow = {
+      area: Aneg, areaShare: Aneg / A, volumeFlowRate: Qneg,
+      massFlowRate: massOk ? Mneg : null, massShare: massOk && absM !== 0 ? -Mneg / absM : null,
+    };
+    const un = Q / A;
+    if (un !== 0) res.uniformityIndex = 1 - absDeviation(nt, un, fields, chOf, uCh, arcs) / (2 * Math.abs(un) * A);
+    else notes.push('mean normal velocity is zero: uniformity index undefined');
+  }
+  return res;
+}
+
+/** Fills vv with the vertex values of triangle t (cell fields repeated on the three vertices). */
+function gather(fields: readonly SurfaceField[], chOf: Int32Array, set: TriangleSet, t: number): void {
+  const I = set.indices;
+  const v0 = I[3 * t]!, v1 = I[3 * t + 1]!, v2 = I[3 * t + 2]!;
+  for (let i = 0; i < fields.length; i++) {
+    const f = fields[i]!, nc = f.components, vals = f.values, o = chOf[i]!;
+    if (f.association === 'point') {
+      for (let c = 0; c < nc; c++) {
+        const k = 3 * (o + c);
+        vv[k] = vals[v0 * nc + c]!; vv[k + 1] = vals[v1 * nc + c]!; vv[k + 2] = vals[v2 * nc + c]!;
+      }
+    } else {
+      for (let c = 0; c < nc; c++) { const k = 3 * (o + c), v = vals[t * nc + c]!; vv[k] = v; vv[k + 1] = v; vv[k + 2] = v; }
+    }
+  }
+}
+
+let partArea = 0, partInt = 0, partWeighted = 0;
+
+/**
+ * Over the part of a triangle (area `area`) where the linear g (vertex values g0..g2) is negative:
+ * sets partArea, partInt = ∫(g) dA and partWeighted = ∫r·g dA with r linear (vertex values r0..r2). Exact.
+ */
+function belowPart(area: number, g0: number, g1: number, g2: number, r0: number, r1: number, r2: number): void {
+  let m = 0;
+  for (let i = 0; i < 3; i++) {
+    const j = (i + 1) % 3, gi = i === 0 ? g0 : i === 1 ? g1 : g2, gj = j === 0 ? g0 : j === 1 ? g1 : g2;
+    if (gi < 0) { sub[3 * m] = i === 0 ? 1 : 0; sub[3 * m + 1] = i === 1 ? 1 : 0; sub[3 * m + 2] = i === 2 ? 1 : 0; m++; }
+    if ((gi < 0) !== (gj < 0)) {
+      const s = gi / (gi - gj);
+      sub[3 * m] = 0; sub[3 * m + 1] = 0; sub[3 * m + 2] = 0;
+      sub[3 * m + i] = 1 - s; sub[3 * m + j] = s;
+      m++;
+    }
+  }
+  partArea = 0; partInt = 0; partWeighted = 0;
+  for (let k = 1; k < m - 1; k++) {
+    // Sub-triangle (0, k, k+1) in barycentric coordinates: area ratio = |det|.
+    const a0 = sub[0]!, a1 = sub[1]!, a2 = sub[2]!, b0 = sub[3 * k]!, b1 = sub[3 * k + 1]!, b2 = sub[3 * k + 2]!;
+    const c0 = sub[3 * k + 3]!, c1 = sub[3 * k + 4]!, c2 = sub[3 * k + 5]!;
+    const det = Math.abs(a0 * (b1 * c2 - b2 * c1) - a1 * (b0 * c2 - b2 * c0) + a2 * (b0 * c1 - b1 * c0));
+    const As = area * det;
+    const ga = a0 * g0 + a1 * g1 + a2 * g2, gb = b0 * g0 + b1 * g1 + b2 * g2, gc = c0 * g0 + c1 * g1 + c2 * g2;
+    const ra = a0 * r0 + a1 * r1 + a2 * r2, rb = b0 * r0 + b1 * r1 + b2 * r2, rc = c0 * r0 + c1 * r1 + c2 * r2;
+    partArea += As;
+    partInt += As * (ga + gb + gc) / 3;
+    // ∫fg over a triangle = A/12 (Σ f_i g_i + Σf_i Σg_i), exact for linear f, g.
+    partWeighted += As / 12 * (ga * ra + gb * rb + gc * rc + (ga + gb + gc) * (ra + rb + rc));
+  }
+}
+
+/** ∫|u·n − ū_n| dA, exact on triangles (split where the linear u·n crosses ū_n), from the first pass's per-triangle data. */
+function absDeviation(nt: number, un: number, fields: readonly SurfaceField[], chOf: Int32Array, uCh: number, arcs?: ArcCloud): number {
+  let s = 0;
+  for (let t = 0; t < nt; t++) {
+    const area = triArea[t]!;
+    if (area === 0) continue;
+    const g0 = triUn[3 * t]! - un, g1 = triUn[3 * t + 1]! - un, g2 = triUn[3 * t + 2]! - un;
+    const whole = area * (g0 + g1 + g2) / 3;
+    if (g0 >= 0 && g1 >= 0 && g2 >= 0) { s += whole; continue; }
+    belowPart(area, g0, g1, g2, 1, 1, 1);
+    // ∫|g| = ∫g − 2∫_{g<0} g.
+    s += whole - 2 * partInt;
+  }
+  if (arcs) {
+    const [nx, ny, nz] = arcs.normal, k = fields.findIndex((_, i) => chOf[i] === uCh), vals = arcs.values[k]!, nc = fields[k]!.components;
+    for (let i = 0; i < arcs.weights.length; i++) {
+      const g = vals[i * nc]! * nx + vals[i * nc + 1]! * ny + vals[i * nc + 2]! * nz - un;
+      s += arcs.weights[i]! * Math.abs(g);
+    }
+  }
+  return s;
+}
+
+/** Min and max of every channel and vector magnitude over the vertices (point fields) and triangles (cell fields) of a set. */
+function ranges(fields: readonly SurfaceField[], chOf: Int32Array, magCh: Int32Array, magNc: Int32Array): { lo: Float64Array; hi: Float64Array } {
+  const C = chOf[fields.length]!, nMag = magCh.length;
+  const lo = new Float64Array(C + nMag).fill(Infinity), hi = new Float64Array(C + nMag).fill(-Infinity);
+  fields.forEach((f, i) => {
+    const nc = f.components, v = f.values, o = chOf[i]!, n = v.length / nc;
+    for (let c = 0; c < nc; c++) {
+      let l = Infinity, h = -Infinity;
+      for (let k = c; k < v.length; k += nc) { const x = v[k]!; if (x < l) l = x; if (x > h) h = x; }
+      lo[o + c] = l; hi[o + c] = h;
+    }
+    const q = magCh.indexOf(o);
+    if (q >= 0 && magNc[q] === nc) {
+      let l = Infinity, h = -Infinity;
+      for (let k = 0; k < n; k++) {
+        let s2 = 0;
+        for (let c = 0; c < nc; c++) { const x = v[k * nc + c]!; s2 += x * x; }
+        const m = Math.sqrt(s2);
+        if (m < l) l = m; if (m > h) h = m;
+      }
+      lo[C + q] = l; hi[C + q] = h;
+    }
+  });
+  return { lo, hi };
+}
