@@ -5,12 +5,12 @@
  *  - `tree`: the flat bounding-box tree of `src/locate/cellTree.ts` (built once per dataset, then each query
  *    visits only the boxes the plane touches);
  *  - `scan`: signed distances of every point, then a sign test per cell — no set-up cost, a full pass per cut.
- * `auto` uses the tree when it is already built for this dataset, and otherwise scans while it is cheap
+ * `auto` uses the tree when it is already built for this dataset (by a cut or a probe), and otherwise scans while it is cheap
  * (the first cuts of a file), building the tree on the cut that follows `AUTO_SCANS` scans.
  */
 import { cellDimension, CellType } from '../model/cellTypes.ts';
 import { cellStarts, type Dataset } from '../model/dataset.ts';
-import { cellsCrossingPlane, getCellTree } from '../locate/cellTree.ts';
+import { cellsCrossingPlane, getCellTree, hasCellTree } from '../locate/cellTree.ts';
 
 export type CandidateSource = 'auto' | 'tree' | 'scan';
 
@@ -18,13 +18,12 @@ export type CandidateSource = 'auto' | 'tree' | 'scan';
 export const AUTO_SCANS = 1;
 
 const scansDone = new WeakMap<Dataset, number>();
-const treeBuilt = new WeakSet<Dataset>();
 
 let side = new Uint8Array(0);
 let found = new Int32Array(1024);
 
 /** Whether `auto` would use the tree for this dataset now. */
-export function treeReady(d: Dataset): boolean { return treeBuilt.has(d); }
+export function treeReady(d: Dataset): boolean { return hasCellTree(d); }
 
 /**
  * Global ids of the cells the plane n·(x − o) = 0 may cut (every 3D cell with nodes on both sides, or
@@ -35,7 +34,7 @@ export function candidateCells(d: Dataset, ox: number, oy: number, oz: number, n
   tol: number, source: CandidateSource = 'auto'): { cells: Int32Array; used: 'tree' | 'scan' } {
   let use: 'tree' | 'scan' = source === 'auto' ? 'scan' : source;
   if (source === 'auto') {
-    if (treeBuilt.has(d)) use = 'tree';
+    if (hasCellTree(d)) use = 'tree';
     else {
       const n = scansDone.get(d) ?? 0;
       if (n >= AUTO_SCANS) use = 'tree'; else scansDone.set(d, n + 1);
@@ -43,7 +42,6 @@ export function candidateCells(d: Dataset, ox: number, oy: number, oz: number, n
   }
   if (use === 'tree') {
     const tree = getCellTree(d);
-    treeBuilt.add(d);
     return { cells: cellsCrossingPlane(tree, ox, oy, oz, nx, ny, nz), used: 'tree' };
   }
   return { cells: scan(d, ox, oy, oz, nx, ny, nz, tol), used: 'scan' };

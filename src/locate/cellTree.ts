@@ -70,6 +70,11 @@ export function getCellTree(dataset: Dataset): CellTree {
   return t;
 }
 
+/** Whether the tree of a dataset is already built (so a caller can use it at no set-up cost). */
+export function hasCellTree(dataset: Dataset): boolean {
+  return cache.has(dataset);
+}
+
 /** Builds a tree without touching the cache (for benchmarks). */
 export function buildCellTree(dataset: Dataset): CellTree {
   const t0 = performance.now();
