@@ -3,9 +3,10 @@
  * exact solution; volumes check the meshes).
  * Simplices (tetra, triangle, line, vertex): mean of the nodes (exact). Hexahedra, wedges and pyramids:
  * volume-weighted mean of the centroids of a tetrahedral split (exact for cells with planar faces,
- * which all sample meshes have). Other types: mean of the nodes.
+ * which all sample meshes have). Other types: mean of the nodes. Volumes come from `src/model/cellMeasure.ts`.
  */
 import { CellType } from '../model/cellTypes.ts';
+import { cellVolume } from '../model/cellMeasure.ts';
 import type { Piece } from '../model/piece.ts';
 
 /** Local tetrahedra of each split cell type (a valid split of a positively oriented cell). */
@@ -15,21 +16,12 @@ const SPLITS: Readonly<Record<number, readonly (readonly [number, number, number
   [CellType.PYRAMID]: [[0, 1, 2, 4], [0, 2, 3, 4]],
 };
 
-/** Volumes of the 3D cells of `p` (m³; 0 for other cells), from the same tetrahedral splits. */
+/** Volumes of the 3D cells of `p` (m³; 0 for other cells), by the model's divergence-theorem volume. */
 export function cellVolumes(p: Piece): Float64Array {
-  const n = p.cellTypes.length, out = new Float64Array(n), P = p.points, conn = p.connectivity;
-  for (let c = 0; c < n; c++) {
-    const t = p.cellTypes[c]!, a = p.offsets[c]!;
-    const split = t === CellType.TETRA ? TETRA_SPLIT : SPLITS[t];
-    if (!split) continue;
-    let vol = 0;
-    for (const s of split) vol += Math.abs(volume6(P, conn[a + s[0]]!, conn[a + s[1]]!, conn[a + s[2]]!, conn[a + s[3]]!));
-    out[c] = vol / 6;
-  }
+  const n = p.cellTypes.length, out = new Float64Array(n);
+  for (let c = 0; c < n; c++) out[c] = Math.abs(cellVolume(p, c));
   return out;
 }
-
-const TETRA_SPLIT = [[0, 1, 2, 3]] as const;
 
 function volume6(P: Float64Array, a: number, b: number, c: number, d: number): number {
   const i0 = 3 * a, i1 = 3 * b, i2 = 3 * c, i3 = 3 * d;
