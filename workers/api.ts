@@ -10,6 +10,10 @@ import type { SurfaceIntegrals } from '../src/cut/integrals.ts';
 import type { LineStats } from '../src/locate/lineStats.ts';
 import type { LoadReport } from '../src/model/loadReport.ts';
 import type { ForceResult } from '../src/surface/forces.ts';
+import type { SetEvaluation } from '../src/study/evaluate.ts';
+import type { ProbeSet } from '../src/study/probeSet.ts';
+
+export type { ProbeSet, SetEvaluation };
 
 export type Vec3 = [number, number, number];
 
@@ -199,4 +203,10 @@ export interface ComputeApi {
   sample(request: LineRequest): Promise<LineReply>;
   /** Force total over surface groups. */
   forces(request: ForceRequest): Promise<ForceReply>;
+  /**
+   * Evaluates every probe of a probe set on the held dataset (`evaluateProbeSet` of src/study/evaluate.ts,
+   * the same path as `fieldtally report`): numbers in SI with units, failed probes flagged with a message.
+   * The set is checked first (src/study/probeSetCheck.ts); a malformed set rejects with the checker's message.
+   */
+  evaluateProbeSet(set: ProbeSet): Promise<SetEvaluation>;
 }

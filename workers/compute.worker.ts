@@ -10,6 +10,9 @@ import { readDataset } from '../src/io/readDataset.ts';
 import { probeLine } from '../src/locate/lineProbe.ts';
 import { lineStats } from '../src/locate/lineStats.ts';
 import { forceTotals } from '../src/surface/forces.ts';
+import { evaluateProbeSet } from '../src/study/evaluate.ts';
+import type { ProbeSet } from '../src/study/probeSet.ts';
+import { checkProbeSet } from '../src/study/probeSetCheck.ts';
 import { surfaceLoads } from '../src/surface/surfaceLoads.ts';
 import type { LoadProgress } from '../src/io/loadOptions.ts';
 import { loadReport } from '../src/model/loadReport.ts';
@@ -18,7 +21,7 @@ import { datasetBounds } from '../src/model/bounds.ts';
 import { boundaryFaces, type BoundaryFaces } from '../src/surface/boundaryFaces.ts';
 import { facesOfGroups, surfaceGroups, type SurfaceGroups } from '../src/surface/surfaceGroups.ts';
 import type {
-  ComputeApi, CutReply, CutRequest, Description, DrawingValues, FieldChoice, ForceReply, ForceRequest,
+  ComputeApi, CutReply, CutRequest, Description, DrawingValues, FieldChoice, ForceReply, ForceRequest, SetEvaluation,
   LineReply, LineRequest, LoadRequest, ProgressCallback, SurfaceDrawing,
 } from './api.ts';
 import { drawFaces, drawTriangleSet, faceValues, surfaceCellFaces, type FaceList } from './surfaceDrawing.ts';
@@ -197,6 +200,11 @@ export function createComputeApi(): ComputeApi {
       let cx = 0, cy = 0, cz = 0, a = 0;
       for (const i of picked) { const g = groups.groups[i]!; cx += g.area * g.centroid[0]; cy += g.area * g.centroid[1]; cz += g.area * g.centroid[2]; a += g.area; }
       return { result, centroid: a > 0 ? [cx / a, cy / a, cz / a] : [0, 0, 0], groupNames: picked.map((i) => groups.groups[i]!.name) };
+    },
+
+    async evaluateProbeSet(set: ProbeSet): Promise<SetEvaluation> {
+      const h = need();
+      return evaluateProbeSet(h.dataset, checkProbeSet(set, 'probe set'));
     },
   };
 }

@@ -27,6 +27,14 @@ export class ExportTool {
     v.on('copy', () => void this.copy());
   }
 
+  /** Pixel size `picture()` renders at (clamped as there). */
+  get pictureSize(): { width: number; height: number } {
+    return {
+      width: Math.round(Math.min(MAX_SIDE, Math.max(16, this.size.width))),
+      height: Math.round(Math.min(MAX_SIDE, Math.max(16, this.size.height))),
+    };
+  }
+
   private track(p: Promise<void>): Promise<void> {
     return this.v.track(p).catch((e) => this.v.banner.error(`Export: ${(e as Error).message}`));
   }
@@ -41,8 +49,7 @@ export class ExportTool {
 
   /** Renders the picture: scene offscreen at the chosen size, then legend, pins and the caution line on a 2D canvas. */
   async picture(): Promise<Blob> {
-    const w = Math.round(Math.min(MAX_SIDE, Math.max(16, this.size.width)));
-    const h = Math.round(Math.min(MAX_SIDE, Math.max(16, this.size.height)));
+    const { width: w, height: h } = this.pictureSize;
     const pixels = await this.v.view.snapshot(w, h);
     const canvas = document.createElement('canvas');
     canvas.width = w; canvas.height = h;

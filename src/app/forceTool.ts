@@ -5,6 +5,8 @@
 import type GUI from 'lil-gui';
 import type * as THREE from 'three';
 import type { ForceReply, Vec3 } from '../../workers/api.ts';
+import type { ResolvedReference } from '../study/evaluate.ts';
+import type { ForceProbe, Probe, ReferenceDoc } from '../study/probeSet.ts';
 import { formatNumber, formatVec } from '../ui/format.ts';
 import type { ProbeResult, Quantity } from '../ui/results.ts';
 import { UNITS } from '../ui/units.ts';
@@ -12,6 +14,7 @@ import { DEFAULT_DENSITY } from './planeTool.ts';
 import { latestWins } from './latestWins.ts';
 import type { Viewer } from './viewer.ts';
 
+/** Id of the force total when the user starts one in the view. */
 const ID = 'force-1';
 
 export class ForceTool {
@@ -24,6 +27,9 @@ export class ForceTool {
   private readonly request;
   private chosen: GUI['controllers'][number] | undefined;
   private readonly chosenText = { surfaces: '(click surfaces in the view)' };
+  /** Id and label of the force total (a loaded probe set may name it). */
+  private id = ID;
+  private label = 'Force total';
 
   constructor(private readonly v: Viewer) {
     this.folder = v.gui.addFolder('Force total');
@@ -33,11 +39,11 @@ export class ForceTool {
         dragDir: [this.refs.dragX, this.refs.dragY, this.refs.dragZ], liftDir: [this.refs.liftX, this.refs.liftY, this.refs.liftZ],
         momentPoint: [this.refs.momentX, this.refs.momentY, this.refs.momentZ],
       })),
-      (reply) => { if (this.selected.size) v.setResult(forceResult(reply, this.refs)); },
+      (reply) => { if (this.selected.size) v.setResult(forceResult(reply, this.refs, this.id, this.label)); },
       (e) => v.banner.error(`Force total: ${(e as Error).message}`),
     );
-    v.onDataset(() => { this.selected.clear(); this.buildPanel(); });
-    v.onResultRemoved((id) => { if (id === ID) this.clear(); });
+    v.onDataset(() => { this.selected.clear(); this.id = ID; this.label = 'Force total'; this.buildPanel(); });
+    v.onResultRemoved((id) => { if (id === this.id) this.clear(); });
     v.addPointerTool({ click: (_ev, ray) => this.click(ray) });
     this.buildPanel();
   }
@@ -51,16 +57,78 @@ export class ForceTool {
     this.recompute();
   }
 
-  private clear(): void {
+  /** Drops the force total (no surfaces chosen). */
+  clear(): void {
     for (const g of this.selected) this.v.surface?.setGroupSelected(g, false);
     this.selected.clear();
     this.updateChosen();
-    this.v.removeResult(ID, false);
+    this.v.removeResult(this.id, false);
+    this.id = ID;
+    this.label = 'Force total';
     this.v.view.requestRender();
   }
 
+  /** True when a probe-set probe is a force total this tool can hold (surfaces found by name or id, no other options). */
+  accepts(p: Probe): p is ForceProbe {
+    if (p.kind !== 'force' || p.fields && Object.keys(p.fields).length) return false;
+    const o = p.options ?? {};
+    if (Object.keys(o).some((k) => k !== 'reference')) return false;
+    return this.resolve(p.geometry.surfaces) !== undefined;
+  }
+
+  private resolve(refs: readonly (string | number)[]): number[] | undefined {
+    const groups = this.v.description?.groups ?? [];
+    const out: number[] = [];
+    for (const r of refs) {
+      const byName = groups.filter((g) => g.name === String(r));
+      const g = byName.length === 1 ? byName[0] : byName.length === 0 && /^-?\d+$/.test(String(r)) ? groups.find((x) => x.fileId === Number(r)) : undefined;
+      if (!g) return undefined;
+      out.push(g.id);
+    }
+    return out;
+  }
+
+  /** The force total as a probe-set probe (surfaces by name), or null when no surface is chosen. */
+  probe(): ForceProbe | null {
+    if (this.selected.size === 0) return null;
+    const names = (this.v.description?.groups ?? []).filter((g) => this.selected.has(g.id)).map((g) => g.name);
+    return { id: this.id, kind: 'force', label: this.label, geometry: { surfaces: names } };
+  }
+
+  /** The reference values typed in the panel (SI; μ only when given). */
+  reference(): ReferenceDoc {
+    const r = this.refs;
+    return {
+      density: r.rho, speed: r.speed, area: r.area, length: r.length, pressure: r.pRef, ...(r.mu > 0 ? { viscosity: r.mu } : {}),
+      dragDirection: [r.dragX, r.dragY, r.dragZ], liftDirection: [r.liftX, r.liftY, r.liftZ], momentPoint: [r.momentX, r.momentY, r.momentZ],
+    };
+  }
+
+  /** Takes reference values (a probe set's, preset applied) into the panel. */
+  setReference(ref: ResolvedReference): void {
+    const r = this.refs;
+    if (ref.density !== undefined) r.rho = ref.density;
+    if (ref.speed !== undefined) r.speed = ref.speed;
+    if (ref.area !== undefined) r.area = ref.area;
+    if (ref.length !== undefined) r.length = ref.length;
+    if (ref.pressure !== undefined) r.pRef = ref.pressure;
+    r.mu = ref.viscosity ?? 0;
+    if (ref.dragDirection) [r.dragX, r.dragY, r.dragZ] = ref.dragDirection;
+    if (ref.liftDirection) [r.liftX, r.liftY, r.liftZ] = ref.liftDirection;
+    if (ref.momentPoint) [r.momentX, r.momentY, r.momentZ] = ref.momentPoint;
+    for (const c of this.folder.controllersRecursive()) c.updateDisplay();
+  }
+
+  /** Starts the force total of a probe-set probe (see `accepts`), keeping its id and label. */
+  setFrom(p: ForceProbe): void {
+    this.clear();
+    this.id = p.id;
+    this.label = p.label ?? p.id;
+    for (const g of this.resolve(p.geometry.surfaces) ?? []) this.toggle(g);
+  }
+
   private recompute(): void {
-    if (this.selected.size === 0) { this.v.removeResult(ID, false); return; }
+    if (this.selected.size === 0) { this.v.removeResult(this.id, false); return; }
     this.request.request([...this.selected].sort((a, b) => a - b));
   }
 
@@ -103,7 +171,7 @@ export class ForceTool {
 }
 
 /** The numbers of a force total for pins, table and exports. */
-function forceResult(reply: ForceReply, refs: { rho: number; speed: number; area: number }): ProbeResult {
+function forceResult(reply: ForceReply, refs: { rho: number; speed: number; area: number }, id: string, label: string): ProbeResult {
   const f = reply.result, c = f.coefficients;
   const q: Quantity[] = [];
   const add = (key: string, label: string, value: number | null | undefined, unit: string, pinned = false) => {
@@ -126,7 +194,7 @@ function forceResult(reply: ForceReply, refs: { rho: number; speed: number; area
     `A = ${formatNumber(refs.area)} m², drag ${formatVec(f.directions.drag)}, lift ${formatVec(f.directions.lift)}; viscous part: ${f.viscous.method}`;
   const notes = [...f.notes];
   return {
-    id: ID, kind: 'force', label: 'Force total', anchor: reply.centroid as Vec3, definition, quantities: q, pinVisible: true,
+    id, kind: 'force', label, anchor: reply.centroid as Vec3, definition, quantities: q, pinVisible: true,
     ...(notes.length ? { note: notes.join('; ') } : {}),
   };
 }

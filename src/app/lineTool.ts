@@ -6,6 +6,7 @@
 import type GUI from 'lil-gui';
 import type * as THREE from 'three';
 import type { LineReply, Vec3 } from '../../workers/api.ts';
+import type { LineProbe, Probe } from '../study/probeSet.ts';
 import { CAUTION } from '../ui/caution.ts';
 import { download } from '../ui/download.ts';
 import { formatVec } from '../ui/format.ts';
@@ -19,9 +20,13 @@ import type { Viewer } from './viewer.ts';
 /** Samples per line at first (evenly spaced, both ends included). */
 export const DEFAULT_SAMPLES = 201;
 
+/** Most samples the panel offers. */
+const MAX_SAMPLES = 5000;
+
 interface Line {
   id: string;
   number: number;
+  label: string;
   widget: LineProbeWidget;
   ax: number; ay: number; az: number;
   bx: number; by: number; bz: number;
@@ -44,10 +49,44 @@ export class LineTool {
       (e) => v.banner.error(`Line probe: ${(e as Error).message}`),
     );
     chart.download.onclick = () => this.downloadCsv();
-    v.onDataset(() => { for (const l of [...this.lines]) this.remove(l.id); this.buildPanel(); });
+    v.onDataset(() => { this.removeAll(); this.buildPanel(); });
     v.onResultRemoved((id) => this.remove(id));
     v.addPointerTool(this.pointer());
     this.buildPanel();
+  }
+
+  /** Removes every line. */
+  removeAll(): void {
+    for (const l of [...this.lines]) this.remove(l.id);
+  }
+
+  /** True when a probe-set probe is a line this tool can hold and edit (evenly spaced samples, every field, no boundary layer). */
+  accepts(p: Probe): p is LineProbe {
+    if (p.kind !== 'line') return false;
+    const o = p.options ?? {};
+    return !p.fields?.sample && (o.spacing ?? 'even') === 'even' && o.tolerance === undefined && !o.boundaryLayer && (o.samples ?? DEFAULT_SAMPLES) <= MAX_SAMPLES;
+  }
+
+  /** The lines as probe-set probes (file's length unit). */
+  probes(): LineProbe[] {
+    return this.lines.map((l) => ({
+      id: l.id, kind: 'line', label: l.label, geometry: { from: [l.ax, l.ay, l.az], to: [l.bx, l.by, l.bz] }, options: { samples: l.samples },
+    }));
+  }
+
+  /** Adds a line from a probe-set probe (see `accepts`), keeping its id and label. */
+  addFrom(probe: LineProbe): void {
+    const { from: a, to: b } = probe.geometry;
+    const number = Math.max(0, ...this.lines.map((l) => l.number)) + 1;
+    const l: Line = {
+      id: probe.id, number, label: probe.label ?? probe.id, widget: new LineProbeWidget(this.v.diagonal),
+      ax: a[0], ay: a[1], az: a[2], bx: b[0], by: b[1], bz: b[2], samples: probe.options?.samples ?? DEFAULT_SAMPLES,
+    };
+    this.lines.push(l);
+    this.v.view.root.add(l.widget.group);
+    this.current = l;
+    this.buildPanel();
+    this.changed(l);
   }
 
   /** Adds a line across the shown geometry's centre along its shortest side, spanning the data. */
@@ -57,9 +96,11 @@ export class LineTool {
     const axis = sides.indexOf(Math.min(...sides));
     const a: Vec3 = [center.x, center.y, center.z], e: Vec3 = [center.x, center.y, center.z];
     a[axis] = b[2 * axis]!; e[axis] = b[2 * axis + 1]!;
-    const number = Math.max(0, ...this.lines.map((l) => l.number)) + 1;
+    let number = Math.max(0, ...this.lines.map((l) => l.number)) + 1;
+    const used = new Set(this.v.allResults.map((r) => r.id));
+    while (used.has(`line-${number}`)) number++;
     const l: Line = {
-      id: `line-${number}`, number, widget: new LineProbeWidget(this.v.diagonal),
+      id: `line-${number}`, number, label: `Line ${number}`, widget: new LineProbeWidget(this.v.diagonal),
       ax: a[0], ay: a[1], az: a[2], bx: e[0], by: e[1], bz: e[2], samples: DEFAULT_SAMPLES,
     };
     this.lines.push(l);
@@ -110,7 +151,7 @@ export class LineTool {
       }
       f.columns.forEach((c, k) => series.push({ label: f.labels[k]!, unit, values: c }));
     }
-    return { title: `Line ${l.number}`, s: r.s, series };
+    return { title: l.label, s: r.s, series };
   }
 
   private downloadCsv(): void {
@@ -136,7 +177,7 @@ export class LineTool {
     if (!l) return;
     if (this.lines.length > 1) {
       const opts: Record<string, string> = {};
-      for (const x of this.lines) opts[`Line ${x.number}`] = x.id;
+      for (const x of this.lines) opts[x.label] = x.id;
       this.folder.add({ which: l.id }, 'which', opts).name('editing').onChange((id: string) => {
         this.current = this.lines.find((x) => x.id === id);
         this.buildPanel();
@@ -146,7 +187,7 @@ export class LineTool {
     const num = (k: 'ax' | 'ay' | 'az' | 'bx' | 'by' | 'bz', label: string) => this.folder.add(l, k).name(label).onFinishChange(() => this.changed(l));
     num('ax', 'start x [m]'); num('ay', 'start y [m]'); num('az', 'start z [m]');
     num('bx', 'end x [m]'); num('by', 'end y [m]'); num('bz', 'end z [m]');
-    this.folder.add(l, 'samples', 2, 5000, 1).name('samples').onFinishChange(() => this.changed(l));
+    this.folder.add(l, 'samples', 2, MAX_SAMPLES, 1).name('samples').onFinishChange(() => this.changed(l));
   }
 
   private pointer() {
@@ -174,7 +215,7 @@ export class LineTool {
 function lineResult(l: Line, r: LineReply): ProbeResult {
   const definition = `${formatVec([l.ax, l.ay, l.az])} → ${formatVec([l.bx, l.by, l.bz])} m, ${l.samples} samples`;
   const mid: Vec3 = [(l.ax + l.bx) / 2, (l.ay + l.by) / 2, (l.az + l.bz) / 2];
-  const base = { id: l.id, kind: 'line' as const, label: `Line ${l.number}`, anchor: [l.bx, l.by, l.bz] as Vec3, definition, pinVisible: true };
+  const base = { id: l.id, kind: 'line' as const, label: l.label, anchor: [l.bx, l.by, l.bz] as Vec3, definition, pinVisible: true };
   if (r.outside) return { ...base, anchor: mid, quantities: [], note: 'the line lies wholly outside the mesh: no samples' };
   const q: Quantity[] = [
     { key: 'length', label: 'L', value: r.length, unit: UNITS.length, pinned: false },

@@ -10,6 +10,8 @@ import { ExportTool } from './exportTool.ts';
 import { ForceTool } from './forceTool.ts';
 import { LineTool } from './lineTool.ts';
 import { PlaneTool } from './planeTool.ts';
+import { ProbeSetTool } from './probeSetTool.ts';
+import { ReportTool } from './reportTool.ts';
 import { LineChart } from '../ui/lineChart.ts';
 import { Viewer } from './viewer.ts';
 
@@ -24,9 +26,12 @@ const viewer = new Viewer(startCompute(), {
 });
 
 const planes = new PlaneTool(viewer);
-new LineTool(viewer, new LineChart($('chart-pane')));
-new ForceTool(viewer);
-new ExportTool(viewer, viewer.gui);
+const lines = new LineTool(viewer, new LineChart($('chart-pane')));
+const force = new ForceTool(viewer);
+const exporter = new ExportTool(viewer, viewer.gui);
+const reports = new ReportTool(viewer, exporter);
+// after the tools: on a new file it re-applies the set once they have dropped the old file's probes
+new ProbeSetTool(viewer, { planes, lines, force }, $('compare-pane'), (set) => reports.download(set));
 
 for (const id of ['file-input', 'folder-input']) {
   const input = $<HTMLInputElement>(id);

@@ -6,6 +6,7 @@
 import type GUI from 'lil-gui';
 import type * as THREE from 'three';
 import type { CutReply, Vec3 } from '../../workers/api.ts';
+import type { CutPlaneProbe, Probe } from '../study/probeSet.ts';
 import { formatNumber, formatVec } from '../ui/format.ts';
 import type { ProbeResult, Quantity } from '../ui/results.ts';
 import { UNITS, fieldUnit } from '../ui/units.ts';
@@ -19,6 +20,7 @@ export const DEFAULT_DENSITY = 998.207;
 interface Plane {
   id: string;
   number: number;
+  label: string;
   layer: CutPlaneLayer;
   ox: number; oy: number; oz: number;
   nx: number; ny: number; nz: number;
@@ -61,10 +63,55 @@ export class PlaneTool {
   }
 
   private reset(): void {
-    for (const p of [...this.planes]) this.remove(p.id);
+    this.removeAll();
     this.settings.velocity = '';
     this.settings.pressure = '';
     this.buildPanel();
+  }
+
+  /** The density (kg/m³) every plane's flow rates use. */
+  get density(): number { return this.settings.density; }
+
+  /** Removes every plane. */
+  removeAll(): void {
+    for (const p of [...this.planes]) this.remove(p.id);
+  }
+
+  /** True when a probe-set probe is a plane this tool can hold and edit (whole cut or a seed, one density for all). */
+  accepts(p: Probe, density: number | undefined): p is CutPlaneProbe {
+    if (p.kind !== 'cut-plane') return false;
+    const r = p.geometry.region ?? {}, f = p.fields ?? {};
+    return !r.disk && !r.rectangle && !r.cellGroups && f.velocity !== null && f.pressure !== null && !p.options?.kinematicPressure &&
+      (f.density === undefined || (typeof f.density === 'number' && (density === undefined || f.density === density)));
+  }
+
+  /** The planes as probe-set probes (origin, normal and seed in the file's length unit, density in kg/m³). */
+  probes(): CutPlaneProbe[] {
+    const s = this.settings;
+    return this.planes.map((p) => ({
+      id: p.id, kind: 'cut-plane', label: p.label,
+      geometry: { origin: [p.ox, p.oy, p.oz], normal: [p.nx, p.ny, p.nz], ...(p.seed ? { region: { seed: [...p.seed] } } : {}) },
+      fields: { ...(s.velocity ? { velocity: s.velocity } : {}), ...(s.pressure ? { pressure: s.pressure } : {}), density: s.density },
+    }));
+  }
+
+  /** Adds a plane from a probe-set probe (see `accepts`), keeping its id and label. */
+  addFrom(probe: CutPlaneProbe): void {
+    const g = probe.geometry, f = probe.fields ?? {};
+    if (typeof f.density === 'number') this.settings.density = f.density;
+    if (typeof f.velocity === 'string') this.settings.velocity = f.velocity;
+    if (typeof f.pressure === 'string') this.settings.pressure = f.pressure;
+    const number = Math.max(0, ...this.planes.map((p) => p.number)) + 1;
+    const p: Plane = {
+      id: probe.id, number, label: probe.label ?? probe.id, layer: new CutPlaneLayer(this.v.colorMap, this.v.diagonal),
+      ox: g.origin[0], oy: g.origin[1], oz: g.origin[2], nx: g.normal[0], ny: g.normal[1], nz: g.normal[2],
+      seed: g.region?.seed ? [...g.region.seed] : undefined,
+    };
+    this.planes.push(p);
+    this.v.view.root.add(p.layer.group);
+    if (this.v.settings.opacity === 1) this.v.setSurfaceOpacity(0.35);
+    this.select(p);
+    this.changed();
   }
 
   /** World position of the current plane's drag knob, or undefined without a plane. */
@@ -79,7 +126,7 @@ export class PlaneTool {
     const axis = sides.indexOf(Math.max(...sides));
     const number = Math.max(0, ...this.planes.map((p) => p.number)) + 1;
     const p: Plane = {
-      id: `plane-${number}`, number, layer: new CutPlaneLayer(this.v.colorMap, this.v.diagonal),
+      id: this.freeId(number), number, label: `Plane ${number}`, layer: new CutPlaneLayer(this.v.colorMap, this.v.diagonal),
       ox: center.x, oy: center.y, oz: center.z, nx: axis === 0 ? 1 : 0, ny: axis === 1 ? 1 : 0, nz: axis === 2 ? 1 : 0, seed: undefined,
     };
     this.planes.push(p);
@@ -88,6 +135,13 @@ export class PlaneTool {
     if (this.v.settings.opacity === 1) this.v.setSurfaceOpacity(0.35);
     this.select(p);
     this.changed();
+  }
+
+  /** `plane-N`, or the next free number when a loaded set already uses that id. */
+  private freeId(n: number): string {
+    const used = new Set(this.v.allResults.map((r) => r.id));
+    while (used.has(`plane-${n}`)) n++;
+    return `plane-${n}`;
   }
 
   private select(p: Plane | undefined): void {
@@ -148,7 +202,7 @@ export class PlaneTool {
     if (!p) return;
     if (this.planes.length > 1) {
       const opts: Record<string, string> = {};
-      for (const q of this.planes) opts[`Plane ${q.number}`] = q.id;
+      for (const q of this.planes) opts[q.label] = q.id;
       this.folder.add({ which: p.id }, 'which', opts).name('editing').onChange((id: string) => this.select(this.planes.find((q) => q.id === id)));
     }
     const num = (key: 'ox' | 'oy' | 'oz' | 'nx' | 'ny' | 'nz', label: string) =>
@@ -232,7 +286,7 @@ function planeResult(p: Plane, r: CutReply, density: number): ProbeResult {
   const definition = `origin ${formatVec([p.ox, p.oy, p.oz])} m, normal ${formatVec(n)}` +
     (p.seed ? `, seed ${formatVec(p.seed)} m` : '') + `, ρ = ${formatNumber(density)} kg/m³`;
   const anchor: Vec3 = s.centroid ? [...s.centroid] : [p.ox, p.oy, p.oz];
-  const base = { id: p.id, kind: 'plane' as const, label: `Plane ${p.number}`, anchor, definition, pinVisible: true };
+  const base = { id: p.id, kind: 'plane' as const, label: p.label, anchor, definition, pinVisible: true };
   if (s.empty) return { ...base, quantities: [], note: s.reason ?? 'the plane cuts no cell' };
   const pres = s.roles.pressure?.replace(/ \((point|cell)\)$/, '');
   const vel = s.roles.velocity?.replace(/ \((point|cell)\)$/, '');

@@ -59,6 +59,10 @@ export class Viewer {
   fields: FieldEntry[] = [];
   private results = new Map<string, ProbeResult>();
   private readonly datasetListeners: ((d: Description) => void)[] = [];
+  private readonly beforeDatasetListeners: (() => void)[] = [];
+  private readonly resultsChangedListeners: (() => void)[] = [];
+  /** The request of the file now open (for a report's list of inputs). */
+  openRequest: LoadRequest | undefined;
   private readonly colorListeners: (() => void)[] = [];
   private readonly colorSettingListeners: (() => void)[] = [];
   private readonly resultListeners: ((id: string) => void)[] = [];
@@ -111,6 +115,10 @@ export class Viewer {
   private emit(event: string): void { for (const f of this.handlers.get(event) ?? []) f(); }
 
   onDataset(f: (d: Description) => void): void { this.datasetListeners.push(f); }
+  /** Called when a new file has been read, before the old file's probes are dropped (the probe set keeps them). */
+  onBeforeDataset(f: () => void): void { this.beforeDatasetListeners.push(f); }
+  /** Called after any result was set or removed. */
+  onResultsChanged(f: () => void): void { this.resultsChangedListeners.push(f); }
   /** The colouring field changed (values must be fetched again). */
   onColor(f: () => void): void { this.colorListeners.push(f); }
   /** Range or colour map changed (no new values needed). */
@@ -174,6 +182,7 @@ export class Viewer {
       const d = await this.track(this.compute.load(request, onProgress));
       this.progress.show('building the surface', 1, 1);
       const drawing = await this.track(this.compute.surface());
+      this.openRequest = request;
       this.install(d, drawing);
       document.body.dataset['state'] = 'ready';
       return true;
@@ -189,6 +198,7 @@ export class Viewer {
   }
 
   private install(d: Description, drawing: Awaited<ReturnType<Compute['surface']>>): void {
+    for (const l of this.beforeDatasetListeners) l();
     this.description = d;
     for (const id of [...this.results.keys()]) this.removeResult(id, true);
     if (this.surface) { this.view.root.remove(this.surface.group); this.surface.dispose(); }
@@ -343,6 +353,7 @@ export class Viewer {
     this.table.set(all);
     this.pins.setResults(all);
     this.view.requestRender();
+    for (const l of this.resultsChangedListeners) l();
   }
 
   // ---- view tools and pointer ----

@@ -26,7 +26,8 @@ export type Projector = (p: [number, number, number]) => { x: number; y: number;
 /** Text lines of a pin: title, then `label = value unit` per pinned quantity (or the note). */
 export function pinLines(r: ProbeResult): { title: string; rows: { key: string; text: string }[] } {
   const rows = r.quantities.filter((q) => q.pinned).map((q) => ({ key: q.key, text: `${q.label} = ${withUnit(q.value, q.unit)}` }));
-  if (rows.length === 0 && r.note) rows.push({ key: 'note', text: r.note });
+  // a long note (a failure's message) is cut on the pin; the table shows it whole
+  if (rows.length === 0 && r.note) rows.push({ key: 'note', text: r.note.length > 90 ? `${r.note.slice(0, 89)}…` : r.note });
   return { title: r.label, rows };
 }
 

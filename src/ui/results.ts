@@ -5,7 +5,8 @@
 import { CAUTION } from './caution.ts';
 import { formatNumber } from './format.ts';
 
-export type ProbeKind = 'plane' | 'line' | 'force';
+/** `plane`, `line`, `force` come from the view's tools; the others only from a loaded probe set. */
+export type ProbeKind = 'plane' | 'line' | 'force' | 'point' | 'pressure-loss' | 'mass-balance';
 
 /** One number of a probe. */
 export interface Quantity {

@@ -15,6 +15,8 @@ import { readDataset } from '../../src/io/readDataset.ts';
 import { writeVtu } from '../../src/io/writeVtu.ts';
 import { datasetOf, hexGrid, pointFieldFrom, withFields } from '../../src/model/meshBuild.ts';
 import { sphereExact } from '../../src/samples/sphere.ts';
+import { evaluateProbeSet } from '../../src/study/evaluate.ts';
+import type { ProbeSet } from '../../src/study/probeSet.ts';
 import type { ComputeApi } from '../../workers/api.ts';
 
 const nodeEndpoint = nodeEndpointUntyped as (w: Worker) => Comlink.Endpoint;
@@ -127,6 +129,28 @@ describe('compute worker contract', () => {
     });
     // Reference: ../shared/REFERENCES.md §3 (C) — C_D = 24/Re; this coarse cell-data file is first order, so within 10 %
     expect(Math.abs(f.result.coefficients!.drag - 24 / e.Re) / (24 / e.Re)).toBeLessThan(0.1);
+  });
+
+  it('evaluates a probe set as the command line does, and refuses a malformed set', async () => {
+    // the sphere file is held now (previous test); Reference: ../shared/REFERENCES.md §3 (C) — C_D = 24/Re
+    const e = sphereExact({ flow: 'stokes' });
+    const set: ProbeSet = {
+      format: 'fieldtally-probe-set', version: 2, reference: { density: e.rho, speed: e.U, area: e.frontalArea },
+      probes: [
+        { id: 'bead', kind: 'force', geometry: { surfaces: ['group 1'] } },
+        { id: 'front', kind: 'point', geometry: { at: [-0.001, 0, 0] } },
+        { id: 'miss', kind: 'cut-plane', geometry: { origin: [0, 0, 1], normal: [0, 0, 1] } },
+      ],
+    };
+    const got = await api.evaluateProbeSet(set);
+    const want = evaluateProbeSet(await readDataset('sphere-stokes-celldata.vtu', new Uint8Array(readFileSync(SPHERE))), set);
+    expect(got).toEqual(want);
+    expect(got.failed).toBe(1);
+    expect(got.probes[2]!.error).toBe('cut-plane: the plane misses every 3D cell of the mesh');
+    const cd = got.probes[0]!.quantities.find((q) => q.key === 'CD')!;
+    expect(Math.abs(cd.value - 24 / e.Re) / (24 / e.Re)).toBeLessThan(0.1);
+    const bad = { ...set, probes: [{ id: 'x', kind: 'point', geometry: { at: [0, 0] } }] } as unknown as ProbeSet;
+    await expect(api.evaluateProbeSet(bad)).rejects.toThrow('probe set: probes[0].geometry.at: expected an array of 3 finite numbers [x, y, z], found [0,0]');
   });
 
   it('keeps the previous dataset when a load fails, with the reader\'s error', async () => {

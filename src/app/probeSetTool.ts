@@ -1,0 +1,267 @@
+/**
+ * The probe set in the viewer: every probe placed in the view (cut-planes, line probes, the force total)
+ * plus the probes of a loaded set that the view's tools cannot edit (points, pressure losses, mass
+ * balances, planes with other regions, any probe of a set in non-SI units), which the worker evaluates as
+ * a set. Saved and opened as a file (download / upload), kept in local storage on every change and
+ * restored after a reload (`probeSetStore.ts`); opening another result file re-applies the set, so every
+ * probe is evaluated again on the new file. A baseline can be kept; the next file is then compared with
+ * it, side by side. A set that cannot be read is refused with its error and changes nothing.
+ */
+import type GUI from 'lil-gui';
+import type { SetEvaluation } from '../../workers/api.ts';
+import { compareEvaluations } from '../study/compare.ts';
+import { resolveReference, type ProbeOutcome } from '../study/evaluate.ts';
+import { PROBE_SET_FORMAT, PROBE_SET_VERSION, probeLabel, type Probe, type ProbeSet, type ReferenceDoc, type UnitsDoc } from '../study/probeSet.ts';
+import { readProbeSet, writeProbeSet } from '../study/probeSetFile.ts';
+import { headline } from '../study/resultTables.ts';
+import { siFactors } from '../study/siDataset.ts';
+import { unitLabel } from '../study/units.ts';
+import { ComparisonTable } from '../ui/comparisonTable.ts';
+import { download } from '../ui/download.ts';
+import type { ProbeKind, ProbeResult } from '../ui/results.ts';
+import type { ForceTool } from './forceTool.ts';
+import type { LineTool } from './lineTool.ts';
+import type { PlaneTool } from './planeTool.ts';
+import { ProbeSetStore, type KeyValueStore } from './probeSetStore.ts';
+import type { Viewer } from './viewer.ts';
+
+/** Quiet time after the last change before the set is stored (ms). */
+const SAVE_DELAY_MS = 250;
+
+const KIND: Record<Probe['kind'], ProbeKind> = {
+  'cut-plane': 'plane', line: 'line', point: 'point', force: 'force', 'pressure-loss': 'pressure-loss', 'mass-balance': 'mass-balance',
+};
+
+/** A probe outcome of the worker's set evaluation as a row of the results table and a pin. */
+export function outcomeResult(o: ProbeOutcome, fallbackAnchor: [number, number, number]): ProbeResult {
+  const pinned = new Set(headline(o, 2).map((q) => q.key));
+  const notes = [...(o.ok ? [] : [`FAILED: ${o.error}`]), ...o.notes];
+  return {
+    id: o.id, kind: KIND[o.kind], label: o.label, anchor: o.anchor ?? fallbackAnchor,
+    definition: `${o.definition} — evaluated from the probe set`, pinVisible: true,
+    quantities: o.quantities.map((q) => ({ key: q.key, label: q.label, value: q.value, unit: unitLabel(q.unit), pinned: pinned.has(q.key) })),
+    ...(notes.length ? { note: notes.join('; ') } : {}),
+  };
+}
+
+function localStore(): KeyValueStore | null {
+  try { return window.localStorage; } catch { return null; }
+}
+
+export class ProbeSetTool {
+  private extras: Probe[] = [];
+  private meta: { title?: string; description?: string; units?: UnitsDoc; reference?: ReferenceDoc } = {};
+  /** Probe ids in the order of the last applied set, so a saved set keeps its order. */
+  private order: string[] = [];
+  private carry: ProbeSet | undefined;
+  private applying = false;
+  private generation = 0;
+  private saveTimer: ReturnType<typeof setTimeout> | undefined;
+  private baseline: { file: string; evaluation: SetEvaluation } | undefined;
+  private message: { kind: 'notice' | 'error'; text: string } | undefined;
+  private readonly store = new ProbeSetStore(localStore());
+  private readonly input: HTMLInputElement;
+  private readonly comparison: ComparisonTable;
+
+  constructor(private readonly v: Viewer, private readonly tools: { planes: PlaneTool; lines: LineTool; force: ForceTool },
+    compareHost: HTMLElement, private readonly makeReport: (set: ProbeSet) => Promise<void>) {
+    const f: GUI = v.gui.addFolder('Probe set');
+    f.add({ save: () => this.save() }, 'save').name('save probe set (JSON)');
+    f.add({ open: () => this.input.click() }, 'open').name('open probe set…');
+    f.add({ clear: () => this.removeAll() }, 'clear').name('remove all probes');
+    f.add({ keep: () => void this.keepBaseline() }, 'keep').name('keep results as baseline');
+    f.add({ report: () => void this.v.track(this.makeReport(this.currentSet())).catch((e) => v.banner.error(`Report: ${(e as Error).message}`)) }, 'report').name('save report (.zip)');
+    this.input = document.createElement('input');
+    this.input.type = 'file';
+    this.input.accept = '.json,application/json';
+    this.input.id = 'probe-set-input';
+    this.input.hidden = true;
+    this.input.addEventListener('change', () => {
+      const file = this.input.files?.[0];
+      this.input.value = '';
+      if (file) void this.open(file);
+    });
+    document.body.append(this.input);
+    this.comparison = new ComparisonTable(compareHost, () => this.clearBaseline());
+
+    const r = this.store.recover();
+    if (r.kind === 'set') {
+      this.carry = r.set;
+      this.message = { kind: 'notice', text: `Restored the probe set kept from your last visit: ${r.set.probes.length} probe${r.set.probes.length === 1 ? '' : 's'}${r.file ? ` (last used on ${r.file})` : ''}.` };
+    } else if (r.kind === 'corrupt') {
+      this.message = {
+        kind: 'error',
+        text: `The probe set kept from your last visit could not be read (${r.message}). ${r.keptAs ? `Its text was kept aside in this browser's storage under "${r.keptAs}"` : 'Its text was left where it was'}; the probes start empty.`,
+      };
+    }
+    v.onBeforeDataset(() => {
+      this.carry ??= this.currentSet();
+      this.applying = true;
+    });
+    v.onDataset(() => void this.afterDataset());
+    v.onResultsChanged(() => this.changed());
+    v.onResultRemoved((id) => {
+      if (this.applying) return;
+      this.extras = this.extras.filter((p) => p.id !== id);
+    });
+  }
+
+  /** The probe set as it stands: the tools' probes and the set's other probes, in the set's order. */
+  currentSet(): ProbeSet {
+    const { planes, lines, force } = this.tools;
+    const fp = force.probe();
+    const probes = [...planes.probes(), ...lines.probes(), ...(fp ? [fp] : []), ...this.extras];
+    const rank = (p: Probe) => { const i = this.order.indexOf(p.id); return i < 0 ? this.order.length : i; };
+    probes.sort((a, b) => rank(a) - rank(b));
+    const reference = fp || this.meta.reference ? { ...this.meta.reference, ...force.reference() } : undefined;
+    return {
+      format: PROBE_SET_FORMAT, version: PROBE_SET_VERSION,
+      ...(this.meta.title ? { title: this.meta.title } : {}), ...(this.meta.description ? { description: this.meta.description } : {}),
+      ...(this.meta.units ? { units: this.meta.units } : {}), ...(reference ? { reference } : {}), probes,
+    };
+  }
+
+  private async afterDataset(): Promise<void> {
+    const set = this.carry;
+    this.carry = undefined;
+    if (set) await this.apply(set);
+    else { this.applying = false; this.changed(); }
+    if (this.message) {
+      const m = this.message;
+      this.message = undefined;
+      if (m.kind === 'error') this.v.banner.error(m.text); else this.v.banner.notice(m.text);
+    }
+    if (this.baseline) await this.refreshComparison();
+  }
+
+  /**
+   * Replaces every probe by those of `set`: editable ones go to the view's tools (which compute them),
+   * the others are evaluated by the worker as a set.
+   */
+  async apply(set: ProbeSet): Promise<void> {
+    const gen = ++this.generation;
+    this.applying = true;
+    try {
+      const { planes, lines, force } = this.tools;
+      this.clearTools();
+      this.meta = {
+        ...(set.title ? { title: set.title } : {}), ...(set.description ? { description: set.description } : {}),
+        ...(set.units ? { units: set.units } : {}), ...(set.reference ? { reference: set.reference } : {}),
+      };
+      this.order = set.probes.map((p) => p.id);
+      if (set.reference) force.setReference(resolveReference(set.reference));
+      // the tools compute in the file's units; a set in other units is evaluated as a whole by the worker
+      const f = siFactors(set.units);
+      const si = f.length === 1 && Object.keys(f.fields).length === 0;
+      let planeTaken = false, forceTaken = false;
+      for (const p of set.probes) {
+        if (si && planes.accepts(p, planeTaken ? planes.density : undefined)) { planes.addFrom(p); planeTaken = true; }
+        else if (si && lines.accepts(p)) lines.addFrom(p);
+        else if (si && !forceTaken && force.accepts(p)) { force.setFrom(p); forceTaken = true; }
+        else this.extras.push(p);
+      }
+      await this.evaluateExtras(gen);
+    } finally {
+      if (gen === this.generation) { this.applying = false; this.changed(); }
+    }
+  }
+
+  private clearTools(): void {
+    const { planes, lines, force } = this.tools;
+    planes.removeAll();
+    lines.removeAll();
+    force.clear();
+    for (const p of this.extras) this.v.removeResult(p.id, false);
+    this.extras = [];
+  }
+
+  private async evaluateExtras(gen: number): Promise<void> {
+    if (this.extras.length === 0 || !this.v.description) return;
+    const set: ProbeSet = { ...this.currentSetMeta(), probes: this.extras };
+    try {
+      const ev = await this.v.track(this.v.compute.evaluateProbeSet(set));
+      if (gen !== this.generation) return;
+      const b = this.v.bounds, centre: [number, number, number] = [(b[0] + b[1]) / 2, (b[2] + b[3]) / 2, (b[4] + b[5]) / 2];
+      for (const o of ev.probes) this.v.setResult(outcomeResult(o, centre));
+    } catch (e) {
+      this.v.banner.error(`Probe set: ${(e as Error).message}`);
+    }
+  }
+
+  private currentSetMeta(): Omit<ProbeSet, 'probes'> {
+    const { probes: _p, ...meta } = this.currentSet();
+    void _p;
+    return meta;
+  }
+
+  /** Something changed: store the set (after a quiet moment) and refresh the comparison. */
+  private changed(): void {
+    if (this.applying) return;
+    clearTimeout(this.saveTimer);
+    this.saveTimer = setTimeout(() => {
+      if (this.applying) return;
+      const err = this.store.save(this.currentSet(), this.v.description?.report.source ?? null);
+      if (err) this.v.banner.error(`The probe set could not be kept in this browser's storage (${err}); save it as a file to keep it.`);
+      else document.body.dataset['probeSetKept'] = String(Date.now());
+      if (this.baseline) void this.refreshComparison();
+    }, SAVE_DELAY_MS);
+  }
+
+  private save(): void {
+    const set = this.currentSet();
+    const base = (set.title ?? this.v.description?.report.source.replace(/\.[^.]+$/, '') ?? 'fieldtally').replace(/[^\w.-]+/g, '-');
+    download(`${base}-probes.json`, writeProbeSet(set), 'application/json');
+  }
+
+  /** Reads a probe-set file; on success replaces the probes, on error reports it and changes nothing. */
+  async open(file: File): Promise<void> {
+    let set: ProbeSet, fromVersion: number;
+    try {
+      ({ set, fromVersion } = readProbeSet(await file.text(), file.name));
+    } catch (e) {
+      this.v.banner.error(`Could not open the probe set: ${(e as Error).message}`);
+      return;
+    }
+    await this.v.track(this.apply(set));
+    this.v.banner.notice(`Opened the probe set ${set.title ? `"${set.title}" ` : ''}from ${file.name}: ${set.probes.length} probe${set.probes.length === 1 ? '' : 's'}` +
+      `${fromVersion < PROBE_SET_VERSION ? ` (a version ${fromVersion} file, upgraded)` : ''}${this.extras.length ? `; ${this.extras.length} evaluated as a set (${this.extras.map(probeLabel).join(', ')})` : ''}.`);
+  }
+
+  private removeAll(): void {
+    this.clearTools();
+    this.order = [];
+    this.changed();
+  }
+
+  private async keepBaseline(): Promise<void> {
+    if (!this.v.description) return;
+    try {
+      const evaluation = await this.v.track(this.v.compute.evaluateProbeSet(this.currentSet()));
+      this.baseline = { file: this.v.description.report.source, evaluation };
+      this.comparison.set(null, `Baseline kept: ${this.baseline.file}, ${evaluation.probes.length} probe${evaluation.probes.length === 1 ? '' : 's'}. Open the variant file: every probe is evaluated on it and compared here.`);
+      document.body.dataset['baseline'] = this.baseline.file;
+    } catch (e) {
+      this.v.banner.error(`Baseline: ${(e as Error).message}`);
+    }
+  }
+
+  private clearBaseline(): void {
+    this.baseline = undefined;
+    this.comparison.set(null);
+    delete document.body.dataset['baseline'];
+  }
+
+  private async refreshComparison(): Promise<void> {
+    const b = this.baseline;
+    if (!b || !this.v.description) return;
+    const file = this.v.description.report.source;
+    try {
+      const ev = await this.v.track(this.v.compute.evaluateProbeSet(this.currentSet()));
+      if (this.baseline !== b) return;
+      this.comparison.set(compareEvaluations(b.evaluation, ev, { baseline: b.file, variant: file }));
+      document.body.dataset['compared'] = file;
+    } catch (e) {
+      this.v.banner.error(`Comparison: ${(e as Error).message}`);
+    }
+  }
+}

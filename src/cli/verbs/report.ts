@@ -1,0 +1,88 @@
+/**
+ * `fieldtally report <file|pattern>… --probes set.json --out dir/`: evaluates a probe set on one or more
+ * result files and writes a self-contained report folder (report.html, results.json, results.csv with one
+ * row per file, results-long.csv, probe-set.json, a picture per file). Exit code 3 when any probe failed
+ * (the report is still written, the failures listed on stderr).
+ */
+import { basename } from 'node:path';
+import { evaluateProbeSet } from '../../study/evaluate.ts';
+import { writeProbeSet } from '../../study/probeSetFile.ts';
+import { reportFolder } from '../../study/reportFolder.ts';
+import type { InputFileInfo, ReportPicture } from '../../study/reportHtml.ts';
+import { CONVENTIONS, UNITS_STATEMENT, failureLines, resultsText, type FileEvaluation } from '../../study/resultTables.ts';
+import { CAUTION } from '../../ui/caution.ts';
+import { parseArgs, parseNumber, str } from '../args.ts';
+import { expandInputs } from '../fileGlob.ts';
+import { reportPicture } from '../reportPicture.ts';
+import { writeReportFolder } from '../reportWriter.ts';
+import { loadInput, readProbeSetFile, toolVersion } from '../studyInputs.ts';
+import type { Verb } from '../verb.ts';
+
+/** Exit code when the report was written but some probe failed. */
+export const EXIT_PROBE_FAILED = 3;
+
+/** Pictures made at most (one per file, in order). */
+const MAX_PICTURES_DEFAULT = 12;
+
+const report: Verb = {
+  summary: 'evaluate a probe set on one or more result files and write a report folder (HTML, CSV, JSON, pictures)',
+  usage: [
+    'fieldtally report <file|pattern>… --probes set.json --out dir/ [--title text] [--color field[:x|y|z|magnitude]]',
+    '                  [--width px] [--height px] [--pictures n] [--no-pictures]',
+    '  Evaluates every probe of the probe set on each result file and writes into dir/:',
+    '    report.html        self-contained page: pictures with pins, summary (a row per file), every number, the probe set,',
+    '                       the inputs with sizes and SHA-256 checksums, time, tool version, units, conventions and the caution',
+    '    results.json       every number at full precision with its unit; results.csv one row per file;',
+    '    results-long.csv   one row per file, probe and quantity; probe-set.json; view-<n>.png pictures',
+    '  Patterns (* ? [..] {a,b} **) are expanded here too, so they may be quoted. Several files make a sweep: one table row each.',
+    '  --color       field to colour the surfaces by (default: a pressure field, else the first field)',
+    '  --width/--height  picture size in pixels (default 1200 × 800); --pictures n: pictures for the first n files (default 12)',
+    '  Exit code 3 when any probe failed (the report is still written; the failures go to stderr).',
+    `  ${UNITS_STATEMENT}`,
+  ].join('\n'),
+  options: { probes: 'string', out: 'string', title: 'string', color: 'string', width: 'string', height: 'string', pictures: 'string', 'no-pictures': 'boolean' },
+  async run(argv, io) {
+    const args = parseArgs(argv, this.options, 'report');
+    const probesPath = str(args, 'probes'), out = str(args, 'out');
+    if (!probesPath) throw new Error('--probes set.json is required (a probe-set file; see `fieldtally probes --help`)');
+    if (!out) throw new Error('--out dir/ is required (the report folder to write)');
+    if (args.positional.length === 0) throw new Error('give at least one result file (or a pattern such as "runs/*.vtu")');
+    const files = expandInputs(args.positional);
+    const size = (name: string, def: number) => {
+      const t = str(args, name);
+      const v = t === undefined ? def : parseNumber(t, name);
+      if (!(Number.isInteger(v) && v >= 64 && v <= 4096)) throw new Error(`--${name}: expected whole pixels from 64 to 4096, got ${t}`);
+      return v;
+    };
+    const width = size('width', 1200), height = size('height', 800);
+    const maxPictures = args.options['no-pictures'] ? 0 : str(args, 'pictures') === undefined ? MAX_PICTURES_DEFAULT : parseNumber(str(args, 'pictures')!, 'pictures');
+    const ps = await readProbeSetFile(probesPath);
+    if (ps.fromVersion < ps.set.version) io.err(`note: ${basename(probesPath)} is a version ${ps.fromVersion} probe set; it was upgraded on reading (fieldtally probes ${basename(probesPath)} --upgrade new.json writes the current version)`);
+    const inputs: InputFileInfo[] = [];
+    const evaluations: FileEvaluation[] = [];
+    const pictures: ReportPicture[] = [];
+    for (const [i, file] of files.entries()) {
+      const { dataset, inputs: read } = await loadInput(file);
+      inputs.push(...read);
+      const picture = i < maxPictures;
+      const evaluation = evaluateProbeSet(dataset, ps.set, { keepShapes: picture });
+      if (picture) pictures.push(reportPicture(dataset, evaluation, ps.set.units, { width, height, color: str(args, 'color'), file: `view-${i + 1}.png` }));
+      for (const p of evaluation.probes) delete p.shapes;
+      evaluations.push({ file, evaluation });
+    }
+    inputs.push(ps.input);
+    const title = str(args, 'title') ?? (ps.set.title ? `${ps.set.title} — fieldtally report` : `fieldtally report — ${files.length === 1 ? basename(files[0]!) : `${files.length} result files`}`);
+    const written = writeReportFolder(out, reportFolder({
+      title, tool: 'fieldtally', version: toolVersion(), createdAt: new Date().toISOString(), caution: CAUTION,
+      probeSet: ps.set, probeSetText: writeProbeSet(ps.set), inputs, files: evaluations, pictures, conventions: [...CONVENTIONS],
+    }));
+    io.out([...resultsText(evaluations), `report written: ${written.length} files in ${out} (open report.html)`, '', UNITS_STATEMENT, `Caution: ${CAUTION}`].join('\n'));
+    const failures = failureLines(evaluations);
+    if (failures.length) {
+      io.err([`${failures.length} probe evaluation${failures.length > 1 ? 's' : ''} failed:`, ...failures.map((f) => `  ${f}`)].join('\n'));
+      return EXIT_PROBE_FAILED;
+    }
+    return 0;
+  },
+};
+export default report;

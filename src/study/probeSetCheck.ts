@@ -1,0 +1,284 @@
+/**
+ * Checks a version-2 probe-set document by hand, member by member, mirroring `probeSet.schema.json`
+ * (no schema library): the members each object may hold are listed once in `MEMBERS`, keyed by the
+ * schema's `$defs` names, and a test holds the two to the same lists and the same verdicts.
+ *
+ * Beyond what the schema can say, this checker also refuses: two probes with one id, a zero plane normal,
+ * a zero rectangle axis or drag/lift direction, and a line whose two ends coincide.
+ */
+import { Checks, DocumentError, at } from './checkValues.ts';
+import { PROBE_KINDS, PROBE_SET_FORMAT, PROBE_SET_VERSION, type ProbeSet } from './probeSet.ts';
+import { FLUID_PRESETS, LENGTH_UNITS, UNIT_CATALOGUE, unitDef, unitProblem } from './units.ts';
+
+/** Members each object of the document may hold, by schema `$defs` name (`document` is the root). */
+export const MEMBERS = {
+  document: ['format', 'version', 'title', 'description', 'units', 'reference', 'probes'],
+  units: ['length', 'fields'],
+  reference: ['preset', 'density', 'viscosity', 'speed', 'area', 'length', 'pressure', 'dragDirection', 'liftDirection', 'momentPoint'],
+  plane: ['origin', 'normal', 'region'],
+  region: ['seed', 'disk', 'rectangle', 'cellGroups'],
+  disk: ['centre', 'radius'],
+  rectangle: ['centre', 'axis', 'halfSizes'],
+  cellGroups: ['field', 'ids'],
+  flowFields: ['velocity', 'pressure', 'density'],
+  flowOptions: ['kinematicPressure'],
+  sampleFields: ['sample'],
+  boundaryLayer: ['velocity', 'edge', 'edgeFraction', 'direction'],
+  cutPlaneProbe: ['id', 'kind', 'label', 'geometry', 'fields', 'options'],
+  lineProbe: ['id', 'kind', 'label', 'geometry', 'fields', 'options'],
+  lineGeometry: ['from', 'to'],
+  lineOptions: ['spacing', 'samples', 'tolerance', 'boundaryLayer'],
+  pointProbe: ['id', 'kind', 'label', 'geometry', 'fields', 'options'],
+  pointGeometry: ['at'],
+  pointOptions: ['tolerance'],
+  forceProbe: ['id', 'kind', 'label', 'geometry', 'fields', 'options'],
+  forceGeometry: ['surfaces'],
+  forceFields: ['pressure', 'wallShear', 'velocity', 'viscosity'],
+  forceOptions: ['featureAngle', 'groupArray', 'viscous', 'kinematicPressure', 'wallShearSign', 'reference'],
+  pressureLossProbe: ['id', 'kind', 'label', 'geometry', 'fields', 'options'],
+  lossGeometry: ['upstream', 'downstream'],
+  lossOptions: ['kinematicPressure', 'dynamicPressureFrom'],
+  massBalanceProbe: ['id', 'kind', 'label', 'geometry', 'fields', 'options'],
+  balanceGeometry: ['planes', 'surfaces'],
+  balanceOptions: ['featureAngle', 'groupArray'],
+} as const satisfies Record<string, readonly string[]>;
+
+/** Limits shared with the schema. */
+export const LIMITS = {
+  idPattern: /^[A-Za-z0-9][A-Za-z0-9._-]{0,63}$/,
+  textMax: 200,
+  samplesMin: 2,
+  samplesMax: 1_000_000,
+  toleranceMax: 1e-4,
+} as const;
+
+const ID_TEXT = 'an id of 1–64 letters, digits, ".", "_" or "-" starting with a letter or digit';
+
+function units(c: Checks, v: unknown, path: string): void {
+  const o = c.object(v, path, MEMBERS.units);
+  if (!o) return;
+  c.optional(o, 'length', path, (x, p) => {
+    const s = c.string(x, p);
+    if (s !== undefined && !LENGTH_UNITS.includes(s)) c.fail(p, `a length unit (${LENGTH_UNITS.join(', ')})`, s);
+  });
+  c.optional(o, 'fields', path, (x, p) => {
+    if (typeof x !== 'object' || x === null || Array.isArray(x)) return c.fail(p, 'an object of field name → unit', x);
+    for (const [name, u] of Object.entries(x as Record<string, unknown>)) {
+      const s = c.string(u, at(p, name));
+      if (s === undefined || UNIT_CATALOGUE.some((u) => u.symbol === s)) continue;
+      const near = unitDef(s);
+      c.issues.push({
+        path: at(p, name), expected: `a unit as the catalogue writes it (${UNIT_CATALOGUE.map((u) => u.symbol).join(', ')})`,
+        found: near ? `"${s}" (write it "${near.symbol}")` : unitProblem(s)!,
+      });
+    }
+  });
+}
+
+function reference(c: Checks, v: unknown, path: string): void {
+  const o = c.object(v, path, MEMBERS.reference);
+  if (!o) return;
+  c.optional(o, 'preset', path, (x, p) => c.oneOf(x, p, FLUID_PRESETS.map((f) => f.id)));
+  for (const k of ['density', 'viscosity', 'speed', 'area', 'length'] as const) c.optional(o, k, path, (x, p) => c.number(x, p, { above: 0 }));
+  c.optional(o, 'pressure', path, (x, p) => c.number(x, p));
+  c.optional(o, 'dragDirection', path, (x, p) => c.vec3(x, p, true));
+  c.optional(o, 'liftDirection', path, (x, p) => c.vec3(x, p, true));
+  c.optional(o, 'momentPoint', path, (x, p) => c.vec3(x, p));
+}
+
+function region(c: Checks, v: unknown, path: string): void {
+  const o = c.object(v, path, MEMBERS.region);
+  if (!o) return;
+  c.optional(o, 'seed', path, (x, p) => c.vec3(x, p));
+  c.optional(o, 'disk', path, (x, p) => {
+    const d = c.object(x, p, MEMBERS.disk, MEMBERS.disk);
+    if (!d) return;
+    c.optional(d, 'centre', p, (y, q) => c.vec3(y, q));
+    c.optional(d, 'radius', p, (y, q) => c.number(y, q, { above: 0 }));
+  });
+  c.optional(o, 'rectangle', path, (x, p) => {
+    const r = c.object(x, p, MEMBERS.rectangle, MEMBERS.rectangle);
+    if (!r) return;
+    c.optional(r, 'centre', p, (y, q) => c.vec3(y, q));
+    c.optional(r, 'axis', p, (y, q) => c.vec3(y, q, true));
+    c.optional(r, 'halfSizes', p, (y, q) => {
+      if (!Array.isArray(y) || y.length !== 2) return c.fail(q, 'an array of 2 positive numbers', y);
+      y.forEach((z, i) => c.number(z, at(q, i), { above: 0 }));
+    });
+  });
+  c.optional(o, 'cellGroups', path, (x, p) => {
+    const g = c.object(x, p, MEMBERS.cellGroups, MEMBERS.cellGroups);
+    if (!g) return;
+    c.optional(g, 'field', p, (y, q) => c.string(y, q, { minLength: 1 }));
+    c.optional(g, 'ids', p, (y, q) => c.array(y, q, (z, r) => c.number(z, r, { integer: true }), 1));
+  });
+}
+
+function plane(c: Checks, v: unknown, path: string): void {
+  const o = c.object(v, path, MEMBERS.plane, ['origin', 'normal']);
+  if (!o) return;
+  c.optional(o, 'origin', path, (x, p) => c.vec3(x, p));
+  c.optional(o, 'normal', path, (x, p) => c.vec3(x, p, true));
+  c.optional(o, 'region', path, (x, p) => region(c, x, p));
+}
+
+const fieldName = (c: Checks) => (x: unknown, p: string) => c.string(x, p, { minLength: 1 });
+const fieldOrNone = (c: Checks) => (x: unknown, p: string) => (x === null ? null : c.string(x, p, { minLength: 1 }) ?? undefined);
+
+function flowFields(c: Checks, v: unknown, path: string): void {
+  const o = c.object(v, path, MEMBERS.flowFields);
+  if (!o) return;
+  c.optional(o, 'velocity', path, fieldOrNone(c));
+  c.optional(o, 'pressure', path, fieldOrNone(c));
+  c.optional(o, 'density', path, (x, p) => {
+    if (x === null || (typeof x === 'string' && x.length > 0)) return;
+    if (typeof x === 'number') { c.number(x, p, { above: 0 }); return; }
+    c.fail(p, 'a density field name, a positive constant (kg/m³) or null', x);
+  });
+}
+
+function flowOptions(c: Checks, v: unknown, path: string, members: readonly string[]): Record<string, unknown> | undefined {
+  const o = c.object(v, path, members);
+  if (o) c.optional(o, 'kinematicPressure', path, (x, p) => c.boolean(x, p));
+  return o;
+}
+
+function sampleFields(c: Checks, v: unknown, path: string): void {
+  const o = c.object(v, path, MEMBERS.sampleFields);
+  if (o) c.optional(o, 'sample', path, (x, p) => c.array(x, p, fieldName(c), 1));
+}
+
+function tolerance(c: Checks, o: Record<string, unknown>, path: string): void {
+  c.optional(o, 'tolerance', path, (x, p) => c.number(x, p, { min: 0, max: LIMITS.toleranceMax }));
+}
+
+function grouping(c: Checks, o: Record<string, unknown>, path: string): void {
+  c.optional(o, 'featureAngle', path, (x, p) => c.number(x, p, { min: 0, max: 180 }));
+  c.optional(o, 'groupArray', path, (x, p) => (x === false ? false : c.string(x, p, { minLength: 1 }) ?? c.fail(p, 'an array name or false', x)));
+}
+
+const surfaceRef = (c: Checks) => (x: unknown, p: string) =>
+  (typeof x === 'string' && x.length > 0) || (typeof x === 'number' && Number.isInteger(x)) ? x : c.fail(p, 'a surface group name or whole-number id', x);
+
+function geometry(c: Checks, kind: string, v: unknown, path: string): void {
+  if (kind === 'cut-plane') return plane(c, v, path);
+  if (kind === 'line') {
+    const o = c.object(v, path, MEMBERS.lineGeometry, MEMBERS.lineGeometry);
+    if (!o) return;
+    const end = (k: string) => (o[k] === undefined ? undefined : c.vec3(o[k], at(path, k)));
+    const a = end('from'), b = end('to');
+    if (a && b && a.every((x, i) => x === b[i])) c.fail(at(path, 'to'), 'an end point different from "from"', b);
+    return;
+  }
+  if (kind === 'point') {
+    const o = c.object(v, path, MEMBERS.pointGeometry, MEMBERS.pointGeometry);
+    if (o) c.optional(o, 'at', path, (x, p) => c.vec3(x, p));
+    return;
+  }
+  if (kind === 'force') {
+    const o = c.object(v, path, MEMBERS.forceGeometry, MEMBERS.forceGeometry);
+    if (o) c.optional(o, 'surfaces', path, (x, p) => c.array(x, p, surfaceRef(c), 1));
+    return;
+  }
+  if (kind === 'pressure-loss') {
+    const o = c.object(v, path, MEMBERS.lossGeometry, MEMBERS.lossGeometry);
+    if (!o) return;
+    c.optional(o, 'upstream', path, (x, p) => plane(c, x, p));
+    c.optional(o, 'downstream', path, (x, p) => plane(c, x, p));
+    return;
+  }
+  const o = c.object(v, path, MEMBERS.balanceGeometry, ['planes']);
+  if (!o) return;
+  c.optional(o, 'planes', path, (x, p) => c.array(x, p, (y, q) => { plane(c, y, q); return y; }));
+  c.optional(o, 'surfaces', path, (x, p) => c.array(x, p, surfaceRef(c), 1));
+  const n = (Array.isArray(o['planes']) ? o['planes'].length : 0) + (Array.isArray(o['surfaces']) ? o['surfaces'].length : 0);
+  if (Array.isArray(o['planes']) && n === 0) c.fail(at(path, 'planes'), 'at least one plane or surface in the balance', o['planes']);
+}
+
+function fields(c: Checks, kind: string, v: unknown, path: string): void {
+  if (kind === 'cut-plane' || kind === 'pressure-loss' || kind === 'mass-balance') return flowFields(c, v, path);
+  if (kind === 'line' || kind === 'point') return sampleFields(c, v, path);
+  const o = c.object(v, path, MEMBERS.forceFields);
+  if (o) for (const k of MEMBERS.forceFields) c.optional(o, k, path, fieldName(c));
+}
+
+function options(c: Checks, kind: string, v: unknown, path: string): void {
+  if (kind === 'cut-plane') { flowOptions(c, v, path, MEMBERS.flowOptions); return; }
+  if (kind === 'pressure-loss') {
+    const o = flowOptions(c, v, path, MEMBERS.lossOptions);
+    if (o) c.optional(o, 'dynamicPressureFrom', path, (x, p) => c.oneOf(x, p, ['upstream', 'downstream']));
+    return;
+  }
+  if (kind === 'line') {
+    const o = c.object(v, path, MEMBERS.lineOptions);
+    if (!o) return;
+    c.optional(o, 'spacing', path, (x, p) => c.oneOf(x, p, ['even', 'cell-crossings']));
+    c.optional(o, 'samples', path, (x, p) => c.number(x, p, { integer: true, min: LIMITS.samplesMin, max: LIMITS.samplesMax }));
+    tolerance(c, o, path);
+    c.optional(o, 'boundaryLayer', path, (x, p) => {
+      const b = c.object(x, p, MEMBERS.boundaryLayer);
+      if (!b) return;
+      c.optional(b, 'velocity', p, fieldName(c));
+      c.optional(b, 'edge', p, (y, q) => c.oneOf(y, q, ['max', 'gradient']));
+      c.optional(b, 'edgeFraction', p, (y, q) => c.number(y, q, { above: 0, below: 1 }));
+      c.optional(b, 'direction', p, (y, q) => c.vec3(y, q, true));
+    });
+    return;
+  }
+  if (kind === 'point') {
+    const o = c.object(v, path, MEMBERS.pointOptions);
+    if (o) tolerance(c, o, path);
+    return;
+  }
+  if (kind === 'force') {
+    const o = c.object(v, path, MEMBERS.forceOptions);
+    if (!o) return;
+    grouping(c, o, path);
+    c.optional(o, 'viscous', path, (x, p) => c.oneOf(x, p, ['auto', 'wall-shear', 'gradient', 'none']));
+    c.optional(o, 'kinematicPressure', path, (x, p) => c.boolean(x, p));
+    c.optional(o, 'wallShearSign', path, (x, p) => c.oneOf(x, p, [1, -1]));
+    c.optional(o, 'reference', path, (x, p) => reference(c, x, p));
+    return;
+  }
+  const o = c.object(v, path, MEMBERS.balanceOptions);
+  if (o) grouping(c, o, path);
+}
+
+function probe(c: Checks, v: unknown, path: string, ids: Map<string, string>): void {
+  if (typeof v !== 'object' || v === null || Array.isArray(v)) { c.fail(path, 'a probe object', v); return; }
+  const kind = (v as Record<string, unknown>)['kind'];
+  if (!(PROBE_KINDS as readonly unknown[]).includes(kind)) { c.oneOf(kind, at(path, 'kind'), PROBE_KINDS); return; }
+  const k = kind as string;
+  const o = c.object(v, path, MEMBERS.cutPlaneProbe, ['id', 'kind', 'geometry'])!;
+  const id = o['id'] === undefined ? undefined : c.string(o['id'], at(path, 'id'), { pattern: LIMITS.idPattern, patternText: ID_TEXT });
+  if (id !== undefined) {
+    const prev = ids.get(id);
+    if (prev) c.fail(at(path, 'id'), `an id not used before (${prev} has it)`, id);
+    else ids.set(id, path);
+  }
+  c.optional(o, 'label', path, (x, p) => c.string(x, p, { maxLength: LIMITS.textMax }));
+  c.optional(o, 'geometry', path, (x, p) => geometry(c, k, x, p));
+  c.optional(o, 'fields', path, (x, p) => fields(c, k, x, p));
+  c.optional(o, 'options', path, (x, p) => options(c, k, x, p));
+}
+
+/**
+ * Checks a parsed version-2 document; returns a deep copy typed as `ProbeSet`, or throws a `DocumentError`
+ * listing every issue (`source` names the document in messages).
+ */
+export function checkProbeSet(doc: unknown, source = 'probe set'): ProbeSet {
+  const c = new Checks();
+  const o = c.object(doc, '', MEMBERS.document, ['format', 'version', 'probes']);
+  if (o) {
+    c.optional(o, 'format', '', (x, p) => c.oneOf(x, p, [PROBE_SET_FORMAT]));
+    c.optional(o, 'version', '', (x, p) => c.oneOf(x, p, [PROBE_SET_VERSION]));
+    c.optional(o, 'title', '', (x, p) => c.string(x, p, { maxLength: LIMITS.textMax }));
+    c.optional(o, 'description', '', (x, p) => c.string(x, p));
+    c.optional(o, 'units', '', (x, p) => units(c, x, p));
+    c.optional(o, 'reference', '', (x, p) => reference(c, x, p));
+    const ids = new Map<string, string>();
+    c.optional(o, 'probes', '', (x, p) => c.array(x, p, (y, q) => { probe(c, y, q, ids); return y; }));
+  }
+  if (c.issues.length) throw new DocumentError(source, c.issues);
+  return structuredClone(doc) as ProbeSet;
+}
