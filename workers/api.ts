@@ -61,37 +61,9 @@ export interface Description {
   groups: GroupInfo[];
 }
 
-/** A field to colour by or to sample: a scalar, one component, or the magnitude (component −1). */
-export interface FieldChoice {
-  name: string;
-  association: 'point' | 'cell';
-  component: number;
-}
+import type { DrawingValues, FieldChoice, SurfaceDrawing, TriangleDrawing } from '../src/surface/surfaceDrawing.ts';
 
-/**
- * Triangles to draw, non-indexed (vertex v of triangle t is at `3t + v`), so cell data can stay
- * constant per face. `positions` and `normals` are xyz per vertex; `groups` is the group id per vertex
- * (float, for the shader).
- */
-export interface TriangleDrawing {
-  positions: Float32Array;
-  normals: Float32Array;
-  groups: Float32Array;
-}
-
-/** The boundary surface for drawing, plus the outline of its faces as line segments (xyz pairs) with their group per vertex. */
-export interface SurfaceDrawing extends TriangleDrawing {
-  edges: Float32Array;
-  edgeGroups: Float32Array;
-  /** Box around the triangles, [xmin, xmax, ymin, ymax, zmin, zmax] (m), so the view need not scan them. */
-  box: [number, number, number, number, number, number];
-}
-
-/** Per-vertex values of a field in a drawing's vertex order, and their range (NaN range when empty). */
-export interface DrawingValues {
-  values: Float32Array;
-  range: [number, number];
-}
+export type { DrawingValues, FieldChoice, SurfaceDrawing, TriangleDrawing };
 
 /** A cut-plane request. `rho` is a constant density (kg/m³) or the name of a density field. */
 export interface CutRequest {

@@ -18,13 +18,14 @@ import type { LoadProgress } from '../src/io/loadOptions.ts';
 import { loadReport } from '../src/model/loadReport.ts';
 import type { Dataset } from '../src/model/dataset.ts';
 import { datasetBounds } from '../src/model/bounds.ts';
-import { boundaryFaces, type BoundaryFaces } from '../src/surface/boundaryFaces.ts';
-import { facesOfGroups, surfaceGroups, type SurfaceGroups } from '../src/surface/surfaceGroups.ts';
+import type { BoundaryFaces } from '../src/surface/boundaryFaces.ts';
+import { getBoundaryFaces, getSurfaceGroups } from '../src/surface/surfaceCache.ts';
+import { facesOfGroups, type SurfaceGroups } from '../src/surface/surfaceGroups.ts';
 import type {
   ComputeApi, CutReply, CutRequest, Description, DrawingValues, FieldChoice, ForceReply, ForceRequest, SetEvaluation,
   LineReply, LineRequest, LoadRequest, ProgressCallback, SurfaceDrawing,
 } from './api.ts';
-import { drawFaces, drawTriangleSet, faceValues, surfaceCellFaces, type FaceList } from './surfaceDrawing.ts';
+import { drawFaces, drawTriangleSet, faceValues, surfaceCellFaces, type FaceList } from '../src/surface/surfaceDrawing.ts';
 
 /** Smallest interval between two progress calls to the main thread (ms). */
 const PROGRESS_INTERVAL_MS = 100;
@@ -212,9 +213,9 @@ export function createComputeApi(): ComputeApi {
 /** Boundary faces, their groups and the description of a freshly read dataset. */
 function describe(dataset: Dataset, fileBytes: number, t0: number): Held {
   const report = loadReport(dataset);
-  const faces = boundaryFaces(dataset);
+  const faces = getBoundaryFaces(dataset);
   if (faces.count > 0) {
-    const groups = surfaceGroups(dataset, faces);
+    const groups = getSurfaceGroups(dataset);
     return {
       dataset, faces, boundary: { faces, groups },
       description: {

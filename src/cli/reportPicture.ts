@@ -15,11 +15,10 @@ import { fitCamera, projection, rasterise, type Mark, type TriangleLayer } from 
 import { headline } from '../study/resultTables.ts';
 import { unitByName } from '../study/units.ts';
 import type { UnitsDoc } from '../study/probeSet.ts';
-import { boundaryFaces } from '../surface/boundaryFaces.ts';
-import { surfaceGroups } from '../surface/surfaceGroups.ts';
+import { getBoundaryFaces, getSurfaceGroups } from '../surface/surfaceCache.ts';
 import { overlaySvg, pinRow, type OverlayPin } from '../ui/reportOverlay.ts';
 import { DEFAULT_COLOR_MAP, colorMap } from '../view/colorMaps.ts';
-import { drawFaces, faceValues, surfaceCellFaces } from '../../workers/surfaceDrawing.ts';
+import { drawFaces, faceValues, surfaceCellFaces } from '../surface/surfaceDrawing.ts';
 import type { FieldChoice } from '../../workers/api.ts';
 
 /** Options of `reportPicture`. */
@@ -100,10 +99,10 @@ function boxOf(P: ArrayLike<number>): Box {
 export function reportPicture(d: Dataset, ev: SetEvaluation, units: UnitsDoc | undefined, options: Partial<PictureOptions> = {}): ReportPicture {
   const o = { ...PICTURE_DEFAULTS, ...options };
   const choice = colorChoice(d, o.color);
-  const bf = boundaryFaces(d);
+  const bf = getBoundaryFaces(d);
   let faces, faceGroup: Int32Array | null = null, hidden = new Set<number>(), groupBoxes: Box[] = [];
   if (bf.count > 0) {
-    const groups = surfaceGroups(d, bf);
+    const groups = getSurfaceGroups(d);
     faces = bf; faceGroup = groups.faceGroup;
     groupBoxes = groups.groups.map((g) => [...g.bounds] as Box);
     const all = groupBoxes.reduce<Box>((a, g) => [Math.min(a[0], g[0]), Math.max(a[1], g[1]), Math.min(a[2], g[2]), Math.max(a[3], g[3]), Math.min(a[4], g[4]), Math.max(a[5], g[5])],

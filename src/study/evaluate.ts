@@ -8,8 +8,9 @@
  * Anchors and shapes (for pins and pictures) are in the file's length unit, like the set's geometry.
  */
 import type { Dataset } from '../model/dataset.ts';
-import { boundaryFaces, type BoundaryFaces } from '../surface/boundaryFaces.ts';
-import { surfaceGroups, type SurfaceGroups } from '../surface/surfaceGroups.ts';
+import type { BoundaryFaces } from '../surface/boundaryFaces.ts';
+import { getBoundaryFaces, getSurfaceGroups } from '../surface/surfaceCache.ts';
+import type { SurfaceGroups } from '../surface/surfaceGroups.ts';
 import { evaluateForce } from './evaluateForce.ts';
 import { evaluateBalance, evaluateCutPlane, evaluateLoss } from './evaluatePlanes.ts';
 import { evaluateLine, evaluatePoint } from './evaluateSamples.ts';
@@ -41,26 +42,10 @@ export interface EvaluateOptions {
 
 export const EVALUATE_DEFAULTS: EvaluateOptions = { keepShapes: false };
 
-/** Per dataset: its boundary faces, and their groups per grouping option. */
-const surfaceCache = new WeakMap<Dataset, { faces: BoundaryFaces; groups: Map<string, { faces: BoundaryFaces; groups: SurfaceGroups }> }>();
-
 function surfacesOf(d: Dataset, g: SurfaceGrouping | undefined): { faces: BoundaryFaces; groups: SurfaceGroups } {
-  const key = `${g?.featureAngle ?? ''}|${g?.groupArray ?? ''}`;
-  let c = surfaceCache.get(d);
-  if (!c) { c = { faces: boundaryFaces(d), groups: new Map() }; surfaceCache.set(d, c); }
-  const m = c.groups;
-  let hit = m.get(key);
-  if (!hit) {
-    const faces = c.faces;
-    if (faces.count === 0) throw new Error(`${d.source}: no boundary faces (surfaces need a volume mesh)`);
-    const groups = surfaceGroups(d, faces, {
-      ...(g?.featureAngle !== undefined ? { featureAngle: g.featureAngle } : {}),
-      ...(g?.groupArray !== undefined ? { groupArray: g.groupArray } : {}),
-    });
-    hit = { faces, groups };
-    m.set(key, hit);
-  }
-  return hit;
+  const faces = getBoundaryFaces(d);
+  if (faces.count === 0) throw new Error(`${d.source}: no boundary faces (surfaces need a volume mesh)`);
+  return { faces, groups: getSurfaceGroups(d, g ?? {}) };
 }
 
 type KindEvaluator = (ctx: EvalContext, p: Probe, out: ProbeOutcome) => void;

@@ -4,11 +4,43 @@
  * per-vertex values of a field. Runs in the worker; every array it returns is newly allocated, so the
  * worker can transfer it.
  */
-import { cellStarts, type Dataset } from '../src/model/dataset.ts';
-import { cellDimension } from '../src/model/cellTypes.ts';
-import type { FieldArray } from '../src/model/fieldArray.ts';
-import type { TriangleSet } from '../src/cut/triangleSet.ts';
-import type { DrawingValues, FieldChoice, SurfaceDrawing, TriangleDrawing } from './api.ts';
+import { cellStarts, type Dataset } from '../model/dataset.ts';
+import { cellDimension } from '../model/cellTypes.ts';
+import type { FieldArray } from '../model/fieldArray.ts';
+import type { TriangleSet } from '../cut/triangleSet.ts';
+
+/** A field to colour by or to sample: a scalar, one component, or the magnitude (component −1). */
+export interface FieldChoice {
+  name: string;
+  association: 'point' | 'cell';
+  component: number;
+}
+
+/**
+ * Triangles to draw, non-indexed (vertex v of triangle t is at `3t + v`), so cell data can stay
+ * constant per face. `positions` and `normals` are xyz per vertex; `groups` is the group id per vertex
+ * (float, for the shader).
+ */
+export interface TriangleDrawing {
+  positions: Float32Array;
+  normals: Float32Array;
+  groups: Float32Array;
+}
+
+/** The boundary surface for drawing, plus the outline of its faces as line segments (xyz pairs) with their group per vertex. */
+export interface SurfaceDrawing extends TriangleDrawing {
+  edges: Float32Array;
+  edgeGroups: Float32Array;
+  /** Box around the triangles, [xmin, xmax, ymin, ymax, zmin, zmax] (m), so the view need not scan them. */
+  box: [number, number, number, number, number, number];
+}
+
+/** Per-vertex values of a field in a drawing's vertex order, and their range (NaN range when empty). */
+export interface DrawingValues {
+  values: Float32Array;
+  range: [number, number];
+}
+
 
 /** Polygonal faces over the pieces of a dataset (the subset of `BoundaryFaces` drawing needs). */
 export interface FaceList {

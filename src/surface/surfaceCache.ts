@@ -1,0 +1,46 @@
+/**
+ * Boundary faces and surface groups of a dataset, computed once and kept with the dataset (a WeakMap
+ * keyed by the Dataset object, like the cell tree), so the worker's description, force totals and probe
+ * sets share one extraction. Only default extraction options are cached; groups are cached per grouping.
+ */
+import type { Dataset } from '../model/dataset.ts';
+import { boundaryFaces, type BoundaryFaces } from './boundaryFaces.ts';
+import { surfaceGroups, type SurfaceGroups } from './surfaceGroups.ts';
+
+/** How a boundary is split into groups (see `GroupOptions` in surfaceGroups.ts; a `.vtp` surface file is not cached). */
+export interface GroupingKey {
+  /** Feature angle in degrees. */
+  featureAngle?: number;
+  /** Integer cell array naming groups, or false to ignore group arrays. */
+  groupArray?: string | false;
+}
+
+interface Entry { faces: BoundaryFaces; groups: Map<string, SurfaceGroups> }
+
+const cache = new WeakMap<Dataset, Entry>();
+
+function entry(d: Dataset): Entry {
+  let e = cache.get(d);
+  if (!e) { e = { faces: boundaryFaces(d), groups: new Map() }; cache.set(d, e); }
+  return e;
+}
+
+/** The boundary faces of a dataset with default options, extracted on first call. */
+export function getBoundaryFaces(d: Dataset): BoundaryFaces {
+  return entry(d).faces;
+}
+
+/** The surface groups of a dataset's boundary for one grouping, computed on first call. */
+export function getSurfaceGroups(d: Dataset, g: GroupingKey = {}): SurfaceGroups {
+  const e = entry(d);
+  const key = `${g.featureAngle ?? ''}|${g.groupArray ?? ''}`;
+  let groups = e.groups.get(key);
+  if (!groups) {
+    groups = surfaceGroups(d, e.faces, {
+      ...(g.featureAngle !== undefined ? { featureAngle: g.featureAngle } : {}),
+      ...(g.groupArray !== undefined ? { groupArray: g.groupArray } : {}),
+    });
+    e.groups.set(key, groups);
+  }
+  return groups;
+}
