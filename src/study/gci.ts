@@ -7,9 +7,16 @@
  *
  * Convergence is classified by the ratio R = ε21/ε32 (ε21 = φ2 − φ1, ε32 = φ3 − φ2; 1 fine, 3 coarse):
  * 0 < R < 1 monotonic convergence; −1 < R < 0 oscillatory convergence; |R| ≥ 1 divergence;
- * ε21 = ε32 = 0 already converged. Only monotonic convergence yields an order, an extrapolated value
+ * values equal to within `ROUNDING_SPREAD` already converged. Only monotonic convergence yields an order, an extrapolated value
  * and a GCI; the other cases are reported as such with those numbers left null, never forced.
  */
+
+/**
+ * Relative spread below which three values count as equal. Integrals over different meshes of a field the
+ * meshes represent exactly agree only to rounding (about 1e-13 relative); read as data, that noise would
+ * look like an oscillation or a divergence.
+ */
+export const ROUNDING_SPREAD = 1e-10;
 
 /** Safety factor for three or more grids (Roache). */
 export const GCI_SAFETY_FACTOR = 1.25;
@@ -85,8 +92,8 @@ export function gridConvergence(input: GciInput): GciResult {
   if (r21 < 1.3 || r32 < 1.3) notes.push(`refinement ratio ${Math.min(r21, r32).toFixed(3)} is below 1.3, the value Celik et al. recommend as a minimum`);
   const empty = { order: null, extrapolated: null, approxRelError: null, extrapRelError: null, gciFine: null, gciMedium: null, asymptoticRatio: null };
   const scale = Math.max(Math.abs(f1), Math.abs(f2), Math.abs(f3), Number.MIN_VALUE);
-  if (Math.abs(e21) <= 1e-14 * scale && Math.abs(e32) <= 1e-14 * scale) {
-    return { kind: 'converged', r21, r32, ratio: null, ...empty, notes: [...notes, 'the three values agree to rounding: no order can be estimated'] };
+  if (Math.max(f1, f2, f3) - Math.min(f1, f2, f3) <= ROUNDING_SPREAD * scale) {
+    return { kind: 'converged', r21, r32, ratio: null, ...empty, notes: [...notes, `the three values agree to ${ROUNDING_SPREAD} relative: the quantity does not change with the mesh (the differences are rounding); no order can be estimated`] };
   }
   if (e32 === 0) return { kind: 'divergent', r21, r32, ratio: null, ...empty, notes: [...notes, 'coarse and medium values are equal while the fine one differs'] };
   const ratio = e21 / e32;

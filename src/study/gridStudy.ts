@@ -58,26 +58,6 @@ export interface GridStudy {
 }
 
 /**
- * Relative spread below which three values count as equal. Integrals over different meshes of a field
- * the mesh represents exactly agree only to rounding (about 1e-13 relative); `gridConvergence` would
- * read that noise as an oscillation or a divergence.
- */
-export const ROUNDING_SPREAD = 1e-10;
-
-function estimate(h: [number, number, number], phi: [number, number, number]): GciResult {
-  const scale = Math.max(...phi.map(Math.abs));
-  const spread = Math.max(...phi) - Math.min(...phi);
-  if (spread <= ROUNDING_SPREAD * scale) {
-    return {
-      kind: 'converged', r21: h[1] / h[0], r32: h[2] / h[1], ratio: null, order: null, extrapolated: null, approxRelError: null,
-      extrapRelError: null, gciFine: null, gciMedium: null, asymptoticRatio: null,
-      notes: [`the three values agree to ${ROUNDING_SPREAD} relative: the quantity does not change with the mesh (the differences are rounding); no order can be estimated`],
-    };
-  }
-  return gridConvergence({ h, phi });
-}
-
-/**
  * The study over three levels given in any order (sorted here by h, fine first). `only` limits it to
  * `probe` or `probe.key` names. Throws when two meshes have the same size.
  */
@@ -102,7 +82,7 @@ export function gridStudy(levels: readonly GridLevel[], only?: readonly string[]
       let missing: string | null = null;
       if (vm === null) missing = `missing on the medium mesh ${m.file}${pm && !pm.ok ? `: ${pm.error}` : ''}`;
       else if (vc === null) missing = `missing on the coarse mesh ${c.file}${pc && !pc.ok ? `: ${pc.error}` : ''}`;
-      const result = missing ? null : estimate([f.size.h, m.size.h, c.size.h], [q.value, vm!, vc!]);
+      const result = missing ? null : gridConvergence({ h: [f.size.h, m.size.h, c.size.h], phi: [q.value, vm!, vc!] });
       quantities.push({ probe: pf.id, probeLabel: pf.label, key: q.key, label: q.label, unit: q.unit, phi, result, missing });
     }
     if (!pf.ok) quantities.push({ probe: pf.id, probeLabel: pf.label, key: '', label: '', unit: '', phi: [null, null, null], result: null, missing: `failed on the fine mesh ${f.file}: ${pf.error}` });

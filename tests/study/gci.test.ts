@@ -47,3 +47,12 @@ describe('grid-convergence estimate', () => {
     expect(() => gridConvergence({ h: [2, 1, 4], phi: [1, 2, 3] })).toThrow(/h1 < h2 < h3/);
   });
 });
+
+describe('grid-convergence estimate on a quantity the meshes represent exactly', () => {
+  it('values equal to rounding are "converged", not read as oscillation', () => {
+    // Reference: the three values differ only by floating-point rounding (1e-13 relative).
+    const r = gridConvergence({ h: [1, 1.5, 2.25], phi: [0.40064, 0.40064 * (1 + 3e-14), 0.40064 * (1 - 2e-13)] });
+    expect(r.kind).toBe('converged');
+    expect(r.gciFine).toBeNull();
+  });
+});
