@@ -19,7 +19,7 @@ const balance: Verb = {
   usage: [
     'fieldtally balance <file> [--planes "x,y,z@nx,ny,nz; x,y,z@nx,ny,nz; …"] [--surfaces id|name,…] [--seeds "x,y,z; …"]',
     '                   [--velocity name] [--rho value|name] [--json]',
-    '  Each plane normal must point OUT of the control volume; boundary-surface groups (ids or names as `fieldtally surface`',
+    '  Each plane normal must point OUT of the control volume; boundary-surface groups (ids or names as `fieldtally surfaces`',
     '  lists them) are oriented out of the fluid automatically. Net = Σ outward flux (0 when balanced);',
     '  imbalance share = net / total inflow. Mass flow with a density, else volume flow. --seeds gives one seed per plane',
     '  (or "-" for the whole cut) to keep one passage of each plane.',
