@@ -54,23 +54,41 @@ function fastGroups(text: Uint8Array, p: number, end: number, out: Uint8Array, o
  */
 export class Base64Reader {
   private pos: number;
+  /** File offset of `text[0]` (non-zero when the text is a window of the file), for positions and messages. */
+  private base = 0;
   /** Bytes of the last decoded group not handed out yet. */
   private readonly carry = new Uint8Array(3);
   private carryAt = 0;
   private carryEnd = 0;
 
-  constructor(private readonly text: Uint8Array, start: number, private readonly end: number, private readonly where: string) {
+  constructor(private text: Uint8Array, start: number, private end: number, private readonly where: string) {
     this.pos = start;
+  }
+
+  /**
+   * Continues on a new window of the text: `text[start, end)`, with `text[0]` at file offset `base`. The
+   * previous window must have ended at a group boundary (undecoded bytes of the last group carry over).
+   */
+  setWindow(text: Uint8Array, start: number, end: number, base: number): void {
+    this.text = text;
+    this.pos = start;
+    this.end = end;
+    this.base = base;
+  }
+
+  /** Decoded bytes held back from the last group. */
+  carried(): number {
+    return this.carryEnd - this.carryAt;
   }
 
   /** An upper bound on the bytes still to come (exact when the rest holds no whitespace or padding). */
   available(): number {
-    return this.carryEnd - this.carryAt + Math.floor((this.end - this.pos) / 4) * 3;
+    return this.carried() + Math.floor((this.end - this.pos) / 4) * 3;
   }
 
-  /** Byte offset in the text where the next group starts. */
+  /** File offset where the next group starts. */
   position(): number {
-    return this.pos;
+    return this.base + this.pos;
   }
 
   /** Decodes the next `n` bytes into a fresh array. */
@@ -82,6 +100,15 @@ export class Base64Reader {
 
   /** Decodes the next `n` bytes into `out[at, at + n)`. Throws if the text runs out or holds an invalid character. */
   readInto(out: Uint8Array, at: number, n: number): void {
+    const got = this.readSome(out, at, n);
+    if (got < n) throw new Error(`${this.where}: base64 data end after ${got} of ${n} bytes`);
+  }
+
+  /**
+   * Decodes up to `n` bytes into `out[at, at + n)`; returns how many, fewer only when the text ends (at a
+   * group boundary). Throws on an invalid character or a text that ends inside a group.
+   */
+  readSome(out: Uint8Array, at: number, n: number): number {
     const stop = at + n;
     let o = at;
     while (o < stop && this.carryAt < this.carryEnd) out[o++] = this.carry[this.carryAt++]!;
@@ -89,9 +116,10 @@ export class Base64Reader {
       fastGroups(this.text, this.pos, this.end, out, o, stop);
       this.pos = fastP; o = fastO;
       if (o >= stop) break;
-      if (!this.group()) throw new Error(`${this.where}: base64 data end after ${o - at} of ${n} bytes`);
+      if (!this.group()) break;
       while (o < stop && this.carryAt < this.carryEnd) out[o++] = this.carry[this.carryAt++]!;
     }
+    return o - at;
   }
 
   /** Decodes everything that is left into a fresh array. */
@@ -115,21 +143,21 @@ export class Base64Reader {
     while (k < 4) {
       if (p >= end) {
         if (k === 0) { this.pos = p; return false; }
-        throw new Error(`${this.where}: base64 data end inside a 4-character group at byte ${p} (${k} of 4 characters)`);
+        throw new Error(`${this.where}: base64 data end inside a 4-character group at byte ${this.base + p} (${k} of 4 characters)`);
       }
       const ch = text[p]!, s = DECODE[ch]!;
       p++;
       if (s === SPACE) continue;
       if (s === INVALID) {
         const shown = ch >= 33 && ch < 127 ? `"${String.fromCharCode(ch)}"` : `byte 0x${ch.toString(16).padStart(2, '0')}`;
-        throw new Error(`${this.where}: invalid base64 character ${shown} at byte ${p - 1}`);
+        throw new Error(`${this.where}: invalid base64 character ${shown} at byte ${this.base + p - 1}`);
       }
       if (s === PAD) {
-        if (k < 2) throw new Error(`${this.where}: misplaced base64 padding "=" at byte ${p - 1}`);
+        if (k < 2) throw new Error(`${this.where}: misplaced base64 padding "=" at byte ${this.base + p - 1}`);
         pads++;
         v <<= 6;
       } else {
-        if (pads > 0) throw new Error(`${this.where}: base64 character after "=" padding at byte ${p - 1}`);
+        if (pads > 0) throw new Error(`${this.where}: base64 character after "=" padding at byte ${this.base + p - 1}`);
         v = (v << 6) | s;
       }
       k++;

@@ -48,10 +48,44 @@ export function polyDataCells(sections: PolySection[]): CellArrays {
   return { cellTypes, offsets, connectivity };
 }
 
+/** The error for cell `c` of a type fieldtally does not read (`where` names the cell-type section). */
+export function unreadCellType(where: string, c: number, t: number): Error {
+  return new Error(`${where}: cell ${c} has cell type ${t}${CELL_TYPE_NAMES[t] ? ` (${CELL_TYPE_NAMES[t]})` : ''}, which fieldtally does not read (expected a linear, quadratic or higher-order Lagrange/Bezier type, or 42 polyhedron)`);
+}
+
 /** Result of `linearizeCells`: model cells, the per-type counts as declared, and warnings. */
 export interface LinearizedCells extends CellArrays {
   fileCellTypes: Record<number, number>;
   warnings: string[];
+}
+
+/** Per-type counts of any type list; throws at the first cell of a type fieldtally does not read. */
+function countTypes(rawTypes: ArrayLike<number>, where: string): { fileCellTypes: Record<number, number>; higher: number } {
+  const fileCellTypes: Record<number, number> = {};
+  let higher = 0;
+  for (let c = 0; c < rawTypes.length; c++) {
+    const t = rawTypes[c]!;
+    fileCellTypes[t] = (fileCellTypes[t] ?? 0) + 1;
+    if (t === QUADRATIC_POLYGON || HIGHER_ORDER_TO_LINEAR[t]) { higher++; continue; }
+    if (t !== 0 && cellDimension(t) < 0) throw unreadCellType(where, c, t);
+  }
+  return { fileCellTypes, higher };
+}
+
+/** `countTypes` for byte types: a histogram first (no object lookup per cell), the per-cell walk only to name a bad cell. */
+function countBytes(rawTypes: Uint8Array, where: string): { fileCellTypes: Record<number, number>; higher: number } {
+  const hist = new Float64Array(256);
+  for (let c = 0; c < rawTypes.length; c++) hist[rawTypes[c]!]!++;
+  const fileCellTypes: Record<number, number> = {};
+  let higher = 0;
+  for (let t = 0; t < 256; t++) {
+    if (hist[t] === 0) continue;
+    if (t === QUADRATIC_POLYGON || HIGHER_ORDER_TO_LINEAR[t]) higher += hist[t]!;
+    else if (t !== 0 && cellDimension(t) < 0) return countTypes(rawTypes, where);
+    // Integer keys enumerate in ascending order whatever the insertion order, as in `countTypes`.
+    fileCellTypes[t] = hist[t]!;
+  }
+  return { fileCellTypes, higher };
 }
 
 /**
@@ -61,16 +95,7 @@ export interface LinearizedCells extends CellArrays {
  */
 export function linearizeCells(rawTypes: ArrayLike<number>, offsets: Int32Array, connectivity: Int32Array, where: string): LinearizedCells {
   const n = rawTypes.length;
-  const fileCellTypes: Record<number, number> = {};
-  let higher = 0;
-  for (let c = 0; c < n; c++) {
-    const t = rawTypes[c]!;
-    fileCellTypes[t] = (fileCellTypes[t] ?? 0) + 1;
-    if (t === QUADRATIC_POLYGON || HIGHER_ORDER_TO_LINEAR[t]) { higher++; continue; }
-    if (t !== 0 && cellDimension(t) < 0) {
-      throw new Error(`${where}: cell ${c} has cell type ${t}${CELL_TYPE_NAMES[t] ? ` (${CELL_TYPE_NAMES[t]})` : ''}, which fieldtally does not read (expected a linear, quadratic or higher-order Lagrange/Bezier type, or 42 polyhedron)`);
-    }
-  }
+  const { fileCellTypes, higher } = rawTypes instanceof Uint8Array ? countBytes(rawTypes, where) : countTypes(rawTypes, where);
   if (higher === 0) {
     return { cellTypes: rawTypes instanceof Uint8Array ? rawTypes : Uint8Array.from(rawTypes), offsets, connectivity, fileCellTypes, warnings: [] };
   }

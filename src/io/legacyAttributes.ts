@@ -116,7 +116,7 @@ export async function readAttribute(keyword: string, section: AttributeSection, 
     default: { // GLOBAL_IDS, PEDIGREE_IDS, EDGE_FLAGS
       const type = legacyType(cur.need('the data type', where), where);
       if (type === 'string') {
-        skipStrings(cur, n, where);
+        await skipStrings(cur, n, where);
         cur.skipMetadata();
         ctx.warnings.push(`${where}: string array skipped (fieldtally reads numeric arrays only)`);
         return true;
@@ -152,7 +152,7 @@ export async function readFieldBlock(ctx: ArrayContext, label: string, associati
       throw new Error(`${where}: declares ${n} tuples, expected ${tuples} (the ${association === 'point' ? 'POINT_DATA' : 'CELL_DATA'} count)`);
     }
     if (type === 'string') {
-      skipStrings(cur, comps * n, where);
+      await skipStrings(cur, comps * n, where);
       cur.skipMetadata();
       ctx.warnings.push(`${where}: string array skipped (fieldtally reads numeric arrays only)`);
       continue;

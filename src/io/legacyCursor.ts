@@ -2,7 +2,19 @@
  * A forward cursor over the bytes of a legacy `.vtk` file: whitespace-separated words for keywords,
  * counts and names, whole lines for the header and metadata blocks, the start of binary data, and
  * positions named for messages (line numbers in ASCII files, byte offsets in binary ones).
+ *
+ * The cursor sees a window of the file: all of it (in-memory files, ASCII files), or, for a binary file
+ * read from a source, the text around the binary arrays: the window starts after each array, which is
+ * read straight from the source into its final array (`binaryArray`). Text that runs past the window
+ * (keyword sections longer than `WINDOW_BYTES`, which VTK never writes) stops the read with
+ * `WINDOW_EXHAUSTED`, and the caller starts again on the whole file.
  */
+import type { NumericArray } from '../model/fieldArray.ts';
+import type { ByteSource } from './byteSource.ts';
+import type { ArrayPlan } from './elementConvert.ts';
+import { ELEMENT_SIZE } from './elementTypes.ts';
+import type { Checkpoint } from './loadOptions.ts';
+import { readArray } from './sourceArrays.ts';
 
 /** Longest word accepted; legacy names and keywords are short, so a longer one means we are lost in data. */
 const MAX_WORD = 4096;
@@ -10,6 +22,12 @@ const MAX_WORD = 4096;
 const isSpace = (c: number) => c === 32 || c === 10 || c === 13 || c === 9 || c === 11 || c === 12;
 
 const utf8 = new TextDecoder('utf-8');
+
+/** Bytes of text the window holds after each binary array. */
+export const WINDOW_BYTES = 64 << 10;
+
+/** Thrown (not an error) when the text runs past the window of a file read from a source. */
+export const WINDOW_EXHAUSTED = Symbol('legacy text beyond the window');
 
 /** Marks a byte position in a message, to be turned into a line number by `resolve`. */
 const MARK = '\u0001';
@@ -36,24 +54,84 @@ export function decodeName(s: string): string {
 }
 
 export class LegacyCursor {
-  /** Current byte position. */
+  /** Current byte position in the window (`bytes`); the file offset is `base + pos`. */
   pos = 0;
   /** Where the last word read started (messages point at keywords). */
   wordStart = 0;
   /** Whether data blocks are big-endian binary (set once the header is read). */
   binary = false;
+  /** The window: bytes `[base, base + bytes.length)` of the file. */
+  bytes: Uint8Array;
+  /** File offset of `bytes[0]`. */
+  base = 0;
   private memoPos = 0;
   private memoLine = 1;
 
-  constructor(readonly bytes: Uint8Array, readonly file: string) {}
+  /**
+   * A cursor over `source`, starting with `window` (the file's first bytes, or all of them).
+   */
+  constructor(readonly source: ByteSource, window: Uint8Array, readonly file: string) {
+    this.bytes = window;
+  }
 
-  /** Bytes left from the current position. */
+  /** Whether the window reaches the end of the file. */
+  get whole(): boolean {
+    return this.base + this.bytes.length >= this.source.size;
+  }
+
+  /** Bytes left in the file from the current position. */
   get remaining(): number {
-    return this.bytes.length - this.pos;
+    return this.source.size - (this.base + this.pos);
+  }
+
+  /** The end of the window was reached at `p`: the end of the file, or text beyond the window. */
+  private atEnd(p: number): boolean {
+    if (p < this.bytes.length) return false;
+    if (!this.whole) throw WINDOW_EXHAUSTED;
+    return true;
+  }
+
+  /** Replaces the window by all of the file (its bytes from offset 0), keeping the position. */
+  useWhole(all: Uint8Array): void {
+    this.pos += this.base;
+    this.wordStart += this.base;
+    this.base = 0;
+    this.bytes = all;
+  }
+
+  /** Moves the window to start at the current position (at least `n` bytes of it, up to the end of the file). */
+  private async refill(n: number): Promise<void> {
+    const at = this.base + this.pos;
+    this.bytes = await this.source.read(at, Math.max(n, WINDOW_BYTES));
+    this.wordStart = this.wordStart + this.base - at;
+    this.base = at;
+    this.pos = 0;
+  }
+
+  /** Makes sure `n` bytes from the position are in the window (or the rest of the file, if shorter). */
+  async ensure(n: number): Promise<void> {
+    if (this.bytes.length - this.pos < n && !this.whole) await this.refill(n);
+  }
+
+  /** Moves the position `n` bytes on (past data the caller has checked fit in the file), keeping text ahead in the window. */
+  async advance(n: number): Promise<void> {
+    this.pos += n;
+    if (!this.whole && this.bytes.length - this.pos < WINDOW_BYTES / 2) await this.refill(WINDOW_BYTES);
+  }
+
+  /**
+   * Reads `count` binary elements at the position into the final array `plan` asks for, straight from
+   * the source, and moves past them. The caller has checked that they fit in the file.
+   */
+  async binaryArray(count: number, plan: ArrayPlan, cp: Checkpoint, stage: string): Promise<NumericArray> {
+    const values = await readArray(this.source, this.base + this.pos, count, plan, { progress: { cp, stage } });
+    await this.advance(count * ELEMENT_SIZE[plan.type]);
+    return values;
   }
 
   /** 1-based line number of byte `pos`; counts forward from the last query, so a pass over the file is linear. */
   lineOf(pos: number): number {
+    // Line numbers are asked for in text files only, which are read whole (base 0).
     const b = this.bytes;
     if (pos < this.memoPos) { this.memoPos = 0; this.memoLine = 1; }
     let line = this.memoLine;
@@ -68,7 +146,7 @@ export class LegacyCursor {
    * numbers are only counted if a message is shown: `at` leaves a mark that `resolve` replaces.
    */
   at(pos: number = this.wordStart): string {
-    return this.binary ? `byte ${pos}` : `line ${MARK}${pos}${MARK}`;
+    return this.binary ? `byte ${this.base + pos}` : `line ${MARK}${this.base + pos}${MARK}`;
   }
 
   /** Replaces the position marks left by `at` in a message with line numbers. */
@@ -87,7 +165,7 @@ export class LegacyCursor {
     let p = this.pos;
     while (p < n && isSpace(b[p]!)) p++;
     this.pos = p;
-    return p < n;
+    return !this.atEnd(p);
   }
 
   /** The next whitespace-separated word (UTF-8), or undefined at the end of the file. */
@@ -101,6 +179,7 @@ export class LegacyCursor {
         throw new Error(`${this.file}: expected a keyword or name at ${this.at(start)}, found ${MAX_WORD}+ bytes without a space (is a data block longer than declared?)`);
       }
     }
+    this.atEnd(p);
     this.wordStart = start;
     this.pos = p;
     return utf8.decode(b.subarray(start, p));
@@ -111,7 +190,8 @@ export class LegacyCursor {
     const pos = this.pos, ws = this.wordStart;
     try {
       return this.word();
-    } catch {
+    } catch (e) {
+      if (e === WINDOW_EXHAUSTED) throw e;
       return undefined;
     } finally {
       this.pos = pos;
@@ -138,10 +218,11 @@ export class LegacyCursor {
   /** The rest of the current line (without `\r`), moving past its end; undefined at the end of the file. */
   line(): string | undefined {
     const b = this.bytes, n = b.length;
-    if (this.pos >= n) return undefined;
+    if (this.atEnd(this.pos)) return undefined;
     const start = this.pos;
     let p = start;
     while (p < n && b[p] !== 10) p++;
+    this.atEnd(p);
     this.pos = p < n ? p + 1 : p;
     let end = p;
     if (end > start && b[end - 1] === 13) end--;
@@ -153,7 +234,7 @@ export class LegacyCursor {
     const b = this.bytes, n = b.length;
     let p = this.pos;
     while (p < n && b[p] !== 10) p++;
-    if (p >= n) throw new Error(`${where}: the file ends before the binary data of this section`);
+    if (this.atEnd(p)) throw new Error(`${where}: the file ends before the binary data of this section`);
     this.pos = p + 1;
   }
 

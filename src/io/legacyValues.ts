@@ -6,7 +6,8 @@
  * (a digit and a separator).
  */
 import { parseNumbers, type NumberSink } from './asciiNumbers.ts';
-import { ELEMENT_SIZE, allocateFor, decodeElements, toIds, type ElementType } from './elementTypes.ts';
+import type { ArrayPlan } from './elementConvert.ts';
+import { ELEMENT_SIZE, allocateFor, type ElementType } from './elementTypes.ts';
 import type { Checkpoint } from './loadOptions.ts';
 import { quoted, type LegacyCursor } from './legacyCursor.ts';
 import { integerRange } from './legacyTypes.ts';
@@ -105,58 +106,46 @@ async function readAscii(cur: LegacyCursor, out: NumericArray | Int32Array, rang
   }
 }
 
-/** Decodes `count` big-endian binary values starting on the line after the header. */
-function readBinary(cur: LegacyCursor, count: number, type: ElementType, where: string): NumericArray {
-  cur.toNextLine(where);
-  checkRoom(cur, count, ELEMENT_SIZE[type], where);
-  const a = decodeElements(cur.bytes, cur.pos, count, type, false, where);
-  cur.pos += count * ELEMENT_SIZE[type];
-  // Byte arrays come back as views of the file; a copy lets the file's buffer go (and be transferred alone).
-  return a.buffer === cur.bytes.buffer ? a.slice() : a;
+/**
+ * Reads `count` big-endian binary values starting on the line after the header, straight from the file
+ * into the array `plan` asks for (a copy, never a view of the file: the file's buffer can go).
+ */
+async function readBinary(cur: LegacyCursor, count: number, plan: ArrayPlan, cp: Checkpoint): Promise<NumericArray> {
+  cur.toNextLine(plan.where);
+  checkRoom(cur, count, ELEMENT_SIZE[plan.type], plan.where);
+  return cur.binaryArray(count, plan, cp, STAGE);
 }
 
 /** Reads `count` values of `type` into the model's array for that type (64-bit integers as Float64Array, exact to 2^53). */
-export async function readValues(cur: LegacyCursor, count: number, type: ElementType, where: string, cp: Checkpoint): Promise<NumericArray> {
+export async function readValues(cur: LegacyCursor, count: number, type: ElementType, where: string, cp: Checkpoint, float64 = false): Promise<NumericArray> {
   if (cur.binary) {
-    const a = readBinary(cur, count, type, where);
-    await cp.at(STAGE, cur.pos);
+    const a = await readBinary(cur, count, { type, littleEndian: false, target: float64 ? 'float64' : 'values', where }, cp);
+    await cp.at(STAGE, cur.base + cur.pos);
     return a;
   }
   checkRoom(cur, count, 1, where);
   const out = allocateFor(type, count);
   const range = integerRange(type);
   await readAscii(cur, out, range, `an integer (${type})`, where, cp);
-  return out;
+  return float64 && !(out instanceof Float64Array) ? Float64Array.from(out) : out;
 }
 
 /**
- * Big-endian 32/64-bit integers straight into ids, checked in `min..max`. Why: cell lists are the bulk
- * of a binary file, and the general path (aligned copy, BigInt for 64-bit, then narrowing) is several
- * times slower for them.
+ * Reads a binary file's `CELL_TYPES` (`count` values of `type`) as cell-type bytes; a value outside 0..255
+ * is refused with `badCellType`'s error. Text files keep `readValues`.
  */
-function bigEndianIds(cur: LegacyCursor, count: number, type: 'Int32' | 'Int64', where: string, min: number, max: number): Int32Array {
-  cur.toNextLine(where);
-  const size = ELEMENT_SIZE[type];
-  checkRoom(cur, count, size, where);
-  const b = cur.bytes, out = new Int32Array(count);
-  for (let i = 0, o = cur.pos; i < count; i++, o += size) {
-    let v = (b[o]! << 24) | (b[o + 1]! << 16) | (b[o + 2]! << 8) | b[o + 3]!;
-    if (size === 8) v = v * 4294967296 + (((b[o + 4]! << 24) | (b[o + 5]! << 16) | (b[o + 6]! << 8) | b[o + 7]!) >>> 0);
-    if (v < min || v > max) throw new Error(`${where}: value ${v} at index ${i} is not an id in ${min}..${max}`);
-    out[i] = v;
-  }
-  cur.pos += count * size;
-  return out;
+export async function readCellTypeBytes(cur: LegacyCursor, count: number, type: ElementType, where: string, cp: Checkpoint, badCellType: (index: number, value: number) => Error): Promise<Uint8Array> {
+  const a = await readBinary(cur, count, { type, littleEndian: false, target: 'cellTypes', where, badCellType }, cp);
+  await cp.at(STAGE, cur.base + cur.pos);
+  return a as Uint8Array;
 }
 
 /** Reads `count` integer values of `type` as ids, each checked in `min..max`. */
 export async function readIds(cur: LegacyCursor, count: number, type: ElementType, where: string, cp: Checkpoint, min = 0, max = 0x7fffffff): Promise<Int32Array> {
   if (cur.binary) {
-    const ids = type === 'Int32' || type === 'Int64'
-      ? bigEndianIds(cur, count, type, where, min, max)
-      : toIds(readBinary(cur, count, type, where), where, min, max);
-    await cp.at(STAGE, cur.pos);
-    return ids;
+    const ids = await readBinary(cur, count, { type, littleEndian: false, target: 'ids', min, max, where }, cp);
+    await cp.at(STAGE, cur.base + cur.pos);
+    return ids as Int32Array;
   }
   checkRoom(cur, count, 1, where);
   const out = new Int32Array(count);
@@ -189,7 +178,7 @@ export async function skipValues(cur: LegacyCursor, count: number, binaryType: E
   if (cur.binary) {
     cur.toNextLine(where);
     checkRoom(cur, count, ELEMENT_SIZE[binaryType], where);
-    cur.pos += count * ELEMENT_SIZE[binaryType];
+    await cur.advance(count * ELEMENT_SIZE[binaryType]);
     return;
   }
   checkRoom(cur, count, 1, where);
@@ -205,18 +194,19 @@ export async function skipValues(cur: LegacyCursor, count: number, binaryType: E
  * a big-endian length whose first two bits give its size (11: 6-bit length in 1 byte, 10: 14 bits in 2,
  * 01: 30 bits in 4, 00: 62 bits in 8), then the bytes.
  */
-export function skipStrings(cur: LegacyCursor, count: number, where: string): void {
+export async function skipStrings(cur: LegacyCursor, count: number, where: string): Promise<void> {
   cur.toNextLine(where);
   if (count > cur.remaining + 1) {
     throw new Error(`${where}: declares ${count} strings, but only ${cur.remaining} bytes are left (file truncated, or a wrong count)`);
   }
-  const b = cur.bytes;
   for (let i = 0; i < count; i++) {
     if (!cur.binary) {
       if (cur.line() === undefined) throw new Error(`${where}: expected ${count} strings, but the file ends after ${i}`);
       continue;
     }
+    await cur.ensure(8);
     if (cur.remaining < 1) throw new Error(`${where}: expected ${count} strings, but the file ends after ${i}`);
+    const b = cur.bytes;
     const first = b[cur.pos]!, kind = first >> 6, head = kind === 3 ? 1 : kind === 2 ? 2 : kind === 1 ? 4 : 8;
     if (cur.remaining < head) throw new Error(`${where}: string ${i} has a ${head}-byte length, but the file ends`);
     let len = first & 0x3f;
@@ -224,6 +214,6 @@ export function skipStrings(cur: LegacyCursor, count: number, where: string): vo
     if (head + len > cur.remaining) {
       throw new Error(`${where}: string ${i} declares ${len} bytes, but only ${cur.remaining - head} are left`);
     }
-    cur.pos += head + len;
+    await cur.advance(head + len);
   }
 }

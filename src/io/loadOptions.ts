@@ -1,7 +1,8 @@
 /**
- * What every reader takes besides the bytes: progress reporting, cancellation, and a way to fetch the
- * other files of a multi-file set (pieces of a `.pvtu`, blocks of a `.vtm`).
+ * What every reader takes besides the bytes: progress reporting, cancellation, a way to fetch the other
+ * files of a multi-file set (pieces of a `.pvtu`, blocks of a `.vtm`), and an optional faster inflater.
  */
+import type { ByteSource } from './byteSource.ts';
 
 /** One progress report: the current stage and how many bytes of the input it has consumed. */
 export interface LoadProgress {
@@ -13,13 +14,30 @@ export interface LoadProgress {
 /** Fetches a file named relative to the set file's folder (`/`-separated); rejects with a clear error if missing. */
 export type ResolveFile = (relativePath: string) => Promise<Uint8Array>;
 
+/**
+ * Opens a file named relative to the set file's folder as a `ByteSource` (read by ranges, never whole
+ * when not needed); rejects with a clear error if missing. The reader closes the source when done.
+ */
+export type ResolveSource = (relativePath: string) => Promise<ByteSource>;
+
+/**
+ * Inflates one complete zlib stream (RFC 1950) `block` into `out`, whose length is the size the file
+ * declares. Returns the number of bytes the stream holds (any number above `out.length` when it holds
+ * more); throws an Error (its message is quoted in the reader's) when the stream is corrupt.
+ */
+export type InflateBlock = (block: Uint8Array, out: Uint8Array) => number;
+
 export interface LoadOptions {
   /** Called now and then (throttled by the reader) with the stage and bytes consumed. */
   onProgress?: (p: LoadProgress) => void;
   /** When aborted, the reader stops at its next checkpoint and rejects with an Error named 'AbortError'. */
   signal?: AbortSignal;
-  /** Required for set files; single files ignore it. */
+  /** Required for set files (this or `resolveSource`); single files ignore it. */
   resolve?: ResolveFile;
+  /** Like `resolve`, but pieces are read by ranges; preferred over `resolve` when both are given. */
+  resolveSource?: ResolveSource;
+  /** zlib inflater for compressed XML arrays. Default: fflate's (pure JavaScript); the Node loader passes node:zlib's. */
+  inflate?: InflateBlock;
 }
 
 /** Throws an AbortError if the signal is aborted. */

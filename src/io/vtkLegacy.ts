@@ -14,14 +14,15 @@ import type { Dataset, DatasetKind } from '../model/dataset.ts';
 import type { FieldArray } from '../model/fieldArray.ts';
 import type { Piece } from '../model/piece.ts';
 import { validatePiece } from '../model/validate.ts';
-import { linearizeCells, polyDataCells, type PolySection } from './cellAssembly.ts';
-import { toFloat64 } from './elementTypes.ts';
+import { bytesSource, inMemoryBytes, type ByteSource } from './byteSource.ts';
+import { readWhole } from './sourceArrays.ts';
+import { linearizeCells, polyDataCells, unreadCellType, type PolySection } from './cellAssembly.ts';
 import { ATTRIBUTE_KEYWORDS, readAttribute, readFieldBlock, type ArrayContext, type AttributeSection } from './legacyAttributes.ts';
 import { checkPointIds, readCellList, type LegacyCellList } from './legacyCells.ts';
-import { LegacyCursor, quoted } from './legacyCursor.ts';
+import { LegacyCursor, WINDOW_BYTES, WINDOW_EXHAUSTED, quoted } from './legacyCursor.ts';
 import { splitPolyhedra } from './legacyPolyhedra.ts';
 import { numericType } from './legacyTypes.ts';
-import { readValues } from './legacyValues.ts';
+import { readCellTypeBytes, readValues } from './legacyValues.ts';
 import { Checkpoint, checkAborted, type LoadOptions } from './loadOptions.ts';
 
 const POLY_KEYWORDS: Readonly<Record<string, PolySection['kind']>> = {
@@ -78,8 +79,27 @@ interface Parts {
  * and fields are in the file's units.
  */
 export async function readLegacyVtk(name: string, bytes: Uint8Array, opts: LoadOptions = {}): Promise<Dataset> {
+  return readLegacyVtkFrom(bytesSource(name, bytes), name, opts);
+}
+
+/**
+ * Reads a legacy `.vtk` file from a source (see `readLegacyVtk`). A binary file is read section by
+ * section, each array straight into its final form; a text file is read whole, once.
+ */
+export async function readLegacyVtkFrom(src: ByteSource, name: string = src.name, opts: LoadOptions = {}): Promise<Dataset> {
   checkAborted(opts.signal, name);
-  const cur = new LegacyCursor(bytes, name);
+  const mem = inMemoryBytes(src);
+  if (mem) return readWith(new LegacyCursor(src, mem, name), opts);
+  try {
+    return await readWith(new LegacyCursor(src, await src.read(0, WINDOW_BYTES), name), opts);
+  } catch (e) {
+    if (e !== WINDOW_EXHAUSTED) throw e;
+    // Text longer than the window between two arrays: read the file whole instead.
+    return readWith(new LegacyCursor(src, await readWhole(src), name), opts);
+  }
+}
+
+async function readWith(cur: LegacyCursor, opts: LoadOptions): Promise<Dataset> {
   try {
     const d = await readBody(cur, opts);
     return { ...d, warnings: d.warnings.map((w) => cur.resolve(w)) };
@@ -93,12 +113,14 @@ export async function readLegacyVtk(name: string, bytes: Uint8Array, opts: LoadO
 }
 
 async function readBody(cur: LegacyCursor, opts: LoadOptions): Promise<Dataset> {
-  const name = cur.file, bytes = cur.bytes;
+  const name = cur.file;
   const header = readHeader(cur);
+  // Text data are parsed from the whole file; binary arrays are read one by one from the source.
+  if (!header.binary && !cur.whole) cur.useWhole(await readWhole(cur.source));
   cur.binary = header.binary;
   const warnings: string[] = [];
   if (header.version > 5.1) warnings.push(`${name}: file version ${header.version} is newer than 5.1, the newest this reader knows; read as 5.1`);
-  const ctx: ArrayContext = { cur, cp: new Checkpoint(name, opts, bytes.length), warnings };
+  const ctx: ArrayContext = { cur, cp: new Checkpoint(name, opts, cur.source.size), warnings };
   const parts: Parts = { poly: [], fieldData: [] };
   let section: AttributeSection | undefined;
 
@@ -114,7 +136,7 @@ async function readBody(cur: LegacyCursor, opts: LoadOptions): Promise<Dataset> 
       const where = cur.where('POINTS');
       const n = cur.count('the point count', where);
       const type = numericType(cur.need('the data type', where), where);
-      parts.points = toFloat64(await readValues(cur, 3 * n, type, where, ctx.cp));
+      parts.points = await readValues(cur, 3 * n, type, where, ctx.cp, true) as Float64Array;
       cur.skipMetadata();
     } else if (key === 'METADATA') {
       cur.pos = kwPos;
@@ -126,7 +148,9 @@ async function readBody(cur: LegacyCursor, opts: LoadOptions): Promise<Dataset> 
       if (parts.cellTypes) throw new Error(`${cur.where('CELL_TYPES')}: a second CELL_TYPES section; expected one`);
       const where = cur.where('CELL_TYPES');
       const n = cur.count('the cell count', where);
-      parts.cellTypes = await readValues(cur, n, 'Int32', where, ctx.cp);
+      parts.cellTypes = cur.binary
+        ? await readCellTypeBytes(cur, n, 'Int32', where, ctx.cp, (c, t) => unreadCellType(where, c, t))
+        : await readValues(cur, n, 'Int32', where, ctx.cp);
       parts.cellTypesWhere = where;
       cur.skipMetadata();
     } else if (header.kind === 'polydata' && POLY_KEYWORDS[key]) {
@@ -136,7 +160,7 @@ async function readBody(cur: LegacyCursor, opts: LoadOptions): Promise<Dataset> 
     } else {
       throw unexpected(cur, kw, header.kind, section);
     }
-    await ctx.cp.at('reading legacy .vtk', cur.pos);
+    await ctx.cp.at('reading legacy .vtk', cur.base + cur.pos);
   }
   return assemble(name, header.kind, parts, warnings);
 }

@@ -6,14 +6,18 @@
  * pieces of one dataset, in file order. Leaves without a file are skipped. Leaf files may themselves
  * be sets (a .pvtu named by a .vtm). Pieces may use different encodings.
  *
- * Files are fetched with `opts.resolve(path)`, paths relative to the set file's folder, normalised
- * (`/` separators, no `.` or `x/..` segments).
+ * Files are opened with `opts.resolveSource(path)` (read by ranges, see `byteSource.ts`) or fetched whole
+ * with `opts.resolve(path)`, paths relative to the set file's folder, normalised (`/` separators, no `.`
+ * or `x/..` segments).
  */
 import type { Dataset } from '../model/dataset.ts';
 import type { FieldArray } from '../model/fieldArray.ts';
 import type { Piece } from '../model/piece.ts';
-import { checkAborted, type LoadOptions, type ResolveFile } from './loadOptions.ts';
-import { fileSettings, readVtkXmlDocument, unsupportedTypeError } from './vtkXml.ts';
+import { bytesSource, type ByteSource } from './byteSource.ts';
+import { readWhole } from './sourceArrays.ts';
+import { checkAborted, type LoadOptions, type ResolveSource } from './loadOptions.ts';
+import { fileSettings, readVtkXmlInput, unsupportedTypeError } from './vtkXml.ts';
+import { scanXmlSource } from './xmlHead.ts';
 import { child, scanXml, type XmlElement } from './xmlScan.ts';
 
 const PARALLEL: Readonly<Record<string, string>> = { PUnstructuredGrid: 'UnstructuredGrid', PPolyData: 'PolyData' };
@@ -66,7 +70,7 @@ interface Collected {
   allPolyData: boolean;
 }
 
-async function fetchPiece(setName: string, resolve: ResolveFile, path: string): Promise<Uint8Array> {
+async function fetchPiece(setName: string, resolve: ResolveSource, path: string): Promise<ByteSource> {
   try {
     return await resolve(path);
   } catch (e) {
@@ -108,7 +112,7 @@ function setLeaves(setName: string, type: string, body: XmlElement) {
   throw unsupportedTypeError(setName, type);
 }
 
-async function collect(setName: string, bytes: Uint8Array, resolve: ResolveFile, opts: LoadOptions, depth: number, acc: Collected): Promise<void> {
+async function collect(setName: string, bytes: Uint8Array, resolve: ResolveSource, opts: LoadOptions, depth: number, acc: Collected): Promise<void> {
   const doc = scanXml(bytes, setName);
   const { type } = fileSettings(doc, setName);
   const body = child(doc.root, type);
@@ -117,36 +121,45 @@ async function collect(setName: string, bytes: Uint8Array, resolve: ResolveFile,
   for (let i = 0; i < leaves.length; i++) {
     checkAborted(opts.signal, setName);
     const path = joinPath('', leaves[i]!);
-    const leafBytes = await fetchPiece(setName, resolve, path);
-    const leafName = `${setName}: ${path}`;
-    const leafDoc = scanXml(leafBytes, leafName);
-    const leafType = fileSettings(leafDoc, leafName).type;
-    if (expectLeafType && leafType !== expectLeafType) {
-      throw new Error(`${leafName}: piece file holds "${leafType}", but a ${type} set needs "${expectLeafType}" pieces`);
+    const leaf = await fetchPiece(setName, resolve, path);
+    try {
+      const leafName = `${setName}: ${path}`;
+      const input = await scanXmlSource(leaf, leafName);
+      const leafType = fileSettings(input.doc, leafName).type;
+      if (expectLeafType && leafType !== expectLeafType) {
+        throw new Error(`${leafName}: piece file holds "${leafType}", but a ${type} set needs "${expectLeafType}" pieces`);
+      }
+      if (PARALLEL[leafType] || COMPOSITE.has(leafType)) {
+        if (depth >= MAX_DEPTH) throw new Error(`${leafName}: sets nested more than ${MAX_DEPTH} deep (does a set name itself?)`);
+        const folder = folderOf(path);
+        const setBytes = input.whole ? input.bytes : await readWhole(leaf);
+        await collect(leafName, setBytes, (p) => resolve(joinPath(folder, p)), opts, depth + 1, acc);
+        continue;
+      }
+      const progress = opts.onProgress;
+      const leafOpts: LoadOptions = {
+        ...(opts.signal ? { signal: opts.signal } : {}),
+        ...(opts.inflate ? { inflate: opts.inflate } : {}),
+        ...(progress ? { onProgress: (p) => progress({ ...p, stage: `piece ${i + 1} of ${leaves.length}: ${p.stage}` }) } : {}),
+      };
+      addLeaf(acc, await readVtkXmlInput(leafName, input, leafOpts), path, declared);
+    } finally {
+      await leaf.close?.();
     }
-    if (PARALLEL[leafType] || COMPOSITE.has(leafType)) {
-      if (depth >= MAX_DEPTH) throw new Error(`${leafName}: sets nested more than ${MAX_DEPTH} deep (does a set name itself?)`);
-      const folder = folderOf(path);
-      await collect(leafName, leafBytes, (p) => resolve(joinPath(folder, p)), opts, depth + 1, acc);
-      continue;
-    }
-    const progress = opts.onProgress;
-    const leafOpts: LoadOptions = {
-      ...(opts.signal ? { signal: opts.signal } : {}),
-      ...(progress ? { onProgress: (p) => progress({ ...p, stage: `piece ${i + 1} of ${leaves.length}: ${p.stage}` }) } : {}),
-    };
-    addLeaf(acc, await readVtkXmlDocument(leafName, leafBytes, leafDoc, leafOpts), path, declared);
   }
   if (leaves.length === 0) acc.warnings.push(`${setName}: the set names no piece files (empty dataset)`);
 }
 
 /**
  * Reads a multi-file set (.pvtu, .pvtp, .vtm, .vtpd, .vtpc) from the set file's bytes, fetching pieces
- * with `opts.resolve` (required). Errors name the set file and the piece file. Mixed unstructured and
- * polygonal leaves give an 'unstructured' dataset; coordinates and fields are in the files' units.
+ * with `opts.resolveSource` or `opts.resolve` (one is required). Errors name the set file and the piece
+ * file. Mixed unstructured and polygonal leaves give an 'unstructured' dataset; coordinates and fields
+ * are in the files' units.
  */
 export async function readVtkSet(name: string, bytes: Uint8Array, opts: LoadOptions = {}): Promise<Dataset> {
-  const resolve = opts.resolve;
+  const fetchBytes = opts.resolve;
+  const resolve: ResolveSource | undefined = opts.resolveSource
+    ?? (fetchBytes && (async (rel) => bytesSource(rel.split('/').pop() ?? rel, await fetchBytes(rel))));
   if (!resolve) throw new Error(`${name}: a multi-file set needs its piece files, but no way to fetch them was given (LoadOptions.resolve)`);
   const acc: Collected = { pieces: [], fieldData: [], warnings: [], fileCellTypes: {}, allPolyData: true };
   await collect(name, bytes, resolve, opts, 0, acc);

@@ -9,11 +9,14 @@
  */
 import type { Dataset, DatasetKind } from '../model/dataset.ts';
 import type { Piece } from '../model/piece.ts';
+import { bytesSource, type ByteSource } from './byteSource.ts';
 import { Checkpoint, type LoadOptions } from './loadOptions.ts';
-import type { XmlFileContext } from './xmlArrays.ts';
+import { appendedOffsets, type XmlFileContext } from './xmlArrays.ts';
+import { fflateInflate } from './xmlBlocks.ts';
 import { readFieldData } from './xmlFields.ts';
+import { scanXmlSource, type XmlInput } from './xmlHead.ts';
 import { readXmlPiece } from './xmlPiece.ts';
-import { child, childrenNamed, scanXml, type XmlDocument } from './xmlScan.ts';
+import { child, childrenNamed, type XmlDocument } from './xmlScan.ts';
 
 const STRUCTURED = new Set(['ImageData', 'RectilinearGrid', 'StructuredGrid', 'PImageData', 'PRectilinearGrid', 'PStructuredGrid']);
 
@@ -39,8 +42,9 @@ export function fileSettings(doc: XmlDocument, name: string) {
   return { type, littleEndian: order === 'LittleEndian', headerType: headerType as 'UInt32' | 'UInt64', compressor };
 }
 
-/** Reads an already scanned XML document (used by the set reader to avoid a second scan). */
-export async function readVtkXmlDocument(name: string, bytes: Uint8Array, doc: XmlDocument, opts: LoadOptions = {}): Promise<Dataset> {
+/** Reads an already scanned XML file (used by the set reader to avoid a second scan). */
+export async function readVtkXmlInput(name: string, input: XmlInput, opts: LoadOptions = {}): Promise<Dataset> {
+  const { doc, bytes, source, whole } = input;
   const s = fileSettings(doc, name);
   let kind: DatasetKind;
   if (s.type === 'UnstructuredGrid') kind = 'unstructured';
@@ -50,8 +54,10 @@ export async function readVtkXmlDocument(name: string, bytes: Uint8Array, doc: X
   if (!dataEl) throw new Error(`${name}: <VTKFile type="${s.type}"> has no <${s.type}> element`);
   const warnings: string[] = [];
   const ctx: XmlFileContext = {
-    name, bytes, littleEndian: s.littleEndian, headerType: s.headerType, compressor: s.compressor,
-    appended: doc.appended, cp: new Checkpoint(name, opts, bytes.length), warnings,
+    name, bytes, wholeFile: whole, source, inflate: opts.inflate ?? fflateInflate,
+    appendedOffsets: whole ? [] : appendedOffsets(doc.root).sort((a, b) => a - b),
+    littleEndian: s.littleEndian, headerType: s.headerType, compressor: s.compressor,
+    appended: doc.appended, cp: new Checkpoint(name, opts, source.size), warnings,
   };
   const fieldData = await readFieldData(ctx, child(dataEl, 'FieldData'), name);
   const pieces: Piece[] = [];
@@ -68,9 +74,16 @@ export async function readVtkXmlDocument(name: string, bytes: Uint8Array, doc: X
 }
 
 /**
- * Reads a VTK XML UnstructuredGrid or PolyData file from its bytes. `name` (the file name) starts every
- * error message; `opts` gives progress and cancellation. Coordinates and fields are in the file's units.
+ * Reads a VTK XML UnstructuredGrid or PolyData file from a source: a file whose arrays are all raw
+ * appended data is read array by array (never whole); others are read whole, once. `name` starts every
+ * error message; `opts` gives progress, cancellation and the inflater. Coordinates and fields are in the
+ * file's units.
  */
+export async function readVtkXmlFrom(src: ByteSource, name: string = src.name, opts: LoadOptions = {}): Promise<Dataset> {
+  return readVtkXmlInput(name, await scanXmlSource(src, name), opts);
+}
+
+/** Reads a VTK XML UnstructuredGrid or PolyData file from its bytes (see `readVtkXmlFrom`). */
 export async function readVtkXml(name: string, bytes: Uint8Array, opts: LoadOptions = {}): Promise<Dataset> {
-  return readVtkXmlDocument(name, bytes, scanXml(bytes, name), opts);
+  return readVtkXmlFrom(bytesSource(name, bytes), name, opts);
 }

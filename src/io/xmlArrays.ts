@@ -7,17 +7,28 @@
  */
 import type { NumericArray } from '../model/fieldArray.ts';
 import { parseNumbers, skipSpace } from './asciiNumbers.ts';
-import { ELEMENT_SIZE, allocateFor, decodeElements, isElementType, toIds, type ElementType } from './elementTypes.ts';
-import { decodeIds } from './idDecode.ts';
-import type { Checkpoint } from './loadOptions.ts';
-import { base64Source, rawSource, readBlocks, type BlockFormat, type ByteSource } from './xmlBlocks.ts';
+import type { ByteSource } from './byteSource.ts';
+import type { ArrayPlan } from './elementConvert.ts';
+import { allocateFor, isElementType, type ElementType } from './elementTypes.ts';
+import type { Checkpoint, InflateBlock } from './loadOptions.ts';
+import { readAppendedArray } from './xmlAppended.ts';
+import { memoryBase64, readBase64Array, sourceBase64, type Base64Input } from './xmlBase64Arrays.ts';
+import type { BlockFormat } from './xmlBlocks.ts';
 import type { AppendedSection, XmlElement } from './xmlScan.ts';
 
 /** What every array of one file shares: its bytes, encoding settings and appended section. */
 export interface XmlFileContext {
   /** File name for messages. */
   readonly name: string;
+  /** The whole file, or (when its data are all appended) its bytes up to the appended data. */
   readonly bytes: Uint8Array;
+  /** Whether `bytes` is the whole file. */
+  readonly wholeFile: boolean;
+  /** Offsets of the file's appended arrays, sorted (see `appendedOffsets`). */
+  readonly appendedOffsets: readonly number[];
+  /** The file, for raw appended arrays (read by ranges at their offsets). */
+  readonly source: ByteSource;
+  readonly inflate: InflateBlock;
   readonly littleEndian: boolean;
   readonly headerType: 'UInt32' | 'UInt64';
   /** The root's `compressor` attribute, if any. */
@@ -88,7 +99,12 @@ const INT_RANGE: Partial<Record<ElementType, readonly [number, number]>> = {
 let asciiScratch = new Float64Array(0);
 const ASCII_CHUNK = 65536;
 
-async function readAscii(ctx: XmlFileContext, el: XmlElement, type: ElementType, expected: number | undefined, where: string): Promise<NumericArray> {
+/**
+ * Parses an ASCII array straight into the array `want` asks for: integers go through the scratch (parsed
+ * as doubles, checked against their type's range and, for ids, the id range); Float32 values are rounded
+ * to single precision even when held as doubles (points).
+ */
+async function readAscii(ctx: XmlFileContext, el: XmlElement, type: ElementType, expected: number | undefined, where: string, want: Want): Promise<NumericArray> {
   const { bytes } = ctx;
   const start = el.textStart, end = el.textEnd;
   let count = expected;
@@ -96,31 +112,41 @@ async function readAscii(ctx: XmlFileContext, el: XmlElement, type: ElementType,
   else if (count > Math.ceil((end - start) / 2)) {
     throw new Error(`${where}: declares ${count} values, the text holds ${countTokens(bytes, start, end)}`);
   }
-  const out = allocateFor(type, count);
+  const lead = want.target === 'ids' ? want.lead : 0;
+  const out = want.target === 'ids' ? new Int32Array(lead + count) : want.target === 'float64' ? new Float64Array(count) : allocateFor(type, count);
   const range = INT_RANGE[type];
+  // Straight into the target when it holds doubles (or the file's own floats); through the scratch otherwise.
+  const inPlace = want.target !== 'ids' && (!range || out instanceof Float64Array);
+  if (!inPlace && asciiScratch.length < ASCII_CHUNK) asciiScratch = new Float64Array(ASCII_CHUNK);
   let pos = start;
-  if (!range || type === 'Int64' || type === 'UInt64') {
-    for (let i = 0; i < count; i += ASCII_CHUNK) {
-      const k = Math.min(ASCII_CHUNK, count - i);
-      pos = parseAsciiChunk(bytes, pos, end, out.subarray(i, i + k), where, start, count, i);
-      if (range) checkIntegers(out, i, k, range, type, where);
-      await ctx.cp.at('reading text', pos);
-    }
-  } else {
-    if (asciiScratch.length < ASCII_CHUNK) asciiScratch = new Float64Array(ASCII_CHUNK);
-    for (let i = 0; i < count; i += ASCII_CHUNK) {
-      const k = Math.min(ASCII_CHUNK, count - i);
+  for (let i = 0; i < count; i += ASCII_CHUNK) {
+    const k = Math.min(ASCII_CHUNK, count - i);
+    if (inPlace) {
+      const chunk = out.subarray(i, i + k);
+      pos = parseAsciiChunk(bytes, pos, end, chunk, where, start, count, i);
+      if (range) checkIntegers(chunk, 0, k, range, type, where, i);
+      else if (type === 'Float32' && chunk instanceof Float64Array) for (let j = 0; j < k; j++) chunk[j] = Math.fround(chunk[j]!);
+    } else {
       const chunk = asciiScratch.subarray(0, k);
       pos = parseAsciiChunk(bytes, pos, end, chunk, where, start, count, i);
-      checkIntegers(chunk, 0, k, range, type, where, i);
-      out.set(chunk, i);
-      await ctx.cp.at('reading text', pos);
+      if (range) checkIntegers(chunk, 0, k, range, type, where, i);
+      if (want.target === 'ids') checkIds(chunk, k, want.min, where, i);
+      out.set(chunk, lead + i);
     }
+    await ctx.cp.at('reading text', pos);
   }
   if (skipSpace(bytes, pos, end) < end) {
     throw new Error(`${where}: declares ${count} values, the text holds ${countTokens(bytes, start, end)}`);
   }
   return out;
+}
+
+/** Checks parsed values are ids in `[min, 2^31 − 1]`; `base` is the chunk's index in the array, for messages. */
+function checkIds(a: Float64Array, n: number, min: number, where: string, base: number): void {
+  for (let i = 0; i < n; i++) {
+    const v = a[i]!;
+    if (!(v >= min && v <= 0x7fffffff) || !Number.isInteger(v)) throw new Error(`${where}: value ${v} at index ${base + i} is not an id in ${min}..${0x7fffffff}`);
+  }
 }
 
 /** Parses one chunk of an ASCII array; `first` is the chunk's index in the array, for messages. */
@@ -146,8 +172,11 @@ function checkIntegers(a: NumericArray, at: number, n: number, range: readonly [
   }
 }
 
-function binarySource(ctx: XmlFileContext, el: XmlElement, format: string, where: string): ByteSource {
-  if (format === 'binary') return base64Source(ctx.bytes, el.textStart, el.textEnd, where);
+/** What the model makes of an array: its own type, doubles (points), or Int32 ids in `[min, 2^31 − 1]` after `lead` zero slots. */
+type Want = { readonly target: 'values' | 'float64' } | { readonly target: 'ids'; readonly min: number; readonly lead: number };
+
+/** The appended offset of a DataArray, checked against the appended section. */
+function appendedOffset(ctx: XmlFileContext, el: XmlElement, where: string): { app: AppendedSection; off: number } {
   const app = ctx.appended;
   if (!app) throw new Error(`${where}: format="appended" but the file has no <AppendedData> section`);
   const off = intAttr(el, 'offset', where);
@@ -155,13 +184,47 @@ function binarySource(ctx: XmlFileContext, el: XmlElement, format: string, where
   if (app.start + off > app.end) {
     throw new Error(`${where}: offset ${off} lies beyond the appended data (${app.end - app.start} ${app.encoding === 'raw' ? 'bytes' : 'characters'})`);
   }
-  return app.encoding === 'raw'
-    ? rawSource(ctx.bytes, app.start + off, app.end)
-    : base64Source(ctx.bytes, app.start + off, app.end, where);
+  return { app, off };
 }
 
-/** Decodes the numbers of a DataArray as model values, or as range-checked ids when `ids` is given. */
-async function decode(ctx: XmlFileContext, el: XmlElement, where: string, expectedValues: number | undefined, ids: { min: number } | undefined): Promise<DecodedArray> {
+/** The base64 text of a binary array: inline in the element, or at its offset in base64 appended data. */
+function base64Input(ctx: XmlFileContext, el: XmlElement, format: string, where: string): Base64Input {
+  if (format === 'binary') return memoryBase64(ctx.bytes, el.textStart, el.textEnd, where);
+  const { app, off } = appendedOffset(ctx, el, where);
+  if (ctx.wholeFile) return memoryBase64(ctx.bytes, app.start + off, app.end, where);
+  const next = firstAbove(ctx.appendedOffsets, off);
+  return sourceBase64(ctx.source, app.start + off, app.end, where, next === undefined ? app.end : Math.min(app.end, app.start + next));
+}
+
+/** The first value of sorted `a` above `v` (binary search), or undefined. */
+function firstAbove(a: readonly number[], v: number): number | undefined {
+  let lo = 0, hi = a.length;
+  while (lo < hi) {
+    const mid = (lo + hi) >> 1;
+    if (a[mid]! <= v) lo = mid + 1; else hi = mid;
+  }
+  return a[lo];
+}
+
+/** The appended offsets of every DataArray under `el`, sorted (where each array's data ends, at the latest). */
+export function appendedOffsets(el: XmlElement, out: number[] = []): number[] {
+  for (const c of el.children) {
+    const o = c.name === 'DataArray' && c.attrs.get('format') === 'appended' ? Number(c.attrs.get('offset')) : NaN;
+    if (Number.isSafeInteger(o) && o >= 0) out.push(o);
+    appendedOffsets(c, out);
+  }
+  return out;
+}
+
+/** How a binary array of `type` becomes the form `want` asks for. */
+function planOf(type: ElementType, ctx: XmlFileContext, want: Want, where: string): ArrayPlan {
+  return want.target === 'ids'
+    ? { type, littleEndian: ctx.littleEndian, target: 'ids', min: want.min, lead: want.lead, where }
+    : { type, littleEndian: ctx.littleEndian, target: want.target, where };
+}
+
+/** Decodes the numbers of a DataArray into the form `want` asks for. */
+async function decode(ctx: XmlFileContext, el: XmlElement, where: string, expectedValues: number | undefined, want: Want): Promise<DecodedArray> {
   const type = numericType(el);
   if (!type) throw new Error(`${where}: type="${el.attrs.get('type') ?? ''}" is not a numeric type (expected Int8 … UInt64, Float32 or Float64)`);
   const components = componentsOf(el, where);
@@ -169,27 +232,34 @@ async function decode(ctx: XmlFileContext, el: XmlElement, where: string, expect
   let values: NumericArray;
   let reached = el.textEnd;
   if (format === 'ascii') {
-    values = await readAscii(ctx, el, type, expectedValues, where);
-    if (ids) values = toIds(values, where, ids.min);
+    values = await readAscii(ctx, el, type, expectedValues, where, want);
   } else if (format === 'binary' || format === 'appended') {
     const compressor = ctx.compressor;
     if (compressor && compressor !== ZLIB) {
       throw new Error(`${where}: compressor "${compressor}" is not supported; fieldtally reads only zlib-compressed (vtkZLibDataCompressor) or uncompressed binary data`);
     }
     const fmt: BlockFormat = { headerType: ctx.headerType, littleEndian: ctx.littleEndian, compressed: compressor === ZLIB };
-    const src = binarySource(ctx, el, format, where);
-    const size = ELEMENT_SIZE[type];
-    const data = await readBlocks(src, fmt, { where, elementSize: size, ...(expectedValues !== undefined ? { expectedValues } : {}) }, ctx.cp);
-    reached = src.position();
-    const count = data.length / size;
-    values = ids
-      ? decodeIds(data, 0, count, type, ctx.littleEndian, where, ids.min)
-      : decodeElements(data, 0, count, type, ctx.littleEndian, where);
+    if (format === 'appended' && ctx.appended?.encoding === 'raw') {
+      const { app, off } = appendedOffset(ctx, el, where);
+      const plan = planOf(type, ctx, want, where);
+      const r = await readAppendedArray({ source: ctx.source, start: app.start + off, end: app.end, fmt, inflate: ctx.inflate, cp: ctx.cp }, plan, expectedValues);
+      values = r.values;
+      reached = r.reached;
+    } else {
+      const input = base64Input(ctx, el, format, where);
+      try {
+        values = await readBase64Array(input, fmt, planOf(type, ctx, want, where), expectedValues, ctx.inflate, ctx.cp);
+        reached = input.position();
+      } finally {
+        input.release();
+      }
+    }
   } else {
     throw new Error(`${where}: format="${format}" is not supported (expected ascii, binary or appended)`);
   }
-  if (values.length % components !== 0) {
-    throw new Error(`${where}: holds ${values.length} values, not a whole number of ${components}-component tuples`);
+  const n = want.target === 'ids' ? values.length - want.lead : values.length;
+  if (n % components !== 0) {
+    throw new Error(`${where}: holds ${n} values, not a whole number of ${components}-component tuples`);
   }
   await ctx.cp.at('arrays', reached);
   return { values, type, components };
@@ -197,13 +267,17 @@ async function decode(ctx: XmlFileContext, el: XmlElement, where: string, expect
 
 /**
  * Decodes a DataArray. `expectedValues` (tuples × components) is checked when known; otherwise the
- * count comes from the data (block header or number of ASCII tokens). `where` names the array.
+ * count comes from the data (block header or number of ASCII tokens). `where` names the array. With
+ * `float64`, the values come as a Float64Array whatever the file's type (points).
  */
-export function readDataArray(ctx: XmlFileContext, el: XmlElement, where: string, expectedValues?: number): Promise<DecodedArray> {
-  return decode(ctx, el, where, expectedValues, undefined);
+export function readDataArray(ctx: XmlFileContext, el: XmlElement, where: string, expectedValues?: number, float64 = false): Promise<DecodedArray> {
+  return decode(ctx, el, where, expectedValues, { target: float64 ? 'float64' : 'values' });
 }
 
-/** Decodes an integer DataArray as Int32 ids in `[min, 2^31 − 1]` (connectivity, offsets, face streams). */
-export async function readIdDataArray(ctx: XmlFileContext, el: XmlElement, where: string, expectedValues: number | undefined, min = 0): Promise<Int32Array> {
-  return (await decode(ctx, el, where, expectedValues, { min })).values as Int32Array;
+/**
+ * Decodes an integer DataArray as Int32 ids in `[min, 2^31 − 1]` (connectivity, offsets, face streams).
+ * With `lead`, the ids start after that many zero slots (cell offsets with their leading 0).
+ */
+export async function readIdDataArray(ctx: XmlFileContext, el: XmlElement, where: string, expectedValues: number | undefined, min = 0, lead = 0): Promise<Int32Array> {
+  return (await decode(ctx, el, where, expectedValues, { target: 'ids', min, lead })).values as Int32Array;
 }

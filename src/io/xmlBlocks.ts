@@ -12,20 +12,22 @@
  */
 import { unzlibSync } from 'fflate';
 import { Base64Reader } from './base64.ts';
-import type { Checkpoint } from './loadOptions.ts';
+import type { Checkpoint, InflateBlock } from './loadOptions.ts';
 
 /** Sequential bytes of one array: a view into the file (raw) or decoded on demand (base64). */
-export interface ByteSource {
+export interface BlockReader {
   /** An upper bound on the bytes left. */
   available(): number;
   /** The next `n` bytes: a view into the file for raw data, a fresh aligned array for base64. */
   read(n: number): Uint8Array;
+  /** The next `n` bytes into `out[at, at + n)` (base64: decoded in place, no fresh array). */
+  readInto?(out: Uint8Array, at: number, n: number): void;
   /** Position in the file, for progress. */
   position(): number;
 }
 
 /** Raw bytes `bytes[start, end)`. */
-export function rawSource(bytes: Uint8Array, start: number, end: number): ByteSource {
+export function rawSource(bytes: Uint8Array, start: number, end: number): BlockReader {
   let pos = start;
   return {
     available: () => end - pos,
@@ -39,9 +41,9 @@ export function rawSource(bytes: Uint8Array, start: number, end: number): ByteSo
 }
 
 /** Base64 text `bytes[start, end)`; errors name `where`. */
-export function base64Source(bytes: Uint8Array, start: number, end: number, where: string): ByteSource {
+export function base64Source(bytes: Uint8Array, start: number, end: number, where: string): BlockReader {
   const r = new Base64Reader(bytes, start, end, where);
-  return { available: () => r.available(), read: (n) => r.read(n), position: () => r.position() };
+  return { available: () => r.available(), read: (n) => r.read(n), readInto: (out, at, n) => r.readInto(out, at, n), position: () => r.position() };
 }
 
 /** How the blocks of a file are laid out. */
@@ -66,13 +68,18 @@ const MAX_INFLATE_RATIO = 1032;
 /** The smallest zlib stream with any output: 2 header bytes, 1 deflate byte, 4 checksum bytes. */
 const MIN_ZLIB_BYTES = 7;
 
-function headerWords(src: ByteSource, count: number, fmt: BlockFormat, what: string, where: string): number[] {
-  const size = fmt.headerType === 'UInt64' ? 8 : 4;
-  if (count * size > src.available()) {
-    throw new Error(`${where}: ${what} needs ${count * size} bytes of ${fmt.headerType} header, only ${src.available()} are left`);
-  }
-  const b = src.read(count * size);
-  const dv = new DataView(b.buffer, b.byteOffset, b.byteLength);
+/** Bytes per header word. */
+export const headerSize = (fmt: BlockFormat): number => (fmt.headerType === 'UInt64' ? 8 : 4);
+
+/** The error for a header that does not fit in what is left of the data. */
+export function headerShort(count: number, fmt: BlockFormat, available: number, what: string, where: string): Error {
+  return new Error(`${where}: ${what} needs ${count * headerSize(fmt)} bytes of ${fmt.headerType} header, only ${available} are left`);
+}
+
+/** Decodes `count` header words from `b` (which holds them all). */
+export function decodeHeaderWords(b: Uint8Array, count: number, fmt: BlockFormat, what: string, where: string): number[] {
+  const size = headerSize(fmt);
+  const dv = new DataView(b.buffer, b.byteOffset, count * size);
   const out: number[] = [];
   for (let i = 0; i < count; i++) {
     if (size === 4) {
@@ -87,8 +94,14 @@ function headerWords(src: ByteSource, count: number, fmt: BlockFormat, what: str
   return out;
 }
 
+/** Reads `count` header words from `src`, checking they are there. */
+export function headerWords(src: BlockReader, count: number, fmt: BlockFormat, what: string, where: string): number[] {
+  if (count * headerSize(fmt) > src.available()) throw headerShort(count, fmt, src.available(), what, where);
+  return decodeHeaderWords(src.read(count * headerSize(fmt)), count, fmt, what, where);
+}
+
 /** `holds` is the subject and verb for messages: "block holds" or "zlib blocks hold". */
-function checkDecodedSize(bytes: number, exp: BlockExpectation, holds: string): void {
+export function checkDecodedSize(bytes: number, exp: BlockExpectation, holds: string): void {
   if (bytes % exp.elementSize !== 0) {
     throw new Error(`${exp.where}: ${holds} ${bytes} bytes, not a whole number of ${exp.elementSize}-byte values`);
   }
@@ -106,26 +119,36 @@ function allocate(n: number, where: string): Uint8Array {
   }
 }
 
+/** The error for a block count whose header alone does not fit in what is left. */
+export function blockCountShort(nBlocks: number, available: number, where: string): Error {
+  return new Error(`${where}: compression header declares ${nBlocks} blocks, but only ${available} bytes are left for the header and data`);
+}
+
+/** A checked zlib block layout: sizes of every block, compressed and inflated. */
+export interface ZlibLayout {
+  readonly nBlocks: number;
+  readonly blockSize: number;
+  /** Inflated size of the last block. */
+  readonly last: number;
+  /** Inflated bytes of all blocks. */
+  readonly total: number;
+  /** Compressed bytes of all blocks. */
+  readonly compressedTotal: number;
+  /** `words[2 + k]` is the compressed size of block k (the header words after the block count). */
+  readonly words: readonly number[];
+}
+
+/** Inflated size of block `k`. */
+export const inflatedSize = (z: ZlibLayout, k: number): number => (k === z.nBlocks - 1 ? z.last : z.blockSize);
+
 /**
- * Reads one binary array (header and data) from `src` and returns its decoded bytes: a view into the
- * file where possible (raw, uncompressed), otherwise a fresh buffer starting at offset 0.
+ * Checks the words after the block count (`[blockSize, lastBlockSize, compressedSizes…]`): the last block
+ * no larger than the others, the total against the expectation, each block's ratio within what zlib can do.
  */
-export async function readBlocks(src: ByteSource, fmt: BlockFormat, exp: BlockExpectation, cp?: Checkpoint): Promise<Uint8Array> {
+export function zlibLayout(nBlocks: number, words: readonly number[], exp: BlockExpectation): ZlibLayout {
   const where = exp.where;
-  if (!fmt.compressed) {
-    const [n] = headerWords(src, 1, fmt, 'the block header', where);
-    checkDecodedSize(n!, exp, 'block holds');
-    if (n! > src.available()) throw new Error(`${where}: block header says ${n} bytes, only ${src.available()} are left in the file`);
-    return src.read(n!);
-  }
-  const [nBlocks] = headerWords(src, 1, fmt, 'the compression header', where);
-  const hs = fmt.headerType === 'UInt64' ? 8 : 4;
-  if ((nBlocks! + 2) * hs > src.available()) {
-    throw new Error(`${where}: compression header declares ${nBlocks} blocks, but only ${src.available()} bytes are left for the header and data`);
-  }
-  const words = headerWords(src, nBlocks! + 2, fmt, 'the compression header', where);
   const blockSize = words[0]!, lastRaw = words[1]!;
-  const nb = nBlocks!;
+  const nb = nBlocks;
   if (lastRaw > blockSize) throw new Error(`${where}: compression header's last block (${lastRaw} bytes) is larger than the block size (${blockSize} bytes)`);
   const last = lastRaw === 0 ? blockSize : lastRaw;
   const total = nb === 0 ? 0 : (nb - 1) * blockSize + last;
@@ -137,29 +160,56 @@ export async function readBlocks(src: ByteSource, fmt: BlockFormat, exp: BlockEx
     if (us > cs * MAX_INFLATE_RATIO + 64) throw new Error(`${where}: zlib block ${k} of ${nb} claims ${us} bytes from ${cs} compressed bytes, more than zlib can expand; the header is corrupt`);
     compressedTotal += cs;
   }
-  if (compressedTotal > src.available()) {
-    throw new Error(`${where}: compressed blocks need ${compressedTotal} bytes, only ${src.available()} are left in the file`);
+  return { nBlocks: nb, blockSize, last, total, compressedTotal, words };
+}
+
+/** The error for compressed blocks longer than what is left of the data. */
+export function blocksShort(compressedTotal: number, available: number, where: string): Error {
+  return new Error(`${where}: compressed blocks need ${compressedTotal} bytes, only ${available} are left in the file`);
+}
+
+/** fflate's inflate: into `out` when the stream fits, into a new buffer (longer than `out`) when it does not. */
+export const fflateInflate: InflateBlock = (block, out) => unzlibSync(block, { out }).length;
+
+/** Inflates zlib block `k` of `nb` into all of `target`, with the block's messages. */
+export function inflateInto(block: Uint8Array, target: Uint8Array, k: number, nb: number, where: string, inflate: InflateBlock = fflateInflate): void {
+  let got: number;
+  try {
+    got = inflate(block, target);
+  } catch (e) {
+    throw new Error(`${where}: zlib block ${k} of ${nb} is corrupt (${e instanceof Error ? e.message : String(e)})`);
   }
-  const out = allocate(total, where);
+  if (got !== target.length) throw new Error(`${where}: zlib block ${k} of ${nb} inflates to ${got} bytes, the header says ${target.length}`);
+}
+
+/**
+ * Reads one binary array (header and data) from `src` and returns its decoded bytes: a view into the
+ * file where possible (raw, uncompressed), otherwise a fresh buffer starting at offset 0.
+ */
+export async function readBlocks(src: BlockReader, fmt: BlockFormat, exp: BlockExpectation, cp?: Checkpoint, inflate?: InflateBlock): Promise<Uint8Array> {
+  const where = exp.where;
+  if (!fmt.compressed) {
+    const [n] = headerWords(src, 1, fmt, 'the block header', where);
+    checkDecodedSize(n!, exp, 'block holds');
+    if (n! > src.available()) throw new Error(`${where}: block header says ${n} bytes, only ${src.available()} are left in the file`);
+    return src.read(n!);
+  }
+  const [nBlocks] = headerWords(src, 1, fmt, 'the compression header', where);
+  const hs = headerSize(fmt);
+  if ((nBlocks! + 2) * hs > src.available()) throw blockCountShort(nBlocks!, src.available(), where);
+  const z = zlibLayout(nBlocks!, headerWords(src, nBlocks! + 2, fmt, 'the compression header', where), exp);
+  if (z.compressedTotal > src.available()) throw blocksShort(z.compressedTotal, src.available(), where);
+  const out = allocate(z.total, where);
   const startPos = src.position();
-  const packed = src.read(compressedTotal);
+  const packed = src.read(z.compressedTotal);
   const span = src.position() - startPos;
   let from = 0, to = 0;
-  for (let k = 0; k < nb; k++) {
-    const cs = words[2 + k]!, us = k === nb - 1 ? last : blockSize;
-    const target = out.subarray(to, to + us);
-    let got: Uint8Array;
-    try {
-      got = unzlibSync(packed.subarray(from, from + cs), { out: target });
-    } catch (e) {
-      throw new Error(`${where}: zlib block ${k} of ${nb} is corrupt (${e instanceof Error ? e.message : String(e)})`);
-    }
-    if (got.length !== us || got.buffer !== out.buffer) {
-      throw new Error(`${where}: zlib block ${k} of ${nb} inflates to ${got.length} bytes, the header says ${us}`);
-    }
+  for (let k = 0; k < z.nBlocks; k++) {
+    const cs = z.words[2 + k]!, us = inflatedSize(z, k);
+    inflateInto(packed.subarray(from, from + cs), out.subarray(to, to + us), k, z.nBlocks, where, inflate);
     from += cs;
     to += us;
-    if (cp) await cp.at('inflating', startPos + Math.round((span * from) / compressedTotal));
+    if (cp) await cp.at('inflating', startPos + Math.round((span * from) / z.compressedTotal));
   }
   return out;
 }

@@ -9,7 +9,6 @@
 import type { Piece, PolyFaces } from '../model/piece.ts';
 import { validatePiece } from '../model/validate.ts';
 import { linearizeCells, polyDataCells, type PolySection } from './cellAssembly.ts';
-import { toFloat64 } from './elementTypes.ts';
 import { arrayLabel, componentsOf, intAttr, readDataArray, readIdDataArray, type XmlFileContext } from './xmlArrays.ts';
 import { readSectionFields } from './xmlFields.ts';
 import { facesFromStream, facesFromTables } from './xmlPolyhedra.ts';
@@ -40,20 +39,24 @@ function namedArray(sec: XmlElement, names: readonly string[]): XmlElement | und
   return sec.children.find((c) => c.name === 'DataArray' && names.includes(c.attrs.get('Name') ?? ''));
 }
 
-async function readIdArray(ctx: XmlFileContext, sec: XmlElement, names: readonly string[], where: string, expected: number | undefined, min = 0): Promise<Int32Array> {
+async function readIdArray(ctx: XmlFileContext, sec: XmlElement, names: readonly string[], where: string, expected: number | undefined, min = 0, lead = 0): Promise<Int32Array> {
   const el = namedArray(sec, names);
   if (!el) throw new Error(`${where}: <${sec.name}> has no DataArray named "${names[0]}"`);
-  return readIdDataArray(ctx, el, `${where}: ${arrayLabel(el, names[0]!)}`, expected, min);
+  return readIdDataArray(ctx, el, `${where}: ${arrayLabel(el, names[0]!)}`, expected, min, lead);
 }
 
-/** Cell end offsets as in the file → model offsets (leading 0), checking they never decrease. */
-function startOffsets(ends: Int32Array, where: string): Int32Array {
-  const out = new Int32Array(ends.length + 1);
+/**
+ * Cell end offsets as in the file, read after a leading zero slot → model offsets (leading 0), checking
+ * in place that they never decrease.
+ */
+async function readStartOffsets(ctx: XmlFileContext, sec: XmlElement, where: string, n: number): Promise<Int32Array> {
+  const out = await readIdArray(ctx, sec, ['offsets'], where, n, 0, 1);
+  const label = `${where}: DataArray "offsets"`;
   let prev = 0;
-  for (let i = 0; i < ends.length; i++) {
-    const e = ends[i]!;
-    if (e < prev) throw new Error(`${where}: offsets entry ${i} is ${e}, less than the previous end ${prev}`);
-    out[i + 1] = prev = e;
+  for (let i = 1; i < out.length; i++) {
+    const e = out[i]!;
+    if (e < prev) throw new Error(`${label}: offsets entry ${i - 1} is ${e}, less than the previous end ${prev}`);
+    prev = e;
   }
   return out;
 }
@@ -68,8 +71,7 @@ async function readPoints(ctx: XmlFileContext, pieceEl: XmlElement, nPts: number
   const label = `${where}: ${arrayLabel(da, 'Points')}`;
   const nc = componentsOf(da, label);
   if (nc !== 3) throw new Error(`${label}: points have ${nc} components, expected 3`);
-  const { values } = await readDataArray(ctx, da, label, nPts * 3);
-  return toFloat64(values);
+  return (await readDataArray(ctx, da, label, nPts * 3, true)).values as Float64Array;
 }
 
 const SNAKE = {
@@ -107,7 +109,7 @@ async function readUnstructuredCells(ctx: XmlFileContext, pieceEl: XmlElement, n
   const typesEl = namedArray(cells, ['types']);
   if (!typesEl) throw new Error(`${where}: <Cells> has no DataArray named "types"`);
   const { values: types } = await readDataArray(ctx, typesEl, `${where}: ${arrayLabel(typesEl, 'types')}`, nCells);
-  const offsets = startOffsets(await readIdArray(ctx, cells, ['offsets'], where, nCells), `${where}: DataArray "offsets"`);
+  const offsets = await readStartOffsets(ctx, cells, where, nCells);
   const connectivity = await readIdArray(ctx, cells, ['connectivity'], where, offsets[nCells]!);
   const lin = linearizeCells(types, offsets, connectivity, where);
   let polyFaces: PolyFaces | undefined;
@@ -125,7 +127,7 @@ async function readPolyDataCells(ctx: XmlFileContext, pieceEl: XmlElement, where
     const sec = child(pieceEl, tag);
     if (!sec) throw new Error(`${where}: NumberOf${tag}="${n}" but the piece has no <${tag}> section`);
     const sw = `${where}: ${tag}`;
-    const offsets = startOffsets(await readIdArray(ctx, sec, ['offsets'], sw, n), `${sw}: DataArray "offsets"`);
+    const offsets = await readStartOffsets(ctx, sec, sw, n);
     const connectivity = await readIdArray(ctx, sec, ['connectivity'], sw, offsets[n]!);
     sections.push({ kind, offsets, connectivity });
   }

@@ -101,20 +101,32 @@ function truncated(where: string, what: string): Error {
   return new Error(`${where}: file ends ${what}; expected the rest of the XML (is the file truncated?)`);
 }
 
+/** Thrown (not as an error) when a scan of the start of a file reaches the end of what it was given. */
+const MORE = Symbol('more bytes needed');
+
+/** Scan state: whether the bytes are the whole file, and whether inline data (text, or a non-appended DataArray) was seen. */
+interface ScanState { readonly complete: boolean; inline: boolean }
+
+/** The end of the bytes was reached: an error for a whole file, a request for more bytes for the start of one. */
+function shortOf(s: ScanState, where: string, what: string): Error {
+  if (!s.complete) throw MORE;
+  return truncated(where, what);
+}
+
 interface StartTag { el: XmlElement; end: number; selfClosing: boolean }
 
 /** Reads a start tag at `lt` (the `<`): name and attributes. */
-function readStartTag(bytes: Uint8Array, lt: number, where: string): StartTag {
+function readStartTag(bytes: Uint8Array, lt: number, where: string, s: ScanState): StartTag {
   const n = bytes.length;
   let p = lt + 1;
   while (p < n && !isSpace(bytes[p]!) && bytes[p] !== GT && bytes[p] !== SLASH) p++;
-  if (p >= n) throw truncated(where, `inside a tag at byte ${lt}`);
+  if (p >= n) throw shortOf(s, where, `inside a tag at byte ${lt}`);
   const name = latin1(bytes, lt + 1, p);
   if (name.length === 0) throw new Error(`${where}: empty tag name at byte ${lt}`);
   const attrs = new Map<string, string>();
   for (;;) {
     while (p < n && isSpace(bytes[p]!)) p++;
-    if (p >= n) throw truncated(where, `inside the <${name}> tag at byte ${lt}`);
+    if (p >= n) throw shortOf(s, where, `inside the <${name}> tag at byte ${lt}`);
     const c = bytes[p]!;
     if (c === GT) {
       const el: XmlElement = { name, attrs, children: [], textStart: p + 1, textEnd: p + 1, at: lt };
@@ -122,7 +134,7 @@ function readStartTag(bytes: Uint8Array, lt: number, where: string): StartTag {
     }
     if (c === SLASH) {
       if (bytes[p + 1] !== GT) {
-        if (p + 1 >= n) throw truncated(where, `inside the <${name}> tag at byte ${lt}`);
+        if (p + 1 >= n) throw shortOf(s, where, `inside the <${name}> tag at byte ${lt}`);
         throw new Error(`${where}: expected "/>" in the <${name}> tag at byte ${p}`);
       }
       const el: XmlElement = { name, attrs, children: [], textStart: p + 2, textEnd: p + 2, at: lt };
@@ -132,53 +144,65 @@ function readStartTag(bytes: Uint8Array, lt: number, where: string): StartTag {
     while (p < n && !isSpace(bytes[p]!) && bytes[p] !== EQ && bytes[p] !== GT && bytes[p] !== SLASH) p++;
     const aname = latin1(bytes, a0, p);
     while (p < n && isSpace(bytes[p]!)) p++;
-    if (p >= n) throw truncated(where, `inside the <${name}> tag at byte ${lt}`);
+    if (p >= n) throw shortOf(s, where, `inside the <${name}> tag at byte ${lt}`);
     if (bytes[p] !== EQ) throw new Error(`${where}: attribute "${aname}" of <${name}> at byte ${a0} has no value (expected =)`);
     p++;
     while (p < n && isSpace(bytes[p]!)) p++;
-    if (p >= n) throw truncated(where, `inside the <${name}> tag at byte ${lt}`);
+    if (p >= n) throw shortOf(s, where, `inside the <${name}> tag at byte ${lt}`);
     const q = bytes[p]!;
     if (q !== 34 && q !== 39) throw new Error(`${where}: value of attribute "${aname}" of <${name}> at byte ${p} is not quoted`);
     const close = bytes.indexOf(q, p + 1);
-    if (close < 0) throw truncated(where, `inside the value of attribute "${aname}" of <${name}> at byte ${p}`);
+    if (close < 0) throw shortOf(s, where, `inside the value of attribute "${aname}" of <${name}> at byte ${p}`);
     attrs.set(aname, decodeEntities(utf8.decode(bytes.subarray(p + 1, close))));
     p = close + 1;
   }
 }
 
-/** Locates the appended data after the `<AppendedData …>` start tag ending at `end`. */
-function appendedSection(bytes: Uint8Array, el: XmlElement, end: number, where: string): AppendedSection {
+/** Where the appended data start: the byte after the `_` marker that follows the `<AppendedData …>` tag ending at `end`. */
+function appendedStart(bytes: Uint8Array, el: XmlElement, end: number, where: string, s: ScanState): { encoding: 'raw' | 'base64'; start: number } {
   const enc = el.attrs.get('encoding') ?? 'raw';
   if (enc !== 'raw' && enc !== 'base64') {
     throw new Error(`${where}: <AppendedData encoding="${enc}"> is not supported (expected "raw" or "base64")`);
   }
   let p = end;
   while (p < bytes.length && isSpace(bytes[p]!)) p++;
-  if (p >= bytes.length) throw truncated(where, 'right after <AppendedData>');
+  if (p >= bytes.length) throw shortOf(s, where, 'right after <AppendedData>');
   if (bytes[p] !== UNDERSCORE) {
     throw new Error(`${where}: appended data must start with "_", found "${String.fromCharCode(bytes[p]!)}" at byte ${p}`);
   }
-  const start = p + 1;
-  let dataEnd: number;
-  if (enc === 'base64') {
-    dataEnd = bytes.indexOf(LT, start);
-    if (dataEnd < 0 || findBytes(bytes, APPENDED_CLOSE, dataEnd, dataEnd + APPENDED_CLOSE.length) !== dataEnd) {
-      throw truncated(where, 'inside the base64 appended data (no </AppendedData> after it)');
-    }
-  } else {
-    // Raw bytes may contain anything, so the closing tag is found from the end of the file.
-    dataEnd = findBytesBackward(bytes, APPENDED_CLOSE, Math.max(start, bytes.length - TAIL_SEARCH), bytes.length);
-    if (dataEnd < 0) throw truncated(where, 'inside the raw appended data (no </AppendedData> at the end)');
-  }
-  if (findBytes(bytes, FILE_CLOSE, dataEnd) < 0) throw truncated(where, 'before </VTKFile>');
-  return { encoding: enc, start, end: dataEnd };
+  return { encoding: enc, start: p + 1 };
 }
 
+/** Bytes at the end of a file searched for `</AppendedData>`. */
+export const APPENDED_TAIL_BYTES = TAIL_SEARCH;
+
 /**
- * Scans a VTK XML file's structure. `where` (the file name) prefixes every error. Throws on malformed or
- * truncated XML with the byte position.
+ * The end of appended data starting at `start` (the `<` of `</AppendedData>`), found from the end of the
+ * file, since raw bytes may contain anything: `tail` holds the file's bytes from `tailAt` to its end (at
+ * least its last `APPENDED_TAIL_BYTES`, or everything after `start`).
  */
-export function scanXml(bytes: Uint8Array, where: string): XmlDocument {
+export function appendedEnd(tail: Uint8Array, tailAt: number, start: number, encoding: 'raw' | 'base64', where: string): number {
+  const from = Math.max(start, tailAt + tail.length - TAIL_SEARCH) - tailAt;
+  const at = findBytesBackward(tail, APPENDED_CLOSE, Math.max(0, from), tail.length);
+  if (at < 0) {
+    throw truncated(where, encoding === 'raw'
+      ? 'inside the raw appended data (no </AppendedData> at the end)'
+      : 'inside the base64 appended data (no </AppendedData> after it)');
+  }
+  if (findBytes(tail, FILE_CLOSE, at) < 0) throw truncated(where, 'before </VTKFile>');
+  return tailAt + at;
+}
+
+/** Locates the appended data after the `<AppendedData …>` start tag ending at `end` (whole file in `bytes`). */
+function appendedSection(bytes: Uint8Array, el: XmlElement, end: number, where: string, s: ScanState): AppendedSection {
+  const { encoding, start } = appendedStart(bytes, el, end, where, s);
+  return { encoding, start, end: appendedEnd(bytes, 0, start, encoding, where) };
+}
+
+/** Result of scanning up to the appended data (or to the end): the tree, and the `<AppendedData>` tag if reached. */
+interface Scanned { root: XmlElement; appended?: { el: XmlElement; end: number } }
+
+function scan(bytes: Uint8Array, where: string, s: ScanState): Scanned {
   const stack: XmlElement[] = [];
   let root: XmlElement | undefined;
   let pos = 0;
@@ -189,32 +213,33 @@ export function scanXml(bytes: Uint8Array, where: string): XmlDocument {
     if (top && top.textStart === top.textEnd && lt > pos && hasText(bytes, pos, lt)) {
       top.textStart = pos;
       top.textEnd = lt;
+      if (top.name === 'DataArray') s.inline = true;
     }
     const c = bytes[lt + 1];
-    if (c === undefined) throw truncated(where, `inside a tag at byte ${lt}`);
+    if (c === undefined) throw shortOf(s, where, `inside a tag at byte ${lt}`);
     if (c === QMARK) {
       const e = findBytes(bytes, PI_END, lt + 2);
-      if (e < 0) throw truncated(where, `inside a <?…?> instruction at byte ${lt}`);
+      if (e < 0) throw shortOf(s, where, `inside a <?…?> instruction at byte ${lt}`);
       pos = e + 2;
       continue;
     }
     if (c === BANG) {
       if (bytes[lt + 2] === 45 && bytes[lt + 3] === 45) {
         const e = findBytes(bytes, COMMENT_END, lt + 4);
-        if (e < 0) throw truncated(where, `inside a comment at byte ${lt}`);
+        if (e < 0) throw shortOf(s, where, `inside a comment at byte ${lt}`);
         pos = e + 3;
       } else if (findBytes(bytes, CDATA, lt, lt + CDATA.length) === lt) {
         throw new Error(`${where}: CDATA section at byte ${lt} is not supported in VTK XML files`);
       } else {
         const e = bytes.indexOf(GT, lt);
-        if (e < 0) throw truncated(where, `inside a <!…> declaration at byte ${lt}`);
+        if (e < 0) throw shortOf(s, where, `inside a <!…> declaration at byte ${lt}`);
         pos = e + 1;
       }
       continue;
     }
     if (c === SLASH) {
       const e = bytes.indexOf(GT, lt);
-      if (e < 0) throw truncated(where, `inside a closing tag at byte ${lt}`);
+      if (e < 0) throw shortOf(s, where, `inside a closing tag at byte ${lt}`);
       const name = latin1(bytes, lt + 2, e).trim();
       const open = stack.pop();
       if (!open) throw new Error(`${where}: closing tag </${name}> at byte ${lt} has no matching start tag`);
@@ -222,21 +247,63 @@ export function scanXml(bytes: Uint8Array, where: string): XmlDocument {
       pos = e + 1;
       continue;
     }
-    const { el, end, selfClosing } = readStartTag(bytes, lt, where);
+    const { el, end, selfClosing } = readStartTag(bytes, lt, where, s);
     const parent = stack[stack.length - 1];
     if (parent) parent.children.push(el);
     else if (root) throw new Error(`${where}: a second top-level element <${el.name}> at byte ${lt}`);
     else root = el;
     pos = end;
+    if (el.name === 'DataArray' && el.attrs.get('format') !== 'appended') s.inline = true;
     if (el.name === 'AppendedData') {
       if (!parent) throw new Error(`${where}: <AppendedData> at byte ${lt} is outside <VTKFile>`);
-      return { root: root!, appended: appendedSection(bytes, el, end, where) };
+      return { root: root!, appended: { el, end } };
     }
     if (!selfClosing) stack.push(el);
+  }
+  if (!s.complete) {
+    // A whole document with no appended data needs the whole file, as does one cut inside inline data.
+    if (stack.length === 0 && root) s.inline = true;
+    throw MORE;
   }
   if (stack.length > 0) throw truncated(where, `inside <${stack[stack.length - 1]!.name}> opened at byte ${stack[stack.length - 1]!.at}`);
   if (!root) throw new Error(`${where}: no XML element found (expected <VTKFile …>)`);
   return { root };
+}
+
+/**
+ * Scans a VTK XML file's structure. `where` (the file name) prefixes every error. Throws on malformed or
+ * truncated XML with the byte position.
+ */
+export function scanXml(bytes: Uint8Array, where: string): XmlDocument {
+  const s: ScanState = { complete: true, inline: false };
+  const r = scan(bytes, where, s);
+  return r.appended ? { root: r.root, appended: appendedSection(bytes, r.appended.el, r.appended.end, where, s) } : { root: r.root };
+}
+
+/** Outcome of scanning the first bytes of a file. */
+export type HeadScan =
+  /** The structure up to appended data starting at `start`; their end is still to be found from the file's tail. */
+  | { readonly kind: 'appended'; readonly root: XmlElement; readonly start: number; readonly encoding: 'raw' | 'base64' }
+  /** The head ends before the appended data: read more of it (`grow`), or the file has inline data and is needed whole (`whole`). */
+  | { readonly kind: 'grow' | 'whole' };
+
+/**
+ * Scans the first bytes of a VTK XML file (`head`, shorter than the file) as far as the marker of its
+ * appended data. Structural errors met on the way are thrown as `scanXml` would; running out of bytes is
+ * not an error but a request for more.
+ */
+export function scanXmlHead(head: Uint8Array, where: string): HeadScan {
+  const s: ScanState = { complete: false, inline: false };
+  try {
+    const r = scan(head, where, s);
+    if (!r.appended) return { kind: 'whole' };
+    const { encoding, start } = appendedStart(head, r.appended.el, r.appended.end, where, s);
+    if (s.inline) return { kind: 'whole' };
+    return { kind: 'appended', root: r.root, start, encoding };
+  } catch (e) {
+    if (e !== MORE) throw e;
+    return { kind: s.inline ? 'whole' : 'grow' };
+  }
 }
 
 /** The first child element with the given name, or undefined. */

@@ -1,0 +1,122 @@
+/**
+ * Reading one uncompressed binary array from a `ByteSource` straight into its final typed array, so
+ * nothing but that array is fresh memory and no other part of the file is read:
+ *  - sources that fill the caller's buffer (`readInto`: files on disk) are read chunk by chunk into the
+ *    module scratch and copied or converted into the final array. Why not read straight into the final
+ *    buffer: memory first written by the kernel is faulted in twice on some virtual machines (once for the
+ *    kernel's write, again at the program's first touch), which costs more than the copy;
+ *  - sources that hand out fresh buffers (`read` only: a Blob) give the final array itself when its file
+ *    bytes are the model's bytes (viewed, swapped and checked in place), otherwise chunks to convert;
+ *  - in-memory files are viewed (when allowed) or copied.
+ */
+import type { NumericArray } from '../model/fieldArray.ts';
+import { inMemoryBytes, readExactly, readInto, type ByteSource } from './byteSource.ts';
+import { ELEMENT_SIZE } from './elementTypes.ts';
+import { HOST_LITTLE, Scratch, allocateTarget, chunkElements, convertChunk, finishDirect, isDirect, type ArrayPlan } from './elementConvert.ts';
+import type { Checkpoint } from './loadOptions.ts';
+
+/** Where progress of a read is reported. */
+export interface ReadProgress {
+  readonly cp: Checkpoint;
+  readonly stage: string;
+}
+
+/** Options of `readArray`. Defaults: copies, no progress. */
+export interface ReadArrayOptions {
+  /**
+   * For in-memory sources: return a view of the file's bytes when they are already the final array
+   * (aligned, host order, no lead; ids are checked in place) instead of a copy. Default false (a copy
+   * lets the file's buffer go, and be transferred alone).
+   */
+  view?: boolean;
+  progress?: ReadProgress;
+}
+
+/**
+ * Reads `count` elements of `plan.type` at byte `offset` of `src` into the array the plan asks for. The
+ * caller has checked that `count` elements fit in the source.
+ */
+export async function readArray(src: ByteSource, offset: number, count: number, plan: ArrayPlan, opts: ReadArrayOptions = {}): Promise<NumericArray> {
+  const size = ELEMENT_SIZE[plan.type];
+  const mem = inMemoryBytes(src);
+  const direct = isDirect(plan);
+  if (direct && !plan.lead) {
+    const hostOrder = plan.littleEndian === HOST_LITTLE || size === 1;
+    if (mem && opts.view && hostOrder && (mem.byteOffset + offset) % size === 0) return finishedView(plan, mem, offset, count);
+    if (!mem && !src.readInto) {
+      const b = await readExactly(src, offset, count * size);
+      if (b.byteOffset % size === 0) return finishedView(plan, b, 0, count);
+      const out = allocateTarget(plan, count);
+      new Uint8Array(out.buffer, out.byteOffset, b.length).set(b);
+      finishDirect(plan, out, 0, count);
+      return out;
+    }
+  }
+  const out = allocateTarget(plan, count);
+  const outBytes = direct ? new Uint8Array(out.buffer, out.byteOffset + (plan.lead ?? 0) * size, count * size) : undefined;
+  const step = chunkElements(size);
+  // Two scratch buffers: the next chunk is read while this one is copied or converted.
+  const sc = [new Scratch(0), new Scratch(1)] as const;
+  const fetch = (i: number): Promise<Uint8Array> | undefined => {
+    if (mem || i >= count) return undefined;
+    const k = Math.min(step, count - i), buf = sc[(i / step) & 1]!.bytes(k * size);
+    return readInto(src, offset + i * size, buf).then(() => buf);
+  };
+  let next: Promise<Uint8Array> | undefined;
+  try {
+    next = fetch(0);
+    for (let i = 0; i < count; i += step) {
+      const k = Math.min(step, count - i), a = offset + i * size, e = a + k * size;
+      if (outBytes && mem) {
+        outBytes.set(mem.subarray(a, e), i * size);
+      } else {
+        let buf: Uint8Array;
+        if (mem) {
+          buf = sc[0].bytes(k * size);
+          buf.set(mem.subarray(a, e));
+        } else {
+          buf = await next!;
+          next = fetch(i + step);
+        }
+        if (outBytes) outBytes.set(buf, i * size);
+        else convertChunk(plan, buf, k, out, i);
+      }
+      if (outBytes) finishDirect(plan, out, i, k);
+      if (opts.progress) await opts.progress.cp.at(opts.progress.stage, e);
+    }
+    await next;
+  } catch (e) {
+    // A read still in flight writes into the scratch: let it finish before the scratch is handed on.
+    await next?.catch(() => undefined);
+    throw e;
+  } finally {
+    sc[0].release();
+    sc[1].release();
+  }
+  return out;
+}
+
+/** The final array as a view of `count` elements of `bytes` at `offset` (aligned), swapped and checked in place. */
+function finishedView(plan: ArrayPlan, bytes: Uint8Array, offset: number, count: number): NumericArray {
+  const view = viewAs(allocateTarget(plan, 0), bytes, offset, count);
+  finishDirect(plan, view, 0, count);
+  return view;
+}
+
+/** A typed array of `like`'s kind viewing `count` elements of `mem` at `offset` (aligned). */
+function viewAs(like: NumericArray, mem: Uint8Array, offset: number, count: number): NumericArray {
+  const Ctor = like.constructor as new (b: ArrayBufferLike, o: number, n: number) => NumericArray;
+  return new Ctor(mem.buffer, mem.byteOffset + offset, count);
+}
+
+const WHOLE: ArrayPlan = { type: 'UInt8', littleEndian: true, target: 'values', where: '' };
+
+/**
+ * The whole file: the bytes themselves for an in-memory source, otherwise one fresh buffer of the file's
+ * size (filled through the scratch when the source has `readInto`; see the note at the top).
+ */
+export async function readWhole(src: ByteSource): Promise<Uint8Array> {
+  const mem = inMemoryBytes(src);
+  if (mem) return mem;
+  return (await readArray(src, 0, src.size, { ...WHOLE, where: src.name })) as Uint8Array;
+}
