@@ -6,7 +6,9 @@
 import * as Comlink from 'comlink';
 import { integratePlane } from '../src/cut/planeIntegrals.ts';
 import type { RegionSpec } from '../src/cut/region.ts';
-import { readDataset } from '../src/io/readDataset.ts';
+import { readDatasetFrom } from '../src/io/readDataset.ts';
+import { blobSource } from '../src/io/blobSource.ts';
+import { bytesSource, type ByteSource } from '../src/io/byteSource.ts';
 import { probeLine } from '../src/locate/lineProbe.ts';
 import { lineStats } from '../src/locate/lineStats.ts';
 import { forceTotals } from '../src/surface/forces.ts';
@@ -40,8 +42,9 @@ interface Held {
   boundary?: { faces: BoundaryFaces; groups: SurfaceGroups };
 }
 
-async function bytesOf(data: Blob | Uint8Array): Promise<Uint8Array> {
-  return data instanceof Uint8Array ? data : new Uint8Array(await data.arrayBuffer());
+/** A chosen file as a byte source: ranges of a Blob are read only when the reader needs them. */
+function sourceOf(data: Blob | Uint8Array, name: string): ByteSource {
+  return data instanceof Uint8Array ? bytesSource(name, data) : blobSource(data, name);
 }
 
 /** Reads a same-origin URL with byte progress. */
@@ -99,36 +102,35 @@ export function createComputeApi(): ComputeApi {
       const progress = throttle(onProgress);
       const t0 = performance.now();
       try {
-        let name: string, bytes: Uint8Array, fileBytes: number;
-        let resolve: ((rel: string) => Promise<Uint8Array>) | undefined;
+        let name: string, main: ByteSource, fileBytes: number;
+        let resolveSource: ((rel: string) => Promise<ByteSource>) | undefined;
         if (request.kind === 'url') {
           name = request.name;
-          bytes = await fetchBytes(request.url, (done, total) => progress.send({ stage: 'fetching', bytesDone: done, bytesTotal: total }), controller.signal);
+          const bytes = await fetchBytes(request.url, (done, total) => progress.send({ stage: 'fetching', bytesDone: done, bytesTotal: total }), controller.signal);
+          main = bytesSource(name, bytes);
           fileBytes = bytes.length;
         } else {
           name = request.main.path.split('/').pop()!;
-          const size = request.main.data instanceof Uint8Array ? request.main.data.length : request.main.data.size;
-          progress.send({ stage: 'reading file', bytesDone: 0, bytesTotal: size });
-          bytes = await bytesOf(request.main.data);
-          fileBytes = bytes.length;
+          main = sourceOf(request.main.data, name);
+          fileBytes = main.size;
           const folder = request.main.path.includes('/') ? request.main.path.slice(0, request.main.path.lastIndexOf('/') + 1) : '';
           const byPath = new Map(request.others.map((f) => [normalisePath(f.path), f]));
-          resolve = async (rel) => {
+          resolveSource = async (rel) => {
             const want = normalisePath(folder + rel);
             // files chosen one by one carry no folder: fall back to a unique match of the file name
             const base = want.split('/').pop()!;
             const sameName = [...byPath.entries()].filter(([p]) => p.split('/').pop() === base);
             const f = byPath.get(want) ?? byPath.get(normalisePath(rel)) ?? (sameName.length === 1 ? sameName[0]![1] : undefined);
             if (!f) throw new Error(`${name}: piece "${rel}" is missing: choose it together with the set file (or open the folder)`);
-            const b = await bytesOf(f.data);
-            fileBytes += b.length;
-            return b;
+            const src = sourceOf(f.data, base);
+            fileBytes += src.size;
+            return src;
           };
         }
-        const dataset = await readDataset(name, bytes, {
+        const dataset = await readDatasetFrom(main, {
           onProgress: (p) => progress.send(p),
           signal: controller.signal,
-          ...(resolve ? { resolve } : {}),
+          ...(resolveSource ? { resolveSource } : {}),
         });
         progress.send({ stage: 'summarising', bytesDone: fileBytes, bytesTotal: fileBytes });
         progress.flush();
