@@ -3,7 +3,10 @@
  * `blob.slice(a, b).arrayBuffer()`, so a large file is never read whole when its arrays can be read one by
  * one. Uses only the Blob API (no DOM), so it runs in a worker and under Node (which has `Blob`).
  */
-import { pastEnd, type ByteSource } from './byteSource.ts';
+import type { ByteSource } from './byteSource.ts';
+
+/** Bytes per read when a blob is read in chunks (16 MiB): measured in chromium, 1 MiB reads of a 114 MB file took 1.2 s, 16 MiB reads 0.5 s. */
+export const BLOB_CHUNK_BYTES = 16 << 20;
 
 /** A source over `blob`; `name` defaults to the File's name. */
 export function blobSource(blob: Blob, name: string = (blob as Partial<File>).name ?? 'blob'): ByteSource {
@@ -14,14 +17,7 @@ export function blobSource(blob: Blob, name: string = (blob as Partial<File>).na
     if (offset >= end) return new Uint8Array(0);
     return new Uint8Array(await blob.slice(offset, end).arrayBuffer());
   };
-  return {
-    name,
-    size,
-    read,
-    async readInto(offset, target) {
-      const b = await read(offset, target.length);
-      if (b.length !== target.length) throw pastEnd(name, offset, target.length, size);
-      target.set(b);
-    },
-  };
+  // No `readInto`: an array whose file bytes are its final bytes is read as one range and viewed, not
+  // copied; conversions read chunks of `chunkBytes`, since each Blob read costs about 10 ms in chromium.
+  return { name, size, read, chunkBytes: BLOB_CHUNK_BYTES };
 }

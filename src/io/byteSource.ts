@@ -21,6 +21,11 @@ export interface ByteSource {
   read(offset: number, length: number): Promise<Uint8Array>;
   /** Fills all of `target` with bytes `[offset, offset + target.length)`; rejects if the file ends first. */
   readInto?(offset: number, target: Uint8Array): Promise<void>;
+  /**
+   * Preferred size in bytes of one read when an array is read in chunks (conversions, zlib batches); default
+   * `SCRATCH_BYTES` (1 MiB). Blob reads carry a fixed cost each, so blob sources ask for larger chunks.
+   */
+  readonly chunkBytes?: number;
   /** Releases what the source holds open (a file handle); readers call it on sources they were handed by a resolver. */
   close?(): Promise<void>;
 }

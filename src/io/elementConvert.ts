@@ -76,8 +76,8 @@ export class Scratch {
 }
 
 /** Elements per chunk of the scratch for an element size (a whole number of elements). */
-export function chunkElements(size: number): number {
-  return Math.floor(SCRATCH_BYTES / size);
+export function chunkElements(size: number, chunkBytes: number = SCRATCH_BYTES): number {
+  return Math.max(1, Math.floor(chunkBytes / size));
 }
 
 /** Allocates the final array for `count` file elements (plus `lead` zero slots), with a clear error when memory runs out. */

@@ -54,7 +54,7 @@ export async function readArray(src: ByteSource, offset: number, count: number, 
   }
   const out = allocateTarget(plan, count);
   const outBytes = direct ? new Uint8Array(out.buffer, out.byteOffset + (plan.lead ?? 0) * size, count * size) : undefined;
-  const step = chunkElements(size);
+  const step = chunkElements(size, src.chunkBytes);
   // Two scratch buffers: the next chunk is read while this one is copied or converted.
   const sc = [new Scratch(0), new Scratch(1)] as const;
   const fetch = (i: number): Promise<Uint8Array> | undefined => {

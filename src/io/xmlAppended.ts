@@ -73,6 +73,8 @@ export interface PackedInput {
   next(n: number, scratch: Scratch): Promise<Uint8Array>;
   /** File position reached, for progress. */
   position(): number;
+  /** Preferred bytes per `next` call (consecutive blocks are batched up to this). */
+  readonly batchBytes: number;
 }
 
 /** Compressed blocks at `pos` of a source. */
@@ -88,6 +90,7 @@ function sourcePacked(src: ByteSource, pos: number): PackedInput {
       return b;
     },
     position: () => pos,
+    batchBytes: src.chunkBytes ?? SCRATCH_BYTES,
   };
 }
 
@@ -126,7 +129,7 @@ async function inflateAll(input: PackedInput, plan: ArrayPlan, z: ZlibLayout, ou
   while (k < z.nBlocks) {
     // One batch: consecutive blocks up to the scratch size (at least one block).
     let batchBytes = 0, kEnd = k;
-    while (kEnd < z.nBlocks && (kEnd === k || batchBytes + z.words[2 + kEnd]! <= SCRATCH_BYTES)) batchBytes += z.words[2 + kEnd++]!;
+    while (kEnd < z.nBlocks && (kEnd === k || batchBytes + z.words[2 + kEnd]! <= input.batchBytes)) batchBytes += z.words[2 + kEnd++]!;
     const packed = await input.next(batchBytes, packedScratch);
     let from = 0;
     for (; k < kEnd; k++) {

@@ -129,6 +129,7 @@ export async function readBase64Array(input: Base64Input, fmt: BlockFormat, plan
         return b;
       },
       position: () => input.position(),
+      batchBytes: SCRATCH_BYTES,
     };
     return inflateBlocks(packed, plan, z, inflate, cp);
   }
