@@ -9,6 +9,7 @@ import { basename, dirname, join, relative, resolve } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { readDataset } from '../../src/io/readDataset.ts';
 import { validatePiece } from '../../src/model/validate.ts';
+import { seededRandom as rng } from '../../src/model/seededRandom.ts';
 
 const EXTERNAL = resolve(__dirname, '../../../shared/fields/external');
 
@@ -19,17 +20,6 @@ function walk(dir: string): string[] {
   });
 }
 
-/** Small seeded PRNG (mulberry32) so failures reproduce. */
-function rng(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
 
 /** Loads mutated bytes; set pieces come unmutated from disk. Returns 'ok' or the error. */
 async function attempt(path: string, bytes: Uint8Array): Promise<'ok' | Error> {

@@ -4,19 +4,11 @@
  */
 import { describe, expect, it } from 'vitest';
 import { Base64Reader, decodeBase64 } from '../../src/io/base64.ts';
+import { seededRandom as rng } from '../../src/model/seededRandom.ts';
 
 const bytesOf = (s: string) => new TextEncoder().encode(s);
 const decodeAll = (s: string) => Array.from(decodeBase64(bytesOf(s), 0, s.length, 'test'));
 
-function rng(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = Math.imul(a ^ (a >>> 15), a | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
 
 describe('decodeBase64', () => {
   it('decodes the RFC 4648 §10 test vectors', () => {

@@ -17,6 +17,7 @@ import { writeVtu } from '../../src/io/writeVtu.ts';
 import { datasetOf, hexGrid } from '../../src/model/meshBuild.ts';
 import { copyingSource, expectSameContent, expectSameOutcome, outcome, type ReadRecord } from '../helpers/sources.ts';
 import { toBase64Appended, writtenDataset, writtenFiles } from '../helpers/writtenFiles.ts';
+import { seededRandom as rng } from '../../src/model/seededRandom.ts';
 
 /** How often each byte of the file was read. */
 function coverage(size: number, log: ReadRecord[]): Uint8Array {
@@ -118,17 +119,6 @@ function walk(dir: string): string[] {
   });
 }
 
-/** Small seeded PRNG (mulberry32) so failures reproduce. */
-function rng(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
 
 async function sameBothWays(name: string, bytes: Uint8Array, where: string): Promise<void> {
   const want = await outcome(() => readDataset(name, bytes));

@@ -7,17 +7,9 @@ import { datasetOf, hexGrid, pieceFromCells, tetGrid, type LatticeMap } from '..
 import type { Dataset } from '../../src/model/dataset.ts';
 import type { Piece } from '../../src/model/piece.ts';
 
-/** Seeded uniform random numbers in [0, 1) (mulberry32). */
-export function rng(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
+import { seededRandom as rng } from '../../src/model/seededRandom.ts';
+
+export { rng };
 
 /** A map of the unit cube that moves interior lattice nodes by up to `amp` lattice steps (boundary nodes stay). */
 export function jitter(n: number, amp: number, seed: number): LatticeMap {

@@ -12,6 +12,7 @@ import { datasetBounds } from '../../model/bounds.ts';
 import { cellDimension } from '../../model/cellTypes.ts';
 import type { Dataset } from '../../model/dataset.ts';
 import type { BenchStage } from './stage.ts';
+import { seededRandom as seeded } from '../../model/seededRandom.ts';
 
 const r2 = (v: number) => Math.round(v * 100) / 100;
 const stats = (a: number[]) => {
@@ -19,16 +20,6 @@ const stats = (a: number[]) => {
   return { min: r2(s[0] ?? NaN), median: r2(s[Math.floor(s.length / 2)] ?? NaN), max: r2(s[s.length - 1] ?? NaN) };
 };
 
-/** Seeded uniform numbers in [0, 1) (so every run probes the same lines). */
-function seeded(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = Math.imul(a ^ (a >>> 15), a | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
 
 export interface LocateBenchOptions {
   /** Samples per line. Default 1000. */
