@@ -1,4 +1,7 @@
-/** The loading progress bar in the top bar: stage, bytes, and a cancel button. */
+/**
+ * The loading progress bar in the top bar: stage, bytes, and a cancel button (offered only while a
+ * cancel can still keep the open file; once pressed it says so until the load ends).
+ */
 import { formatBytes } from './format.ts';
 
 export class ProgressBar {
@@ -26,13 +29,24 @@ export class ProgressBar {
     host.append(this.el);
   }
 
-  /** Shows the stage and bytes done; a zero total shows an indeterminate bar. */
-  show(stage: string, done: number, total: number): void {
+  /** Shows the stage and bytes done (a zero total shows the stage alone); `cancellable` offers Cancel. */
+  show(stage: string, done: number, total: number, cancellable = true): void {
     this.el.hidden = false;
+    this.cancel.hidden = !cancellable;
     const f = total > 0 ? Math.min(1, done / total) : 0;
     this.fill.style.width = `${(f * 100).toFixed(1)}%`;
     this.label.textContent = total > 0 ? `${stage} — ${formatBytes(done)} of ${formatBytes(total)}` : stage;
   }
 
-  hide(): void { this.el.hidden = true; }
+  /** Marks a cancel as asked for (the button stays, disabled, until the load ends). */
+  cancelling(): void {
+    this.cancel.disabled = true;
+    this.cancel.textContent = 'Cancelling…';
+  }
+
+  hide(): void {
+    this.el.hidden = true;
+    this.cancel.disabled = false;
+    this.cancel.textContent = 'Cancel';
+  }
 }

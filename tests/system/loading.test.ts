@@ -1,0 +1,194 @@
+/**
+ * Loading a large file in the viewer (Debian's chromium, headless): the progress bar names the stage and
+ * the bytes read; Cancel mid-load keeps the file that was open (its name, its surfaces, its dataset in the
+ * worker) and says so; a file larger than the memory the page may use is announced first, and the answer
+ * is obeyed (no: nothing changes; yes: it loads). No request may leave localhost. Screenshots go to
+ * tests/.screenshots/ (git-ignored).
+ */
+import { execFileSync } from 'node:child_process';
+import { existsSync, mkdirSync, rmSync } from 'node:fs';
+import { join } from 'node:path';
+import type { Page } from 'playwright-core';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { MEMORY_PER_FILE_BYTE } from '../../src/app/fileChoice.ts';
+import { REPO, buildApp, launch, longTasksSince, pageNow, serveFolder, waitIdle, type Browser } from './browser.ts';
+
+const SHOTS = join(REPO, 'tests/.screenshots');
+const PIPE = join(REPO, 'sample-fields/pipe-medium.vtu');
+/** About a million hexahedra, zlib-compressed (src/samples/makeFields.ts --large writes it). */
+const LARGE = join(REPO, 'sample-fields/large/pipe-hex-1M.appended-zlib.vtu');
+const LARGE_NAME = 'pipe-hex-1M.appended-zlib.vtu';
+/** The view's background (src/view/viewScene.ts BACKGROUND, #f5f6f8). */
+const BACKGROUND: [number, number, number] = [0xf5, 0xf6, 0xf8];
+
+let dist = '';
+let server: Awaited<ReturnType<typeof serveFolder>>;
+let browser: Browser;
+let page: Page;
+
+const shot = (name: string) => page.screenshot({ path: join(SHOTS, `${name}.png`) });
+const summary = () => page.locator('#file-summary').innerText();
+
+async function openFile(path: string, name: string): Promise<void> {
+  await page.setInputFiles('#file-input', path);
+  await page.waitForFunction((n) => document.getElementById('file-summary')!.textContent!.startsWith(n), name, { timeout: 90_000 });
+  await waitIdle(page, 90_000);
+}
+
+/** Pixels of the view that are not background: the drawn surfaces (the view is a 2D canvas in software rendering). */
+async function drawnPixels(): Promise<number> {
+  return page.evaluate((bg) => {
+    const c = document.getElementById('view-canvas') as HTMLCanvasElement;
+    const ctx = c.getContext('2d');
+    if (!ctx) throw new Error('the view canvas has no 2D context (not software rendering)');
+    const d = ctx.getImageData(0, 0, c.width, c.height).data;
+    let n = 0;
+    for (let i = 0; i < d.length; i += 4) if (Math.abs(d[i]! - bg[0]) + Math.abs(d[i + 1]! - bg[1]) + Math.abs(d[i + 2]! - bg[2]) > 24) n++;
+    return n;
+  }, BACKGROUND);
+}
+
+/** Starts recording every text the progress bar shows (and when it hides) into `window.__progress`. */
+async function recordProgress(): Promise<void> {
+  await page.evaluate(() => {
+    const w = window as unknown as { __progress: string[] };
+    w.__progress = [];
+    const bar = document.querySelector('.progress') as HTMLElement;
+    new MutationObserver(() => w.__progress.push(bar.hidden ? '(hidden)' : bar.querySelector('.progress-label')!.textContent!))
+      .observe(bar, { subtree: true, childList: true, characterData: true, attributes: true });
+  });
+}
+const recorded = () => page.evaluate(() => (window as unknown as { __progress: string[] }).__progress);
+/** "12.3 MB" → bytes (as src/ui/format.ts formatBytes writes them, 3 significant figures). */
+const bytesOf = (t: string) => { const [v, u] = t.split(' '); return Number(v) * ({ B: 1, kB: 1e3, MB: 1e6, GB: 1e9 } as Record<string, number>)[u!]!; };
+
+/** Waits until the progress bar shows some bytes of the large file read; returns its text. */
+async function progressWithBytes(): Promise<string> {
+  const h = await page.waitForFunction(() => {
+    const bar = document.querySelector('.progress') as HTMLElement | null;
+    const t = bar && !bar.hidden ? bar.querySelector('.progress-label')!.textContent! : '';
+    return /[1-9][\d.]* [kMG]B of /.test(t) ? t : false;
+  }, undefined, { timeout: 60_000, polling: 20 });
+  return (await h.jsonValue()) as string;
+}
+
+beforeAll(async () => {
+  mkdirSync(SHOTS, { recursive: true });
+  if (!existsSync(LARGE)) execFileSync(process.execPath, [join(REPO, 'bin/run-ts.mjs'), 'src/samples/makeFields.ts', '--large', '--missing'], { cwd: REPO, stdio: 'ignore' });
+  browser = await launch();
+  page = browser.page;
+  dist = buildApp();
+  server = await serveFolder(dist);
+  await page.goto(server.url);
+  await waitIdle(page, 90_000);
+}, 600_000);
+
+afterAll(async () => {
+  await browser?.close();
+  await server?.close();
+  if (dist) rmSync(dist, { recursive: true, force: true });
+});
+
+describe('loading a large file', () => {
+  it('the progress bar names each stage and the bytes read, which only grow; no main-thread task over 100 ms', async () => {
+    await openFile(PIPE, 'pipe-medium.vtu');
+    await recordProgress();
+    const t0 = await pageNow(page);
+    await page.setInputFiles('#file-input', LARGE);
+    const text = await progressWithBytes();
+    await shot('20-large-load-progress');
+    // e.g. "inflating — 5.20 MB of 22.4 MB"
+    expect(text).toMatch(/^[a-z][a-z ]+[a-z] — \d[\d.]* [kMG]?B of 22\.4 MB$/);
+    await page.waitForFunction((n) => document.getElementById('file-summary')!.textContent!.startsWith(n), LARGE_NAME, { timeout: 90_000 });
+    await waitIdle(page, 90_000);
+    expect(await summary()).toMatch(/— 1,001,472 cells, 1,025,799 points/);
+    expect(await page.locator('.progress').isHidden()).toBe(true);
+    expect(await drawnPixels()).toBeGreaterThan(20_000);
+    await shot('21-large-loaded');
+    const seen = (await recorded()).filter((t, i, all) => t !== all[i - 1]);
+    const stages = [...new Set(seen.map((t) => t.split(' — ')[0]!))];
+    expect(stages[0]).toBe('starting');
+    expect(stages.slice(-3)).toEqual(['finding boundary surfaces', 'drawing the surfaces', '(hidden)']);
+    const bytes = seen.filter((t) => / of /.test(t)).map((t) => bytesOf(/— (.*) of /.exec(t)![1]!));
+    expect(bytes.length).toBeGreaterThan(3);
+    for (let i = 1; i < bytes.length; i++) expect(bytes[i]!, seen.join('\n')).toBeGreaterThanOrEqual(bytes[i - 1]!);
+    expect(bytes.at(-1)).toBe(22.4e6);
+    // the page stays responsive: reading is in the worker, the surface is uploaded part by part
+    expect((await longTasksSince(page, t0)).filter((t) => t.duration > 100)).toEqual([]);
+  });
+
+  it('Cancel mid-load keeps the open file, its surfaces and its dataset, and says so', async () => {
+    await openFile(PIPE, 'pipe-medium.vtu');
+    const before = await drawnPixels();
+    expect(before).toBeGreaterThan(20_000);
+    await page.setInputFiles('#file-input', LARGE);
+    await progressWithBytes();
+    await page.locator('.progress-cancel').click();
+    await page.waitForSelector('.banner[data-kind=notice]');
+    expect(await page.locator('.banner-text').innerText()).toBe('Loading cancelled; the previous file stays open.');
+    await waitIdle(page);
+    await shot('22-large-load-cancelled');
+    expect(await summary()).toMatch(/^pipe-medium\.vtu — 4,320 cells/);
+    expect(await page.locator('.progress').isHidden()).toBe(true);
+    expect(await drawnPixels()).toBe(before);
+    await page.locator('.banner-close').click();
+    // the worker still holds the pipe: colouring by another field works and gives the pipe's legend
+    await page.locator('.lil-controller', { has: page.locator('.lil-name', { hasText: /^field$/ }) }).locator('select').selectOption({ label: 'velocity (points)' });
+    await waitIdle(page);
+    expect(await page.locator('.legend-title').innerText()).toBe('velocity (magnitude) [m/s]');
+    expect(await page.locator('.banner[data-kind=error]').count()).toBe(0);
+  });
+
+  it('Cancel while the boundary surfaces are being found still keeps the open file', async () => {
+    await page.setInputFiles('#file-input', LARGE);
+    await page.waitForFunction(() => {
+      const bar = document.querySelector('.progress') as HTMLElement | null;
+      return !!bar && !bar.hidden && /^finding boundary surfaces/.test(bar.querySelector('.progress-label')!.textContent!);
+    }, undefined, { timeout: 60_000, polling: 10 });
+    await page.locator('.progress-cancel').click();
+    await page.waitForSelector('.banner[data-kind=notice]', { timeout: 20_000 });
+    await waitIdle(page);
+    expect(await page.locator('.banner-text').innerText()).toBe('Loading cancelled; the previous file stays open.');
+    expect(await summary()).toMatch(/^pipe-medium\.vtu — 4,320 cells/);
+    await page.locator('.banner-close').click();
+  });
+
+  it('asks before opening a file larger than the memory the page may use; No keeps everything, Yes loads', async () => {
+    // the heap limit the page reports, made small: the large file's estimate (zlib-compressed, judged at
+    // its decoded size) is above it, the pipe's is far below
+    const limit = 100e6;
+    expect(22_350_100 * MEMORY_PER_FILE_BYTE.compressed).toBeGreaterThan(limit);
+    await page.addInitScript((l) => {
+      Object.defineProperty(performance, 'memory', { configurable: true, get: () => ({ jsHeapSizeLimit: l, totalJSHeapSize: l / 4, usedJSHeapSize: l / 8 }) });
+    }, limit);
+    await page.reload();
+    await waitIdle(page, 90_000);
+    await openFile(PIPE, 'pipe-medium.vtu');
+    expect(await page.locator('.banner[data-kind=warning]').count()).toBe(0);
+    const before = await drawnPixels();
+    await page.setInputFiles('#file-input', LARGE);
+    await page.waitForSelector('.banner[data-kind=warning]');
+    expect(await page.locator('.banner-text').innerText()).toBe('These files (22.4 MB) need about 156 MB of memory to open; this page can use about 100 MB. The tab may run out of memory. Open anyway?');
+    await shot('23-memory-warning');
+    // nothing has started while the question is open
+    expect(await page.locator('.progress').isHidden()).toBe(true);
+    expect(await page.evaluate(() => document.body.dataset['state'])).toBe('ready');
+    await page.locator('.banner-no').click();
+    await waitIdle(page);
+    expect(await page.locator('.banner').isHidden()).toBe(true);
+    expect(await summary()).toMatch(/^pipe-medium\.vtu — 4,320 cells/);
+    expect(await drawnPixels()).toBe(before);
+    await page.setInputFiles('#file-input', LARGE);
+    await page.waitForSelector('.banner[data-kind=warning]');
+    await page.locator('.banner-yes').click();
+    await page.waitForFunction((n) => document.getElementById('file-summary')!.textContent!.startsWith(n), LARGE_NAME, { timeout: 90_000 });
+    await waitIdle(page, 90_000);
+    expect(await summary()).toMatch(/— 1,001,472 cells/);
+    await shot('24-memory-warning-accepted');
+  });
+
+  it('made no request beyond localhost and logged no error', () => {
+    expect(browser.blocked).toEqual([]);
+    expect(browser.errors).toEqual([]);
+  });
+});
