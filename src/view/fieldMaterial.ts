@@ -8,6 +8,9 @@
 import * as THREE from 'three';
 import { colorMapStrip, type ColorMap } from './colorMaps.ts';
 
+/** Colour of selected surface groups: their tint and rim here, their outline in selectionOutline.ts. */
+export const SELECTION_COLOR = 0xff7a00;
+
 /** Width of the flags texture; group g is at texel (g mod width, g div width). */
 const FLAG_WIDTH = 1024;
 
@@ -18,6 +21,7 @@ uniform vec2 uRange;
 uniform sampler2D uFlags;
 varying float vT;
 varying vec3 vNormal;
+varying vec3 vView;
 varying float vSelected;
 varying float vHidden;
 void main() {
@@ -28,7 +32,9 @@ void main() {
   vHidden = f.r < 0.5 ? 1.0 : 0.0;
   vSelected = f.g;
   vNormal = normalize(normalMatrix * normal);
-  gl_Position = projectionMatrix * modelViewMatrix * vec4(position, 1.0);
+  vec4 viewPosition = modelViewMatrix * vec4(position, 1.0);
+  vView = -viewPosition.xyz;
+  gl_Position = projectionMatrix * viewPosition;
 }`;
 
 const FRAGMENT = /* glsl */ `
@@ -39,17 +45,22 @@ uniform vec3 uSelectColor;
 uniform float uOpacity;
 varying float vT;
 varying vec3 vNormal;
+varying vec3 vView;
 varying float vSelected;
 varying float vHidden;
 void main() {
   if (vHidden > 0.5) discard;
   vec3 c = uSolid > 0.5 ? uSolidColor : texture2D(uMap, vec2(clamp(vT, 0.0, 1.0) * 0.99609375 + 0.001953125, 0.5)).rgb;
-  // selected groups get diagonal stripes of the highlight colour; the colours between stay readable
-  float stripe = step(0.65, fract((gl_FragCoord.x + gl_FragCoord.y) / 16.0));
-  c = mix(c, uSelectColor, vSelected * stripe * 0.8);
+  // selected groups: a light tint, and a rim where the surface turns away at grazing angles toward its
+  // silhouette (a closed body has no outline to draw), opaque even when the surface is see-through; the
+  // field's colours stay readable wherever the surface faces the viewer
+  // how squarely the surface faces the eye (1: head-on, 0: seen edge-on, at a silhouette)
+  float facing = abs(dot(normalize(vNormal), normalize(vView)));
+  float rim = vSelected * (1.0 - smoothstep(0.2, 0.38, facing));
   // a mild headlight: enough to read the shape, little enough to keep colours readable against the legend
-  float light = 0.72 + 0.28 * abs(normalize(vNormal).z);
-  gl_FragColor = vec4(c * light, uOpacity);
+  float light = 0.72 + 0.28 * facing;
+  vec3 lit = mix(c, uSelectColor, 0.05 * vSelected) * light;
+  gl_FragColor = vec4(mix(lit, uSelectColor, 0.85 * rim), max(uOpacity, rim));
   #include <colorspace_fragment>
 }`;
 
@@ -101,7 +112,7 @@ export class FieldMaterial extends THREE.ShaderMaterial {
         uFlags: { value: flagTexture },
         uSolid: { value: 0 },
         uSolidColor: { value: new THREE.Color(0xb8bec6) },
-        uSelectColor: { value: new THREE.Color(0xff7a00) },
+        uSelectColor: { value: new THREE.Color(SELECTION_COLOR) },
         uOpacity: { value: 1 },
       },
     });

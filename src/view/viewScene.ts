@@ -96,6 +96,24 @@ export class ViewScene {
     this.requestRender();
   }
 
+  /**
+   * Uploads the buffers of `objects` (in the scene, visible) to the GPU now, by drawing them into a 1×1
+   * target nobody sees, so that a later frame does not upload them all in one long task.
+   */
+  upload(objects: readonly THREE.Object3D[]): void {
+    if (objects.length === 0) return;
+    const scene = new THREE.Scene(), parents = objects.map((o) => o.parent), culled = objects.map((o) => o.frustumCulled);
+    // the same colour space as frames use, so the same shader programs serve both
+    this.uploadTarget ??= new THREE.WebGLRenderTarget(1, 1, { colorSpace: THREE.SRGBColorSpace });
+    for (const o of objects) { o.frustumCulled = false; scene.add(o); }
+    const previous = this.renderer.getRenderTarget();
+    this.renderer.setRenderTarget(this.uploadTarget);
+    this.renderer.render(scene, this.camera);
+    this.renderer.setRenderTarget(previous);
+    objects.forEach((o, i) => { o.frustumCulled = culled[i]!; parents[i]?.add(o); });
+  }
+  private uploadTarget: THREE.WebGLRenderTarget | undefined;
+
   /** Resolves after the next rendered frame (requests one). */
   nextFrame(): Promise<void> {
     return new Promise((resolve) => { this.once.push(resolve); this.requestRender(); });
