@@ -12,8 +12,9 @@ import type { LoadReport } from '../src/model/loadReport.ts';
 import type { ForceResult } from '../src/surface/forces.ts';
 import type { SetEvaluation } from '../src/study/evaluate.ts';
 import type { ProbeSet } from '../src/study/probeSet.ts';
+import type { GroupOutline } from '../src/surface/groupOutline.ts';
 
-export type { ProbeSet, SetEvaluation };
+export type { GroupOutline, ProbeSet, SetEvaluation };
 
 export type Vec3 = [number, number, number];
 
@@ -64,6 +65,15 @@ export interface Description {
 import type { DrawingValues, FieldChoice, SurfaceDrawing, TriangleDrawing } from '../src/surface/surfaceDrawing.ts';
 
 export type { DrawingValues, FieldChoice, SurfaceDrawing, TriangleDrawing };
+
+/**
+ * The boundary surface for drawing (`drawFaces` of src/surface/surfaceDrawing.ts) and the outline of each
+ * group (`groupOutline.ts`: segments where a group ends, drawn around a selected group; none for a file
+ * without volume cells).
+ */
+export interface SurfaceReply extends SurfaceDrawing {
+  outline: GroupOutline;
+}
 
 /** A cut-plane request. `rho` is a constant density (kg/m³) or the name of a density field. */
 export interface CutRequest {
@@ -150,11 +160,13 @@ export interface ForceRequest {
   pRef: number;
 }
 
-/** A force total (`forceTotals` of src/surface/forces.ts) with the centroid of the selected faces (pin anchor). */
+/** A force total (`forceTotals` of src/surface/forces.ts) with the centroid of the selected faces (pin anchor) and whether they close. */
 export interface ForceReply {
   result: ForceResult;
   centroid: Vec3;
   groupNames: string[];
+  /** Edge counts of the selected faces (`surfaceQuality` of src/surface/surfaceQuality.ts): closed when every edge joins two faces that agree. */
+  surface: { closed: boolean; openEdges: number; nonManifoldEdges: number; inconsistentEdges: number };
 }
 
 /** The worker's API. */
@@ -165,8 +177,8 @@ export interface ComputeApi {
   cancelLoad(): void;
   /** The held dataset's description; rejects when nothing is loaded. */
   describe(): Promise<Description>;
-  /** The boundary surface for drawing. */
-  surface(): Promise<SurfaceDrawing>;
+  /** The boundary surface for drawing, with the groups' outlines. */
+  surface(): Promise<SurfaceReply>;
   /** A field's values on the boundary surface, in `surface()`'s vertex order. */
   surfaceValues(field: FieldChoice): Promise<DrawingValues>;
   /** Cuts the dataset by a plane: triangles coloured by `request.color`, and integrals. */

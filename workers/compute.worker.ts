@@ -16,7 +16,8 @@ import { evaluateProbeSet } from '../src/study/evaluate.ts';
 import type { ProbeSet } from '../src/study/probeSet.ts';
 import { checkProbeSet } from '../src/study/probeSetCheck.ts';
 import { surfaceLoads } from '../src/surface/surfaceLoads.ts';
-import type { LoadProgress } from '../src/io/loadOptions.ts';
+import { surfaceQuality } from '../src/surface/surfaceQuality.ts';
+import { checkAborted, type LoadProgress } from '../src/io/loadOptions.ts';
 import { loadReport } from '../src/model/loadReport.ts';
 import type { Dataset } from '../src/model/dataset.ts';
 import { datasetBounds } from '../src/model/bounds.ts';
@@ -25,8 +26,10 @@ import { getBoundaryFaces, getSurfaceGroups } from '../src/surface/surfaceCache.
 import { facesOfGroups, type SurfaceGroups } from '../src/surface/surfaceGroups.ts';
 import type {
   ComputeApi, CutReply, CutRequest, Description, DrawingValues, FieldChoice, ForceReply, ForceRequest, SetEvaluation,
-  LineReply, LineRequest, LoadRequest, ProgressCallback, SurfaceDrawing,
+  LineReply, LineRequest, LoadRequest, ProgressCallback, SurfaceReply,
 } from './api.ts';
+import { groupOutline } from '../src/surface/groupOutline.ts';
+import { ReadMeter } from './readMeter.ts';
 import { drawFaces, drawTriangleSet, faceValues, surfaceCellFaces, type FaceList } from '../src/surface/surfaceDrawing.ts';
 
 /** Smallest interval between two progress calls to the main thread (ms). */
@@ -42,9 +45,11 @@ interface Held {
   boundary?: { faces: BoundaryFaces; groups: SurfaceGroups };
 }
 
-/** A chosen file as a byte source: ranges of a Blob are read only when the reader needs them. */
-function sourceOf(data: Blob | Uint8Array, name: string): ByteSource {
-  return data instanceof Uint8Array ? bytesSource(name, data) : blobSource(data, name);
+/** A chosen file as a byte source: ranges of a Blob are read only when the reader needs them (and counted by the meter). */
+function sourceOf(data: Blob | Uint8Array, name: string, meter: ReadMeter | undefined): ByteSource {
+  if (data instanceof Uint8Array) return bytesSource(name, data);
+  const src = blobSource(data, name);
+  return meter ? meter.wrap(src) : src;
 }
 
 /** Reads a same-origin URL with byte progress. */
@@ -69,18 +74,21 @@ async function fetchBytes(url: string, report: (done: number, total: number) => 
   return out;
 }
 
-/** Rate-limits progress calls; the last call of a stage always goes through via `flush`. */
-function throttle(cb: ProgressCallback | undefined): { send: (p: LoadProgress) => void; flush: () => void } {
-  let last = 0, pending: LoadProgress | undefined;
+/**
+ * Rate-limits progress calls (`send`); `now` always goes through, so a long step that follows (such as
+ * finding the boundary surfaces) shows its own name.
+ */
+function throttle(cb: ProgressCallback | undefined): { send: (p: LoadProgress) => void; now: (p: LoadProgress) => void } {
+  let last = 0;
+  const now = (p: LoadProgress) => { last = performance.now(); void cb?.(p); };
   return {
-    send(p) {
-      pending = p;
-      const now = performance.now();
-      if (cb && now - last >= PROGRESS_INTERVAL_MS) { last = now; pending = undefined; void cb(p); }
-    },
-    flush() { if (cb && pending) void cb(pending); pending = undefined; },
+    send(p) { if (performance.now() - last >= PROGRESS_INTERVAL_MS) now(p); },
+    now,
   };
 }
+
+/** Lets queued messages (a cancel) run before the load commits. */
+const yieldToMessages = (): Promise<void> => new Promise((r) => setTimeout(r, 0));
 
 /** Builds the API over a fresh, empty state. */
 export function createComputeApi(): ComputeApi {
@@ -104,6 +112,7 @@ export function createComputeApi(): ComputeApi {
       try {
         let name: string, main: ByteSource, fileBytes: number;
         let resolveSource: ((rel: string) => Promise<ByteSource>) | undefined;
+        let meter: ReadMeter | undefined;
         if (request.kind === 'url') {
           name = request.name;
           const bytes = await fetchBytes(request.url, (done, total) => progress.send({ stage: 'fetching', bytesDone: done, bytesTotal: total }), controller.signal);
@@ -111,7 +120,11 @@ export function createComputeApi(): ComputeApi {
           fileBytes = bytes.length;
         } else {
           name = request.main.path.split('/').pop()!;
-          main = sourceOf(request.main.data, name);
+          const files = [request.main, ...request.others];
+          // in-memory bytes are not counted as read (readers view them whole): their positions are reported as given
+          if (files.every((f) => !(f.data instanceof Uint8Array))) meter = new ReadMeter(files.reduce((n, f) => n + (f.data as Blob).size, 0));
+          const m = meter;
+          main = sourceOf(request.main.data, name, m);
           fileBytes = main.size;
           const folder = request.main.path.includes('/') ? request.main.path.slice(0, request.main.path.lastIndexOf('/') + 1) : '';
           const byPath = new Map(request.others.map((f) => [normalisePath(f.path), f]));
@@ -122,20 +135,23 @@ export function createComputeApi(): ComputeApi {
             const sameName = [...byPath.entries()].filter(([p]) => p.split('/').pop() === base);
             const f = byPath.get(want) ?? byPath.get(normalisePath(rel)) ?? (sameName.length === 1 ? sameName[0]![1] : undefined);
             if (!f) throw new Error(`${name}: piece "${rel}" is missing: choose it together with the set file (or open the folder)`);
-            const src = sourceOf(f.data, base);
+            const src = sourceOf(f.data, base, m);
             fileBytes += src.size;
             return src;
           };
         }
+        const total = meter?.total ?? fileBytes;
         const dataset = await readDatasetFrom(main, {
-          onProgress: (p) => progress.send(p),
+          onProgress: (p) => progress.send(meter ? { stage: p.stage, bytesDone: meter.done(p), bytesTotal: total } : p),
           signal: controller.signal,
           ...(resolveSource ? { resolveSource } : {}),
         });
-        progress.send({ stage: 'summarising', bytesDone: fileBytes, bytesTotal: fileBytes });
-        progress.flush();
-        progress.send({ stage: 'finding boundary surfaces', bytesDone: fileBytes, bytesTotal: fileBytes });
-        held = describe(dataset, fileBytes, t0);
+        progress.now({ stage: 'finding boundary surfaces', bytesDone: total, bytesTotal: total });
+        const found = describe(dataset, fileBytes, t0);
+        // a cancel that arrived while the surfaces were found still wins: the previous dataset stays
+        await yieldToMessages();
+        checkAborted(controller.signal, name);
+        held = found;
         return held.description;
       } finally {
         if (loading === controller) loading = undefined;
@@ -146,10 +162,12 @@ export function createComputeApi(): ComputeApi {
 
     async describe(): Promise<Description> { return need().description; },
 
-    async surface(): Promise<SurfaceDrawing> {
+    async surface(): Promise<SurfaceReply> {
       const h = need();
       const d = drawFaces(h.dataset, facesOf(h), h.boundary?.groups.faceGroup ?? null);
-      return Comlink.transfer(d, [d.positions.buffer, d.normals.buffer, d.groups.buffer, d.edges.buffer, d.edgeGroups.buffer]);
+      const outline = h.boundary ? groupOutline(h.dataset, h.boundary.faces, h.boundary.groups.faceGroup) : { positions: new Float32Array(0), groups: new Int32Array(0) };
+      const reply: SurfaceReply = { ...d, outline };
+      return Comlink.transfer(reply, [d.positions.buffer, d.normals.buffer, d.groups.buffer, d.edges.buffer, d.edgeGroups.buffer, outline.positions.buffer, outline.groups.buffer]);
     },
 
     async surfaceValues(field: FieldChoice): Promise<DrawingValues> {
@@ -202,7 +220,11 @@ export function createComputeApi(): ComputeApi {
       });
       let cx = 0, cy = 0, cz = 0, a = 0;
       for (const i of picked) { const g = groups.groups[i]!; cx += g.area * g.centroid[0]; cy += g.area * g.centroid[1]; cz += g.area * g.centroid[2]; a += g.area; }
-      return { result, centroid: a > 0 ? [cx / a, cy / a, cz / a] : [0, 0, 0], groupNames: picked.map((i) => groups.groups[i]!.name) };
+      const q = surfaceQuality(faces, selection);
+      return {
+        result, centroid: a > 0 ? [cx / a, cy / a, cz / a] : [0, 0, 0], groupNames: picked.map((i) => groups.groups[i]!.name),
+        surface: { closed: q.closed, openEdges: q.openEdges, nonManifoldEdges: q.nonManifoldEdges, inconsistentEdges: q.inconsistentEdges },
+      };
     },
 
     async evaluateProbeSet(set: ProbeSet): Promise<SetEvaluation> {

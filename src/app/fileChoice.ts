@@ -1,6 +1,7 @@
 /**
  * Turning the files a user chose (several files, or a folder) into a load request: which one to open,
- * and the others by path relative to it. Also the memory check before a large load.
+ * and the others by path relative to it. Also the memory check before a large load (an estimate from the
+ * files' size and how they store their arrays).
  */
 import type { InputFile, LoadRequest } from '../../workers/api.ts';
 import { formatBytes } from '../ui/format.ts';
@@ -8,8 +9,38 @@ import { formatBytes } from '../ui/format.ts';
 const SET_FILE = /\.(pvtu|pvtp|vtm)$/i;
 const RESULT_FILE = /\.(vtk|vtu|vtp)$/i;
 
-/** Memory a load needs relative to the file size (decoded arrays plus derived surfaces; common practice estimate). */
-export const MEMORY_PER_FILE_BYTE = 2.5;
+/**
+ * Peak memory of a load per byte of file, by how the file stores its arrays: the decoded arrays per file
+ * byte times the reader's peak over the decoded arrays, both measured with `fieldtally bench --stages load`
+ * on the 1M-cell pipe and sphere of sample-fields/large (compressed 4.0–5.6, text and base64 1.5–1.7,
+ * raw binary 0.74–0.79), plus a quarter for the boundary surfaces and their drawing (common practice
+ * margin). Compression ratios vary with the data; smooth fields compress best, so `compressed` errs high.
+ */
+export const MEMORY_PER_FILE_BYTE = { compressed: 7, text: 2, raw: 1, unknown: 2.5 } as const;
+
+export type StorageKind = keyof typeof MEMORY_PER_FILE_BYTE;
+
+/** Bytes read from the start of a file to tell how it stores its arrays. */
+const HEAD_BYTES = 4096;
+
+/**
+ * How a VTK file stores its arrays, from its first bytes: zlib-compressed XML; text or base64 (inline XML
+ * data, base64 appended data, ASCII legacy files); raw binary (raw appended XML, binary legacy files).
+ */
+export function storageKind(head: string): StorageKind {
+  const legacy = /^\s*# vtk DataFile[^\n]*\n[^\n]*\n\s*(ASCII|BINARY)/i.exec(head);
+  if (legacy) return legacy[1]!.toUpperCase() === 'ASCII' ? 'text' : 'raw';
+  const root = /<VTKFile\b[^>]*>/.exec(head)?.[0];
+  if (!root) return 'unknown';
+  const formats = new Set([...head.matchAll(/\bformat\s*=\s*["'](ascii|binary|appended)["']/g)].map((m) => m[1]));
+  // the compressor applies to binary and appended arrays only
+  if (/\bcompressor\s*=\s*["'][^"']+["']/.test(root) && (formats.has('binary') || formats.has('appended'))) return 'compressed';
+  if (formats.has('ascii') || formats.has('binary')) return 'text';
+  if (formats.has('appended')) return /<AppendedData\b[^>]*\bencoding\s*=\s*["']base64["']/.test(head) ? 'text' : 'raw';
+  return 'unknown';
+}
+
+const sizeOf = (f: InputFile): number => (f.data instanceof Uint8Array ? f.data.length : f.data.size);
 
 /** The path of a chosen file: its path inside a chosen folder, or its name. */
 function pathOf(f: File): string {
@@ -37,18 +68,28 @@ export function loadRequestFor(files: readonly File[]): LoadRequest {
 /** Total bytes of a request's files. */
 export function requestBytes(r: LoadRequest): number {
   if (r.kind === 'url') return 0;
-  const size = (f: InputFile) => (f.data instanceof Uint8Array ? f.data.length : f.data.size);
-  return size(r.main) + r.others.reduce((s, f) => s + size(f), 0);
+  return sizeOf(r.main) + r.others.reduce((s, f) => s + sizeOf(f), 0);
 }
 
 /**
- * A warning when a load of `bytes` would likely need more memory than the page may use, or undefined.
- * Uses the JS heap limit where the browser tells it, else the device memory.
+ * Memory a request will likely need at its peak (bytes): its bytes times the factor for how its largest
+ * data file stores its arrays (the set file itself when a set is chosen only holds names). 0 for a URL.
  */
-export function memoryWarning(bytes: number): string | undefined {
-  const need = bytes * MEMORY_PER_FILE_BYTE;
+export async function memoryNeeded(r: LoadRequest): Promise<number> {
+  if (r.kind === 'url') return 0;
+  const files = [r.main, ...r.others];
+  const data = r.others.length ? files.reduce((a, b) => (sizeOf(b) > sizeOf(a) ? b : a)) : r.main;
+  const head = data.data instanceof Uint8Array ? data.data.subarray(0, HEAD_BYTES) : new Uint8Array(await data.data.slice(0, HEAD_BYTES).arrayBuffer());
+  return requestBytes(r) * MEMORY_PER_FILE_BYTE[storageKind(new TextDecoder('latin1').decode(head))];
+}
+
+/**
+ * A warning when a load of `bytes` that needs about `need` bytes of memory would likely need more than
+ * the page may use, or undefined. Uses the JS heap limit where the browser tells it, else the device memory.
+ */
+export function memoryWarning(bytes: number, need: number): string | undefined {
   const heap = (performance as Performance & { memory?: { jsHeapSizeLimit: number } }).memory?.jsHeapSizeLimit;
-  const device = (navigator as Navigator & { deviceMemory?: number }).deviceMemory;
+  const device = typeof navigator === 'undefined' ? undefined : (navigator as Navigator & { deviceMemory?: number }).deviceMemory;
   const limit = heap ?? (device ? device * 1e9 / 2 : undefined);
   if (!limit || need <= limit) return undefined;
   return `These files (${formatBytes(bytes)}) need about ${formatBytes(need)} of memory to open; this page can use about ${formatBytes(limit)}. The tab may run out of memory. Open anyway?`;

@@ -11,6 +11,7 @@ import { CAUTION } from '../ui/caution.ts';
 import { download } from '../ui/download.ts';
 import { formatVec } from '../ui/format.ts';
 import { LineChart, type ChartData } from '../ui/lineChart.ts';
+import { classifyNotes } from '../ui/notes.ts';
 import type { ProbeResult, Quantity } from '../ui/results.ts';
 import { UNITS, fieldUnit } from '../ui/units.ts';
 import { LineProbeWidget } from '../view/lineProbeWidget.ts';
@@ -216,7 +217,7 @@ function lineResult(l: Line, r: LineReply): ProbeResult {
   const definition = `${formatVec([l.ax, l.ay, l.az])} → ${formatVec([l.bx, l.by, l.bz])} m, ${l.samples} samples`;
   const mid: Vec3 = [(l.ax + l.bx) / 2, (l.ay + l.by) / 2, (l.az + l.bz) / 2];
   const base = { id: l.id, kind: 'line' as const, label: l.label, anchor: [l.bx, l.by, l.bz] as Vec3, definition, pinVisible: true };
-  if (r.outside) return { ...base, anchor: mid, quantities: [], note: 'the line lies wholly outside the mesh: no samples' };
+  if (r.outside) return { ...base, anchor: mid, quantities: [], notes: classifyNotes(['the line lies wholly outside the mesh: no samples']) };
   const q: Quantity[] = [
     { key: 'length', label: 'L', value: r.length, unit: UNITS.length, pinned: false },
     { key: 'coveredLength', label: 'L inside the mesh', value: r.stats.coveredLength, unit: UNITS.length, pinned: true },
@@ -233,5 +234,5 @@ function lineResult(l: Line, r: LineReply): ProbeResult {
     q.push({ key: `${s.label}.max`, label: `${s.label} max`, value: s.stats.max, unit, pinned: false });
   }
   const gaps = r.stats.gaps.length ? `; ${r.stats.gaps.length} stretch(es) outside the mesh left out` : '';
-  return { ...base, quantities: q, ...(gaps ? { note: `${r.validCount} of ${r.count} samples inside the mesh${gaps}` } : {}) };
+  return { ...base, quantities: q, ...(gaps ? { notes: classifyNotes([`${r.validCount} of ${r.count} samples inside the mesh${gaps}`]) } : {}) };
 }

@@ -8,6 +8,7 @@ import type * as THREE from 'three';
 import type { CutReply, Vec3 } from '../../workers/api.ts';
 import type { CutPlaneProbe, Probe } from '../study/probeSet.ts';
 import { formatNumber, formatVec } from '../ui/format.ts';
+import { classifyNotes } from '../ui/notes.ts';
 import type { ProbeResult, Quantity } from '../ui/results.ts';
 import { UNITS, fieldUnit } from '../ui/units.ts';
 import { CutPlaneLayer } from '../view/cutPlaneLayer.ts';
@@ -287,7 +288,7 @@ function planeResult(p: Plane, r: CutReply, density: number): ProbeResult {
     (p.seed ? `, seed ${formatVec(p.seed)} m` : '') + `, ρ = ${formatNumber(density)} kg/m³`;
   const anchor: Vec3 = s.centroid ? [...s.centroid] : [p.ox, p.oy, p.oz];
   const base = { id: p.id, kind: 'plane' as const, label: p.label, anchor, definition, pinVisible: true };
-  if (s.empty) return { ...base, quantities: [], note: s.reason ?? 'the plane cuts no cell' };
+  if (s.empty) return { ...base, quantities: [], notes: classifyNotes([s.reason ?? 'the plane cuts no cell']) };
   const pres = s.roles.pressure?.replace(/ \((point|cell)\)$/, '');
   const vel = s.roles.velocity?.replace(/ \((point|cell)\)$/, '');
   const q: Quantity[] = [];
@@ -311,5 +312,5 @@ function planeResult(p: Plane, r: CutReply, density: number): ProbeResult {
   add('uniformityIndex', 'uniformity γ', s.uniformityIndex, '');
   if (s.reverseFlow) add('reverseFlowAreaShare', 'reverse-flow area share', s.reverseFlow.areaShare, '');
   const notes = [...s.notes, ...(r.region.length ? [`region: ${r.region.join('; ')}`] : [])];
-  return { ...base, quantities: q, ...(notes.length ? { note: notes.join('; ') } : {}) };
+  return { ...base, quantities: q, ...(notes.length ? { notes: classifyNotes(notes) } : {}) };
 }

@@ -18,7 +18,9 @@ import { siFactors } from '../study/siDataset.ts';
 import { unitLabel } from '../study/units.ts';
 import { ComparisonTable } from '../ui/comparisonTable.ts';
 import { download } from '../ui/download.ts';
+import { classifyNotes } from '../ui/notes.ts';
 import type { ProbeKind, ProbeResult } from '../ui/results.ts';
+import { assignNoiseScales } from '../ui/roundingNoise.ts';
 import type { ForceTool } from './forceTool.ts';
 import type { LineTool } from './lineTool.ts';
 import type { PlaneTool } from './planeTool.ts';
@@ -36,11 +38,12 @@ const KIND: Record<Probe['kind'], ProbeKind> = {
 export function outcomeResult(o: ProbeOutcome, fallbackAnchor: [number, number, number]): ProbeResult {
   const pinned = new Set(headline(o, 2).map((q) => q.key));
   const notes = [...(o.ok ? [] : [`FAILED: ${o.error}`]), ...o.notes];
+  const quantities = o.quantities.map((q) => ({ key: q.key, label: q.label, value: q.value, unit: unitLabel(q.unit), pinned: pinned.has(q.key) }));
   return {
     id: o.id, kind: KIND[o.kind], label: o.label, anchor: o.anchor ?? fallbackAnchor,
     definition: `${o.definition} — evaluated from the probe set`, pinVisible: true,
-    quantities: o.quantities.map((q) => ({ key: q.key, label: q.label, value: q.value, unit: unitLabel(q.unit), pinned: pinned.has(q.key) })),
-    ...(notes.length ? { note: notes.join('; ') } : {}),
+    quantities: assignNoiseScales(KIND[o.kind], quantities),
+    ...(notes.length ? { notes: classifyNotes(notes) } : {}),
   };
 }
 

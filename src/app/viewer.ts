@@ -6,7 +6,7 @@
 import * as Comlink from 'comlink';
 import GUI from 'lil-gui';
 import * as THREE from 'three';
-import type { Description, FieldChoice, LoadRequest } from '../../workers/api.ts';
+import type { Description, FieldChoice, LoadRequest, SurfaceReply } from '../../workers/api.ts';
 import type { Bounds } from '../model/bounds.ts';
 import type { LoadReport } from '../model/loadReport.ts';
 import { AboutBox } from '../ui/aboutBox.ts';
@@ -24,7 +24,7 @@ import { LineProbeWidget } from '../view/lineProbeWidget.ts';
 import { SurfaceLayer } from '../view/surfaceLayer.ts';
 import { ViewScene, type ViewPreset } from '../view/viewScene.ts';
 import type { Compute } from './computeClient.ts';
-import { memoryWarning, requestBytes } from './fileChoice.ts';
+import { memoryNeeded, memoryWarning, requestBytes } from './fileChoice.ts';
 
 /** A field the panel offers: `key` is `point:name` or `cell:name`. */
 export interface FieldEntry {
@@ -68,6 +68,8 @@ export class Viewer {
   private readonly resultListeners: ((id: string) => void)[] = [];
   private readonly tools: PointerTool[] = [];
   private pending = 0;
+  /** Counts loads started, so a superseded load neither reports nor hides the newer one's progress. */
+  private loadGeneration = 0;
   private colorFolder: GUI;
   private groupFolder: GUI | undefined;
   /** Colour and display settings, edited by the panel. */
@@ -91,7 +93,7 @@ export class Viewer {
     this.pins = new PinOverlay(els.overlay, (p) => this.view.project(p));
     this.view.onFrame(() => this.pins.update());
     this.progress = new ProgressBar(els.progress);
-    this.progress.cancel.onclick = () => void this.compute.cancelLoad();
+    this.progress.cancel.onclick = () => { this.progress.cancelling(); void this.compute.cancelLoad(); };
     this.about = new AboutBox(document.body);
     this.summary = els.summary;
     this.table = new ResultsTable(els.results, {
@@ -168,42 +170,51 @@ export class Viewer {
 
   /**
    * Loads a request; on success replaces everything, on failure shows the reader's error and keeps
-   * the previous state (the worker keeps its dataset too).
+   * the previous state (the worker keeps its dataset too). A file that likely needs more memory than the
+   * page may use is announced first. A newer load supersedes this one silently (the worker drops it).
    */
   async load(request: LoadRequest): Promise<boolean> {
     const bytes = requestBytes(request);
-    const warn = memoryWarning(bytes);
-    if (warn && !(await this.banner.confirm(warn, 'Open anyway', 'Cancel'))) return false;
+    const warn = memoryWarning(bytes, await memoryNeeded(request));
+    if (warn && !(await this.banner.confirm(warn, 'Open anyway', "Don't open"))) return false;
+    const gen = ++this.loadGeneration;
+    const current = () => gen === this.loadGeneration;
     this.banner.clear();
     document.body.dataset['state'] = 'loading';
     this.progress.show('starting', 0, bytes);
-    const onProgress = Comlink.proxy((p: { stage: string; bytesDone: number; bytesTotal: number }) => this.progress.show(p.stage, p.bytesDone, p.bytesTotal));
+    const onProgress = Comlink.proxy((p: { stage: string; bytesDone: number; bytesTotal: number }) => {
+      if (current()) this.progress.show(p.stage, p.bytesDone, p.bytesTotal);
+    });
     try {
       const d = await this.track(this.compute.load(request, onProgress));
-      this.progress.show('building the surface', 1, 1);
+      if (!current()) return false;
+      // the worker now holds the new file: a cancel could no longer bring the previous one back
+      this.progress.show('drawing the surfaces', bytes, bytes, false);
       const drawing = await this.track(this.compute.surface());
+      if (!current()) return false;
       this.openRequest = request;
       this.install(d, drawing);
       document.body.dataset['state'] = 'ready';
       return true;
     } catch (e) {
+      if (!current()) return false;
       const err = e as Error;
       if (err.name === 'AbortError' || /cancelled/.test(err.message)) this.banner.notice('Loading cancelled; the previous file stays open.');
       else this.banner.error(`Could not open the file: ${err.message}`);
       document.body.dataset['state'] = this.description ? 'ready' : 'empty';
       return false;
     } finally {
-      this.progress.hide();
+      if (current()) this.progress.hide();
     }
   }
 
-  private install(d: Description, drawing: Awaited<ReturnType<Compute['surface']>>): void {
+  private install(d: Description, drawing: SurfaceReply): void {
     for (const l of this.beforeDatasetListeners) l();
     this.description = d;
     for (const id of [...this.results.keys()]) this.removeResult(id, true);
     if (this.surface) { this.view.root.remove(this.surface.group); this.surface.dispose(); }
     const groupCount = Math.max(1, ...d.groups.map((g) => g.id + 1));
-    this.surface = new SurfaceLayer(drawing, this.colorMap, groupCount);
+    this.surface = new SurfaceLayer(drawing, this.colorMap, groupCount, this.view.software);
     this.settings.opacity = 1;
     this.surface.setEdgesVisible(this.settings.edges);
     this.surface.setOpacity(this.settings.opacity);
@@ -220,9 +231,21 @@ export class Viewer {
     for (const l of this.datasetListeners) l(d);
     this.fitToShown();
     this.view.view('iso');
-    // the benchmark times "files chosen" → this mark (first coloured picture on screen)
-    void this.recolor().then(() => this.view.nextFrame()).then(() => performance.mark('fieldtally:coloured'));
+    // the benchmark times "files chosen" → this mark (first coloured picture on screen, every part shown)
+    void Promise.all([this.uploadSurface(this.surface), this.recolor()]).then(() => this.view.nextFrame()).then(() => performance.mark('fieldtally:coloured'));
     if (d.report.warnings.length) this.banner.notice(`Opened with warnings: ${d.report.warnings.slice(0, 3).join('; ')}`);
+  }
+
+  /**
+   * Uploads a large surface part by part, one task each (software rendering: an upload blocks the page for
+   * its size); resolves when every part is up, with a frame requested to show them.
+   */
+  private async uploadSurface(s: SurfaceLayer): Promise<void> {
+    while (!s.complete && this.surface === s) {
+      await new Promise((r) => setTimeout(r, 0));
+      if (this.surface === s) this.view.upload(s.nextParts());
+    }
+    this.view.requestRender();
   }
 
   // ---- colour ----
@@ -391,8 +414,10 @@ export class Viewer {
 function warmUpObjects(map: ColorMap): THREE.Object3D[] {
   const tri = () => ({ positions: new Float32Array([0, 0, 0, 1, 0, 0, 0, 1, 0]), normals: new Float32Array([0, 0, 1, 0, 0, 1, 0, 0, 1]), groups: new Float32Array(3) });
   const box: [number, number, number, number, number, number] = [0, 1, 0, 1, 0, 0];
-  const surface = new SurfaceLayer({ ...tri(), edges: new Float32Array(6), edgeGroups: new Float32Array(2), box }, map, 1);
-  const seeThrough = new SurfaceLayer({ ...tri(), edges: new Float32Array(6), edgeGroups: new Float32Array(2), box }, map, 1);
+  const drawing = () => ({ ...tri(), edges: new Float32Array(6), edgeGroups: new Float32Array(2), box, outline: { positions: new Float32Array(6), groups: new Int32Array(1) } });
+  const surface = new SurfaceLayer(drawing(), map, 1);
+  surface.setGroupSelected(0, true);
+  const seeThrough = new SurfaceLayer(drawing(), map, 1);
   seeThrough.setOpacity(0.35);
   const plane = new CutPlaneLayer(map, 1);
   plane.setTriangles({ ...tri(), values: new Float32Array(3), range: [0, 1] }, true);

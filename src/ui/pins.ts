@@ -3,9 +3,10 @@
  * leader line. The overlay follows the camera (re-laid out after every frame) and the same layout and
  * drawing serve the PNG export (`drawPins`).
  */
-import { withUnit } from './format.ts';
+import { notesText } from './notes.ts';
 import { layoutPins, leaderEnd, type PinBox, type PlacedPin } from './pinLayout.ts';
 import type { ProbeResult } from './results.ts';
+import { quantityText } from './roundingNoise.ts';
 
 /** Pin colours (also looked for in exported pictures by the browser test). */
 export const PIN_STYLE = {
@@ -23,11 +24,12 @@ export const PIN_STYLE = {
 /** Screen position of a world point, as the view computes it. */
 export type Projector = (p: [number, number, number]) => { x: number; y: number; behind: boolean };
 
-/** Text lines of a pin: title, then `label = value unit` per pinned quantity (or the note). */
+/** Text lines of a pin: title, then `label = value unit` per pinned quantity, rounding noise marked (or the notes). */
 export function pinLines(r: ProbeResult): { title: string; rows: { key: string; text: string }[] } {
-  const rows = r.quantities.filter((q) => q.pinned).map((q) => ({ key: q.key, text: `${q.label} = ${withUnit(q.value, q.unit)}` }));
+  const rows = r.quantities.filter((q) => q.pinned).map((q) => ({ key: q.key, text: `${q.label} = ${quantityText(q)}` }));
   // a long note (a failure's message) is cut on the pin; the table shows it whole
-  if (rows.length === 0 && r.note) rows.push({ key: 'note', text: r.note.length > 90 ? `${r.note.slice(0, 89)}…` : r.note });
+  const note = notesText(r.notes);
+  if (rows.length === 0 && note) rows.push({ key: 'note', text: note.length > 90 ? `${note.slice(0, 89)}…` : note });
   return { title: r.label, rows };
 }
 

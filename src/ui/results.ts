@@ -4,6 +4,8 @@
  */
 import { CAUTION } from './caution.ts';
 import { formatNumber } from './format.ts';
+import { notesText, type ResultNote } from './notes.ts';
+import { noiseMark, type NoiseScale } from './roundingNoise.ts';
 
 /** `plane`, `line`, `force` come from the view's tools; the others only from a loaded probe set. */
 export type ProbeKind = 'plane' | 'line' | 'force' | 'point' | 'pressure-loss' | 'mass-balance';
@@ -20,6 +22,8 @@ export interface Quantity {
   unit: string;
   /** Shown on the pin (every quantity is in the table). */
   pinned: boolean;
+  /** What the value is judged against for rounding noise (`roundingNoise.ts`); none: never marked. */
+  scale?: NoiseScale;
 }
 
 /** One probe's results. */
@@ -34,8 +38,8 @@ export interface ProbeResult {
   /** What the probe is, in words, for exports: position, normal, region, reference values. */
   definition: string;
   quantities: Quantity[];
-  /** A note on the probe, e.g. "plane misses the mesh", shown instead of numbers when there are none. */
-  note?: string;
+  /** Notes on the probe (an explanation, or a warning such as "plane misses the mesh"); a pin without numbers shows them. */
+  notes?: ResultNote[];
   /** The pin can be hidden without removing the probe. */
   pinVisible: boolean;
 }
@@ -47,14 +51,14 @@ export interface ExportContext {
   tool: string;
 }
 
-/** The results as aligned plain text (the table's "copy as text"), caution included. */
+/** The results as aligned plain text (the table's "copy as text"), rounding noise marked, caution included. */
 export function resultsAsText(results: readonly ProbeResult[], ctx: ExportContext): string {
   const lines = [`${ctx.tool} results — ${ctx.file} — ${ctx.createdAt}`, ''];
   for (const r of results) {
     lines.push(`${r.label} (${r.definition})`);
-    if (r.note) lines.push(`  ${r.note}`);
+    for (const n of r.notes ?? []) lines.push(`  ${n.text}`);
     const w = Math.max(0, ...r.quantities.map((q) => q.label.length));
-    for (const q of r.quantities) lines.push(`  ${q.label.padEnd(w)}  ${formatNumber(q.value, 4, true)}${q.unit ? ' ' + q.unit : ''}`);
+    for (const q of r.quantities) lines.push(`  ${q.label.padEnd(w)}  ${formatNumber(q.value, 4, true)}${q.unit ? ' ' + q.unit : ''}${noiseMark(q.value, q.scale)}`);
     lines.push('');
   }
   lines.push(`Caution: ${CAUTION}`);
@@ -78,12 +82,12 @@ export function resultsAsCsv(results: readonly ProbeResult[], ctx: ExportContext
     for (const q of r.quantities) {
       rows.push([r.label, r.kind, r.definition, q.key, q.label, Number.isFinite(q.value) ? String(q.value) : '', q.unit].map(csvCell).join(','));
     }
-    if (r.note && r.quantities.length === 0) rows.push([r.label, r.kind, r.definition, 'note', r.note, '', ''].map(csvCell).join(','));
+    if (r.notes?.length && r.quantities.length === 0) rows.push([r.label, r.kind, r.definition, 'note', notesText(r.notes), '', ''].map(csvCell).join(','));
   }
   return rows.join('\n') + '\n';
 }
 
-/** The results as a JSON document (values at full precision; NaN becomes null). */
+/** The results as a JSON document (values at full precision; NaN becomes null; `note` all notes, `notes` each with its level). */
 export function resultsAsJson(results: readonly ProbeResult[], ctx: ExportContext): string {
   return JSON.stringify({
     tool: ctx.tool,
@@ -92,7 +96,7 @@ export function resultsAsJson(results: readonly ProbeResult[], ctx: ExportContex
     caution: CAUTION,
     probes: results.map((r) => ({
       id: r.id, kind: r.kind, label: r.label, definition: r.definition, anchor: r.anchor,
-      ...(r.note ? { note: r.note } : {}),
+      ...(r.notes?.length ? { note: notesText(r.notes), notes: r.notes } : {}),
       quantities: r.quantities.map((q) => ({ key: q.key, label: q.label, value: Number.isFinite(q.value) ? q.value : null, unit: q.unit })),
     })),
   }, null, 2);

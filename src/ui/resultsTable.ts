@@ -1,9 +1,11 @@
 /**
- * The results table: every probe and all its numbers, with a pin toggle and a remove button per probe
- * and "copy as text" for the whole table.
+ * The results table: every probe and all its numbers (rounding noise marked), its notes (explanations in a
+ * neutral style, problems as warnings), a pin toggle and a remove button per probe, and "copy as text"
+ * for the whole table.
  */
 import { withUnit } from './format.ts';
 import type { ProbeResult } from './results.ts';
+import { noiseMark } from './roundingNoise.ts';
 
 export interface ResultsTableEvents {
   onTogglePin: (id: string, visible: boolean) => void;
@@ -63,12 +65,13 @@ export class ResultsTable {
       rm.onclick = () => this.events.onRemove(r.id);
       th.append(name, def, pin, rm);
       tr.append(th);
-      if (r.note) {
-        const nr = table.insertRow();
-        const td = nr.insertCell();
+      for (const n of r.notes ?? []) {
+        const td = table.insertRow().insertCell();
         td.colSpan = 2;
         td.className = 'note';
-        td.textContent = r.note;
+        // explanations read as plain notes; only real problems take the warning colour
+        td.dataset['level'] = n.level;
+        td.textContent = n.text;
       }
       for (const q of r.quantities) {
         const row = table.insertRow();
@@ -78,6 +81,13 @@ export class ResultsTable {
         const v = row.insertCell();
         v.className = 'num';
         v.textContent = withUnit(q.value, q.unit);
+        const mark = noiseMark(q.value, q.scale).trim();
+        if (mark) {
+          const m = document.createElement('span');
+          m.className = 'noise-mark';
+          m.textContent = mark;
+          v.append(m);
+        }
       }
     }
     this.body.replaceChildren(table);

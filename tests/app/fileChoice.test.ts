@@ -1,6 +1,11 @@
-/** Choosing what to open from the files a user picked: the only file, else the set file, else a clear refusal. */
+/**
+ * Choosing what to open from the files a user picked: the only file, else the set file, else a clear
+ * refusal. The memory a load needs, judged from the files' size and how they store their arrays.
+ */
+import { readFileSync } from 'node:fs';
+import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
-import { loadRequestFor, requestBytes } from '../../src/app/fileChoice.ts';
+import { MEMORY_PER_FILE_BYTE, loadRequestFor, memoryNeeded, memoryWarning, requestBytes, storageKind } from '../../src/app/fileChoice.ts';
 
 const file = (name: string, size = 3, relative = '') => {
   const f = new File([new Uint8Array(size)], name);
@@ -26,5 +31,48 @@ describe('loadRequestFor', () => {
   });
   it('refuses several result files without a set file', () => {
     expect(() => loadRequestFor([file('a.vtu'), file('b.vtu')])).toThrow(/2 files chosen and none is a set file/);
+  });
+});
+
+/** The first bytes of a file, as the memory estimate reads them. */
+const head = (path: string) => new TextDecoder('latin1').decode(readFileSync(path).subarray(0, 4096));
+const REPO = join(__dirname, '../..');
+const EXTERNAL = join(REPO, '../shared/fields/external');
+
+describe('storageKind', () => {
+  it('tells compressed, text, base64 and raw storage from the first bytes', () => {
+    // the headers of these files are described in ../shared/fields/external/SOURCES.md and sample-fields/README.md
+    expect(storageKind(head(join(REPO, 'sample-fields/pipe-medium.vtu')))).toBe('compressed');
+    expect(storageKind(head(join(REPO, 'sample-fields/pipe-coarse.vtk')))).toBe('raw');
+    expect(storageKind(head(join(EXTERNAL, 'vtk-data/Wedge.vtu')))).toBe('raw');
+    expect(storageKind(head(join(EXTERNAL, 'vtk-data/AngularSector.vtk')))).toBe('text');
+    expect(storageKind(head(join(EXTERNAL, 'vtkio/hexahedron_ascii.vtu')))).toBe('text');
+    expect(storageKind(head(join(EXTERNAL, 'vtkio/hexahedron_inline_binary.vtu')))).toBe('text');
+    expect(storageKind(head(join(EXTERNAL, 'vtk-data/cow.vtp')))).toBe('compressed');
+    // a compressor on a file whose arrays are all ASCII compresses nothing
+    expect(storageKind(head(join(EXTERNAL, 'vtk-data/polyhedron2pieces.vtu')))).toBe('text');
+    expect(storageKind('PK\u0003\u0004 not a VTK file')).toBe('unknown');
+  });
+});
+
+describe('memory check', () => {
+  it('estimates a compressed file at its decoded size, not its file size', async () => {
+    const bytes = readFileSync(join(REPO, 'sample-fields/pipe-medium.vtu'));
+    const r = loadRequestFor([new File([bytes], 'pipe-medium.vtu')]);
+    expect(await memoryNeeded(r)).toBe(bytes.length * MEMORY_PER_FILE_BYTE.compressed);
+    // a set is judged by its largest data file, not by the set file that only names the pieces
+    const set = loadRequestFor([new File(['<VTKFile type="PUnstructuredGrid">'], 'a.pvtu'), new File([bytes], 'a_0.vtu')]);
+    expect(await memoryNeeded(set)).toBe((bytes.length + 34) * MEMORY_PER_FILE_BYTE.compressed);
+    expect(await memoryNeeded({ kind: 'url', url: 'x', name: 'x' })).toBe(0);
+  });
+  it('warns only above the heap limit the page reports', () => {
+    const before = Object.getOwnPropertyDescriptor(performance, 'memory');
+    Object.defineProperty(performance, 'memory', { configurable: true, get: () => ({ jsHeapSizeLimit: 100e6 }) });
+    try {
+      expect(memoryWarning(10e6, 90e6)).toBeUndefined();
+      expect(memoryWarning(22_350_100, 156.45e6)).toBe('These files (22.4 MB) need about 156 MB of memory to open; this page can use about 100 MB. The tab may run out of memory. Open anyway?');
+    } finally {
+      if (before) Object.defineProperty(performance, 'memory', before); else delete (performance as { memory?: unknown }).memory;
+    }
   });
 });

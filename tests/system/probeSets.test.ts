@@ -164,6 +164,12 @@ describe('probe sets in the viewer', () => {
     expect(got).toEqual({ baseline: want.baseline, variant: want.variant, difference: want.difference });
     expect(await row.locator('td[data-column=relative]').innerText()).toMatch(/^-0\.90 %$/);
     expect(await page.locator('#compare-pane .pane-head span').innerText()).toBe('Comparison: pipe-medium.vtu vs baseline pipe-fine.vtu');
+    // the table fits its pane: no sideways scrolling
+    const fit = await page.locator('#compare-pane .results-body').evaluate((el) => ({ scroll: el.scrollWidth, client: el.clientWidth }));
+    expect(fit.scroll).toBeLessThanOrEqual(fit.client);
+    // equal pressures on both meshes differ by rounding only: the difference is kept and marked
+    const same = page.locator('table.comparison tr[data-probe="mid"][data-quantity="staticPressure.areaMean"]');
+    expect(await same.locator('td[data-column=difference]').innerText()).toMatch(/^-?\d\.\d\d×10⁻[¹²³⁴⁵⁶⁷⁸⁹⁰]+ ≈ 0$/);
     await shot('13-baseline-comparison');
     await page.locator('.clear-baseline').click();
     expect(await page.locator('#compare-pane').isHidden()).toBe(true);

@@ -238,8 +238,11 @@ describe('viewer', () => {
     await setNumber('ref. density ρ [kg/m³]', e.rho);
     await setNumber('ref. speed U [m/s]', e.U);
     await setNumber('ref. area A [m²]', e.frontalArea);
+    // opaque, as after opening (the probes carried over from the pipe made it see-through)
+    await setNumber('surface opacity', 1);
     // click the sphere in the middle of the view to select it for the force total
     const box = (await page.locator('#view-canvas').boundingBox())!;
+    const before = readPng(await page.screenshot({ clip: box }));
     await page.mouse.click(box.x + box.width / 2, box.y + box.height / 2);
     await page.waitForSelector('[data-pin="force-1"] [data-quantity="CD"]');
     await waitIdle(page);
@@ -247,6 +250,27 @@ describe('viewer', () => {
     expect(24 / e.Re).toBeCloseTo(e.CD, 6);
     expect(Math.abs(cd - 24 / e.Re) / (24 / e.Re)).toBeLessThan(0.03);
     await shot('09-sphere-force');
+    // the selection shows as an orange rim at the sphere's silhouette, while the field's colours inside stay
+    // as they were (a light tint only): no stripes over them
+    const after = readPng(await page.screenshot({ clip: box }));
+    const orange = (pic: typeof after) => countColor(pic, [0xf0, 0x78, 0x10], 40);
+    expect(orange(after) - orange(before)).toBeGreaterThan(400);
+    // mean colour change over a 40 px square inside the sphere (left of the pin), per channel of 0…255: the
+    // light tint moves it by about 10; the stripes it replaced (80 % orange on a third of the pixels) by 25
+    let change = 0;
+    for (let y = -20; y < 20; y++) {
+      for (let x = -20; x < 20; x++) {
+        const i = 4 * ((Math.round(box.height / 2) + y) * after.width + Math.round(box.width / 2) - 80 + x);
+        for (let c = 0; c < 3; c++) change += Math.abs(after.rgba[i + c]! - before.rgba[i + c]!) / (3 * 1600);
+      }
+    }
+    expect(change).toBeLessThan(17);
+    // lift is rounding noise next to drag here (a sphere in Stokes flow has none): marked, its number kept
+    expect(await pinText('force-1', 'CL')).toMatch(/^-?\d\.\d{3}×10⁻[⁰¹²³⁴⁵⁶⁷⁸⁹]+ \(≈ 0 relative to C_D\)$/);
+    // the undefined centre of pressure of a symmetric body is an explanation, not a warning
+    const note = page.locator('table.results td.note', { hasText: 'centre of pressure undefined' });
+    expect(await note.getAttribute('data-level')).toBe('info');
+    expect(await note.evaluate((td) => getComputedStyle(td).color)).toBe('rgb(75, 85, 99)');
   });
 
   it('made no request beyond localhost', () => {

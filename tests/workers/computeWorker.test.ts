@@ -63,8 +63,20 @@ describe('compute worker contract', () => {
     expect(s.positions.length % 9).toBe(0);
     expect(s.normals.length).toBe(s.positions.length);
     expect(s.groups.length).toBe(s.positions.length / 3);
-    const bytes = s.positions.byteLength + s.normals.byteLength + s.groups.byteLength + s.edges.byteLength + s.edgeGroups.byteLength;
+    const bytes = s.positions.byteLength + s.normals.byteLength + s.groups.byteLength + s.edges.byteLength + s.edgeGroups.byteLength
+      + s.outline.positions.byteLength + s.outline.groups.byteLength;
     expect((await api.transferredBytes()) - before).toBe(bytes);
+    // the groups' outlines are the pipe's two rims (R = 10 mm at z = 0 and 0.1 m, sample-fields/README.md): the
+    // inlet and outlet caps end at one rim each, the wall at both
+    const o = s.outline, count = [0, 0, 0];
+    expect(o.positions.length).toBe(6 * o.groups.length);
+    for (const g of o.groups) count[g]!++;
+    expect(count[0]).toBeGreaterThan(8);
+    expect(count).toEqual([count[0], 2 * count[0]!, count[0]]);
+    for (let i = 0; i < o.positions.length; i += 3) {
+      expect(Math.hypot(o.positions[i]!, o.positions[i + 1]!)).toBeCloseTo(0.01, 6);
+      expect([0, 0.1].some((z) => Math.abs(o.positions[i + 2]! - z) < 1e-7)).toBe(true);
+    }
     const v = await api.surfaceValues({ name: 'p', association: 'point', component: 0 });
     expect(v.values.length).toBe(s.groups.length);
     // Reference: sample-fields/README.md — p = G(L − z), 0.40064 Pa at the inlet, 0 at the outlet
@@ -129,6 +141,8 @@ describe('compute worker contract', () => {
     });
     // Reference: ../shared/REFERENCES.md §3 (C) — C_D = 24/Re; this coarse cell-data file is first order, so within 10 %
     expect(Math.abs(f.result.coefficients!.drag - 24 / e.Re) / (24 / e.Re)).toBeLessThan(0.1);
+    // the sphere's wall is a closed, consistently oriented surface (src/samples/geodesicSphere.ts)
+    expect(f.surface).toEqual({ closed: true, openEdges: 0, nonManifoldEdges: 0, inconsistentEdges: 0 });
   });
 
   it('evaluates a probe set as the command line does, and refuses a malformed set', async () => {
