@@ -8,6 +8,7 @@ import type { ForceReply, Vec3 } from '../../workers/api.ts';
 import type { ResolvedReference } from '../study/evaluate.ts';
 import type { ForceProbe, Probe, ReferenceDoc } from '../study/probeSet.ts';
 import { formatNumber, formatVec } from '../ui/format.ts';
+import { openSurfaceNote } from '../surface/surfaceQuality.ts';
 import { classifyNotes } from '../ui/notes.ts';
 import type { ProbeResult, Quantity } from '../ui/results.ts';
 import { assignNoiseScales } from '../ui/roundingNoise.ts';
@@ -195,12 +196,8 @@ function forceResult(reply: ForceReply, refs: { rho: number; speed: number; area
   const definition = `${reply.groupNames.join(' + ')}; ρ = ${formatNumber(refs.rho)} kg/m³, U = ${formatNumber(refs.speed)} m/s, ` +
     `A = ${formatNumber(refs.area)} m², drag ${formatVec(f.directions.drag)}, lift ${formatVec(f.directions.lift)}; viscous part: ${f.viscous.method}`;
   const notes = classifyNotes(f.notes);
-  const s = reply.surface;
-  if (!s.closed) {
-    const why = [[s.openEdges, 'open'], [s.nonManifoldEdges, 'non-manifold'], [s.inconsistentEdges, 'with disagreeing normals']]
-      .filter(([n]) => n).map(([n, what]) => `${n} ${what} edge${n === 1 ? '' : 's'}`).join(', ');
-    notes.unshift({ level: 'warning', text: `surface not closed (${why}): the total covers the chosen faces only` });
-  }
+  const open = openSurfaceNote(reply.surface);
+  if (open) notes.unshift({ level: 'warning', text: open });
   return {
     id, kind: 'force', label, anchor: reply.centroid as Vec3, definition, quantities: assignNoiseScales('force', q), pinVisible: true,
     ...(notes.length ? { notes } : {}),

@@ -9,6 +9,7 @@
 import { forceTotals, type ForceReference } from '../surface/forces.ts';
 import { facesOfGroups, resolveGroups } from '../surface/surfaceGroups.ts';
 import { surfaceLoads, type LoadOptions } from '../surface/surfaceLoads.ts';
+import { openSurfaceNote, surfaceQuality } from '../surface/surfaceQuality.ts';
 import { addQuantity, fmt6, resolveReference, vecText, type EvalContext, type ProbeOutcome } from './outcome.ts';
 import type { ForceProbe } from './probeSet.ts';
 import { SI } from './units.ts';
@@ -69,4 +70,6 @@ export function evaluateForce(ctx: EvalContext, p: ForceProbe, out: ProbeOutcome
   addQuantity(out, 'wettedArea', 'wetted area', r.area, SI.area);
   if (!reference) out.notes.push('coefficients need the reference density, speed and area (reference.density or a preset, reference.speed, reference.area)');
   out.notes.push(...r.notes.filter((n) => !/^coefficients not computed/.test(n)));
+  const open = openSurfaceNote(surfaceQuality(faces, selection));
+  if (open) out.notes.push(open);
 }

@@ -53,3 +53,18 @@ export function surfaceQuality(faces: BoundaryFaces, selection?: ArrayLike<numbe
     consistentlyOriented: inconsistent === 0,
   };
 }
+
+/** Edge counts of a surface, as `surfaceQuality` gives them (or the worker passes them on). */
+export type EdgeCounts = Pick<SurfaceQuality, 'closed' | 'openEdges' | 'nonManifoldEdges' | 'inconsistentEdges'>;
+
+/**
+ * The note for a force total on a surface that is not closed (`surface not closed (12 open edges): …`), or
+ * undefined for a closed one. An open surface is often intended (a wall meeting a symmetry plane or an
+ * outlet), but its force total then covers the chosen faces only, so the reader is told.
+ */
+export function openSurfaceNote(q: EdgeCounts): string | undefined {
+  if (q.closed) return undefined;
+  const parts: [number, string][] = [[q.openEdges, 'open'], [q.nonManifoldEdges, 'non-manifold'], [q.inconsistentEdges, 'with disagreeing normals']];
+  const why = parts.filter(([n]) => n > 0).map(([n, what]) => `${n} ${what} edge${n === 1 ? '' : 's'}`).join(', ');
+  return `surface not closed (${why || 'no faces'}): the total covers the chosen faces only`;
+}

@@ -183,4 +183,17 @@ describe('force total on the Stokes sphere', () => {
     expect(o.quantities.some((x) => x.key === 'force.drag')).toBe(true);
     expect(o.notes.join(' ')).toMatch(/coefficients need the reference density, speed and area/);
   });
+  it('a force on part of a closed boundary says the surface is not closed; the whole boundary and the sphere wall do not', () => {
+    // Reference: topology; the sphere wall and the whole boundary of a domain are closed surfaces, one group of the pipe's boundary is not.
+    const d = sphereCase({ flow: 'stokes', refinement: 0 });
+    const bead = evaluateProbeSet(d, set([{ id: 'bead', kind: 'force', geometry: { surfaces: [1] } }])).probes[0]!;
+    expect(bead.notes.some((n) => /surface not closed/.test(n))).toBe(false);
+    const parts = evaluateProbeSet(pipe, set([
+      { id: 'one', kind: 'force', geometry: { surfaces: [0] } },
+      { id: 'all', kind: 'force', geometry: { surfaces: [0, 1, 2] } },
+    ])).probes;
+    const one = parts[0]!.notes.find((n) => /surface not closed/.test(n));
+    expect(one).toMatch(/^surface not closed \(\d+ open edges\): the total covers the chosen faces only$/);
+    expect(parts[1]!.notes.some((n) => /surface not closed/.test(n))).toBe(false);
+  });
 });
