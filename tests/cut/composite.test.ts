@@ -11,7 +11,7 @@ import { boundaryTriangleSet } from '../../src/cut/faceSet.ts';
 import { integrateSurface } from '../../src/cut/integrals.ts';
 import { integratePlane } from '../../src/cut/planeIntegrals.ts';
 import type { RegionSpec } from '../../src/cut/region.ts';
-import { datasetOf, pointFieldFrom, tetGrid, withFields } from '../../src/model/meshBuild.ts';
+import { datasetOf, hexGrid, pointFieldFrom, tetGrid, withFields } from '../../src/model/meshBuild.ts';
 import { pipeCase, pipeExact } from '../../src/samples/pipe.ts';
 import { boundaryFaces } from '../../src/surface/boundaryFaces.ts';
 import { facesOfGroups, surfaceGroups } from '../../src/surface/surfaceGroups.ts';
@@ -44,6 +44,47 @@ describe('pressure loss between two planes (Poiseuille pipe)', () => {
     expect(l.totalPressureLoss).toBeNull();
     expect(l.lossCoefficient).toBeNull();
     expect(l.notes[0]).toMatch(/downstream plane is empty/);
+  });
+});
+
+describe('sudden expansion with uniform profiles (Borda–Carnot)', () => {
+  // Reference: ../shared/REFERENCES.md §5, Borda–Carnot (C): with σ = A₁/A₂, p₂ − p₁ = ρV₁²σ(1−σ) (momentum)
+  // and K = Δp₀/(½ρV₁²) = (1−σ)², the form of Idelchik Diag. 4-1 as quoted there (V); on the downstream
+  // velocity V₂ = σV₁ the same loss gives K₂ = (1/σ − 1)².
+  // The field is built from the uniform-profile model (narrow square duct 1×1, wide 2×2, σ = 1/4), so this
+  // checks the mass-flow weighting, the total pressure and the reference-plane choice, not a flow solution.
+  const rho = 998.2, V1 = 0.8, sigma = 0.25, p1 = 1500;
+  const V2 = sigma * V1, p2 = p1 + rho * V1 * V1 * sigma * (1 - sigma);
+  const block = (half: number, z0: number, n: number, V: number, p: number) => {
+    const g = hexGrid(n, n, 3, (u, v, w) => [half * (2 * u - 1), half * (2 * v - 1), z0 + w]);
+    return withFields(g, [
+      pointFieldFrom(g, 'velocity', 3, (_x, _y, _z, o) => { o[0] = 0; o[1] = 0; o[2] = V; }),
+      pointFieldFrom(g, 'p', 1, (_x, _y, _z, o) => { o[0] = p; }),
+    ]);
+  };
+  const d = datasetOf([block(0.5, 0, 3, V1, p1), block(1, 1, 5, V2, p2)], 'stepped duct');
+  const up = integratePlane(d, { origin: [0, 0, 0.43], normal: [0, 0, 1], integral: { density: rho } }).integrals;
+  const down = integratePlane(d, { origin: [0, 0, 1.61], normal: [0, 0, 1], integral: { density: rho } }).integrals;
+
+  it('areas and flow rates of the two sections (σ = 1/4, Q the same)', () => {
+    expect(up.area).toBeCloseTo(1, 12);
+    expect(down.area).toBeCloseTo(4, 12);
+    expect(down.volumeFlowRate!).toBeCloseTo(up.volumeFlowRate!, 12);
+  });
+
+  it('K on the upstream velocity = (1 − σ)² = 0.5625; static pressure rises by ρV₁²σ(1−σ)', () => {
+    const l = pressureLoss(up, down);
+    expect(Math.abs(l.lossCoefficient! / (1 - sigma) ** 2 - 1)).toBeLessThan(1e-12);
+    expect(Math.abs(l.totalPressureLoss! / (0.5 * rho * V1 * V1 * (1 - sigma) ** 2) - 1)).toBeLessThan(1e-12);
+    expect(l.staticPressureDrop!.massFlowWeighted!).toBeCloseTo(-rho * V1 * V1 * sigma * (1 - sigma), 9);
+    expect(l.staticPressureDrop!.areaWeighted).toBeCloseTo(-rho * V1 * V1 * sigma * (1 - sigma), 9);
+    expect(l.meanVelocity).toBeCloseTo(V1, 12);
+  });
+
+  it('K on the downstream velocity = (1/σ − 1)² = 9', () => {
+    const l = pressureLoss(up, down, { reference: 'downstream' });
+    expect(l.meanVelocity).toBeCloseTo(V2, 12);
+    expect(Math.abs(l.lossCoefficient! / (1 / sigma - 1) ** 2 - 1)).toBeLessThan(1e-12);
   });
 });
 
