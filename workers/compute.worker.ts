@@ -5,6 +5,7 @@
  */
 import * as Comlink from 'comlink';
 import { integratePlane } from '../src/cut/planeIntegrals.ts';
+import { warmUpCutKernels } from '../src/cut/warmUp.ts';
 import type { RegionSpec } from '../src/cut/region.ts';
 import { readDatasetFrom } from '../src/io/readDataset.ts';
 import { blobSource } from '../src/io/blobSource.ts';
@@ -86,6 +87,12 @@ function throttle(cb: ProgressCallback | undefined): { send: (p: LoadProgress) =
     now,
   };
 }
+
+/**
+ * Delay (ms) after the first coloured picture's values are sent before the cut kernels are warmed (see
+ * src/cut/warmUp.ts): long enough for the page's follow-up requests, short against a user's first click.
+ */
+const WARM_UP_DELAY_MS = 150;
 
 /** Lets queued messages (a cancel) run before the load commits. */
 const yieldToMessages = (): Promise<void> => new Promise((r) => setTimeout(r, 0));
@@ -173,6 +180,8 @@ export function createComputeApi(): ComputeApi {
     async surfaceValues(field: FieldChoice): Promise<DrawingValues> {
       const h = need();
       const v = faceValues(h.dataset, facesOf(h), field);
+      // the picture is about to show: warm the cut kernels while the user looks at it (once per worker)
+      setTimeout(() => void warmUpCutKernels().catch((e: unknown) => console.warn('fieldtally: cut kernel warm-up failed (cuts stay correct, the first is slower)', e)), WARM_UP_DELAY_MS);
       return Comlink.transfer(v, [v.values.buffer]);
     },
 

@@ -51,30 +51,45 @@ function scan(d: Dataset, ox: number, oy: number, oz: number, nx: number, ny: nu
   const starts = cellStarts(d);
   let nFound = 0;
   for (let k = 0; k < d.pieces.length; k++) {
-    const p = d.pieces[k]!, pts = p.points, np = pts.length / 3;
+    const p = d.pieces[k]!, np = p.points.length / 3;
     if (side.length < np) side = new Uint8Array(Math.max(np, 2 * side.length));
-    // One byte per point (1 below, 2 on, 4 above): the per-cell pass ORs bytes instead of comparing doubles.
-    for (let i = 0, j = 0; i < np; i++, j += 3) {
-      const s = nx * (pts[j]! - ox) + ny * (pts[j + 1]! - oy) + nz * (pts[j + 2]! - oz);
-      side[i] = s <= tol && s >= -tol ? 2 : s < 0 ? 1 : 4;
-    }
-    const types = p.cellTypes, off = p.offsets, conn = p.connectivity, pf = p.polyFaces, nc = types.length, g0 = starts[k]!;
-    for (let c = 0; c < nc; c++) {
-      const t = types[c]!;
-      let a = off[c]!, b = off[c + 1]!, ids = conn;
-      if (t === CellType.POLYHEDRON) {
-        if (a === b && pf) { ids = pf.faceConnectivity; a = pf.faceOffsets[pf.cellFaceStart[c]!]!; b = pf.faceOffsets[pf.cellFaceStart[c + 1]!]!; }
-      } else if (t < CellType.TETRA || t > CellType.HEXAGONAL_PRISM) {
-        if (cellDimension(t) !== 3) continue;
-      }
-      let m = 0;
-      for (let q = a; q < b; q++) m |= side[ids[q]!]!;
-      // Below with anything else (3, 5, 7), or on-plane nodes above the plane (6: a boundary face may lie in it).
-      if (m === 3 || m >= 5) {
-        if (nFound === found.length) { const g = new Int32Array(2 * found.length); g.set(found); found = g; }
-        found[nFound++] = g0 + c;
-      }
-    }
+    pointSides(p.points, np, ox, oy, oz, nx, ny, nz, tol, side);
+    const pf = p.polyFaces;
+    nFound = crossingCellsOf(p.cellTypes, p.offsets, p.connectivity, pf?.faceConnectivity, pf?.faceOffsets, pf?.cellFaceStart, side, starts[k]!, nFound);
   }
   return found.subarray(0, nFound);
+}
+
+/**
+ * One byte per point (1 below, 2 on, 4 above), so the per-cell pass ORs bytes instead of comparing doubles.
+ * Each pass is its own small function so the engine optimises its loop on the first large file.
+ */
+function pointSides(pts: Float64Array, np: number, ox: number, oy: number, oz: number, nx: number, ny: number, nz: number, tol: number, out: Uint8Array): void {
+  for (let i = 0, j = 0; i < np; i++, j += 3) {
+    const s = nx * (pts[j]! - ox) + ny * (pts[j + 1]! - oy) + nz * (pts[j + 2]! - oz);
+    out[i] = s <= tol && s >= -tol ? 2 : s < 0 ? 1 : 4;
+  }
+}
+
+/** Appends to `found` (from `nFound`) the global ids (`g0` + local) of the 3D cells with nodes on both sides; returns the new count. */
+function crossingCellsOf(types: Uint8Array, off: Int32Array, conn: Int32Array, faceConn: Int32Array | undefined, faceOff: Int32Array | undefined,
+  cellFaceStart: Int32Array | undefined, side: Uint8Array, g0: number, nFound: number): number {
+  const nc = types.length;
+  for (let c = 0; c < nc; c++) {
+    const t = types[c]!;
+    let a = off[c]!, b = off[c + 1]!, ids = conn;
+    if (t === CellType.POLYHEDRON) {
+      if (a === b && faceConn && faceOff && cellFaceStart) { ids = faceConn; a = faceOff[cellFaceStart[c]!]!; b = faceOff[cellFaceStart[c + 1]!]!; }
+    } else if (t < CellType.TETRA || t > CellType.HEXAGONAL_PRISM) {
+      if (cellDimension(t) !== 3) continue;
+    }
+    let m = 0;
+    for (let q = a; q < b; q++) m |= side[ids[q]!]!;
+    // Below with anything else (3, 5, 7), or on-plane nodes above the plane (6: a boundary face may lie in it).
+    if (m === 3 || m >= 5) {
+      if (nFound === found.length) { const g = new Int32Array(2 * found.length); g.set(found); found = g; }
+      found[nFound++] = g0 + c;
+    }
+  }
+  return nFound;
 }

@@ -143,11 +143,7 @@ export function integrateSurface(set: TriangleSet, options: Partial<IntegralOpti
   const uCh = iu >= 0 ? chOf[iu]! : -1, pCh = ip >= 0 ? chOf[ip]! : -1, rCh = ir >= 0 ? chOf[ir]! : -1;
   const rho0 = rhoConst ?? 1, withP0 = pCh >= 0 && uCh >= 0, halfRho = kinematic ? 0 : 1;
 
-  let A = 0, cx = 0, cy = 0, cz = 0, Q = 0, M = 0, P0a = 0, P0m = 0, Nx = 0, Ny = 0, Nz = 0;
-  let Aneg = 0, Qneg = 0, Mneg = 0;
-
-  const nt = triangleCount(set), P = set.positions, I = set.indices;
-  const wts = TRI7.weight;
+  const nt = triangleCount(set);
   if (triUn.length < 3 * nt) { triUn = new Float64Array(3 * nt); triArea = new Float64Array(nt); }
   // Channels needed at the rule's points: vector fields (magnitudes), and velocity, pressure, density for p₀.
   const need = new Set<number>();
@@ -155,74 +151,12 @@ export function integrateSurface(set: TriangleSet, options: Partial<IntegralOpti
   if (withP0) { for (let c = 0; c < 3; c++) need.add(uCh + c); need.add(pCh); if (rCh >= 0) need.add(rCh); }
   const needCh = Int32Array.from(need);
   if (e7.length < 7 * C) e7 = new Float64Array(7 * C);
+  const values = fields.map((f) => f.values), perVertex = Uint8Array.from(fields, (f) => (f.association === 'point' ? 1 : 0));
+  triangleSums(set.positions, set.indices, values, perVertex, chOf, C, uCh, pCh, rCh, rho0, halfRho, needCh, magCh, magNc);
+  let A = sums[S_A]!, cx = sums[S_CX]!, cy = sums[S_CY]!, cz = sums[S_CZ]!, Q = sums[S_Q]!, M = sums[S_M]!;
+  let P0a = sums[S_P0A]!, P0m = sums[S_P0M]!, Nx = sums[S_NX]!, Ny = sums[S_NY]!, Nz = sums[S_NZ]!;
+  let Aneg = sums[S_ANEG]!, Qneg = sums[S_QNEG]!, Mneg = sums[S_MNEG]!;
 
-  for (let t = 0; t < nt; t++) {
-    const a = 3 * I[3 * t]!, b = 3 * I[3 * t + 1]!, c = 3 * I[3 * t + 2]!;
-    const ax = P[a]!, ay = P[a + 1]!, az = P[a + 2]!;
-    const ux = P[b]! - ax, uy = P[b + 1]! - ay, uz = P[b + 2]! - az, wx = P[c]! - ax, wy = P[c + 1]! - ay, wz = P[c + 2]! - az;
-    let nx = uy * wz - uz * wy, ny = uz * wx - ux * wz, nz = ux * wy - uy * wx;
-    const n2 = Math.sqrt(nx * nx + ny * ny + nz * nz);
-    triArea[t] = 0.5 * n2;
-    if (n2 === 0) continue;
-    const area = 0.5 * n2, a3 = area / 3;
-    Nx += 0.5 * nx; Ny += 0.5 * ny; Nz += 0.5 * nz;
-    nx /= n2; ny /= n2; nz /= n2;
-    A += area;
-    cx += a3 * (3 * ax + ux + wx); cy += a3 * (3 * ay + uy + wy); cz += a3 * (3 * az + uz + wz);
-    gather(fields, chOf, set, t);
-    let g0 = 0, g1 = 0, g2 = 0;
-    if (uCh >= 0) {
-      g0 = vv[3 * uCh]! * nx + vv[3 * uCh + 3]! * ny + vv[3 * uCh + 6]! * nz;
-      g1 = vv[3 * uCh + 1]! * nx + vv[3 * uCh + 4]! * ny + vv[3 * uCh + 7]! * nz;
-      g2 = vv[3 * uCh + 2]! * nx + vv[3 * uCh + 5]! * ny + vv[3 * uCh + 8]! * nz;
-    }
-    triUn[3 * t] = g0; triUn[3 * t + 1] = g1; triUn[3 * t + 2] = g2;
-    const r0 = rCh >= 0 ? vv[3 * rCh]! : rho0, r1 = rCh >= 0 ? vv[3 * rCh + 1]! : rho0, r2 = rCh >= 0 ? vv[3 * rCh + 2]! : rho0;
-    // Values of the non-linear parts' inputs at the rule's 7 points (vertices, midpoints, centroid).
-    for (let i = 0; i < needCh.length; i++) {
-      const ch = needCh[i]!, v0 = vv[3 * ch]!, v1 = vv[3 * ch + 1]!, v2 = vv[3 * ch + 2]!, o = 7 * ch;
-      e7[o] = v0; e7[o + 1] = v1; e7[o + 2] = v2;
-      e7[o + 3] = 0.5 * (v0 + v1); e7[o + 4] = 0.5 * (v1 + v2); e7[o + 5] = 0.5 * (v0 + v2); e7[o + 6] = (v0 + v1 + v2) / 3;
-    }
-    // Mass weights ρu_n·w at the points; for a linear φ, ∫ρu_nφ = Σ_q wm_q Σ_j λ_qj φ_j = Σ_j M_j φ_j.
-    const gm3 = 0.5 * (g0 + g1), gm4 = 0.5 * (g1 + g2), gm5 = 0.5 * (g0 + g2), gc = (g0 + g1 + g2) / 3;
-    const wv = area * wts[0]!, wmid = area * wts[3]!, wc = area * wts[6]!;
-    wmq[0] = wv * r0 * g0; wmq[1] = wv * r1 * g1; wmq[2] = wv * r2 * g2;
-    wmq[3] = wmid * 0.5 * (r0 + r1) * gm3; wmq[4] = wmid * 0.5 * (r1 + r2) * gm4; wmq[5] = wmid * 0.5 * (r0 + r2) * gm5;
-    wmq[6] = wc * ((r0 + r1 + r2) / 3) * gc;
-    const c3 = wmq[6]! / 3;
-    const M0 = wmq[0]! + 0.5 * (wmq[3]! + wmq[5]!) + c3, M1 = wmq[1]! + 0.5 * (wmq[3]! + wmq[4]!) + c3, M2 = wmq[2]! + 0.5 * (wmq[4]! + wmq[5]!) + c3;
-    Q += a3 * (g0 + g1 + g2); M += M0 + M1 + M2;
-    for (let k = 0; k < nMag; k++) {
-      const o = 7 * magCh[k]!, nc = magNc[k]!;
-      let sa = 0, sm = 0;
-      for (let q = 0; q < 7; q++) {
-        let s2 = 0;
-        for (let cc = 0; cc < nc; cc++) { const v = e7[o + 7 * cc + q]!; s2 += v * v; }
-        const m = Math.sqrt(s2);
-        sa += area * wts[q]! * m; sm += wmq[q]! * m;
-      }
-      acc[2 * C + 2 * k] += sa; acc[2 * C + 2 * k + 1] += sm;
-    }
-    if (withP0) {
-      const ou = 7 * uCh, op = 7 * pCh, or = 7 * rCh;
-      for (let q = 0; q < 7; q++) {
-        const vx = e7[ou + q]!, vy = e7[ou + 7 + q]!, vz = e7[ou + 14 + q]!;
-        const rho = halfRho ? (rCh >= 0 ? e7[or + q]! : rho0) : 1;
-        const p0 = e7[op + q]! + 0.5 * rho * (vx * vx + vy * vy + vz * vz);
-        P0a += area * wts[q]! * p0; P0m += wmq[q]! * p0;
-      }
-    }
-    for (let ch = 0; ch < C; ch++) {
-      const v0 = vv[3 * ch]!, v1 = vv[3 * ch + 1]!, v2 = vv[3 * ch + 2]!;
-      acc[ch] += a3 * (v0 + v1 + v2);
-      acc[C + ch] += M0 * v0 + M1 * v1 + M2 * v2;
-    }
-    if (uCh >= 0 && (g0 < 0 || g1 < 0 || g2 < 0)) {
-      belowPart(area, g0, g1, g2, r0, r1, r2);
-      Aneg += partArea; Qneg += partInt; Mneg += partWeighted;
-    }
-  }
   const { lo, hi } = ranges(fields, chOf, magCh, magNc);
 
   if (arcs) {
@@ -308,13 +242,104 @@ export function integrateSurface(set: TriangleSet, options: Partial<IntegralOpti
   return res;
 }
 
+// Sums of the triangle pass, by slot.
+const S_A = 0, S_CX = 1, S_CY = 2, S_CZ = 3, S_Q = 4, S_M = 5, S_P0A = 6, S_P0M = 7, S_NX = 8, S_NY = 9, S_NZ = 10;
+const S_ANEG = 11, S_QNEG = 12, S_MNEG = 13;
+const sums = new Float64Array(14);
+
+/**
+ * The triangle pass of `integrateSurface`, on its own so the engine optimises this small loop early and
+ * keeps it (one large function was compiled several times over on the first cuts of a session): area,
+ * centroid and normal sums, Q, ṁ, p₀ and the reverse-flow parts into `sums`, ∫φ and ∫ρu_nφ into `acc`,
+ * u·n and area per triangle into `triUn`/`triArea`. Channel numbers are −1 when the role has no field;
+ * `halfRho` is 0 for kinematic pressure; scratch arrays are sized by the caller.
+ */
+function triangleSums(P: Float64Array, I: Uint32Array, values: Float64Array[], perVertex: Uint8Array, chOf: Int32Array,
+  C: number, uCh: number, pCh: number, rCh: number, rho0: number, halfRho: number, needCh: Int32Array, magCh: Int32Array,
+  magNc: Int32Array): void {
+  const nt = I.length / 3, nf = values.length, nMag = magCh.length;
+  const withP0 = pCh >= 0 && uCh >= 0;
+  const wts = TRI7.weight;
+  let A = 0, cx = 0, cy = 0, cz = 0, Q = 0, M = 0, P0a = 0, P0m = 0, Nx = 0, Ny = 0, Nz = 0;
+  let Aneg = 0, Qneg = 0, Mneg = 0;
+  for (let t = 0; t < nt; t++) {
+    const a = 3 * I[3 * t]!, b = 3 * I[3 * t + 1]!, c = 3 * I[3 * t + 2]!;
+    const ax = P[a]!, ay = P[a + 1]!, az = P[a + 2]!;
+    const ux = P[b]! - ax, uy = P[b + 1]! - ay, uz = P[b + 2]! - az, wx = P[c]! - ax, wy = P[c + 1]! - ay, wz = P[c + 2]! - az;
+    let nx = uy * wz - uz * wy, ny = uz * wx - ux * wz, nz = ux * wy - uy * wx;
+    const n2 = Math.sqrt(nx * nx + ny * ny + nz * nz);
+    triArea[t] = 0.5 * n2;
+    if (n2 === 0) continue;
+    const area = 0.5 * n2, a3 = area / 3;
+    Nx += 0.5 * nx; Ny += 0.5 * ny; Nz += 0.5 * nz;
+    nx /= n2; ny /= n2; nz /= n2;
+    A += area;
+    cx += a3 * (3 * ax + ux + wx); cy += a3 * (3 * ay + uy + wy); cz += a3 * (3 * az + uz + wz);
+    gather(values, perVertex, chOf, nf, I, t);
+    let g0 = 0, g1 = 0, g2 = 0;
+    if (uCh >= 0) {
+      g0 = vv[3 * uCh]! * nx + vv[3 * uCh + 3]! * ny + vv[3 * uCh + 6]! * nz;
+      g1 = vv[3 * uCh + 1]! * nx + vv[3 * uCh + 4]! * ny + vv[3 * uCh + 7]! * nz;
+      g2 = vv[3 * uCh + 2]! * nx + vv[3 * uCh + 5]! * ny + vv[3 * uCh + 8]! * nz;
+    }
+    triUn[3 * t] = g0; triUn[3 * t + 1] = g1; triUn[3 * t + 2] = g2;
+    const r0 = rCh >= 0 ? vv[3 * rCh]! : rho0, r1 = rCh >= 0 ? vv[3 * rCh + 1]! : rho0, r2 = rCh >= 0 ? vv[3 * rCh + 2]! : rho0;
+    // Values of the non-linear parts' inputs at the rule's 7 points (vertices, midpoints, centroid).
+    for (let i = 0; i < needCh.length; i++) {
+      const ch = needCh[i]!, v0 = vv[3 * ch]!, v1 = vv[3 * ch + 1]!, v2 = vv[3 * ch + 2]!, o = 7 * ch;
+      e7[o] = v0; e7[o + 1] = v1; e7[o + 2] = v2;
+      e7[o + 3] = 0.5 * (v0 + v1); e7[o + 4] = 0.5 * (v1 + v2); e7[o + 5] = 0.5 * (v0 + v2); e7[o + 6] = (v0 + v1 + v2) / 3;
+    }
+    // Mass weights ρu_n·w at the points; for a linear φ, ∫ρu_nφ = Σ_q wm_q Σ_j λ_qj φ_j = Σ_j M_j φ_j.
+    const gm3 = 0.5 * (g0 + g1), gm4 = 0.5 * (g1 + g2), gm5 = 0.5 * (g0 + g2), gc = (g0 + g1 + g2) / 3;
+    const wv = area * wts[0]!, wmid = area * wts[3]!, wc = area * wts[6]!;
+    wmq[0] = wv * r0 * g0; wmq[1] = wv * r1 * g1; wmq[2] = wv * r2 * g2;
+    wmq[3] = wmid * 0.5 * (r0 + r1) * gm3; wmq[4] = wmid * 0.5 * (r1 + r2) * gm4; wmq[5] = wmid * 0.5 * (r0 + r2) * gm5;
+    wmq[6] = wc * ((r0 + r1 + r2) / 3) * gc;
+    const c3 = wmq[6]! / 3;
+    const M0 = wmq[0]! + 0.5 * (wmq[3]! + wmq[5]!) + c3, M1 = wmq[1]! + 0.5 * (wmq[3]! + wmq[4]!) + c3, M2 = wmq[2]! + 0.5 * (wmq[4]! + wmq[5]!) + c3;
+    Q += a3 * (g0 + g1 + g2); M += M0 + M1 + M2;
+    for (let k = 0; k < nMag; k++) {
+      const o = 7 * magCh[k]!, nc = magNc[k]!;
+      let sa = 0, sm = 0;
+      for (let q = 0; q < 7; q++) {
+        let s2 = 0;
+        for (let cc = 0; cc < nc; cc++) { const v = e7[o + 7 * cc + q]!; s2 += v * v; }
+        const m = Math.sqrt(s2);
+        sa += area * wts[q]! * m; sm += wmq[q]! * m;
+      }
+      acc[2 * C + 2 * k] += sa; acc[2 * C + 2 * k + 1] += sm;
+    }
+    if (withP0) {
+      const ou = 7 * uCh, op = 7 * pCh, or = 7 * rCh;
+      for (let q = 0; q < 7; q++) {
+        const vx = e7[ou + q]!, vy = e7[ou + 7 + q]!, vz = e7[ou + 14 + q]!;
+        const rho = halfRho ? (rCh >= 0 ? e7[or + q]! : rho0) : 1;
+        const p0 = e7[op + q]! + 0.5 * rho * (vx * vx + vy * vy + vz * vz);
+        P0a += area * wts[q]! * p0; P0m += wmq[q]! * p0;
+      }
+    }
+    for (let ch = 0; ch < C; ch++) {
+      const v0 = vv[3 * ch]!, v1 = vv[3 * ch + 1]!, v2 = vv[3 * ch + 2]!;
+      acc[ch] += a3 * (v0 + v1 + v2);
+      acc[C + ch] += M0 * v0 + M1 * v1 + M2 * v2;
+    }
+    if (uCh >= 0 && (g0 < 0 || g1 < 0 || g2 < 0)) {
+      belowPart(area, g0, g1, g2, r0, r1, r2);
+      Aneg += partArea; Qneg += partInt; Mneg += partWeighted;
+    }
+  }
+  sums[S_A] = A; sums[S_CX] = cx; sums[S_CY] = cy; sums[S_CZ] = cz; sums[S_Q] = Q; sums[S_M] = M;
+  sums[S_P0A] = P0a; sums[S_P0M] = P0m; sums[S_NX] = Nx; sums[S_NY] = Ny; sums[S_NZ] = Nz;
+  sums[S_ANEG] = Aneg; sums[S_QNEG] = Qneg; sums[S_MNEG] = Mneg;
+}
+
 /** Fills vv with the vertex values of triangle t (cell fields repeated on the three vertices). */
-function gather(fields: readonly SurfaceField[], chOf: Int32Array, set: TriangleSet, t: number): void {
-  const I = set.indices;
+function gather(values: Float64Array[], perVertex: Uint8Array, chOf: Int32Array, nf: number, I: Uint32Array, t: number): void {
   const v0 = I[3 * t]!, v1 = I[3 * t + 1]!, v2 = I[3 * t + 2]!;
-  for (let i = 0; i < fields.length; i++) {
-    const f = fields[i]!, nc = f.components, vals = f.values, o = chOf[i]!;
-    if (f.association === 'point') {
+  for (let i = 0; i < nf; i++) {
+    const vals = values[i]!, o = chOf[i]!, nc = chOf[i + 1]! - o;
+    if (perVertex[i] === 1) {
       for (let c = 0; c < nc; c++) {
         const k = 3 * (o + c);
         vv[k] = vals[v0 * nc + c]!; vv[k + 1] = vals[v1 * nc + c]!; vv[k + 2] = vals[v2 * nc + c]!;
