@@ -118,3 +118,33 @@ export async function waitIdle(page: Page, timeout = 60_000): Promise<void> {
   // one more frame so pins and legend are laid out
   await page.evaluate(() => new Promise((r) => requestAnimationFrame(() => requestAnimationFrame(r))));
 }
+
+/** The built app, served on localhost and opened in a fresh browser. */
+export interface AppSession {
+  browser: Browser;
+  page: Page;
+  /** The built app's folder (files put here are served too). */
+  dist: string;
+  close: () => Promise<void>;
+}
+
+/** Builds and serves the app, opens it in a fresh browser and waits until it is idle on its bundled sample field. */
+export async function openApp(): Promise<AppSession> {
+  const browser = await launch();
+  let dist = '', server: Awaited<ReturnType<typeof serveFolder>> | undefined;
+  const close = async () => {
+    await browser.close();
+    await server?.close();
+    if (dist) rmSync(dist, { recursive: true, force: true });
+  };
+  try {
+    dist = buildApp();
+    server = await serveFolder(dist);
+    await browser.page.goto(server.url);
+    await waitIdle(browser.page, 90_000);
+  } catch (e) {
+    await close();
+    throw e;
+  }
+  return { browser, page: browser.page, dist, close };
+}

@@ -6,12 +6,12 @@
  * tests/.screenshots/ (git-ignored).
  */
 import { execFileSync } from 'node:child_process';
-import { existsSync, mkdirSync, rmSync } from 'node:fs';
+import { existsSync, mkdirSync } from 'node:fs';
 import { join } from 'node:path';
 import type { Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { MEMORY_PER_FILE_BYTE } from '../../src/app/fileChoice.ts';
-import { REPO, buildApp, launch, longTasksSince, pageNow, serveFolder, waitIdle, type Browser } from './browser.ts';
+import { REPO, longTasksSince, openApp, pageNow, waitIdle, type AppSession, type Browser } from './browser.ts';
 
 const SHOTS = join(REPO, 'tests/.screenshots');
 const PIPE = join(REPO, 'sample-fields/pipe-medium.vtu');
@@ -21,8 +21,7 @@ const LARGE_NAME = 'pipe-hex-1M.appended-zlib.vtu';
 /** The view's background (src/view/viewScene.ts BACKGROUND, #f5f6f8). */
 const BACKGROUND: [number, number, number] = [0xf5, 0xf6, 0xf8];
 
-let dist = '';
-let server: Awaited<ReturnType<typeof serveFolder>>;
+let app: AppSession | undefined;
 let browser: Browser;
 let page: Page;
 
@@ -75,18 +74,12 @@ async function progressWithBytes(): Promise<string> {
 beforeAll(async () => {
   mkdirSync(SHOTS, { recursive: true });
   if (!existsSync(LARGE)) execFileSync(process.execPath, [join(REPO, 'bin/run-ts.mjs'), 'src/samples/makeFields.ts', '--large', '--missing'], { cwd: REPO, stdio: 'ignore' });
-  browser = await launch();
-  page = browser.page;
-  dist = buildApp();
-  server = await serveFolder(dist);
-  await page.goto(server.url);
-  await waitIdle(page, 90_000);
+  app = await openApp();
+  ({ browser, page } = app);
 }, 600_000);
 
 afterAll(async () => {
-  await browser?.close();
-  await server?.close();
-  if (dist) rmSync(dist, { recursive: true, force: true });
+  await app?.close();
 });
 
 describe('loading a large file', () => {

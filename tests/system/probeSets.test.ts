@@ -15,7 +15,7 @@ import { unzipSync } from 'fflate';
 import type { Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { parseFormatted } from '../../src/ui/format.ts';
-import { REPO, buildApp, launch, serveFolder, waitIdle, type Browser } from './browser.ts';
+import { REPO, openApp, waitIdle, type AppSession, type Browser } from './browser.ts';
 import { countColor, readPng } from './png.ts';
 
 const SHOTS = join(REPO, 'tests/.screenshots');
@@ -25,8 +25,8 @@ const FIXTURE = join(REPO, 'tests/study/fixtures/pipe-stations.v2.json');
 const STORE_KEY = 'fieldtally.probe-set';
 const PIN_RGB: [number, number, number] = [0x1d, 0x4e, 0xd8];
 
-let dist = '', tmp = '';
-let server: Awaited<ReturnType<typeof serveFolder>>;
+let tmp = '';
+let app: AppSession | undefined;
 let browser: Browser;
 let page: Page;
 
@@ -69,18 +69,12 @@ const cliValue = (r: ReturnType<typeof cliResults>, id: string, key: string) => 
 beforeAll(async () => {
   mkdirSync(SHOTS, { recursive: true });
   tmp = mkdtempSync(join(tmpdir(), 'fieldtally-sets-'));
-  browser = await launch();
-  page = browser.page;
-  dist = buildApp();
-  server = await serveFolder(dist);
-  await page.goto(server.url);
-  await waitIdle(page, 90_000);
+  app = await openApp();
+  ({ browser, page } = app);
 }, 240_000);
 
 afterAll(async () => {
-  await browser?.close();
-  await server?.close();
-  if (dist) rmSync(dist, { recursive: true, force: true });
+  await app?.close();
   if (tmp) rmSync(tmp, { recursive: true, force: true });
 });
 

@@ -5,13 +5,13 @@
  * loads or a probe is computed. Screenshots of each state go to tests/.screenshots/ (git-ignored).
  */
 import { execFileSync } from 'node:child_process';
-import { mkdirSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { mkdirSync, readFileSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import type { Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { parseFormatted } from '../../src/ui/format.ts';
 import { sphereExact } from '../../src/samples/sphere.ts';
-import { REPO, buildApp, launch, longTasksSince, pageNow, serveFolder, waitIdle, type Browser } from './browser.ts';
+import { REPO, longTasksSince, openApp, pageNow, waitIdle, type AppSession, type Browser } from './browser.ts';
 import { countColor, readPng } from './png.ts';
 
 const SHOTS = join(REPO, 'tests/.screenshots');
@@ -22,7 +22,7 @@ const EXTERNAL = join(REPO, '../shared/fields/external');
 const PIN_RGB: [number, number, number] = [0x1d, 0x4e, 0xd8];
 
 let dist = '';
-let server: Awaited<ReturnType<typeof serveFolder>>;
+let app: AppSession | undefined;
 let browser: Browser;
 let page: Page;
 /** Page time when measuring long tasks starts (just before the first file-input load). */
@@ -61,18 +61,12 @@ async function downloadOf(click: () => Promise<void>): Promise<Uint8Array> {
 
 beforeAll(async () => {
   mkdirSync(SHOTS, { recursive: true });
-  browser = await launch();
-  page = browser.page;
-  dist = buildApp();
-  server = await serveFolder(dist);
-  await page.goto(server.url);
-  await waitIdle(page, 90_000);
+  app = await openApp();
+  ({ browser, page, dist } = app);
 }, 240_000);
 
 afterAll(async () => {
-  await browser?.close();
-  await server?.close();
-  if (dist) rmSync(dist, { recursive: true, force: true });
+  await app?.close();
 });
 
 describe('viewer', () => {
