@@ -6,9 +6,14 @@
  * and forth. The meter instead counts the bytes the reader has fetched from the chosen files. A file that
  * the reader takes whole in one read (inline or text data, parsed afterwards) is the exception: there the
  * reader's position is the parse position, which does move forward, and the meter passes it on.
+ *
+ * An XML file with inline data is read twice: once streamed for its structure (stage `STRUCTURE_STAGE`,
+ * whose position moves forward and is passed on), then array by array. The bar runs once for each pass,
+ * the second counting the bytes fetched beyond the first.
  */
 import type { ByteSource } from '../src/io/byteSource.ts';
 import type { LoadProgress } from '../src/io/loadOptions.ts';
+import { STRUCTURE_STAGE } from '../src/io/xmlSkeleton.ts';
 
 /** Bytes done of one load: wrap each chosen file's source, then ask `done` at each of the reader's reports. */
 export class ReadMeter {
@@ -16,6 +21,9 @@ export class ReadMeter {
   private wholeFile = false;
   private sources = 0;
   private shown = 0;
+  /** A structure pass was seen (`streamed`), and whether the last report was of it. */
+  private streamed = false;
+  private inStructure = false;
 
   /** `total`: bytes of every chosen file (what the bar runs to). */
   constructor(readonly total: number) {}
@@ -43,10 +51,15 @@ export class ReadMeter {
     return wrapped;
   }
 
-  /** Bytes done for a reader's progress report: never above `total`, never below an earlier answer. */
+  /** Bytes done for a reader's progress report: never above `total`, never below an earlier answer of the same pass. */
   done(p: LoadProgress): number {
-    const d = this.wholeFile && this.sources === 1 ? p.bytesDone : this.fetched;
-    this.shown = Math.max(this.shown, Math.min(this.total, d));
+    const structure = p.stage === STRUCTURE_STAGE;
+    // the pass over the arrays after the structure pass starts the bar again
+    if (this.inStructure && !structure) this.shown = 0;
+    this.inStructure = structure;
+    if (structure) this.streamed = true;
+    const d = structure ? p.bytesDone : this.streamed ? this.fetched - this.total : this.wholeFile && this.sources === 1 ? p.bytesDone : this.fetched;
+    this.shown = Math.max(this.shown, Math.min(this.total, Math.max(0, d)));
     return this.shown;
   }
 }

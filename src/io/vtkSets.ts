@@ -15,7 +15,7 @@ import type { FieldArray } from '../model/fieldArray.ts';
 import type { Piece } from '../model/piece.ts';
 import { bytesSource, type ByteSource } from './byteSource.ts';
 import { readWhole } from './sourceArrays.ts';
-import { checkAborted, type LoadOptions, type ResolveSource } from './loadOptions.ts';
+import { Checkpoint, checkAborted, type LoadOptions, type ResolveSource } from './loadOptions.ts';
 import { fileSettings, readVtkXmlInput, unsupportedTypeError } from './vtkXml.ts';
 import { scanXmlSource } from './xmlHead.ts';
 import { child, scanXml, type XmlElement } from './xmlScan.ts';
@@ -124,7 +124,7 @@ async function collect(setName: string, bytes: Uint8Array, resolve: ResolveSourc
     const leaf = await fetchPiece(setName, resolve, path);
     try {
       const leafName = `${setName}: ${path}`;
-      const input = await scanXmlSource(leaf, leafName);
+      const input = await scanXmlSource(leaf, leafName, new Checkpoint(leafName, opts, leaf.size));
       const leafType = fileSettings(input.doc, leafName).type;
       if (expectLeafType && leafType !== expectLeafType) {
         throw new Error(`${leafName}: piece file holds "${leafType}", but a ${type} set needs "${expectLeafType}" pieces`);

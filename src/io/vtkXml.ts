@@ -74,13 +74,14 @@ export async function readVtkXmlInput(name: string, input: XmlInput, opts: LoadO
 }
 
 /**
- * Reads a VTK XML UnstructuredGrid or PolyData file from a source: a file whose arrays are all raw
- * appended data is read array by array (never whole); others are read whole, once. `name` starts every
+ * Reads a VTK XML UnstructuredGrid or PolyData file from a source: a file whose arrays are all appended
+ * data is read array by array (never whole); one with inline data is streamed once for its structure, then
+ * read array by array; one with both is read whole, once. `name` starts every
  * error message; `opts` gives progress, cancellation and the inflater. Coordinates and fields are in the
  * file's units.
  */
 export async function readVtkXmlFrom(src: ByteSource, name: string = src.name, opts: LoadOptions = {}): Promise<Dataset> {
-  return readVtkXmlInput(name, await scanXmlSource(src, name), opts);
+  return readVtkXmlInput(name, await scanXmlSource(src, name, new Checkpoint(name, opts, src.size)), opts);
 }
 
 /** Reads a VTK XML UnstructuredGrid or PolyData file from its bytes (see `readVtkXmlFrom`). */

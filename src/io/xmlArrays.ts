@@ -7,8 +7,8 @@
  */
 import type { NumericArray } from '../model/fieldArray.ts';
 import { parseNumbers, skipSpace } from './asciiNumbers.ts';
-import type { ByteSource } from './byteSource.ts';
-import type { ArrayPlan } from './elementConvert.ts';
+import { readInto, type ByteSource } from './byteSource.ts';
+import { SCRATCH_BYTES, type ArrayPlan } from './elementConvert.ts';
 import { allocateFor, isElementType, type ElementType } from './elementTypes.ts';
 import type { Checkpoint, InflateBlock } from './loadOptions.ts';
 import { readAppendedArray } from './xmlAppended.ts';
@@ -20,9 +20,12 @@ import type { AppendedSection, XmlElement } from './xmlScan.ts';
 export interface XmlFileContext {
   /** File name for messages. */
   readonly name: string;
-  /** The whole file, or (when its data are all appended) its bytes up to the appended data. */
+  /**
+   * The whole file, or (when its data are all appended) its bytes up to the appended data, or nothing (a
+   * file with inline data read by ranges from `source`).
+   */
   readonly bytes: Uint8Array;
-  /** Whether `bytes` is the whole file. */
+  /** Whether `bytes` is the whole file; otherwise inline text is read from `source` by its range. */
   readonly wholeFile: boolean;
   /** Offsets of the file's appended arrays, sorted (see `appendedOffsets`). */
   readonly appendedOffsets: readonly number[];
@@ -105,6 +108,7 @@ const ASCII_CHUNK = 65536;
  * to single precision even when held as doubles (points).
  */
 async function readAscii(ctx: XmlFileContext, el: XmlElement, type: ElementType, expected: number | undefined, where: string, want: Want): Promise<NumericArray> {
+  if (!ctx.wholeFile) return readAsciiFromSource(ctx, el, type, expected, where, want);
   const { bytes } = ctx;
   const start = el.textStart, end = el.textEnd;
   let count = expected;
@@ -138,6 +142,82 @@ async function readAscii(ctx: XmlFileContext, el: XmlElement, type: ElementType,
   if (skipSpace(bytes, pos, end) < end) {
     throw new Error(`${where}: declares ${count} values, the text holds ${countTokens(bytes, start, end)}`);
   }
+  return out;
+}
+
+/**
+ * The text `[start, end)` of a source in windows of about `src.chunkBytes` that end on whitespace, so no
+ * number is split; `visit` gets each window's bytes and the file offset of its first byte.
+ */
+async function textWindows(src: ByteSource, start: number, end: number, where: string, visit: (w: Uint8Array, at: number) => void | Promise<void>): Promise<void> {
+  const size = src.chunkBytes ?? SCRATCH_BYTES, buffer = new Uint8Array(Math.min(size, end - start));
+  for (let p = start; p < end;) {
+    const w = buffer.subarray(0, Math.min(size, end - p));
+    await readInto(src, p, w);
+    let cut = w.length;
+    if (p + cut < end) {
+      while (cut > 0 && !isSpaceByte(w[cut - 1]!)) cut--;
+      if (cut === 0) throw new Error(`${where}: a value at byte ${p} runs on for more than ${size} characters (expected whitespace-separated numbers)`);
+    }
+    await visit(w.subarray(0, cut), p);
+    p += cut;
+  }
+}
+
+/** The separators `countTokens` knows. */
+const isSpaceByte = (c: number) => c === 32 || c === 10 || c === 13 || c === 9;
+
+/** Whitespace-separated tokens in a source's text `[start, end)`. */
+async function countSourceTokens(src: ByteSource, start: number, end: number, where: string): Promise<number> {
+  let n = 0;
+  await textWindows(src, start, end, where, (w) => { n += countTokens(w, 0, w.length); });
+  return n;
+}
+
+/**
+ * `readAscii` for a file read by ranges: the array's text is read window by window (never whole), each
+ * window's numbers parsed into the target as in `readAscii`, so memory holds the target and one window.
+ */
+async function readAsciiFromSource(ctx: XmlFileContext, el: XmlElement, type: ElementType, expected: number | undefined, where: string, want: Want): Promise<NumericArray> {
+  const src = ctx.source, start = el.textStart, end = el.textEnd;
+  const holds = () => countSourceTokens(src, start, end, where);
+  let count = expected;
+  if (count === undefined) count = await holds();
+  else if (count > Math.ceil((end - start) / 2)) throw new Error(`${where}: declares ${count} values, the text holds ${await holds()}`);
+  const lead = want.target === 'ids' ? want.lead : 0;
+  const out = want.target === 'ids' ? new Int32Array(lead + count) : want.target === 'float64' ? new Float64Array(count) : allocateFor(type, count);
+  const range = INT_RANGE[type];
+  const inPlace = want.target !== 'ids' && (!range || out instanceof Float64Array);
+  if (!inPlace && asciiScratch.length < ASCII_CHUNK) asciiScratch = new Float64Array(ASCII_CHUNK);
+  const n = count;
+  let i = 0, tooMany = false;
+  await textWindows(src, start, end, where, async (w, at) => {
+    if (tooMany) return;
+    // parse what the array may hold before saying it holds too much, so a bad value is named as the bytes path names it
+    const inWindow = countTokens(w, 0, w.length), take = Math.min(inWindow, n - i);
+    let pos = 0;
+    for (let left = take; left > 0;) {
+      const k = Math.min(ASCII_CHUNK, left);
+      if (inPlace) {
+        const chunk = out.subarray(i, i + k);
+        pos = parseAsciiChunk(w, pos, w.length, chunk, where, 0, n, i);
+        if (range) checkIntegers(chunk, 0, k, range, type, where, i);
+        else if (type === 'Float32' && chunk instanceof Float64Array) for (let j = 0; j < k; j++) chunk[j] = Math.fround(chunk[j]!);
+      } else {
+        const chunk = asciiScratch.subarray(0, k);
+        pos = parseAsciiChunk(w, pos, w.length, chunk, where, 0, n, i);
+        if (range) checkIntegers(chunk, 0, k, range, type, where, i);
+        if (want.target === 'ids') checkIds(chunk, k, want.min, where, i);
+        out.set(chunk, lead + i);
+      }
+      i += k; left -= k;
+    }
+    if (take < inWindow) { tooMany = true; return; }
+    // every token of the window was a number: anything left means the two counts disagree (odd separators)
+    if (skipSpace(w, pos, w.length) < w.length) throw new Error(`${where}: unexpected text at byte ${at + skipSpace(w, pos, w.length)} (expected whitespace-separated numbers)`);
+    await ctx.cp.at('reading text', at + w.length);
+  });
+  if (tooMany || i < n) throw new Error(`${where}: declares ${n} values, the text holds ${await holds()}`);
   return out;
 }
 
@@ -189,7 +269,9 @@ function appendedOffset(ctx: XmlFileContext, el: XmlElement, where: string): { a
 
 /** The base64 text of a binary array: inline in the element, or at its offset in base64 appended data. */
 function base64Input(ctx: XmlFileContext, el: XmlElement, format: string, where: string): Base64Input {
-  if (format === 'binary') return memoryBase64(ctx.bytes, el.textStart, el.textEnd, where);
+  if (format === 'binary') {
+    return ctx.wholeFile ? memoryBase64(ctx.bytes, el.textStart, el.textEnd, where) : sourceBase64(ctx.source, el.textStart, el.textEnd, where);
+  }
   const { app, off } = appendedOffset(ctx, el, where);
   if (ctx.wholeFile) return memoryBase64(ctx.bytes, app.start + off, app.end, where);
   const next = firstAbove(ctx.appendedOffsets, off);

@@ -15,11 +15,12 @@ export interface ReadRecord { offset: number; length: number; into: boolean }
  * A source over `bytes` that copies every range it hands out (like a file), with `readInto` (like a file
  * on disk) or without it (like a Blob), logging each read in `log`.
  */
-export function copyingSource(name: string, bytes: Uint8Array, opts: { readInto?: boolean; log?: ReadRecord[] } = {}): ByteSource {
+export function copyingSource(name: string, bytes: Uint8Array, opts: { readInto?: boolean; log?: ReadRecord[]; chunkBytes?: number } = {}): ByteSource {
   const log = opts.log;
   const src: ByteSource = {
     name,
     size: bytes.length,
+    ...(opts.chunkBytes !== undefined ? { chunkBytes: opts.chunkBytes } : {}),
     async read(offset, length) {
       const end = Math.min(bytes.length, offset + length);
       log?.push({ offset, length: Math.max(0, end - offset), into: false });

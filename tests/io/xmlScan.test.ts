@@ -4,7 +4,11 @@
  * `<AppendedData>` (raw bytes after `_`).
  */
 import { describe, expect, it } from 'vitest';
-import { child, scanXml } from '../../src/io/xmlScan.ts';
+import { writeVtu } from '../../src/io/writeVtu.ts';
+import { buildSkeleton, scanSkeleton } from '../../src/io/xmlSkeleton.ts';
+import { child, scanXml, type XmlElement } from '../../src/io/xmlScan.ts';
+import { datasetOf, hexGrid } from '../../src/model/meshBuild.ts';
+import { copyingSource } from '../helpers/sources.ts';
 
 const enc = (s: string) => new TextEncoder().encode(s);
 const text = (bytes: Uint8Array, el: { textStart: number; textEnd: number }) => new TextDecoder().decode(bytes.subarray(el.textStart, el.textEnd));
@@ -65,5 +69,33 @@ describe('scanXml', () => {
     expect(() => scanXml(enc('<VTKFile><AppendedData encoding="raw">abc</AppendedData></VTKFile>'), 'u.vtu')).toThrow(/must start with "_"/);
     expect(() => scanXml(enc('<VTKFile><AppendedData encoding="zip">_</AppendedData></VTKFile>'), 'z.vtu')).toThrow(/encoding="zip"/);
     expect(() => scanXml(enc('   '), 'e.vtu')).toThrow('e.vtu: no XML element found');
+  });
+});
+
+describe('structure from a streamed skeleton (files with inline data read by ranges)', () => {
+  // Reference: scanXml on the whole bytes; the skeleton must give the same tree with the same file positions.
+  const shape = (el: XmlElement): unknown => ({ name: el.name, attrs: [...el.attrs], at: el.at, text: [el.textStart, el.textEnd], children: el.children.map(shape) });
+  const ascii = Buffer.from(writeVtu(datasetOf([hexGrid(6, 5, 4)], 'm'), { encoding: 'ascii' })).toString('latin1')
+    .replace('<UnstructuredGrid>', '<!-- a > b <c> --><?pi x?>\n<UnstructuredGrid>')
+    .replace(/<DataArray type="Float64" Name="Points"/, '<DataArray type="Float64" Name="Points" note="a>b"');
+
+  it('gives the tree and positions of scanXml on the whole file, in chunks of any size; the skeleton is small', async () => {
+    const bytes = new Uint8Array(Buffer.from(ascii, 'latin1'));
+    const want = shape(scanXml(bytes, 'm.vtu').root);
+    for (const chunkBytes of [1, 2, 7, 64, 4096]) {
+      const doc = await scanSkeleton(copyingSource('m.vtu', bytes, { chunkBytes }), 'm.vtu');
+      expect(shape(doc!.root), `chunks of ${chunkBytes}`).toEqual(want);
+    }
+    const sk = await buildSkeleton(copyingSource('m.vtu', bytes));
+    expect(sk!.bytes.length).toBeLessThan(bytes.length / 10);
+  });
+
+  it('errors carry file positions; a file with appended data is left to the whole-file path', async () => {
+    const cut = new Uint8Array(Buffer.from(ascii.slice(0, ascii.indexOf('</Points>')), 'latin1'));
+    const whole = (() => { try { scanXml(cut, 'm.vtu'); return ''; } catch (e) { return (e as Error).message; } })();
+    expect(whole).toMatch(/^m\.vtu: file ends inside <\w+> opened at byte \d+/);
+    await expect(scanSkeleton(copyingSource('m.vtu', cut, { chunkBytes: 100 }), 'm.vtu')).rejects.toThrow(whole);
+    const raw = writeVtu(datasetOf([hexGrid(2, 2, 2)], 'r'), { encoding: 'appended-raw' });
+    expect(await buildSkeleton(copyingSource('r.vtu', raw))).toBeUndefined();
   });
 });

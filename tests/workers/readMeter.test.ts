@@ -4,6 +4,7 @@
  */
 import { describe, expect, it } from 'vitest';
 import { bytesSource } from '../../src/io/byteSource.ts';
+import { STRUCTURE_STAGE } from '../../src/io/xmlSkeleton.ts';
 import { ReadMeter } from '../../workers/readMeter.ts';
 
 const source = (name: string, size: number) => {
@@ -45,5 +46,20 @@ describe('ReadMeter', () => {
     await p0.read(0, 1000);
     await p1.read(0, 400);
     expect(m.done(report(10, 1000))).toBe(2400);
+  });
+  it('an XML file with inline data: the structure pass by its position, then the array pass from zero by bytes fetched beyond it', async () => {
+    const m = new ReadMeter(1000);
+    const src = m.wrap(source('a.vtu', 1000));
+    const structure = (done: number) => ({ stage: STRUCTURE_STAGE, bytesDone: done, bytesTotal: 1000 });
+    await src.read(0, 400);
+    expect(m.done(structure(400))).toBe(400);
+    await src.read(400, 600);
+    expect(m.done(structure(1000))).toBe(1000);
+    // the arrays: the bar starts again and counts what is fetched beyond the first pass
+    await src.read(10, 300);
+    expect(m.done(report(310, 1000))).toBe(300);
+    await src.read(310, 500);
+    expect(m.done(report(810, 1000))).toBe(800);
+    expect(m.done(report(200, 1000))).toBe(800);
   });
 });
