@@ -12,11 +12,12 @@ const RESULT_FILE = /\.(vtk|vtu|vtp)$/i;
 /**
  * Peak memory of a load per byte of file, by how the file stores its arrays: the decoded arrays per file
  * byte times the reader's peak over the decoded arrays, both measured with `fieldtally bench --stages load`
- * on the 1M-cell pipe and sphere of sample-fields/large (compressed 4.0–5.6, text and base64 1.5–1.7,
- * raw binary 0.74–0.79), plus a quarter for the boundary surfaces and their drawing (common practice
- * margin). Compression ratios vary with the data; smooth fields compress best, so `compressed` errs high.
+ * on the 1M-cell pipe and sphere of sample-fields/large (compressed 4.0–5.6; XML text and base64, streamed
+ * array by array, 0.50–0.68; legacy ASCII, read whole, 1.5–1.7; raw binary 0.74–0.79), plus a quarter for
+ * the boundary surfaces and their drawing (common practice margin), rounded up. Compression ratios vary
+ * with the data; smooth fields compress best, so `compressed` errs high.
  */
-export const MEMORY_PER_FILE_BYTE = { compressed: 7, text: 2, raw: 1, unknown: 2.5 } as const;
+export const MEMORY_PER_FILE_BYTE = { compressed: 7, text: 2, streamedText: 1, raw: 1, unknown: 2.5 } as const;
 
 export type StorageKind = keyof typeof MEMORY_PER_FILE_BYTE;
 
@@ -24,8 +25,9 @@ export type StorageKind = keyof typeof MEMORY_PER_FILE_BYTE;
 const HEAD_BYTES = 4096;
 
 /**
- * How a VTK file stores its arrays, from its first bytes: zlib-compressed XML; text or base64 (inline XML
- * data, base64 appended data, ASCII legacy files); raw binary (raw appended XML, binary legacy files).
+ * How a VTK file stores its arrays, from its first bytes: zlib-compressed XML; text read whole (ASCII
+ * legacy files, XML files mixing inline and appended data); text or base64 streamed array by array (XML
+ * inline data, base64 appended data); raw binary (raw appended XML, binary legacy files).
  */
 export function storageKind(head: string): StorageKind {
   const legacy = /^\s*# vtk DataFile[^\n]*\n[^\n]*\n\s*(ASCII|BINARY)/i.exec(head);
@@ -35,8 +37,9 @@ export function storageKind(head: string): StorageKind {
   const formats = new Set([...head.matchAll(/\bformat\s*=\s*["'](ascii|binary|appended)["']/g)].map((m) => m[1]));
   // the compressor applies to binary and appended arrays only
   if (/\bcompressor\s*=\s*["'][^"']+["']/.test(root) && (formats.has('binary') || formats.has('appended'))) return 'compressed';
-  if (formats.has('ascii') || formats.has('binary')) return 'text';
-  if (formats.has('appended')) return /<AppendedData\b[^>]*\bencoding\s*=\s*["']base64["']/.test(head) ? 'text' : 'raw';
+  const inline = formats.has('ascii') || formats.has('binary');
+  if (inline) return formats.has('appended') ? 'text' : 'streamedText';
+  if (formats.has('appended')) return /<AppendedData\b[^>]*\bencoding\s*=\s*["']base64["']/.test(head) ? 'streamedText' : 'raw';
   return 'unknown';
 }
 

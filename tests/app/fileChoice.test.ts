@@ -40,17 +40,22 @@ const REPO = join(__dirname, '../..');
 const EXTERNAL = join(REPO, '../shared/fields/external');
 
 describe('storageKind', () => {
-  it('tells compressed, text, base64 and raw storage from the first bytes', () => {
+  it('tells compressed, text read whole, text streamed by arrays and raw storage from the first bytes', () => {
     // the headers of these files are described in ../shared/fields/external/SOURCES.md and sample-fields/README.md
     expect(storageKind(head(join(REPO, 'sample-fields/pipe-medium.vtu')))).toBe('compressed');
     expect(storageKind(head(join(REPO, 'sample-fields/pipe-coarse.vtk')))).toBe('raw');
     expect(storageKind(head(join(EXTERNAL, 'vtk-data/Wedge.vtu')))).toBe('raw');
     expect(storageKind(head(join(EXTERNAL, 'vtk-data/AngularSector.vtk')))).toBe('text');
-    expect(storageKind(head(join(EXTERNAL, 'vtkio/hexahedron_ascii.vtu')))).toBe('text');
-    expect(storageKind(head(join(EXTERNAL, 'vtkio/hexahedron_inline_binary.vtu')))).toBe('text');
+    expect(storageKind(head(join(EXTERNAL, 'vtkio/hexahedron_ascii.vtu')))).toBe('streamedText');
+    expect(storageKind(head(join(EXTERNAL, 'vtkio/hexahedron_inline_binary.vtu')))).toBe('streamedText');
     expect(storageKind(head(join(EXTERNAL, 'vtk-data/cow.vtp')))).toBe('compressed');
     // a compressor on a file whose arrays are all ASCII compresses nothing
-    expect(storageKind(head(join(EXTERNAL, 'vtk-data/polyhedron2pieces.vtu')))).toBe('text');
+    expect(storageKind(head(join(EXTERNAL, 'vtk-data/polyhedron2pieces.vtu')))).toBe('streamedText');
+    // inline and appended data together are read whole; base64 appended data are streamed array by array
+    const xml = (arrays: string, appended = '') => `<?xml version="1.0"?>\n<VTKFile type="UnstructuredGrid" version="1.0">\n<UnstructuredGrid><Piece>${arrays}</Piece></UnstructuredGrid>${appended}`;
+    expect(storageKind(xml('<DataArray format="ascii">1 2</DataArray><DataArray format="appended" offset="0"/>', '<AppendedData encoding="raw">_'))).toBe('text');
+    expect(storageKind(xml('<DataArray format="appended" offset="0"/>', '<AppendedData encoding="base64">_'))).toBe('streamedText');
+    expect(storageKind(xml('<DataArray format="appended" offset="0"/>', '<AppendedData encoding="raw">_'))).toBe('raw');
     expect(storageKind('PK\u0003\u0004 not a VTK file')).toBe('unknown');
   });
 });

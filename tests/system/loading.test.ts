@@ -6,11 +6,14 @@
  * tests/.screenshots/ (git-ignored).
  */
 import { execFileSync } from 'node:child_process';
-import { existsSync, mkdirSync } from 'node:fs';
+import { existsSync, mkdirSync, mkdtempSync, rmSync, statSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import type { Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { MEMORY_PER_FILE_BYTE } from '../../src/app/fileChoice.ts';
+import { loadDatasetFile } from '../../src/io/nodeFiles.ts';
+import { writeVtu } from '../../src/io/writeVtu.ts';
 import { REPO, longTasksSince, openApp, pageNow, waitIdle, type AppSession, type Browser } from './browser.ts';
 
 const SHOTS = join(REPO, 'tests/.screenshots');
@@ -178,6 +181,22 @@ describe('loading a large file', () => {
     await waitIdle(page, 90_000);
     expect(await summary()).toMatch(/— 1,001,472 cells/);
     await shot('24-memory-warning-accepted');
+  });
+
+  it('an XML file with inline ASCII data opens, read by ranges in the worker, with the counts of the same mesh', async () => {
+    const dir = mkdtempSync(join(tmpdir(), 'fieldtally-ascii-'));
+    try {
+      const path = join(dir, 'pipe-medium-ascii.vtu');
+      writeFileSync(path, writeVtu(await loadDatasetFile(PIPE), { encoding: 'ascii' }));
+      // larger than the 64 KB head, so the worker streams its structure rather than reading it whole
+      expect(statSync(path).size).toBeGreaterThan(64 * 1024);
+      await openFile(path, 'pipe-medium-ascii.vtu');
+      expect(await summary()).toMatch(/^pipe-medium-ascii\.vtu — 4,320 cells, 4,825 points/);
+      expect(await drawnPixels()).toBeGreaterThan(20_000);
+      expect(await page.locator('.banner[data-kind=error]').count()).toBe(0);
+    } finally {
+      rmSync(dir, { recursive: true, force: true });
+    }
   });
 
   it('made no request beyond localhost and logged no error', () => {
