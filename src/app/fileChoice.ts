@@ -12,10 +12,11 @@ const RESULT_FILE = /\.(vtk|vtu|vtp)$/i;
 /**
  * Peak memory of a load per byte of file, by how the file stores its arrays: the decoded arrays per file
  * byte times the reader's peak over the decoded arrays, both measured with `fieldtally bench --stages load`
- * on the 1M-cell pipe and sphere of sample-fields/large (compressed 4.0–5.6; XML text and base64, streamed
- * array by array, 0.50–0.68; legacy ASCII, read whole, 1.5–1.7; raw binary 0.74–0.79), plus a quarter for
- * the boundary surfaces and their drawing (common practice margin), rounded up. Compression ratios vary
- * with the data; smooth fields compress best, so `compressed` errs high.
+ * on the 1M-cell pipe and sphere of sample-fields/large (compressed 4.0–5.6; text and base64, streamed
+ * array by array, 0.50–0.68; raw binary 0.74–0.79; text read whole, as an XML file mixing inline and
+ * appended data is, 1.5–1.7), plus a quarter for the boundary surfaces and their drawing (common practice
+ * margin), rounded up. Compression ratios vary with the data; smooth fields compress best, so
+ * `compressed` errs high.
  */
 export const MEMORY_PER_FILE_BYTE = { compressed: 7, text: 2, streamedText: 1, raw: 1, unknown: 2.5 } as const;
 
@@ -25,13 +26,13 @@ export type StorageKind = keyof typeof MEMORY_PER_FILE_BYTE;
 const HEAD_BYTES = 4096;
 
 /**
- * How a VTK file stores its arrays, from its first bytes: zlib-compressed XML; text read whole (ASCII
- * legacy files, XML files mixing inline and appended data); text or base64 streamed array by array (XML
- * inline data, base64 appended data); raw binary (raw appended XML, binary legacy files).
+ * How a VTK file stores its arrays, from its first bytes: zlib-compressed XML; text read whole (XML files
+ * mixing inline and appended data); text or base64 streamed array by array (ASCII legacy files, XML inline
+ * data, base64 appended data); raw binary (raw appended XML, binary legacy files).
  */
 export function storageKind(head: string): StorageKind {
   const legacy = /^\s*# vtk DataFile[^\n]*\n[^\n]*\n\s*(ASCII|BINARY)/i.exec(head);
-  if (legacy) return legacy[1]!.toUpperCase() === 'ASCII' ? 'text' : 'raw';
+  if (legacy) return legacy[1]!.toUpperCase() === 'ASCII' ? 'streamedText' : 'raw';
   const root = /<VTKFile\b[^>]*>/.exec(head)?.[0];
   if (!root) return 'unknown';
   const formats = new Set([...head.matchAll(/\bformat\s*=\s*["'](ascii|binary|appended)["']/g)].map((m) => m[1]));

@@ -84,11 +84,31 @@ function longMantissa(m1: number, d2: number, m2: number, e: number): number {
  * the range ends early.
  */
 export function parseNumbers(bytes: Uint8Array, pos: number, end: number, out: NumberSink, where: string): number {
+  return parseInto(bytes, pos, end, out, where, false);
+}
+
+/** Numbers the last `parseSomeNumbers` call read. */
+let someCount = 0;
+export const parsedCount = (): number => someCount;
+
+/**
+ * Reads up to `out.length` numbers from `bytes[pos, end)` into `out`, stopping early at `end` (the text
+ * is read in windows that end on whitespace); `parsedCount()` then tells how many. Returns the position
+ * after the last number read. Throws as `parseNumbers` on a token that is not a number.
+ */
+export function parseSomeNumbers(bytes: Uint8Array, pos: number, end: number, out: NumberSink, where: string): number {
+  return parseInto(bytes, pos, end, out, where, true);
+}
+
+function parseInto(bytes: Uint8Array, pos: number, end: number, out: NumberSink, where: string, partial: boolean): number {
   const n = out.length;
   let i = 0;
   while (i < n) {
     while (pos < end && isSpace(bytes[pos]!)) pos++;
-    if (pos >= end) throw new Error(`${where}: expected ${n} numbers, found only ${i}`);
+    if (pos >= end) {
+      if (partial) break;
+      throw new Error(`${where}: expected ${n} numbers, found only ${i}`);
+    }
     const start = pos;
     let c = bytes[pos]!;
     let neg = false;
@@ -140,6 +160,7 @@ export function parseNumbers(bytes: Uint8Array, pos: number, end: number, out: N
     else out[i] = slowToken(bytes, start, pos, where, i); // the token keeps its sign
     i++;
   }
+  someCount = i;
   return pos;
 }
 

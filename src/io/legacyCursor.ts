@@ -3,14 +3,16 @@
  * counts and names, whole lines for the header and metadata blocks, the start of binary data, and
  * positions named for messages (line numbers in ASCII files, byte offsets in binary ones).
  *
- * The cursor sees a window of the file: all of it (in-memory files, ASCII files), or, for a binary file
- * read from a source, the text around the binary arrays: the window starts after each array, which is
- * read straight from the source into its final array (`binaryArray`). Text that runs past the window
- * (keyword sections longer than `WINDOW_BYTES`, which VTK never writes) stops the read with
- * `WINDOW_EXHAUSTED`, and the caller starts again on the whole file.
+ * The cursor sees a window of the file: all of it (in-memory files), or, for a file read from a source,
+ * a window that moves forward: for a binary file the text around the binary arrays (the window starts
+ * after each array, which is read straight from the source into its final array, `binaryArray`); for a
+ * text file about `DATA_WINDOW_BYTES` of text while its numbers are parsed (`textWindow`); line numbers
+ * for messages are counted only when a message is shown (`resolve`). Keyword text that runs past the window (sections longer than
+ * `WINDOW_BYTES`, which VTK never writes) stops the read with `WINDOW_EXHAUSTED`, and the caller starts
+ * again on the whole file.
  */
 import type { NumericArray } from '../model/fieldArray.ts';
-import type { ByteSource } from './byteSource.ts';
+import { readInto, type ByteSource } from './byteSource.ts';
 import type { ArrayPlan } from './elementConvert.ts';
 import { ELEMENT_SIZE } from './elementTypes.ts';
 import type { Checkpoint } from './loadOptions.ts';
@@ -25,6 +27,9 @@ const utf8 = new TextDecoder('utf-8');
 
 /** Bytes of text the window holds after each binary array. */
 export const WINDOW_BYTES = 64 << 10;
+
+/** Bytes of text the window holds while the numbers of a text file read from a source are parsed. */
+export const DATA_WINDOW_BYTES = 1 << 20;
 
 /** Thrown (not an error) when the text runs past the window of a file read from a source. */
 export const WINDOW_EXHAUSTED = Symbol('legacy text beyond the window');
@@ -66,6 +71,8 @@ export class LegacyCursor {
   base = 0;
   private memoPos = 0;
   private memoLine = 1;
+  /** Reused for the windows of a file read from a source. */
+  private windowBuffer = new Uint8Array(0);
 
   /**
    * A cursor over `source`, starting with `window` (the file's first bytes, or all of them).
@@ -101,8 +108,15 @@ export class LegacyCursor {
 
   /** Moves the window to start at the current position (at least `n` bytes of it, up to the end of the file). */
   private async refill(n: number): Promise<void> {
-    const at = this.base + this.pos;
-    this.bytes = await this.source.read(at, Math.max(n, WINDOW_BYTES));
+    const at = this.base + this.pos, len = Math.min(Math.max(n, WINDOW_BYTES), this.source.size - at);
+    if (this.binary) {
+      this.bytes = await this.source.read(at, len);
+    } else {
+      // text: nothing keeps a view of the old window (words and values are copied out), so its buffer is reused
+      if (this.windowBuffer.length < len) this.windowBuffer = new Uint8Array(Math.max(len, DATA_WINDOW_BYTES));
+      this.bytes = this.windowBuffer.subarray(0, len);
+      await readInto(this.source, at, this.bytes);
+    }
     this.wordStart = this.wordStart + this.base - at;
     this.base = at;
     this.pos = 0;
@@ -111,6 +125,25 @@ export class LegacyCursor {
   /** Makes sure `n` bytes from the position are in the window (or the rest of the file, if shorter). */
   async ensure(n: number): Promise<void> {
     if (this.bytes.length - this.pos < n && !this.whole) await this.refill(n);
+  }
+
+  /**
+   * For the numbers of a text file read from a source: moves the window on when less than a sixteenth of
+   * `DATA_WINDOW_BYTES` is left ahead, and returns the end of the whole words in it (after its last
+   * whitespace, or its end at the end of the file).
+   */
+  async textWindow(): Promise<number> {
+    if (!this.whole && this.bytes.length - this.pos < DATA_WINDOW_BYTES / 16) await this.refill(DATA_WINDOW_BYTES);
+    const b = this.bytes;
+    if (this.whole) return b.length;
+    let e = b.length;
+    while (e > this.pos && !isSpace(b[e - 1]!)) e--;
+    return e;
+  }
+
+  /** After data parsed from windows: keeps `WINDOW_BYTES / 2` of text ahead for the keywords that follow. */
+  async keepTextAhead(): Promise<void> {
+    if (!this.whole && this.bytes.length - this.pos < WINDOW_BYTES / 2) await this.refill(WINDOW_BYTES);
   }
 
   /** Moves the position `n` bytes on (past data the caller has checked fit in the file), keeping text ahead in the window. */
@@ -129,9 +162,8 @@ export class LegacyCursor {
     return values;
   }
 
-  /** 1-based line number of byte `pos`; counts forward from the last query, so a pass over the file is linear. */
+  /** 1-based line number of byte `pos` of a file read whole; counts forward from the last query, so a pass over the file is linear. */
   lineOf(pos: number): number {
-    // Line numbers are asked for in text files only, which are read whole (base 0).
     const b = this.bytes;
     if (pos < this.memoPos) { this.memoPos = 0; this.memoLine = 1; }
     let line = this.memoLine;
@@ -149,9 +181,35 @@ export class LegacyCursor {
     return this.binary ? `byte ${this.base + pos}` : `line ${MARK}${this.base + pos}${MARK}`;
   }
 
-  /** Replaces the position marks left by `at` in a message with line numbers. */
-  resolve(message: string): string {
-    return message.replace(MARKED, (_, p: string) => String(this.lineOf(Number(p))));
+  /**
+   * Replaces the position marks left by `at` in messages with line numbers: from the window when it holds
+   * the whole file, else by one more pass over the file up to the last mark (only when a message has one).
+   */
+  async resolve(messages: readonly string[]): Promise<string[]> {
+    const marks = [...new Set(messages.flatMap((m) => [...m.matchAll(MARKED)].map((x) => Number(x[1]))))].sort((a, b) => a - b);
+    if (marks.length === 0) return [...messages];
+    const line = new Map<number, number>();
+    if (this.base === 0 && this.bytes.length >= this.source.size) {
+      this.memoPos = 0; this.memoLine = 1;
+      for (const p of marks) line.set(p, this.lineOf(p));
+    } else {
+      const buf = new Uint8Array(Math.min(DATA_WINDOW_BYTES, this.source.size));
+      let n = 1, k = 0;
+      for (let base = 0; k < marks.length && base < this.source.size; base += buf.length) {
+        const len = Math.min(buf.length, this.source.size - base), chunk = buf.subarray(0, len);
+        await readInto(this.source, base, chunk);
+        let p = 0;
+        for (; k < marks.length && marks[k]! < base + len; k++) {
+          const to = marks[k]! - base;
+          for (let i = chunk.indexOf(10, p); i >= 0 && i < to; i = chunk.indexOf(10, i + 1)) n++;
+          p = to;
+          line.set(marks[k]!, n);
+        }
+        for (let i = chunk.indexOf(10, p); i >= 0; i = chunk.indexOf(10, i + 1)) n++;
+      }
+      for (; k < marks.length; k++) line.set(marks[k]!, n);
+    }
+    return messages.map((m) => m.replace(MARKED, (_, p: string) => String(line.get(Number(p)))));
   }
 
   /** Message prefix naming the file, the section and its position: `f.vtk: POINTS (line 5)`. */

@@ -5,7 +5,7 @@
  * before anything is allocated: a binary value takes its element size, a text value at least 2 bytes
  * (a digit and a separator).
  */
-import { parseNumbers, type NumberSink } from './asciiNumbers.ts';
+import { parseNumbers, parseSomeNumbers, parsedCount, type NumberSink } from './asciiNumbers.ts';
 import type { ArrayPlan } from './elementConvert.ts';
 import { ELEMENT_SIZE, allocateFor, type ElementType } from './elementTypes.ts';
 import type { Checkpoint } from './loadOptions.ts';
@@ -70,14 +70,35 @@ function parseFailureFrom(cur: LegacyCursor, from: number, index: number, left: 
   return new Error(`${where}: cannot parse the values (the section declares ${total})`);
 }
 
-/** Parses `out.length` text values at the cursor; failures name the value and its line. */
-function parseChunk(cur: LegacyCursor, out: NumberSink, base: number, total: number, where: string): void {
-  const start = cur.pos;
-  try {
-    cur.pos = parseNumbers(cur.bytes, start, cur.bytes.length, out, where);
-  } catch {
-    throw parseFailureFrom(cur, start, base, out.length, total, where);
+/**
+ * Parses `total` text values at the cursor, in pieces of at most `ASCII_CHUNK`: each piece is parsed into
+ * `sink(i, k)` (room for values i … i + k − 1), then `take(i, n, start)` gets the n values parsed, with
+ * the window still holding their text from `start`. A file read whole is parsed in place; one read by
+ * windows piece by piece up to each window's last whole word. Failures name the value and its line.
+ */
+async function eachTextPiece(cur: LegacyCursor, total: number, where: string, cp: Checkpoint,
+  sink: (i: number, k: number) => NumberSink, take: (i: number, n: number, start: number) => void): Promise<void> {
+  const streamed = !cur.whole;
+  for (let i = 0; i < total;) {
+    const end = streamed ? await cur.textWindow() : cur.bytes.length;
+    const k = Math.min(ASCII_CHUNK, total - i), start = cur.pos;
+    let n = k;
+    try {
+      if (streamed) { cur.pos = parseSomeNumbers(cur.bytes, start, end, sink(i, k), where); n = parsedCount(); }
+      else cur.pos = parseNumbers(cur.bytes, start, end, sink(i, k), where);
+    } catch {
+      throw parseFailureFrom(cur, start, i, k, total, where);
+    }
+    if (n === 0) {
+      // nothing whole in the window: the end of the file, or a word longer than the window
+      if (cur.whole) throw parseFailureFrom(cur, start, i, k, total, where);
+      throw new Error(`${where}: value ${i} (${cur.at(start)}) runs on for more than ${cur.bytes.length - start} bytes, expected a number`);
+    }
+    take(i, n, start);
+    i += n;
+    await cp.at(STAGE, cur.base + cur.pos);
   }
+  if (streamed) await cur.keepTextAhead();
 }
 
 /**
@@ -85,25 +106,22 @@ function parseChunk(cur: LegacyCursor, out: NumberSink, base: number, total: num
  * `range`. Values go straight into float targets and through the scratch buffer into integer ones.
  */
 async function readAscii(cur: LegacyCursor, out: NumericArray | Int32Array, range: [number, number] | undefined, what: string, where: string, cp: Checkpoint): Promise<void> {
-  const total = out.length;
-  for (let i = 0; i < total; i += ASCII_CHUNK) {
-    const k = Math.min(ASCII_CHUNK, total - i), start = cur.pos;
-    if (!range) {
-      parseChunk(cur, out.subarray(i, i + k), i, total, where);
-    } else {
-      const s = scratchOf(k), lo = range[0], hi = range[1];
-      parseChunk(cur, s, i, total, where);
-      for (let j = 0; j < k; j++) {
-        const v = s[j]!;
-        if (!(v >= lo && v <= hi) || Math.floor(v) !== v) {
-          const t = tokenAt(cur.bytes, start, j)!;
-          throw new Error(`${where}: value ${i + j} (${cur.at(t[0])}) is ${quoted(text(cur.bytes, t[0], t[1]))}, expected ${what} in ${lo}..${hi}`);
-        }
-        out[i + j] = v;
-      }
-    }
-    await cp.at(STAGE, cur.pos);
+  if (!range) {
+    await eachTextPiece(cur, out.length, where, cp, (i, k) => out.subarray(i, i + k), () => undefined);
+    return;
   }
+  const lo = range[0], hi = range[1];
+  await eachTextPiece(cur, out.length, where, cp, (_, k) => scratchOf(k), (i, n, start) => {
+    const s = scratchOf(n);
+    for (let j = 0; j < n; j++) {
+      const v = s[j]!;
+      if (!(v >= lo && v <= hi) || Math.floor(v) !== v) {
+        const t = tokenAt(cur.bytes, start, j)!;
+        throw new Error(`${where}: value ${i + j} (${cur.at(t[0])}) is ${quoted(text(cur.bytes, t[0], t[1]))}, expected ${what} in ${lo}..${hi}`);
+      }
+      out[i + j] = v;
+    }
+  });
 }
 
 /**
@@ -161,15 +179,13 @@ export async function readColors(cur: LegacyCursor, count: number, where: string
   if (cur.binary) return (await readValues(cur, count, 'UInt8', where, cp)) as Uint8Array;
   checkRoom(cur, count, 1, where);
   const out = new Uint8Array(count);
-  for (let i = 0; i < count; i += ASCII_CHUNK) {
-    const k = Math.min(ASCII_CHUNK, count - i), s = scratchOf(k);
-    parseChunk(cur, s, i, count, where);
-    for (let j = 0; j < k; j++) {
+  await eachTextPiece(cur, count, where, cp, (_, k) => scratchOf(k), (i, n) => {
+    const s = scratchOf(n);
+    for (let j = 0; j < n; j++) {
       const v = Math.floor(s[j]! * 255 + 0.5);
       out[i + j] = v < 0 ? 0 : v > 255 ? 255 : v;
     }
-    await cp.at(STAGE, cur.pos);
-  }
+  });
   return out;
 }
 
@@ -182,11 +198,7 @@ export async function skipValues(cur: LegacyCursor, count: number, binaryType: E
     return;
   }
   checkRoom(cur, count, 1, where);
-  for (let i = 0; i < count; i += ASCII_CHUNK) {
-    const k = Math.min(ASCII_CHUNK, count - i);
-    parseChunk(cur, scratchOf(k), i, count, where);
-    await cp.at(STAGE, cur.pos);
-  }
+  await eachTextPiece(cur, count, where, cp, (_, k) => scratchOf(k), () => undefined);
 }
 
 /**

@@ -84,7 +84,7 @@ export async function readLegacyVtk(name: string, bytes: Uint8Array, opts: LoadO
 
 /**
  * Reads a legacy `.vtk` file from a source (see `readLegacyVtk`). A binary file is read section by
- * section, each array straight into its final form; a text file is read whole, once.
+ * section, each array straight into its final form; a text file through a window that moves forward.
  */
 export async function readLegacyVtkFrom(src: ByteSource, name: string = src.name, opts: LoadOptions = {}): Promise<Dataset> {
   checkAborted(opts.signal, name);
@@ -100,23 +100,24 @@ export async function readLegacyVtkFrom(src: ByteSource, name: string = src.name
 }
 
 async function readWith(cur: LegacyCursor, opts: LoadOptions): Promise<Dataset> {
+  let d: Dataset;
   try {
-    const d = await readBody(cur, opts);
-    return { ...d, warnings: d.warnings.map((w) => cur.resolve(w)) };
+    d = await readBody(cur, opts);
   } catch (e) {
     if (e instanceof Error) {
-      e.message = cur.resolve(e.message);
-      if (e.stack) e.stack = cur.resolve(e.stack);
+      const [message, stack] = await cur.resolve([e.message, e.stack ?? '']);
+      e.message = message!;
+      if (e.stack) e.stack = stack!;
     }
     throw e;
   }
+  return { ...d, warnings: await cur.resolve(d.warnings) };
 }
 
 async function readBody(cur: LegacyCursor, opts: LoadOptions): Promise<Dataset> {
   const name = cur.file;
   const header = readHeader(cur);
-  // Text data are parsed from the whole file; binary arrays are read one by one from the source.
-  if (!header.binary && !cur.whole) cur.useWhole(await readWhole(cur.source));
+  // Binary arrays are read one by one from the source; text is parsed from a window that moves forward.
   cur.binary = header.binary;
   const warnings: string[] = [];
   if (header.version > 5.1) warnings.push(`${name}: file version ${header.version} is newer than 5.1, the newest this reader knows; read as 5.1`);

@@ -45,7 +45,7 @@ describe('storageKind', () => {
     expect(storageKind(head(join(REPO, 'sample-fields/pipe-medium.vtu')))).toBe('compressed');
     expect(storageKind(head(join(REPO, 'sample-fields/pipe-coarse.vtk')))).toBe('raw');
     expect(storageKind(head(join(EXTERNAL, 'vtk-data/Wedge.vtu')))).toBe('raw');
-    expect(storageKind(head(join(EXTERNAL, 'vtk-data/AngularSector.vtk')))).toBe('text');
+    expect(storageKind(head(join(EXTERNAL, 'vtk-data/AngularSector.vtk')))).toBe('streamedText');
     expect(storageKind(head(join(EXTERNAL, 'vtkio/hexahedron_ascii.vtu')))).toBe('streamedText');
     expect(storageKind(head(join(EXTERNAL, 'vtkio/hexahedron_inline_binary.vtu')))).toBe('streamedText');
     expect(storageKind(head(join(EXTERNAL, 'vtk-data/cow.vtp')))).toBe('compressed');
