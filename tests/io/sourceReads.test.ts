@@ -148,8 +148,13 @@ describe('reads of a load', () => {
     const decorated = ascii
       .replace('<UnstructuredGrid>', '<!-- made by hand: a > b, <not a tag> --><?note keep?>\n<UnstructuredGrid>')
       .replace('<PointData', '<!----><PointData')
-      .replace(/<DataArray type="Float64" Name="Points"/, '<DataArray type="Float64" Name="Points" note="x > 0 &amp; y"');
+      .replace(/<DataArray type="Float64" Name="Points"/, '<DataArray type="Float64" Name="Points" note="x > 0 &amp; y"')
+      // information keys before an array's data, as VTK 9 writes them
+      .replace(/(<DataArray type="Int64" Name="connectivity"[^>]*>)/, '$1\n<InformationKey name="L2_NORM_RANGE" location="vtkDataArray" length="2"><Value index="0">0</Value><Value index="1">1.7</Value></InformationKey>\n');
     expect(decorated).not.toBe(ascii);
+    expect(decorated).toContain('<InformationKey');
+    expect(decorated).toContain('note="x > 0');
+    expect(decorated).toContain('<!-- made by hand');
     for (const [name, s] of [['plain.vtu', ascii], ['decorated.vtu', decorated]] as const) {
       const bytes = new Uint8Array(Buffer.from(s, 'latin1'));
       const want = await readDataset(name, bytes);
