@@ -102,6 +102,46 @@ const INT_RANGE: Partial<Record<ElementType, readonly [number, number]>> = {
 let asciiScratch = new Float64Array(0);
 const ASCII_CHUNK = 65536;
 
+/** The array an ASCII array is parsed into (`lead` zero slots first for ids), and whether straight in or through the scratch. */
+interface AsciiTarget {
+  readonly out: NumericArray;
+  readonly lead: number;
+  readonly range: readonly [number, number] | undefined;
+  readonly inPlace: boolean;
+}
+
+function asciiTarget(type: ElementType, count: number, want: Want): AsciiTarget {
+  const lead = want.target === 'ids' ? want.lead : 0;
+  const out = want.target === 'ids' ? new Int32Array(lead + count) : want.target === 'float64' ? new Float64Array(count) : allocateFor(type, count);
+  const range = INT_RANGE[type];
+  // Straight into the target when it holds doubles (or the file's own floats); through the scratch otherwise.
+  const inPlace = want.target !== 'ids' && (!range || out instanceof Float64Array);
+  if (!inPlace && asciiScratch.length < ASCII_CHUNK) asciiScratch = new Float64Array(ASCII_CHUNK);
+  return { out, lead, range, inPlace };
+}
+
+/**
+ * Parses values `i … i + k − 1` (k ≤ ASCII_CHUNK) of an ASCII array from `bytes[pos, end)` into the target,
+ * checking integers and ids; returns the position after them. `textStart` and `count` are for messages.
+ */
+function parseAsciiValues(t: AsciiTarget, bytes: Uint8Array, pos: number, end: number, i: number, k: number,
+  type: ElementType, want: Want, where: string, textStart: number, count: number): number {
+  const { out, range } = t;
+  if (t.inPlace) {
+    const chunk = out.subarray(i, i + k);
+    pos = parseAsciiChunk(bytes, pos, end, chunk, where, textStart, count, i);
+    if (range) checkIntegers(chunk, 0, k, range, type, where, i);
+    else if (type === 'Float32' && chunk instanceof Float64Array) for (let j = 0; j < k; j++) chunk[j] = Math.fround(chunk[j]!);
+  } else {
+    const chunk = asciiScratch.subarray(0, k);
+    pos = parseAsciiChunk(bytes, pos, end, chunk, where, textStart, count, i);
+    if (range) checkIntegers(chunk, 0, k, range, type, where, i);
+    if (want.target === 'ids') checkIds(chunk, k, want.min, where, i);
+    out.set(chunk, t.lead + i);
+  }
+  return pos;
+}
+
 /**
  * Parses an ASCII array straight into the array `want` asks for: integers go through the scratch (parsed
  * as doubles, checked against their type's range and, for ids, the id range); Float32 values are rounded
@@ -116,33 +156,16 @@ async function readAscii(ctx: XmlFileContext, el: XmlElement, type: ElementType,
   else if (count > Math.ceil((end - start) / 2)) {
     throw new Error(`${where}: declares ${count} values, the text holds ${countTokens(bytes, start, end)}`);
   }
-  const lead = want.target === 'ids' ? want.lead : 0;
-  const out = want.target === 'ids' ? new Int32Array(lead + count) : want.target === 'float64' ? new Float64Array(count) : allocateFor(type, count);
-  const range = INT_RANGE[type];
-  // Straight into the target when it holds doubles (or the file's own floats); through the scratch otherwise.
-  const inPlace = want.target !== 'ids' && (!range || out instanceof Float64Array);
-  if (!inPlace && asciiScratch.length < ASCII_CHUNK) asciiScratch = new Float64Array(ASCII_CHUNK);
+  const t = asciiTarget(type, count, want);
   let pos = start;
   for (let i = 0; i < count; i += ASCII_CHUNK) {
-    const k = Math.min(ASCII_CHUNK, count - i);
-    if (inPlace) {
-      const chunk = out.subarray(i, i + k);
-      pos = parseAsciiChunk(bytes, pos, end, chunk, where, start, count, i);
-      if (range) checkIntegers(chunk, 0, k, range, type, where, i);
-      else if (type === 'Float32' && chunk instanceof Float64Array) for (let j = 0; j < k; j++) chunk[j] = Math.fround(chunk[j]!);
-    } else {
-      const chunk = asciiScratch.subarray(0, k);
-      pos = parseAsciiChunk(bytes, pos, end, chunk, where, start, count, i);
-      if (range) checkIntegers(chunk, 0, k, range, type, where, i);
-      if (want.target === 'ids') checkIds(chunk, k, want.min, where, i);
-      out.set(chunk, lead + i);
-    }
+    pos = parseAsciiValues(t, bytes, pos, end, i, Math.min(ASCII_CHUNK, count - i), type, want, where, start, count);
     await ctx.cp.at('reading text', pos);
   }
   if (skipSpace(bytes, pos, end) < end) {
     throw new Error(`${where}: declares ${count} values, the text holds ${countTokens(bytes, start, end)}`);
   }
-  return out;
+  return t.out;
 }
 
 /**
@@ -184,12 +207,7 @@ async function readAsciiFromSource(ctx: XmlFileContext, el: XmlElement, type: El
   let count = expected;
   if (count === undefined) count = await holds();
   else if (count > Math.ceil((end - start) / 2)) throw new Error(`${where}: declares ${count} values, the text holds ${await holds()}`);
-  const lead = want.target === 'ids' ? want.lead : 0;
-  const out = want.target === 'ids' ? new Int32Array(lead + count) : want.target === 'float64' ? new Float64Array(count) : allocateFor(type, count);
-  const range = INT_RANGE[type];
-  const inPlace = want.target !== 'ids' && (!range || out instanceof Float64Array);
-  if (!inPlace && asciiScratch.length < ASCII_CHUNK) asciiScratch = new Float64Array(ASCII_CHUNK);
-  const n = count;
+  const t = asciiTarget(type, count, want), n = count;
   let i = 0, tooMany = false;
   await textWindows(src, start, end, where, async (w, at) => {
     if (tooMany) return;
@@ -198,18 +216,7 @@ async function readAsciiFromSource(ctx: XmlFileContext, el: XmlElement, type: El
     let pos = 0;
     for (let left = take; left > 0;) {
       const k = Math.min(ASCII_CHUNK, left);
-      if (inPlace) {
-        const chunk = out.subarray(i, i + k);
-        pos = parseAsciiChunk(w, pos, w.length, chunk, where, 0, n, i);
-        if (range) checkIntegers(chunk, 0, k, range, type, where, i);
-        else if (type === 'Float32' && chunk instanceof Float64Array) for (let j = 0; j < k; j++) chunk[j] = Math.fround(chunk[j]!);
-      } else {
-        const chunk = asciiScratch.subarray(0, k);
-        pos = parseAsciiChunk(w, pos, w.length, chunk, where, 0, n, i);
-        if (range) checkIntegers(chunk, 0, k, range, type, where, i);
-        if (want.target === 'ids') checkIds(chunk, k, want.min, where, i);
-        out.set(chunk, lead + i);
-      }
+      pos = parseAsciiValues(t, w, pos, w.length, i, k, type, want, where, 0, n);
       i += k; left -= k;
     }
     if (take < inWindow) { tooMany = true; return; }
@@ -218,7 +225,7 @@ async function readAsciiFromSource(ctx: XmlFileContext, el: XmlElement, type: El
     await ctx.cp.at('reading text', at + w.length);
   });
   if (tooMany || i < n) throw new Error(`${where}: declares ${n} values, the text holds ${await holds()}`);
-  return out;
+  return t.out;
 }
 
 /** Checks parsed values are ids in `[min, 2^31 − 1]`; `base` is the chunk's index in the array, for messages. */
