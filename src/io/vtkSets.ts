@@ -124,7 +124,13 @@ async function collect(setName: string, bytes: Uint8Array, resolve: ResolveSourc
     const leaf = await fetchPiece(setName, resolve, path);
     try {
       const leafName = `${setName}: ${path}`;
-      const input = await scanXmlSource(leaf, leafName, new Checkpoint(leafName, opts, leaf.size));
+      const progress = opts.onProgress;
+      const leafOpts: LoadOptions = {
+        ...(opts.signal ? { signal: opts.signal } : {}),
+        ...(opts.inflate ? { inflate: opts.inflate } : {}),
+        ...(progress ? { onProgress: (p) => progress({ ...p, stage: `piece ${i + 1} of ${leaves.length}: ${p.stage}` }) } : {}),
+      };
+      const input = await scanXmlSource(leaf, leafName, new Checkpoint(leafName, leafOpts, leaf.size));
       const leafType = fileSettings(input.doc, leafName).type;
       if (expectLeafType && leafType !== expectLeafType) {
         throw new Error(`${leafName}: piece file holds "${leafType}", but a ${type} set needs "${expectLeafType}" pieces`);
@@ -136,12 +142,6 @@ async function collect(setName: string, bytes: Uint8Array, resolve: ResolveSourc
         await collect(leafName, setBytes, (p) => resolve(joinPath(folder, p)), opts, depth + 1, acc);
         continue;
       }
-      const progress = opts.onProgress;
-      const leafOpts: LoadOptions = {
-        ...(opts.signal ? { signal: opts.signal } : {}),
-        ...(opts.inflate ? { inflate: opts.inflate } : {}),
-        ...(progress ? { onProgress: (p) => progress({ ...p, stage: `piece ${i + 1} of ${leaves.length}: ${p.stage}` }) } : {}),
-      };
       addLeaf(acc, await readVtkXmlInput(leafName, input, leafOpts), path, declared);
     } finally {
       await leaf.close?.();
