@@ -94,6 +94,9 @@ function throttle(cb: ProgressCallback | undefined): { send: (p: LoadProgress) =
  */
 const WARM_UP_DELAY_MS = 150;
 
+/** Whether this worker has scheduled the warm-up (recolouring asks for values again; one warm-up is enough). */
+let warmUpScheduled = false;
+
 /** Lets queued messages (a cancel) run before the load commits. */
 const yieldToMessages = (): Promise<void> => new Promise((r) => setTimeout(r, 0));
 
@@ -180,8 +183,11 @@ export function createComputeApi(): ComputeApi {
     async surfaceValues(field: FieldChoice): Promise<DrawingValues> {
       const h = need();
       const v = faceValues(h.dataset, facesOf(h), field);
-      // the picture is about to show: warm the cut kernels while the user looks at it (once per worker)
-      setTimeout(() => void warmUpCutKernels().catch((e: unknown) => console.warn('fieldtally: cut kernel warm-up failed (cuts stay correct, the first is slower)', e)), WARM_UP_DELAY_MS);
+      // the first picture is about to show: warm the cut kernels while the user looks at it (once per worker)
+      if (!warmUpScheduled) {
+        warmUpScheduled = true;
+        setTimeout(() => void warmUpCutKernels().catch((e: unknown) => console.warn('fieldtally: cut kernel warm-up failed (cuts stay correct, the first is slower)', e)), WARM_UP_DELAY_MS);
+      }
       return Comlink.transfer(v, [v.values.buffer]);
     },
 

@@ -7,9 +7,9 @@
  * a window that moves forward: for a binary file the text around the binary arrays (the window starts
  * after each array, which is read straight from the source into its final array, `binaryArray`); for a
  * text file about `DATA_WINDOW_BYTES` of text while its numbers are parsed (`textWindow`); line numbers
- * for messages are counted only when a message is shown (`resolve`). Keyword text that runs past the window (sections longer than
- * `WINDOW_BYTES`, which VTK never writes) stops the read with `WINDOW_EXHAUSTED`, and the caller starts
- * again on the whole file.
+ * for messages are counted only when a message is shown (`resolve`). Keyword text that runs past the
+ * window (sections longer than `WINDOW_BYTES`, which VTK never writes) stops the read with
+ * `WINDOW_EXHAUSTED`, and the caller starts again on the whole file.
  */
 import type { NumericArray } from '../model/fieldArray.ts';
 import { readInto, type ByteSource } from './byteSource.ts';

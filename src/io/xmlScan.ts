@@ -39,7 +39,8 @@ export interface XmlDocument {
 }
 
 const LT = 60, GT = 62, SLASH = 47, QMARK = 63, BANG = 33, EQ = 61, UNDERSCORE = 95;
-const isSpace = (c: number) => c === 32 || c === 10 || c === 13 || c === 9;
+/** XML whitespace (space, line feed, carriage return, tab). */
+export const isSpace = (c: number) => c === 32 || c === 10 || c === 13 || c === 9;
 const utf8 = new TextDecoder('utf-8');
 const TAIL_SEARCH = 4096;
 

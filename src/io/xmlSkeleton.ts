@@ -1,9 +1,9 @@
 /**
  * The structure of a VTK XML file with inline data, read without holding the file: the file is streamed
  * once in chunks and copied into a "skeleton" that keeps every tag, comment, instruction and blank run but
- * replaces each run of text between tags by one placeholder byte (`0`). The skeleton of a
- * 180 MB ASCII file is a few kilobytes; `scanXml` reads it, and the element positions are then mapped back
- * to the file, so each array's text is read by its own byte range afterwards (`xmlArrays.ts`).
+ * replaces each run of text between tags by one placeholder byte (`0`). The skeleton of a 180 MB ASCII
+ * file is a few kilobytes; `scanXml` reads it, and the element positions are then mapped back to the file,
+ * so each array's text is read by its own byte range afterwards (`xmlArrays.ts`).
  *
  * A file that also holds `<AppendedData>` is not sketched (its raw bytes may contain anything): the caller
  * reads such a file whole, as before.
@@ -11,13 +11,12 @@
 import { readInto, type ByteSource } from './byteSource.ts';
 import { SCRATCH_BYTES } from './elementConvert.ts';
 import type { Checkpoint } from './loadOptions.ts';
-import { scanXml, type XmlDocument, type XmlElement } from './xmlScan.ts';
+import { isSpace, scanXml, type XmlDocument, type XmlElement } from './xmlScan.ts';
 
 /** Progress stage of the structure pass (the load's first pass over a file with inline data). */
 export const STRUCTURE_STAGE = 'finding the structure';
 
 const LT = 60, GT = 62, QMARK = 63, BANG = 33, DASH = 45, PLACEHOLDER = 48;
-const isSpace = (c: number) => c === 32 || c === 10 || c === 13 || c === 9;
 const APPENDED_TAG = Uint8Array.from('<AppendedData', (c) => c.charCodeAt(0));
 
 /** Where a skeleton byte lies in the file: text placeholders shift everything after them. */
