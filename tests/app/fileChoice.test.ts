@@ -37,11 +37,11 @@ describe('loadRequestFor', () => {
 /** The first bytes of a file, as the memory estimate reads them. */
 const head = (path: string) => new TextDecoder('latin1').decode(readFileSync(path).subarray(0, 4096));
 const REPO = join(__dirname, '../..');
-const EXTERNAL = join(REPO, '../shared/fields/external');
+const EXTERNAL = join(REPO, 'tests/fixtures/external');
 
 describe('storageKind', () => {
   it('tells compressed, text read whole, text streamed by arrays and raw storage from the first bytes', () => {
-    // the headers of these files are described in ../shared/fields/external/SOURCES.md and sample-fields/README.md
+    // the headers of these files are described in tests/fixtures/external/SOURCES.md and sample-fields/README.md
     expect(storageKind(head(join(REPO, 'sample-fields/pipe-medium.vtu')))).toBe('compressed');
     expect(storageKind(head(join(REPO, 'sample-fields/pipe-coarse.vtk')))).toBe('raw');
     expect(storageKind(head(join(EXTERNAL, 'vtk-data/Wedge.vtu')))).toBe('raw');

@@ -1,7 +1,7 @@
 /**
  * A real file: the VTK test-data pipe `vtk-data/Quadratic/CylinderLinear.vtk` (1522 linear tetrahedra,
  * point velocity as a FIELD array, flow along −z), cut at z = 0.02, 0.05, 0.08.
- * Reference: ../shared/fields/external/SOURCES.md, "Reference numbers (computed with VTK 9.1)": cut area and
+ * Reference: tests/fixtures/external/SOURCES.md, "Reference numbers (computed with VTK 9.1)": cut area and
  * ∫velocity_z dA from vtkCutter followed by vtkIntegrateAttributes, given to 7 significant digits.
  */
 import { resolve } from 'node:path';
@@ -9,7 +9,7 @@ import { describe, expect, it } from 'vitest';
 import { integratePlane } from '../../src/cut/planeIntegrals.ts';
 import { loadDatasetFile } from '../../src/io/nodeFiles.ts';
 
-const FILE = resolve(process.cwd(), '../shared/fields/external/vtk-data/Quadratic/CylinderLinear.vtk');
+const FILE = resolve(__dirname, '../fixtures/external/vtk-data/Quadratic/CylinderLinear.vtk');
 
 const VTK = [
   { z: 0.02, area: 3.061921e-4, vz: -1.302056e-4 },

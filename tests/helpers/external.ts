@@ -1,5 +1,5 @@
 /**
- * Test access to the shared external VTK files in ../shared/fields/external (see SOURCES.md there).
+ * Test access to the external VTK files kept in tests/fixtures/external (see SOURCES.md there).
  * Paths are given relative to that folder, e.g. `vtk-data/cow.vtp`.
  */
 import { readFileSync } from 'node:fs';
@@ -9,7 +9,7 @@ import type { ResolveFile } from '../../src/io/loadOptions.ts';
 import type { Dataset } from '../../src/model/dataset.ts';
 
 /** Absolute path of the external folder. */
-export const EXTERNAL_DIR = resolve(__dirname, '../../../shared/fields/external');
+export const EXTERNAL_DIR = resolve(__dirname, '../fixtures/external');
 
 /** Absolute path of an external file, from its path relative to the external folder. */
 export function externalPath(rel: string): string {

@@ -11,7 +11,7 @@ import { readDataset } from '../../src/io/readDataset.ts';
 import { validatePiece } from '../../src/model/validate.ts';
 import { seededRandom as rng } from '../../src/model/seededRandom.ts';
 
-const EXTERNAL = resolve(__dirname, '../../../shared/fields/external');
+const EXTERNAL = resolve(__dirname, '../fixtures/external');
 
 function walk(dir: string): string[] {
   return readdirSync(dir).flatMap((f) => {

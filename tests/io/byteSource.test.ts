@@ -18,7 +18,7 @@ import { readDataset, readDatasetFrom } from '../../src/io/readDataset.ts';
 import { copyingSource, expectSameOutcome, outcome } from '../helpers/sources.ts';
 import { toBase64Appended, writtenDataset, writtenFiles } from '../helpers/writtenFiles.ts';
 
-const EXTERNAL = resolve(__dirname, '../../../shared/fields/external');
+const EXTERNAL = resolve(__dirname, '../fixtures/external');
 
 function walk(dir: string): string[] {
   return readdirSync(dir).flatMap((f) => {

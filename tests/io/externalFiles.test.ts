@@ -1,5 +1,5 @@
 /**
- * Every file in ../shared/fields/external loads with the counts, array names, components, ranges and
+ * Every file in tests/fixtures/external loads with the counts, array names, components, ranges and
  * bounds that VTK 9.1 reads from it (reference: tests/reference/vtk_info.py → expected/info/*.json,
  * produced with Debian's python3-vtk9), or is refused with the expected clear error.
  */
@@ -9,7 +9,7 @@ import { describe, expect, it } from 'vitest';
 import { loadDatasetFile } from '../../src/io/nodeFiles.ts';
 import { loadReport, type ArraySummary } from '../../src/model/loadReport.ts';
 
-const EXTERNAL = resolve(__dirname, '../../../shared/fields/external');
+const EXTERNAL = resolve(__dirname, '../fixtures/external');
 const EXPECTED = resolve(__dirname, '../reference/expected/info');
 
 interface VtkArray { name: string; components: number; range: [number, number] | null }

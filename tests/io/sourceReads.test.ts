@@ -200,7 +200,7 @@ describe('reads of a load', () => {
   });
 });
 
-const EXTERNAL = resolve(__dirname, '../../../shared/fields/external');
+const EXTERNAL = resolve(__dirname, '../fixtures/external');
 
 function walk(dir: string): string[] {
   return readdirSync(dir).flatMap((f) => {

@@ -14,7 +14,7 @@ import type { Dataset } from '../../src/model/dataset.ts';
 import { componentRange, fieldRange, tupleCount, type FieldArray } from '../../src/model/fieldArray.ts';
 import { cellCount, pointCount } from '../../src/model/piece.ts';
 
-const EXTERNAL = resolve(__dirname, '../../../shared/fields/external');
+const EXTERNAL = resolve(__dirname, '../fixtures/external');
 const EXPECTED = resolve(__dirname, '../reference/expected/legacy');
 
 interface VtkArray {
@@ -128,7 +128,7 @@ async function load(path: string): Promise<Dataset> {
 }
 
 describe('external legacy files against VTK 9.1', () => {
-  it('covers the eight legacy files of ../shared/fields/external (SOURCES.md)', () => {
+  it('covers the eight legacy files of tests/fixtures/external (SOURCES.md)', () => {
     expect(external.map((r) => r.file).sort()).toEqual([
       'vtk-data/AngularSector.vtk', 'vtk-data/Quadratic/CylinderLinear.vtk', 'vtk-data/Quadratic/CylinderQuadratic.vtk',
       'vtk-data/VTKCellTypes.vtk', 'vtk-data/opal_mound_fault.vtk', 'vtk-data/post.vtk',

@@ -1,8 +1,8 @@
 /**
  * fieldtally's line probe against VTK's probe filter (vtkLineSource + vtkProbeFilter, VTK 9.1 from Debian
  * python3-vtk9): the committed numbers in tests/reference/expected/probe/ come from
- * tests/reference/probe_reference.py, on a real file (../shared/fields/external/vtk-data/Quadratic/CylinderLinear.vtk,
- * see ../shared/fields/external/SOURCES.md) and on the sample fields. Where both find the sample inside the
+ * tests/reference/probe_reference.py, on a real file (tests/fixtures/external/vtk-data/Quadratic/CylinderLinear.vtk,
+ * see tests/fixtures/external/SOURCES.md) and on the sample fields. Where both find the sample inside the
  * mesh the values must agree. VTK accepts a point a little outside a cell (its own tolerance) and then
  * extrapolates in that cell; so where the values differ, the point must lie within VTK's band (here
  * 1 % of the cell size, parametric) of a neighbouring cell whose (extrapolated) value is VTK's, and such

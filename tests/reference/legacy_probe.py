@@ -1,7 +1,7 @@
 #!/usr/bin/python3
 """Reference numbers for the legacy .vtk reader, as VTK 9.1 (Debian python3-vtk9) reads the files.
 
-1. The external legacy files in ../shared/fields/external (listed in EXTERNAL_FILES).
+1. The external legacy files in tests/fixtures/external (listed in EXTERNAL_FILES).
 2. Small fixtures written by VTK's own legacy writers (vtkUnstructuredGridWriter, vtkPolyDataWriter) in
    file versions 4.2 and 5.1, ASCII and BINARY, covering every attribute kind the writers emit
    (SCALARS with components and an inline LOOKUP_TABLE, COLOR_SCALARS, VECTORS, NORMALS, TENSORS,
@@ -29,7 +29,7 @@ import sys
 import vtk
 
 ROOT = os.path.dirname(os.path.dirname(os.path.dirname(os.path.abspath(__file__))))
-EXTERNAL = os.path.normpath(os.path.join(ROOT, '..', 'shared', 'fields', 'external'))
+EXTERNAL = os.path.normpath(os.path.join(ROOT, 'tests', 'fixtures', 'external'))
 OUT = os.path.join(ROOT, 'tests', 'reference', 'expected', 'legacy')
 FIXTURES = os.path.join(OUT, 'fixtures')
 

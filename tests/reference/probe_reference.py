@@ -26,7 +26,7 @@ OUT = os.path.join(ROOT, 'tests', 'reference', 'expected', 'probe')
 
 # (output name, file relative to the repository root, [(line name, from, to, samples)]).
 CASES = [
-    ('CylinderLinear', '../shared/fields/external/vtk-data/Quadratic/CylinderLinear.vtk', [
+    ('CylinderLinear', 'tests/fixtures/external/vtk-data/Quadratic/CylinderLinear.vtk', [
         ('across-x', (-0.012, 0.0013, 0.0503), (0.012, 0.0013, 0.0503), 101),
         ('across-diagonal', (-0.007, -0.0069, 0.033), (0.0071, 0.007, 0.067), 81),
         ('along-axis', (0.0003, -0.0002, -0.01), (0.0003, -0.0002, 0.11), 121),

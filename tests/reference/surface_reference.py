@@ -22,7 +22,7 @@ import sys
 import vtk
 
 HERE = os.path.dirname(os.path.abspath(__file__))
-EXTERNAL = os.path.normpath(os.path.join(HERE, '..', '..', '..', 'shared', 'fields', 'external'))
+EXTERNAL = os.path.normpath(os.path.join(HERE, '..', 'fixtures', 'external'))
 OUT = os.path.join(HERE, 'expected', 'surface', 'boundary_faces.json')
 
 FILES = [

@@ -24,7 +24,7 @@ import sys
 import vtk
 
 ROOT = os.path.dirname(os.path.dirname(os.path.dirname(os.path.abspath(__file__))))
-EXTERNAL = os.path.normpath(os.path.join(ROOT, '..', 'shared', 'fields', 'external'))
+EXTERNAL = os.path.normpath(os.path.join(ROOT, 'tests', 'fixtures', 'external'))
 OUT = os.path.join(ROOT, 'tests', 'reference', 'expected', 'xml')
 
 FILES = [

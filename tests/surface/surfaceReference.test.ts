@@ -1,5 +1,5 @@
 /**
- * Boundary faces of the external VTK files (../shared/fields/external, SOURCES.md) against VTK 9.1's surface
+ * Boundary faces of the external VTK files (tests/fixtures/external, SOURCES.md) against VTK 9.1's surface
  * extraction, from tests/reference/surface_reference.py (JSON in tests/reference/expected/surface/).
  * Reference: VTK vtkDataSetSurfaceFilter on the 3D cells only (the filter passes 2D cells through, so the
  * script removes them first to compare like with like), areas from vtkCellSizeFilter.
@@ -11,7 +11,7 @@ import { loadDatasetFile } from '../../src/io/nodeFiles.ts';
 import { boundaryFaces, totalArea } from '../../src/surface/boundaryFaces.ts';
 import { surfaceQuality } from '../../src/surface/surfaceQuality.ts';
 
-const EXTERNAL = resolve(process.cwd(), '../shared/fields/external');
+const EXTERNAL = resolve(__dirname, '../fixtures/external');
 
 interface Entry { faces: number; area: number; facesBySize: Record<string, number>; cells3d: number }
 interface Reference { vtkVersion: string; files: Record<string, Entry & { merged: Entry }> }

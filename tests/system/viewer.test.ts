@@ -17,7 +17,7 @@ import { countColor, readPng } from './png.ts';
 const SHOTS = join(REPO, 'tests/.screenshots');
 const PIPE = join(REPO, 'sample-fields/pipe-medium.vtu');
 const SPHERE = join(REPO, 'sample-fields/sphere-stokes.vtu');
-const EXTERNAL = join(REPO, '../shared/fields/external');
+const EXTERNAL = join(REPO, 'tests/fixtures/external');
 /** Pin border and leader colour (src/ui/pins.ts PIN_STYLE), #1d4ed8. */
 const PIN_RGB: [number, number, number] = [0x1d, 0x4e, 0xd8];
 
@@ -213,7 +213,7 @@ describe('viewer', () => {
     await page.setInputFiles('#folder-input', folder);
     await page.waitForFunction(() => document.getElementById('file-summary')!.textContent!.startsWith('pyramids3D_parallel_test.pvtu'));
     await waitIdle(page);
-    // Reference: ../shared/fields/external/SOURCES.md — the set holds 5 cells in 3 pieces
+    // Reference: tests/fixtures/external/SOURCES.md — the set holds 5 cells in 3 pieces
     expect(await page.locator('#file-summary').innerText()).toMatch(/— 5 cells, .* 3 pieces/);
     await shot('08-set-from-folder');
     await openFile(PIPE, 'pipe-medium.vtu');

@@ -1,5 +1,5 @@
 /**
- * Re-runs the VTK reference script (Debian python3-vtk9) over ../shared/fields/external and checks
+ * Re-runs the VTK reference script (Debian python3-vtk9) over tests/fixtures/external and checks
  * that what VTK reads today equals the committed expected JSON that `npm test` compares against.
  */
 import { resolve } from 'node:path';
