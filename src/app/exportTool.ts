@@ -4,7 +4,7 @@
  */
 import type GUI from 'lil-gui';
 import * as THREE from 'three';
-import { CAUTION } from '../ui/caution.ts';
+import { CAUTION } from '../study/caution.ts';
 import { download } from '../ui/download.ts';
 import { drawLegend } from '../ui/legend.ts';
 import { drawPins } from '../ui/pins.ts';

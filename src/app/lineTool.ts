@@ -7,7 +7,7 @@ import type GUI from 'lil-gui';
 import type * as THREE from 'three';
 import type { LineReply, Vec3 } from '../../workers/api.ts';
 import type { LineProbe, Probe } from '../study/probeSet.ts';
-import { CAUTION } from '../ui/caution.ts';
+import { CAUTION } from '../study/caution.ts';
 import { download } from '../ui/download.ts';
 import { formatVec } from '../ui/format.ts';
 import { LineChart, type ChartData } from '../ui/lineChart.ts';

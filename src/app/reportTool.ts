@@ -14,7 +14,7 @@ import { reportFolder } from '../study/reportFolder.ts';
 import type { InputFileInfo } from '../study/reportHtml.ts';
 import { CONVENTIONS } from '../study/resultTables.ts';
 import { sha256Hex } from '../study/sha256.ts';
-import { CAUTION } from '../ui/caution.ts';
+import { CAUTION } from '../study/caution.ts';
 import { download } from '../ui/download.ts';
 import type { ExportTool } from './exportTool.ts';
 import type { Viewer } from './viewer.ts';

@@ -8,7 +8,7 @@ import { guessRole } from '../cut/fieldRoles.ts';
 import type { RegionSpec } from '../cut/region.ts';
 import type { Dataset } from '../model/dataset.ts';
 import { findField } from '../model/piece.ts';
-import { CAUTION } from '../ui/caution.ts';
+import { CAUTION } from '../study/caution.ts';
 import { parseNumber, parseVec3, str, type OptionKind, type ParsedArgs } from './args.ts';
 
 export const SIGN_CONVENTION = 'Fluxes (volume-flow rate Q = ∫u·n dA, mass-flow rate ṁ = ∫ρ u·n dA) are positive along the given plane normal n (unit). Mass-flow-weighted means do not depend on the sign of n.';

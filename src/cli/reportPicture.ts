@@ -19,7 +19,7 @@ import { getBoundaryFaces, getSurfaceGroups } from '../surface/surfaceCache.ts';
 import { overlaySvg, pinRow, type OverlayPin } from '../ui/reportOverlay.ts';
 import { DEFAULT_COLOR_MAP, colorMap } from '../view/colorMaps.ts';
 import { drawFaces, faceValues, surfaceCellFaces } from '../surface/surfaceDrawing.ts';
-import type { FieldChoice } from '../../workers/api.ts';
+import type { FieldChoice } from '../surface/surfaceDrawing.ts';
 
 /** Options of `reportPicture`. */
 export interface PictureOptions {

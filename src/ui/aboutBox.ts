@@ -1,5 +1,5 @@
 /** The about box: what the tool does, where the numbers come from, the safety caution. */
-import { CAUTION } from './caution.ts';
+import { CAUTION } from '../study/caution.ts';
 
 const TEXT = [
   'fieldtally reads unstructured VTK result files (legacy .vtk, XML .vtu/.vtp, .pvtu/.vtm sets) in your browser and computes numbers from them: cut-plane integrals (flow rates, weighted means, total pressure), line probes, and surface force totals with coefficients.',

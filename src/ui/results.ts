@@ -2,7 +2,7 @@
  * The results of the probes placed in the viewer, in one plain model that the pins, the results table
  * and the exports (text, CSV, JSON) all read. Pure: no DOM.
  */
-import { CAUTION } from './caution.ts';
+import { CAUTION } from '../study/caution.ts';
 import { formatNumber } from './format.ts';
 import { notesText, type ResultNote } from './notes.ts';
 import { noiseMark, type NoiseScale } from './roundingNoise.ts';

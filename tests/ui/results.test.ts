@@ -1,6 +1,6 @@
 /** Result exports: every format carries the caution; CSV and JSON keep full precision and never invent numbers. */
 import { describe, expect, it } from 'vitest';
-import { CAUTION } from '../../src/ui/caution.ts';
+import { CAUTION } from '../../src/study/caution.ts';
 import { resultsAsCsv, resultsAsJson, resultsAsText, type ProbeResult } from '../../src/ui/results.ts';
 
 const ctx = { tool: 'fieldtally', file: 'pipe, medium.vtu', createdAt: '2026-01-01T00:00:00.000Z' };

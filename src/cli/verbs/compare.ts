@@ -7,7 +7,7 @@ import { basename } from 'node:path';
 import { compareEvaluations, comparisonCsv, comparisonText } from '../../study/compare.ts';
 import { evaluateProbeSet } from '../../study/evaluate.ts';
 import { UNITS_STATEMENT } from '../../study/resultTables.ts';
-import { CAUTION } from '../../ui/caution.ts';
+import { CAUTION } from '../../study/caution.ts';
 import { parseArgs, str } from '../args.ts';
 import { loadInput, readProbeSetFile, toolVersion } from '../studyInputs.ts';
 import type { Verb } from '../verb.ts';

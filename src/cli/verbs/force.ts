@@ -7,7 +7,7 @@ import { forceTotals, pressureCoefficient, type ForceReference, type Vec3 } from
 import { facesOfGroups, resolveGroups } from '../../surface/surfaceGroups.ts';
 import { surfaceLoads, type LoadOptions } from '../../surface/surfaceLoads.ts';
 import { surfaceQuality } from '../../surface/surfaceQuality.ts';
-import { CAUTION } from '../../ui/caution.ts';
+import { CAUTION } from '../../study/caution.ts';
 import { parseArgs, parseNumber, parseVec3, str } from '../args.ts';
 import type { Verb } from '../verb.ts';
 import { GROUPING_HELP, GROUPING_OPTIONS, fmt, loadSurfaces, vec } from './surfaces.ts';

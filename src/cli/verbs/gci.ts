@@ -6,7 +6,7 @@
 import { evaluateProbeSet } from '../../study/evaluate.ts';
 import { gridStudy, gridStudyJson, gridStudyText, meshSize, type GridLevel } from '../../study/gridStudy.ts';
 import { siFactors } from '../../study/siDataset.ts';
-import { CAUTION } from '../../ui/caution.ts';
+import { CAUTION } from '../../study/caution.ts';
 import { parseArgs, str } from '../args.ts';
 import { loadInput, readProbeSetFile, toolVersion } from '../studyInputs.ts';
 import type { Verb } from '../verb.ts';

@@ -7,7 +7,7 @@ import { loadDatasetFile } from '../../io/nodeFiles.ts';
 import { boundaryLayer, type BoundaryLayerResult } from '../../locate/boundaryLayer.ts';
 import { LINE_PROBE_DEFAULTS, probeLine, type LineProbeResult } from '../../locate/lineProbe.ts';
 import { lineStats, type LineStats } from '../../locate/lineStats.ts';
-import { CAUTION } from '../../ui/caution.ts';
+import { CAUTION, CAUTION_CSV_LINE } from '../../study/caution.ts';
 import { parseArgs, parseNumber, parseVec3, str } from '../args.ts';
 import type { Verb } from '../verb.ts';
 
@@ -17,11 +17,19 @@ const UNITS = "values in the file's units; s, x, y, z in the file's length unit;
 const jnum = (v: number): number | null => (Number.isFinite(v) ? v : null);
 const fmt = (v: number): string => (!Number.isFinite(v) ? '—' : v === 0 || (Math.abs(v) >= 1e-3 && Math.abs(v) < 1e6) ? String(Number(v.toPrecision(6))) : v.toExponential(5));
 
-/** The CSV table: header `s,x,y,z,valid,` then one column per scalar / component; empty cells where invalid. */
-export function lineCsv(r: LineProbeResult): string {
+/**
+ * The CSV table: `#` comment lines (the file, the line's ends, units, the caution), then the header
+ * `s,x,y,z,valid,` and one column per scalar / component; empty cells where invalid.
+ */
+export function lineCsv(r: LineProbeResult, file: string): string {
   const labels = r.fields.flatMap((f) => f.labels);
   const cols = r.fields.flatMap((f) => f.columns);
-  const rows = [['s', 'x', 'y', 'z', 'valid', ...labels].join(',')];
+  const rows = [
+    `# fieldtally line probe; file: ${oneLine(file)}; from (${r.from.join(', ')}) to (${r.to.join(', ')}); ${r.count} samples, ${r.validCount} inside the mesh`,
+    `# Units: ${UNITS}; samples outside the mesh have valid = 0 and empty values`,
+    CAUTION_CSV_LINE,
+    ['s', 'x', 'y', 'z', 'valid', ...labels].join(','),
+  ];
   for (let i = 0; i < r.count; i++) {
     const cells = [String(r.s[i]), String(r.x[i]), String(r.y[i]), String(r.z[i]), String(r.valid[i])];
     for (const c of cols) cells.push(r.valid[i] ? String(c[i]) : '');
@@ -29,6 +37,9 @@ export function lineCsv(r: LineProbeResult): string {
   }
   return rows.join('\n');
 }
+
+/** A file name fit for one comment line (line breaks in a name would end the comment). */
+const oneLine = (t: string): string => t.replace(/[\r\n]+/g, ' ');
 
 function statsJson(st: LineStats) {
   return {
@@ -106,8 +117,8 @@ const line: Verb = {
     }) : undefined;
 
     if (args.options.csv) {
-      io.out(lineCsv(r));
-      io.err(`${r.outside ? 'the line lies wholly outside the mesh; no samples. ' : ''}Caution: ${CAUTION}`);
+      io.out(lineCsv(r, file));
+      if (r.outside) io.err('the line lies wholly outside the mesh; no samples');
       return 0;
     }
     if (args.options.json) {

@@ -7,7 +7,7 @@ import { basename } from 'node:path';
 import { loadDatasetFile } from '../../io/nodeFiles.ts';
 import { probePoints, type PointProbeResult } from '../../locate/pointProbe.ts';
 import { parseSensorCsv } from '../../locate/sensorCsv.ts';
-import { CAUTION } from '../../ui/caution.ts';
+import { CAUTION, CAUTION_CSV_LINE } from '../../study/caution.ts';
 import { parseArgs, parseNumber, parseVec3, str } from '../args.ts';
 import type { Verb } from '../verb.ts';
 
@@ -15,10 +15,18 @@ const UNITS = "values in the file's units; positions in the file's length unit";
 const jnum = (v: number): number | null => (Number.isFinite(v) ? v : null);
 const fmt = (v: number): string => (!Number.isFinite(v) ? '—' : v === 0 || (Math.abs(v) >= 1e-3 && Math.abs(v) < 1e6) ? String(Number(v.toPrecision(6))) : v.toExponential(5));
 
-/** CSV: `[label,]x,y,z,valid,` then one column per scalar / component; empty cells outside the mesh. */
-export function pointCsv(r: PointProbeResult): string {
+/**
+ * CSV: `#` comment lines (the file, units, the caution), then the header `[label,]x,y,z,valid,` and one column
+ * per scalar / component; empty cells outside the mesh.
+ */
+export function pointCsv(r: PointProbeResult, file: string): string {
   const labels = r.fields.flatMap((f) => f.labels), cols = r.fields.flatMap((f) => f.columns);
-  const rows = [[...(r.labels ? ['label'] : []), 'x', 'y', 'z', 'valid', ...labels].join(',')];
+  const rows = [
+    `# fieldtally point probe; file: ${file.replace(/[\r\n]+/g, ' ')}; ${r.count} point(s), ${r.validCount} inside the mesh`,
+    `# Units: ${UNITS}; points outside the mesh have valid = 0 and empty values`,
+    CAUTION_CSV_LINE,
+    [...(r.labels ? ['label'] : []), 'x', 'y', 'z', 'valid', ...labels].join(','),
+  ];
   for (let i = 0; i < r.count; i++) {
     const cells = [...(r.labels ? [csvText(r.labels[i]!)] : []), String(r.x[i]), String(r.y[i]), String(r.z[i]), String(r.valid[i])];
     for (const c of cols) cells.push(r.valid[i] ? String(c[i]) : '');
@@ -65,8 +73,7 @@ const point: Verb = {
       labels, ...(fields ? { fields } : {}), ...(tol !== undefined ? { tolerance: parseNumber(tol, 'tolerance') } : {}),
     });
     if (args.options.csv) {
-      io.out(pointCsv(r));
-      io.err(`Caution: ${CAUTION}`);
+      io.out(pointCsv(r, file));
       return 0;
     }
     if (args.options.json) {

@@ -8,7 +8,7 @@ import type { Dataset } from '../../model/dataset.ts';
 import { boundaryFaces, type BoundaryFaces } from '../../surface/boundaryFaces.ts';
 import { facesByGroup, surfaceGroups, type GroupOptions, type SurfaceGroups } from '../../surface/surfaceGroups.ts';
 import { surfaceQuality } from '../../surface/surfaceQuality.ts';
-import { CAUTION } from '../../ui/caution.ts';
+import { CAUTION } from '../../study/caution.ts';
 import { parseArgs, parseNumber, str, type OptionKind, type ParsedArgs } from '../args.ts';
 import type { Verb } from '../verb.ts';
 
