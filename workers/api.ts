@@ -151,13 +151,15 @@ export interface ForceRequest {
   area: number;
   /** Reference length for moment coefficients (m); 0 leaves them out. */
   length: number;
-  dragDir: Vec3;
-  liftDir: Vec3;
+  /** Drag direction (any length, normalised by the worker). */
+  dragDirection: Vec3;
+  /** Lift direction (its drag-direction part is removed). */
+  liftDirection: Vec3;
   momentPoint: Vec3;
   /** Dynamic viscosity (Pa·s) for the velocity-gradient traction when the file has no wall-shear array; 0: none. */
   mu: number;
-  /** Reference pressure (Pa). */
-  pRef: number;
+  /** Reference pressure (Pa), subtracted from the pressure array. */
+  referencePressure: number;
 }
 
 /** A force total (`forceTotals` of src/surface/forces.ts) with the centroid of the selected faces (pin anchor) and whether they close. */

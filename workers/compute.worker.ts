@@ -224,13 +224,13 @@ export function createComputeApi(): ComputeApi {
       const h = need();
       if (!h.boundary) throw new Error('force totals need volume cells: this file holds surface cells only');
       const { faces, groups } = h.boundary;
-      for (const v of [request.dragDir, request.liftDir, request.momentPoint]) checkVec(v, 'force reference vector');
+      for (const v of [request.dragDirection, request.liftDirection, request.momentPoint]) checkVec(v, 'force reference vector');
       const picked = request.groups.filter((g) => Number.isInteger(g) && g >= 0 && g < groups.groups.length);
       if (picked.length === 0) throw new Error('choose at least one surface for the force total (click it in the view)');
       const selection = facesOfGroups(groups, picked);
-      const loads = surfaceLoads(h.dataset, faces, selection, { pRef: request.pRef, ...(request.mu > 0 ? { mu: request.mu } : {}) }, groups.faceSurfaceCell);
+      const loads = surfaceLoads(h.dataset, faces, selection, { pRef: request.referencePressure, ...(request.mu > 0 ? { mu: request.mu } : {}) }, groups.faceSurfaceCell);
       const result = forceTotals(h.dataset, faces, loads, {
-        momentPoint: request.momentPoint, dragDirection: request.dragDir, liftDirection: request.liftDir,
+        momentPoint: request.momentPoint, dragDirection: request.dragDirection, liftDirection: request.liftDirection,
         reference: { rho: request.rho, speed: request.speed, area: request.area, ...(request.length > 0 ? { length: request.length } : {}) },
       });
       let cx = 0, cy = 0, cz = 0, a = 0;

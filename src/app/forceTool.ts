@@ -24,7 +24,7 @@ export class ForceTool {
   private readonly selected = new Set<number>();
   private readonly folder: GUI;
   private readonly refs = {
-    rho: DEFAULT_DENSITY, speed: 1, area: 1, length: 1, mu: 0, pRef: 0,
+    rho: DEFAULT_DENSITY, speed: 1, area: 1, length: 1, mu: 0, referencePressure: 0,
     dragX: 1, dragY: 0, dragZ: 0, liftX: 0, liftY: 0, liftZ: 1, momentX: 0, momentY: 0, momentZ: 0,
   };
   private readonly request;
@@ -38,8 +38,8 @@ export class ForceTool {
     this.folder = v.gui.addFolder('Force total');
     this.request = latestWins(
       (groups: number[]) => v.track(v.compute.forces({
-        groups, rho: this.refs.rho, speed: this.refs.speed, area: this.refs.area, length: this.refs.length, mu: this.refs.mu, pRef: this.refs.pRef,
-        dragDir: [this.refs.dragX, this.refs.dragY, this.refs.dragZ], liftDir: [this.refs.liftX, this.refs.liftY, this.refs.liftZ],
+        groups, rho: this.refs.rho, speed: this.refs.speed, area: this.refs.area, length: this.refs.length, mu: this.refs.mu, referencePressure: this.refs.referencePressure,
+        dragDirection: [this.refs.dragX, this.refs.dragY, this.refs.dragZ], liftDirection: [this.refs.liftX, this.refs.liftY, this.refs.liftZ],
         momentPoint: [this.refs.momentX, this.refs.momentY, this.refs.momentZ],
       })),
       (reply) => { if (this.selected.size) v.setResult(forceResult(reply, this.refs, this.id, this.label)); },
@@ -102,7 +102,7 @@ export class ForceTool {
   reference(): ReferenceDoc {
     const r = this.refs;
     return {
-      density: r.rho, speed: r.speed, area: r.area, length: r.length, pressure: r.pRef, ...(r.mu > 0 ? { viscosity: r.mu } : {}),
+      density: r.rho, speed: r.speed, area: r.area, length: r.length, pressure: r.referencePressure, ...(r.mu > 0 ? { viscosity: r.mu } : {}),
       dragDirection: [r.dragX, r.dragY, r.dragZ], liftDirection: [r.liftX, r.liftY, r.liftZ], momentPoint: [r.momentX, r.momentY, r.momentZ],
     };
   }
@@ -114,7 +114,7 @@ export class ForceTool {
     if (ref.speed !== undefined) r.speed = ref.speed;
     if (ref.area !== undefined) r.area = ref.area;
     if (ref.length !== undefined) r.length = ref.length;
-    if (ref.pressure !== undefined) r.pRef = ref.pressure;
+    if (ref.pressure !== undefined) r.referencePressure = ref.pressure;
     r.mu = ref.viscosity ?? 0;
     if (ref.dragDirection) [r.dragX, r.dragY, r.dragZ] = ref.dragDirection;
     if (ref.liftDirection) [r.liftX, r.liftY, r.liftZ] = ref.liftDirection;
@@ -164,7 +164,7 @@ export class ForceTool {
     add('speed', 'ref. speed U [m/s]');
     add('area', `ref. area A [${UNITS.area}]`);
     add('length', 'ref. length L [m]');
-    add('pRef', `ref. pressure [${UNITS.pressure}]`);
+    add('referencePressure', `ref. pressure [${UNITS.pressure}]`);
     add('mu', `viscosity μ [${UNITS.viscosity}] (0: file array only)`);
     add('dragX', 'drag direction x'); add('dragY', 'drag direction y'); add('dragZ', 'drag direction z');
     add('liftX', 'lift direction x'); add('liftY', 'lift direction y'); add('liftZ', 'lift direction z');

@@ -8,18 +8,37 @@ export type OptionKind = 'string' | 'boolean';
 export interface ParsedArgs {
   positional: string[];
   options: Record<string, string | boolean>;
+  /** One-line notices for old option names that were used (the verb prints them on stderr). */
+  notices: string[];
 }
 
+/**
+ * Old option names still accepted for one version, old → current (without the `--`). They are not listed in
+ * the help or in the "known options" of an error; using one gives a notice naming the current name.
+ */
+export type OptionAliases = Readonly<Record<string, string>>;
+
+/** The notice for an old option name. */
+export const renamedNotice = (verb: string, old: string, current: string): string =>
+  `fieldtally ${verb}: --${old} is now --${current}; the old name will be removed in the next version`;
+
 /** Parses `argv` against declared options; throws an Error with a one-line message on misuse. */
-export function parseArgs(argv: string[], declared: Record<string, OptionKind>, verb: string): ParsedArgs {
+export function parseArgs(argv: string[], declared: Record<string, OptionKind>, verb: string, aliases: OptionAliases = {}): ParsedArgs {
   const positional: string[] = [];
   const options: Record<string, string | boolean> = {};
+  const notices: string[] = [];
   for (let i = 0; i < argv.length; i++) {
     const a = argv[i]!;
     if (a.startsWith('--')) {
       const eq = a.indexOf('=');
-      const name = eq > 0 ? a.slice(2, eq) : a.slice(2);
-      const kind = declared[name];
+      let name = eq > 0 ? a.slice(2, eq) : a.slice(2);
+      const current = Object.hasOwn(aliases, name) ? aliases[name]! : undefined;
+      if (current !== undefined) {
+        const notice = renamedNotice(verb, name, current);
+        if (!notices.includes(notice)) notices.push(notice);
+        name = current;
+      }
+      const kind = Object.hasOwn(declared, name) ? declared[name] : undefined;
       if (!kind) throw new Error(`${verb}: unknown option --${name} (known: ${Object.keys(declared).map((k) => '--' + k).join(', ') || 'none'})`);
       if (kind === 'boolean') { options[name] = true; continue; }
       const value = eq > 0 ? a.slice(eq + 1) : argv[++i];
@@ -29,7 +48,7 @@ export function parseArgs(argv: string[], declared: Record<string, OptionKind>, 
       positional.push(a);
     }
   }
-  return { positional, options };
+  return { positional, options, notices };
 }
 
 /** Parses `x,y,z` into three finite numbers, or throws naming the option. */

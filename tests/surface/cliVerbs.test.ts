@@ -68,13 +68,42 @@ describe('fieldtally force', () => {
   });
 
   it('viscous part from the velocity gradient with --mu; by group name; with a drag distribution', async () => {
-    const r = await run('force', file, '--groups', 'group 1', '--viscous', 'gradient', '--mu', String(e.mu), '--bins', '4', '--json');
+    const r = await run('force', file, '--groups', 'group 1', '--viscous', 'gradient', '--mu', String(e.mu), '--strips', '4', '--json');
     expect(r.code).toBe(0);
     const j = JSON.parse(r.out);
     expect(j.viscous.method).toBe('velocity-gradient');
     expect(j.viscousForce[0] / e.dragViscous).toBeGreaterThan(0.8);
     expect(j.coefficients).toBeNull();
     expect(j.distribution.cumulativeDrag[4] / j.force[0]).toBeCloseTo(1, 12);
+  });
+
+  it('spelled-out names: --drag-direction, --lift-direction, --reference-pressure; old names still work with a notice', async () => {
+    const base = ['force', file, '--groups', '1', '--json'];
+    const now = await run(...base, '--drag-direction', '0,0,1', '--lift-direction', '1,0,0', '--reference-pressure', '250', '--strips', '3');
+    expect(now.code).toBe(0);
+    expect(now.err).toBe('');
+    const j = JSON.parse(now.out);
+    // the flow is along +x: with drag along z, the drag component is the force's z part and the lift its x part
+    expect(j.directions.drag).toEqual([0, 0, 1]);
+    expect(j.components.total.lift).toBeCloseTo(j.force[0], 12);
+    expect(j.distribution.edges).toHaveLength(4);
+    // A constant reference pressure adds nothing on a closed surface (∮ n dA = 0, Gauss' theorem)
+    const plain = JSON.parse((await run(...base)).out);
+    for (let k = 0; k < 3; k++) expect(j.pressureForce[k]).toBeCloseTo(plain.pressureForce[k], 9);
+    const old = await run(...base, '--drag-dir', '0,0,1', '--lift-dir', '1,0,0', '--p-ref', '250', '--bins', '3');
+    expect(old.code).toBe(0);
+    expect(JSON.parse(old.out)).toEqual(j);
+    expect(old.err.trim().split('\n')).toEqual([
+      'fieldtally force: --drag-dir is now --drag-direction; the old name will be removed in the next version',
+      'fieldtally force: --lift-dir is now --lift-direction; the old name will be removed in the next version',
+      'fieldtally force: --p-ref is now --reference-pressure; the old name will be removed in the next version',
+      'fieldtally force: --bins is now --strips; the old name will be removed in the next version',
+    ]);
+    // hidden: neither the help nor the list of known options names the old spellings
+    const help = (await run('force', '--help')).out;
+    const unknown = (await run('force', file, '--groups', '1', '--drag')).err;
+    for (const text of [help, unknown]) expect(text).not.toMatch(/--drag-dir\b|--lift-dir\b|--p-ref\b|--bins\b/);
+    expect(unknown).toMatch(/unknown option --drag \(known: .*--drag-direction/);
   });
 
   it('prints a text report; refuses incomplete reference values and unknown groups with one-line errors', async () => {

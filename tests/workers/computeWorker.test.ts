@@ -136,8 +136,8 @@ describe('compute worker contract', () => {
     const wall = d.groups.find((g) => g.fileId === 1)!;
     const e = sphereExact({ flow: 'stokes' });
     const f = await api.forces({
-      groups: [wall.id], rho: e.rho, speed: e.U, area: e.frontalArea, length: 0, mu: 0, pRef: 0,
-      dragDir: [1, 0, 0], liftDir: [0, 0, 1], momentPoint: [0, 0, 0],
+      groups: [wall.id], rho: e.rho, speed: e.U, area: e.frontalArea, length: 0, mu: 0, referencePressure: 0,
+      dragDirection: [1, 0, 0], liftDirection: [0, 0, 1], momentPoint: [0, 0, 0],
     });
     // Reference: ../shared/REFERENCES.md §3 (C) — C_D = 24/Re; this coarse cell-data file is first order, so within 10 %
     expect(Math.abs(f.result.coefficients!.drag - 24 / e.Re) / (24 / e.Re)).toBeLessThan(0.1);

@@ -17,36 +17,39 @@ const VISCOUS = ['auto', 'wall-shear', 'gradient', 'none'] as const;
 const force: Verb = {
   summary: 'force totals on surface groups: pressure and viscous force, moment, C_D / C_L, centre of pressure',
   usage: [
-    'fieldtally force <file> --groups a,b [--rho v] [--speed v] [--area v] [--length v] [--drag-dir x,y,z] [--lift-dir x,y,z]',
-    '                 [--moment-point x,y,z] [--mu v|field] [--p-ref v] [--pressure name] [--kinematic] [--wall-shear name]',
-    '                 [--shear-sign -1] [--velocity name] [--viscous auto|wall-shear|gradient|none] [--cp-axis x,y,z]',
-    '                 [--bins n] [--json]',
+    'fieldtally force <file> --groups a,b [--rho v] [--speed v] [--area v] [--length v] [--drag-direction x,y,z]',
+    '                 [--lift-direction x,y,z] [--moment-point x,y,z] [--mu v|field] [--reference-pressure v] [--pressure name]',
+    '                 [--kinematic] [--wall-shear name] [--shear-sign -1] [--velocity name] [--viscous auto|wall-shear|gradient|none]',
+    '                 [--cp-axis x,y,z] [--strips n] [--json]',
     '  --groups        surface groups by id or name (see `fieldtally surfaces`), merged into one force total',
     '  --rho/--speed/--area  reference density, speed and area for coefficients (q = ½ρU²); --length for moment coefficients',
-    '  --drag-dir      drag direction (default 1,0,0); --lift-dir lift direction (default 0,0,1, made orthogonal to drag);',
-    '                  side = lift × drag',
+    '  --drag-direction  drag direction (default 1,0,0); --lift-direction lift direction (default 0,0,1, made orthogonal',
+    '                  to drag); side = lift × drag',
     '  --mu            dynamic viscosity (Pa·s) or a viscosity array, for the viscous force from the velocity gradient',
-    '  --p-ref         reference pressure subtracted from the pressure array (its unit); --kinematic: p (and wall shear)',
+    '  --reference-pressure  subtracted from the pressure array (its unit); --kinematic: p (and wall shear)',
     '                  stored divided by density, multiplied by --rho',
     '  --wall-shear    wall-shear-stress array (default: found by name); --shear-sign -1 if it is the force on the fluid',
-    '  --bins n        add the force per unit length in n bins along the drag direction (JSON: distribution)',
+    '  --strips n      cut the body into n strips of equal width along the drag direction and give the drag per unit',
+    '                  length in each (JSON: distribution)',
     GROUPING_HELP,
     '  Force on the wall (body): F = ∫(p − p_ref)(−n_body) dA + ∫τ_w dA; moment about --moment-point (default origin).',
   ].join('\n'),
   options: {
-    groups: 'string', rho: 'string', speed: 'string', area: 'string', length: 'string', 'drag-dir': 'string', 'lift-dir': 'string',
-    'moment-point': 'string', mu: 'string', 'p-ref': 'string', pressure: 'string', kinematic: 'boolean', 'wall-shear': 'string',
-    'shear-sign': 'string', velocity: 'string', viscous: 'string', 'cp-axis': 'string', bins: 'string', json: 'boolean', ...GROUPING_OPTIONS,
+    groups: 'string', rho: 'string', speed: 'string', area: 'string', length: 'string', 'drag-direction': 'string', 'lift-direction': 'string',
+    'moment-point': 'string', mu: 'string', 'reference-pressure': 'string', pressure: 'string', kinematic: 'boolean', 'wall-shear': 'string',
+    'shear-sign': 'string', velocity: 'string', viscous: 'string', 'cp-axis': 'string', strips: 'string', json: 'boolean', ...GROUPING_OPTIONS,
   },
+  aliases: { 'drag-dir': 'drag-direction', 'lift-dir': 'lift-direction', 'p-ref': 'reference-pressure', bins: 'strips' },
   async run(argv, io) {
-    const args = parseArgs(argv, this.options, 'force');
+    const args = parseArgs(argv, this.options, 'force', this.aliases);
+    for (const n of args.notices) io.err(n);
     const file = args.positional[0];
     if (!file || args.positional.length > 1) throw new Error('expected one result file: fieldtally force <file> --groups a,b');
     const groupText = str(args, 'groups');
     if (!groupText) throw new Error('--groups is required: surface group ids or names (list them with `fieldtally surfaces <file>`)');
     const num = (name: string): number | undefined => { const t = str(args, name); return t === undefined ? undefined : parseNumber(t, name); };
     const v3 = (name: string): Vec3 | undefined => { const t = str(args, name); return t === undefined ? undefined : parseVec3(t, name); };
-    const rho = num('rho'), speed = num('speed'), area = num('area'), length = num('length'), bins = num('bins');
+    const rho = num('rho'), speed = num('speed'), area = num('area'), length = num('length'), strips = num('strips');
     const viscous = str(args, 'viscous') ?? 'auto';
     if (!(VISCOUS as readonly string[]).includes(viscous)) throw new Error(`--viscous: expected one of ${VISCOUS.join(', ')}, got "${viscous}"`);
     const muText = str(args, 'mu');
@@ -55,28 +58,28 @@ const force: Verb = {
     if (shearSign !== 1 && shearSign !== -1) throw new Error(`--shear-sign: expected 1 or -1, got ${shearSign}`);
     const given = [rho, speed, area].filter((x) => x !== undefined).length;
     if (given > 0 && given < 3) throw new Error('coefficients need all of --rho, --speed and --area');
-    if (bins !== undefined && !(Number.isInteger(bins) && bins >= 1)) throw new Error(`--bins: expected a whole number ≥ 1, got ${bins}`);
+    if (strips !== undefined && !(Number.isInteger(strips) && strips >= 1)) throw new Error(`--strips: expected a whole number ≥ 1, got ${strips}`);
     const reference: ForceReference | undefined = given === 3 ? { rho: rho!, speed: speed!, area: area!, ...(length !== undefined ? { length } : {}) } : undefined;
 
     const { dataset, faces, groups } = await loadSurfaces(file, args);
     const picked = resolveGroups(groups, groupText.split(',').map((s) => s.trim()).filter(Boolean));
     const selection = facesOfGroups(groups, picked);
     const loadOptions: Partial<LoadOptions> = {
-      viscous: viscous as LoadOptions['viscous'], pRef: num('p-ref') ?? 0, kinematic: args.options.kinematic === true,
+      viscous: viscous as LoadOptions['viscous'], pRef: num('reference-pressure') ?? 0, kinematic: args.options.kinematic === true,
       rho, mu, wallShearSign: shearSign as 1 | -1,
       ...(str(args, 'pressure') !== undefined ? { pressure: str(args, 'pressure') } : {}),
       ...(str(args, 'wall-shear') !== undefined ? { wallShear: str(args, 'wall-shear') } : {}),
       ...(str(args, 'velocity') !== undefined ? { velocity: str(args, 'velocity') } : {}),
     };
     const loads = surfaceLoads(dataset, faces, selection, loadOptions, groups.faceSurfaceCell);
-    const drag = v3('drag-dir') ?? [1, 0, 0];
+    const drag = v3('drag-direction') ?? [1, 0, 0];
     const r = forceTotals(dataset, faces, loads, {
-      dragDirection: drag, liftDirection: v3('lift-dir') ?? [0, 0, 1], momentPoint: v3('moment-point') ?? [0, 0, 0],
+      dragDirection: drag, liftDirection: v3('lift-direction') ?? [0, 0, 1], momentPoint: v3('moment-point') ?? [0, 0, 0],
       cpAxis: v3('cp-axis'), reference,
     });
     const quality = surfaceQuality(faces, selection);
     const cp = reference ? pressureCoefficient(dataset, faces, loads, reference.rho, reference.speed) : null;
-    const dist = bins !== undefined ? forceDistribution(dataset, faces, loads, { axis: drag, bins, dragDirection: drag }) : null;
+    const dist = strips !== undefined ? forceDistribution(dataset, faces, loads, { axis: drag, bins: strips, dragDirection: drag }) : null;
     const groupList = picked.map((i) => ({ id: groups.groups[i]!.id, name: groups.groups[i]!.name, faces: groups.groups[i]!.faces }));
     if (args.options.json) {
       io.out(JSON.stringify({
