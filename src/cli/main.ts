@@ -6,17 +6,26 @@ import { existsSync, readdirSync } from 'node:fs';
 import { dirname, join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import type { Verb, VerbIO } from './verb.ts';
+import { toolVersion } from './version.ts';
 
 const VERB_DIR = join(dirname(fileURLToPath(import.meta.url)), 'verbs');
 
+/** Verb names written in by the bundler (`bin/build-cli.mjs`); from source, `src/cli/verbs` is listed. */
+declare const FIELDTALLY_VERBS: readonly string[] | undefined;
+
+/** Old verb names accepted for one version with a notice (old → current); not listed. */
+export const VERB_ALIASES: Readonly<Record<string, string>> = { probes: 'check-probes' };
+
 /** Names of the verbs present in `src/cli/verbs`. */
 export function verbNames(): string[] {
+  if (typeof FIELDTALLY_VERBS !== 'undefined') return [...FIELDTALLY_VERBS];
   return readdirSync(VERB_DIR).filter((f) => f.endsWith('.ts')).map((f) => f.slice(0, -3)).sort();
 }
 
 /** Loads a verb by name, or undefined if there is none. */
 export async function loadVerb(name: string): Promise<Verb | undefined> {
-  if (!/^[a-z][a-z-]*$/.test(name) || !existsSync(join(VERB_DIR, `${name}.ts`))) return undefined;
+  if (!/^[a-z][a-z-]*$/.test(name)) return undefined;
+  if (typeof FIELDTALLY_VERBS !== 'undefined' ? !FIELDTALLY_VERBS.includes(name) : !existsSync(join(VERB_DIR, `${name}.ts`))) return undefined;
   return ((await import(`./verbs/${name}.ts`)) as { default: Verb }).default;
 }
 
@@ -26,15 +35,20 @@ const stdio: VerbIO = {
 };
 
 async function usage(io: VerbIO): Promise<void> {
-  const lines = ['usage: fieldtally <verb> [arguments] (fieldtally <verb> --help for details)', '', 'verbs:'];
-  for (const n of verbNames()) lines.push(`  ${n.padEnd(10)} ${(await loadVerb(n))!.summary}`);
+  const lines = ['usage: fieldtally <verb> [arguments] (fieldtally <verb> --help for details; fieldtally --version)', '', 'verbs:'];
+  for (const n of verbNames()) lines.push(`  ${n.padEnd(13)} ${(await loadVerb(n))!.summary}`);
   io.out(lines.join('\n'));
 }
 
 /** Runs the command line; returns the process exit code. */
 export async function main(argv: string[], io: VerbIO = stdio): Promise<number> {
-  const [name, ...rest] = argv;
+  let [name, ...rest] = argv;
+  if (name === '--version' || name === '-V') { io.out(`fieldtally ${toolVersion()}`); return 0; }
   if (!name || name === '--help' || name === '-h' || name === 'help') { await usage(io); return name ? 0 : 2; }
+  if (Object.hasOwn(VERB_ALIASES, name)) {
+    io.err(`fieldtally: the verb "${name}" is now "${VERB_ALIASES[name]}"; the old name will be removed in the next version`);
+    name = VERB_ALIASES[name]!;
+  }
   const verb = await loadVerb(name);
   if (!verb) { io.err(`fieldtally: unknown verb "${name}" (known: ${verbNames().join(', ')})`); return 2; }
   if (rest.includes('--help')) { io.out(verb.usage); return 0; }

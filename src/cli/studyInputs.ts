@@ -1,10 +1,9 @@
 /**
- * What the study verbs (`report`, `compare`, `gci`, `probes`) read from disk: the probe-set file, result
+ * What the study verbs (`report`, `compare`, `gci`, `check-probes`) read from disk: the probe-set file, result
  * files with their pieces (each with its size and SHA-256, for the report's list of inputs), and the
- * tool's version from package.json. Node only.
+ * tool's version (`version.ts`). Node only.
  */
 import { createHash } from 'node:crypto';
-import { readFileSync } from 'node:fs';
 import { basename, dirname, relative, resolve as resolvePath } from 'node:path';
 import { readBytes } from '../io/nodeFiles.ts';
 import { readDataset } from '../io/readDataset.ts';
@@ -13,11 +12,7 @@ import type { ProbeSet } from '../study/probeSet.ts';
 import { readProbeSet } from '../study/probeSetFile.ts';
 import type { InputFileInfo } from '../study/reportHtml.ts';
 
-/** The tool's version (package.json). */
-export function toolVersion(): string {
-  const pkg = JSON.parse(readFileSync(new URL('../../package.json', import.meta.url), 'utf8')) as { version: string };
-  return pkg.version;
-}
+export { toolVersion } from './version.ts';
 
 const sha256 = (b: Uint8Array): string => createHash('sha256').update(b).digest('hex');
 

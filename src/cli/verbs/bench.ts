@@ -14,9 +14,13 @@ import type { Verb } from '../verb.ts';
 
 const STAGE_DIR = join(dirname(fileURLToPath(import.meta.url)), '..', 'benchStages');
 
+/** Stage names written in by the bundler (`bin/build-cli.mjs`); from source, the folder is listed. */
+declare const FIELDTALLY_BENCH_STAGES: readonly string[] | undefined;
+
 async function stages(): Promise<BenchStage[]> {
-  const files = readdirSync(STAGE_DIR).filter((f) => f.endsWith('.ts') && f !== 'stage.ts');
-  const list = await Promise.all(files.map(async (f) => ((await import(`../benchStages/${f}`)) as { default: BenchStage }).default));
+  const names = typeof FIELDTALLY_BENCH_STAGES !== 'undefined' ? FIELDTALLY_BENCH_STAGES
+    : readdirSync(STAGE_DIR).filter((f) => f.endsWith('.ts') && f !== 'stage.ts').map((f) => f.slice(0, -3));
+  const list = await Promise.all(names.map(async (n) => ((await import(`../benchStages/${n}.ts`)) as { default: BenchStage }).default));
   return list.sort((a, b) => a.order - b.order);
 }
 

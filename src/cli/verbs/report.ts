@@ -44,7 +44,7 @@ const report: Verb = {
   async run(argv, io) {
     const args = parseArgs(argv, this.options, 'report');
     const probesPath = str(args, 'probes'), out = str(args, 'out');
-    if (!probesPath) throw new Error('--probes set.json is required (a probe-set file; see `fieldtally probes --help`)');
+    if (!probesPath) throw new Error('--probes set.json is required (a probe-set file; see `fieldtally check-probes --help`)');
     if (!out) throw new Error('--out dir/ is required (the report folder to write)');
     if (args.positional.length === 0) throw new Error('give at least one result file (or a pattern such as "runs/*.vtu")');
     const files = expandInputs(args.positional);

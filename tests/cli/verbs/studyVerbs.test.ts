@@ -1,5 +1,5 @@
 /**
- * The `compare`, `gci` and `probes` verbs on the committed pipe samples (exact Hagen–Poiseuille field at the
+ * The `compare`, `gci` and `check-probes` verbs on the committed pipe samples (exact Hagen–Poiseuille field at the
  * nodes, ../shared/REFERENCES.md §1).
  */
 import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
@@ -95,25 +95,36 @@ describe('fieldtally gci', () => {
   });
 });
 
-describe('fieldtally probes', () => {
+describe('fieldtally check-probes', () => {
   it('lists a set, upgrades a version-1 file to version 2', async () => {
     const out = join(dir, 'up.json');
-    const r = await run('probes', V1, '--upgrade', out);
+    const r = await run('check-probes', V1, '--upgrade', out);
     expect(r.code).toBe(0);
     expect(r.out).toMatch(/^pipe-stations\.v1\.json: probe set version 1 \(upgraded to 2 on reading\)/);
     expect(r.out).toMatch(/ {2}inlet-face {7}force {10}Inlet face/);
     const up = JSON.parse(readFileSync(out, 'utf8'));
     expect(up.version).toBe(2);
-    expect((await run('probes', out)).out).toMatch(/probe set version 2 — "Coolant pipe stations/);
+    expect((await run('check-probes', out)).out).toMatch(/probe set version 2 — "Coolant pipe stations/);
+  });
+
+  it('the old verb name "probes" still works for one version, with a notice, and is not listed', async () => {
+    const now = await run('check-probes', V1);
+    const old = await run('probes', V1);
+    expect(old.code).toBe(0);
+    expect(old.out).toBe(now.out);
+    expect(old.err).toBe('fieldtally: the verb "probes" is now "check-probes"; the old name will be removed in the next version\n');
+    const list = (await run('--help')).out;
+    expect(list).toMatch(/^ {2}check-probes +check a probe-set file/m);
+    expect(list).not.toMatch(/^ {2}probes /m);
   });
 
   it('lists every problem of a malformed file, exit code 1', async () => {
     const bad = join(dir, 'bad.json');
     writeFileSync(bad, JSON.stringify({ format: 'fieldtally-probe-set', version: 2, units: { length: 'yd' }, probes: [{ id: 'a', kind: 'line', geometry: { from: [0, 0, 0] } }] }));
-    const r = await run('probes', bad);
+    const r = await run('check-probes', bad);
     expect(r.code).toBe(1);
     expect(r.err.split('\n').filter(Boolean)).toEqual([
-      'fieldtally probes: bad.json is not a valid probe set (2 problems):',
+      'fieldtally check-probes: bad.json is not a valid probe set (2 problems):',
       '  units.length: expected a length unit (m, mm, cm, km, in, ft), found "yd"',
       '  probes[0].geometry.to: expected a value (required), found nothing',
     ]);

@@ -1,5 +1,5 @@
 /**
- * `fieldtally probes <set.json> [--upgrade out.json] [--json]`: checks a probe-set file and lists its
+ * `fieldtally check-probes <set.json> [--upgrade out.json] [--json]`: checks a probe-set file and lists its
  * probes; every problem is listed with where it is, what was expected and what was found. An older
  * version is upgraded on reading; --upgrade writes it in the current version.
  */
@@ -13,10 +13,10 @@ import { parseArgs, str } from '../args.ts';
 import { readProbeSetFile } from '../studyInputs.ts';
 import type { Verb } from '../verb.ts';
 
-const probes: Verb = {
+const checkProbes: Verb = {
   summary: 'check a probe-set file, list its probes, upgrade an older version',
   usage: [
-    'fieldtally probes <set.json> [--upgrade out.json] [--json]',
+    'fieldtally check-probes <set.json> [--upgrade out.json] [--json]',
     `  A probe set (format "fieldtally-probe-set", version ${PROBE_SET_VERSION}; schema: src/study/probeSet.schema.json) holds the probes`,
     '  (cut-plane, line, point, force, pressure-loss, mass-balance), the reference values (SI) and the file\'s units.',
     '  Version 1 files are read and upgraded; --upgrade writes the current version to out.json (never over the input).',
@@ -25,15 +25,15 @@ const probes: Verb = {
   ].join('\n'),
   options: { upgrade: 'string', json: 'boolean' },
   async run(argv, io) {
-    const args = parseArgs(argv, this.options, 'probes');
+    const args = parseArgs(argv, this.options, 'check-probes');
     const path = args.positional[0];
-    if (!path || args.positional.length > 1) throw new Error('expected one probe-set file: fieldtally probes <set.json>');
+    if (!path || args.positional.length > 1) throw new Error('expected one probe-set file: fieldtally check-probes <set.json>');
     let ps;
     try {
       ps = await readProbeSetFile(path);
     } catch (e) {
       if (!(e instanceof DocumentError)) throw e;
-      io.err([`fieldtally probes: ${basename(path)} is not a valid probe set (${e.issues.length} problem${e.issues.length > 1 ? 's' : ''}):`, ...e.details.split('\n').map((l) => `  ${l}`)].join('\n'));
+      io.err([`fieldtally check-probes: ${basename(path)} is not a valid probe set (${e.issues.length} problem${e.issues.length > 1 ? 's' : ''}):`, ...e.details.split('\n').map((l) => `  ${l}`)].join('\n'));
       return 1;
     }
     const out = str(args, 'upgrade');
@@ -52,4 +52,4 @@ const probes: Verb = {
     return 0;
   },
 };
-export default probes;
+export default checkProbes;
