@@ -57,7 +57,8 @@ set before trusting a figure; for real designs defer to the applicable codes and
 - Format: VTK XML UnstructuredGrid (version 1.0), appended raw data, zlib-compressed (UInt64 block
   headers, Int64 ids, level 9); one \`.vtk\` legacy file (version 4.2, big-endian binary).
 - Points Float64; fields Float64. Arrays: \`velocity\` (3 components), \`p\` (1); the sphere files add
-  \`wallShearStress\` (3) and the Int32 cell array \`group\`.
+  \`skinFriction\` (3, the wall shear stress vector: the force per area the fluid exerts along the wall) and the
+  Int32 cell array \`group\`.
 - \`-celldata\` files hold the same quantities as cell data, evaluated at the cell centroid.
 
 | file | content | cells | points | size |
@@ -111,7 +112,7 @@ faces), built from a geodesic triangulation of the sphere repeated on concentric
 grow geometrically; \`sphere-stokes.vtu\` has ${so.divisions} divisions per icosahedron edge and ${so.layers} layers.
 The files also hold triangle cells on the sphere wall and on the outer sphere, oriented out of the fluid
 (into the sphere on the wall). Cell array \`group\`: 0 tetrahedra, 1 sphere wall, 2 outer boundary.
-\`wallShearStress\` is the exact value at wall nodes (wall triangles in the cell-data file), zero elsewhere.
+\`skinFriction\` is the exact value at wall nodes (wall triangles in the cell-data file), zero elsewhere.
 Shell volume 4π(R_o³ − a³)/3 = ${num(stokes.shellVolume)} m³.
 
 ## Potential flow past a sphere (\`sphere-potential.vtu\`)
@@ -122,7 +123,7 @@ The inviscid idealisation of a ball of radius a = ${num(pot.a)} m in an air stre
 - u = ∇[(U·x)(1 + a³/2r³)]; p = ½ρ(U² − |u|²), p∞ = 0.
 - Wall: Cp = 1 − (9/4)sin²θ: Cp = 1 (p = ${num(pot.dynamicPressure)} Pa) at both stagnation points, −1.25
   (p = ${num(-1.25 * pot.dynamicPressure)} Pa) on the equator, where the slip velocity is 1.5U = ${num(1.5 * pot.U)} m/s.
-- Zero drag and zero lift (d'Alembert); \`wallShearStress\` is zero (inviscid).
+- Zero drag and zero lift (d'Alembert); \`skinFriction\` is zero (inviscid).
 
 ## Fully developed flow in a square duct (\`duct.vtu\`)
 

@@ -30,7 +30,7 @@ export interface SphereOptions extends SphereFlowParams {
   layers?: number;
   /** Fields as point data or cell data. `group` is always cell data. Default `point`. */
   association: 'point' | 'cell';
-  /** Element type of velocity, p and wallShearStress. Default `Float64`. */
+  /** Element type of velocity, p and skinFriction (the wall shear stress vector). Default `Float64`. */
   precision: 'Float64' | 'Float32';
 }
 
@@ -104,7 +104,7 @@ export function sphereExact(o: Partial<SphereOptions> = {}): SphereExact {
  * The sphere sample: tetrahedra in the shell, then triangles on the sphere wall, then triangles on the
  * outer sphere, with the Int32 cell array `group` (0 volume, 1 wall, 2 outer). Boundary triangles face
  * out of the fluid (into the sphere on the wall). Fields `velocity` (m/s), `p` (Pa, p∞ = 0),
- * `wallShearStress` (Pa; nonzero only on the wall): at nodes, or at cell centroids — for boundary
+ * `skinFriction` (Pa; nonzero only on the wall): at nodes, or at cell centroids — for boundary
  * triangles, at the centroid moved radially onto their sphere.
  */
 export function sphereCase(o: Partial<SphereOptions> = {}): Dataset {
@@ -135,7 +135,7 @@ export function sphereCase(o: Partial<SphereOptions> = {}): Dataset {
   }
   const group = new Int32Array(mesh.cellTypes.length);
   group.fill(SPHERE_GROUPS.wall, nTet, nTet + nWall).fill(SPHERE_GROUPS.outer, nTet + nWall);
-  const fields = [field('velocity', r.association, 3, u), field('p', r.association, 1, p), field('wallShearStress', r.association, 3, tau)];
+  const fields = [field('velocity', r.association, 3, u), field('p', r.association, 1, p), field('skinFriction', r.association, 3, tau)];
   const groupField = { ...field('group', 'cell', 1, group), sourceType: 'Int32' };
   const piece: Piece = cell
     ? { ...mesh, cellData: [...fields, groupField] }

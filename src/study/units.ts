@@ -87,7 +87,7 @@ export const UNDECLARED = 'undeclared';
 const BY_NAME: readonly (readonly [RegExp, string])[] = [
   [/^(p|pressure|p_rgh|static[ _]?pressure|total[ _]?pressure|p0|pt)$/i, 'Pa'],
   [/^(u|v|velocity|velocities|vel|speed|u_?mean|umean)$/i, 'm/s'],
-  [/wall[ _]?shear|^tau_?w$|^wss$/i, 'Pa'],
+  [/wall[ _]?shear|^skin[ _]?friction$|^tau_?w$|^wss$/i, 'Pa'],
   [/^(rho|density)$/i, 'kg/m³'],
   [/^(t|temperature)$/i, 'K'],
   [/^(mu|viscosity|dynamic[ _]?viscosity)$/i, 'Pa·s'],

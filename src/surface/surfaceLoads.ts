@@ -34,7 +34,7 @@ export interface LoadOptions {
   rho: number | undefined;
   /** Viscous part: 'auto' (wall-shear array, else gradient when velocity and μ are known, else none). Default 'auto'. */
   viscous: 'auto' | 'wall-shear' | 'gradient' | 'none';
-  /** Wall-shear-stress array (3 components); default: named like wallShearStress / wss / tau_w. */
+  /** Wall-shear-stress array (3 components); default: named like skinFriction / wallShearStress / wss / tau_w. */
   wallShear: string | undefined;
   /** +1: the array is the traction the fluid exerts on the wall (default); −1: the opposite sign. */
   wallShearSign: 1 | -1;
@@ -65,7 +65,7 @@ export interface SurfaceLoads {
 }
 
 const PRESSURE_NAME = /^(p|pressure|static[ _-]?pressure|p[ _-]?static|pres)$/i;
-const SHEAR_NAME = /^(wall[ _-]?shear[ _-]?stress(es)?|wall[ _-]?shear|wss|tau[ _-]?w(all)?)$/i;
+const SHEAR_NAME = /^(skin[ _-]?friction|wall[ _-]?shear[ _-]?stress(es)?|wall[ _-]?shear|wss|tau[ _-]?w(all)?)$/i;
 const VELOCITY_NAME = /^(velocity|velocities|u|vel|flow[ _-]?velocity)$/i;
 
 /** A field present in every piece that owns a selected face, by name or pattern; point data first. */
@@ -124,7 +124,7 @@ export function surfaceLoads(d: Dataset, faces: BoundaryFaces, selection: Int32A
   let traction: Float64Array | null = null;
   let viscous: SurfaceLoads['viscous'] = { method: 'none' };
   const shear = o.viscous === 'auto' || o.viscous === 'wall-shear' ? findArray(d, pieces, o.wallShear, SHEAR_NAME, 3) : undefined;
-  if (o.viscous === 'wall-shear' && !shear) throw new Error(`${d.source}: no wall-shear-stress array ${o.wallShear ? `"${o.wallShear}"` : '(looked for wallShearStress, wss, tau_w)'}; arrays: ${arrayList(d)}`);
+  if (o.viscous === 'wall-shear' && !shear) throw new Error(`${d.source}: no wall-shear-stress array ${o.wallShear ? `"${o.wallShear}"` : '(looked for skinFriction, wallShearStress, wss, tau_w)'}; arrays: ${arrayList(d)}`);
   if (shear) {
     const assoc = shear[pieces[0]!]!.association as 'point' | 'cell';
     traction = gather(d, faces, selection, offsets, shear[pieces[0]!]!.name, assoc, 3, o.wallShearSign * scale, 0, surfaceCell);

@@ -128,7 +128,7 @@ describe('Stokes flow past a sphere (REFERENCES §3)', () => {
     const e = sphereExact(stokes), res: { p: number; v: number; lift: number }[] = [];
     for (const refinement of [0, 1, 2]) {
       const d = sphereCase({ flow: 'stokes', refinement }), p = d.pieces[0]!;
-      const pr = findField(p, 'p', 'point')!.values, tau = findField(p, 'wallShearStress', 'point')!.values;
+      const pr = findField(p, 'p', 'point')!.values, tau = findField(p, 'skinFriction', 'point')!.values;
       const group = findField(p, 'group', 'cell')!.values;
       let fp = 0, fv = 0, lift = 0;
       for (let c = 0; c < p.cellTypes.length; c++) {
@@ -182,7 +182,7 @@ describe('potential flow past a sphere (REFERENCES §4)', () => {
     expect(e.cpStagnation).toBe(1);
     expect(e.cpMin).toBe(-1.25);
     expect(e.dragTotal).toBe(0);
-    expect(Math.max(...findField(p, 'wallShearStress', 'point')!.values.map(Math.abs))).toBe(0);
+    expect(Math.max(...findField(p, 'skinFriction', 'point')!.values.map(Math.abs))).toBe(0);
   });
 });
 
@@ -266,7 +266,7 @@ describe('sphere shell mesh', () => {
 describe('sphere sample fields', () => {
   it('point data: exact values, exact zero velocity on the wall, wall shear only on the wall', () => {
     const d = sphereCase({ refinement: 0 }), p = d.pieces[0]!, a = stokes.radius;
-    const u = findField(p, 'velocity', 'point')!.values, pr = findField(p, 'p', 'point')!.values, tau = findField(p, 'wallShearStress', 'point')!.values;
+    const u = findField(p, 'velocity', 'point')!.values, pr = findField(p, 'p', 'point')!.values, tau = findField(p, 'skinFriction', 'point')!.values;
     const want = new Float64Array(3);
     for (let i = 0; i < p.points.length / 3; i++) {
       const x = p.points[3 * i]!, y = p.points[3 * i + 1]!, z = p.points[3 * i + 2]!;

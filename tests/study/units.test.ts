@@ -50,6 +50,7 @@ describe('unit catalogue', () => {
     expect(unitByName('p')).toBe('Pa');
     expect(unitByName('velocity')).toBe('m/s');
     expect(unitByName('wallShearStress')).toBe('Pa');
+    expect(unitByName('skinFriction')).toBe('Pa');
     expect(unitByName('phi')).toBe('');
     expect(fieldSiUnit('p', { p: 'kPa' })).toBe('Pa');
     expect(fieldSiUnit('T', { T: 'K' })).toBe('K');

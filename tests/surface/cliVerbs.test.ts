@@ -59,6 +59,8 @@ describe('fieldtally force', () => {
     expect(j.pressureForce[0] / j.force[0]).toBeCloseTo(1 / 3, 2);
     expect(j.viscousForce[0] / j.force[0]).toBeCloseTo(2 / 3, 2);
     expect(j.coefficients.drag / e.CD).toBeCloseTo(1, 1);
+    // the sample's wall-shear array, skinFriction, is found by its name
+    expect(j.viscous.array).toBe('skinFriction');
     expect(j.coefficients.pressure.drag + j.coefficients.viscous.drag).toBeCloseTo(j.coefficients.drag, 10);
     expect(Math.abs(j.coefficients.lift)).toBeLessThan(1e-9);
     expect(j.coefficients.moment).not.toBeNull();
