@@ -15,7 +15,7 @@ import { CutPlaneLayer } from '../view/cutPlaneLayer.ts';
 import { latestWins } from './latestWins.ts';
 import type { Viewer } from './viewer.ts';
 
-/** Density offered at first: water at 20 °C, 998.207 kg/m³ (REFERENCES §10, IAPWS-95). */
+/** Density offered at first: water at 20 °C, 998.207 kg/m³ (docs/references.md §10, IAPWS-95). */
 export const DEFAULT_DENSITY = 998.207;
 
 interface Plane {

@@ -70,6 +70,7 @@ export function pressureLoss(up: SurfaceIntegrals, down: SurfaceIntegrals, optio
     out.dynamicPressure = q;
     if (q !== null && q > 0 && out.totalPressureLoss !== null) out.lossCoefficient = out.totalPressureLoss / q;
   }
+  // 1 % mismatch: common practice, not a published threshold (docs/references.md, rules of thumb)
   const m1 = up.massFlowRate, m2 = down.massFlowRate;
   if (m1 !== null && m2 !== null && Math.abs(Math.abs(m1) - Math.abs(m2)) > 0.01 * Math.max(Math.abs(m1), Math.abs(m2))) {
     notes.push(`mass-flow rates differ by more than 1 % between the planes (${m1.toPrecision(5)} vs ${m2.toPrecision(5)}): check that both cut the same stream`);

@@ -1,9 +1,9 @@
 /**
  * Sample field: fully developed laminar water flow (20 °C) in a straight rectangular cooling channel
  * of a cold plate (square by default), along +z from z = 0 (inlet) to z = length (outlet);
- * cross-section |x| ≤ a, |y| ≤ b. Exact solution: the Fourier series of ../shared/REFERENCES.md §2.
+ * cross-section |x| ≤ a, |y| ≤ b. Exact solution: the Fourier series of White, Viscous Fluid Flow §3-3 (docs/references.md §2).
  *
- * Series (REFERENCES §2 with its y → our x, its z → our y): with λ_k = (2k+1)π/(2a),
+ * Series (docs/references.md §2, with its y → our x, its z → our y): with λ_k = (2k+1)π/(2a),
  *   u = (G/2μ)(a² − x²) − (16a²G/μπ³) Σ_k (−1)^k cos(λ_k x) cosh(λ_k y)/cosh(λ_k b) / (2k+1)³,
  * the first term being the closed form of the series' "1" part. The same holds with (x, a) and (y, b)
  * swapped; the evaluation uses the form whose cosh terms decay faster at the point, and sums until the
@@ -26,9 +26,9 @@ export interface DuctOptions {
   length: number;
   /** Mean velocity V (m/s). Default 0.05 (Re ≈ 498 on the hydraulic diameter). */
   meanVelocity: number;
-  /** Density (kg/m³). Default 998.207 (water, 20 °C, REFERENCES §10). */
+  /** Density (kg/m³). Default 998.207 (water, 20 °C, IAPWS-95 and IAPWS-2008, docs/references.md §10). */
   rho: number;
-  /** Dynamic viscosity (Pa·s). Default 1.0016e-3 (water, 20 °C, REFERENCES §10). */
+  /** Dynamic viscosity (Pa·s). Default 1.0016e-3 (water, 20 °C, IAPWS-95 and IAPWS-2008, docs/references.md §10). */
   mu: number;
   /** Cells across x, across y and along z. Defaults 20, 20, 20. */
   nx: number; ny: number; nz: number;
@@ -43,7 +43,7 @@ export const DUCT_DEFAULTS: Readonly<DuctOptions> = {
   nx: 20, ny: 20, nz: 20, association: 'point', precision: 'Float64',
 };
 
-/** Exact values of the fully developed flow (REFERENCES §2). */
+/** Exact values of the fully developed flow (docs/references.md §2). */
 export interface DuctExact {
   /** Half-width a (m), half-height b (m), length (m), mean velocity (m/s), density, viscosity. */
   a: number; b: number; L: number; V: number; rho: number; mu: number;
@@ -76,7 +76,7 @@ export function ductOptions(o: Partial<DuctOptions> = {}): DuctOptions {
 }
 
 /**
- * Q/G of the rectangle |x| ≤ halfWidth, |y| ≤ halfHeight (m), in m⁴/(Pa·s): Q = G·ductFlowPerGradient. REFERENCES §2,
+ * Q/G of the rectangle |x| ≤ halfWidth, |y| ≤ halfHeight (m), in m⁴/(Pa·s): Q = G·ductFlowPerGradient. docs/references.md §2,
  * Q = (4ba³G/3μ)[1 − (192a/π⁵b) Σ_odd tanh(iπb/2a)/i⁵] with a ≤ b (the roles are symmetric).
  */
 export function ductFlowPerGradient(halfWidth: number, halfHeight: number, mu: number): number {

@@ -1,6 +1,6 @@
 /**
  * Sample field: laminar water flow (20 °C) in a straight coolant pipe, fully developed
- * (Hagen–Poiseuille, ../shared/REFERENCES.md §1). The pipe runs along +z from z = 0 (inlet) to
+ * (Hagen–Poiseuille, docs/references.md §1). The pipe runs along +z from z = 0 (inlet) to
  * z = length (outlet), axis on the z-axis. SI units throughout.
  *
  * Mesh: the cross-section is an O-grid — a ring of quadrilaterals following the wall around either a
@@ -23,9 +23,9 @@ export interface PipeOptions {
   length: number;
   /** Mean (bulk) velocity V (m/s). Default 0.05 (Re ≈ 997). */
   meanVelocity: number;
-  /** Density (kg/m³). Default 998.207 (water, 20 °C, REFERENCES §10). */
+  /** Density (kg/m³). Default 998.207 (water, 20 °C, IAPWS-95 and IAPWS-2008, docs/references.md §10). */
   rho: number;
-  /** Dynamic viscosity (Pa·s). Default 1.0016e-3 (water, 20 °C, REFERENCES §10). */
+  /** Dynamic viscosity (Pa·s). Default 1.0016e-3 (water, 20 °C, IAPWS-95 and IAPWS-2008, docs/references.md §10). */
   mu: number;
   /** Cells radially: ring layers between the core and the wall (hex core) or from the axis to the wall (wedge core). Default 6. */
   nRadial: number;
@@ -57,7 +57,7 @@ export const PIPE_LEVELS = {
   fine: { nTheta: 36, nRadial: 9, nAxial: 36 },
 } as const satisfies Record<string, Partial<PipeOptions>>;
 
-/** Exact values of the fully developed flow (REFERENCES §1). */
+/** Exact values of the fully developed flow (Hagen–Poiseuille, docs/references.md §1). */
 export interface PipeExact {
   /** Radius (m), length (m), mean velocity (m/s), density (kg/m³), viscosity (Pa·s). */
   R: number; L: number; V: number; rho: number; mu: number;
@@ -97,7 +97,7 @@ export function pipeOptions(o: Partial<PipeOptions> = {}): PipeOptions {
   return r;
 }
 
-/** The exact solution's numbers for the given options (REFERENCES §1). */
+/** The exact solution's numbers for the given options (Hagen–Poiseuille, docs/references.md §1). */
 export function pipeExact(o: Partial<PipeOptions> = {}): PipeExact {
   const { radius: R, length: L, meanVelocity: V, rho, mu } = pipeOptions(o);
   const G = 8 * mu * V / (R * R), Re = rho * V * 2 * R / mu, Q = Math.PI * R * R * V;

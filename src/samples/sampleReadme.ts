@@ -43,8 +43,8 @@ export function sampleReadme(files: { entry: SampleEntry; dataset: Dataset; byte
 
 Result files with exact solutions, made by \`npm run make-fields\` (source: \`src/samples/\`). Do not edit
 them by hand: \`tests/samples/committed.test.ts\` checks that every file here is byte for byte what the
-generator makes now. The scenarios are our own; the exact solutions come from the formulas cited in
-\`../shared/REFERENCES.md\` (outside this repository).
+generator makes now. The scenarios are our own; the exact solutions come from the published formulas listed
+in \`docs/references.md\`.
 
 Numbers computed from these files are only as good as the mesh and the interpolation: the fields are
 exact at the nodes (or cell centroids), not between them. Check convergence on the coarse/medium/fine
@@ -71,7 +71,7 @@ Total: ${kb(total)}.
 
 A pipe of radius R = ${num(pipe.R)} m and length L = ${num(pipe.L)} m along +z (inlet z = 0, outlet z = L),
 axis on the z-axis; water at 20 °C (ρ = ${num(pipe.rho)} kg/m³, μ = ${num(pipe.mu)} Pa·s). The flow is taken as
-fully developed over the whole length (Hagen–Poiseuille, REFERENCES §1):
+fully developed over the whole length (Hagen–Poiseuille, docs/references.md §1):
 
 - u_z = 2V(1 − r²/R²), u_x = u_y = 0; p = G(L − z), zero at the outlet.
 - Mean velocity V = ${num(pipe.V)} m/s; centre-line velocity ${num(pipe.uMax)} m/s; Re (diameter) = ${num(pipe.Re)}.
@@ -96,7 +96,7 @@ ${pipeLevels.join('\n')}
 
 A small bead settling slowly through a viscous syrup, seen from the bead (demo values of our own):
 sphere radius a = ${num(stokes.a)} m at the origin, uniform stream U = ${num(stokes.U)} m/s along +x,
-μ = ${num(stokes.mu)} Pa·s, ρ = ${num(stokes.rho)} kg/m³, Re (diameter) = ${num(stokes.Re)}. Stokes' solution (REFERENCES §3), p∞ = 0:
+μ = ${num(stokes.mu)} Pa·s, ρ = ${num(stokes.rho)} kg/m³, Re (diameter) = ${num(stokes.Re)}. Stokes' solution (docs/references.md §3), p∞ = 0:
 
 - u = U − (3a/4)(U/r + (U·x)x/r³) − (a³/4)(U/r³ − 3(U·x)x/r⁵); p = −(3/2)μa(U·x)/r³.
 - On the wall: no slip; p = −(3μU/2a)cos θ (θ from +x), from +${num(stokes.wallShearMax)} Pa at the front
@@ -118,7 +118,7 @@ Shell volume 4π(R_o³ − a³)/3 = ${num(stokes.shellVolume)} m³.
 ## Potential flow past a sphere (\`sphere-potential.vtu\`)
 
 The inviscid idealisation of a ball of radius a = ${num(pot.a)} m in an air stream U = ${num(pot.U)} m/s along +x
-(ISA sea-level air, ρ = ${num(pot.rho)} kg/m³), same kind of mesh (outer radius ${num(pot.outerRadius)} m). REFERENCES §4:
+(ISA sea-level air, ρ = ${num(pot.rho)} kg/m³), same kind of mesh (outer radius ${num(pot.outerRadius)} m). potential-flow sphere (Katz 2016), docs/references.md §4:
 
 - u = ∇[(U·x)(1 + a³/2r³)]; p = ½ρ(U² − |u|²), p∞ = 0.
 - Wall: Cp = 1 − (9/4)sin²θ: Cp = 1 (p = ${num(pot.dynamicPressure)} Pa) at both stagnation points, −1.25
@@ -129,7 +129,7 @@ The inviscid idealisation of a ball of radius a = ${num(pot.a)} m in an air stre
 
 A square cooling channel of a cold plate, ${num(2 * duct.a)} m × ${num(2 * duct.b)} m (|x| ≤ a, |y| ≤ b, a = b = ${num(duct.a)} m),
 length ${num(duct.L)} m along +z; water at 20 °C as above; ${DUCT_DEFAULTS.nx} × ${DUCT_DEFAULTS.ny} × ${DUCT_DEFAULTS.nz} hexahedra.
-Series solution (REFERENCES §2), summed to better than 1e-12 relative:
+Series solution (docs/references.md §2), summed to better than 1e-12 relative:
 
 - Mean velocity V = ${num(duct.V)} m/s; Q = ${num(duct.Q)} m³/s; mass flow rate ${num(duct.massFlow)} kg/s.
 - Pressure gradient G = ${num(duct.G)} Pa/m; p = G(L − z), drop over the length ${num(duct.dp)} Pa.

@@ -5,7 +5,7 @@
  *  - `stokes` (default): a small bead settling slowly through a viscous syrup, seen from the bead
  *    (demo values of our own: a = 0.5 mm, U = 1 mm/s, μ = 1.5 Pa·s, ρ = 1300 kg/m³, Re_D ≈ 8.7e-4);
  *  - `potential`: the inviscid idealisation of a 100 mm ball in a 10 m/s air stream (ISA sea-level air,
- *    ../shared/REFERENCES.md §10).
+ *    docs/references.md §10).
  */
 import type { Dataset } from '../model/dataset.ts';
 import { datasetOf, field } from '../model/meshBuild.ts';
@@ -36,7 +36,7 @@ export interface SphereOptions extends SphereFlowParams {
 
 /** Stokes defaults: a bead in syrup (demo values). */
 export const STOKES_DEFAULTS = { radius: 0.5e-3, speed: 1e-3, mu: 1.5, rho: 1300 } as const;
-/** Potential-flow defaults: a 100 mm ball in air at 10 m/s; μ and ρ of ISA sea-level air (REFERENCES §10). */
+/** Potential-flow defaults: a 100 mm ball in air at 10 m/s; μ and ρ of ISA sea-level air (docs/references.md §10). */
 export const POTENTIAL_DEFAULTS = { radius: 0.05, speed: 10, mu: 1.7894e-5, rho: 1.225 } as const;
 
 /** Cell groups of the `group` cell array. */
@@ -62,7 +62,7 @@ export function sphereOptions(o: Partial<SphereOptions> = {}): SphereOptions & {
   return { ...r, outerRadius, divisions, layers };
 }
 
-/** Exact values (REFERENCES §3 Stokes, §4 potential). Forces in N along +x, on the sphere. */
+/** Exact values (docs/references.md §3 Stokes, §4 potential). Forces in N along +x, on the sphere. */
 export interface SphereExact {
   flow: 'stokes' | 'potential';
   /** Radius a (m), outer radius (m), speed U (m/s), viscosity (Pa·s), density (kg/m³). */

@@ -1,11 +1,11 @@
 /**
  * Exact flows past a sphere of radius a at the origin in a uniform stream U along +x, pressure
  * p∞ = 0 far away (SI units):
- *  - Stokes (creeping) flow, ../shared/REFERENCES.md §3:
+ *  - Stokes (creeping) flow, docs/references.md §3:
  *      u = U − (3a/4)(U/r + (U·x)x/r³) − (a³/4)(U/r³ − 3(U·x)x/r⁵),  p = −(3/2)μa(U·x)/r³;
  *    on the wall the traction is uniform, (3μ/2a)U: pressure part (3μ/2a)(U·n)n, shear part
  *    (3μ/2a)(U − (U·n)n); drag 6πμaU = 2πμaU (pressure) + 4πμaU (viscous), C_D = 24/Re.
- *  - Potential flow, REFERENCES §4: u = ∇[(U·x)(1 + a³/2r³)], p = ½ρ(U² − |u|²);
+ *  - Potential flow, docs/references.md §4: u = ∇[(U·x)(1 + a³/2r³)], p = ½ρ(U² − |u|²);
  *    on the wall Cp = 1 − (9/4)sin²θ, zero drag.
  * Hot-loop friendly: scalar arguments, results written into a caller's array.
  */

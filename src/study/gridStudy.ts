@@ -1,7 +1,7 @@
 /**
  * Grid-convergence study: the same probe set on three meshes of one case gives, per quantity, the
  * estimate of Celik et al. (2008), J. Fluids Eng. 130, 078001 (`gci.ts`; formulas in
- * ../shared/REFERENCES.md §6): apparent order, extrapolated value, approximate and extrapolated relative
+ * docs/references.md §6): apparent order, extrapolated value, approximate and extrapolated relative
  * errors and the fine-grid convergence index. The mesh size is h = (ΣV/N)^(1/3) over the 3D cells
  * (`volumeSummary`), in metres. Oscillatory or divergent behaviour is reported as such with no numbers
  * forced; a quantity missing on any mesh (its probe failed there) is listed with the reason.

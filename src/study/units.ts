@@ -127,13 +127,13 @@ export interface FluidPreset {
 }
 
 /**
- * Reference-value presets. Values from ../shared/REFERENCES.md §10: water at 20 °C, 1 atm, from
+ * Reference-value presets. Values from docs/references.md §10: water at 20 °C, 1 atm, from
  * IAPWS-95/IAPWS-2008 (C); ISA sea-level density from the Mechanical Engineers' Handbook vol. 4, Table 6
  * (V), air viscosity from Sutherland's law at 288.15 K (C).
  */
 export const FLUID_PRESETS: readonly FluidPreset[] = [
-  { id: 'water-20c', label: 'water at 20 °C, 1 atm', density: 998.207, viscosity: 1.00160e-3, source: 'REFERENCES.md §10 (IAPWS-95 / IAPWS-2008)' },
-  { id: 'air-isa-sea-level', label: 'air, ISA sea level (288.15 K, 101325 Pa)', density: 1.2250, viscosity: 1.7894e-5, source: 'REFERENCES.md §10 (ISA table; Sutherland\'s law)' },
+  { id: 'water-20c', label: 'water at 20 °C, 1 atm', density: 998.207, viscosity: 1.00160e-3, source: 'docs/references.md §10 (IAPWS-95 / IAPWS-2008)' },
+  { id: 'air-isa-sea-level', label: 'air, ISA sea level (288.15 K, 101325 Pa)', density: 1.2250, viscosity: 1.7894e-5, source: 'docs/references.md §10 (ISA table; Sutherland\'s law)' },
 ];
 
 /** A preset by id, or undefined. */

@@ -1,7 +1,7 @@
 /**
  * Composite results: pressure loss and loss coefficient between two planes, mass balance over planes and
  * boundary surfaces.
- * References: ../shared/REFERENCES.md §1, Hagen–Poiseuille (C) — fully developed, so the profile is the same
+ * References: docs/references.md §1, Hagen–Poiseuille (C) — fully developed, so the profile is the same
  * on every section and Δp₀ between two sections equals the static drop G·ΔL exactly, K = G·ΔL/(½ρV²);
  * divergence theorem — the net flux of a divergence-free field through a closed surface is zero.
  */
@@ -48,7 +48,7 @@ describe('pressure loss between two planes (Poiseuille pipe)', () => {
 });
 
 describe('sudden expansion with uniform profiles (Borda–Carnot)', () => {
-  // Reference: ../shared/REFERENCES.md §5, Borda–Carnot (C): with σ = A₁/A₂, p₂ − p₁ = ρV₁²σ(1−σ) (momentum)
+  // Reference: docs/references.md §5, Borda–Carnot (C): with σ = A₁/A₂, p₂ − p₁ = ρV₁²σ(1−σ) (momentum)
   // and K = Δp₀/(½ρV₁²) = (1−σ)², the form of Idelchik Diag. 4-1 as quoted there (V); on the downstream
   // velocity V₂ = σV₁ the same loss gives K₂ = (1/σ − 1)².
   // The field is built from the uniform-profile model (narrow square duct 1×1, wide 2×2, σ = 1/4), so this

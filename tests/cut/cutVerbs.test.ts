@@ -1,6 +1,6 @@
 /**
  * The command-line verbs `cut`, `loss` and `balance` on a pipe file written to a temporary folder.
- * Reference: ../shared/REFERENCES.md §1, Hagen–Poiseuille (C) — Δp₀ between two sections = G·ΔL; the JSON
+ * Reference: docs/references.md §1, Hagen–Poiseuille (C) — Δp₀ between two sections = G·ΔL; the JSON
  * numbers must equal the library's (same code path) and carry units, sign convention and caution.
  */
 import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
@@ -73,7 +73,7 @@ describe('fieldtally cut', () => {
   });
 
   it('region options: a disk of radius R/2 holds (1 − (1 − ¼)²) = 7/16 of the Poiseuille flow', async () => {
-    // Reference: ∫₀^{R/2} 2V(1 − r²/R²) 2πr dr / (πR²V) = 7/16 (REFERENCES.md §1 profile, C); mesh error O(h²).
+    // Reference: ∫₀^{R/2} 2V(1 − r²/R²) 2πr dr / (πR²V) = 7/16 (docs/references.md §1 profile, C); mesh error O(h²).
     const e = pipeExact();
     const j = JSON.parse((await run('cut', file, '--origin', '0,0,0.05', '--normal', '0,0,1', '--disk', `0,0,0.05:${e.R / 2}`, '--json')).out);
     expect(j.area).toBeCloseTo(Math.PI * e.R * e.R / 4, 15);

@@ -1,7 +1,7 @@
 /**
  * Fully developed laminar flow in a square duct (sample field `ductCase`): the Darcy friction factor from
  * the computed flow rate and the imposed pressure gradient.
- * Reference: ../shared/REFERENCES.md §2, rectangular duct (C): Darcy f·Re = 56.908 for α* = 1, with
+ * Reference: docs/references.md §2, rectangular duct (C): Darcy f·Re = 56.908 for α* = 1, with
  * f = 2G·D_h/(ρV²), Re = ρV·D_h/μ, so f·Re = 2G·D_h²/(μV) and V = Q/A from the cut.
  */
 import { describe, expect, it } from 'vitest';
@@ -17,7 +17,7 @@ function fRe(n: number): number {
   return (2 * e.G * e.Dh * e.Dh) / (e.mu * V);
 }
 
-describe('square duct (REFERENCES.md §2)', () => {
+describe('square duct (docs/references.md §2)', () => {
   it('Darcy f·Re → 56.908 at second order in the mesh spacing', () => {
     const f = [10, 20, 40].map(fRe);
     const err = f.map((v) => v / 56.908 - 1);

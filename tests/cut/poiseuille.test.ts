@@ -1,7 +1,7 @@
 /**
  * Hagen–Poiseuille pipe flow (sample field `pipeCase`): flow rate and total-pressure means against the
  * exact solution, with the error falling at second order over three meshes.
- * Reference: ../shared/REFERENCES.md §1, Hagen–Poiseuille (C): Q = πR²V; with uniform p over the section,
+ * Reference: docs/references.md §1, Hagen–Poiseuille (C): Q = πR²V; with uniform p over the section,
  * mass-flow-weighted p₀ = p + ρV² and area-weighted p₀ = p + (2/3)ρV².
  */
 import { describe, expect, it } from 'vitest';
@@ -30,7 +30,7 @@ function errors(core: 'hex' | 'wedge') {
 /** Observed order between successive levels (refinement ratio 1.5 per level). */
 const order = (a: number, b: number) => Math.log(Math.abs(a / b)) / Math.log(1.5);
 
-describe('Hagen–Poiseuille pipe (REFERENCES.md §1)', () => {
+describe('Hagen–Poiseuille pipe (docs/references.md §1)', () => {
   for (const core of ['hex', 'wedge'] as const) {
     it(`${core} core: Q → πR²V, mass-flow p₀ → p + ρV², area p₀ → p + (2/3)ρV², at second order`, () => {
       const e = errors(core);

@@ -1,6 +1,6 @@
 /**
  * Boundary-layer integrals of a wall-normal line probe through a Blasius boundary layer.
- * Reference: ../shared/REFERENCES.md §7, Blasius (C, shooting): f''(0) = 0.332057, δ* / x·√Re_x = 1.7208,
+ * Reference: docs/references.md §7, Blasius (C, shooting): f''(0) = 0.332057, δ* / x·√Re_x = 1.7208,
  * θ/x·√Re_x = 0.6641, H = 2.591, δ99/x ≈ 4.91/√Re_x. The profile is solved here by shooting
  * (tests/locate/blasius.ts) and put on the nodes of a hexahedral mesh; the probe then has to recover
  * the integrals to about three significant figures.
@@ -29,7 +29,7 @@ function blasiusMesh(ny: number) {
 }
 
 describe('boundary-layer quantities', () => {
-  it('the shooting solution matches the published f\'\'(0) and integrals (REFERENCES §7)', () => {
+  it('the shooting solution gives f\'\'(0) = 0.332057 and the integrals (computed, not read: Blasius, docs/references.md §7)', () => {
     expect(sol.fpp0).toBeCloseTo(0.332057, 6);
     // ∫(1 − f') dη = η_max − f(η_max); θ = 2 f''(0) by the momentum integral.
     expect(sol.etaMax - sol.f[sol.f.length - 1]!).toBeCloseTo(1.7208, 4);
@@ -53,7 +53,7 @@ describe('boundary-layer quantities', () => {
     expect(bl.momentumThickness * scale).toBeCloseTo(0.6641, 3);
     expect(bl.shapeFactor).toBeCloseTo(2.591, 2);
     expect(Math.abs(bl.shapeFactor - 2.591) / 2.591).toBeLessThan(1e-3);
-    // δ99/x ≈ 4.91/√Re_x (REFERENCES §7, "≈").
+    // δ99/x ≈ 4.91/√Re_x (Blasius, docs/references.md §7, "≈").
     expect(bl.delta99 * scale).toBeCloseTo(4.91, 1);
   });
 

@@ -1,7 +1,7 @@
 /**
  * The Blasius flat-plate boundary layer for tests: f''' + ½ f f'' = 0, f(0) = f'(0) = 0, f'(∞) = 1,
  * solved by shooting on f''(0) (classical fourth-order Runge–Kutta, secant iteration on f'(η_max) = 1).
- * u/U = f'(η), η = y·√(U/(νx)). Reference values: ../shared/REFERENCES.md §7 (f''(0) = 0.332057,
+ * u/U = f'(η), η = y·√(U/(νx)). Reference values: Blasius, docs/references.md §7 (f''(0) = 0.332057,
  * δ* / x·√Re_x = 1.7208, θ/x·√Re_x = 0.6641, H = 2.591).
  */
 

@@ -1,6 +1,6 @@
 /**
  * Velocity profile across a laminar pipe by line probe, on three meshes.
- * Reference: ../shared/REFERENCES.md §1, Hagen–Poiseuille (C): u = G(R² − r²)/4μ with G = 8μV/R²
+ * Reference: docs/references.md §1, Hagen–Poiseuille (C): u = G(R² − r²)/4μ with G = 8μV/R²
  * (u_max = 2V on the axis). The sample field holds the exact profile at the nodes; between nodes the
  * probe interpolates, so its error must fall at about second order in the mesh size (the levels refine
  * by 1.5 in every direction).
@@ -34,7 +34,7 @@ function chordErrors(level: keyof typeof PIPE_LEVELS) {
   return { rms: Math.sqrt(sq / n), max, flagged, gaps };
 }
 
-describe('Hagen–Poiseuille profile across the pipe (REFERENCES §1)', () => {
+describe('Hagen–Poiseuille profile across the pipe (docs/references.md §1)', () => {
   it('the error of the sampled profile falls at about second order over coarse, medium, fine', () => {
     const e = (['coarse', 'medium', 'fine'] as const).map((l) => chordErrors(l));
     const p1 = Math.log(e[0]!.rms / e[1]!.rms) / Math.log(1.5), p2 = Math.log(e[1]!.rms / e[2]!.rms) / Math.log(1.5);

@@ -1,6 +1,6 @@
 /**
  * The duct sample: the series solution and its numbers.
- * Reference: ../shared/REFERENCES.md §2 — series form (M, White §3-3) checked here as the C entry says:
+ * Reference: docs/references.md §2 — series form (M, White §3-3) checked here as the C entry says:
  * ∇²u = −G/μ, zero on the walls, integrates to Q; Q formula (V, Saadatian & Wong 2020); Darcy fRe table
  * (C; 56.908 at α* = 1 also V via a secondary table to 3 digits); square duct u_max/V = 2.0963, α = 2.154,
  * β = 1.378 (C).
@@ -48,7 +48,7 @@ function rng(seed: number): () => number {
   return () => { s = (Math.imul(s, 1664525) + 1013904223) >>> 0; return s / 2 ** 32; };
 }
 
-describe('duct series solution (REFERENCES §2)', () => {
+describe('duct series solution (docs/references.md §2)', () => {
   it('∇²u = −G/μ at random interior points (finite differences), square and 2:1 ducts', () => {
     const rand = rng(7);
     for (const [a, b] of [[0.005, 0.005], [0.0025, 0.005], [0.005, 0.0025]] as const) {
@@ -92,7 +92,7 @@ describe('duct series solution (REFERENCES §2)', () => {
   });
 
   it('Darcy fRe matches the table: 56.908 (α* = 1), 62.192 (0.5), 72.931 (0.25), 84.676 (0.1)', () => {
-    // Reference: REFERENCES §2 Darcy fRe table (C); Fanning 14.227 at α* = 1.
+    // Reference: rectangular-duct series, docs/references.md §2 Darcy fRe table (C); Fanning 14.227 at α* = 1.
     const table: [number, number][] = [[1, 56.908], [0.5, 62.192], [0.25, 72.931], [0.1, 84.676]];
     for (const [ratio, fRe] of table) {
       const e = ductExact({ halfWidth: 0.005 * ratio, halfHeight: 0.005 });
@@ -102,7 +102,7 @@ describe('duct series solution (REFERENCES §2)', () => {
   });
 
   it('square duct: u_max/V = 2.0963, α = 2.154, β = 1.378', () => {
-    // Reference: REFERENCES §2, square duct (C).
+    // Reference: docs/references.md §2, square duct (C).
     const e = ductExact();
     expect(e.uMax / e.V).toBeCloseTo(2.0963, 4);
     const beta = integrate(e, (u) => u * u) / (e.V ** 2 * e.area);
@@ -114,6 +114,8 @@ describe('duct series solution (REFERENCES §2)', () => {
   it('hydraulic diameter, Reynolds number and mean wall shear stress of the default channel', () => {
     const e = ductExact();
     expect(e.Dh).toBeCloseTo(0.01, 15);
+    // Water at 20 °C: ρ = 998.207 kg/m³, μ = 1.0016 mPa·s, computed from the IAPWS-95 and IAPWS-2008
+    // formulations (docs/references.md §10), not read from a printed table.
     expect(e.Re).toBeCloseTo((998.207 * 0.05 * 0.01) / 1.0016e-3, 9);
     // Force balance on the fluid: G·A = τ̄·P.
     expect(e.wallShearStress * 8 * e.a).toBeCloseTo(e.G * e.area, 15);

@@ -1,6 +1,6 @@
 /**
  * The pipe sample: mesh quality and geometry, and the Hagen–Poiseuille field it carries.
- * Reference: ../shared/REFERENCES.md §1 (Hagen–Poiseuille, C): u = G(R²−r²)/4μ, Q = πGR⁴/8μ, V = u_max/2,
+ * Reference: docs/references.md §1 (Hagen–Poiseuille, C): u = G(R²−r²)/4μ, Q = πGR⁴/8μ, V = u_max/2,
  * f_Darcy = 64/Re, α = 2, β = 4/3. Geometry: the area of a circle, πR².
  */
 import { describe, expect, it } from 'vitest';
@@ -74,10 +74,10 @@ function sectionIntegrals(o: Partial<PipeOptions>): [number, number, number] {
 
 const order = (e1: number, e2: number, e3: number, r: number) => [Math.log(Math.abs(e1 / e2)) / Math.log(r), Math.log(Math.abs(e2 / e3)) / Math.log(r)];
 
-describe('pipe sample: exact numbers (REFERENCES §1)', () => {
+describe('pipe sample: exact numbers (docs/references.md §1)', () => {
   it('Hagen–Poiseuille relations hold for the default water pipe', () => {
     const e = pipeExact();
-    // Reference: REFERENCES §1 (C): Q = πGR⁴/8μ, V = u_max/2, f_Darcy = 64/Re; §10 water at 20 °C.
+    // Reference: Hagen–Poiseuille, docs/references.md §1 (C): Q = πGR⁴/8μ, V = u_max/2, f_Darcy = 64/Re; §10 water at 20 °C.
     expect(e.Q).toBeCloseTo((Math.PI * e.G * e.R ** 4) / (8 * e.mu), 18);
     expect(e.Q / e.area).toBeCloseTo(e.V, 15);
     expect(e.uMax).toBe(2 * e.V);
@@ -193,11 +193,11 @@ describe('pipe sample: fields', () => {
     expect(c[2]).toBeCloseTo(0.1 / 16 / 2, 16);
   });
 
-  it('flow rate, β and α from the interpolated profile converge to Q, 4/3 and 2 (REFERENCES §1)', () => {
+  it('flow rate, β and α from the interpolated profile converge to Q, 4/3 and 2 (Hagen–Poiseuille, docs/references.md §1)', () => {
     const e = pipeExact();
     const res = LEVELS.map((lv) => sectionIntegrals(lv));
     const Qerr = res.map((r) => r[0] - e.Q);
-    // Reference: REFERENCES §1 (C), Q = πR²V; β = ∫u²dA/(V²A) = 4/3; α = ∫u³dA/(V³A) = 2.
+    // Reference: Hagen–Poiseuille, docs/references.md §1 (C), Q = πR²V; β = ∫u²dA/(V²A) = 4/3; α = ∫u³dA/(V³A) = 2.
     const [p1, p2] = order(Qerr[0]!, Qerr[1]!, Qerr[2]!, 1.5);
     expect(p1).toBeGreaterThan(1.8);
     expect(p2).toBeGreaterThan(1.8);

@@ -1,6 +1,6 @@
 /**
  * The sphere samples: the exact flows and the shell mesh.
- * Reference: ../shared/REFERENCES.md §3 (Stokes sphere: velocity and pressure M, Stokes 1851 / Bird–Stewart–
+ * Reference: docs/references.md §3 (Stokes sphere: velocity and pressure M, Stokes 1851 / Bird–Stewart–
  * Lightfoot §2.6; checked here as its C entry says — divergence-free, satisfies the Stokes equations, no slip;
  * wall values and the drag split 2πμaU + 4πμaU, C_D = 24/Re are C) and §4 (potential sphere: Cp = 1 − (9/4)sin²θ,
  * zero drag; V, Katz 2016 Eq. 6.75). Geometry: the volume of a spherical shell, 4π(R_o³ − a³)/3.
@@ -79,7 +79,7 @@ function triangleNormal(P: Float64Array, a: number, b: number, c: number): [numb
 const stokes = sphereOptions({ flow: 'stokes' });
 const potential = sphereOptions({ flow: 'potential' });
 
-describe('Stokes flow past a sphere (REFERENCES §3)', () => {
+describe('Stokes flow past a sphere (docs/references.md §3)', () => {
   it('is divergence-free and satisfies μ∇²u = ∇p at random points (finite differences)', () => {
     const a = stokes.radius, h = 1e-3 * a, U = stokes.speed;
     for (const [x, y, z] of shellPoints(a, 60, 3)) {
@@ -152,7 +152,7 @@ describe('Stokes flow past a sphere (REFERENCES §3)', () => {
   });
 });
 
-describe('potential flow past a sphere (REFERENCES §4)', () => {
+describe('potential flow past a sphere (docs/references.md §4)', () => {
   it('is divergence-free and irrotational at random points, with u·n = 0 on the wall', () => {
     const a = potential.radius, U = potential.speed;
     for (const [x, y, z] of shellPoints(a, 60, 9)) {

@@ -35,7 +35,7 @@ describe('evaluateProbeSet on the laminar pipe', () => {
     expect(q(o, 'totalPressure.massFlowMean')).toBe(lib.totalPressure!.massFlowMean);
     expect([unit(o, 'area'), unit(o, 'volumeFlowRate'), unit(o, 'massFlowRate'), unit(o, 'staticPressure.areaMean'), unit(o, 'uniformityIndex')])
       .toEqual(['m²', 'm³/s', 'kg/s', 'Pa', '1']);
-    // Reference: ../shared/REFERENCES.md §1, Hagen–Poiseuille (C): Q = πR²V; the faceted medium mesh fills the circle to 1.14 %
+    // Reference: docs/references.md §1, Hagen–Poiseuille (C): Q = πR²V; the faceted medium mesh fills the circle to 1.14 %
     expect(Math.abs(q(o, 'volumeFlowRate') / e.Q - 1)).toBeLessThan(0.02);
     expect(o.anchor![2]).toBeCloseTo(0.05, 12);
     expect(o.definition).toMatch(/^cut-plane through \(0, 0, 0\.05\) normal \(0, 0, 1\); velocity velocity \(point\), pressure p \(point\), density 998\.207 kg\/m³$/);
@@ -44,10 +44,10 @@ describe('evaluateProbeSet on the laminar pipe', () => {
   it('density: a density field, else the set\'s reference density (or its preset), else none with a note', () => {
     const plane: Probe = { id: 'a', kind: 'cut-plane', geometry: { origin: [0, 0, 0.05], normal: [0, 0, 1] } };
     const water = evaluateProbeSet(pipe, set([plane], { reference: { preset: 'water-20c' } })).probes[0]!;
-    // Reference: ../shared/REFERENCES.md §10, water at 20 °C: ρ = 998.207 kg/m³ (IAPWS-95)
+    // Reference: docs/references.md §10, water at 20 °C: ρ = 998.207 kg/m³ (IAPWS-95)
     expect(q(water, 'massFlowRate') / q(water, 'volumeFlowRate')).toBeCloseTo(998.207, 9);
     const air = evaluateProbeSet(pipe, set([plane], { reference: { preset: 'air-isa-sea-level' } })).probes[0]!;
-    // Reference: ../shared/REFERENCES.md §10, ISA sea level: ρ = 1.2250 kg/m³
+    // Reference: docs/references.md §10, ISA sea level: ρ = 1.2250 kg/m³
     expect(q(air, 'massFlowRate') / q(air, 'volumeFlowRate')).toBeCloseTo(1.225, 12);
     const none = evaluateProbeSet(pipe, set([plane])).probes[0]!;
     expect(none.ok).toBe(true);
@@ -60,7 +60,7 @@ describe('evaluateProbeSet on the laminar pipe', () => {
     const down = { origin: [0, 0, 0.08] as [number, number, number], normal: [0, 0, 1] as [number, number, number] };
     const o = evaluateProbeSet(pipe, set([{ id: 'l', kind: 'pressure-loss', geometry: { upstream: up, downstream: down }, fields: { density: e.rho } }])).probes[0]!;
     expect(o.ok).toBe(true);
-    // Reference: ../shared/REFERENCES.md §1 (C): p = G(L − z) is linear, the velocity profile the same on both planes,
+    // Reference: Hagen–Poiseuille, docs/references.md §1 (C): p = G(L − z) is linear, the velocity profile the same on both planes,
     // so the mass-flow-weighted total-pressure loss is exactly G·Δz.
     expect(q(o, 'totalPressureLoss')).toBeCloseTo(e.G * 0.06, 12);
     const lib = pressureLoss(integratePlane(pipe, { ...up, integral: { density: e.rho } }).integrals, integratePlane(pipe, { ...down, integral: { density: e.rho } }).integrals);
@@ -86,7 +86,7 @@ describe('evaluateProbeSet on the laminar pipe', () => {
       { id: 'd', kind: 'line', geometry: { from: [0, 0, 0.01], to: [0, 0, 0.09] }, options: { samples: 9 } },
     ]));
     const [c, d] = ev.probes as [ProbeOutcome, ProbeOutcome];
-    // Reference: ../shared/REFERENCES.md §1 (C): centre-line velocity 2V, p = G(L − z); the axis nodes hold them exactly
+    // Reference: Hagen–Poiseuille, docs/references.md §1 (C): centre-line velocity 2V, p = G(L − z); the axis nodes hold them exactly
     expect(q(c, 'velocity_z')).toBeCloseTo(e.uMax, 14);
     expect(q(c, 'p')).toBeCloseTo(e.G * (e.L - 0.03), 14);
     expect(unit(c, 'p')).toBe('Pa');
@@ -167,7 +167,7 @@ describe('force total on the Stokes sphere', () => {
     const o = evaluateProbeSet(d, set([{ id: 'bead', kind: 'force', geometry: { surfaces: ['group 1'] } }],
       { reference: { density: x.rho, speed: x.U, area: x.frontalArea } })).probes[0]!;
     expect(o.ok).toBe(true);
-    // Reference: ../shared/REFERENCES.md §3, Stokes drag (C): C_D = 24/Re; pressure 1/3, viscous 2/3
+    // Reference: docs/references.md §3, Stokes drag (C): C_D = 24/Re; pressure 1/3, viscous 2/3
     expect(Math.abs(q(o, 'CD') / (24 / x.Re) - 1)).toBeLessThan(0.03);
     expect(q(o, 'CD.pressure') / q(o, 'CD')).toBeCloseTo(1 / 3, 1);
     expect(unit(o, 'force.drag')).toBe('N');

@@ -3,7 +3,7 @@ import { gridConvergence, meshSize2D } from '../../src/study/gci.ts';
 
 describe('grid-convergence estimate', () => {
   it('reproduces the worked example of Celik et al. 2008, Table 1, column 1', () => {
-    // Reference: ../shared/REFERENCES.md §6 — Celik et al., J. Fluids Eng. 130 (2008) 078001, Table 1 col. 1
+    // Reference: docs/references.md §6 — Celik et al., J. Fluids Eng. 130 (2008) 078001, Table 1 col. 1
     // (V via secondary source: pyGCS tests; C recomputed). N = 18000/8000/4500 cells of a 2D mesh.
     const area = 1; // any fixed area: only ratios of h matter
     const h: [number, number, number] = [meshSize2D(area, 18000), meshSize2D(area, 8000), meshSize2D(area, 4500)];

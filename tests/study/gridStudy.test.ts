@@ -34,17 +34,17 @@ describe('grid-convergence study', () => {
     const Q = s.quantities.find((x) => x.probe === 'mid' && x.key === 'volumeFlowRate')!;
     const exact = pipeExact().Q;
     expect(Q.result!.kind).toBe('monotonic');
-    // Reference: ../shared/REFERENCES.md §1, Hagen–Poiseuille (C): Q = πR²V = 1.5708e-5 m³/s
+    // Reference: docs/references.md §1, Hagen–Poiseuille (C): Q = πR²V = 1.5708e-5 m³/s
     const fineError = Math.abs(Q.phi[0]! - exact), extrapError = Math.abs(Q.result!.extrapolated! - exact);
     expect(extrapError).toBeLessThan(fineError / 10);
     // the faceted wall's area error is second order (chord area πR²(1 − sin(2π/n)/(2π/n)) ∝ 1/n²), so p ≈ 2
     expect(Q.result!.order!).toBeGreaterThan(1.8);
     expect(Q.result!.order!).toBeLessThan(2.2);
-    // Reference: ../shared/REFERENCES.md §6 — GCI_fine = 1.25 e_a/(r^p − 1), here a fraction
+    // Reference: Celik et al. 2008, docs/references.md §6 — GCI_fine = 1.25 e_a/(r^p − 1), here a fraction
     const r = Q.result!;
     expect(r.gciFine!).toBeCloseTo(1.25 * r.approxRelError! / (r.r21 ** r.order! - 1), 14);
     expect(r.extrapRelError!).toBeLessThan(r.gciFine!);
-    // mass flow in kg/s with the preset's density (REFERENCES §10)
+    // mass flow in kg/s with the preset's density (IAPWS-95 water / ISA air, docs/references.md §10)
     const m = s.quantities.find((x) => x.probe === 'mid' && x.key === 'massFlowRate')!;
     expect(Math.abs(m.result!.extrapolated! / (998.207 * exact) - 1)).toBeLessThan(1e-3);
   });
@@ -52,7 +52,7 @@ describe('grid-convergence study', () => {
   it('a quantity the mesh does not change is reported as converged, not as an oscillation of rounding noise', async () => {
     const s = gridStudy([await level('coarse'), await level('medium'), await level('fine')]);
     const dp0 = s.quantities.find((x) => x.probe === 'loss' && x.key === 'totalPressureLoss')!;
-    // Reference: ../shared/REFERENCES.md §1 (C): Δp₀ = G·Δz exactly on every mesh (p linear, same profile on both planes)
+    // Reference: Hagen–Poiseuille, docs/references.md §1 (C): Δp₀ = G·Δz exactly on every mesh (p linear, same profile on both planes)
     expect(dp0.phi.every((v) => Math.abs(v! - 4.0064 * 0.06) < 1e-12)).toBe(true);
     expect(dp0.result!.kind).toBe('converged');
     expect(dp0.result!.order).toBeNull();
@@ -64,7 +64,7 @@ describe('grid-convergence study', () => {
     const sizes = (['coarse', 'medium', 'fine'] as const).map((k) => { const d = pipeCase(PIPE_LEVELS[k]); return { d, s: meshSize(d) }; });
     for (const { d, s } of sizes) {
       const v = volumeSummary(d);
-      // Reference: ../shared/REFERENCES.md §6 — h = (ΣΔV/N)^(1/3) (Celik et al. 2008)
+      // Reference: docs/references.md §6 — h = (ΣΔV/N)^(1/3) (Celik et al. 2008)
       expect(s.h).toBeCloseTo(Math.cbrt(v.volume / v.cells3D), 15);
     }
     expect(sizes[0]!.s.h / sizes[1]!.s.h).toBeCloseTo(1.49, 1);

@@ -9,7 +9,8 @@ import { pipeCase } from '../../src/samples/pipe.ts';
 
 describe('unit catalogue', () => {
   it('converts by the definitions of the units', () => {
-    // Reference: SI prefixes (BIPM SI Brochure, 9th ed., Table 7); inch = 0.0254 m, foot = 0.3048 m and
+    // Reference, from memory (not read; exact by definition, docs/references.md "Units and conversions"):
+    // SI prefixes (BIPM SI Brochure, 9th ed.); inch = 0.0254 m, foot = 0.3048 m and
     // pound = 0.45359237 kg by the 1959 international yard and pound agreement, standard gravity 9.80665 m/s²
     // (CGPM 1901), bar = 1e5 Pa, atm = 101325 Pa, cP = 1 mPa·s, cSt = 1 mm²/s — all exact by definition.
     expect(unitDef('mm')!.factor).toBe(1e-3);
@@ -37,13 +38,13 @@ describe('unit catalogue', () => {
     expect(unitProblem('furlong')).toBe('an unknown unit "furlong"');
   });
 
-  it('reference presets are the values of ../shared/REFERENCES.md §10', () => {
-    // Reference: ../shared/REFERENCES.md §10 — water at 20 °C, 1 atm: ρ = 998.207 kg/m³, μ = 1.00160 mPa·s
+  it('reference presets are the values of IAPWS-95 water / ISA air, docs/references.md §10', () => {
+    // Reference: docs/references.md §10 — water at 20 °C, 1 atm: ρ = 998.207 kg/m³, μ = 1.00160 mPa·s
     // (C, IAPWS-95/IAPWS-2008); ISA sea level ρ = 1.2250 kg/m³ (V, Mechanical Engineers' Handbook vol. 4,
     // Table 6), air μ = 1.7894e-5 Pa·s (C, Sutherland's law)
     expect(fluidPreset('water-20c')).toMatchObject({ density: 998.207, viscosity: 1.0016e-3 });
     expect(fluidPreset('air-isa-sea-level')).toMatchObject({ density: 1.225, viscosity: 1.7894e-5 });
-    expect(FLUID_PRESETS.every((p) => /REFERENCES\.md §10/.test(p.source))).toBe(true);
+    expect(FLUID_PRESETS.every((p) => /docs\/references\.md §10/.test(p.source))).toBe(true);
   });
 
   it('field units: declared, else by name (SI), else undeclared; dimensionless shown blank', () => {

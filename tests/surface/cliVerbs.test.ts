@@ -1,6 +1,6 @@
 /**
  * The `surfaces` and `force` verbs end to end on a Stokes-sphere file written to a temporary folder.
- * Reference: ../shared/REFERENCES.md §3 (drag 3πμUD, pressure 1/3, viscous 2/3, C_D = 24/Re).
+ * Reference: docs/references.md §3 (drag 3πμUD, pressure 1/3, viscous 2/3, C_D = 24/Re).
  */
 import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';

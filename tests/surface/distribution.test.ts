@@ -26,7 +26,7 @@ describe('force distribution along an axis', () => {
   });
 
   it('Stokes sphere: uniform traction gives a constant drag per length 3πμU; the bins sum to the force total', () => {
-    // Reference: ../shared/REFERENCES.md §3 (the wall traction is uniform, (3μU/2a) e_x) with Archimedes' hat-box
+    // Reference: docs/references.md §3 (the wall traction is uniform, (3μU/2a) e_x) with Archimedes' hat-box
     // theorem (the area of a sphere between two parallel planes is 2πa × their distance): dD/dx = 3πμU.
     const d = sphereCase({ refinement: 2 }), e = sphereExact({ refinement: 2 });
     const faces = boundaryFaces(d), groups = surfaceGroups(d, faces);

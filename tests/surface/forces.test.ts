@@ -19,7 +19,7 @@ function forceOn(d: Dataset, groupRefs: (string | number)[], load: Partial<LoadO
 const rel = (a: number, b: number) => Math.abs(a / b - 1);
 
 describe('Stokes flow past a sphere: drag 3πμUD = 2πμaU (pressure, 1/3) + 4πμaU (viscous, 2/3)', () => {
-  // Reference: ../shared/REFERENCES.md §3 (Stokes sphere: wall values and drag split, C), sample src/samples/sphere.ts.
+  // Reference: docs/references.md §3 (Stokes sphere: wall values and drag split, C), sample src/samples/sphere.ts.
   const levels = [0, 1, 2];
   const run = (association: SphereOptions['association'], load: Partial<LoadOptions>) => levels.map((refinement) => {
     const o = { refinement, association };
@@ -68,7 +68,7 @@ describe('Stokes flow past a sphere: drag 3πμUD = 2πμaU (pressure, 1/3) + 4�
 });
 
 describe('potential flow past a sphere: zero drag, Cp from 1 to −1.25', () => {
-  // Reference: ../shared/REFERENCES.md §4 (Katz, Automotive Aerodynamics, Eq. 6.75): Cp = 1 − (9/4)sin²θ, no drag.
+  // Reference: docs/references.md §4 (Katz, Automotive Aerodynamics, Eq. 6.75): Cp = 1 − (9/4)sin²θ, no drag.
   it('drag and lift vanish to rounding; Cp spans 1 … −1.25 at the nodes', () => {
     const o = { flow: 'potential' as const, refinement: 1 };
     const e = sphereExact(o), d = sphereCase(o);

@@ -93,7 +93,7 @@ describe('probe sets in the viewer', () => {
     expect(await tableValue('core', 'volumeFlowRate')).toBe(sig4(cliValue(cliMedium, 'core', 'volumeFlowRate')));
     expect(await tableValue('centre', 'p')).toBe(sig4(cliValue(cliMedium, 'centre', 'p')));
     expect(await tableValue('loss', 'lossCoefficient')).toBe(sig4(cliValue(cliMedium, 'loss', 'lossCoefficient')));
-    // Reference: ../shared/REFERENCES.md §1 (C): ṁ = ρπR²V; the faceted medium mesh under-fills the circle by 1.14 %
+    // Reference: Hagen–Poiseuille, docs/references.md §1 (C): ṁ = ρπR²V; the faceted medium mesh under-fills the circle by 1.14 %
     const exact = 998.207 * Math.PI * 0.01 ** 2 * 0.05;
     expect(Math.abs(await pin('mid', 'massFlowRate') - exact) / exact).toBeLessThan(0.02);
     await shot('10-probe-set-opened');

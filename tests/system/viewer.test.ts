@@ -111,7 +111,7 @@ describe('viewer', () => {
     // the pin shows 4 significant figures of the same number the command line prints
     expect(shown).toBe(sig4(cli.massFlowRate));
     expect(pinNumber(await pinText('plane-1', 'volumeFlowRate'))).toBe(sig4(cli.volumeFlowRate));
-    // Reference: ../shared/REFERENCES.md §1, Hagen–Poiseuille (C): ṁ = ρ·πR²·V with R = 0.01 m, V = 0.05 m/s
+    // Reference: docs/references.md §1, Hagen–Poiseuille (C): ṁ = ρ·πR²·V with R = 0.01 m, V = 0.05 m/s
     // (sample-fields/README.md); the faceted medium mesh under-fills the circle by 1.14 %, so agree within 2 %.
     const exact = 998.207 * Math.PI * 0.01 ** 2 * 0.05;
     expect(Math.abs(shown - exact) / exact).toBeLessThan(0.02);
@@ -226,7 +226,7 @@ describe('viewer', () => {
 
   it('the sphere\'s force pin shows C_D near 24/Re (Stokes)', async () => {
     await openFile(SPHERE, 'sphere-stokes.vtu');
-    // Reference: ../shared/REFERENCES.md §3, Stokes drag (C): C_D = 24/Re on πa² and ½ρU²; the sample's
+    // Reference: docs/references.md §3, Stokes drag (C): C_D = 24/Re on πa² and ½ρU²; the sample's
     // ρ, U, μ, a come from src/samples/sphere.ts (the file's scenario).
     const e = sphereExact({ flow: 'stokes' });
     await setNumber('ref. density ρ [kg/m³]', e.rho);

@@ -127,7 +127,7 @@ describe('compute worker contract', () => {
     expect(r.count).toBe(21);
     expect(r.s[20]).toBeCloseTo(0.02, 12);
     const uz = r.fields.find((f) => f.name === 'velocity')!.columns[2]!;
-    // Reference: ../shared/REFERENCES.md §1 (C) — u = 2V(1 − r²/R²): 0.1 m/s on the axis (a mesh node)
+    // Reference: Hagen–Poiseuille, docs/references.md §1 (C) — u = 2V(1 − r²/R²): 0.1 m/s on the axis (a mesh node)
     expect(uz[10]).toBeCloseTo(0.1, 12);
   });
 
@@ -139,14 +139,14 @@ describe('compute worker contract', () => {
       groups: [wall.id], rho: e.rho, speed: e.U, area: e.frontalArea, length: 0, mu: 0, referencePressure: 0,
       dragDirection: [1, 0, 0], liftDirection: [0, 0, 1], momentPoint: [0, 0, 0],
     });
-    // Reference: ../shared/REFERENCES.md §3 (C) — C_D = 24/Re; this coarse cell-data file is first order, so within 10 %
+    // Reference: Stokes sphere, docs/references.md §3 (C) — C_D = 24/Re; this coarse cell-data file is first order, so within 10 %
     expect(Math.abs(f.result.coefficients!.drag - 24 / e.Re) / (24 / e.Re)).toBeLessThan(0.1);
     // the sphere's wall is a closed, consistently oriented surface (src/samples/geodesicSphere.ts)
     expect(f.surface).toEqual({ closed: true, openEdges: 0, nonManifoldEdges: 0, inconsistentEdges: 0 });
   });
 
   it('evaluates a probe set as the command line does, and refuses a malformed set', async () => {
-    // the sphere file is held now (previous test); Reference: ../shared/REFERENCES.md §3 (C) — C_D = 24/Re
+    // the sphere file is held now (previous test); Reference: Stokes sphere, docs/references.md §3 (C) — C_D = 24/Re
     const e = sphereExact({ flow: 'stokes' });
     const set: ProbeSet = {
       format: 'fieldtally-probe-set', version: 2, reference: { density: e.rho, speed: e.U, area: e.frontalArea },

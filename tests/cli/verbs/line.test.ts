@@ -1,6 +1,6 @@
 /**
  * The `line` and `point` verbs end to end on a committed sample file (sample-fields/pipe-coarse.vtu:
- * laminar pipe, exact Hagen–Poiseuille values at the nodes, ../shared/REFERENCES.md §1).
+ * laminar pipe, exact Hagen–Poiseuille values at the nodes, docs/references.md §1).
  */
 import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';

@@ -2,7 +2,7 @@
  * `fieldtally report`: the report folder's numbers equal the command line's `cut` and `force` JSON on the
  * same files (one compute path); a glob gives one table row per file; failed probes give exit code 3 with
  * the failures listed; the page is self-contained and lists the inputs with their SHA-256 checksums.
- * Files: the committed samples (sample-fields/, exact solutions, ../shared/REFERENCES.md §1 and §3).
+ * Files: the committed samples (sample-fields/, exact solutions, Hagen–Poiseuille, docs/references.md §1 and §3).
  */
 import { createHash } from 'node:crypto';
 import { mkdirSync, mkdtempSync, readFileSync, readdirSync, rmSync, writeFileSync } from 'node:fs';
@@ -65,7 +65,7 @@ describe('fieldtally report', () => {
     expect(value(res, 1, 'bead', 'CD')).toBe(force.coefficients.drag);
     expect(value(res, 1, 'bead', 'force.x')).toBe(force.force[0]);
     expect(value(res, 1, 'bead', 'moment.z')).toBe(force.moment[2]);
-    // Reference: ../shared/REFERENCES.md §3, Stokes drag (C): C_D = 24/Re (coarse cell-data sample: within 10 %)
+    // Reference: docs/references.md §3, Stokes drag (C): C_D = 24/Re (coarse cell-data sample: within 10 %)
     expect(Math.abs(value(res, 1, 'bead', 'CD') / (24 / stokes.Re) - 1)).toBeLessThan(0.1);
 
     const html = readFileSync(join(out, 'report.html'), 'utf8');
@@ -109,7 +109,7 @@ describe('fieldtally report', () => {
     expect(csv[0]).toMatch(/^file,q\.area \[m²\],q\.volumeFlowRate \[m³\/s\],q\.massFlowRate \[kg\/s\],/);
     expect(csv[0]).toMatch(/,failed probes$/);
     expect(csv.slice(1).map((l) => l.split(',')[0]!.split('/').pop())).toEqual(['pipe-coarse.vtu', 'pipe-fine.vtu', 'pipe-medium.vtu']);
-    // Reference: ../shared/REFERENCES.md §1 (C): Q → πR²V as the mesh is refined (coarse < medium < fine < exact)
+    // Reference: Hagen–Poiseuille, docs/references.md §1 (C): Q → πR²V as the mesh is refined (coarse < medium < fine < exact)
     const q = csv.slice(1).map((l) => Number(l.split(',')[2]));
     expect(q[0]!).toBeLessThan(q[2]!);
     expect(q[2]!).toBeLessThan(q[1]!);

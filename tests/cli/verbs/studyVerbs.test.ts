@@ -1,6 +1,6 @@
 /**
  * The `compare`, `gci` and `check-probes` verbs on the committed pipe samples (exact Hagen–Poiseuille field at the
- * nodes, ../shared/REFERENCES.md §1).
+ * nodes, docs/references.md §1).
  */
 import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
@@ -44,7 +44,7 @@ describe('fieldtally compare', () => {
     expect(Number(q.variant.toPrecision(12))).toBe(vari);
     expect(q.difference).toBe(q.variant - q.baseline);
     expect(q.relative).toBe(q.difference / Math.abs(q.baseline));
-    // Reference: ../shared/REFERENCES.md §1 (C): p = G(L − z) is linear, which the cells' interpolation reproduces exactly on any mesh
+    // Reference: Hagen–Poiseuille, docs/references.md §1 (C): p = G(L − z) is linear, which the cells' interpolation reproduces exactly on any mesh
     expect(j.rows.find((x) => x.probe === 'centre' && x.key === 'p')!.difference).toBeCloseTo(0, 14);
     expect(j.caution).toMatch(/licensed professional/);
   });
@@ -80,10 +80,10 @@ describe('fieldtally gci', () => {
     expect(j.reference).toMatch(/Celik et al\. \(2008\)/);
     const q = j.quantities.find((x) => x['quantity'] === 'volumeFlowRate')!;
     expect(q['behaviour']).toBe('monotonic');
-    // Reference: ../shared/REFERENCES.md §1 (C): Q = πR²V; the extrapolation recovers it to better than 0.01 %
+    // Reference: Hagen–Poiseuille, docs/references.md §1 (C): Q = πR²V; the extrapolation recovers it to better than 0.01 %
     expect(Math.abs((q['extrapolated'] as number) / (Math.PI * 1e-4 * 0.05) - 1)).toBeLessThan(1e-4);
     expect(q['gciFine'] as number).toBeGreaterThan(q['extrapolatedRelativeError'] as number);
-    // a linear field every mesh reproduces exactly (p = G(L − z), REFERENCES §1): converged, no order forced
+    // a linear field every mesh reproduces exactly (p = G(L − z), Hagen–Poiseuille, docs/references.md §1): converged, no order forced
     expect(j.quantities.find((x) => x['probe'] === 'centre' && x['quantity'] === 'p')!['behaviour']).toBe('converged');
   });
 
