@@ -57,8 +57,8 @@ export interface BoundaryFaces {
 /** Options of `boundaryFaces`: how points of different pieces are matched (see `pointMerge.ts`). */
 export type BoundaryOptions = Partial<MergeOptions>;
 
-/** Largest number of faces a cell may have in the (cell, face) sort key. */
-const FACE_SLOTS = 65536;
+/** Largest number of faces a cell may have in the (cell, face) sort key `cell × FACE_SLOTS + face`. */
+export const FACE_SLOTS = 65536;
 
 /** Extracts the boundary faces of a dataset's 3D cells (see the file comment for layout and orientation). */
 export function boundaryFaces(d: Dataset, options: BoundaryOptions = {}): BoundaryFaces {
