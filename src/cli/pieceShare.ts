@@ -40,7 +40,7 @@ export async function readShare(path: string, task: number, tasks: number): Prom
   const setSha256 = sha256(bytes);
   const fetch = async (rel: string): Promise<{ full: string; b: Uint8Array }> => {
     const full = resolvePath(folder, rel);
-    const b = await readBytes(full).catch(() => { throw new Error(`${name}: piece "${rel}" is missing (looked for ${full})`); });
+    const b = await readBytes(full).catch(() => { throw new Error(`no such file ${full}`); });
     return { full, b };
   };
   // Pass 1: number the leaves (only set files are opened).
