@@ -11,7 +11,7 @@
  * Stokes drag 3πμUD (Stokes 1851; Bird, Stewart & Lightfoot, Transport Phenomena, 2nd ed., §2.6), each
  * within the sample mesh's own discretisation error.
  */
-import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
@@ -20,6 +20,7 @@ import { pipeCase } from '../../src/samples/pipe.ts';
 import { COMMITTED_CASES } from '../../src/samples/sampleSet.ts';
 import { sphereCase, sphereExact } from '../../src/samples/sphere.ts';
 import { bands, splitDataset, writePvtu, writeVtm } from './pieceSets.ts';
+import { expectSameReport, readJson, type Results } from './reportCompare.ts';
 
 async function run(...argv: string[]): Promise<{ code: number; out: string; err: string }> {
   let out = '', err = '';
@@ -31,12 +32,6 @@ let dir = '';
 beforeAll(() => { dir = mkdtempSync(join(tmpdir(), 'fieldtally-pieces-')); });
 afterAll(() => rmSync(dir, { recursive: true, force: true }));
 
-type Quantity = { key: string; value: number; unit: string };
-type ProbeResult = { id: string; ok: boolean; error: string | null; definition: string; anchor: number[] | null; notes: string[]; quantities: Quantity[] };
-type Results = { failed: number; inputs: { name: string; sha256: string; bytes: number; role: string }[]; files: { file: string; source: string; probes: ProbeResult[] }[] };
-
-const readJson = (p: string): Results => JSON.parse(readFileSync(p, 'utf8')) as Results;
-const close = (a: number, b: number) => Math.abs(a - b) <= 1e-12 * Math.max(Math.abs(a), Math.abs(b)) + 1e-300;
 const value = (r: Results, probe: string, key: string) => r.files[0]!.probes.find((p) => p.id === probe)!.quantities.find((q) => q.key === key)!.value;
 
 /** Runs `report` on the set, then `partial` for every task and `reduce`; returns both folders. */
@@ -57,31 +52,6 @@ async function reportBothWays(set: string, probes: string, tasks: number, tag: s
   expect(r.err).toBe(w.err);
   expect(r.code).toBe(w.code);
   return { whole, reduced, partOut };
-}
-
-/** Every number, note and message of the two folders agree (numbers to rounding); the picture is the same. */
-function expectSameReport(whole: string, reduced: string): Results {
-  const a = readJson(join(whole, 'results.json')), b = readJson(join(reduced, 'results.json'));
-  expect(b.failed).toBe(a.failed);
-  expect(b.inputs).toEqual(a.inputs);
-  expect(b.files.map((f) => [f.file, f.source])).toEqual(a.files.map((f) => [f.file, f.source]));
-  const pa = a.files[0]!.probes, pb = b.files[0]!.probes;
-  expect(pb.map((p) => p.id)).toEqual(pa.map((p) => p.id));
-  pa.forEach((p, i) => {
-    const q = pb[i]!;
-    expect([q.ok, q.error, q.notes, q.definition]).toEqual([p.ok, p.error, p.notes, p.definition]);
-    expect(q.quantities.map((x) => `${x.key} [${x.unit}]`)).toEqual(p.quantities.map((x) => `${x.key} [${x.unit}]`));
-    p.quantities.forEach((x, k) => { if (!close(x.value, q.quantities[k]!.value)) expect.fail(`${p.id}.${x.key}: report ${x.value}, reduce ${q.quantities[k]!.value}`); });
-  });
-  const rows = (f: string) => readFileSync(f, 'utf8').split('\n').filter((l) => !l.startsWith('#'));
-  for (const csv of ['results.csv', 'results-long.csv']) {
-    const ra = rows(join(whole, csv)), rb = rows(join(reduced, csv));
-    expect(rb[0]).toBe(ra[0]);
-    expect(rb.length).toBe(ra.length);
-  }
-  expect(readFileSync(join(reduced, 'probe-set.json'), 'utf8')).toBe(readFileSync(join(whole, 'probe-set.json'), 'utf8'));
-  expect(Buffer.compare(readFileSync(join(reduced, 'view-1.png')), readFileSync(join(whole, 'view-1.png')))).toBe(0);
-  return b;
 }
 
 const pipeProbes = (withCellData: boolean) => ({
