@@ -9,10 +9,8 @@
  */
 import { writeFileSync } from 'node:fs';
 import { basename } from 'node:path';
-import { footprint } from '../../pieces/footprint.ts';
-import { encodeField, encodePiece, PARTIAL_FORMAT, PARTIAL_VERSION, type PartialDoc } from '../../pieces/partialDoc.ts';
-import { subPiece } from '../../pieces/subPiece.ts';
-import { cellCount } from '../../model/piece.ts';
+import { encodeTask } from '../../pieces/encodeTask.ts';
+import { PARTIAL_FORMAT, PARTIAL_VERSION, type PartialDoc } from '../../pieces/partialDoc.ts';
 import { parseArgs, str } from '../args.ts';
 import { readShare } from '../pieceShare.ts';
 import { readProbeSetFile, toolVersion } from '../studyInputs.ts';
@@ -50,11 +48,7 @@ const partial: Verb = {
     const ps = await readProbeSetFile(probesPath);
     const share = await readShare(file, task, tasks);
     const d = share.dataset;
-    const fp = d.pieces.length ? footprint(d, ps.set) : { cells: [], boundary: [], bounds: null };
-    const pieces = d.pieces.map((p, k) => {
-      const sub = subPiece(p, fp.cells[k]!, fp.boundary[k]!);
-      return encodePiece(sub.piece, sub.boundary, cellCount(p));
-    });
+    const { dataset, pieces } = encodeTask(d, ps.set);
     const doc: PartialDoc = {
       format: PARTIAL_FORMAT, version: PARTIAL_VERSION, tool: { name: 'fieldtally', version: toolVersion() }, createdAt: new Date().toISOString(),
       set: { file, source: basename(file), sha256: share.setSha256, leaves: share.leaves },
@@ -62,12 +56,7 @@ const partial: Verb = {
       probeSet: { name: ps.input.name, sha256: ps.input.sha256, bytes: ps.input.bytes, role: ps.input.role, fromVersion: ps.fromVersion, text: ps.text },
       units: ps.set.units ?? null,
       inputs: share.inputs,
-      dataset: {
-        kind: d.pieces.length ? d.kind : 'none', bounds: fp.bounds ? [...fp.bounds] : null,
-        fileCellTypes: Object.fromEntries(Object.entries(d.fileCellTypes).map(([t, n]) => [t, n])),
-        fieldData: d.fieldData.map(encodeField), warnings: [...d.warnings],
-      },
-      pieces,
+      dataset, pieces,
     };
     const text = JSON.stringify(doc) + '\n';
     writeFileSync(out, text);
