@@ -58,7 +58,14 @@ const partial: Verb = {
       inputs: share.inputs,
       dataset, pieces,
     };
-    const text = JSON.stringify(doc) + '\n';
+    let text: string;
+    try {
+      text = JSON.stringify(doc) + '\n';
+    } catch (e) {
+      if (!(e instanceof RangeError)) throw e;
+      const kept = pieces.reduce((n, p) => n + p.cellsKept, 0);
+      throw new Error(`${basename(file)}: task ${task} of ${tasks} keeps ${kept} cells, too many for one JSON document (about 500 MB of text at most); split the set among more tasks`);
+    }
     writeFileSync(out, text);
     const read = pieces.reduce((n, p) => n + p.cellsRead, 0), kept = pieces.reduce((n, p) => n + p.cellsKept, 0);
     const leaves = share.endLeaf > share.firstLeaf ? `leaf files ${share.firstLeaf + 1}–${share.endLeaf} of ${share.leaves} (${share.read.join(', ')})` : `no leaf file (the set has ${share.leaves} for ${tasks} tasks)`;
