@@ -36,6 +36,13 @@ export interface LoadOptions {
   resolve?: ResolveFile;
   /** Like `resolve`, but pieces are read by ranges; preferred over `resolve` when both are given. */
   resolveSource?: ResolveSource;
+  /**
+   * Sets only: asked about each leaf file of the set before it is opened, with its number over the whole set
+   * (depth first, in file order, nested sets included) and its path; a leaf it refuses is not opened and gives
+   * no pieces. Nested set files (named `.pvtu`, `.pvtp`, `.vtm`, `.vtpd`, `.vtpc`) are always opened, to number
+   * their leaves. Used to read one task's share of a set (`fieldtally partial`).
+   */
+  pieceShare?: (leaf: number, path: string) => boolean;
   /** zlib inflater for compressed XML arrays. Default: fflate's (pure JavaScript); the Node loader passes node:zlib's. */
   inflate?: InflateBlock;
 }

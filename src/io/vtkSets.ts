@@ -22,6 +22,8 @@ import { child, scanXml, type XmlElement } from './xmlScan.ts';
 
 const PARALLEL: Readonly<Record<string, string>> = { PUnstructuredGrid: 'UnstructuredGrid', PPolyData: 'PolyData' };
 const COMPOSITE = new Set(['vtkMultiBlockDataSet', 'vtkPartitionedDataSet', 'vtkPartitionedDataSetCollection']);
+/** File names a set may give to a nested set (opened even when `LoadOptions.pieceShare` picks leaves). */
+export const SET_FILE_NAME = /\.(pvtu|pvtp|vtm|vtmb|vtpd|vtpc)$/i;
 /** Sets naming sets: deeper than this is taken for a cycle. */
 const MAX_DEPTH = 8;
 
@@ -68,6 +70,8 @@ interface Collected {
   warnings: string[];
   fileCellTypes: Record<number, number>;
   allPolyData: boolean;
+  /** Leaf files numbered so far (for `LoadOptions.pieceShare`). */
+  leaves: number;
 }
 
 async function fetchPiece(setName: string, resolve: ResolveSource, path: string): Promise<ByteSource> {
@@ -121,6 +125,8 @@ async function collect(setName: string, bytes: Uint8Array, resolve: ResolveSourc
   for (let i = 0; i < leaves.length; i++) {
     checkAborted(opts.signal, setName);
     const path = joinPath('', leaves[i]!);
+    const namedSet = SET_FILE_NAME.test(path);
+    if (opts.pieceShare && !namedSet && !opts.pieceShare(acc.leaves++, path)) continue;
     const leaf = await fetchPiece(setName, resolve, path);
     try {
       const leafName = `${setName}: ${path}`;
@@ -135,7 +141,11 @@ async function collect(setName: string, bytes: Uint8Array, resolve: ResolveSourc
       if (expectLeafType && leafType !== expectLeafType) {
         throw new Error(`${leafName}: piece file holds "${leafType}", but a ${type} set needs "${expectLeafType}" pieces`);
       }
-      if (PARALLEL[leafType] || COMPOSITE.has(leafType)) {
+      const isSet = PARALLEL[leafType] !== undefined || COMPOSITE.has(leafType);
+      if (opts.pieceShare && isSet !== namedSet) {
+        throw new Error(`${leafName}: ${isSet ? `holds a ${leafType} set but is not named like one` : `is named like a set but holds "${leafType}"`}; reading a share of the pieces needs nested sets named .pvtu, .pvtp, .vtm, .vtpd or .vtpc and pieces named otherwise`);
+      }
+      if (isSet) {
         if (depth >= MAX_DEPTH) throw new Error(`${leafName}: sets nested more than ${MAX_DEPTH} deep (does a set name itself?)`);
         const folder = folderOf(path);
         const setBytes = input.whole ? input.bytes : await readWhole(leaf);
@@ -161,7 +171,7 @@ export async function readVtkSet(name: string, bytes: Uint8Array, opts: LoadOpti
   const resolve: ResolveSource | undefined = opts.resolveSource
     ?? (fetchBytes && (async (rel) => bytesSource(rel.split('/').pop() ?? rel, await fetchBytes(rel))));
   if (!resolve) throw new Error(`${name}: a multi-file set needs its piece files, but no way to fetch them was given (LoadOptions.resolve)`);
-  const acc: Collected = { pieces: [], fieldData: [], warnings: [], fileCellTypes: {}, allPolyData: true };
+  const acc: Collected = { pieces: [], fieldData: [], warnings: [], fileCellTypes: {}, allPolyData: true, leaves: 0 };
   await collect(name, bytes, resolve, opts, 0, acc);
   return {
     source: name,

@@ -21,8 +21,9 @@ export function growBounds(points: Float64Array, out: Bounds = emptyBounds()): B
   return out;
 }
 
-/** Bounds of every point of every piece of a dataset. */
+/** Bounds of every point of every piece of a dataset (of the whole piece set for an assembled dataset). */
 export function datasetBounds(d: Dataset): Bounds {
+  if (d.assembled) return [...d.assembled.bounds];
   const b = emptyBounds();
   for (const p of d.pieces) growBounds(p.points, b);
   return b;

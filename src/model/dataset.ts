@@ -22,6 +22,23 @@ export interface Dataset {
   readonly warnings: readonly string[];
   /** Cell counts per cell type as declared in the file (before higher-order cells were linearised). */
   readonly fileCellTypes: Readonly<Record<number, number>>;
+  /** Only on a dataset assembled from the parts of a larger piece set that its probes need (see `AssembledParts`). */
+  readonly assembled?: AssembledParts;
+}
+
+/**
+ * What a dataset assembled by `fieldtally reduce` (src/pieces/) knows of the whole piece set it was cut from:
+ * the whole set's bounds, so every tolerance scales as on the whole set, and per piece the faces that were
+ * boundary faces in the task that read the piece. Such a dataset holds only the cells its probes need, so
+ * faces towards the cells left out look like boundary; the boundary of the assembled dataset is the listed
+ * faces that no cell of another piece meets (a face between two tasks' pieces is listed by both and
+ * matched like any face between pieces).
+ */
+export interface AssembledParts {
+  /** `[xmin, xmax, ymin, ymax, zmin, zmax]` of the whole set (file's length unit). */
+  readonly bounds: readonly [number, number, number, number, number, number];
+  /** Per piece, ascending keys `localCell × 65536 + localFace` (face numbering of `boundaryFaces`). */
+  readonly boundary: readonly Float64Array[];
 }
 
 /** Total number of points over all pieces. */

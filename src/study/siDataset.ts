@@ -65,6 +65,10 @@ export function siDataset(d: Dataset, factors: SiFactors): Dataset {
     cellData: convertFields(p.cellData, factors.fields),
   }));
   const out: Dataset = { ...d, pieces, fieldData: convertFields(d.fieldData, factors.fields) };
+  if (d.assembled && factors.length !== 1) {
+    const b = d.assembled.bounds, k = factors.length;
+    (out as { assembled: Dataset['assembled'] }).assembled = { ...d.assembled, bounds: [b[0] * k, b[1] * k, b[2] * k, b[3] * k, b[4] * k, b[5] * k] };
+  }
   if (!byKey) { byKey = new Map(); cache.set(d, byKey); }
   byKey.set(key, out);
   return out;

@@ -27,6 +27,7 @@ import { cellStarts, pieceOfCell, type Dataset } from '../model/dataset.ts';
 import { cellCount } from '../model/piece.ts';
 import { faceAreaCentroid, vertexAverage } from './faceGeometry.ts';
 import { FaceTable, faceKey } from './faceTable.ts';
+import { lastCellOfPoints, retireFinal, RetiredFaces } from './faceRetire.ts';
 import { mergePiecePoints, type MergeOptions, type PointMerge } from './pointMerge.ts';
 
 export interface BoundaryFaces {
@@ -54,18 +55,27 @@ export interface BoundaryFaces {
   readonly cells3d: number;
 }
 
-/** Options of `boundaryFaces`: how points of different pieces are matched (see `pointMerge.ts`). */
-export type BoundaryOptions = Partial<MergeOptions>;
+/**
+ * Options of `boundaryFaces`: how points of different pieces are matched (see `pointMerge.ts`), and how many
+ * faces the table holds before the final ones retire from it (`faceRetire.ts`; default 65536; only the speed
+ * depends on it).
+ */
+export type BoundaryOptions = Partial<MergeOptions> & { retireAbove?: number };
 
-/** Largest number of faces a cell may have in the (cell, face) sort key. */
-const FACE_SLOTS = 65536;
+/** Largest number of faces a cell may have in the (cell, face) sort key `cell × FACE_SLOTS + face`. */
+export const FACE_SLOTS = 65536;
 
 /** Extracts the boundary faces of a dataset's 3D cells (see the file comment for layout and orientation). */
 export function boundaryFaces(d: Dataset, options: BoundaryOptions = {}): BoundaryFaces {
   const merge = mergePiecePoints(d, options);
   const starts = cellStarts(d);
-  // The table only holds the unmatched front (about the boundary, ~4 n^(2/3) faces); it doubles when needed.
-  const table = new FaceTable(Math.max(1024, Math.ceil(4 * Math.cbrt(starts[starts.length - 1]!) ** 2)));
+  // The table only holds the unmatched front (about the boundary, ~4 n^(2/3) faces); it doubles when needed,
+  // and faces that no later cell can meet leave it for `retired` when it has grown (faceRetire.ts).
+  let table = new FaceTable(Math.max(1024, Math.ceil(4 * Math.cbrt(starts[starts.length - 1]!) ** 2)));
+  const lastUse = lastCellOfPoints(d, merge, starts);
+  const retired = new RetiredFaces();
+  const retireMin = options.retireAbove ?? RETIRE_MIN;
+  let retireAt = Math.max(retireMin, 2 * table.live);
   const key = new Int32Array(4);
   const fStart = FACE_TABLE.start, fSize = FACE_TABLE.size, fFirst = FACE_TABLE.first, fNodes = FACE_TABLE.nodes;
   const map = merge.map;
@@ -77,6 +87,10 @@ export function boundaryFaces(d: Dataset, options: BoundaryOptions = {}): Bounda
     const s0 = merge.starts[k]!, g0 = starts[k]!, n = cellCount(p);
     const pf = p.polyFaces;
     for (let c = 0; c < n; c++) {
+      if (table.live > retireAt) {
+        table = retireFinal(table, lastUse, g0 + c, FACE_SLOTS, retired);
+        retireAt = Math.max(retireMin, 2 * table.live);
+      }
       const t = types[c]!;
       if (t < TETRA || t > LAST_FIXED) {
         if (t === POLYHEDRON && pf) {
@@ -120,8 +134,11 @@ export function boundaryFaces(d: Dataset, options: BoundaryOptions = {}): Bounda
       }
     }
   }
-  return assemble(d, table, merge, starts, cells3d);
+  return assemble(d, table, retired, merge, starts, cells3d);
 }
+
+/** Faces in the table before retiring final ones is worth a pass over it. */
+const RETIRE_MIN = 1 << 16;
 
 let gatherBuf = new Int32Array(64);
 
@@ -133,11 +150,12 @@ function faceKeyFixed(conn: Int32Array, o: number, fNodes: Int32Array, q: number
 }
 
 /** Collects the faces left in the table, orders them by (cell, face), and computes nodes and geometry. */
-function assemble(d: Dataset, table: FaceTable, merge: PointMerge, starts: Int32Array, cells3d: number): BoundaryFaces {
-  const count = table.live;
+function assemble(d: Dataset, table: FaceTable, retired: RetiredFaces, merge: PointMerge, starts: Int32Array, cells3d: number): BoundaryFaces {
+  const count = table.live + retired.count;
   const order = new Float64Array(count);
+  order.set(retired.keys.subarray(0, retired.count));
   const tk = table.keys, tv = table.vals;
-  for (let s = 0, i = 0; s <= table.mask; s++) {
+  for (let s = 0, i = retired.count; s <= table.mask; s++) {
     if (tk[4 * s] === -1) continue;
     order[i++] = tv[2 * s]! * FACE_SLOTS + tv[2 * s + 1]!;
   }

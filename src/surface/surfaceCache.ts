@@ -5,6 +5,7 @@
  */
 import type { Dataset } from '../model/dataset.ts';
 import { boundaryFaces, type BoundaryFaces } from './boundaryFaces.ts';
+import { listedFaces } from './faceSubset.ts';
 import { surfaceGroups, type SurfaceGroups } from './surfaceGroups.ts';
 
 /** How a boundary is split into groups (see `GroupOptions` in surfaceGroups.ts; a `.vtp` surface file is not cached). */
@@ -21,7 +22,12 @@ const cache = new WeakMap<Dataset, Entry>();
 
 function entry(d: Dataset): Entry {
   let e = cache.get(d);
-  if (!e) { e = { faces: boundaryFaces(d), groups: new Map() }; cache.set(d, e); }
+  if (!e) {
+    // An assembled dataset (src/pieces/) keeps only the faces its tasks found on the boundary.
+    const all = boundaryFaces(d);
+    e = { faces: d.assembled ? listedFaces(all, d.assembled.boundary) : all, groups: new Map() };
+    cache.set(d, e);
+  }
   return e;
 }
 
