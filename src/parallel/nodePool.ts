@@ -45,12 +45,23 @@ function nodePort(): PoolPort {
 }
 
 /**
+ * Starts `n` worker threads now (each takes a few hundred ms to load its code, so start them before reading
+ * the file they will work on); hand them to `ComputePool.open`, or end them with `terminate`.
+ */
+export function startNodeWorkers(n: number): PoolPort[] {
+  return Array.from({ length: checkWorkerCount(n, 'worker pool') }, nodePort);
+}
+
+/**
  * Copies `dataset` into shared memory and opens a pool of `poolSize(workers)` worker threads over it.
  * Close it with `pool.close()` (the process cannot exit while workers run).
  */
-export async function openNodePool(dataset: Dataset, workers?: number | string): Promise<ComputePool> {
-  const n = poolSize(workers);
-  const shared = toSharedDataset(dataset);
-  const ports = Array.from({ length: n }, nodePort);
-  return ComputePool.open(shared, ports);
+export async function openNodePool(dataset: Dataset, workers?: number | string, ports?: PoolPort[]): Promise<ComputePool> {
+  const p = ports ?? startNodeWorkers(poolSize(workers));
+  try {
+    return await ComputePool.open(toSharedDataset(dataset), p);
+  } catch (e) {
+    await Promise.all(p.map((x) => x.terminate()));
+    throw e;
+  }
 }

@@ -82,7 +82,8 @@ function planesFor(d: Dataset): [number[], number[]][] {
 
 const CASES: Case[] = [
   { name: 'linear hexahedral box (plane through a node layer x = 0.5)', load: async () => linearBox(),
-    planes: [[[0.5, 0.5, 0.5], [1, 0, 0]], [[0.5, 0.4, 0.5], [0, 1, 0]], [[0.5, 0.5, 0.5], [1, 1, 1]], [[0, 0.5, 0.5], [1, 0, 0]]] },
+    planes: [[[0.5, 0.5, 0.5], [1, 0, 0]], [[0.5, 0.4, 0.5], [0, 1, 0]], [[0.5, 0.5, 0.5], [0, 0, 1]], [[0.5, 0.5, 0.25], [0, 0, -1]],
+      [[0.5, 0.5, 0.5], [1, 1, 1]], [[0, 0.5, 0.5], [1, 0, 0]]] },
   { name: 'two tetrahedral pieces (plane on the interface x = 0.5)', load: async () => twoPieces(),
     planes: [[[0.5, 0.5, 0.5], [1, 0, 0]], [[0.3, 0.5, 0.5], [0, 0, 1]], [[0.3, 0.5, 0.5], [1, 2, 3]]] },
   { name: 'pipe-medium.vtu (hexahedra and a wedge core)', load: () => loadDatasetFile(`${SAMPLES}/pipe-medium.vtu`),

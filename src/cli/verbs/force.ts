@@ -11,6 +11,7 @@ import { CAUTION } from '../../ui/caution.ts';
 import { parseArgs, parseNumber, parseVec3, str } from '../args.ts';
 import type { Verb } from '../verb.ts';
 import { GROUPING_HELP, GROUPING_OPTIONS, fmt, loadSurfaces, vec } from './surfaces.ts';
+import { WORKER_HELP, WORKER_OPTIONS } from '../workerOption.ts';
 
 const VISCOUS = ['auto', 'wall-shear', 'gradient', 'none'] as const;
 
@@ -31,12 +32,13 @@ const force: Verb = {
     '  --wall-shear    wall-shear-stress array (default: found by name); --shear-sign -1 if it is the force on the fluid',
     '  --bins n        add the force per unit length in n bins along the drag direction (JSON: distribution)',
     GROUPING_HELP,
+    WORKER_HELP,
     '  Force on the wall (body): F = ∫(p − p_ref)(−n_body) dA + ∫τ_w dA; moment about --moment-point (default origin).',
   ].join('\n'),
   options: {
     groups: 'string', rho: 'string', speed: 'string', area: 'string', length: 'string', 'drag-dir': 'string', 'lift-dir': 'string',
     'moment-point': 'string', mu: 'string', 'p-ref': 'string', pressure: 'string', kinematic: 'boolean', 'wall-shear': 'string',
-    'shear-sign': 'string', velocity: 'string', viscous: 'string', 'cp-axis': 'string', bins: 'string', json: 'boolean', ...GROUPING_OPTIONS,
+    'shear-sign': 'string', velocity: 'string', viscous: 'string', 'cp-axis': 'string', bins: 'string', json: 'boolean', ...GROUPING_OPTIONS, ...WORKER_OPTIONS,
   },
   async run(argv, io) {
     const args = parseArgs(argv, this.options, 'force');
