@@ -44,55 +44,41 @@ export function mergeCuts(parts: readonly CutPart[], origin: Vec3, normal: Vec3,
   });
   const runs = [...cellRuns, ...faceRuns];
   // Runs share no vertices (triangles of different cells never do): each run keeps the span of vertices
-  // its triangles use, in their emission order, as the single-thread cut numbers them.
+  // its triangles use, in their emission order, as the single-thread cut numbers them; spans and triangle
+  // ranges are copied as blocks.
   let nT = 0, nV = 0;
-  const vmaps = parts.map((c) => new Int32Array(c.vertexT.length).fill(-1));
-  for (const r of runs) {
-    const idx = parts[r.p]!.indices, vm = vmaps[r.p]!;
-    let lo = Infinity, hi = -1;
-    for (let i = 3 * r.t0; i < 3 * r.t1; i++) { const v = idx[i]!; if (v < lo) lo = v; if (v > hi) hi = v; }
-    for (let v = lo; v <= hi; v++) if (vm[v] === -1) vm[v] = nV++;
+  const lo = new Int32Array(runs.length), hi = new Int32Array(runs.length);
+  runs.forEach((r, k) => {
+    const idx = parts[r.p]!.indices;
+    let a = 0x7fffffff, b = -1;
+    for (let i = 3 * r.t0; i < 3 * r.t1; i++) { const v = idx[i]!; if (v < a) a = v; if (v > b) b = v; }
+    lo[k] = a; hi[k] = b;
+    if (b >= a) nV += b - a + 1;
     nT += r.t1 - r.t0;
-  }
+  });
   const positions = new Float64Array(3 * nV), vertexEdges = new Int32Array(2 * nV), vertexT = new Float64Array(nV);
   const indices = new Uint32Array(3 * nT), sourceCell = new Int32Array(nT);
-  parts.forEach((c, p) => {
-    const vm = vmaps[p]!;
-    for (let v = 0; v < vm.length; v++) {
-      const w = vm[v]!;
-      if (w < 0) continue;
-      positions[3 * w] = c.positions[3 * v]!; positions[3 * w + 1] = c.positions[3 * v + 1]!; positions[3 * w + 2] = c.positions[3 * v + 2]!;
-      vertexEdges[2 * w] = c.vertexEdges[2 * v]!; vertexEdges[2 * w + 1] = c.vertexEdges[2 * v + 1]!;
-      vertexT[w] = c.vertexT[v]!;
-    }
-  });
-  const fields: SurfaceField[] = (parts[0]?.fields ?? []).map((f) => ({
+  const template = parts[0]?.fields ?? [];
+  const fields: SurfaceField[] = template.map((f) => ({
     name: f.name, association: f.association, components: f.components,
     values: new Float64Array((f.association === 'point' ? nV : nT) * f.components),
   }));
-  let t = 0;
-  for (const r of runs) {
-    const c = parts[r.p]!, vm = vmaps[r.p]!;
-    for (let i = r.t0; i < r.t1; i++, t++) {
-      indices[3 * t] = vm[c.indices[3 * i]!]!; indices[3 * t + 1] = vm[c.indices[3 * i + 1]!]!; indices[3 * t + 2] = vm[c.indices[3 * i + 2]!]!;
-      sourceCell[t] = c.sourceCell[i]!;
-      fields.forEach((f, j) => {
-        if (f.association !== 'cell') return;
-        const nc = f.components, src = c.fields[j]!.values;
-        for (let q = 0; q < nc; q++) f.values[t * nc + q] = src[i * nc + q]!;
-      });
+  let t = 0, w = 0;
+  runs.forEach((r, k) => {
+    const c = parts[r.p]!, a = lo[k]!, b = hi[k]! + 1, nt = r.t1 - r.t0;
+    if (nt === 0) return;
+    positions.set(c.positions.subarray(3 * a, 3 * b), 3 * w);
+    vertexEdges.set(c.vertexEdges.subarray(2 * a, 2 * b), 2 * w);
+    vertexT.set(c.vertexT.subarray(a, b), w);
+    const shift = w - a;
+    for (let i = 3 * r.t0, o = 3 * t; i < 3 * r.t1; i++, o++) indices[o] = c.indices[i]! + shift;
+    sourceCell.set(c.sourceCell.subarray(r.t0, r.t1), t);
+    for (let j = 0; j < fields.length; j++) {
+      const f = fields[j]!, nc = f.components, src = c.fields[j]!.values;
+      if (f.association === 'point') f.values.set(src.subarray(nc * a, nc * b), nc * w);
+      else f.values.set(src.subarray(nc * r.t0, nc * r.t1), nc * t);
     }
-  }
-  parts.forEach((c, p) => {
-    const vm = vmaps[p]!;
-    fields.forEach((f, j) => {
-      if (f.association !== 'point') return;
-      const nc = f.components, src = c.fields[j]!.values;
-      for (let v = 0; v < vm.length; v++) {
-        const w = vm[v]!;
-        if (w >= 0) for (let q = 0; q < nc; q++) f.values[w * nc + q] = src[v * nc + q]!;
-      }
-    });
+    t += nt; w += b - a;
   });
   const sum = (g: (c: CutPart) => number) => parts.reduce((s, c) => s + g(c), 0);
   return {
