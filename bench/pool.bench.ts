@@ -6,8 +6,15 @@
  * and sums here). Each stage gives wall time and the process's CPU time (all threads), in ms, so a busy
  * machine shows as wall > CPU / workers. Memory: the shared copy's bytes and the resident-set growth per
  * worker after every stage ran (the workers' cell trees and scratch; the shared arrays are counted once).
- * Loading is not in this bench (the file readers are not parallel yet; see load.bench.ts).
+ * Load: the same mesh written as appended zlib (.vtu, 32 KiB blocks, level 6) to a temporary file and read
+ * with zlib blocks inflated in this thread, and by 1 and 2 inflate workers (src/parallel/inflatePool.ts).
  */
+import { mkdtempSync, rmSync, statSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { loadDatasetFile } from '../src/io/nodeFiles.ts';
+import { writeVtu } from '../src/io/writeVtu.ts';
+import { startInflatePool } from '../src/parallel/inflatePool.ts';
 import { integratePlane } from '../src/cut/planeIntegrals.ts';
 import { probeLine } from '../src/locate/lineProbe.ts';
 import { datasetOf, hexGrid, pointFieldFrom, withFields } from '../src/model/meshBuild.ts';
@@ -85,8 +92,30 @@ async function inProcess(d: Dataset): Promise<Record<string, unknown>> {
   };
 }
 
+/** Load times of a zlib file: inflated in this thread, then by 1 and 2 inflate workers (best of 2 each). */
+async function loads(d: Dataset): Promise<Record<string, unknown>> {
+  const dir = mkdtempSync(join(tmpdir(), 'fieldtally-poolbench-'));
+  try {
+    const file = join(dir, 'hex1m-zlib.vtu');
+    writeFileSync(file, writeVtu(d, { encoding: 'zlib' }));
+    const best = async (f: () => Promise<unknown>) => {
+      const a = (await timed(f))[1], b = (await timed(f))[1];
+      return a.wallMs <= b.wallMs ? a : b;
+    };
+    const out: Record<string, unknown> = { fileBytes: statSync(file).size, inThisThread: await best(() => loadDatasetFile(file)) };
+    for (const n of [1, 2]) {
+      const pool = startInflatePool(n);
+      try { out[`${n}InflateWorkers`] = await best(() => loadDatasetFile(file, { inflate: pool.inflate })); } finally { await pool.close(); }
+    }
+    return out;
+  } finally {
+    rmSync(dir, { recursive: true, force: true });
+  }
+}
+
 export async function run(): Promise<Record<string, unknown>> {
   const d = mesh();
+  const load = await loads(d);
   const one = await withWorkers(d, 1);
   const two = await withWorkers(d, 2);
   const core = await inProcess(mesh());
@@ -96,7 +125,7 @@ export async function run(): Promise<Record<string, unknown>> {
   return {
     cells: 1_000_000,
     note: 'wall and CPU ms per stage (CPU: all threads of the process); speedUp = wall(1 worker) / wall(2 workers); the machine may be shared, compare CPU too',
-    oneWorker: one, twoWorkers: two, inProcessCore: core, speedUp,
+    load, oneWorker: one, twoWorkers: two, inProcessCore: core, speedUp,
   };
 }
 

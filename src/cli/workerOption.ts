@@ -1,6 +1,6 @@
 /**
- * The `--workers N` option shared by the verbs that compute on one file (cut, line, force, surfaces,
- * report): how many compute workers share the file's cells (src/parallel/). Default: `FIELDTALLY_WORKERS`,
+ * The `--workers N` option shared by the verbs that compute on one file (cut, line, force and surfaces):
+ * how many compute workers share the file's cells (src/parallel/), and decode its zlib blocks. Default: `FIELDTALLY_WORKERS`,
  * else one per core, for files of at least `POOL_MIN_FILE_BYTES`; smaller files (where starting workers
  * costs more than it saves) and `--workers 1` run in this process on the single-thread core.
  */
@@ -9,6 +9,7 @@ import { loadDatasetFile } from '../io/nodeFiles.ts';
 import type { Dataset } from '../model/dataset.ts';
 import { openNodePool, poolSize, startNodeWorkers } from '../parallel/nodePool.ts';
 import type { ComputePool } from '../parallel/pool.ts';
+import { startInflatePool } from '../parallel/inflatePool.ts';
 import { str, type ParsedArgs } from './args.ts';
 import type { OptionKind } from './args.ts';
 
@@ -41,12 +42,16 @@ export async function loadForCompute(file: string, args: ParsedArgs): Promise<Co
     return { dataset, pool: null, close: async () => {} };
   }
   const ports = startNodeWorkers(n);
+  // zlib blocks are inflated by as many threads while the compute workers start.
+  const inflaters = startInflatePool(n);
   let dataset: Dataset;
   try {
-    dataset = await loadDatasetFile(file);
+    dataset = await loadDatasetFile(file, { inflate: inflaters.inflate });
   } catch (e) {
     await Promise.all(ports.map((p) => p.terminate()));
     throw e;
+  } finally {
+    await inflaters.close();
   }
   const pool = await openNodePool(dataset, n, ports);
   return { dataset: pool.dataset, pool, close: () => pool.close() };
