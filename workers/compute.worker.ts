@@ -32,7 +32,7 @@ import type {
 import { groupOutline } from '../src/surface/groupOutline.ts';
 import { ReadMeter } from './readMeter.ts';
 import { drawFaces, drawTriangleSet, faceValues, surfaceCellFaces, type FaceList } from '../src/surface/surfaceDrawing.ts';
-import { planPool, POOL_MIN_CELLS, requestedWorkers, type PoolPlan } from '../src/parallel/poolPlan.ts';
+import { planPool, POOL_MIN_CELLS, workersFromName, type PoolPlan } from '../src/parallel/poolPlan.ts';
 import type { ComputePool } from '../src/parallel/pool.ts';
 import { totalCells } from '../src/model/dataset.ts';
 import { openBrowserPool } from './sharePool.ts';
@@ -55,7 +55,7 @@ interface Held {
 /** This worker's pool plan: from its own isolation, the core count and the page's `?workers=N` (passed in the worker's name). */
 function poolPlan(): PoolPlan {
   const g = globalThis as { crossOriginIsolated?: boolean; navigator?: { hardwareConcurrency?: number }; name?: string };
-  const requested = requestedWorkers(`?${(g.name ?? '').split(' ').slice(1).join('&')}`);
+  const requested = workersFromName(g.name ?? '');
   return planPool({
     isolated: g.crossOriginIsolated === true && typeof SharedArrayBuffer !== 'undefined',
     cores: g.navigator?.hardwareConcurrency ?? 1, ...(requested ? { requested } : {}),

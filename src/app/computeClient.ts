@@ -1,7 +1,7 @@
 /** Starts the compute worker and wraps it in the typed comlink proxy. */
 import * as Comlink from 'comlink';
 import type { ComputeApi } from '../../workers/api.ts';
-import { requestedWorkers } from '../parallel/poolPlan.ts';
+import { computeWorkerName, requestedWorkers } from '../parallel/poolPlan.ts';
 
 export type Compute = Comlink.Remote<ComputeApi>;
 
@@ -11,6 +11,6 @@ export type Compute = Comlink.Remote<ComputeApi>;
  */
 export function startCompute(): Compute {
   const asked = requestedWorkers(location.search);
-  const worker = new Worker(new URL('../../workers/compute.worker.ts', import.meta.url), { type: 'module', name: `fieldtally-compute${asked ? ` workers=${asked}` : ''}` });
+  const worker = new Worker(new URL('../../workers/compute.worker.ts', import.meta.url), { type: 'module', name: computeWorkerName(asked) });
   return Comlink.wrap<ComputeApi>(worker);
 }

@@ -35,7 +35,20 @@ export function requestedWorkers(search: string): number | undefined {
   return n >= 1 && n <= MAX_WORKERS ? n : undefined;
 }
 
-/** The plan for a platform: one worker per core when isolated (or as requested), else one. */
+/** The compute worker's name, carrying a requested worker count (a dedicated worker cannot see the page's address). */
+export function computeWorkerName(requested: number | undefined): string {
+  return `fieldtally-compute${requested ? ` workers=${requested}` : ''}`;
+}
+
+/** The requested worker count carried by `computeWorkerName`, else undefined. */
+export function workersFromName(name: string): number | undefined {
+  return requestedWorkers(`?${name.split(' ').slice(1).join('&')}`);
+}
+
+/**
+ * The plan for a platform: when isolated, one worker per core but one (that core is left to the page, so
+ * drawing stays smooth while a probe computes — common practice), or as requested; else one.
+ */
 export function planPool(p: PoolPlatform): PoolPlan {
   if (!p.isolated) {
     return {
@@ -44,11 +57,11 @@ export function planPool(p: PoolPlatform): PoolPlan {
     };
   }
   const cores = Math.max(1, Math.floor(p.cores || 1));
-  const n = Math.min(MAX_WORKERS, p.requested ?? cores);
+  const n = Math.min(MAX_WORKERS, p.requested ?? Math.max(1, cores - 1));
   return {
     workers: n, shared: true,
     note: n > 1
-      ? `Computing with ${n} workers that share the file's arrays in memory (${p.requested ? 'as asked in the address' : 'one per processor core'}), for files of ${POOL_MIN_CELLS.toLocaleString('en')} cells or more; results are the same as with one.`
-      : 'Computing with one worker (the page is cross-origin isolated, but one worker was asked for or this computer reports one core).',
+      ? `Computing with ${n} workers that share the file's arrays in memory (${p.requested ? 'as asked in the address' : 'one per processor core, one core left to the page'}), for files of ${POOL_MIN_CELLS.toLocaleString('en')} cells or more; results are the same as with one.`
+      : `Computing with one worker: the page is cross-origin isolated, but ${p.requested ? 'one worker was asked for in the address' : `this computer reports ${cores} core${cores > 1 ? 's' : ''} and one is left to the page`} (?workers=N in the address asks for more).`,
   };
 }
