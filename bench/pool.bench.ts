@@ -4,8 +4,9 @@
  * pool start (shared copy + worker start + share hand-over), first cut with integrals, later cut, first line
  * of 1000 samples, later line, boundary extraction, force total (boundary from the pool, then groups, loads
  * and sums here). Each stage gives wall time and the process's CPU time (all threads), in ms, so a busy
- * machine shows as wall > CPU / workers. Memory: the shared copy's bytes and the resident-set growth per
- * worker after every stage ran (the workers' cell trees and scratch; the shared arrays are counted once).
+ * machine shows as wall > CPU / workers. Memory: the shared copy's bytes, the process's resident-set growth,
+ * and per worker after every stage ran its JS heap and its own array buffers (cell tree, scratch; the shared
+ * arrays are not counted there).
  * Load: the same mesh written as appended zlib (.vtu, 32 KiB blocks, level 6) to a temporary file and read
  * with zlib blocks inflated in this thread, and by 1 and 2 inflate workers (src/parallel/inflatePool.ts).
  */
@@ -69,10 +70,14 @@ async function withWorkers(d: Dataset, n: number): Promise<Record<string, unknow
     const [f, force] = await timed(() => forceAll(pool.dataset));
     const shared = datasetBytes(pool.dataset);
     const rss = process.memoryUsage().rss - rss0;
+    const workers = await pool.memory();
     return {
       workers: pool.size, start, firstCut, laterCut, firstLine, laterLine, boundary, force,
       check: { cutArea: c1.integrals.area, validSamples: l1.validCount, boundaryFaces: b.count, forceX: f.force[0] },
-      memory: { sharedCopyBytes: shared, rssGrowthBytes: rss, perWorkerBytes: Math.round((rss - shared) / pool.size) },
+      memory: {
+        sharedCopyBytes: shared, rssGrowthBytes: rss,
+        perWorker: workers.map((m) => (m ? { heapUsedBytes: m.heapUsed, ownArrayBuffersBytes: m.arrayBuffers } : null)),
+      },
     };
   } finally {
     await pool.close();

@@ -8,5 +8,5 @@ const { serveShares } = await import('../src/parallel/shareHost.ts');
 serveShares({
   postMessage: (message, transfer) => parentPort.postMessage(message, transfer),
   onMessage: (handler) => parentPort.on('message', handler),
-}, () => process.memoryUsage().heapUsed);
+}, () => { const m = process.memoryUsage(); return { heapUsed: m.heapUsed, external: m.external, arrayBuffers: m.arrayBuffers }; });
 parentPort.postMessage({ id: 0, ok: true, result: 'ready' });

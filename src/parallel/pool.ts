@@ -23,7 +23,7 @@ import { probeLine, type LineProbeOptions, type LineProbeResult } from '../locat
 import type { BoundaryFaces } from '../surface/boundaryFaces.ts';
 import { primeBoundaryFaces } from '../surface/surfaceCache.ts';
 import { mergeBoundary, mergeCuts, mergeLines } from './mergeParts.ts';
-import type { ShareMessage, ShareReply, ShareRequest } from './shareHost.ts';
+import type { ShareMessage, ShareReply, ShareRequest, WorkerMemory } from './shareHost.ts';
 import type { BoundaryPart, CutPart, LinePart } from './shareTasks.ts';
 import { splitCells, type CellShare } from './shares.ts';
 
@@ -152,9 +152,9 @@ export class ComputePool {
     return this.boundaryFaces;
   }
 
-  /** Heap bytes each worker reports in use (null where the platform cannot tell). */
-  memory(): Promise<(number | null)[]> {
-    return this.all<number | null>(() => ({ op: 'memory' }));
+  /** Memory each worker reports (bytes; null where the platform cannot tell). The shared dataset is not in it. */
+  memory(): Promise<(WorkerMemory | null)[]> {
+    return this.all<WorkerMemory | null>(() => ({ op: 'memory' }));
   }
 
   /** Ends every worker. */

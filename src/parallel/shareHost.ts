@@ -39,8 +39,11 @@ function transferables(x: unknown, out: Set<ArrayBuffer>, depth = 0): void {
   for (const v of Array.isArray(x) ? x : Object.values(x)) transferables(v, out, depth + 1);
 }
 
-/** Serves the pool's requests on `port` until the worker ends. `memory` reports this worker's heap use (bytes) when the platform can tell. */
-export function serveShares(port: SharePort, memory: () => number | null = () => null): void {
+/** What a worker reports about its memory (bytes), where the platform can tell: JS heap in use and its own (non-shared) array buffers. */
+export interface WorkerMemory { heapUsed: number; external: number; arrayBuffers: number }
+
+/** Serves the pool's requests on `port` until the worker ends. `memory` reports this worker's memory when the platform can tell. */
+export function serveShares(port: SharePort, memory: () => WorkerMemory | null = () => null): void {
   let whole: Dataset | undefined, share: Dataset | undefined, range: CellShare | undefined;
   const run = (m: ShareRequest): unknown => {
     if (m.op === 'hold') { whole = m.dataset; range = m.share; share = shareDataset(whole, range); return null; }
