@@ -32,6 +32,10 @@ import type {
 import { groupOutline } from '../src/surface/groupOutline.ts';
 import { ReadMeter } from './readMeter.ts';
 import { drawFaces, drawTriangleSet, faceValues, surfaceCellFaces, type FaceList } from '../src/surface/surfaceDrawing.ts';
+import { planPool, POOL_MIN_CELLS, workersFromName, type PoolPlan } from '../src/parallel/poolPlan.ts';
+import type { ComputePool } from '../src/parallel/pool.ts';
+import { totalCells } from '../src/model/dataset.ts';
+import { openBrowserPool } from './sharePool.ts';
 
 /** Smallest interval between two progress calls to the main thread (ms). */
 const PROGRESS_INTERVAL_MS = 100;
@@ -44,6 +48,18 @@ interface Held {
   faces: FaceList;
   /** The boundary faces and their groups (absent for a file without volume cells). */
   boundary?: { faces: BoundaryFaces; groups: SurfaceGroups };
+  /** Share workers holding the dataset (src/parallel/), when the plan uses more than one worker. */
+  pool?: ComputePool;
+}
+
+/** This worker's pool plan: from its own isolation, the core count and the page's `?workers=N` (passed in the worker's name). */
+function poolPlan(): PoolPlan {
+  const g = globalThis as { crossOriginIsolated?: boolean; navigator?: { hardwareConcurrency?: number }; name?: string };
+  const requested = workersFromName(g.name ?? '');
+  return planPool({
+    isolated: g.crossOriginIsolated === true && typeof SharedArrayBuffer !== 'undefined',
+    cores: g.navigator?.hardwareConcurrency ?? 1, ...(requested ? { requested } : {}),
+  });
 }
 
 /** A chosen file as a byte source: ranges of a Blob are read only when the reader needs them (and counted by the meter). */
@@ -157,11 +173,23 @@ export function createComputeApi(): ComputeApi {
           ...(resolveSource ? { resolveSource } : {}),
         });
         progress.now({ stage: 'finding boundary surfaces', bytesDone: total, bytesTotal: total });
-        const found = describe(dataset, fileBytes, t0);
-        // a cancel that arrived while the surfaces were found still wins: the previous dataset stays
-        await yieldToMessages();
-        checkAborted(controller.signal, name);
+        // Large files go to share workers; they extract the boundary faces (priming the dataset's cache).
+        const plan = poolPlan();
+        const pool = plan.workers > 1 && totalCells(dataset) >= POOL_MIN_CELLS ? await openBrowserPool(dataset, plan.workers) : undefined;
+        let found: Held;
+        try {
+          if (pool) await pool.boundary();
+          found = { ...describe(pool ? pool.dataset : dataset, fileBytes, t0), ...(pool ? { pool } : {}) };
+          // a cancel that arrived while the surfaces were found still wins: the previous dataset stays
+          await yieldToMessages();
+          checkAborted(controller.signal, name);
+        } catch (e) {
+          await pool?.close();
+          throw e;
+        }
+        const old = held?.pool;
         held = found;
+        await old?.close();
         return held.description;
       } finally {
         if (loading === controller) loading = undefined;
@@ -197,10 +225,11 @@ export function createComputeApi(): ComputeApi {
       checkVec(request.normal, 'cut-plane normal');
       if (Math.hypot(...request.normal) === 0) throw new Error('cut-plane normal: (0, 0, 0) has no direction; give a non-zero vector');
       const region: RegionSpec[] = request.seed ? [{ kind: 'seed', point: request.seed }] : [];
-      const r = integratePlane(h.dataset, {
+      const q = {
         origin: request.origin, normal: request.normal, region,
         integral: { velocity: request.velocity || undefined, pressure: request.pressure || undefined, density: request.rho },
-      });
+      };
+      const r = h.pool ? await h.pool.integratePlane(q) : integratePlane(h.dataset, q);
       const drawing = r.region.set.indices.length > 0 ? drawTriangleSet(r.region.set, r.cut.normal, request.color) : null;
       const reply: CutReply = { drawing, integrals: r.integrals, normal: [...r.cut.normal], region: r.region.applied, cellsCut: r.cut.stats.cutCells };
       return drawing ? Comlink.transfer(reply, [drawing.positions.buffer, drawing.normals.buffer, drawing.groups.buffer, drawing.values.buffer]) : reply;
@@ -210,7 +239,7 @@ export function createComputeApi(): ComputeApi {
       const h = need();
       checkVec(request.from, 'line probe start');
       checkVec(request.to, 'line probe end');
-      const r = probeLine(h.dataset, request.from, request.to, { samples: request.samples });
+      const r = h.pool ? await h.pool.probeLine(request.from, request.to, { samples: request.samples }) : probeLine(h.dataset, request.from, request.to, { samples: request.samples });
       const reply: LineReply = {
         length: r.length, count: r.count, validCount: r.validCount, outside: r.outside,
         s: r.s, x: r.x, y: r.y, z: r.z, valid: r.valid,

@@ -14,11 +14,15 @@ import { ProbeSetTool } from './probeSetTool.ts';
 import { ReportTool } from './reportTool.ts';
 import { LineChart } from '../ui/lineChart.ts';
 import { Viewer } from './viewer.ts';
+import { ensureIsolation } from './isolation.ts';
 
 /** The bundled sample opened at start (slow viscous flow past a small sphere; see sample-fields/). */
 const SAMPLE_NAME = 'sphere-stokes.vtu';
 
 const $ = <T extends HTMLElement>(id: string): T => document.getElementById(id) as T;
+
+// On a plain static server, a service worker adds the isolation headers; the page reloads once under it.
+await ensureIsolation();
 
 const viewer = new Viewer(startCompute(), {
   canvas: $('view-canvas'), overlay: $('overlay'), side: $('side'), tools: $('view-tools'),

@@ -10,6 +10,7 @@ import type { Description, FieldChoice, LoadRequest, SurfaceReply } from '../../
 import type { Bounds } from '../model/bounds.ts';
 import type { LoadReport } from '../model/loadReport.ts';
 import { AboutBox } from '../ui/aboutBox.ts';
+import { planPool, requestedWorkers } from '../parallel/poolPlan.ts';
 import { Banner } from '../ui/banner.ts';
 import { formatBytes, formatNumber } from '../ui/format.ts';
 import { LegendView, type LegendState } from '../ui/legend.ts';
@@ -94,7 +95,10 @@ export class Viewer {
     this.view.onFrame(() => this.pins.update());
     this.progress = new ProgressBar(els.progress);
     this.progress.cancel.onclick = () => { this.progress.cancelling(); void this.compute.cancelLoad(); };
-    this.about = new AboutBox(document.body);
+    const requested = requestedWorkers(location.search);
+    this.about = new AboutBox(document.body, planPool({
+      isolated: globalThis.crossOriginIsolated === true, cores: navigator.hardwareConcurrency ?? 1, ...(requested ? { requested } : {}),
+    }).note);
     this.summary = els.summary;
     this.table = new ResultsTable(els.results, {
       onTogglePin: (id, on) => { const r = this.results.get(id); if (r) { r.pinVisible = on; this.refreshResults(); } },

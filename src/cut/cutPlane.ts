@@ -29,7 +29,7 @@ import { cellStarts, pieceOfCell, pointStarts, type Dataset } from '../model/dat
 import type { Piece } from '../model/piece.ts';
 import { candidateCells, type CandidateSource } from './crossingCells.ts';
 import { interpolateCutFields, type FieldRef } from './cutFields.ts';
-import { forEachUnclaimedFace, recordPlaneFace, resetPlaneFaces } from './planeFaces.ts';
+import { claimedFaceKeys, facePositionKey, forEachUnclaimedFace, recordPlaneFace, resetPlaneFaces } from './planeFaces.ts';
 import { fillPolygon } from './polygonFill.ts';
 import { unitVector, type TriangleSet, type Vec3 } from './triangleSet.ts';
 
@@ -41,9 +41,22 @@ export interface CutOptions {
   tolerance: number;
   /** Where candidate cells come from (see `crossingCells.ts`). Default 'auto'. */
   candidates: CandidateSource;
+  /** Keep the position keys of in-plane faces (`PlaneCut.planeFaces`), for the worker pool's merge of cell shares. Default false. */
+  planeFaceKeys: boolean;
 }
 
-export const CUT_DEFAULTS: Readonly<CutOptions> = { fields: 'all', tolerance: 1e-10, candidates: 'auto' };
+export const CUT_DEFAULTS: Readonly<CutOptions> = { fields: 'all', tolerance: 1e-10, candidates: 'auto', planeFaceKeys: false };
+
+/**
+ * In-plane faces of a cut (only with `planeFaceKeys`): the faces this cut added from the cell above
+ * (`emitted[i]`, its triangles from `triStart[i]` to `triStart[i + 1]`) and the faces cut by the cell below
+ * (`claimed`), as `facePositionKey`s. A face emitted by one cell share and claimed by another is interior.
+ */
+export interface PlaneFaceKeys {
+  readonly emitted: readonly string[];
+  readonly triStart: Int32Array;
+  readonly claimed: readonly string[];
+}
 
 /** A cut: a triangle set wound counter-clockwise about `normal`, plus each vertex's provenance. */
 export interface PlaneCut extends TriangleSet {
@@ -57,6 +70,8 @@ export interface PlaneCut extends TriangleSet {
   /** True when the plane cuts no 3D cell (then there are no triangles). */
   readonly empty: boolean;
   readonly stats: CutStats;
+  /** Only with the `planeFaceKeys` option. */
+  readonly planeFaces?: PlaneFaceKeys;
 }
 
 export interface CutStats {
@@ -388,10 +403,15 @@ export function cutPlane(dataset: Dataset, origin: Vec3, normal: Vec3, options: 
     if (kk !== k) { k = kk; piece = dataset.pieces[k]!; pts = piece.points; pointBase = pStarts[k]!; }
     if (cutCell(piece!, k, g - starts[k]!, g)) cutCells++;
   }
+  const emitted: string[] = [], triStarts: number[] = [];
   const boundaryFaces = forEachUnclaimedFace(dataset.pieces, (kk, cell, ids, start, m) => {
     pts = dataset.pieces[kk]!.points; pointBase = pStarts[kk]!;
+    if (opts.planeFaceKeys) { emitted.push(facePositionKey(pts, ids, start, m)); triStarts.push(nT); }
     if (emitPlaneFace(ids, start, m, cell)) cutCells++;
   });
+  triStarts.push(nT);
+  const planeFaces = opts.planeFaceKeys
+    ? { planeFaces: { emitted, triStart: Int32Array.from(triStarts), claimed: claimedFaceKeys(dataset.pieces) } } : {};
   const positions = oPos.slice(0, 3 * nV), indices = oIdx.slice(0, 3 * nT), sourceCell = oCell.slice(0, nT);
   const vertexEdges = oEdge.slice(0, 2 * nV), vertexT = oT.slice(0, nV);
   pts = new Float64Array(0);
@@ -400,5 +420,6 @@ export function cutPlane(dataset: Dataset, origin: Vec3, normal: Vec3, options: 
   return {
     ...geometry, fields, origin: [origin[0], origin[1], origin[2]], normal: n, empty: nT === 0,
     stats: { candidateCells: nCand, candidateSource: used, cutCells, boundaryFaces, openChains, tolerance: tol, ms: performance.now() - t0 },
+    ...planeFaces,
   };
 }

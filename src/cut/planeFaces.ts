@@ -55,6 +55,23 @@ export function recordPlaneFace(k: number, pts: Float64Array, cell: number, ids:
   if (!claim) nCand++;
 }
 
+/**
+ * Order-free exact key of a face: its node positions as sorted `x,y,z` triples. Used only by the worker pool
+ * (src/parallel/) to match in-plane faces across cell shares; the cut itself matches by hash and position.
+ */
+export function facePositionKey(pts: Float64Array, ids: Int32Array, start: number, m: number): string {
+  const parts: string[] = [];
+  for (let j = 0; j < m; j++) { const p = 3 * ids[start + j]!; parts.push(`${pts[p]! + 0},${pts[p + 1]! + 0},${pts[p + 2]! + 0}`); }
+  return parts.sort().join(';');
+}
+
+/** Keys (`facePositionKey`) of the faces claimed by cells below them in the last cut. */
+export function claimedFaceKeys(pieces: readonly Piece[]): string[] {
+  const out: string[] = [];
+  for (let r = 0; r < nRec; r++) if (isClaim[r]) out.push(facePositionKey(pieces[recPiece[r]!]!.points, nodes, recStart[r]!, recSize[r]!));
+  return out;
+}
+
 function sameFace(pieces: readonly Piece[], a: number, b: number): boolean {
   if (recSize[a] !== recSize[b] || recHash[a] !== recHash[b]) return false;
   const pa = pieces[recPiece[a]!]!.points, pb = pieces[recPiece[b]!]!.points;

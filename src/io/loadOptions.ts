@@ -25,7 +25,17 @@ export type ResolveSource = (relativePath: string) => Promise<ByteSource>;
  * declares. Returns the number of bytes the stream holds (any number above `out.length` when it holds
  * more); throws an Error (its message is quoted in the reader's) when the stream is corrupt.
  */
-export type InflateBlock = (block: Uint8Array, out: Uint8Array) => number;
+export type InflateBlock = ((block: Uint8Array, out: Uint8Array) => number) & {
+  /**
+   * Optional: inflates many blocks at once (on several threads, src/parallel/inflatePool.ts). Resolves, per
+   * block, to what the single-block call returns, or to an Error message string for a corrupt stream.
+   * Readers use it for runs of whole blocks that land straight in the final array.
+   */
+  batch?: InflateBatch;
+};
+
+/** Inflates `blocks[i]` into `outs[i]` for every i; see `InflateBlock.batch`. */
+export type InflateBatch = (blocks: readonly Uint8Array[], outs: readonly Uint8Array[]) => Promise<(number | string)[]>;
 
 export interface LoadOptions {
   /** Called now and then (throttled by the reader) with the stage and bytes consumed. */

@@ -132,6 +132,26 @@ async function inflateAll(input: PackedInput, plan: ArrayPlan, z: ZlibLayout, ou
     while (kEnd < z.nBlocks && (kEnd === k || batchBytes + z.words[2 + kEnd]! <= input.batchBytes)) batchBytes += z.words[2 + kEnd++]!;
     const packed = await input.next(batchBytes, packedScratch);
     let from = 0;
+    if (direct && inflate.batch && kEnd - k > 1) {
+      // Several threads inflate the batch's blocks straight into their places in the final array.
+      const blocks: Uint8Array[] = [], outs: Uint8Array[] = [];
+      for (let j = k, f = from, t = to; j < kEnd; j++) {
+        const cs = z.words[2 + j]!, us = inflatedSize(z, j);
+        blocks.push(packed.subarray(f, f + cs)); outs.push(outBytes.subarray(t, t + us));
+        f += cs; t += us;
+      }
+      const got = await inflate.batch(blocks, outs);
+      for (let j = 0; j < got.length; j++, k++) {
+        const g = got[j]!;
+        if (typeof g === 'string') throw new Error(`${where}: zlib block ${k} of ${z.nBlocks} is corrupt (${g})`);
+        if (g !== outs[j]!.length) throw new Error(`${where}: zlib block ${k} of ${z.nBlocks} inflates to ${g} bytes, the header says ${outs[j]!.length}`);
+        to += outs[j]!.length;
+      }
+      const done = Math.floor(to / size);
+      if (done > finished) { finishDirect(plan, out, finished, done - finished); finished = done; }
+      await cp.at('inflating', input.position());
+      continue;
+    }
     for (; k < kEnd; k++) {
       const cs = z.words[2 + k]!, us = inflatedSize(z, k);
       if (direct) {

@@ -50,3 +50,11 @@ export function getSurfaceGroups(d: Dataset, g: GroupingKey = {}): SurfaceGroups
   }
   return groups;
 }
+
+/**
+ * Stores boundary faces extracted elsewhere (the worker pool merges its shares' faces into exactly what
+ * `boundaryFaces` gives) as the dataset's default boundary, unless one is already cached.
+ */
+export function primeBoundaryFaces(d: Dataset, faces: BoundaryFaces): void {
+  if (!cache.has(d)) cache.set(d, { faces, groups: new Map() });
+}

@@ -11,13 +11,20 @@ const TEXT = [
 export class AboutBox {
   private readonly dialog: HTMLDialogElement;
 
-  constructor(host: HTMLElement) {
+  /** `workersNote`: how many compute workers this page uses and why (src/parallel/poolPlan.ts). */
+  constructor(host: HTMLElement, workersNote?: string) {
     this.dialog = document.createElement('dialog');
     this.dialog.className = 'about';
     const h = document.createElement('h2');
     h.textContent = 'About fieldtally';
     this.dialog.append(h);
     for (const t of TEXT) { const p = document.createElement('p'); p.textContent = t; this.dialog.append(p); }
+    if (workersNote) {
+      const w = document.createElement('p');
+      w.className = 'workers';
+      w.textContent = workersNote;
+      this.dialog.append(w);
+    }
     const c = document.createElement('p');
     c.className = 'caution';
     c.textContent = `Caution: ${CAUTION}`;

@@ -4,23 +4,23 @@
  * reverse flow over the cut (or a region of it).
  */
 import { integratePlane } from '../../cut/planeIntegrals.ts';
-import { loadDatasetFile } from '../../io/nodeFiles.ts';
 import { parseArgs, parseVec3, str } from '../args.ts';
 import {
   CAUTION, FIELD_HELP, FIELD_OPTIONS, FIELD_RULE, REGION_HELP, REGION_OPTIONS, SIGN_CONVENTION, UNITS_NOTE,
   footer, integralOptions, integralsJson, integralsTable, num, regionSpecs,
 } from '../cutCommon.ts';
 import type { Verb } from '../verb.ts';
+import { loadForCompute, WORKER_HELP, WORKER_OPTIONS } from '../workerOption.ts';
 
 const cut: Verb = {
   summary: 'cut-plane integrals: area, flow rates, area- and mass-flow-weighted means, total pressure',
   usage: [
     'fieldtally cut <file> --origin x,y,z --normal x,y,z [--seed x,y,z] [--disk …] [--rect …] [--groups …]',
-    '               [--velocity name] [--pressure name] [--rho value|name] [--kinematic] [--json]',
+    '               [--velocity name] [--pressure name] [--rho value|name] [--kinematic] [--json] [--workers N]',
     '  Cuts every 3D cell with the plane through --origin with normal --normal and integrates over the cut.',
-    REGION_HELP, FIELD_HELP, FIELD_RULE, SIGN_CONVENTION, UNITS_NOTE,
+    REGION_HELP, FIELD_HELP, FIELD_RULE, WORKER_HELP, SIGN_CONVENTION, UNITS_NOTE,
   ].join('\n'),
-  options: { origin: 'string', normal: 'string', ...REGION_OPTIONS, ...FIELD_OPTIONS },
+  options: { origin: 'string', normal: 'string', ...REGION_OPTIONS, ...FIELD_OPTIONS, ...WORKER_OPTIONS },
   async run(argv, io) {
     const args = parseArgs(argv, this.options, 'cut');
     const file = args.positional[0];
@@ -29,8 +29,16 @@ const cut: Verb = {
     if (!o || !n) throw new Error('--origin and --normal are required (three numbers each, e.g. --origin 0,0,0.05 --normal 0,0,1)');
     const origin = parseVec3(o, 'origin'), normal = parseVec3(n, 'normal');
     const region = regionSpecs(args);
-    const dataset = await loadDatasetFile(file);
-    const { cut: c, region: r, integrals: s } = integratePlane(dataset, { origin, normal, region, integral: integralOptions(args, dataset) });
+    const input = await loadForCompute(file, args);
+    const { dataset, pool } = input;
+    let result;
+    try {
+      const q = { origin, normal, region, integral: integralOptions(args, dataset) };
+      result = pool ? await pool.integratePlane(q) : integratePlane(dataset, q);
+    } finally {
+      await input.close();
+    }
+    const { cut: c, region: r, integrals: s } = result;
     if (region.some((x) => x.kind === 'seed') && r.reason && !c.empty) throw new Error(r.reason);
     if (args.options.json) {
       io.out(JSON.stringify({

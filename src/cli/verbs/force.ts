@@ -11,6 +11,7 @@ import { CAUTION } from '../../study/caution.ts';
 import { parseArgs, parseNumber, parseVec3, str } from '../args.ts';
 import type { Verb } from '../verb.ts';
 import { GROUPING_HELP, GROUPING_OPTIONS, fmt, loadSurfaces, vec } from './surfaces.ts';
+import { WORKER_HELP, WORKER_OPTIONS } from '../workerOption.ts';
 
 const VISCOUS = ['auto', 'wall-shear', 'gradient', 'none'] as const;
 
@@ -32,12 +33,13 @@ const force: Verb = {
     '  --strips n      cut the body into n strips of equal width along the drag direction and give the drag per unit',
     '                  length in each (JSON: distribution)',
     GROUPING_HELP,
+    WORKER_HELP,
     '  Force on the wall (body): F = ∫(p − p_ref)(−n_body) dA + ∫τ_w dA; moment about --moment-point (default origin).',
   ].join('\n'),
   options: {
     groups: 'string', rho: 'string', speed: 'string', area: 'string', length: 'string', 'drag-direction': 'string', 'lift-direction': 'string',
     'moment-point': 'string', mu: 'string', 'reference-pressure': 'string', pressure: 'string', kinematic: 'boolean', 'wall-shear': 'string',
-    'shear-sign': 'string', velocity: 'string', viscous: 'string', 'cp-axis': 'string', strips: 'string', json: 'boolean', ...GROUPING_OPTIONS,
+    'shear-sign': 'string', velocity: 'string', viscous: 'string', 'cp-axis': 'string', strips: 'string', json: 'boolean', ...GROUPING_OPTIONS, ...WORKER_OPTIONS,
   },
   aliases: { 'drag-dir': 'drag-direction', 'lift-dir': 'lift-direction', 'p-ref': 'reference-pressure', bins: 'strips' },
   async run(argv, io) {

@@ -3,12 +3,12 @@
  * [--wall-normal [--velocity name] [--edge max|gradient] [--edge-fraction f] [--stream x,y,z]]`:
  * a line probe with statistics along the line and, for a wall-normal line, boundary-layer quantities.
  */
-import { loadDatasetFile } from '../../io/nodeFiles.ts';
 import { boundaryLayer, type BoundaryLayerResult } from '../../locate/boundaryLayer.ts';
 import { LINE_PROBE_DEFAULTS, probeLine, type LineProbeResult } from '../../locate/lineProbe.ts';
 import { lineStats, type LineStats } from '../../locate/lineStats.ts';
 import { CAUTION, CAUTION_CSV_LINE } from '../../study/caution.ts';
 import { parseArgs, parseNumber, parseVec3, str } from '../args.ts';
+import { loadForCompute, WORKER_HELP, WORKER_OPTIONS } from '../workerOption.ts';
 import type { Verb } from '../verb.ts';
 
 const UNITS = "values in the file's units; s, x, y, z in the file's length unit; integrals in field unit × length unit";
@@ -78,11 +78,13 @@ const line: Verb = {
     '  --edge max|gradient  edge criterion: the profile maximum (default) or where |du/ds| falls below --edge-fraction',
     '                     (default 0.001) of its wall value — both common practice',
     '  --stream x,y,z     use the velocity component along this direction (default: magnitude of the part parallel to the wall)',
+    WORKER_HELP,
     '  Samples outside the mesh are flagged (valid = 0) and left out of every statistic.',
   ].join('\n'),
   options: {
     from: 'string', to: 'string', samples: 'string', crossings: 'boolean', fields: 'string', csv: 'boolean', json: 'boolean',
     tolerance: 'string', 'wall-normal': 'boolean', velocity: 'string', edge: 'string', 'edge-fraction': 'string', stream: 'string',
+    ...WORKER_OPTIONS,
   },
   async run(argv, io) {
     const args = parseArgs(argv, this.options, 'line');
@@ -105,11 +107,18 @@ const line: Verb = {
     const frac = str(args, 'edge-fraction');
     const stream = str(args, 'stream');
 
-    const dataset = await loadDatasetFile(file);
-    const r = probeLine(dataset, parseVec3(f, 'from'), parseVec3(t, 'to'), {
-      mode: args.options.crossings ? 'crossings' : 'samples', samples,
+    const lineOptions = {
+      mode: args.options.crossings ? 'crossings' as const : 'samples' as const, samples,
       ...(fields ? { fields } : {}), ...(tol !== undefined ? { tolerance: parseNumber(tol, 'tolerance') } : {}),
-    });
+    };
+    const from = parseVec3(f, 'from'), to = parseVec3(t, 'to');
+    const input = await loadForCompute(file, args);
+    let r;
+    try {
+      r = input.pool ? await input.pool.probeLine(from, to, lineOptions) : probeLine(input.dataset, from, to, lineOptions);
+    } finally {
+      await input.close();
+    }
     const st = lineStats(r);
     const bl = wall ? boundaryLayer(r, {
       field: velocity, edge, ...(frac !== undefined ? { gradientFraction: parseNumber(frac, 'edge-fraction') } : {}),

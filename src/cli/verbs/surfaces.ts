@@ -11,6 +11,7 @@ import { surfaceQuality } from '../../surface/surfaceQuality.ts';
 import { CAUTION } from '../../study/caution.ts';
 import { parseArgs, parseNumber, str, type OptionKind, type ParsedArgs } from '../args.ts';
 import type { Verb } from '../verb.ts';
+import { loadForCompute, WORKER_HELP, WORKER_OPTIONS } from '../workerOption.ts';
 
 /** Options every surface verb takes. */
 export const GROUPING_OPTIONS: Record<string, OptionKind> = { 'feature-angle': 'string', 'group-array': 'string', 'surface-file': 'string' };
@@ -29,7 +30,15 @@ export const vec = (v: readonly number[] | null): string => (v ? `(${v.map(fmt).
 
 /** Loads the file, extracts boundary faces and groups them as the options say. */
 export async function loadSurfaces(file: string, args: ParsedArgs): Promise<{ dataset: Dataset; faces: BoundaryFaces; groups: SurfaceGroups }> {
-  const dataset = await loadDatasetFile(file);
+  // With workers, they extract the boundary faces (the pool merges their shares' faces); the rest runs here.
+  const input = await loadForCompute(file, args);
+  const dataset = input.dataset;
+  let pooledFaces: BoundaryFaces | undefined;
+  try {
+    pooledFaces = input.pool ? await input.pool.boundary() : undefined;
+  } finally {
+    await input.close();
+  }
   const angle = str(args, 'feature-angle'), array = str(args, 'group-array'), surfaceFile = str(args, 'surface-file');
   const o: Partial<GroupOptions> = {};
   if (angle !== undefined) {
@@ -38,7 +47,7 @@ export async function loadSurfaces(file: string, args: ParsedArgs): Promise<{ da
   }
   if (array !== undefined) o.groupArray = array;
   if (surfaceFile !== undefined) o.surface = await loadDatasetFile(surfaceFile);
-  const faces = boundaryFaces(dataset);
+  const faces = pooledFaces ?? boundaryFaces(dataset);
   if (faces.count === 0) throw new Error(`${file}: no boundary faces (the file has ${faces.cells3d} 3D cells; surfaces need a volume mesh)`);
   return { dataset, faces, groups: surfaceGroups(dataset, faces, o) };
 }
@@ -51,8 +60,9 @@ const surfaces: Verb = {
     '  file\'s length unit. Faces are oriented out of the fluid; "closed" means every edge is shared by two faces',
     '  of the group traversed in opposite directions, and closure = |∮n dA| / area.',
     GROUPING_HELP,
+    WORKER_HELP,
   ].join('\n'),
-  options: { json: 'boolean', ...GROUPING_OPTIONS },
+  options: { json: 'boolean', ...GROUPING_OPTIONS, ...WORKER_OPTIONS },
   async run(argv, io) {
     const args = parseArgs(argv, this.options, 'surfaces');
     const file = args.positional[0];

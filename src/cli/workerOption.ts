@@ -1,0 +1,58 @@
+/**
+ * The `--workers N` option shared by the verbs that compute on one file (cut, line, force and surfaces):
+ * how many compute workers share the file's cells (src/parallel/), and decode its zlib blocks. Default: `FIELDTALLY_WORKERS`,
+ * else one per core, for files of at least `POOL_MIN_FILE_BYTES`; smaller files (where starting workers
+ * costs more than it saves) and `--workers 1` run in this process on the single-thread core.
+ */
+import { stat } from 'node:fs/promises';
+import { loadDatasetFile } from '../io/nodeFiles.ts';
+import type { Dataset } from '../model/dataset.ts';
+import { openNodePool, poolSize, startNodeWorkers } from '../parallel/nodePool.ts';
+import type { ComputePool } from '../parallel/pool.ts';
+import { startInflatePool } from '../parallel/inflatePool.ts';
+import { str, type ParsedArgs } from './args.ts';
+import type { OptionKind } from './args.ts';
+
+/** Files smaller than this (bytes) use no pool unless `--workers` asks for one. */
+export const POOL_MIN_FILE_BYTES = 8 * 1024 * 1024;
+
+export const WORKER_OPTIONS: Record<string, OptionKind> = { workers: 'string' };
+
+export const WORKER_HELP = '  --workers N           compute workers sharing the cells (default: FIELDTALLY_WORKERS, else one per core, for files of 8 MiB or more); 1: none';
+
+/** A loaded file and, when workers are used, the pool holding it (then `dataset` is the pool's shared copy). */
+export interface ComputeInput {
+  dataset: Dataset;
+  pool: ComputePool | null;
+  /** Ends the workers (call when done; the process cannot exit while they run). */
+  close(): Promise<void>;
+}
+
+/** Loads `file` and, as `--workers` and the defaults say, opens a pool over it; workers start while the file loads. */
+export async function loadForCompute(file: string, args: ParsedArgs): Promise<ComputeInput> {
+  const asked = str(args, 'workers');
+  const n = poolSize(asked);
+  let wanted = n > 1;
+  if (wanted && asked === undefined) {
+    const size = await stat(file).then((s) => s.size, () => 0);
+    wanted = size >= POOL_MIN_FILE_BYTES;
+  }
+  if (!wanted) {
+    const dataset = await loadDatasetFile(file);
+    return { dataset, pool: null, close: async () => {} };
+  }
+  const ports = startNodeWorkers(n);
+  // zlib blocks are inflated by as many threads while the compute workers start.
+  const inflaters = startInflatePool(n);
+  let dataset: Dataset;
+  try {
+    dataset = await loadDatasetFile(file, { inflate: inflaters.inflate });
+  } catch (e) {
+    await Promise.all(ports.map((p) => p.terminate()));
+    throw e;
+  } finally {
+    await inflaters.close();
+  }
+  const pool = await openNodePool(dataset, n, ports);
+  return { dataset: pool.dataset, pool, close: () => pool.close() };
+}

@@ -1,0 +1,173 @@
+/**
+ * A pool of compute workers over one dataset: each worker owns a contiguous share of the cells
+ * (`shares.ts`) of the dataset held in shared memory (`sharedDataset.ts`), runs the single-thread kernels on
+ * it, and the pool merges the partial results (`mergeParts.ts`) into exactly what the single-thread core
+ * gives on the whole dataset (to rounding; in practice bit for bit, as every merge keeps the single-thread order).
+ *
+ * What runs where:
+ *  - cut: each worker cuts its share (its own cell tree over its cells); the merged cut is selected (region
+ *    filters, seeds) and integrated once here by `selectRegion` and `integrateSurface`;
+ *  - line (evenly spaced samples): each worker locates every sample in its cells; the merge applies the
+ *    tie rule. Face-crossing lines run on the whole dataset here (their crossing list spans shares);
+ *  - boundary faces: each worker extracts its share's; the merge cancels faces between shares. The result
+ *    primes the dataset's surface cache, so groups, force totals and probe sets use it.
+ * Platform-neutral: `spawn` gives a port per worker (Node: `nodePool.ts`; browser: the app's compute worker).
+ */
+import type { CutOptions } from '../cut/cutPlane.ts';
+import { integrateSurface } from '../cut/integrals.ts';
+import type { PlaneQuery, PlaneResult } from '../cut/planeIntegrals.ts';
+import { selectRegion } from '../cut/region.ts';
+import type { Vec3 } from '../cut/triangleSet.ts';
+import { totalCells, type Dataset } from '../model/dataset.ts';
+import { probeLine, type LineProbeOptions, type LineProbeResult } from '../locate/lineProbe.ts';
+import type { BoundaryFaces } from '../surface/boundaryFaces.ts';
+import { primeBoundaryFaces } from '../surface/surfaceCache.ts';
+import { mergeBoundary, mergeCuts, mergeLines } from './mergeParts.ts';
+import type { ShareMessage, ShareReply, ShareRequest, WorkerMemory } from './shareHost.ts';
+import type { BoundaryPart, CutPart, LinePart } from './shareTasks.ts';
+import { splitCells, type CellShare } from './shares.ts';
+
+/** The pool's end of one worker. */
+export interface PoolPort {
+  postMessage(message: ShareMessage): void;
+  onMessage(handler: (reply: ShareReply) => void): void;
+  /** Ends the worker. */
+  terminate(): void | Promise<unknown>;
+}
+
+/** Largest pool size accepted from an option or the environment. */
+export const MAX_WORKERS = 256;
+
+/**
+ * Checks a requested worker count (from `--workers`, `FIELDTALLY_WORKERS`, or a setting): a whole number
+ * 1 … 256. `where` names the source for the message.
+ */
+export function checkWorkerCount(n: unknown, where: string): number {
+  const v = typeof n === 'string' && /^\s*\d+\s*$/.test(n) ? Number(n) : n;
+  if (typeof v !== 'number' || !Number.isInteger(v) || v < 1 || v > MAX_WORKERS) {
+    throw new Error(`${where}: expected a whole number of workers from 1 to ${MAX_WORKERS}, got "${String(n)}"`);
+  }
+  return v;
+}
+
+/** One worker and its pending requests. */
+class Lane {
+  private next = 1;
+  private readonly waiting = new Map<number, { resolve: (v: unknown) => void; reject: (e: Error) => void }>();
+  constructor(readonly port: PoolPort) {
+    port.onMessage((r) => {
+      // id −1: the worker itself failed; every pending request fails with its message.
+      if (r.id === -1 && !r.ok) { this.fail(r.error); return; }
+      const w = this.waiting.get(r.id);
+      if (!w) return;
+      this.waiting.delete(r.id);
+      if (r.ok) w.resolve(r.result); else w.reject(new Error(r.error));
+    });
+  }
+  call<T>(req: ShareRequest): Promise<T> {
+    const id = this.next++;
+    return new Promise<T>((resolve, reject) => {
+      this.waiting.set(id, { resolve: resolve as (v: unknown) => void, reject });
+      this.port.postMessage({ ...req, id });
+    });
+  }
+  /** Rejects everything pending (the worker died or the pool closed). */
+  fail(message: string): void {
+    for (const w of this.waiting.values()) w.reject(new Error(message));
+    this.waiting.clear();
+  }
+}
+
+/** A pool of compute workers holding one dataset. Create with `ComputePool.open`. */
+export class ComputePool {
+  private boundaryFaces: Promise<BoundaryFaces> | undefined;
+  private constructor(readonly dataset: Dataset, readonly shares: readonly CellShare[], private readonly lanes: Lane[]) {}
+
+  /**
+   * Starts holding `dataset` (already in shared memory for more than one worker) on the given workers: one
+   * share per port; ports beyond the cell count are ended unused.
+   */
+  static async open(dataset: Dataset, ports: readonly PoolPort[]): Promise<ComputePool> {
+    if (ports.length === 0) throw new Error('worker pool: no workers');
+    const shares = splitCells(totalCells(dataset), ports.length);
+    for (const p of ports.slice(shares.length)) await p.terminate();
+    const lanes = ports.slice(0, shares.length).map((p) => new Lane(p));
+    const pool = new ComputePool(dataset, shares, lanes);
+    await Promise.all(lanes.map((l, i) => l.call({ op: 'hold', dataset, share: shares[i]! })));
+    return pool;
+  }
+
+  /** Number of workers. */
+  get size(): number { return this.lanes.length; }
+
+  private all<T>(req: (i: number) => ShareRequest): Promise<T[]> {
+    return Promise.all(this.lanes.map((l, i) => l.call<T>(req(i))));
+  }
+
+  /** The cut, as `cutPlane` gives it on the whole dataset (units: the file's). */
+  async cutPlane(origin: Vec3, normal: Vec3, options: Partial<CutOptions> = {}) {
+    if (!origin.every(Number.isFinite)) throw new Error(`cutPlane: origin must be three finite numbers, got (${origin.join(', ')})`);
+    const t0 = performance.now();
+    const parts = await this.all<CutPart>(() => ({ op: 'cut', origin, normal, options }));
+    return mergeCuts(parts, origin, normal, performance.now() - t0);
+  }
+
+  /** Cuts, selects the region and integrates: `integratePlane` (planeIntegrals.ts) with the cut done by the workers. */
+  async integratePlane(q: PlaneQuery): Promise<PlaneResult> {
+    const cut = await this.cutPlane(q.origin, q.normal, q.cut);
+    const region = selectRegion(cut, q.region ?? []);
+    const integrals = integrateSurface(region.set, q.integral, region.arcs ?? undefined);
+    if (integrals.empty) {
+      integrals.reason = cut.empty ? 'the plane misses every 3D cell of the mesh' : region.reason ?? integrals.reason;
+    }
+    return { cut, region, integrals };
+  }
+
+  /**
+   * A line probe, as `probeLine` gives it on the whole dataset. Evenly spaced samples are located by the
+   * workers; face-crossing lines run here on the whole dataset (building its cell tree on first use).
+   */
+  async probeLine(from: Vec3, to: Vec3, options: Partial<LineProbeOptions> = {}): Promise<LineProbeResult> {
+    if ((options.mode ?? 'samples') !== 'samples') return probeLine(this.dataset, from, to, options);
+    // The request is checked here, with probeLine's own messages, before any worker starts.
+    validateLine(from, to, options);
+    const samples = options.samples ?? 101;
+    const parts = await this.all<LinePart>(() => ({
+      op: 'line', from, to,
+      options: { samples, ...(options.fields ? { fields: options.fields } : {}), ...(options.tolerance !== undefined ? { tolerance: options.tolerance } : {}) },
+    }));
+    if (parts.every((p) => p.volumeCells === 0)) {
+      throw new Error(`locate: "${this.dataset.source}" holds no volume cells (${totalCells(this.dataset)} surface/line/vertex cells); point location is defined only inside 3D cells`);
+    }
+    return mergeLines(parts, from, to, samples);
+  }
+
+  /** The boundary faces of the whole dataset (default options), extracted by the workers once and cached with the dataset. */
+  boundary(): Promise<BoundaryFaces> {
+    this.boundaryFaces ??= this.all<BoundaryPart>((i) => ({ op: 'boundary', withMerge: i === 0 })).then((parts) => {
+      const b = mergeBoundary(this.dataset, parts);
+      primeBoundaryFaces(this.dataset, b);
+      return b;
+    });
+    return this.boundaryFaces;
+  }
+
+  /** Memory each worker reports (bytes; null where the platform cannot tell). The shared dataset is not in it. */
+  memory(): Promise<(WorkerMemory | null)[]> {
+    return this.all<WorkerMemory | null>(() => ({ op: 'memory' }));
+  }
+
+  /** Ends every worker. */
+  async close(): Promise<void> {
+    for (const l of this.lanes) l.fail('worker pool: closed');
+    await Promise.all(this.lanes.map((l) => l.port.terminate()));
+  }
+}
+
+/** The checks `probeLine` makes before any work, with its messages (evenly spaced samples). */
+function validateLine(from: Vec3, to: Vec3, o: Partial<LineProbeOptions>): void {
+  if (![...from, ...to].every(Number.isFinite)) throw new Error(`line probe: end points must be finite, got ${from.join(',')} → ${to.join(',')}`);
+  if (!(Math.hypot(to[0] - from[0], to[1] - from[1], to[2] - from[2]) > 0)) throw new Error(`line probe: the two end points coincide (${from.join(',')})`);
+  const n = o.samples ?? 101;
+  if (!(Number.isInteger(n) && n >= 2 && n <= 1e7)) throw new Error(`line probe: samples must be an integer from 2 to 10000000, got ${n}`);
+}

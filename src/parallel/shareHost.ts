@@ -1,0 +1,69 @@
+/**
+ * The compute worker's side of the pool: holds the (shared) dataset and its share, and answers the pool's
+ * messages by running `shareTasks.ts` on the share. Platform-neutral: the Node bootstrap
+ * (workers/shareWorker.node.mjs) and the browser entry (workers/share.worker.ts) hand it their port.
+ *
+ * Messages: `{ id, op, args }` in, `{ id, ok: true, result }` or `{ id, ok: false, error }` out. Result arrays
+ * are fresh and go back by transfer; the shared dataset is never transferred.
+ */
+import type { Dataset } from '../model/dataset.ts';
+import { boundaryShare, cutShare, lineShare, type LineShareOptions } from './shareTasks.ts';
+import { shareDataset, type CellShare } from './shares.ts';
+import type { CutOptions } from '../cut/cutPlane.ts';
+import type { Vec3 } from '../cut/triangleSet.ts';
+
+/** The operations a share worker answers, with their arguments. */
+export type ShareRequest =
+  | { op: 'hold'; dataset: Dataset; share: CellShare }
+  | { op: 'cut'; origin: Vec3; normal: Vec3; options: Partial<CutOptions> }
+  | { op: 'line'; from: Vec3; to: Vec3; options: LineShareOptions }
+  | { op: 'boundary'; withMerge: boolean }
+  | { op: 'memory' };
+
+/** A message to a share worker. */
+export type ShareMessage = ShareRequest & { id: number };
+
+/** A reply from a share worker. */
+export type ShareReply = { id: number; ok: true; result: unknown } | { id: number; ok: false; error: string };
+
+/** The minimal port both platforms give: post a message (with a transfer list), and receive messages. */
+export interface SharePort {
+  postMessage(message: ShareReply, transfer: ArrayBuffer[]): void;
+  onMessage(handler: (message: ShareMessage) => void): void;
+}
+
+/** Non-shared array buffers reachable from a result (to transfer, not copy). */
+function transferables(x: unknown, out: Set<ArrayBuffer>, depth = 0): void {
+  if (x === null || typeof x !== 'object' || depth > 6) return;
+  if (ArrayBuffer.isView(x)) { if (x.buffer instanceof ArrayBuffer) out.add(x.buffer); return; }
+  for (const v of Array.isArray(x) ? x : Object.values(x)) transferables(v, out, depth + 1);
+}
+
+/** What a worker reports about its memory (bytes), where the platform can tell: JS heap in use and its own (non-shared) array buffers. */
+export interface WorkerMemory { heapUsed: number; external: number; arrayBuffers: number }
+
+/** Serves the pool's requests on `port` until the worker ends. `memory` reports this worker's memory when the platform can tell. */
+export function serveShares(port: SharePort, memory: () => WorkerMemory | null = () => null): void {
+  let whole: Dataset | undefined, share: Dataset | undefined, range: CellShare | undefined;
+  const run = (m: ShareRequest): unknown => {
+    if (m.op === 'hold') { whole = m.dataset; range = m.share; share = shareDataset(whole, range); return null; }
+    if (m.op === 'memory') return memory();
+    if (!share || !range) throw new Error('worker pool: no dataset is held by this worker');
+    if (m.op === 'cut') return cutShare(share, range, m.origin, m.normal, m.options);
+    if (m.op === 'line') return lineShare(share, range, m.from, m.to, m.options);
+    return boundaryShare(share, range, m.withMerge);
+  };
+  port.onMessage((m) => {
+    let reply: ShareReply, transfer: ArrayBuffer[] = [];
+    try {
+      const result = run(m);
+      const set = new Set<ArrayBuffer>();
+      transferables(result, set);
+      transfer = [...set];
+      reply = { id: m.id, ok: true, result };
+    } catch (e) {
+      reply = { id: m.id, ok: false, error: e instanceof Error ? e.message : String(e) };
+    }
+    port.postMessage(reply, transfer);
+  });
+}
