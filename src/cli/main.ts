@@ -5,6 +5,8 @@
 import { existsSync, readdirSync } from 'node:fs';
 import { dirname, join } from 'node:path';
 import { fileURLToPath } from 'node:url';
+import { oneLineMessage } from '../io/messageText.ts';
+import { ALLOW_LARGE, defaultMemoryLimit, setMemoryLimit } from './memoryLimit.ts';
 import type { Verb, VerbIO } from './verb.ts';
 
 const VERB_DIR = join(dirname(fileURLToPath(import.meta.url)), 'verbs');
@@ -27,13 +29,16 @@ const stdio: VerbIO = {
 
 async function usage(io: VerbIO): Promise<void> {
   const lines = ['usage: fieldtally <verb> [arguments] (fieldtally <verb> --help for details)', '', 'verbs:'];
+  lines.splice(1, 0, `  ${ALLOW_LARGE} (any verb): go ahead with a load or output above the memory limit (by default 3/4 of the machine's memory)`);
   for (const n of verbNames()) lines.push(`  ${n.padEnd(10)} ${(await loadVerb(n))!.summary}`);
   io.out(lines.join('\n'));
 }
 
 /** Runs the command line; returns the process exit code. */
 export async function main(argv: string[], io: VerbIO = stdio): Promise<number> {
-  const [name, ...rest] = argv;
+  const allowLarge = argv.includes(ALLOW_LARGE);
+  const [name, ...rest] = argv.filter((a) => a !== ALLOW_LARGE);
+  setMemoryLimit(allowLarge ? undefined : defaultMemoryLimit());
   if (!name || name === '--help' || name === '-h' || name === 'help') { await usage(io); return name ? 0 : 2; }
   const verb = await loadVerb(name);
   if (!verb) { io.err(`fieldtally: unknown verb "${name}" (known: ${verbNames().join(', ')})`); return 2; }
@@ -41,8 +46,7 @@ export async function main(argv: string[], io: VerbIO = stdio): Promise<number> 
   try {
     return await verb.run(rest, io);
   } catch (e) {
-    const msg = e instanceof Error ? e.message : String(e);
-    io.err(`fieldtally ${name}: ${msg.split('\n')[0]}`);
+    io.err(`fieldtally ${name}: ${oneLineMessage(e)}`);
     if (process.env.FIELDTALLY_DEBUG && e instanceof Error && e.stack) io.err(e.stack);
     return 1;
   }

@@ -8,6 +8,7 @@
 import { parseNumbers, parseSomeNumbers, parsedCount, type NumberSink } from './asciiNumbers.ts';
 import type { ArrayPlan } from './elementConvert.ts';
 import { ELEMENT_SIZE, allocateFor, type ElementType } from './elementTypes.ts';
+import { claimMemory } from './memoryBudget.ts';
 import type { Checkpoint } from './loadOptions.ts';
 import { quoted, type LegacyCursor } from './legacyCursor.ts';
 import { integerRange } from './legacyTypes.ts';
@@ -142,6 +143,7 @@ export async function readValues(cur: LegacyCursor, count: number, type: Element
     return a;
   }
   checkRoom(cur, count, 1, where);
+  claimMemory(count * ELEMENT_SIZE[type], where);
   const out = allocateFor(type, count);
   const range = integerRange(type);
   await readAscii(cur, out, range, `an integer (${type})`, where, cp);

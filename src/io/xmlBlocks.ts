@@ -10,8 +10,9 @@
  *
  * Every size is checked against the bytes really present before anything is allocated.
  */
-import { unzlibSync } from 'fflate';
+import { Unzlib } from 'fflate';
 import { Base64Reader } from './base64.ts';
+import { claimMemory } from './memoryBudget.ts';
 import type { Checkpoint, InflateBlock } from './loadOptions.ts';
 
 /** Sequential bytes of one array: a view into the file (raw) or decoded on demand (base64). */
@@ -112,6 +113,7 @@ export function checkDecodedSize(bytes: number, exp: BlockExpectation, holds: st
 
 /** Allocates a byte buffer, turning an allocation failure into a clear error. */
 function allocate(n: number, where: string): Uint8Array {
+  claimMemory(n, where);
   try {
     return new Uint8Array(n);
   } catch {
@@ -168,8 +170,28 @@ export function blocksShort(compressedTotal: number, available: number, where: s
   return new Error(`${where}: compressed blocks need ${compressedTotal} bytes, only ${available} are left in the file`);
 }
 
-/** fflate's inflate: into `out` when the stream fits, into a new buffer (longer than `out`) when it does not. */
-export const fflateInflate: InflateBlock = (block, out) => unzlibSync(block, { out }).length;
+/** Thrown inside fflate's stream callback to stop a stream that is longer than declared. */
+const OVERFLOW = Symbol('inflates past the declared size');
+
+/**
+ * fflate's inflate, streamed into `out`: a stream longer than `out` stops at the first chunk past its
+ * end (returning a count above `out.length`) instead of being inflated whole, so a zlib bomb costs one
+ * chunk; a shorter one returns its length.
+ */
+export const fflateInflate: InflateBlock = (block, out) => {
+  let got = 0;
+  const z = new Unzlib((chunk) => {
+    if (got + chunk.length > out.length) { got += chunk.length; throw OVERFLOW; }
+    out.set(chunk, got);
+    got += chunk.length;
+  });
+  try {
+    z.push(block, true);
+  } catch (e) {
+    if (e !== OVERFLOW) throw e;
+  }
+  return got;
+};
 
 /** Inflates zlib block `k` of `nb` into all of `target`, with the block's messages. */
 export function inflateInto(block: Uint8Array, target: Uint8Array, k: number, nb: number, where: string, inflate: InflateBlock = fflateInflate): void {
@@ -179,6 +201,7 @@ export function inflateInto(block: Uint8Array, target: Uint8Array, k: number, nb
   } catch (e) {
     throw new Error(`${where}: zlib block ${k} of ${nb} is corrupt (${e instanceof Error ? e.message : String(e)})`);
   }
+  if (got > target.length) throw new Error(`${where}: zlib block ${k} of ${nb} inflates past the ${target.length} bytes its header declares (stopped there)`);
   if (got !== target.length) throw new Error(`${where}: zlib block ${k} of ${nb} inflates to ${got} bytes, the header says ${target.length}`);
 }
 

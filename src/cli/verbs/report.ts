@@ -55,7 +55,10 @@ const report: Verb = {
       return v;
     };
     const width = size('width', 1200), height = size('height', 800);
-    const maxPictures = args.options['no-pictures'] ? 0 : str(args, 'pictures') === undefined ? MAX_PICTURES_DEFAULT : parseNumber(str(args, 'pictures')!, 'pictures');
+    const picturesText = str(args, 'pictures');
+    if (picturesText !== undefined && args.options['no-pictures']) throw new Error('choose one of --pictures and --no-pictures');
+    const maxPictures = args.options['no-pictures'] ? 0 : picturesText === undefined ? MAX_PICTURES_DEFAULT : parseNumber(picturesText, 'pictures');
+    if (!(Number.isInteger(maxPictures) && (maxPictures >= 1 || args.options['no-pictures']))) throw new Error(`--pictures: expected a whole number of pictures, at least 1, got "${picturesText}" (--no-pictures makes none)`);
     const ps = await readProbeSetFile(probesPath);
     if (ps.fromVersion < ps.set.version) io.err(`note: ${basename(probesPath)} is a version ${ps.fromVersion} probe set; it was upgraded on reading (fieldtally probes ${basename(probesPath)} --upgrade new.json writes the current version)`);
     const inputs: InputFileInfo[] = [];
