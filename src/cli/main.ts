@@ -25,6 +25,9 @@ export async function loadVerb(name: string): Promise<Verb | undefined> {
 const stdio: VerbIO = {
   out: (t) => process.stdout.write(t.endsWith('\n') ? t : t + '\n'),
   err: (t) => process.stderr.write(t.endsWith('\n') ? t : t + '\n'),
+  write: async (t) => {
+    if (!process.stdout.write(t)) await new Promise<void>((r) => process.stdout.once('drain', () => r()));
+  },
 };
 
 async function usage(io: VerbIO): Promise<void> {
