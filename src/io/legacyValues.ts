@@ -93,6 +93,11 @@ async function eachTextPiece(cur: LegacyCursor, total: number, where: string, cp
     if (n === 0) {
       // nothing whole in the window: the end of the file, or a word longer than the window
       if (cur.whole) throw parseFailureFrom(cur, start, i, k, total, where);
+      // A long run of blanks is valid text: step over it and read on.
+      let p = start;
+      const b = cur.bytes;
+      while (p < b.length && isSpace(b[p]!)) p++;
+      if (p > start) { cur.pos = p; continue; }
       throw new Error(`${where}: value ${i} (${cur.at(start)}) runs on for more than ${cur.bytes.length - start} bytes, expected a number`);
     }
     take(i, n, start);
