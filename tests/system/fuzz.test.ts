@@ -137,6 +137,8 @@ describe('fuzz campaign', () => {
     expect(badMessages.map((o) => `${basename(o.file)} (${o.label}): ${JSON.stringify(o.err)}`), 'errors that are not one printable line naming the file').toEqual([]);
     const dropped = outcomes.filter((o) => o.kind === 'ok' && o.keepsCounts && JSON.stringify(o.counts) !== JSON.stringify(expected.get(byPath.get(o.file)!)));
     expect(dropped.map((o) => `${basename(o.file)} (${o.label}): ${JSON.stringify(o.counts)} vs ${JSON.stringify(expected.get(byPath.get(o.file)!))}`), 'silently dropped data').toEqual([]);
+    const slowest = outcomes.reduce((a, o) => (o.ms > a.ms ? o : a));
+    console.log(JSON.stringify({ fuzz: { mutants: outcomes.length, refused: outcomes.filter((o) => o.kind === 'error').length, loaded: outcomes.filter((o) => o.kind === 'ok').length, slowestMs: Math.round(slowest.ms), slowest: `${basename(slowest.file)} (${slowest.label})` } }));
     // The campaign exercises both outcomes: most mutants are refused, some still load.
     expect(outcomes.filter((o) => o.kind === 'error').length).toBeGreaterThan(planned.length / 4);
     expect(outcomes.filter((o) => o.kind === 'ok').length).toBeGreaterThan(50);
