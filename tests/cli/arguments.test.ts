@@ -8,6 +8,8 @@ import { resolve } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { checkReferenceScale, parseArgs, parseDirection, parseNumber, parseVec3 } from '../../src/cli/args.ts';
 import { main } from '../../src/cli/main.ts';
+import { DocumentError } from '../../src/study/checkValues.ts';
+import { readProbeSet } from '../../src/study/probeSetFile.ts';
 
 const PIPE = resolve(__dirname, '../../sample-fields/pipe-coarse.vtu');
 
@@ -53,6 +55,20 @@ describe('number parsing', () => {
   it('refuses a switch given a value and an option given twice', () => {
     expect(() => parseArgs(['--json=no'], { json: 'boolean' }, 'info')).toThrow('info: option --json is a switch and takes no value (got "--json=no")');
     expect(() => parseArgs(['--out', 'a', '--out', 'b'], { out: 'string' }, 'report')).toThrow('report: option --out is given twice; give it once');
+  });
+});
+
+describe('probe-set reference values', () => {
+  it('an overflowing ½ρV²A is a problem of the document, like a negative density', () => {
+    const doc = (reference: object) => JSON.stringify({ format: 'fieldtally-probe-set', version: 2, reference, probes: [] });
+    expect(readProbeSet(doc({ density: 1.225, speed: 10, area: 0.5 }), 'ok.json').set.reference).toEqual({ density: 1.225, speed: 10, area: 0.5 });
+    try {
+      readProbeSet(doc({ density: 1e300, speed: 1e300, area: 1 }), 'big.json');
+      throw new Error('expected a DocumentError');
+    } catch (e) {
+      expect(e).toBeInstanceOf(DocumentError);
+      expect((e as DocumentError).issues).toEqual([{ path: 'reference', expected: 'reference values whose ½·ρ·V²·A (and ·L) is finite and non-zero', found: '"½·ρ·V²·A = Infinity"' }]);
+    }
   });
 });
 
