@@ -4,7 +4,10 @@
  * every refusal is one line naming the option. Also the memory limit before a load and the streamed
  * CSV of a long line probe. Files: the committed samples (sample-fields/).
  */
-import { resolve } from 'node:path';
+import { execFileSync } from 'node:child_process';
+import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join, resolve } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { checkReferenceScale, parseArgs, parseDirection, parseNumber, parseVec3 } from '../../src/cli/args.ts';
 import { main } from '../../src/cli/main.ts';
@@ -122,5 +125,31 @@ describe('memory limit', () => {
     expect(rows.length).toBe(25002);
     expect(rows[25001]!.startsWith('0.1,0,0,0.1,')).toBe(true);
     expect(err).toMatch(/Caution:/);
+  });
+});
+
+describe('every verb shares the input guard', () => {
+  it('a named pipe as sensor file, probe set or result file, and /dev/zero as a set piece, are refused by type', async () => {
+    const dir = mkdtempSync(join(tmpdir(), 'fieldtally-guard-'));
+    try {
+      const fifo = join(dir, 'pipe.csv');
+      execFileSync('mkfifo', [fifo]);
+      const set = join(dir, 'zero.pvtu');
+      writeFileSync(set, '<VTKFile type="PUnstructuredGrid"><PUnstructuredGrid><Piece Source="/dev/zero"/></PUnstructuredGrid></VTKFile>');
+      const probes = join(dir, 'set.json');
+      writeFileSync(probes, JSON.stringify({ format: 'fieldtally-probe-set', version: 2, probes: [] }));
+      const cases: [string[], string][] = [
+        [['point', PIPE, '--points', fifo], `fieldtally point: ${fifo}: is a named pipe, expected a regular file\n`],
+        [['report', PIPE, '--probes', fifo, '--out', join(dir, 'r')], `fieldtally report: ${fifo}: is a named pipe, expected a regular file\n`],
+        [['compare', PIPE, set, '--probes', probes], 'fieldtally compare: zero.pvtu: piece file "/dev/zero" is missing or unreadable (/dev/zero: is a character device, expected a regular file)\n'],
+        [['gci', fifo, PIPE, PIPE, '--probes', probes], `fieldtally gci: ${fifo}: is a named pipe, expected a regular file\n`],
+      ];
+      for (const [argv, err] of cases) {
+        const r = await run(...argv);
+        expect([r.code, r.err], argv[0]).toEqual([1, err]);
+      }
+    } finally {
+      rmSync(dir, { recursive: true, force: true });
+    }
   });
 });

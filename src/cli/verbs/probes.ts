@@ -3,7 +3,7 @@
  * probes; every problem is listed with where it is, what was expected and what was found. An older
  * version is upgraded on reading; --upgrade writes it in the current version.
  */
-import { readFileSync } from 'node:fs';
+import { readFileSync, statSync } from 'node:fs';
 import { basename } from 'node:path';
 import { DocumentError } from '../../study/checkValues.ts';
 import { probeLabel, PROBE_SET_VERSION } from '../../study/probeSet.ts';
@@ -27,9 +27,10 @@ function writeUpgrade(input: string, out: string, text: string): void {
   const kind = entryKind(out);
   if (kind === 'link') throw new Error(`${option} ${cutPath(out)}: is a symbolic link; not written through — choose another name`);
   if (kind !== 'none' && kind !== 'file') throw new Error(`${option} ${cutPath(out)}: exists and is not a file`);
+  if (kind === 'file' && statSync(out).size > 64 << 20) throw new Error(`${option} ${cutPath(out)}: exists and is too large to be a probe set; not overwritten — choose another name`);
   if (kind === 'file') {
     let format: unknown;
-    try { format = (JSON.parse(readFileSync(out, 'utf8').slice(0, 64 << 20)) as { format?: unknown }).format; } catch { format = undefined; }
+    try { format = (JSON.parse(readFileSync(out, 'utf8')) as { format?: unknown }).format; } catch { format = undefined; }
     if (format !== 'fieldtally-probe-set') throw new Error(`${option} ${cutPath(out)}: exists and is not a probe set; not overwritten — choose another name`);
   }
   replaceFile(out, new TextEncoder().encode(text), option);
