@@ -6,7 +6,8 @@
  * store writes to a fresh key so the old text stays untouched.
  */
 import type { ProbeSet } from '../study/probeSet.ts';
-import { probeSetFromJson, writeProbeSet } from '../study/probeSetFile.ts';
+import { MAX_PROBE_SET_DEPTH, probeSetFromJson, tooDeepAt, writeProbeSet } from '../study/probeSetFile.ts';
+import { oneLineMessage } from '../io/messageText.ts';
 
 /** What the store needs of `localStorage` (tests pass a map). */
 export interface KeyValueStore {
@@ -37,12 +38,13 @@ export class ProbeSetStore {
     try { raw = this.storage?.getItem(this.key) ?? null; } catch { return { kind: 'none' }; }
     if (raw === null) return { kind: 'none' };
     try {
+      if (tooDeepAt(raw, MAX_PROBE_SET_DEPTH + 1) >= 0) throw new Error(`the stored text nests deeper than ${MAX_PROBE_SET_DEPTH} levels, more than any probe set`);
       const env = JSON.parse(raw) as { savedAt?: unknown; file?: unknown; set?: unknown };
       if (typeof env !== 'object' || env === null || !('set' in env)) throw new Error('the stored text is not a kept probe set ({ savedAt, file, set })');
       const { set, fromVersion } = probeSetFromJson(env.set, 'stored probe set');
       return { kind: 'set', set, fromVersion, savedAt: typeof env.savedAt === 'string' ? env.savedAt : null, file: typeof env.file === 'string' ? env.file : null };
     } catch (e) {
-      const message = (e as Error).message;
+      const message = oneLineMessage(e);
       const aside = `${STORE_KEY}.unreadable.${this.now()}`;
       try {
         this.storage!.setItem(aside, raw);

@@ -9,7 +9,7 @@ import type { RegionSpec } from '../cut/region.ts';
 import type { Dataset } from '../model/dataset.ts';
 import { findField } from '../model/piece.ts';
 import { CAUTION } from '../study/caution.ts';
-import { parseNumber, parseVec3, str, type OptionKind, type ParsedArgs } from './args.ts';
+import { parseDirection, parseNumber, parseVec3, str, type OptionKind, type ParsedArgs } from './args.ts';
 
 export const SIGN_CONVENTION = 'Fluxes (volume-flow rate Q = ∫u·n dA, mass-flow rate ṁ = ∫ρ u·n dA) are positive along the given plane normal n (unit). Mass-flow-weighted means do not depend on the sign of n.';
 export const UNITS_NOTE = 'All values are in the file\'s units (SI files: m, m², m³/s, kg/s, Pa); no unit conversion is done.';
@@ -92,7 +92,7 @@ export function regionSpecs(args: ParsedArgs, prefix = ''): RegionSpec[] {
 export function parsePlane(text: string, option: string): { origin: [number, number, number]; normal: [number, number, number] } {
   const [o, n] = text.split('@');
   if (!o || !n) throw new Error(`--${option}: expected origin@normal as x,y,z@nx,ny,nz, got "${text}"`);
-  return { origin: parseVec3(o, option), normal: parseVec3(n, option) };
+  return { origin: parseVec3(o, option), normal: parseDirection(n, option) };
 }
 
 /** Rounds for JSON: keeps 12 significant digits (the computation is exact to about that on exact fields). */

@@ -5,6 +5,8 @@
 import { existsSync, readdirSync } from 'node:fs';
 import { dirname, join } from 'node:path';
 import { fileURLToPath } from 'node:url';
+import { oneLineMessage } from '../io/messageText.ts';
+import { ALLOW_LARGE, defaultMemoryLimit, setMemoryLimit } from './memoryLimit.ts';
 import type { Verb, VerbIO } from './verb.ts';
 import { toolVersion } from './version.ts';
 
@@ -32,18 +34,24 @@ export async function loadVerb(name: string): Promise<Verb | undefined> {
 const stdio: VerbIO = {
   out: (t) => process.stdout.write(t.endsWith('\n') ? t : t + '\n'),
   err: (t) => process.stderr.write(t.endsWith('\n') ? t : t + '\n'),
+  write: async (t) => {
+    if (!process.stdout.write(t)) await new Promise<void>((r) => process.stdout.once('drain', () => r()));
+  },
 };
 
 async function usage(io: VerbIO): Promise<void> {
   const lines = ['usage: fieldtally <verb> [arguments] (fieldtally <verb> --help for details; fieldtally --version)', '', 'verbs:'];
+  lines.splice(1, 0, `  ${ALLOW_LARGE} (any verb): go ahead with a load or output above the memory limit (by default 3/4 of the machine's memory)`);
   for (const n of verbNames()) lines.push(`  ${n.padEnd(13)} ${(await loadVerb(n))!.summary}`);
   io.out(lines.join('\n'));
 }
 
 /** Runs the command line; returns the process exit code. */
 export async function main(argv: string[], io: VerbIO = stdio): Promise<number> {
-  let [name, ...rest] = argv;
+  const allowLarge = argv.includes(ALLOW_LARGE);
+  let [name, ...rest] = argv.filter((a) => a !== ALLOW_LARGE);
   if (name === '--version' || name === '-V') { io.out(`fieldtally ${toolVersion()}`); return 0; }
+  setMemoryLimit(allowLarge ? undefined : defaultMemoryLimit());
   if (!name || name === '--help' || name === '-h' || name === 'help') { await usage(io); return name ? 0 : 2; }
   if (Object.hasOwn(VERB_ALIASES, name)) {
     io.err(`fieldtally: the verb "${name}" is now "${VERB_ALIASES[name]}"; the old name will be removed in the next version`);
@@ -55,8 +63,7 @@ export async function main(argv: string[], io: VerbIO = stdio): Promise<number> 
   try {
     return await verb.run(rest, io);
   } catch (e) {
-    const msg = e instanceof Error ? e.message : String(e);
-    io.err(`fieldtally ${name}: ${msg.split('\n')[0]}`);
+    io.err(`fieldtally ${name}: ${oneLineMessage(e)}`);
     if (process.env.FIELDTALLY_DEBUG && e instanceof Error && e.stack) io.err(e.stack);
     return 1;
   }

@@ -20,4 +20,18 @@ export interface Verb {
 export interface VerbIO {
   out: (text: string) => void;
   err: (text: string) => void;
+  /**
+   * Writes one part of a large output as it is (no newline added), waiting while the consumer catches up;
+   * when absent, parts go to `out` one by one. Large outputs (millions of samples) are written this way,
+   * never built as one string.
+   */
+  write?: (part: string) => Promise<void>;
+}
+
+/** Writes `parts` in order through `io.write`, or `io.out` when the IO has no `write`. */
+export async function writeParts(io: VerbIO, parts: Iterable<string>): Promise<void> {
+  if (io.write) { for (const p of parts) await io.write(p); return; }
+  let pending = '';
+  for (const p of parts) pending += p;
+  io.out(pending);
 }

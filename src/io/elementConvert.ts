@@ -16,6 +16,7 @@
  */
 import type { NumericArray } from '../model/fieldArray.ts';
 import { ELEMENT_SIZE, allocateFor, type ElementType } from './elementTypes.ts';
+import { claimMemory } from './memoryBudget.ts';
 
 /** What one array's file elements are and what the model makes of them. */
 export interface ArrayPlan {
@@ -83,6 +84,7 @@ export function chunkElements(size: number, chunkBytes: number = SCRATCH_BYTES):
 /** Allocates the final array for `count` file elements (plus `lead` zero slots), with a clear error when memory runs out. */
 export function allocateTarget(plan: ArrayPlan, count: number): NumericArray {
   const n = (plan.lead ?? 0) + count;
+  claimMemory(n * (plan.target === 'values' ? ELEMENT_SIZE[plan.type] : plan.target === 'float64' ? 8 : plan.target === 'ids' ? 4 : 1), plan.where);
   try {
     switch (plan.target) {
       case 'values': return allocateFor(plan.type, n);

@@ -304,11 +304,13 @@ export class LegacyCursor {
     const w = this.peekWord();
     if (w === undefined || w.toUpperCase() !== 'METADATA') return;
     this.word();
+    const where = this.where('METADATA');
     this.line();
     for (;;) {
       const start = this.pos;
       const l = this.line();
-      if (l === undefined || l.trim() === '') return;
+      if (l === undefined) throw new Error(`${where}: the file ends inside the METADATA block; expected a blank line closing it (is the file truncated?)`);
+      if (l.trim() === '') return;
       if (SECTION_START.test(l)) { this.pos = start; return; }
     }
   }

@@ -8,6 +8,7 @@
 import { parseNumbers, parseSomeNumbers, parsedCount, type NumberSink } from './asciiNumbers.ts';
 import type { ArrayPlan } from './elementConvert.ts';
 import { ELEMENT_SIZE, allocateFor, type ElementType } from './elementTypes.ts';
+import { claimMemory } from './memoryBudget.ts';
 import type { Checkpoint } from './loadOptions.ts';
 import { quoted, type LegacyCursor } from './legacyCursor.ts';
 import { integerRange } from './legacyTypes.ts';
@@ -92,6 +93,11 @@ async function eachTextPiece(cur: LegacyCursor, total: number, where: string, cp
     if (n === 0) {
       // nothing whole in the window: the end of the file, or a word longer than the window
       if (cur.whole) throw parseFailureFrom(cur, start, i, k, total, where);
+      // A long run of blanks is valid text: step over it and read on.
+      let p = start;
+      const b = cur.bytes;
+      while (p < b.length && isSpace(b[p]!)) p++;
+      if (p > start) { cur.pos = p; continue; }
       throw new Error(`${where}: value ${i} (${cur.at(start)}) runs on for more than ${cur.bytes.length - start} bytes, expected a number`);
     }
     take(i, n, start);
@@ -142,6 +148,7 @@ export async function readValues(cur: LegacyCursor, count: number, type: Element
     return a;
   }
   checkRoom(cur, count, 1, where);
+  claimMemory(count * ELEMENT_SIZE[type], where);
   const out = allocateFor(type, count);
   const range = integerRange(type);
   await readAscii(cur, out, range, `an integer (${type})`, where, cp);

@@ -55,6 +55,13 @@ export interface LoadOptions {
   pieceShare?: (leaf: number, path: string) => boolean;
   /** zlib inflater for compressed XML arrays. Default: fflate's (pure JavaScript); the Node loader passes node:zlib's. */
   inflate?: InflateBlock;
+  /**
+   * Most bytes the decoded arrays of this load may take (a set's pieces together); an array that would pass it
+   * is refused before it is allocated (see `memoryBudget.ts`). Default: no limit.
+   */
+  memoryLimit?: number;
+  /** How to lift `memoryLimit`, quoted in its message (e.g. the command-line flag). */
+  memoryHint?: string;
 }
 
 /** Throws an AbortError if the signal is aborted. */

@@ -163,6 +163,15 @@ async function readBody(cur: LegacyCursor, opts: LoadOptions): Promise<Dataset> 
     }
     await ctx.cp.at('reading legacy .vtk', cur.base + cur.pos);
   }
+  if (section && section.arrays.length === 0 && section.tuples > 0) {
+    throw new Error(`${name}: the file ends right after ${section.keyword} ${section.tuples}; expected its arrays (is the file truncated?)`);
+  }
+  const nPoints = parts.points ? parts.points.length / 3 : 0;
+  const noCells = header.kind === 'unstructured' ? !parts.cells && !parts.cellTypes : parts.poly.length === 0 && !parts.pointData;
+  if (nPoints > 0 && noCells) {
+    const lists = header.kind === 'unstructured' ? 'CELLS and CELL_TYPES' : 'VERTICES, LINES, POLYGONS or TRIANGLE_STRIPS';
+    warnings.push(`${name}: the file has ${nPoints} points and no cell list (${lists}); if the file was cut short, its cells are missing`);
+  }
   return assemble(name, header.kind, parts, warnings);
 }
 

@@ -52,7 +52,7 @@ function compositeLeaves(el: XmlElement, out: string[]): string[] {
     if (c.name === 'DataSet') {
       const f = c.attrs.get('file');
       if (f) out.push(f);
-    } else {
+    } else if (c.name !== 'FieldData' && c.name !== 'DataAssembly' && c.name !== 'InformationKey') {
       compositeLeaves(c, out);
     }
   }

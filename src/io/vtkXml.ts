@@ -17,6 +17,7 @@ import { readFieldData } from './xmlFields.ts';
 import { scanXmlSource, type XmlInput } from './xmlHead.ts';
 import { readXmlPiece } from './xmlPiece.ts';
 import { child, childrenNamed, type XmlDocument } from './xmlScan.ts';
+import { checkElementNames } from './xmlVocabulary.ts';
 
 const STRUCTURED = new Set(['ImageData', 'RectilinearGrid', 'StructuredGrid', 'PImageData', 'PRectilinearGrid', 'PStructuredGrid']);
 
@@ -39,6 +40,8 @@ export function fileSettings(doc: XmlDocument, name: string) {
   const headerType = root.attrs.get('header_type') ?? 'UInt32';
   if (headerType !== 'UInt32' && headerType !== 'UInt64') throw new Error(`${name}: header_type="${headerType}" is not UInt32 or UInt64`);
   const compressor = root.attrs.get('compressor') || undefined;
+  const body = child(root, type);
+  if (body) checkElementNames(body, name);
   return { type, littleEndian: order === 'LittleEndian', headerType: headerType as 'UInt32' | 'UInt64', compressor };
 }
 

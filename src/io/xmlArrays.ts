@@ -9,7 +9,8 @@ import type { NumericArray } from '../model/fieldArray.ts';
 import { parseNumbers, skipSpace } from './asciiNumbers.ts';
 import { readInto, type ByteSource } from './byteSource.ts';
 import { SCRATCH_BYTES, type ArrayPlan } from './elementConvert.ts';
-import { allocateFor, isElementType, type ElementType } from './elementTypes.ts';
+import { ELEMENT_SIZE, allocateFor, isElementType, type ElementType } from './elementTypes.ts';
+import { claimMemory } from './memoryBudget.ts';
 import type { Checkpoint, InflateBlock } from './loadOptions.ts';
 import { readAppendedArray } from './xmlAppended.ts';
 import { memoryBase64, readBase64Array, sourceBase64, type Base64Input } from './xmlBase64Arrays.ts';
@@ -110,8 +111,9 @@ interface AsciiTarget {
   readonly inPlace: boolean;
 }
 
-function asciiTarget(type: ElementType, count: number, want: Want): AsciiTarget {
+function asciiTarget(type: ElementType, count: number, want: Want, where: string): AsciiTarget {
   const lead = want.target === 'ids' ? want.lead : 0;
+  claimMemory((lead + count) * (want.target === 'ids' ? 4 : want.target === 'float64' ? 8 : ELEMENT_SIZE[type]), where);
   const out = want.target === 'ids' ? new Int32Array(lead + count) : want.target === 'float64' ? new Float64Array(count) : allocateFor(type, count);
   const range = INT_RANGE[type];
   // Straight into the target when it holds doubles (or the file's own floats); through the scratch otherwise.
@@ -156,7 +158,7 @@ async function readAscii(ctx: XmlFileContext, el: XmlElement, type: ElementType,
   else if (count > Math.ceil((end - start) / 2)) {
     throw new Error(`${where}: declares ${count} values, the text holds ${countTokens(bytes, start, end)}`);
   }
-  const t = asciiTarget(type, count, want);
+  const t = asciiTarget(type, count, want, where);
   let pos = start;
   for (let i = 0; i < count; i += ASCII_CHUNK) {
     pos = parseAsciiValues(t, bytes, pos, end, i, Math.min(ASCII_CHUNK, count - i), type, want, where, start, count);
@@ -207,7 +209,7 @@ async function readAsciiFromSource(ctx: XmlFileContext, el: XmlElement, type: El
   let count = expected;
   if (count === undefined) count = await holds();
   else if (count > Math.ceil((end - start) / 2)) throw new Error(`${where}: declares ${count} values, the text holds ${await holds()}`);
-  const t = asciiTarget(type, count, want), n = count;
+  const t = asciiTarget(type, count, want, where), n = count;
   let i = 0, tooMany = false;
   await textWindows(src, start, end, where, async (w, at) => {
     if (tooMany) return;

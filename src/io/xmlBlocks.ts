@@ -10,8 +10,9 @@
  *
  * Every size is checked against the bytes really present before anything is allocated.
  */
-import { unzlibSync } from 'fflate';
+import { Unzlib, unzlibSync } from 'fflate';
 import { Base64Reader } from './base64.ts';
+import { claimMemory } from './memoryBudget.ts';
 import type { Checkpoint, InflateBlock } from './loadOptions.ts';
 
 /** Sequential bytes of one array: a view into the file (raw) or decoded on demand (base64). */
@@ -112,6 +113,7 @@ export function checkDecodedSize(bytes: number, exp: BlockExpectation, holds: st
 
 /** Allocates a byte buffer, turning an allocation failure into a clear error. */
 function allocate(n: number, where: string): Uint8Array {
+  claimMemory(n, where);
   try {
     return new Uint8Array(n);
   } catch {
@@ -168,8 +170,60 @@ export function blocksShort(compressedTotal: number, available: number, where: s
   return new Error(`${where}: compressed blocks need ${compressedTotal} bytes, only ${available} are left in the file`);
 }
 
-/** fflate's inflate: into `out` when the stream fits, into a new buffer (longer than `out`) when it does not. */
-export const fflateInflate: InflateBlock = (block, out) => unzlibSync(block, { out }).length;
+/** Compressed bytes pushed to fflate at a time when streaming (at most about 64 MiB inflated, zlib's ratio being at most 1032). */
+const INFLATE_PIECE = 64 << 10;
+
+/** Thrown inside fflate's stream callback to stop a stream that is longer than declared. */
+const OVERFLOW = Symbol('inflates past the declared size');
+
+/** Adler-32 of `b` (RFC 1950 §8.2), the checksum at the end of every zlib stream. */
+export function adler32(b: Uint8Array): number {
+  let a = 1, s = 0;
+  for (let i = 0; i < b.length;) {
+    const end = Math.min(b.length, i + 5552);
+    for (; i < end; i++) { a += b[i]!; s += a; }
+    a %= 65521; s %= 65521;
+  }
+  return ((s << 16) | a) >>> 0;
+}
+
+/** fflate's stream, fed in pieces and stopped at the first output chunk past `out`'s end; returns the bytes it holds (more than `out.length` when longer). */
+function streamInflate(block: Uint8Array, out: Uint8Array): number {
+  let got = 0;
+  const z = new Unzlib((chunk) => {
+    if (got + chunk.length > out.length) { got += chunk.length; throw OVERFLOW; }
+    out.set(chunk, got);
+    got += chunk.length;
+  });
+  try {
+    for (let at = 0; at < block.length; at += INFLATE_PIECE) z.push(block.subarray(at, at + INFLATE_PIECE), at + INFLATE_PIECE >= block.length);
+  } catch (e) {
+    if (e !== OVERFLOW) throw e;
+  }
+  return got;
+}
+
+/**
+ * fflate's inflate into `out`, returning the bytes the stream holds (a count above `out.length` when it
+ * holds more). A block of up to `INFLATE_PIECE` compressed bytes is inflated in one call (fflate drops
+ * what passes `out`'s end, so at most about 64 MiB of work) and checked by its Adler-32; a larger block,
+ * or one whose checksum differs, is streamed and stopped at the first chunk past the end, so a zlib bomb
+ * is never inflated whole.
+ */
+export const fflateInflate: InflateBlock = (block, out) => {
+  if (block.length <= INFLATE_PIECE && block.length >= 6) {
+    const r = unzlibSync(block, { out });
+    const n = block.length;
+    const sum = ((block[n - 4]! << 24) | (block[n - 3]! << 16) | (block[n - 2]! << 8) | block[n - 1]!) >>> 0;
+    if (r.length === out.length && adler32(out) === sum) return out.length;
+    if (r.length < out.length) return r.length;
+  }
+  const got = streamInflate(block, out);
+  if (got === out.length && adler32(out) !== ((block[block.length - 4]! << 24 | block[block.length - 3]! << 16 | block[block.length - 2]! << 8 | block[block.length - 1]!) >>> 0)) {
+    throw new Error('the Adler-32 checksum does not match the inflated data');
+  }
+  return got;
+};
 
 /** Inflates zlib block `k` of `nb` into all of `target`, with the block's messages. */
 export function inflateInto(block: Uint8Array, target: Uint8Array, k: number, nb: number, where: string, inflate: InflateBlock = fflateInflate): void {
@@ -179,6 +233,7 @@ export function inflateInto(block: Uint8Array, target: Uint8Array, k: number, nb
   } catch (e) {
     throw new Error(`${where}: zlib block ${k} of ${nb} is corrupt (${e instanceof Error ? e.message : String(e)})`);
   }
+  if (got > target.length) throw new Error(`${where}: zlib block ${k} of ${nb} inflates past the ${target.length} bytes its header declares (stopped there)`);
   if (got !== target.length) throw new Error(`${where}: zlib block ${k} of ${nb} inflates to ${got} bytes, the header says ${target.length}`);
 }
 

@@ -8,6 +8,7 @@
  * entities and numeric character references, comments, processing instructions and `<!DOCTYPE …>`.
  * CDATA sections are refused (VTK never writes them).
  */
+import { quoteBytes } from './messageText.ts';
 
 /** One element: name, attributes, children, and the byte range of its trailing text. */
 export interface XmlElement {
@@ -43,6 +44,13 @@ const LT = 60, GT = 62, SLASH = 47, QMARK = 63, BANG = 33, EQ = 61, UNDERSCORE =
 export const isSpace = (c: number) => c === 32 || c === 10 || c === 13 || c === 9;
 const utf8 = new TextDecoder('utf-8');
 const TAIL_SEARCH = 4096;
+
+/**
+ * Limits of the scanner, far above what VTK writes, so a hostile file cannot exhaust memory or the stack:
+ * elements nested deeper than `depth`, more than `elements` in all, a tag or attribute name longer than
+ * `name` bytes, more than `attributes` on one element or an attribute value above `value` bytes.
+ */
+export const XML_LIMITS = { depth: 256, elements: 1_000_000, name: 256, attributes: 256, value: 1 << 20 } as const;
 
 /** Position of the byte sequence `seq` in `bytes` at or after `from`, or −1. */
 export function findBytes(bytes: Uint8Array, seq: Uint8Array, from: number, to = bytes.length): number {
@@ -120,7 +128,9 @@ interface StartTag { el: XmlElement; end: number; selfClosing: boolean }
 function readStartTag(bytes: Uint8Array, lt: number, where: string, s: ScanState): StartTag {
   const n = bytes.length;
   let p = lt + 1;
-  while (p < n && !isSpace(bytes[p]!) && bytes[p] !== GT && bytes[p] !== SLASH) p++;
+  const nameEnd = Math.min(n, lt + 2 + XML_LIMITS.name);
+  while (p < nameEnd && !isSpace(bytes[p]!) && bytes[p] !== GT && bytes[p] !== SLASH) p++;
+  if (p - lt - 1 > XML_LIMITS.name) throw new Error(`${where}: tag name at byte ${lt} is longer than ${XML_LIMITS.name} bytes (starts ${quoteBytes(bytes, lt, 24)}); expected a VTK element name`);
   if (p >= n) throw shortOf(s, where, `inside a tag at byte ${lt}`);
   const name = latin1(bytes, lt + 1, p);
   if (name.length === 0) throw new Error(`${where}: empty tag name at byte ${lt}`);
@@ -142,7 +152,10 @@ function readStartTag(bytes: Uint8Array, lt: number, where: string, s: ScanState
       return { el, end: p + 2, selfClosing: true };
     }
     const a0 = p;
-    while (p < n && !isSpace(bytes[p]!) && bytes[p] !== EQ && bytes[p] !== GT && bytes[p] !== SLASH) p++;
+    if (attrs.size >= XML_LIMITS.attributes) throw new Error(`${where}: <${name}> at byte ${lt} has more than ${XML_LIMITS.attributes} attributes`);
+    const anameEnd = Math.min(n, a0 + XML_LIMITS.name + 1);
+    while (p < anameEnd && !isSpace(bytes[p]!) && bytes[p] !== EQ && bytes[p] !== GT && bytes[p] !== SLASH) p++;
+    if (p - a0 > XML_LIMITS.name) throw new Error(`${where}: an attribute name of <${name}> at byte ${a0} is longer than ${XML_LIMITS.name} bytes (starts ${quoteBytes(bytes, a0, 24)})`);
     const aname = latin1(bytes, a0, p);
     while (p < n && isSpace(bytes[p]!)) p++;
     if (p >= n) throw shortOf(s, where, `inside the <${name}> tag at byte ${lt}`);
@@ -152,7 +165,8 @@ function readStartTag(bytes: Uint8Array, lt: number, where: string, s: ScanState
     if (p >= n) throw shortOf(s, where, `inside the <${name}> tag at byte ${lt}`);
     const q = bytes[p]!;
     if (q !== 34 && q !== 39) throw new Error(`${where}: value of attribute "${aname}" of <${name}> at byte ${p} is not quoted`);
-    const close = bytes.indexOf(q, p + 1);
+    const close = bytes.subarray(0, Math.min(n, p + 2 + XML_LIMITS.value)).indexOf(q, p + 1);
+    if (close < 0 && p + 2 + XML_LIMITS.value <= n) throw new Error(`${where}: the value of attribute "${aname}" of <${name}> at byte ${p} is longer than ${XML_LIMITS.value} bytes`);
     if (close < 0) throw shortOf(s, where, `inside the value of attribute "${aname}" of <${name}> at byte ${p}`);
     attrs.set(aname, decodeEntities(utf8.decode(bytes.subarray(p + 1, close))));
     p = close + 1;
@@ -169,7 +183,7 @@ function appendedStart(bytes: Uint8Array, el: XmlElement, end: number, where: st
   while (p < bytes.length && isSpace(bytes[p]!)) p++;
   if (p >= bytes.length) throw shortOf(s, where, 'right after <AppendedData>');
   if (bytes[p] !== UNDERSCORE) {
-    throw new Error(`${where}: appended data must start with "_", found "${String.fromCharCode(bytes[p]!)}" at byte ${p}`);
+    throw new Error(`${where}: appended data must start with "_", found ${quoteBytes(bytes, p, 1)} at byte ${p}`);
   }
   return { encoding: enc, start: p + 1 };
 }
@@ -206,7 +220,7 @@ interface Scanned { root: XmlElement; appended?: { el: XmlElement; end: number }
 function scan(bytes: Uint8Array, where: string, s: ScanState): Scanned {
   const stack: XmlElement[] = [];
   let root: XmlElement | undefined;
-  let pos = 0;
+  let pos = 0, elements = 0;
   for (;;) {
     const lt = bytes.indexOf(LT, pos);
     if (lt < 0) break;
@@ -241,6 +255,7 @@ function scan(bytes: Uint8Array, where: string, s: ScanState): Scanned {
     if (c === SLASH) {
       const e = bytes.indexOf(GT, lt);
       if (e < 0) throw shortOf(s, where, `inside a closing tag at byte ${lt}`);
+      if (e - lt > XML_LIMITS.name + 8) throw new Error(`${where}: closing tag at byte ${lt} is longer than ${XML_LIMITS.name} bytes (starts ${quoteBytes(bytes, lt, 24)})`);
       const name = latin1(bytes, lt + 2, e).trim();
       const open = stack.pop();
       if (!open) throw new Error(`${where}: closing tag </${name}> at byte ${lt} has no matching start tag`);
@@ -249,6 +264,8 @@ function scan(bytes: Uint8Array, where: string, s: ScanState): Scanned {
       continue;
     }
     const { el, end, selfClosing } = readStartTag(bytes, lt, where, s);
+    if (++elements > XML_LIMITS.elements) throw new Error(`${where}: more than ${XML_LIMITS.elements} XML elements (at byte ${lt}); a VTK file has far fewer`);
+    if (!selfClosing && stack.length >= XML_LIMITS.depth) throw new Error(`${where}: elements nested more than ${XML_LIMITS.depth} deep at byte ${lt} (<${el.name}>); a VTK file nests far less`);
     const parent = stack[stack.length - 1];
     if (parent) parent.children.push(el);
     else if (root) throw new Error(`${where}: a second top-level element <${el.name}> at byte ${lt}`);

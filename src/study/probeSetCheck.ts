@@ -84,6 +84,15 @@ function reference(c: Checks, v: unknown, path: string): void {
   c.optional(o, 'dragDirection', path, (x, p) => c.vec3(x, p, true));
   c.optional(o, 'liftDirection', path, (x, p) => c.vec3(x, p, true));
   c.optional(o, 'momentPoint', path, (x, p) => c.vec3(x, p));
+  // Coefficients divide by ½ρV²A (and ·L for moments): it must neither overflow nor vanish.
+  const { density: rho, speed, area, length } = o as Record<string, unknown>;
+  if ([rho, speed, area].every((x) => typeof x === 'number' && x > 0 && Number.isFinite(x))) {
+    const q = 0.5 * (rho as number) * (speed as number) ** 2 * (area as number);
+    const m = typeof length === 'number' && length > 0 ? q * length : q;
+    if (!(Number.isFinite(m) && Number.isFinite(1 / q) && Number.isFinite(1 / m) && m > 0)) {
+      c.fail(path, 'reference values whose ½·ρ·V²·A (and ·L) is finite and non-zero', `½·ρ·V²·A = ${q}`);
+    }
+  }
 }
 
 function region(c: Checks, v: unknown, path: string): void {

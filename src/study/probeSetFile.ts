@@ -40,9 +40,31 @@ export function probeSetFromJson(doc: unknown, source = 'probe set'): ReadProbeS
   }]);
 }
 
-/** Parses JSON text as a probe set (see `probeSetFromJson`). */
+/** Deepest nesting of arrays and objects a probe set may have (the format itself nests about 6 deep). */
+export const MAX_PROBE_SET_DEPTH = 64;
+
+/** Offset of the first bracket nested deeper than `max` in JSON text (strings skipped), or −1. */
+export function tooDeepAt(text: string, max: number): number {
+  let depth = 0, inString = false;
+  for (let i = 0; i < text.length; i++) {
+    const c = text.charCodeAt(i);
+    if (inString) {
+      if (c === 92) i++; // backslash: skip the escaped character
+      else if (c === 34) inString = false;
+    } else if (c === 34) inString = true;
+    else if (c === 91 || c === 123) { if (++depth > max) return i; }
+    else if (c === 93 || c === 125) depth--;
+  }
+  return -1;
+}
+
+/** Parses JSON text as a probe set (see `probeSetFromJson`); nesting beyond `MAX_PROBE_SET_DEPTH` is refused before parsing. */
 export function readProbeSet(text: string, source = 'probe set'): ReadProbeSet {
   let doc: unknown;
+  const deep = tooDeepAt(text, MAX_PROBE_SET_DEPTH);
+  if (deep >= 0) {
+    throw new DocumentError(source, [{ path: '', expected: `JSON nested at most ${MAX_PROBE_SET_DEPTH} deep`, found: `deeper nesting at ${lineColumn(text, deep)}` }]);
+  }
   try {
     doc = JSON.parse(text);
   } catch (e) {

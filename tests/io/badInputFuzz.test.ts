@@ -10,6 +10,8 @@ import { describe, expect, it } from 'vitest';
 import { readDataset } from '../../src/io/readDataset.ts';
 import { validatePiece } from '../../src/model/validate.ts';
 import { seededRandom as rng } from '../../src/model/seededRandom.ts';
+import { loadReport } from '../../src/model/loadReport.ts';
+import { MUTATION_KINDS, mutants } from '../helpers/fuzzMutants.ts';
 
 const EXTERNAL = resolve(__dirname, '../fixtures/external');
 
@@ -89,6 +91,39 @@ describe('bad input', () => {
         const t0 = performance.now();
         checkOutcome(path, await attempt(path, b), performance.now() - t0, `${rel} mutation ${k} (kind ${kind} at ${at})`);
         expect(process.memoryUsage().arrayBuffers - before).toBeLessThan(64 * 1024 * 1024 + 50 * full.length);
+      }
+    });
+  }
+});
+
+/** Points, cells, pieces and arrays of a load, for the dropped-data check. */
+async function countsOf(path: string, bytes: Uint8Array): Promise<string | Error> {
+  const name = basename(path), folder = dirname(path);
+  try {
+    const r = loadReport(await readDataset(name, bytes, { resolve: async (rel) => new Uint8Array(readFileSync(join(folder, rel))) }));
+    return JSON.stringify([r.points, r.cells, r.pieces, r.pointData.length, r.cellData.length, r.fieldData.length]);
+  } catch (e) {
+    return e as Error;
+  }
+}
+
+// A fast sample of the system suite's campaign (tests/system/fuzz.test.ts): every mutation kind on a few
+// files, in process. Mutations that cannot change the counts must fail or keep them.
+const SAMPLE_FILES = ['vtk-data/ex-blow_5.vtm', 'vtu11/pyramids_3D/raw_compressed.vtu', 'vtu11/pyramids_3D/ascii.vtu', 'vtkio/pygmsh/ascii.vtk', 'vtk-data/cow.vtp']
+  .map((f) => join(EXTERNAL, f));
+
+describe('fuzz sample: one printable line naming the file, nothing silently dropped', () => {
+  for (const path of SAMPLE_FILES) {
+    it(`${relative(EXTERNAL, path)}: ${MUTATION_KINDS.length} mutants, one of each kind`, async () => {
+      const full = new Uint8Array(readFileSync(path));
+      const original = await countsOf(path, full);
+      expect(typeof original).toBe('string');
+      for (const m of mutants(full, 1600 + full.length, MUTATION_KINDS.length)) {
+        const t0 = performance.now();
+        const got = await countsOf(path, m.bytes);
+        checkOutcome(path, got === original || typeof got === 'string' ? 'ok' : got, performance.now() - t0, m.label);
+        if (got instanceof Error) expect(got.message, m.label).toMatch(/^[^\x00-\x1f\x7f]+$/);
+        else if (m.keepsCounts) expect(got, `${m.label}: silently changed the counts`).toBe(original);
       }
     });
   }

@@ -74,7 +74,7 @@ describe('byte sources', () => {
       } finally {
         await s.close();
       }
-      await expect(openFileSource(join(dir, 'nope.vtu'))).rejects.toThrow(/nope\.vtu: cannot read file \(no such file\)/);
+      await expect(openFileSource(join(dir, 'nope.vtu'))).rejects.toThrow(/nope\.vtu: cannot read file \(no such file or folder\)/);
     } finally {
       rmSync(dir, { recursive: true });
     }

@@ -33,6 +33,7 @@ const balance: Verb = {
     const planeText = str(args, 'planes'), surfText = str(args, 'surfaces'), seedText = str(args, 'seeds');
     if (!planeText && !surfText) throw new Error('give --planes and/or --surfaces');
     const planes = (planeText ?? '').split(';').map((s) => s.trim()).filter(Boolean).map((s, i) => parsePlane(s, `planes (item ${i + 1})`));
+    if (planeText !== undefined && planes.length === 0) throw new Error(`--planes: no plane in "${planeText.slice(0, 40)}"; expected "x,y,z@nx,ny,nz; …"`);
     const seeds = seedText ? seedText.split(';').map((s) => s.trim()) : [];
     if (seeds.length && seeds.length !== planes.length) throw new Error(`--seeds: ${seeds.length} seeds for ${planes.length} planes`);
     const dataset = await loadDatasetFile(file);

@@ -3,15 +3,38 @@
  * probes; every problem is listed with where it is, what was expected and what was found. An older
  * version is upgraded on reading; --upgrade writes it in the current version.
  */
-import { existsSync, writeFileSync } from 'node:fs';
+import { readFileSync, statSync } from 'node:fs';
 import { basename } from 'node:path';
 import { DocumentError } from '../../study/checkValues.ts';
 import { probeLabel, PROBE_SET_VERSION } from '../../study/probeSet.ts';
 import { writeProbeSet } from '../../study/probeSetFile.ts';
 import { FLUID_PRESETS, UNIT_CATALOGUE } from '../../study/units.ts';
 import { parseArgs, str } from '../args.ts';
+import { cutPath } from '../../io/messageText.ts';
+import { checkCreatable, entryKind, refuseSpecialFolder, replaceFile, sameFile } from '../safeWrite.ts';
 import { readProbeSetFile } from '../studyInputs.ts';
 import type { Verb } from '../verb.ts';
+
+/**
+ * Writes the upgraded set to `out`: never over the input (by identity, whatever the names), never through
+ * a symbolic link, never over a file that is not a probe set; by way of a temporary file renamed into place.
+ */
+function writeUpgrade(input: string, out: string, text: string): void {
+  const option = '--upgrade';
+  if (sameFile(input, out)) throw new Error(`${option} ${cutPath(out)}: is the input probe set itself; choose another name`);
+  refuseSpecialFolder(out, option);
+  checkCreatable(out, option);
+  const kind = entryKind(out);
+  if (kind === 'link') throw new Error(`${option} ${cutPath(out)}: is a symbolic link; not written through — choose another name`);
+  if (kind !== 'none' && kind !== 'file') throw new Error(`${option} ${cutPath(out)}: exists and is not a file`);
+  if (kind === 'file' && statSync(out).size > 64 << 20) throw new Error(`${option} ${cutPath(out)}: exists and is too large to be a probe set; not overwritten — choose another name`);
+  if (kind === 'file') {
+    let format: unknown;
+    try { format = (JSON.parse(readFileSync(out, 'utf8')) as { format?: unknown }).format; } catch { format = undefined; }
+    if (format !== 'fieldtally-probe-set') throw new Error(`${option} ${cutPath(out)}: exists and is not a probe set; not overwritten — choose another name`);
+  }
+  replaceFile(out, new TextEncoder().encode(text), option);
+}
 
 const checkProbes: Verb = {
   summary: 'check a probe-set file, list its probes, upgrade an older version',
@@ -37,10 +60,7 @@ const checkProbes: Verb = {
       return 1;
     }
     const out = str(args, 'upgrade');
-    if (out !== undefined) {
-      if (existsSync(out) && basename(out) === basename(path)) throw new Error(`--upgrade ${out}: would overwrite the input; choose another name`);
-      writeFileSync(out, writeProbeSet(ps.set));
-    }
+    if (out !== undefined) writeUpgrade(path, out, writeProbeSet(ps.set));
     if (args.options.json) { io.out(writeProbeSet(ps.set)); return 0; }
     io.out([
       `${basename(path)}: probe set version ${ps.fromVersion}${ps.fromVersion < PROBE_SET_VERSION ? ` (upgraded to ${PROBE_SET_VERSION} on reading)` : ''}${ps.set.title ? ` — "${ps.set.title}"` : ''}, ${ps.set.probes.length} probe(s)`,

@@ -4,7 +4,7 @@
  * reverse flow over the cut (or a region of it).
  */
 import { integratePlane } from '../../cut/planeIntegrals.ts';
-import { parseArgs, parseVec3, str } from '../args.ts';
+import { parseArgs, parseDirection, parseVec3, str } from '../args.ts';
 import {
   CAUTION, FIELD_HELP, FIELD_OPTIONS, FIELD_RULE, REGION_HELP, REGION_OPTIONS, SIGN_CONVENTION, UNITS_NOTE,
   footer, integralOptions, integralsJson, integralsTable, num, regionSpecs,
@@ -27,7 +27,7 @@ const cut: Verb = {
     if (!file || args.positional.length > 1) throw new Error('expected one result file: fieldtally cut <file> --origin x,y,z --normal x,y,z');
     const o = str(args, 'origin'), n = str(args, 'normal');
     if (!o || !n) throw new Error('--origin and --normal are required (three numbers each, e.g. --origin 0,0,0.05 --normal 0,0,1)');
-    const origin = parseVec3(o, 'origin'), normal = parseVec3(n, 'normal');
+    const origin = parseVec3(o, 'origin'), normal = parseDirection(n, 'normal');
     const region = regionSpecs(args);
     const input = await loadForCompute(file, args);
     const { dataset, pool } = input;

@@ -8,7 +8,7 @@ import { facesOfGroups, resolveGroups } from '../../surface/surfaceGroups.ts';
 import { surfaceLoads, type LoadOptions } from '../../surface/surfaceLoads.ts';
 import { surfaceQuality } from '../../surface/surfaceQuality.ts';
 import { CAUTION } from '../../study/caution.ts';
-import { parseArgs, parseNumber, parseVec3, str } from '../args.ts';
+import { checkReferenceScale, parseArgs, parseNumber, parsePositive, parseVec3, str } from '../args.ts';
 import type { Verb } from '../verb.ts';
 import { GROUPING_HELP, GROUPING_OPTIONS, fmt, loadSurfaces, vec } from './surfaces.ts';
 import { WORKER_HELP, WORKER_OPTIONS } from '../workerOption.ts';
@@ -55,12 +55,13 @@ const force: Verb = {
     const viscous = str(args, 'viscous') ?? 'auto';
     if (!(VISCOUS as readonly string[]).includes(viscous)) throw new Error(`--viscous: expected one of ${VISCOUS.join(', ')}, got "${viscous}"`);
     const muText = str(args, 'mu');
-    const mu = muText === undefined ? undefined : Number.isFinite(Number(muText)) && muText.trim() !== '' ? Number(muText) : muText;
+    const mu = muText === undefined ? undefined : /^[-+]?(\d|\.\d)/.test(muText.trim()) ? parsePositive(muText, 'mu', 'a dynamic viscosity in Pa·s') : muText;
     const shearSign = num('shear-sign') ?? 1;
     if (shearSign !== 1 && shearSign !== -1) throw new Error(`--shear-sign: expected 1 or -1, got ${shearSign}`);
     const given = [rho, speed, area].filter((x) => x !== undefined).length;
     if (given > 0 && given < 3) throw new Error('coefficients need all of --rho, --speed and --area');
     if (strips !== undefined && !(Number.isInteger(strips) && strips >= 1)) throw new Error(`--strips: expected a whole number ≥ 1, got ${strips}`);
+    if (given === 3) checkReferenceScale({ rho: rho!, speed: speed!, area: area!, ...(length !== undefined ? { length } : {}) });
     const reference: ForceReference | undefined = given === 3 ? { rho: rho!, speed: speed!, area: area!, ...(length !== undefined ? { length } : {}) } : undefined;
 
     const { dataset, faces, groups } = await loadSurfaces(file, args);

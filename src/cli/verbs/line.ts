@@ -3,13 +3,29 @@
  * [--wall-normal [--velocity name] [--edge max|gradient] [--edge-fraction f] [--stream x,y,z]]`:
  * a line probe with statistics along the line and, for a wall-normal line, boundary-layer quantities.
  */
+import type { Dataset } from '../../model/dataset.ts';
 import { boundaryLayer, type BoundaryLayerResult } from '../../locate/boundaryLayer.ts';
 import { LINE_PROBE_DEFAULTS, probeLine, type LineProbeResult } from '../../locate/lineProbe.ts';
 import { lineStats, type LineStats } from '../../locate/lineStats.ts';
 import { CAUTION, CAUTION_CSV_LINE } from '../../study/caution.ts';
 import { parseArgs, parseNumber, parseVec3, str } from '../args.ts';
+import { checkMemory } from '../memoryLimit.ts';
+import { writeParts, type Verb } from '../verb.ts';
 import { loadForCompute, WORKER_HELP, WORKER_OPTIONS } from '../workerOption.ts';
-import type { Verb } from '../verb.ts';
+
+/** Most samples of one line probe (the compute layer's cap). */
+const MAX_LINE_SAMPLES = 10_000_000;
+
+/**
+ * Bytes one sample takes at the peak of a line probe and its output: position, parameter, flags and cell
+ * (45 bytes), 8 per component of every field, and about 20 characters per number of one streamed part
+ * (counted once per sample as a margin, common practice).
+ */
+function lineBytesPerSample(d: Dataset): number {
+  const p = d.pieces[0];
+  const comps = p ? [...p.pointData, ...p.cellData].reduce((s, f) => s + f.components, 0) : 0;
+  return 45 + 8 + 8 * comps + 20;
+}
 
 const UNITS = "values in the file's units; s, x, y, z in the file's length unit; integrals in field unit × length unit";
 
@@ -22,24 +38,55 @@ const fmt = (v: number): string => (!Number.isFinite(v) ? '—' : v === 0 || (Ma
  * `s,x,y,z,valid,` and one column per scalar / component; empty cells where invalid.
  */
 export function lineCsv(r: LineProbeResult, file: string): string {
-  const labels = r.fields.flatMap((f) => f.labels);
-  const cols = r.fields.flatMap((f) => f.columns);
-  const rows = [
-    `# fieldtally line probe; file: ${oneLine(file)}; from (${r.from.join(', ')}) to (${r.to.join(', ')}); ${r.count} samples, ${r.validCount} inside the mesh`,
-    `# Units: ${UNITS}; samples outside the mesh have valid = 0 and empty values`,
-    CAUTION_CSV_LINE,
-    ['s', 'x', 'y', 'z', 'valid', ...labels].join(','),
-  ];
-  for (let i = 0; i < r.count; i++) {
-    const cells = [String(r.s[i]), String(r.x[i]), String(r.y[i]), String(r.z[i]), String(r.valid[i])];
-    for (const c of cols) cells.push(r.valid[i] ? String(c[i]) : '');
-    rows.push(cells.join(','));
-  }
-  return rows.join('\n');
+  return [...lineCsvParts(r, file)].join('').slice(0, -1);
 }
 
 /** A file name fit for one comment line (line breaks in a name would end the comment). */
 const oneLine = (t: string): string => t.replace(/[\r\n]+/g, ' ');
+
+/** Rows written per part of a streamed output. */
+const ROWS_PER_PART = 10_000;
+
+/** The CSV of `lineCsv` in parts of `ROWS_PER_PART` rows, each ending in a newline. */
+export function* lineCsvParts(r: LineProbeResult, file: string): Generator<string> {
+  const labels = r.fields.flatMap((f) => f.labels);
+  const cols = r.fields.flatMap((f) => f.columns);
+  yield [
+    `# fieldtally line probe; file: ${oneLine(file)}; from (${r.from.join(', ')}) to (${r.to.join(', ')}); ${r.count} samples, ${r.validCount} inside the mesh`,
+    `# Units: ${UNITS}; samples outside the mesh have valid = 0 and empty values`,
+    CAUTION_CSV_LINE,
+    ['s', 'x', 'y', 'z', 'valid', ...labels].join(','),
+  ].join('\n') + '\n';
+  for (let from = 0; from < r.count; from += ROWS_PER_PART) {
+    const rows: string[] = [];
+    for (let i = from; i < Math.min(r.count, from + ROWS_PER_PART); i++) {
+      const cells = [String(r.s[i]), String(r.x[i]), String(r.y[i]), String(r.z[i]), String(r.valid[i])];
+      for (const c of cols) cells.push(r.valid[i] ? String(c[i]) : '');
+      rows.push(cells.join(','));
+    }
+    yield rows.join('\n') + '\n';
+  }
+}
+
+/** Marks where the samples go in the JSON text built around them. */
+const SAMPLES_MARK = '@@fieldtally line samples@@';
+
+/** The JSON of `doc` with its `samples` member (columns of numbers) written in parts, never as one string. */
+function* jsonWithSamples(doc: Record<string, unknown>, columns: [string, ArrayLike<number>][]): Generator<string> {
+  const text = JSON.stringify({ ...doc, samples: SAMPLES_MARK }, null, 2);
+  const at = text.indexOf(JSON.stringify(SAMPLES_MARK));
+  yield text.slice(0, at) + '{\n';
+  for (const [k, [name, col]] of columns.entries()) {
+    yield `    ${JSON.stringify(name)}: [`;
+    for (let from = 0; from < col.length; from += ROWS_PER_PART) {
+      const part: string[] = [];
+      for (let i = from; i < Math.min(col.length, from + ROWS_PER_PART); i++) part.push(String(jnum(col[i]!)));
+      yield (from > 0 ? ',' : '') + part.join(',');
+    }
+    yield `]${k < columns.length - 1 ? ',' : ''}\n`;
+  }
+  yield '  }' + text.slice(at + JSON.stringify(SAMPLES_MARK).length) + '\n';
+}
 
 function statsJson(st: LineStats) {
   return {
@@ -96,6 +143,7 @@ const line: Verb = {
     const samplesText = str(args, 'samples');
     if (samplesText !== undefined && args.options.crossings) throw new Error('choose one of --samples and --crossings');
     const samples = samplesText === undefined ? LINE_PROBE_DEFAULTS.samples : parseNumber(samplesText, 'samples');
+    if (!(Number.isInteger(samples) && samples >= 2 && samples <= MAX_LINE_SAMPLES)) throw new Error(`--samples: expected a whole number from 2 to ${MAX_LINE_SAMPLES}, got "${samplesText}"`);
     const tol = str(args, 'tolerance');
     const wall = args.options['wall-normal'] === true;
     const velocity = str(args, 'velocity') ?? 'velocity';
@@ -115,6 +163,7 @@ const line: Verb = {
     const input = await loadForCompute(file, args);
     let r;
     try {
+      if (!args.options.crossings) checkMemory(samples * lineBytesPerSample(input.dataset), `--samples ${samples}: the probe's values and their output`);
       r = input.pool ? await input.pool.probeLine(from, to, lineOptions) : probeLine(input.dataset, from, to, lineOptions);
     } finally {
       await input.close();
@@ -126,21 +175,19 @@ const line: Verb = {
     }) : undefined;
 
     if (args.options.csv) {
-      io.out(lineCsv(r, file));
+      await writeParts(io, lineCsvParts(r, file));
       if (r.outside) io.err('the line lies wholly outside the mesh; no samples');
       return 0;
     }
     if (args.options.json) {
-      const samplesJson: Record<string, (number | null)[]> = {
-        s: Array.from(r.s), x: Array.from(r.x), y: Array.from(r.y), z: Array.from(r.z), valid: Array.from(r.valid), cell: Array.from(r.cell),
-      };
-      for (const fl of r.fields) fl.columns.forEach((c, k) => { samplesJson[fl.labels[k]!] = Array.from(c, jnum); });
-      io.out(JSON.stringify({
+      const columns: [string, ArrayLike<number>][] = [['s', r.s], ['x', r.x], ['y', r.y], ['z', r.z], ['valid', r.valid], ['cell', r.cell]];
+      for (const fl of r.fields) fl.columns.forEach((c, k) => { columns.push([fl.labels[k]!, c]); });
+      await writeParts(io, jsonWithSamples({
         file, from: r.from, to: r.to, length: r.length, mode: r.mode, count: r.count, validCount: r.validCount, outside: r.outside,
         ...(r.outside ? { message: 'the line lies wholly outside the mesh; no samples' } : {}),
-        units: UNITS, samples: samplesJson, stats: statsJson(st), ...(bl ? { boundaryLayer: blJson(bl) } : {}),
+        units: UNITS, samples: null, stats: statsJson(st), ...(bl ? { boundaryLayer: blJson(bl) } : {}),
         caution: CAUTION,
-      }, null, 2));
+      }, columns));
       return 0;
     }
     const out = [

@@ -2,9 +2,8 @@
  * `fieldtally point <file> --at x,y,z | --points sensors.csv [--fields a,b] [--json | --csv]`: field values at
  * one point or at a list of sensor positions.
  */
-import { readFile } from 'node:fs/promises';
 import { basename } from 'node:path';
-import { loadDatasetFile } from '../../io/nodeFiles.ts';
+import { loadDatasetFile, readBytes } from '../../io/nodeFiles.ts';
 import { probePoints, type PointProbeResult } from '../../locate/pointProbe.ts';
 import { parseSensorCsv } from '../../locate/sensorCsv.ts';
 import { CAUTION, CAUTION_CSV_LINE } from '../../study/caution.ts';
@@ -59,10 +58,8 @@ const point: Verb = {
     let points: ArrayLike<number>, labels: string[] | null = null;
     if (at !== undefined) points = parseVec3(at, 'at');
     else {
-      let text: string;
-      try { text = await readFile(list!, 'utf8'); } catch (e) {
-        throw new Error(`${list}: cannot read sensor file (${(e as NodeJS.ErrnoException).code ?? String(e)})`);
-      }
+      // the same guard as every input: a regular file (never a pipe or device), of a bounded size
+      const text = new TextDecoder().decode(await readBytes(list!, 256 << 20));
       const parsed = parseSensorCsv(text, basename(list!));
       points = parsed.points; labels = parsed.labels;
     }

@@ -14,7 +14,7 @@ import { readProbeSet, writeProbeSet } from '../../study/probeSetFile.ts';
 import { reportFolder } from '../../study/reportFolder.ts';
 import type { ReportPicture } from '../../study/reportHtml.ts';
 import { CONVENTIONS, UNITS_STATEMENT, failureLines, resultsText, type FileEvaluation } from '../../study/resultTables.ts';
-import { CAUTION } from '../../ui/caution.ts';
+import { CAUTION } from '../../study/caution.ts';
 import { parseArgs, parseNumber, str } from '../args.ts';
 import { expandInputs } from '../fileGlob.ts';
 import { reportPicture } from '../reportPicture.ts';

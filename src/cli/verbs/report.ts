@@ -14,7 +14,7 @@ import { CAUTION } from '../../study/caution.ts';
 import { parseArgs, parseNumber, str } from '../args.ts';
 import { expandInputs } from '../fileGlob.ts';
 import { reportPicture } from '../reportPicture.ts';
-import { writeReportFolder } from '../reportWriter.ts';
+import { checkReportFolder, writeReportFolder } from '../reportWriter.ts';
 import { loadInput, readProbeSetFile, toolVersion } from '../studyInputs.ts';
 import type { Verb } from '../verb.ts';
 
@@ -55,7 +55,11 @@ const report: Verb = {
       return v;
     };
     const width = size('width', 1200), height = size('height', 800);
-    const maxPictures = args.options['no-pictures'] ? 0 : str(args, 'pictures') === undefined ? MAX_PICTURES_DEFAULT : parseNumber(str(args, 'pictures')!, 'pictures');
+    const picturesText = str(args, 'pictures');
+    if (picturesText !== undefined && args.options['no-pictures']) throw new Error('choose one of --pictures and --no-pictures');
+    const maxPictures = args.options['no-pictures'] ? 0 : picturesText === undefined ? MAX_PICTURES_DEFAULT : parseNumber(picturesText, 'pictures');
+    if (!(Number.isInteger(maxPictures) && (maxPictures >= 1 || args.options['no-pictures']))) throw new Error(`--pictures: expected a whole number of pictures, at least 1, got "${picturesText}" (--no-pictures makes none)`);
+    checkReportFolder(out, { inputs: [probesPath, ...files] });
     const ps = await readProbeSetFile(probesPath);
     if (ps.fromVersion < ps.set.version) io.err(`note: ${basename(probesPath)} is a version ${ps.fromVersion} probe set; it was upgraded on reading (fieldtally probes ${basename(probesPath)} --upgrade new.json writes the current version)`);
     const inputs: InputFileInfo[] = [];
@@ -75,7 +79,7 @@ const report: Verb = {
     const written = writeReportFolder(out, reportFolder({
       title, tool: 'fieldtally', version: toolVersion(), createdAt: new Date().toISOString(), caution: CAUTION,
       probeSet: ps.set, probeSetText: writeProbeSet(ps.set), inputs, files: evaluations, pictures, conventions: [...CONVENTIONS],
-    }));
+    }), { inputs: [probesPath, ...files] });
     io.out([...resultsText(evaluations), `report written: ${written.length} files in ${out} (open report.html)`, '', UNITS_STATEMENT, `Caution: ${CAUTION}`].join('\n'));
     const failures = failureLines(evaluations);
     if (failures.length) {

@@ -48,7 +48,7 @@ describe('fieldtally report', () => {
     expect(r.code).toBe(3);
     expect(r.err).toMatch(/2 probe evaluations failed:\n {2}.*pipe-medium\.vtu: Bead \[bead\] — no surface group "group 1"/);
     expect(r.err).toMatch(/sphere-stokes-celldata\.vtu: Mid station \[mid\] — cut-plane: the plane misses every 3D cell of the mesh/);
-    expect(readdirSync(out).sort()).toEqual(['probe-set.json', 'report.html', 'results-long.csv', 'results.csv', 'results.json', 'view-1.png', 'view-2.png']);
+    expect(readdirSync(out).sort()).toEqual(['.fieldtally-report.json', 'probe-set.json', 'report.html', 'results-long.csv', 'results.csv', 'results.json', 'view-1.png', 'view-2.png']);
     const res = JSON.parse(readFileSync(join(out, 'results.json'), 'utf8')) as Results;
     expect(res.failed).toBe(2);
 
@@ -140,7 +140,7 @@ describe('fieldtally report', () => {
     writeFileSync(join(busy, 'notes.txt'), 'mine');
     const good = setFile('good.json', { format: 'fieldtally-probe-set', version: 2, probes: [] });
     const b = await run('report', PIPE, '--probes', good, '--out', busy);
-    expect(b.err).toMatch(/--out .*busy: the folder is not empty and holds no report; choose a new or empty folder/);
+    expect(b.err).toMatch(/--out .*busy: the folder is not empty and is not a report folder of fieldtally; choose a new or empty folder/);
     expect(readdirSync(busy)).toEqual(['notes.txt']);
   });
 });
