@@ -70,7 +70,9 @@ export function historySvg(o: HistoryPlotOptions): string {
   const yt = axisTicks(vmin, vmax, 5);
   const sx = scale(xt, o.time[0]!, o.time[n - 1]!, frame.x0, frame.x1);
   const sy = scale(yt, vmin, vmax, frame.y1, frame.y0);
-  const parts: string[] = [open(frame, o.title ?? o.quantity)];
+  // the time axis mapping, for a chart that turns a drag into a window
+  const xMap = `data-x-pixels="${frame.x0} ${frame.x1}" data-x-range="${o.time[0]!} ${o.time[n - 1]!}"`;
+  const parts: string[] = [open(frame, o.title ?? o.quantity, xMap)];
   parts.push(grid(frame, xt, yt, sx, sy));
   if (o.window) {
     const a = Math.max(sx(o.window.from), frame.x0), b = Math.min(sx(o.window.to), frame.x1);
@@ -125,6 +127,13 @@ function makeFrame(width = PLOT_DEFAULTS.width, height = PLOT_DEFAULTS.height): 
   return { width: w, height: h, x0: MARGIN.left, x1: w - MARGIN.right, y0: MARGIN.top, y1: h - MARGIN.bottom };
 }
 
+/** Time at pixel x (svg user units) of a history plot, from its root attributes `data-x-pixels` and `data-x-range`. */
+export function plotTimeOfPixel(svgAttrs: { pixels: string; range: string }, x: number): number {
+  const [p0, p1] = svgAttrs.pixels.split(' ').map(Number) as [number, number];
+  const [t0, t1] = svgAttrs.range.split(' ').map(Number) as [number, number];
+  return t0 + ((x - p0) / (p1 - p0)) * (t1 - t0);
+}
+
 /** Linear map from data to pixels over the union of the data range and the ticks. */
 function scale(t: AxisTicks, lo: number, hi: number, p0: number, p1: number): (v: number) => number {
   const a = Math.min(lo, t.values[0] ?? lo), b = Math.max(hi, t.values[t.values.length - 1] ?? hi);
@@ -132,8 +141,8 @@ function scale(t: AxisTicks, lo: number, hi: number, p0: number, p1: number): (v
   return (v) => p0 + ((v - a) / span) * (p1 - p0);
 }
 
-function open(fr: Frame, title: string): string {
-  return `<svg xmlns="http://www.w3.org/2000/svg" width="${fr.width}" height="${fr.height}" viewBox="0 0 ${fr.width} ${fr.height}" font-family="sans-serif" font-size="${PLOT_DEFAULTS.fontSize}">\n`
+function open(fr: Frame, title: string, extra = ''): string {
+  return `<svg xmlns="http://www.w3.org/2000/svg" width="${fr.width}" height="${fr.height}" viewBox="0 0 ${fr.width} ${fr.height}" font-family="sans-serif" font-size="${PLOT_DEFAULTS.fontSize}"${extra ? ' ' + extra : ''}>\n`
     + `<rect width="${fr.width}" height="${fr.height}" fill="#fff"/>\n`
     + `<text class="title" x="${fr.x0}" y="${fr.y0 - 10}" font-weight="bold" fill="${COLOURS.text}">${esc(title)}</text>`;
 }

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { historySvg, spectrumSvg } from '../../src/study/historyPlot.ts';
+import { historySvg, plotTimeOfPixel, spectrumSvg } from '../../src/study/historyPlot.ts';
 import { dominantFrequency } from '../../src/stats/spectrum.ts';
 
 /** Tags of an SVG string balanced (a minimal well-formedness check: every open tag closed, in order). */
@@ -62,6 +62,14 @@ describe('history plot', () => {
     expect(d.split('L').length).toBeLessThanOrEqual(4 * 628 + 1);
     const ys = [...d.matchAll(/[ML][\d.]+ ([\d.]+)/g)].map((m) => Number(m[1]));
     expect(Math.min(...ys)).toBeCloseTo(30, 0); // top of the frame: the spike is the maximum
+  });
+
+  it('states its time-axis mapping on the root, so a drag in the app turns into times', () => {
+    const svg = historySvg({ time, values, quantity: 'q', unit: '', width: 500 });
+    const pixels = /data-x-pixels="([^"]+)"/.exec(svg)![1]!, range = /data-x-range="([^"]+)"/.exec(svg)![1]!;
+    expect(pixels).toBe('74 482');
+    expect(range).toBe('0 2');
+    expect(plotTimeOfPixel({ pixels, range }, 74 + 408 * 0.75)).toBeCloseTo(1.5, 12);
   });
 
   it('escapes text and refuses mismatched arrays', () => {
