@@ -53,6 +53,11 @@ export function detectTransientEnd(time: Float64Array, values: Float64Array, lab
     for (let i = j * batch; i < (j + 1) * batch; i++) s += valueAt(time, values, i === n - 1 ? time[n - 1]! : t0 + i * step);
     y[j] = s / batch;
   }
+  // centred first: a large offset (a pressure near 101 325 Pa) would swamp the sums of squares
+  let centre = 0;
+  for (let j = 0; j < b; j++) centre += y[j]!;
+  centre /= b;
+  for (let j = 0; j < b; j++) y[j] = y[j]! - centre;
   // suffix sums give Σ(Y − Ȳ_d)² for every d in one backward pass
   const limit = Math.floor(b / 2);
   let s1 = 0, s2 = 0, best = Infinity, bestD = 0;

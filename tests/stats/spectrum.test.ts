@@ -100,3 +100,13 @@ describe('Strouhal number', () => {
     expect(() => strouhalNumber(NaN, 1, 1)).toThrow(/frequency NaN/);
   });
 });
+
+describe('spectrum on large offsets of time and value', () => {
+  it('a 10⁻³ Pa tone on 101 325 Pa at times near 10⁴ s is found to the same precision', () => {
+    const t = jitteredTimes(500, 2e-3, 0.5, 31, 1e4);
+    const x = t.map((s) => 101325 + 1e-3 * Math.cos(TWO_PI * 37.5 * (s - 1e4) + 1));
+    const r = dominantFrequency(t, x)!;
+    expect(Math.abs(r.frequency - 37.5) / r.resolution).toBeLessThan(1e-3);
+    expect(r.amplitude / 1e-3).toBeCloseTo(1, 4);
+  });
+});

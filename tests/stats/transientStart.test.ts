@@ -72,3 +72,16 @@ describe('initial transient by MSER-5 (White 1997)', () => {
       .toThrow('transient detection of lift.Fy [N]: time[2] = 1 does not follow time[1] = 1; expected strictly increasing times');
   });
 });
+
+describe('MSER-5 on a large offset', () => {
+  it('finds the same cut on 101 325 Pa + small fluctuations as on the fluctuations alone', () => {
+    // an absolute pressure: 10⁻³ Pa noise on 101 325 Pa, with a 5·10⁻³ Pa start-up offset for 200 samples
+    const n = 1000, g = seededNormal(12);
+    const t = Float64Array.from({ length: n }, (_, i) => i * 1e-3 + 1e4);
+    const fluct = t.map((_, i) => (i < 200 ? 5e-3 : 0) + 1e-3 * g());
+    const r0 = detectTransientEnd(t, fluct);
+    const r1 = detectTransientEnd(t, fluct.map((v) => 101325 + v));
+    expect(r0.index).toBe(200);
+    expect(r1.index).toBe(200);
+  });
+});

@@ -171,3 +171,25 @@ describe('window statistics: bad input', () => {
     expect(() => windowStatistics(t, x, 5, 2)).toThrow(/does not overlap/);
   });
 });
+
+describe('window statistics on a large offset and tiny windows', () => {
+  it('101 325 Pa + an AR(1) fluctuation of 10⁻³ Pa: the same spread and uncertainty as the fluctuation alone', () => {
+    const n = 4000;
+    const t = Float64Array.from({ length: n }, (_, i) => 5e3 + i * 1e-3);
+    const x = ar1(n, 0.8, 1e-3, 77);
+    const a = windowStatistics(t, x), b = windowStatistics(t, x.map((v) => 101325 + v));
+    expect(b.mean - 101325).toBeCloseTo(a.mean, 9);
+    expect(b.rmsFluctuation / a.rmsFluctuation).toBeCloseTo(1, 6);
+    expect(b.meanUncertainty.standardError / a.meanUncertainty.standardError).toBeCloseTo(1, 4);
+    expect(b.meanUncertainty.integralTime / a.meanUncertainty.integralTime).toBeCloseTo(1, 4);
+  });
+
+  it('three samples: statistics with the effective-sample method and one degree of freedom at least', () => {
+    const w = windowStatistics(Float64Array.from([0, 1, 3]), Float64Array.from([1, 2, 0]));
+    // trapezoid: (1.5·1 + 1·2)/3 = 7/6 (C)
+    expect(w.mean).toBeCloseTo(7 / 6, 14);
+    expect(w.meanUncertainty.kind).toBe('integral-time');
+    expect(w.meanUncertainty.degreesOfFreedom).toBeGreaterThanOrEqual(1);
+    expect(Number.isFinite(w.meanUncertainty.halfWidth95)).toBe(true);
+  });
+});
