@@ -99,7 +99,7 @@ describe('the vortex cell series', () => {
     const h = L / O.cells;
     let trap = 0;
     for (let j = 0; j <= 4; j++) trap += (j === 0 || j === 4 ? 0.5 : 1) * Math.cos(k * j * h) * h;
-    times.forEach((s, i) => {
+    times.forEach((_s, i) => {
       expect(Q[i]! / ((U * H / k) * decayV[i]!)).toBeCloseTo(1, 1);
       expect(Math.abs(Q[i]! / ((U * H / k) * decayV[i]!) - 1)).toBeLessThan(0.014);
       expect(Q[i]).toBeCloseTo(U * H * trap * decayV[i]!, 17);
@@ -109,11 +109,11 @@ describe('the vortex cell series', () => {
     // pressure force of the fluid on the side x = 0 (outward normal −x): F_x = −∫p dA = −(ρU²/4)·L·H·e^{−4νk²t}
     // (∫(1 + cos 2ky) dy over a period = L; the face rule is exact for it on a uniform period)
     const F = col(t, 'side.force.x [N]');
-    times.forEach((s, i) => expect(F[i]! / (-q * L * H * decayP[i]!)).toBeCloseTo(1, 12));
+    times.forEach((_s, i) => expect(F[i]! / (-q * L * H * decayP[i]!)).toBeCloseTo(1, 12));
 
     // mean pressure along x = L/4: (ρU²/4)(cos π + mean of cos 2ky) = −ρU²/4 · e^{−4νk²t}; within 1 %
     const pm = col(t, 'traverse.p.mean [Pa]');
-    times.forEach((s, i) => {
+    times.forEach((_s, i) => {
       expect(Math.abs(pm[i]! / (-q * decayP[i]!) - 1)).toBeLessThan(0.01);
       expect(pm[i]! / pm[0]!).toBeCloseTo(decayP[i]!, 12);
     });
