@@ -49,8 +49,8 @@ export function checkIncreasingTimes(index: SeriesIndex): void {
   for (let i = 0; i < st.length; i++) {
     if (!Number.isFinite(st[i]!.time)) throw new Error(`${st[i]!.where}: step time ${st[i]!.time} is not a finite number`);
     if (i > 0 && !(st[i]!.time > st[i - 1]!.time)) {
-      const what = st[i]!.time === st[i - 1]!.time ? 'the same time' : 'an earlier time';
-      throw new Error(`${index.name}: ${st[i]!.where} has ${what} (${st[i]!.time}) than ${st[i - 1]!.where} (${st[i - 1]!.time}); step times must increase strictly`);
+      const what = st[i]!.time === st[i - 1]!.time ? 'the same as' : 'earlier than';
+      throw new Error(`${index.name}: ${st[i]!.where} has time ${st[i]!.time}, ${what} ${st[i - 1]!.where} (${st[i - 1]!.time}); step times must increase strictly`);
     }
   }
 }
