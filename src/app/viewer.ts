@@ -210,10 +210,11 @@ export class Viewer {
 
   /**
    * Shows another step of an open series: `read` makes the worker hold the step (progress as in a load);
-   * the camera, the colouring field and range settings and the probes stay (the tools re-evaluate them).
-   * A newer load or step supersedes this one. Rejects with the worker's error (the previous step stays).
+   * the camera, the colouring field and range settings and the probes stay (the tools re-evaluate them);
+   * `keepView` false (the first step of a series) frames it like a newly opened file. A newer load or step
+   * supersedes this one. Rejects with the worker's error (the previous step stays).
    */
-  async showStep(read: (onProgress: (p: { stage: string; bytesDone: number; bytesTotal: number }) => void) => Promise<Description>, request: LoadRequest): Promise<boolean> {
+  async showStep(read: (onProgress: (p: { stage: string; bytesDone: number; bytesTotal: number }) => void) => Promise<Description>, request: LoadRequest, keepView = true): Promise<boolean> {
     const gen = ++this.loadGeneration;
     const current = () => gen === this.loadGeneration;
     const onProgress = Comlink.proxy((p: { stage: string; bytesDone: number; bytesTotal: number }) => {
@@ -225,7 +226,7 @@ export class Viewer {
       const drawing = await this.track(this.compute.surface());
       if (!current()) return false;
       this.openRequest = request;
-      this.install(d, drawing, true);
+      this.install(d, drawing, keepView);
       document.body.dataset['state'] = 'ready';
       return true;
     } finally {
