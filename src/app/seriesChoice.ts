@@ -21,8 +21,9 @@ export interface SeriesChoice {
 const pathOf = (f: File): string => f.webkitRelativePath || f.name;
 
 /**
- * The series among `files`, or null when they are one result (a single file, or one set with its pieces).
- * Throws the series code's one-line error when the step files do not form one numbered sequence.
+ * The series among `files`, or null when they are one result (a single file, one set with its pieces, or
+ * a folder of several sets that are not numbered steps). Throws the series code's one-line error when
+ * result files do not form one numbered sequence.
  */
 export function seriesChoiceFor(files: readonly File[]): SeriesChoice | null {
   const inputs: InputFile[] = files.map((f) => ({ path: pathOf(f), data: f }));
@@ -37,7 +38,14 @@ export function seriesChoiceFor(files: readonly File[]): SeriesChoice | null {
   // one set file with its pieces is one result; so is a single file
   const sets = candidates.filter((p) => /\.(pvtu|pvtp|vtm)$/i.test(p));
   if (sets.length === 1 || (sets.length === 0 && candidates.length < 2)) return null;
-  const steps = stepFilesOfFolder(candidates, folder || `${candidates.length} chosen files`);
+  let steps: string[];
+  try {
+    steps = stepFilesOfFolder(candidates, folder || `${candidates.length} chosen files`);
+  } catch (e) {
+    // a folder of several unrelated sets opens its shallowest set, as before series existed
+    if (sets.length >= 2) return null;
+    throw e;
+  }
   if (steps.length < 2) return null;
   return { name: folder || steps[0]!.split('/').pop()!, steps, files: inputs };
 }

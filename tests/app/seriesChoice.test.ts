@@ -32,6 +32,8 @@ describe('series among the chosen files', () => {
   it('one file, or one set with its pieces, is not a series', () => {
     expect(seriesChoiceFor(files('a.vtu'))).toBeNull();
     expect(seriesChoiceFor(files('set.pvtu', 'set_0.vtu', 'set_1.vtu'))).toBeNull();
+    // several sets that are not numbered steps: the single-result path opens the shallowest, as before
+    expect(seriesChoiceFor(files('d/main.vtm', 'd/other.pvtu', 'd/main/p_0.vtu'))).toBeNull();
   });
 
   it('files of two sequences, or two collections, are refused with the names', () => {
