@@ -6,7 +6,7 @@
  */
 import { dominantFrequency, strouhalNumber, type DominantFrequency } from './spectrum.ts';
 import { detectTransientEnd, type TransientEnd } from './transientStart.ts';
-import { windowStatistics, type WindowStats } from './windowStats.ts';
+import { MIN_WINDOW_SAMPLES, windowStatistics, type WindowStats } from './windowStats.ts';
 
 /** Options of `summarizeHistory`; every field optional. */
 export interface HistorySummaryOptions {
@@ -32,17 +32,29 @@ export interface HistorySummary {
   spectrum: DominantFrequency | null;
   /** St = f·L/U of the dominant tone (dimensionless), when reference length and speed were given. */
   strouhal: number | null;
+  /** Present when the window had to differ from the detection (too few samples after it). */
+  windowNote?: string;
 }
 
 /** Transient, statistics and spectrum of one history; throws a one-line error on invalid input. */
 export function summarizeHistory(time: Float64Array, values: Float64Array, o: HistorySummaryOptions = {}): HistorySummary {
   const label = o.label ?? 'history';
   const transient = detectTransientEnd(time, values, label);
-  const from = o.from ?? transient.time;
+  let from = o.from ?? transient.time, windowNote: string | undefined;
+  // a record with no steady part can leave too few samples after the detected end (uneven steps make it worse)
+  const last = Math.min(o.to ?? Infinity, time[time.length - 1]!);
+  let after = 0;
+  for (let i = 0; i < time.length; i++) if (time[i]! >= from && time[i]! <= last) after++;
+  if (o.from === undefined && after < MIN_WINDOW_SAMPLES && time.length >= MIN_WINDOW_SAMPLES) {
+    let k = time.length - 1;
+    while (k > 0 && time[k]! > last) k--;
+    from = time[Math.max(0, k - MIN_WINDOW_SAMPLES + 1)]!;
+    windowNote = `the detected transient end (${transient.time}) leaves fewer than ${MIN_WINDOW_SAMPLES} samples: the window starts at ${from} instead`;
+  }
   const stats = windowStatistics(time, values, from, o.to, label);
   const spectrum = dominantFrequency(time, values, stats.from, stats.to, label);
   const strouhal = spectrum && o.referenceLength !== undefined && o.referenceSpeed !== undefined
     ? strouhalNumber(spectrum.frequency, o.referenceLength, o.referenceSpeed)
     : null;
-  return { transient, windowSource: o.from === undefined ? 'transient-detection' : 'user', stats, spectrum, strouhal };
+  return { transient, windowSource: o.from === undefined ? 'transient-detection' : 'user', stats, spectrum, strouhal, ...(windowNote ? { windowNote } : {}) };
 }

@@ -19,8 +19,10 @@ export interface HistoryPlotOptions {
   /** Times (time unit) and values (value unit), same length, time increasing. */
   time: Float64Array;
   values: Float64Array;
-  /** Quantity name for the value axis, e.g. `drag.Fx`. */
+  /** Quantity name, e.g. `drag.Fx`: the heading, and the value axis unless `axisName` is given. */
   quantity: string;
+  /** Short name for the value axis (e.g. the symbol `Q`); default: the quantity. */
+  axisName?: string;
   /** Unit of the values, e.g. `N` ('' for none). */
   unit: string;
   /** Unit of time (default `s`). */
@@ -62,10 +64,8 @@ export function historySvg(o: HistoryPlotOptions): string {
   const frame = makeFrame(o.width, o.height);
   let vmin = Infinity, vmax = -Infinity;
   for (let i = 0; i < n; i++) { vmin = Math.min(vmin, o.values[i]!); vmax = Math.max(vmax, o.values[i]!); }
-  if (o.mean !== undefined && Number.isFinite(o.mean)) {
-    const h = Number.isFinite(o.halfWidth95) ? o.halfWidth95! : 0;
-    vmin = Math.min(vmin, o.mean - h); vmax = Math.max(vmax, o.mean + h);
-  }
+  // the mean stays in view; a wide band is clipped to the frame rather than squashing the history
+  if (o.mean !== undefined && Number.isFinite(o.mean)) { vmin = Math.min(vmin, o.mean); vmax = Math.max(vmax, o.mean); }
   const xt = axisTicks(o.time[0]!, o.time[n - 1]!, 7);
   const yt = axisTicks(vmin, vmax, 5);
   const sx = scale(xt, o.time[0]!, o.time[n - 1]!, frame.x0, frame.x1);
@@ -86,10 +86,13 @@ export function historySvg(o: HistoryPlotOptions): string {
   if (o.mean !== undefined && Number.isFinite(o.mean)) {
     const a = o.window ? Math.max(sx(o.window.from), frame.x0) : frame.x0, b = o.window ? Math.min(sx(o.window.to), frame.x1) : frame.x1;
     const h = Number.isFinite(o.halfWidth95) ? o.halfWidth95! : 0;
-    if (h > 0) parts.push(`<rect class="band" x="${f(a)}" y="${f(sy(o.mean + h))}" width="${f(b - a)}" height="${f(Math.max(sy(o.mean - h) - sy(o.mean + h), 0.5))}" fill="${COLOURS.mean}" fill-opacity="0.16"/>`);
+    if (h > 0) {
+      const top = Math.max(sy(o.mean + h), frame.y0), bottom = Math.min(sy(o.mean - h), frame.y1);
+      parts.push(`<rect class="band" x="${f(a)}" y="${f(top)}" width="${f(b - a)}" height="${f(Math.max(bottom - top, 0.5))}" fill="${COLOURS.mean}" fill-opacity="0.16"/>`);
+    }
     parts.push(`<line class="mean" x1="${f(a)}" y1="${f(sy(o.mean))}" x2="${f(b)}" y2="${f(sy(o.mean))}" stroke="${COLOURS.mean}" stroke-width="1.5" stroke-dasharray="6 3"/>`);
   }
-  parts.push(axes(frame, xt, yt, sx, sy, axisTitle('time', o.timeUnit ?? 's', xt), axisTitle(o.quantity, o.unit, yt)));
+  parts.push(axes(frame, xt, yt, sx, sy, axisTitle('time', o.timeUnit ?? 's', xt), axisTitle(o.axisName ?? o.quantity, o.unit, yt)));
   parts.push('</svg>');
   return parts.join('\n');
 }

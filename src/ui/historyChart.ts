@@ -15,6 +15,8 @@ export interface HistoryColumn {
   key: string;
   label: string;
   unit: string;
+  /** Short name for the plot's value axis (a symbol such as `Q`); default: the label. */
+  symbol?: string;
 }
 
 export interface HistoryChartEvents {
@@ -22,6 +24,8 @@ export interface HistoryChartEvents {
   onCompute: (column: HistoryColumn) => void;
   /** Stop the computation under way. */
   onCancel: () => void;
+  /** Another column was chosen (its history may already be at hand). */
+  onColumn: (column: HistoryColumn) => void;
   /** The statistics of the charted column changed (new history or new window). */
   onSummary: (column: HistoryColumn, summary: HistorySummary) => void;
 }
@@ -41,7 +45,7 @@ export class HistoryChart {
   private readonly plot: HTMLDivElement;
   private readonly stats: HTMLDivElement;
   private columns: HistoryColumn[] = [];
-  private data: { column: HistoryColumn; time: Float64Array; values: Float64Array } | null = null;
+  private data: { column: HistoryColumn; time: Float64Array; values: Float64Array; dropped: number } | null = null;
   private window: { from: number; to: number } | null = null;
   private showSpectrum = false;
   private drag: { x0: number; box: HTMLDivElement } | null = null;
@@ -61,6 +65,7 @@ export class HistoryChart {
     this.select = document.createElement('select');
     this.select.className = 'history-quantity';
     this.select.title = 'Probe quantity to follow through the steps';
+    this.select.onchange = () => { const c = this.columns[this.select.selectedIndex]; if (c) this.events.onColumn(c); };
     const button = (text: string, cls: string, tip: string) => {
       const b = document.createElement('button');
       b.type = 'button'; b.textContent = text; b.className = cls; b.title = tip;
@@ -125,12 +130,27 @@ export class HistoryChart {
     if (message) this.stats.replaceChildren(line(message, 'note'));
   }
 
-  /** A computed history of a column: plots it and computes its statistics over the current window. */
+  /**
+   * A computed history of a column: plots it and computes its statistics over the current window. Steps
+   * where the probe gave no value (NaN) are left out and counted in a note.
+   */
   setHistory(column: HistoryColumn, time: Float64Array, values: Float64Array): void {
     this.done();
     if (this.data?.column.key !== column.key) this.window = null;
-    this.data = { column, time, values };
+    let kept = 0;
+    for (let i = 0; i < values.length; i++) if (Number.isFinite(values[i]!)) kept++;
+    const t = new Float64Array(kept), v = new Float64Array(kept);
+    for (let i = 0, k = 0; i < values.length; i++) if (Number.isFinite(values[i]!)) { t[k] = time[i]!; v[k++] = values[i]!; }
+    const i = this.columns.findIndex((c) => c.key === column.key);
+    if (i >= 0) this.select.selectedIndex = i;
+    this.data = { column, time: t, values: v, dropped: values.length - kept };
+    if (kept === 0) { this.empty(`${column.label}: no step gave a value.`); return; }
     this.refresh();
+  }
+
+  /** The column charted, if any. */
+  get column(): HistoryColumn | null {
+    return this.data?.column ?? null;
   }
 
   /** Sets the statistics window (time unit of the series); null hands it back to the transient detection. */
@@ -150,7 +170,7 @@ export class HistoryChart {
 
   private refresh(): void {
     const d = this.data;
-    if (!d) return;
+    if (!d || d.time.length === 0) return;
     try {
       const ref = this.reference;
       this.summary = summarizeHistory(d.time, d.values, {
@@ -164,6 +184,9 @@ export class HistoryChart {
       this.stats.replaceChildren(line((e as Error).message, 'note'));
       return;
     }
+    // the window in full precision, for tests and for anyone reading the page
+    this.el.dataset['from'] = String(this.summary.stats.from);
+    this.el.dataset['to'] = String(this.summary.stats.to);
     this.draw();
     this.writeStats();
     this.events.onSummary(d.column, this.summary);
@@ -171,19 +194,20 @@ export class HistoryChart {
 
   private draw(): void {
     const d = this.data;
-    if (!d) return;
+    if (!d || d.time.length === 0) return;
     const width = Math.max(240, this.plot.clientWidth || 480), height = Math.max(140, this.plot.clientHeight || 200);
     const s = this.summary;
     if (this.showSpectrum && s?.spectrum) {
       const sp = s.spectrum;
       this.plot.innerHTML = spectrumSvg({
-        frequencies: sp.frequencies, power: sp.power, quantity: d.column.label, unit: d.column.unit, width, height,
+        frequencies: sp.frequencies, power: sp.power, quantity: d.column.symbol ?? d.column.label, title: `spectrum of ${d.column.label}`, unit: d.column.unit, width, height,
         peak: { frequency: sp.frequency, amplitude: sp.amplitude, ...(s.strouhal !== null ? { strouhal: s.strouhal } : {}) },
       });
       return;
     }
     this.plot.innerHTML = historySvg({
       time: d.time, values: d.values, quantity: d.column.label, unit: d.column.unit, timeUnit: this.timeUnit, width, height,
+      ...(d.column.symbol ? { axisName: d.column.symbol } : {}),
       ...(s ? { window: { from: s.stats.from, to: s.stats.to }, mean: s.stats.mean, halfWidth95: s.stats.meanUncertainty.halfWidth95, transientEnd: s.transient.time } : {}),
     });
   }
@@ -201,7 +225,8 @@ export class HistoryChart {
     if (s.spectrum) {
       rows.push(line(`dominant frequency ${formatNumber(s.spectrum.frequency)} Hz (resolution ${formatNumber(s.spectrum.resolution, 2)} Hz), amplitude ${withUnit(s.spectrum.amplitude, u)}${s.strouhal !== null ? `, St = ${formatNumber(s.strouhal)}` : ''}`, 'frequency'));
     }
-    for (const n of [s.transient.note, mu.note, s.spectrum?.note]) if (n) rows.push(line(n, 'note'));
+    const dropped = d.dropped ? `${d.dropped} step${d.dropped === 1 ? '' : 's'} without a value left out` : undefined;
+    for (const n of [dropped, s.transient.note, s.windowNote, mu.note, s.spectrum?.note]) if (n) rows.push(line(n, 'note'));
     this.stats.replaceChildren(...rows);
   }
 

@@ -4,7 +4,6 @@
  * it never asks for the next one, so a slow step slows playback instead of piling requests up.
  */
 import './series.css';
-import { formatNumber } from './format.ts';
 
 /** Playback rates offered (steps per second); the first is the default. */
 export const PLAY_RATES = [2, 1, 5, 10, 25];
@@ -167,6 +166,11 @@ export class TimeControl {
     this.slider.value = String(i);
     const n = this.times.length;
     this.el.dataset['step'] = String(i);
-    this.readout.textContent = n ? `step ${i + 1} of ${n} · t = ${formatNumber(this.times[i]!)} ${this.timeUnit}${this.source ? ` (${this.source})` : ''}` : '';
+    this.readout.textContent = n ? `step ${i + 1} of ${n} · t = ${timeText(this.times[i]!)} ${this.timeUnit}${this.source ? ` (${this.source})` : ''}` : '';
   }
+}
+
+/** A step time as typed in a collection: up to 6 significant figures, no trailing zeros. */
+function timeText(t: number): string {
+  return String(Number(t.toPrecision(6))).replace('-', '−');
 }

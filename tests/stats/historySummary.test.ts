@@ -30,4 +30,16 @@ describe('history summary: transient, window statistics, spectrum and Strouhal n
     expect(s.spectrum!.from).toBe(10);
     expect(s.strouhal).toBeNull();
   });
+
+  it('a short decaying record with no steady part still gets a window of at least three samples, and says why', () => {
+    // 8 uneven steps of e^{−0.79t} (a decaying vortex): MSER finds no steady part and cuts late
+    const tt = Float64Array.from([0, 0.05, 0.15, 0.3, 0.5, 0.8, 1.2, 1.7]);
+    const s = summarizeHistory(tt, tt.map((x) => Math.exp(-0.789568 * x)));
+    expect(s.transient.note).toMatch(/no steady part found/);
+    // the cut at 1.2 s (even resampling, then the next sample) would leave 2 samples: the window takes the last 3
+    expect(s.transient.time).toBe(1.2);
+    expect(s.stats.from).toBe(0.8);
+    expect(s.stats.samples).toBe(3);
+    expect(s.windowNote).toBe('the detected transient end (1.2) leaves fewer than 3 samples: the window starts at 0.8 instead');
+  });
 });

@@ -72,6 +72,16 @@ describe('history plot', () => {
     expect(plotTimeOfPixel({ pixels, range }, 74 + 408 * 0.75)).toBeCloseTo(1.5, 12);
   });
 
+  it('a 95 % band wider than the data is clipped to the frame and does not stretch the value axis', () => {
+    const svg = historySvg({ time, values, quantity: 'Quarter plane: Q', axisName: 'Q', unit: 'm³/s', mean: 1.5e6, halfWidth95: 5e7 });
+    const band = /<rect class="band" x="[\d.]+" y="([\d.]+)" width="[\d.]+" height="([\d.]+)"/.exec(svg)!;
+    expect(Number(band[1])).toBe(30);
+    expect(Number(band[2])).toBe(300 - 46 - 30);
+    expect(texts(svg, 'y-tick')).toContain('1.5');
+    expect(texts(svg, 'y-title')).toEqual(['Q [×10⁶ m³/s]']);
+    expect(texts(svg, 'title')).toEqual(['Quarter plane: Q']);
+  });
+
   it('escapes text and refuses mismatched arrays', () => {
     const svg = historySvg({ time, values, quantity: 'a<b & "c"', unit: 'N' });
     expect(svg).toContain('a&lt;b &amp; &quot;c&quot;');
