@@ -44,8 +44,8 @@ export async function* streamSeries(index: SeriesIndex, files: SeriesFiles, o: S
   let geometry: Dataset | null = null;
   for (const i of stepsInWindow(index, o.from, o.to)) {
     if (o.signal?.aborted) throw abortError(index.name);
-    const read = await loadStep(index, i, files, { ...o.load, ...(o.signal ? { signal: o.signal } : {}) });
-    const { dataset, reused } = reuseMesh(geometry, read);
+    // the freshly read step goes out of scope here, so its duplicate geometry is not held while the step is evaluated
+    const { dataset, reused } = reuseMesh(geometry, await loadStep(index, i, files, { ...o.load, ...(o.signal ? { signal: o.signal } : {}) }));
     // keep only the geometry of this step for the next comparison: its fields may go once it is evaluated
     geometry = reused ? geometry : geometryOnly(dataset);
     yield { step: i, time: index.steps[i]!.time, dataset, meshReused: reused };
