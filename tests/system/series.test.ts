@@ -131,6 +131,11 @@ describe('series in the app', () => {
     await shot('series-04-window-dragged');
     await page.locator('.history-auto').click();
     await page.waitForFunction(() => /start by MSER/.test(document.querySelector('.history-stats .window')?.textContent ?? ''));
+    // stepping keeps the chosen quantity and the pinned statistics
+    await page.locator('.time-bar .step-back').click();
+    await waitStep(6);
+    await page.waitForSelector('[data-pin="quarter~time-mean"]');
+    expect(await page.locator('.history-quantity').inputValue()).toBe('quarter.volumeFlowRate');
   });
 
   it('a long history can be cancelled, keeping the view usable', async () => {
