@@ -55,7 +55,12 @@ export function chosenFiles(list: readonly InputFile[]): SeriesFiles {
         resolveSource: async (rel) => { const p = get(folder + rel, baseName(path)); return sourceOf(p.data, baseName(rel)); },
       });
     },
-    async fieldData(path) { return readFieldDataOnly(sourceOf(get(path).data, baseName(path))); },
+    async fieldData(path) {
+      const folder = path.includes('/') ? path.slice(0, path.lastIndexOf('/') + 1) : '';
+      return readFieldDataOnly(sourceOf(get(path).data, baseName(path)), {
+        resolveSource: async (rel) => { const p = get(folder + rel, baseName(path)); return sourceOf(p.data, baseName(rel)); },
+      });
+    },
   };
 }
 

@@ -5,7 +5,7 @@
  */
 import { readdirSync, statSync } from 'node:fs';
 import { readFile } from 'node:fs/promises';
-import { basename, join } from 'node:path';
+import { basename, dirname, join, resolve as resolvePath } from 'node:path';
 import { readFieldDataOnly } from '../io/fieldDataOnly.ts';
 import { loadDatasetFile, nodeInflate, openFileSource } from '../io/nodeFiles.ts';
 import { stepFilesOfFolder } from '../series/numberedFiles.ts';
@@ -23,7 +23,11 @@ export const nodeSeriesFiles: SeriesFiles = {
   load: (path, opts) => loadDatasetFile(path, opts ?? {}),
   async fieldData(path) {
     const src = await openFileSource(path);
-    try { return await readFieldDataOnly(src, { inflate: nodeInflate }); } finally { await src.close(); }
+    // a set's field data lies in its pieces, resolved next to the set file
+    const folder = dirname(resolvePath(path));
+    try {
+      return await readFieldDataOnly(src, { inflate: nodeInflate, resolveSource: (rel) => openFileSource(resolvePath(folder, rel)) });
+    } finally { await src.close(); }
   },
 };
 

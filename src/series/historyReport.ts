@@ -60,7 +60,7 @@ export function historyReport(t: HistoryTable, summaries: readonly ColumnSummary
   const html = `<!doctype html><html lang="en"><head><meta charset="utf-8">
 <meta http-equiv="Content-Security-Policy" content="default-src 'none'; style-src 'unsafe-inline'; img-src data:">
 <title>${esc(ctx.title)}</title>
-<style>body{font:14px/1.45 system-ui,sans-serif;margin:24px;color:#222;max-width:1100px}table{border-collapse:collapse;margin:12px 0}td,th{border:1px solid #ccc;padding:3px 8px;text-align:left;vertical-align:top}
+<style>body{font:14px/1.45 system-ui,sans-serif;margin:24px;color:#222;max-width:1100px}table{border-collapse:collapse;margin:12px 0}table{width:100%;table-layout:fixed}td,th{border:1px solid #ccc;padding:3px 8px;text-align:left;vertical-align:top;overflow-wrap:anywhere}th:first-child{width:24%}th:last-child{width:26%}
 .caution{background:#fff4d6;border:1px solid #e0b84f;padding:8px 12px}section{margin:18px 0}svg{display:block;margin:6px 0}</style></head><body>
 <h1>${esc(ctx.title)}</h1>
 <p class="caution"><strong>Caution.</strong> ${esc(ctx.caution)}</p>

@@ -20,6 +20,9 @@ export function memoryFiles(map: Map<string, Uint8Array>): SeriesFiles & { loads
       const folder = p.includes('/') ? p.slice(0, p.lastIndexOf('/') + 1) : '';
       return readDatasetFrom(bytesSource(p.split('/').pop()!, get(p)), { ...opts, resolve: async (rel) => get(folder + rel) });
     },
-    async fieldData(p) { return readFieldDataOnly(bytesSource(p.split('/').pop()!, get(p))); },
+    async fieldData(p) {
+      const folder = p.includes('/') ? p.slice(0, p.lastIndexOf('/') + 1) : '';
+      return readFieldDataOnly(bytesSource(p.split('/').pop()!, get(p)), { resolve: async (rel) => get(folder + rel) });
+    },
   };
 }

@@ -42,14 +42,14 @@ beforeAll(() => { dir = mkdtempSync(join(tmpdir(), 'fieldtally-history-')); });
 afterAll(() => rmSync(dir, { recursive: true, force: true }));
 
 /** A numbered series of a box with a uniform velocity u(t) = 1 + 0.2 sin(2π f t) at uneven times, TimeValue in field data. */
-function oscillatingSeries(folder: string, f: number): void {
+function oscillatingSeries(folder: string, f: number, offset = 1): void {
   mkdirSync(folder, { recursive: true });
   const mesh = hexGrid(2, 2, 2);
   const n = mesh.points.length / 3;
   let t = 0;
   for (let i = 0; i < 120; i++) {
     t += 0.01 * (1 + 0.3 * Math.sin(1.7 * i));
-    const u = 1 + 0.2 * Math.sin(2 * Math.PI * f * t);
+    const u = offset + 0.2 * Math.sin(2 * Math.PI * f * t);
     const vel = new Float64Array(3 * n);
     for (let q = 0; q < n; q++) vel[3 * q] = u;
     const d = datasetOf([{ ...mesh, pointData: [field('velocity', 'point', 3, vel), field('p', 'point', 1, new Float64Array(n))] }]);
@@ -105,6 +105,45 @@ describe('fieldtally history', () => {
     expect(qw.summary.window.source).toBe('user');
     expect(w.time[0]).toBeGreaterThanOrEqual(0.2);
     expect(w.time[w.time.length - 1]).toBeLessThanOrEqual(1);
+  });
+
+  it('compare and report take series: time means side by side with their uncertainty', async () => {
+    const a = join(dir, 'cmpA'), b = join(dir, 'cmpB'), near = join(dir, 'cmpC');
+    oscillatingSeries(a, 3.5, 1);
+    oscillatingSeries(b, 3.5, 1.5);
+    oscillatingSeries(near, 3.5, 1.1);
+    const probes = join(dir, 'cmp.probes.json');
+    writeFileSync(probes, JSON.stringify({ format: 'fieldtally-probe-set', version: 2,
+      probes: [{ id: 'mid', kind: 'cut-plane', geometry: { origin: [0.5, 0.5, 0.5], normal: [1, 0, 0] }, fields: { velocity: 'velocity', pressure: 'p', density: 1 } }] }));
+    const c = await run('compare', a, b, '--probes', probes, '--json');
+    expect(c.code).toBe(0);
+    const doc = JSON.parse(c.out);
+    expect(doc.series).toBe(true);
+    expect(doc.caution).toBe(CAUTION);
+    const q = doc.rows.find((r: { key: string }) => r.key === 'volumeFlowRate');
+    // the variant's velocity is 0.5 m/s higher at every instant on the same 1 m² plane: Δ of the time means = 0.5 m³/s
+    // (the same steps and window on both sides, so the sine's residue cancels)
+    expect(q.difference).toBeCloseTo(0.5, 12);
+    expect(q.baselineHalfWidth95).toBeGreaterThan(0);
+    expect(q.exceedsUncertainty).toBe(true);
+    // 0.1 m³/s apart: within the combined half-widths of ~4 cycles of a ±0.2 sine, so not told apart
+    const qn = JSON.parse((await run('compare', a, near, '--probes', probes, '--json')).out).rows.find((r: { key: string }) => r.key === 'volumeFlowRate');
+    expect(qn.difference).toBeCloseTo(0.1, 12);
+    expect(Math.hypot(qn.baselineHalfWidth95, qn.variantHalfWidth95)).toBeGreaterThan(0.1);
+    expect(qn.exceedsUncertainty).toBe(false);
+    expect((await run('compare', a, join(REPO, 'sample-fields/pipe-medium.vtu'), '--probes', probes)).err).toContain('compare a series with a series: ');
+
+    const out = join(dir, 'series-report');
+    const r = await run('report', a, join(a, 'osc.0001.vtu'), '--probes', probes, '--out', out, '--no-pictures');
+    expect(r.code).toBe(0);
+    const names = readdirSync(out);
+    expect(names).toContain('series-1-history.csv');
+    expect(names).toContain('series-1-statistics.csv');
+    const res = JSON.parse(readFileSync(join(out, 'results.json'), 'utf8'));
+    expect(res.files[0].file).toBe(`${a} (time means)`);
+    const mean = res.files[0].probes[0].quantities.find((x: { key: string }) => x.key === 'volumeFlowRate').value;
+    expect(Math.abs(mean - 1)).toBeLessThan(0.02);
+    expect(res.inputs.filter((i: { role: string }) => i.role.startsWith('step at t = '))).toHaveLength(120);
   });
 
   it('--out: a report folder with plots, statistics and spectra tables', async () => {
