@@ -201,6 +201,12 @@ export class HistoryChart {
     if (!d || d.time.length === 0) return;
     const width = Math.max(240, this.plot.clientWidth || 480), height = Math.max(140, this.plot.clientHeight || 200);
     const s = this.summary;
+    if (this.showSpectrum && !s?.spectrum) {
+      this.plot.replaceChildren(Object.assign(document.createElement('div'), {
+        className: 'history-empty', textContent: 'No spectrum: the window holds fewer than 8 steps, or the values do not vary.',
+      }));
+      return;
+    }
     if (this.showSpectrum && s?.spectrum) {
       const sp = s.spectrum;
       this.plot.innerHTML = spectrumSvg({
