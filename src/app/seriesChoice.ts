@@ -47,5 +47,6 @@ export function seriesChoiceFor(files: readonly File[]): SeriesChoice | null {
     throw e;
   }
   if (steps.length < 2) return null;
-  return { name: folder || steps[0]!.split('/').pop()!, steps, files: inputs };
+  const base = (p: string) => p.split('/').pop()!;
+  return { name: folder || `${base(steps[0]!)} … ${base(steps[steps.length - 1]!)}`, steps, files: inputs };
 }

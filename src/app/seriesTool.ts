@@ -44,6 +44,7 @@ export class SeriesTool {
     v.onDataset(() => {
       this.replacing = false;
       if (this.pinned) this.v.setResult({ ...this.pinned });
+      this.offerColumns();
     });
     v.onResultRemoved((id) => { if (!this.replacing && id === this.pinned?.id) this.pinned = null; });
   }
@@ -67,7 +68,7 @@ export class SeriesTool {
       this.chart.el.parentElement?.parentElement?.classList.add('with-series');
       document.body.dataset['series'] = String(desc.times.length);
       const shown = await this.show(0, false);
-      if (shown) this.v.banner.notice(`Opened the series ${desc.name}: ${desc.times.length} steps; ${desc.timeSourceStatement}.`);
+      if (shown) this.v.banner.notice(`Opened the series “${choice.name}”: ${desc.times.length} steps; ${desc.timeSourceStatement}.`);
       this.offerColumns();
       return true;
     } catch (e) {
@@ -111,7 +112,7 @@ export class SeriesTool {
 
   /** The quantities of the probes in the view, as history columns `<probe id>.<quantity>`. */
   private offerColumns(): void {
-    if (!this.series) return;
+    if (!this.series || this.replacing) return;
     const cols: HistoryColumn[] = [];
     for (const r of this.v.allResults) {
       if (r.id.endsWith(STATS_SUFFIX)) continue;

@@ -118,7 +118,7 @@ export function spectrumSvg(o: SpectrumPlotOptions): string {
     parts.push(`<circle class="peak" cx="${f(x)}" cy="${f(y)}" r="4" fill="none" stroke="${COLOURS.peak}" stroke-width="1.5"/>`);
     parts.push(`<text class="peak-label" x="${f(right ? x - 8 : x + 8)}" y="${f(Math.max(y - 8, frame.y0 + 12))}" text-anchor="${right ? 'end' : 'start'}" fill="${COLOURS.peak}">${esc(text)}</text>`);
   }
-  parts.push(axes(frame, xt, yt, sx, sy, axisTitle('frequency', o.frequencyUnit ?? 'Hz', xt), axisTitle(`amplitude of ${o.quantity}`, o.unit, yt)));
+  parts.push(axes(frame, xt, yt, sx, sy, axisTitle('frequency', o.frequencyUnit ?? 'Hz', xt), axisTitle('amplitude', o.unit, yt)));
   parts.push('</svg>');
   return parts.join('\n');
 }

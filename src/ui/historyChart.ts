@@ -45,6 +45,8 @@ export class HistoryChart {
   private readonly plot: HTMLDivElement;
   private readonly stats: HTMLDivElement;
   private columns: HistoryColumn[] = [];
+  /** Key of the column the user chose (kept while the offer changes, e.g. while a step loads). */
+  private chosen: string | null = null;
   private data: { column: HistoryColumn; time: Float64Array; values: Float64Array; dropped: number } | null = null;
   private window: { from: number; to: number } | null = null;
   private showSpectrum = false;
@@ -65,7 +67,7 @@ export class HistoryChart {
     this.select = document.createElement('select');
     this.select.className = 'history-quantity';
     this.select.title = 'Probe quantity to follow through the steps';
-    this.select.onchange = () => { const c = this.columns[this.select.selectedIndex]; if (c) this.events.onColumn(c); };
+    this.select.onchange = () => { const c = this.columns[this.select.selectedIndex]; if (c) { this.chosen = c.key; this.events.onColumn(c); } };
     const button = (text: string, cls: string, tip: string) => {
       const b = document.createElement('button');
       b.type = 'button'; b.textContent = text; b.className = cls; b.title = tip;
@@ -106,10 +108,9 @@ export class HistoryChart {
 
   /** Offers the quantities that can be charted; keeps the chosen one when still offered. */
   setColumns(columns: HistoryColumn[]): void {
-    const prev = this.columns[this.select.selectedIndex]?.key;
     this.columns = columns;
     this.select.replaceChildren(...columns.map((c) => new Option(c.unit ? `${c.label} [${c.unit}]` : c.label, c.key)));
-    const keep = columns.findIndex((c) => c.key === prev);
+    const keep = columns.findIndex((c) => c.key === this.chosen);
     this.select.selectedIndex = keep >= 0 ? keep : 0;
     this.compute.disabled = columns.length === 0;
     if (!this.data) this.empty(columns.length ? 'Choose a quantity and press Compute to follow it through the steps.' : 'Place a probe to chart its history through the steps.');
@@ -121,6 +122,7 @@ export class HistoryChart {
     this.el.dataset['busy'] = 'true';
     this.progressFill.style.width = `${total > 0 ? ((100 * done) / total).toFixed(1) : 0}%`;
     this.progressText.textContent = `step ${done} of ${total}`;
+    if (!this.data) this.empty('Computing the history in the background; the view stays usable.');
   }
 
   /** Ends the progress display (finished, cancelled or failed: `message` says which when not finished). */
@@ -141,6 +143,7 @@ export class HistoryChart {
     for (let i = 0; i < values.length; i++) if (Number.isFinite(values[i]!)) kept++;
     const t = new Float64Array(kept), v = new Float64Array(kept);
     for (let i = 0, k = 0; i < values.length; i++) if (Number.isFinite(values[i]!)) { t[k] = time[i]!; v[k++] = values[i]!; }
+    this.chosen = column.key;
     const i = this.columns.findIndex((c) => c.key === column.key);
     if (i >= 0) this.select.selectedIndex = i;
     this.data = { column, time: t, values: v, dropped: values.length - kept };
@@ -162,6 +165,7 @@ export class HistoryChart {
   /** Forgets the history (a new series was opened). */
   clear(): void {
     this.data = null;
+    this.chosen = null;
     this.summary = null;
     this.window = null;
     this.done();
@@ -197,6 +201,12 @@ export class HistoryChart {
     if (!d || d.time.length === 0) return;
     const width = Math.max(240, this.plot.clientWidth || 480), height = Math.max(140, this.plot.clientHeight || 200);
     const s = this.summary;
+    if (this.showSpectrum && !s?.spectrum) {
+      this.plot.replaceChildren(Object.assign(document.createElement('div'), {
+        className: 'history-empty', textContent: 'No spectrum: the window holds fewer than 8 steps, or the values do not vary.',
+      }));
+      return;
+    }
     if (this.showSpectrum && s?.spectrum) {
       const sp = s.spectrum;
       this.plot.innerHTML = spectrumSvg({

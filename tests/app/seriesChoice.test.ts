@@ -21,6 +21,7 @@ describe('series among the chosen files', () => {
   it('numbered result files are steps in number order, not letter order', () => {
     const c = seriesChoiceFor(files('cells_10.vtu', 'cells_9.vtu', 'cells_11.vtu'))!;
     expect(c.steps).toEqual(['cells_9.vtu', 'cells_10.vtu', 'cells_11.vtu']);
+    expect(c.name).toBe('cells_9.vtu … cells_11.vtu');
   });
 
   it('a folder of per-step sets: the sets are the steps, their pieces are not', () => {

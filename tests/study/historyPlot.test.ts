@@ -100,7 +100,8 @@ describe('spectrum plot', () => {
     expect(balanced(svg)).toBe(true);
     expect(texts(svg, 'peak-label')).toEqual(['f = 3 Hz, amplitude 0.8, St = 0.3']);
     expect(texts(svg, 'x-title')).toEqual(['frequency [Hz]']);
-    expect(texts(svg, 'y-title')).toEqual(['amplitude of cylinder.CL']);
+    expect(texts(svg, 'y-title')).toEqual(['amplitude']);
+    expect(texts(svg, 'title')).toEqual(['spectrum of cylinder.CL']);
     const x = texts(svg, 'x-tick');
     expect(new Set(x).size).toBe(x.length);
   });

@@ -18,6 +18,7 @@ import { readFileSync } from 'node:fs';
 import { readProbeSet } from '../../src/study/probeSetFile.ts';
 import { vortexMesh, vortexStep, VORTEX_DEFAULTS } from '../../src/samples/taylorGreen.ts';
 import { windowStatistics } from '../../src/stats/windowStats.ts';
+import { dominantFrequency } from '../../src/stats/spectrum.ts';
 import { parseFormatted } from '../../src/ui/format.ts';
 import { REPO, openApp, waitIdle, type AppSession } from './browser.ts';
 
@@ -131,6 +132,11 @@ describe('series in the app', () => {
     await shot('series-04-window-dragged');
     await page.locator('.history-auto').click();
     await page.waitForFunction(() => /start by MSER/.test(document.querySelector('.history-stats .window')?.textContent ?? ''));
+    // stepping keeps the chosen quantity and the pinned statistics
+    await page.locator('.time-bar .step-back').click();
+    await waitStep(6);
+    await page.waitForSelector('[data-pin="quarter~time-mean"]');
+    expect(await page.locator('.history-quantity').inputValue()).toBe('quarter.volumeFlowRate');
   });
 
   it('a long history can be cancelled, keeping the view usable', async () => {
@@ -159,6 +165,51 @@ describe('series in the app', () => {
       await page.locator('.time-bar .step-forward').click();
       await waitStep(1);
       expect(await page.locator('#file-summary').innerText()).toMatch(/^tray_001\.vtu/);
+    } finally {
+      rmSync(dir, { recursive: true, force: true });
+    }
+  });
+
+  it('an oscillating series: the spectrum view and the dominant frequency match the imposed tone', async () => {
+    // invented demo series: the vortex cell's t = 0 field scaled by 1 + 0.3·sin(2π·2.5·t) at 60 uneven times, so
+    // the flow through the quarter plane is Q0(1 + 0.3 sin 2π·2.5t) exactly (the plane integral is linear in the field)
+    const dir = mkdtempSync(join(tmpdir(), 'fieldtally-tone-'));
+    try {
+      const paths: string[] = [];
+      const mesh = vortexMesh(VORTEX_DEFAULTS);
+      for (let i = 0; i < 60; i++) {
+        const t = 0.07 * i + 0.02 * Math.sin(1.7 * i);
+        const name = `tone_${String(i).padStart(2, '0')}.vtu`;
+        const d = vortexStep(0, VORTEX_DEFAULTS, mesh, name);
+        const g = 1 + 0.3 * Math.sin(2 * Math.PI * 2.5 * t);
+        for (const f of d.pieces[0]!.pointData) for (let k = 0; k < f.values.length; k++) f.values[k] = f.values[k]! * g;
+        writeFileSync(join(dir, name), writeVtu({ ...d, fieldData: [{ ...d.fieldData[0]!, values: Float64Array.of(t) }] }, { encoding: 'zlib' }));
+        paths.push(join(dir, name));
+      }
+      await page.setInputFiles('#file-input', paths);
+      await page.waitForFunction(() => document.body.dataset['series'] === '60', undefined, { timeout: 60_000 });
+      await waitStep(0);
+      await page.locator('.history-quantity').selectOption('quarter.volumeFlowRate');
+      await page.locator('.history-compute').click();
+      await page.waitForFunction(() => /dominant frequency/.test(document.querySelector('.history-stats')?.textContent ?? ''), undefined, { timeout: 120_000 });
+      await page.locator('.history-view').click();
+      await page.waitForSelector('.history-plot svg path.spectrum');
+      await waitIdle(page);
+      await shot('series-06-spectrum');
+      const text = await page.locator('.history-stats .frequency').innerText();
+      const f = parseFormatted(/dominant frequency (\S+) Hz/.exec(text)![1]!);
+      expect(f).toBeCloseTo(2.5, 3);
+      // the same core in Node, on the same files and window: frequency and amplitude agree to the digits shown
+      const index = await openSeriesInput(paths);
+      const table = await evaluateSeries(index, nodeSeriesFiles, readProbeSet(readFileSync(PROBES, 'utf8'), PROBES).set);
+      const col = table.columns.find((c) => c.probe === 'quarter' && c.key === 'volumeFlowRate')!;
+      const from = Number(await page.locator('.history-pane').getAttribute('data-from'));
+      const s = dominantFrequency(table.time, col.values, from)!;
+      expect(Math.abs(s.frequency - 2.5)).toBeLessThan(1e-6 * 2.5);
+      expect(s.amplitude / (0.3 * col.values[0]! / (1 + 0.3 * Math.sin(2 * Math.PI * 2.5 * table.time[0]!)))).toBeCloseTo(1, 6);
+      const amp = parseFormatted(/amplitude (\S+)/.exec(text)![1]!);
+      expect(amp).toBeCloseTo(Number(s.amplitude.toPrecision(4)), 15);
+      await page.locator('.history-view').click();
     } finally {
       rmSync(dir, { recursive: true, force: true });
     }
