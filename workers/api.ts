@@ -171,6 +171,41 @@ export interface ForceReply {
   surface: { closed: boolean; openEdges: number; nonManifoldEdges: number; inconsistentEdges: number };
 }
 
+import type { HistoryColumn, HistoryTable } from '../src/series/historyTable.ts';
+import type { TimeSource } from '../src/series/seriesIndex.ts';
+
+export type { HistoryColumn, HistoryTable, TimeSource };
+
+/** A series as the time control shows it (`openSeries`). */
+export interface SeriesDescription {
+  /** The collection file, folder or pattern. */
+  name: string;
+  timeSource: TimeSource;
+  /** Sentence saying where the times came from, for the UI. */
+  timeSourceStatement: string;
+  /** `s`, or `step` when the times are step indices. */
+  timeUnit: string;
+  /** Time of each step (time unit), strictly increasing. */
+  times: number[];
+  /** The files of each step (paths as chosen). */
+  stepFiles: string[][];
+}
+
+/** A step shown (`showStep`): what `load` returns, plus the step, its time and whether its mesh was reused. */
+export interface StepDescription extends Description {
+  step: number;
+  time: number;
+  /** True when the step's geometry equals the step shown before: surfaces and cell tree were not rebuilt (the view may keep its mesh and only recolour). */
+  meshReused: boolean;
+}
+
+/** Progress of a series evaluation: steps done of the steps to do, and the time of the last step done. */
+export interface SeriesProgress {
+  done: number;
+  total: number;
+  time: number;
+}
+
 /** The worker's API. */
 export interface ComputeApi {
   /** Reads a file or set; replaces the held dataset only on success. Rejects with the reader's error. */
@@ -195,4 +230,28 @@ export interface ComputeApi {
    * The set is checked first (src/study/probeSetCheck.ts); a malformed set rejects with the checker's message.
    */
   evaluateProbeSet(set: ProbeSet): Promise<SetEvaluation>;
+  /**
+   * Opens a series from the chosen files: one `.pvd` among them (its steps' files chosen with it), or
+   * numbered result files (`flow_0001.vtu` …; per-step `.pvtu`/`.vtm` sets with their pieces). Times come
+   * from the collection, else each file's `TimeValue`, else the step index (`timeSource` says which).
+   * Replaces the open series; the held dataset stays until `showStep`. Rejects with a one-line error
+   * naming the file (or `.pvd` line) on bad input.
+   */
+  openSeries(files: InputFile[]): Promise<SeriesDescription>;
+  /**
+   * Reads step `step` of the open series and holds it like `load` does (surface, cut, sample, forces and
+   * evaluateProbeSet then work on it). Consecutive steps on one mesh share the geometry, boundary faces
+   * and cell tree. Only one step is held; a newer call supersedes an older one still reading.
+   */
+  showStep(step: number, onProgress?: ProgressCallback): Promise<StepDescription>;
+  /**
+   * Evaluates a probe set at every step of the open series within [from, to] (time unit; default all),
+   * streaming (at most about two steps resident), and returns the history table: time plus one column per
+   * probe quantity named as results.csv names it (`<probe id>.<quantity> [unit]`), NaN where a probe
+   * failed at a step (listed in `failures`). Progress after every step; `cancelSeries` rejects it with an
+   * AbortError. Columns' arrays arrive by transfer.
+   */
+  evaluateSeries(set: ProbeSet, window?: { from?: number; to?: number }, onProgress?: (p: SeriesProgress) => void): Promise<HistoryTable>;
+  /** Stops a running `evaluateSeries` (and a `showStep` still reading) at the next step. */
+  cancelSeries(): void;
 }

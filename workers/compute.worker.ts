@@ -31,6 +31,9 @@ import type {
 } from './api.ts';
 import { groupOutline } from '../src/surface/groupOutline.ts';
 import { ReadMeter } from './readMeter.ts';
+import { chosenFiles, describeSeries, openChosenSeries, OpenSeries } from './seriesCalls.ts';
+import type { HistoryTable, SeriesDescription, SeriesProgress, StepDescription } from './api.ts';
+import type { InputFile } from './api.ts';
 import { drawFaces, drawTriangleSet, faceValues, surfaceCellFaces, type FaceList } from '../src/surface/surfaceDrawing.ts';
 import { planPool, POOL_MIN_CELLS, workersFromName, type PoolPlan } from '../src/parallel/poolPlan.ts';
 import type { ComputePool } from '../src/parallel/pool.ts';
@@ -120,6 +123,8 @@ const yieldToMessages = (): Promise<void> => new Promise((r) => setTimeout(r, 0)
 export function createComputeApi(): ComputeApi {
   let held: Held | undefined;
   let loading: AbortController | undefined;
+  let series: OpenSeries | undefined;
+  let seriesRun: AbortController | undefined;
 
   const need = (): Held => {
     if (!held) throw new Error('no result file is loaded');
@@ -275,6 +280,64 @@ export function createComputeApi(): ComputeApi {
       const h = need();
       return evaluateProbeSet(h.dataset, checkProbeSet(set, 'probe set'));
     },
+
+    async openSeries(files: InputFile[]): Promise<SeriesDescription> {
+      if (!Array.isArray(files) || files.length === 0) throw new Error('openSeries: choose the series\' files (a .pvd with its files, or numbered result files)');
+      const access = chosenFiles(files);
+      const index = await openChosenSeries(files, access);
+      series = new OpenSeries(index, access);
+      return describeSeries(index);
+    },
+
+    async showStep(step: number, onProgress?: ProgressCallback): Promise<StepDescription> {
+      const s = series;
+      if (!s) throw new Error('no series is open');
+      loading?.abort();
+      const controller = new AbortController();
+      loading = controller;
+      const progress = throttle(onProgress);
+      const t0 = performance.now();
+      try {
+        const { dataset, reused, time } = await s.step(step, controller.signal);
+        const found = describe(dataset, 0, t0);
+        await yieldToMessages();
+        checkAborted(controller.signal, dataset.source);
+        held = found;
+        progress.now({ stage: 'step ready', bytesDone: 1, bytesTotal: 1 });
+        return { ...held.description, step, time, meshReused: reused };
+      } finally {
+        if (loading === controller) loading = undefined;
+      }
+    },
+
+    async evaluateSeries(set: ProbeSet, window?: { from?: number; to?: number }, onProgress?: (p: SeriesProgress) => void): Promise<HistoryTable> {
+      const s = series;
+      if (!s) throw new Error('no series is open');
+      const checked = checkProbeSet(set, 'probe set');
+      for (const k of ['from', 'to'] as const) {
+        const v = window?.[k];
+        if (v !== undefined && (typeof v !== 'number' || !Number.isFinite(v))) throw new Error(`evaluateSeries: window.${k} must be a finite number, got ${JSON.stringify(v)}`);
+      }
+      seriesRun?.abort();
+      const controller = new AbortController();
+      seriesRun = controller;
+      let last = 0;
+      try {
+        const table = await s.history(checked, {
+          ...(window?.from !== undefined ? { from: window.from } : {}), ...(window?.to !== undefined ? { to: window.to } : {}),
+          signal: controller.signal,
+          onStep: (done, total, time) => {
+            const now = performance.now();
+            if (done === total || now - last >= PROGRESS_INTERVAL_MS) { last = now; onProgress?.({ done, total, time }); }
+          },
+        });
+        return Comlink.transfer(table, [table.time.buffer as ArrayBuffer, ...table.columns.map((c) => c.values.buffer as ArrayBuffer)]);
+      } finally {
+        if (seriesRun === controller) seriesRun = undefined;
+      }
+    },
+
+    cancelSeries(): void { seriesRun?.abort(); loading?.abort(); },
   };
 }
 

@@ -12,6 +12,8 @@ import { LineTool } from './lineTool.ts';
 import { PlaneTool } from './planeTool.ts';
 import { ProbeSetTool } from './probeSetTool.ts';
 import { ReportTool } from './reportTool.ts';
+import { seriesChoiceFor, type SeriesChoice } from './seriesChoice.ts';
+import { SeriesTool } from './seriesTool.ts';
 import { LineChart } from '../ui/lineChart.ts';
 import { Viewer } from './viewer.ts';
 import { ensureIsolation } from './isolation.ts';
@@ -35,7 +37,8 @@ const force = new ForceTool(viewer);
 const exporter = new ExportTool(viewer, viewer.gui);
 const reports = new ReportTool(viewer, exporter);
 // after the tools: on a new file it re-applies the set once they have dropped the old file's probes
-new ProbeSetTool(viewer, { planes, lines, force }, $('compare-pane'), (set) => reports.download(set));
+const probeSets = new ProbeSetTool(viewer, { planes, lines, force }, $('compare-pane'), (set) => reports.download(set));
+const series = new SeriesTool(viewer, probeSets, { view: $('view'), drawer: document.querySelector<HTMLElement>('.drawer')! });
 
 for (const id of ['file-input', 'folder-input']) {
   const input = $<HTMLInputElement>(id);
@@ -44,8 +47,17 @@ for (const id of ['file-input', 'folder-input']) {
     input.value = '';
     if (files.length === 0) return;
     performance.mark('fieldtally:files-chosen');
+    let choice: SeriesChoice | null;
     try {
-      void viewer.load(loadRequestFor(files));
+      choice = seriesChoiceFor(files);
+    } catch (e) {
+      viewer.banner.error(`Could not open the series: ${(e as Error).message}`);
+      return;
+    }
+    if (choice) { void series.openSeries(choice); return; }
+    try {
+      // a single result ends the series once it is open (a failed load keeps the series)
+      void viewer.load(loadRequestFor(files)).then((ok) => { if (ok) series.close(); });
     } catch (e) {
       viewer.banner.error(`Could not open the files: ${(e as Error).message}`);
     }

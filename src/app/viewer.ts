@@ -212,14 +212,41 @@ export class Viewer {
     }
   }
 
-  private install(d: Description, drawing: SurfaceReply): void {
+  /**
+   * Shows another step of an open series: `read` makes the worker hold the step (progress as in a load);
+   * the camera, the colouring field and range settings and the probes stay (the tools re-evaluate them);
+   * `keepView` false (the first step of a series) frames it like a newly opened file. A newer load or step
+   * supersedes this one. Rejects with the worker's error (the previous step stays).
+   */
+  async showStep(read: (onProgress: (p: { stage: string; bytesDone: number; bytesTotal: number }) => void) => Promise<Description>, request: LoadRequest, keepView = true): Promise<boolean> {
+    const gen = ++this.loadGeneration;
+    const current = () => gen === this.loadGeneration;
+    const onProgress = Comlink.proxy((p: { stage: string; bytesDone: number; bytesTotal: number }) => {
+      if (current()) this.progress.show(p.stage, p.bytesDone, p.bytesTotal, false);
+    });
+    try {
+      const d = await this.track(read(onProgress));
+      if (!current()) return false;
+      const drawing = await this.track(this.compute.surface());
+      if (!current()) return false;
+      this.openRequest = request;
+      this.install(d, drawing, keepView);
+      document.body.dataset['state'] = 'ready';
+      return true;
+    } finally {
+      if (current()) this.progress.hide();
+    }
+  }
+
+  private install(d: Description, drawing: SurfaceReply, keepView = false): void {
+    const keepField = keepView ? this.settings.field : '';
     for (const l of this.beforeDatasetListeners) l();
     this.description = d;
     for (const id of [...this.results.keys()]) this.removeResult(id, true);
     if (this.surface) { this.view.root.remove(this.surface.group); this.surface.dispose(); }
     const groupCount = Math.max(1, ...d.groups.map((g) => g.id + 1));
     this.surface = new SurfaceLayer(drawing, this.colorMap, groupCount, this.view.software);
-    this.settings.opacity = 1;
+    if (!keepView) this.settings.opacity = 1;
     this.surface.setEdgesVisible(this.settings.edges);
     this.surface.setOpacity(this.settings.opacity);
     this.view.root.add(this.surface.group);
@@ -227,14 +254,16 @@ export class Viewer {
     this.fields = fieldEntries(d.report);
     this.summary.textContent = summaryLine(d);
     this.summary.title = d.report.warnings.join('\n');
-    const pick = this.fields.find((f) => /^p$|pressure/i.test(f.name)) ?? this.fields[0];
+    const pick = this.fields.find((f) => f.key === keepField) ?? this.fields.find((f) => /^p$|pressure/i.test(f.name)) ?? this.fields[0];
     this.settings.field = pick?.key ?? '';
-    this.settings.autoRange = true;
+    if (!keepView) this.settings.autoRange = true;
     this.rebuildColorPanel();
-    this.rebuildGroupPanel();
+    this.rebuildGroupPanel(keepView ? new Set(this.shownGroups) : undefined);
     for (const l of this.datasetListeners) l(d);
-    this.fitToShown();
-    this.view.view('iso');
+    if (!keepView) {
+      this.fitToShown();
+      this.view.view('iso');
+    }
     // the benchmark times "files chosen" → this mark (first coloured picture on screen, every part shown)
     void Promise.all([this.uploadSurface(this.surface), this.recolor()]).then(() => this.view.nextFrame()).then(() => performance.mark('fieldtally:coloured'));
     if (d.report.warnings.length) this.banner.notice(`Opened with warnings: ${d.report.warnings.slice(0, 3).join('; ')}`);
@@ -332,7 +361,8 @@ export class Viewer {
     this.view.setFitBounds((b as Bounds | undefined) ?? this.bounds);
   }
 
-  private rebuildGroupPanel(): void {
+  /** `shown`: the groups to show (a step of a series keeps the previous step's choice); default: all but an enclosing far field. */
+  private rebuildGroupPanel(shown?: Set<number>): void {
     this.shownGroups.clear();
     this.groupFolder?.destroy();
     const d = this.description!;
@@ -341,8 +371,9 @@ export class Viewer {
     this.groupFolder.add(this.settings, 'opacity', 0.1, 1, 0.05).name('surface opacity').listen()
       .onChange((a: number) => this.setSurfaceOpacity(a));
     const hide = enclosingGroups(d, this.bounds);
+    const keep = shown && d.groups.some((g) => shown.has(g.id)) ? shown : undefined;
     for (const g of d.groups) {
-      const o = { shown: !hide.has(g.id) };
+      const o = { shown: keep ? keep.has(g.id) : !hide.has(g.id) };
       this.surface?.setGroupVisible(g.id, o.shown);
       if (o.shown) this.shownGroups.add(g.id); else this.shownGroups.delete(g.id);
       this.groupFolder.add(o, 'shown').name(`${g.name} (${formatNumber(g.area)} m²)`).onChange((on: boolean) => {

@@ -28,6 +28,7 @@
 import { cellDimension, CellType } from '../model/cellTypes.ts';
 import { datasetBounds, isEmptyBounds } from '../model/bounds.ts';
 import { cellStarts, type Dataset } from '../model/dataset.ts';
+import { geometryOnly, meshKey, type MeshKey } from '../model/meshKey.ts';
 import type { Piece } from '../model/piece.ts';
 import { lattice, MORTON, radixSort30 } from './mortonOrder.ts';
 
@@ -62,18 +63,23 @@ export interface CellTree {
   readonly buildPhasesMs: Readonly<Record<'codes' | 'sort' | 'split' | 'boxes', number>>;
 }
 
-const cache = new WeakMap<Dataset, CellTree>();
+const cache = new WeakMap<MeshKey, CellTree>();
 
-/** The tree of a dataset, built on first call and cached (keyed by the Dataset object). */
+/**
+ * The tree of a dataset, built on first call and cached by the dataset's mesh (`meshKey`): datasets that
+ * share their geometry arrays (steps of a series on one mesh) share one tree. The cached tree keeps only
+ * the geometry (`geometryOnly`), never a step's fields.
+ */
 export function getCellTree(dataset: Dataset): CellTree {
-  let t = cache.get(dataset);
-  if (!t) { t = buildCellTree(dataset); cache.set(dataset, t); }
+  const key = meshKey(dataset);
+  let t = cache.get(key);
+  if (!t) { t = buildCellTree(geometryOnly(dataset)); cache.set(key, t); }
   return t;
 }
 
-/** Whether the tree of a dataset is already built (so a caller can use it at no set-up cost). */
+/** Whether the tree of a dataset (or of another dataset on the same mesh) is already built. */
 export function hasCellTree(dataset: Dataset): boolean {
-  return cache.has(dataset);
+  return cache.has(meshKey(dataset));
 }
 
 /** Builds a tree without touching the cache (for benchmarks). */

@@ -14,6 +14,7 @@ import { fileURLToPath, pathToFileURL } from 'node:url';
 import type { Dataset } from '../model/dataset.ts';
 import { sampleReadme } from './sampleReadme.ts';
 import { committedSamples, largeSamples, type SampleEntry } from './sampleSet.ts';
+import { vortexSeriesFiles } from './vortexSeries.ts';
 
 const ROOT = resolve(dirname(fileURLToPath(import.meta.url)), '..', '..');
 
@@ -57,7 +58,15 @@ export function writeCommittedFields(dir = SAMPLE_DIR, log: (line: string) => vo
   const readmePath = join(dir, 'README.md');
   writeFileSync(readmePath, readme);
   log(`wrote   ${relative(process.cwd(), readmePath)} (${Buffer.byteLength(readme)} bytes)`);
-  return [...written.map((w) => ({ path: w.path, bytes: w.bytes })), { path: readmePath, bytes: Buffer.byteLength(readme) }];
+  const series: WrittenFile[] = [];
+  for (const [name, bytes] of Object.entries(vortexSeriesFiles())) {
+    const p = join(dir, name);
+    mkdirSync(dirname(p), { recursive: true });
+    writeFileSync(p, bytes);
+    series.push({ path: p, bytes: bytes.length });
+    log(`wrote   ${relative(process.cwd(), p)} (${bytes.length} bytes)`);
+  }
+  return [...written.map((w) => ({ path: w.path, bytes: w.bytes })), { path: readmePath, bytes: Buffer.byteLength(readme) }, ...series];
 }
 
 /** Writes the load-benchmark set into `dir` (default `sample-fields/large/`); with `onlyMissing`, keeps existing files. */

@@ -9,7 +9,8 @@
 import { forceTotals, type ForceReference } from '../surface/forces.ts';
 import { facesOfGroups, resolveGroups } from '../surface/surfaceGroups.ts';
 import { surfaceLoads, type LoadOptions } from '../surface/surfaceLoads.ts';
-import { openSurfaceNote, surfaceQuality } from '../surface/surfaceQuality.ts';
+import type { SurfaceGroups } from '../surface/surfaceGroups.ts';
+import { openSurfaceNote, surfaceQuality, type SurfaceQuality } from '../surface/surfaceQuality.ts';
 import { addQuantity, fmt6, resolveReference, vecText, type EvalContext, type ProbeOutcome } from './outcome.ts';
 import type { ForceProbe } from './probeSet.ts';
 import { SI } from './units.ts';
@@ -17,6 +18,18 @@ import { SI } from './units.ts';
 /** Drag along +x and lift along +z when the set does not say (as the `force` verb). */
 export const DEFAULT_DRAG: [number, number, number] = [1, 0, 0];
 export const DEFAULT_LIFT: [number, number, number] = [0, 0, 1];
+
+/** Closure of a group selection depends on the mesh only: kept per (cached) grouping, so the steps of a series on one mesh check it once. */
+const qualityCache = new WeakMap<SurfaceGroups, Map<string, SurfaceQuality>>();
+
+function selectionQuality(groups: SurfaceGroups, faces: Parameters<typeof surfaceQuality>[0], picked: readonly number[], selection: ArrayLike<number>): SurfaceQuality {
+  let m = qualityCache.get(groups);
+  if (!m) { m = new Map(); qualityCache.set(groups, m); }
+  const key = picked.join(',');
+  let q = m.get(key);
+  if (!q) { q = surfaceQuality(faces, selection); m.set(key, q); }
+  return q;
+}
 
 /** A force total. */
 export function evaluateForce(ctx: EvalContext, p: ForceProbe, out: ProbeOutcome): void {
@@ -70,6 +83,6 @@ export function evaluateForce(ctx: EvalContext, p: ForceProbe, out: ProbeOutcome
   addQuantity(out, 'wettedArea', 'wetted area', r.area, SI.area);
   if (!reference) out.notes.push('coefficients need the reference density, speed and area (reference.density or a preset, reference.speed, reference.area)');
   out.notes.push(...r.notes.filter((n) => !/^coefficients not computed/.test(n)));
-  const open = openSurfaceNote(surfaceQuality(faces, selection));
+  const open = openSurfaceNote(selectionQuality(groups, faces, picked, selection));
   if (open) out.notes.push(open);
 }

@@ -36,6 +36,17 @@ function factorOf(u: string, where: string): number {
 }
 
 const cache = new WeakMap<Dataset, Map<string, Dataset>>();
+/** Scaled coordinates by source array and factor, so steps of a series that share a mesh share the SI mesh too. */
+const scaledPoints = new WeakMap<Float64Array, Map<number, Float64Array>>();
+
+function pointsInSi(points: Float64Array, factor: number): Float64Array {
+  if (factor === 1) return points;
+  let m = scaledPoints.get(points);
+  if (!m) { m = new Map(); scaledPoints.set(points, m); }
+  let out = m.get(factor);
+  if (!out) { out = scaled(points, factor); m.set(factor, out); }
+  return out;
+}
 
 function scaled(values: FieldArray['values'], factor: number): Float64Array {
   const out = new Float64Array(values.length);
@@ -60,7 +71,7 @@ export function siDataset(d: Dataset, factors: SiFactors): Dataset {
   if (hit) return hit;
   const pieces: Piece[] = d.pieces.map((p) => ({
     ...p,
-    points: factors.length === 1 ? p.points : scaled(p.points, factors.length),
+    points: pointsInSi(p.points, factors.length),
     pointData: convertFields(p.pointData, factors.fields),
     cellData: convertFields(p.cellData, factors.fields),
   }));

@@ -1,9 +1,12 @@
 /**
- * Boundary faces and surface groups of a dataset, computed once and kept with the dataset (a WeakMap
- * keyed by the Dataset object, like the cell tree), so the worker's description, force totals and probe
- * sets share one extraction. Only default extraction options are cached; groups are cached per grouping.
+ * Boundary faces and surface groups of a dataset, computed once and kept with the dataset's mesh (a
+ * WeakMap keyed by `meshKey`, like the cell tree), so the worker's description, force totals, probe sets
+ * and every step of a series on one mesh share one extraction. Only default extraction options are
+ * cached; groups are cached per grouping. Groups named by an integer cell array are taken from the first
+ * dataset of a mesh: such arrays mark boundary parts, which a series does not renumber between steps.
  */
 import type { Dataset } from '../model/dataset.ts';
+import { meshKey, type MeshKey } from '../model/meshKey.ts';
 import { boundaryFaces, type BoundaryFaces } from './boundaryFaces.ts';
 import { listedFaces } from './faceSubset.ts';
 import { surfaceGroups, type SurfaceGroups } from './surfaceGroups.ts';
@@ -18,15 +21,16 @@ export interface GroupingKey {
 
 interface Entry { faces: BoundaryFaces; groups: Map<string, SurfaceGroups> }
 
-const cache = new WeakMap<Dataset, Entry>();
+const cache = new WeakMap<MeshKey, Entry>();
 
 function entry(d: Dataset): Entry {
-  let e = cache.get(d);
+  const key = meshKey(d);
+  let e = cache.get(key);
   if (!e) {
     // An assembled dataset (src/pieces/) keeps only the faces its tasks found on the boundary.
     const all = boundaryFaces(d);
     e = { faces: d.assembled ? listedFaces(all, d.assembled.boundary) : all, groups: new Map() };
-    cache.set(d, e);
+    cache.set(key, e);
   }
   return e;
 }
@@ -56,5 +60,6 @@ export function getSurfaceGroups(d: Dataset, g: GroupingKey = {}): SurfaceGroups
  * `boundaryFaces` gives) as the dataset's default boundary, unless one is already cached.
  */
 export function primeBoundaryFaces(d: Dataset, faces: BoundaryFaces): void {
-  if (!cache.has(d)) cache.set(d, { faces, groups: new Map() });
+  const key = meshKey(d);
+  if (!cache.has(key)) cache.set(key, { faces, groups: new Map() });
 }

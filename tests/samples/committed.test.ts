@@ -8,6 +8,7 @@ import { join, resolve } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { sampleReadme } from '../../src/samples/sampleReadme.ts';
 import { committedSamples } from '../../src/samples/sampleSet.ts';
+import { VORTEX_NUMBERED_DIR, VORTEX_PVD_DIR, vortexSeriesFiles } from '../../src/samples/vortexSeries.ts';
 
 const DIR = resolve(__dirname, '../../sample-fields');
 const HINT = 'run `npm run make-fields` to regenerate sample-fields/';
@@ -40,10 +41,23 @@ describe('committed sample files match the generator', () => {
     expect(readFileSync(join(DIR, 'README.md'), 'utf8'), HINT).toBe(text);
   });
 
+  it('the sample series (vortex cell) match the generator', () => {
+    const files = vortexSeriesFiles();
+    for (const dir of [VORTEX_PVD_DIR, VORTEX_NUMBERED_DIR]) {
+      expect(readdirSync(join(DIR, dir)).sort(), HINT).toEqual(Object.keys(files).filter((n) => n.startsWith(`${dir}/`)).map((n) => n.slice(dir.length + 1)).sort());
+    }
+    for (const [name, bytes] of Object.entries(files)) {
+      const at = firstDifference(bytes, new Uint8Array(readFileSync(join(DIR, name))));
+      expect(at, `${name}: differs from the generator at byte ${at}; ${HINT}`).toBe(-1);
+    }
+  });
+
   it('sample-fields/ holds nothing else (besides the git-ignored large/), under 10 MB in total', () => {
     const names = readdirSync(DIR).filter((n) => n !== 'large').sort();
-    expect(names).toEqual([...entries.map((e) => e.name), 'README.md'].sort());
-    const total = names.reduce((s, n) => s + statSync(join(DIR, n)).size, 0);
+    expect(names).toEqual([...entries.map((e) => e.name), 'README.md', VORTEX_PVD_DIR, VORTEX_NUMBERED_DIR].sort());
+    const series = Object.keys(vortexSeriesFiles());
+    const total = names.filter((n) => !n.startsWith('vortex-cell')).reduce((s, n) => s + statSync(join(DIR, n)).size, 0)
+      + series.reduce((s, n) => s + statSync(join(DIR, n)).size, 0);
     expect(total).toBeLessThan(10 * 1024 * 1024);
   });
 });

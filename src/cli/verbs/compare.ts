@@ -8,7 +8,11 @@ import { compareEvaluations, comparisonCsv, comparisonText } from '../../study/c
 import { evaluateProbeSet } from '../../study/evaluate.ts';
 import { UNITS_STATEMENT } from '../../study/resultTables.ts';
 import { CAUTION } from '../../study/caution.ts';
+import { compareSeries } from '../../series/seriesMeans.ts';
+import { resolveReference } from '../../study/outcome.ts';
 import { parseArgs, str } from '../args.ts';
+import { looksLikeSeries } from '../seriesInputs.ts';
+import { studySeries } from '../seriesStudy.ts';
 import { loadInput, readProbeSetFile, toolVersion } from '../studyInputs.ts';
 import type { Verb } from '../verb.ts';
 import { EXIT_PROBE_FAILED } from './report.ts';
@@ -20,6 +24,9 @@ const compare: Verb = {
     '  Evaluates every probe on both files and prints per quantity: baseline, variant, difference = variant − baseline',
     '  (in the quantity\'s unit) and relative difference = difference / |baseline|. A quantity missing on one side, or a',
     '  probe that failed there, is listed with a note, never as a zero difference. Exit code 3 when any probe failed.',
+    '  Two series (a .pvd or a folder each, see `fieldtally history`) compare their time means over the statistics window',
+    '  (from the detected end of the initial transient), each with its 95 % half-width, and say whether the difference',
+    '  exceeds the two half-widths combined in quadrature.',
     `  ${UNITS_STATEMENT}`,
   ].join('\n'),
   options: { probes: 'string', json: 'boolean', csv: 'boolean' },
@@ -31,6 +38,29 @@ const compare: Verb = {
     if (args.options.json && args.options.csv) throw new Error('choose one of --json and --csv');
     const [basePath, varPath] = args.positional as [string, string];
     const ps = await readProbeSetFile(probesPath);
+    if (looksLikeSeries(basePath) || looksLikeSeries(varPath)) {
+      if (!looksLikeSeries(basePath) || !looksLikeSeries(varPath)) throw new Error(`compare a series with a series: ${looksLikeSeries(basePath) ? varPath : basePath} is a single result file (give a .pvd or a folder of numbered files)`);
+      const b = await studySeries(basePath, ps.set), v = await studySeries(varPath, ps.set);
+      const c = compareSeries(b, v, resolveReference(ps.set.reference), ps.set.units?.length ?? 'm');
+      const note = 'time means over each series\' statistics window; ± = 95 % half-width of the mean; "exceeds" = |difference| > √(h_b² + h_v²) (common practice)';
+      if (args.options.json) {
+        io.out(JSON.stringify({
+          tool: 'fieldtally', version: toolVersion(), probeSet: basename(probesPath), baseline: c.baseline, variant: c.variant, series: true, note,
+          timeSources: { baseline: b.table.timeSource, variant: v.table.timeSource },
+          rows: c.rows, failures: [...c.failures, ...b.table.failures, ...v.table.failures], units: UNITS_STATEMENT, caution: CAUTION,
+        }, null, 2));
+      } else if (args.options.csv) {
+        io.out([`# ${note}`, comparisonCsv(c, CAUTION).trimEnd(), '# half-widths (95 %): probe,quantity,baseline,variant,exceeds',
+          ...c.rows.map((r) => `# ${r.probe},${r.key},${r.baselineHalfWidth95 ?? ''},${r.variantHalfWidth95 ?? ''},${r.exceedsUncertainty ?? ''}`)].join('\n'));
+      } else {
+        const text = comparisonText(c);
+        const byLine = c.rows.map((r) => `  ${r.probe}.${r.key}: ± ${r.baselineHalfWidth95 === null ? '—' : r.baselineHalfWidth95.toPrecision(3)} / ± ${r.variantHalfWidth95 === null ? '—' : r.variantHalfWidth95.toPrecision(3)}${r.exceedsUncertainty === null ? '' : r.exceedsUncertainty ? ' — difference exceeds the uncertainty of the means' : ' — difference within the uncertainty of the means'}`);
+        io.out([...text, '', note, ...byLine, '', UNITS_STATEMENT, `Caution: ${CAUTION}`].join('\n'));
+      }
+      const failures = [...c.failures, ...b.table.failures, ...v.table.failures];
+      if (failures.length) { io.err([`${failures.length} probe evaluation${failures.length > 1 ? 's' : ''} failed:`, ...failures.map((f) => `  ${f}`)].join('\n')); return EXIT_PROBE_FAILED; }
+      return 0;
+    }
     const base = await loadInput(basePath), vari = await loadInput(varPath);
     const c = compareEvaluations(evaluateProbeSet(base.dataset, ps.set), evaluateProbeSet(vari.dataset, ps.set), { baseline: basePath, variant: varPath });
     if (args.options.json) {

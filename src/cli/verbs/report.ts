@@ -6,6 +6,7 @@
  */
 import { basename } from 'node:path';
 import { evaluateProbeSet } from '../../study/evaluate.ts';
+import { resolveReference } from '../../study/outcome.ts';
 import { writeProbeSet } from '../../study/probeSetFile.ts';
 import { reportFolder } from '../../study/reportFolder.ts';
 import type { InputFileInfo, ReportPicture } from '../../study/reportHtml.ts';
@@ -16,6 +17,11 @@ import { expandInputs } from '../fileGlob.ts';
 import { reportPicture } from '../reportPicture.ts';
 import { checkReportFolder, writeReportFolder } from '../reportWriter.ts';
 import { loadInput, readProbeSetFile, toolVersion } from '../studyInputs.ts';
+import { historyCsv } from '../../series/historyTable.ts';
+import { statisticsCsv } from '../../series/historyStats.ts';
+import { meanEvaluation } from '../../series/seriesMeans.ts';
+import { looksLikeSeries } from '../seriesInputs.ts';
+import { studySeries } from '../seriesStudy.ts';
 import type { Verb } from '../verb.ts';
 
 /** Exit code when the report was written but some probe failed. */
@@ -35,6 +41,8 @@ const report: Verb = {
     '    results.json       every number at full precision with its unit; results.csv one row per file;',
     '    results-long.csv   one row per file, probe and quantity; probe-set.json; view-<n>.png pictures',
     '  Patterns (* ? [..] {a,b} **) are expanded here too, so they may be quoted. Several files make a sweep: one table row each.',
+    '  A series (a .pvd or a folder, see `fieldtally history`) gives one row of time means over its statistics window, and',
+    '  series-<n>-history.csv and series-<n>-statistics.csv (mean ± 95 % half-width, rms, min/max) beside them; no picture.',
     '  --color       field to colour the surfaces by (default: a pressure field, else the first field)',
     '  --width/--height  picture size in pixels (default 1200 × 800); --pictures n: pictures for the first n files (default 12)',
     '  Exit code 3 when any probe failed (the report is still written; the failures go to stderr).',
@@ -65,7 +73,19 @@ const report: Verb = {
     const inputs: InputFileInfo[] = [];
     const evaluations: FileEvaluation[] = [];
     const pictures: ReportPicture[] = [];
+    const seriesFiles: Record<string, Uint8Array> = {};
     for (const [i, file] of files.entries()) {
+      if (looksLikeSeries(file)) {
+        const st = await studySeries(file, ps.set, true);
+        inputs.push(...st.inputs);
+        const ctx = { tool: 'fieldtally', version: toolVersion(), createdAt: new Date().toISOString(), caution: CAUTION, ...(ps.set.title ? { probeSet: ps.set.title } : {}) };
+        seriesFiles[`series-${i + 1}-history.csv`] = new TextEncoder().encode(historyCsv(st.table, ctx));
+        seriesFiles[`series-${i + 1}-statistics.csv`] = new TextEncoder().encode(statisticsCsv(st.table, st.summaries, ctx));
+        const evaluation = meanEvaluation(st.table, st.summaries, file, resolveReference(ps.set.reference), ps.set.units?.length ?? 'm');
+        for (const f of st.table.failures) evaluation.probes[0]?.notes.push(`failed at a step: ${f}`);
+        evaluations.push({ file: `${file} (time means)`, evaluation });
+        continue;
+      }
       const { dataset, inputs: read } = await loadInput(file);
       inputs.push(...read);
       const picture = i < maxPictures;
@@ -76,10 +96,10 @@ const report: Verb = {
     }
     inputs.push(ps.input);
     const title = str(args, 'title') ?? (ps.set.title ? `${ps.set.title} — fieldtally report` : `fieldtally report — ${files.length === 1 ? basename(files[0]!) : `${files.length} result files`}`);
-    const written = writeReportFolder(out, reportFolder({
+    const written = writeReportFolder(out, { ...seriesFiles, ...reportFolder({
       title, tool: 'fieldtally', version: toolVersion(), createdAt: new Date().toISOString(), caution: CAUTION,
       probeSet: ps.set, probeSetText: writeProbeSet(ps.set), inputs, files: evaluations, pictures, conventions: [...CONVENTIONS],
-    }), { inputs: [probesPath, ...files] });
+    }) }, { inputs: [probesPath, ...files] });
     io.out([...resultsText(evaluations), `report written: ${written.length} files in ${out} (open report.html)`, '', UNITS_STATEMENT, `Caution: ${CAUTION}`].join('\n'));
     const failures = failureLines(evaluations);
     if (failures.length) {
