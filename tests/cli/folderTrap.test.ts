@@ -124,10 +124,10 @@ describe('probes --upgrade', () => {
     const src = join(V1_SET, v1()!);
     const out = join(dir, 'up', 'set.json');
     mkdirSync(join(dir, 'up'));
-    expect((await run('probes', src, '--upgrade', out)).code).toBe(0);
+    expect((await run('check-probes', src, '--upgrade', out)).code).toBe(0);
     expect(JSON.parse(readFileSync(out, 'utf8')).version).toBe(2);
     const ino = statSync(out).ino;
-    expect((await run('probes', src, '--upgrade', out)).code).toBe(0);
+    expect((await run('check-probes', src, '--upgrade', out)).code).toBe(0);
     expect(statSync(out).ino).not.toBe(ino);
   });
 
@@ -143,10 +143,10 @@ describe('probes --upgrade', () => {
       [join(dir, 'hard.json'), /is the input probe set itself; choose another name$/],
       [join(dir, 'dangling.json'), /dangling\.json: is a symbolic link; not written through — choose another name$/],
       [join(dir, 'notes.json'), /notes\.json: exists and is not a probe set; not overwritten — choose another name$/],
-      ['/proc/self/upgraded.json', /^fieldtally probes: --upgrade \/proc\/self\/upgraded\.json: lies on a system file system/],
+      ['/proc/self/upgraded.json', /^fieldtally check-probes: --upgrade \/proc\/self\/upgraded\.json: lies on a system file system/],
     ];
     for (const [out, msg] of cases) {
-      const r = await run('probes', src, '--upgrade', out);
+      const r = await run('check-probes', src, '--upgrade', out);
       expect(r.code, out).toBe(1);
       expect(r.err.trimEnd()).toMatch(msg);
     }

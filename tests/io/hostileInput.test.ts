@@ -23,7 +23,7 @@ import { loadReport } from '../../src/model/loadReport.ts';
 
 const REPO = resolve(__dirname, '../..');
 const PIPE_VTU = join(REPO, 'sample-fields/pipe-coarse.vtu');
-const EXTERNAL = resolve(REPO, '../shared/fields/external');
+const EXTERNAL = join(REPO, 'tests/fixtures/external');
 const VTM = join(EXTERNAL, 'vtk-data/ex-blow_5.vtm');
 const enc = new TextEncoder();
 

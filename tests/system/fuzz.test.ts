@@ -18,7 +18,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { mutants, type Mutant } from '../helpers/fuzzMutants.ts';
 
 const REPO = resolve(__dirname, '../..');
-const EXTERNAL = resolve(REPO, '../shared/fields/external');
+const EXTERNAL = join(REPO, 'tests/fixtures/external');
 const SAMPLES = join(REPO, 'sample-fields');
 /** Mutants in all (at least), the seed of the campaign, the cap and the time allowed per file. */
 const TOTAL = 2100, SEED = 16, ADDRESS_SPACE = 4 * 1024 ** 3, PER_FILE_MS = 5000;

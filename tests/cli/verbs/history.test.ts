@@ -169,7 +169,7 @@ describe('fieldtally history', () => {
     expect(m.code).toBe(1);
     expect(m.err.trim().split('\n')).toHaveLength(1);
     expect(m.err).toContain('run.pvd line 3:');
-    expect(m.err).toContain('missing.vtu: cannot read file (no such file)');
+    expect(m.err).toContain('missing.vtu: cannot read file (no such file or folder)');
 
     const rep = join(dir, 'repeat');
     mkdirSync(rep, { recursive: true });
@@ -180,6 +180,6 @@ describe('fieldtally history', () => {
     expect(d.err).toContain('c_2.vtu has time 0.05, the same as c_1.vtu (0.05); step times must increase strictly');
 
     expect((await run('history', PVD, '--probes', PROBES, '--csv', '--json')).err).toContain('choose one of --csv, --json and --out');
-    expect((await run('history', PVD, '--probes', PROBES, '--from', 'soon')).err).toContain('--from: expected a number, got "soon"');
+    expect((await run('history', PVD, '--probes', PROBES, '--from', 'soon')).err).toContain('--from: expected a number written as a decimal number, got "soon"');
   });
 });
