@@ -169,6 +169,22 @@ export interface ForceReply {
   surface: { closed: boolean; openEdges: number; nonManifoldEdges: number; inconsistentEdges: number };
 }
 
+/**
+ * Derived fields to attach to the held dataset (src/derive/derivedFields.ts): after the call they are
+ * fields like the file's own for colouring, cuts, line probes and probe sets. Reference values are SI.
+ */
+export interface DeriveRequest {
+  /** Derived field names, e.g. `vorticity`, `q-criterion`, `cp`. */
+  names: string[];
+  /** Velocity / pressure field names (default: by the naming rule). */
+  velocity?: string;
+  pressure?: string;
+  /** Constant density (kg/m³) or a density field's name, for total pressure. */
+  density?: number | string;
+  /** For cp: reference density (kg/m³), speed (m/s) and pressure (Pa). */
+  reference?: { density?: number; speed?: number; pressure?: number };
+}
+
 /** The worker's API. */
 export interface ComputeApi {
   /** Reads a file or set; replaces the held dataset only on success. Rejects with the reader's error. */
@@ -193,4 +209,6 @@ export interface ComputeApi {
    * The set is checked first (src/study/probeSetCheck.ts); a malformed set rejects with the checker's message.
    */
   evaluateProbeSet(set: ProbeSet): Promise<SetEvaluation>;
+  /** Attaches derived fields to the held dataset; resolves to the updated description (its arrays list them). */
+  deriveFields(request: DeriveRequest): Promise<Description>;
 }

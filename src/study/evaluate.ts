@@ -7,6 +7,7 @@
  *
  * Anchors and shapes (for pins and pictures) are in the file's length unit, like the set's geometry.
  */
+import { derivedNamesIn, withDerivedFields, type DeriveOptions } from '../derive/derivedFields.ts';
 import type { Dataset } from '../model/dataset.ts';
 import type { BoundaryFaces } from '../surface/boundaryFaces.ts';
 import { getBoundaryFaces, getSurfaceGroups } from '../surface/surfaceCache.ts';
@@ -63,9 +64,9 @@ const EVALUATORS: Record<ProbeKind, KindEvaluator> = {
 export function evaluateProbeSet(dataset: Dataset, set: ProbeSet, options: Partial<EvaluateOptions> = {}): SetEvaluation {
   const o = { ...EVALUATE_DEFAULTS, ...options };
   const factors = siFactors(set.units);
-  const d = siDataset(dataset, factors);
-  const k = factors.length;
   const reference = resolveReference(set.reference);
+  const { dataset: d, failed: derivedFailed } = withSetDerivedFields(siDataset(dataset, factors), set, reference);
+  const k = factors.length;
   const declared = set.units?.fields ?? {};
   const ctx: EvalContext = {
     dataset: d, lengthFactor: k, reference, keepShapes: o.keepShapes,
@@ -77,6 +78,8 @@ export function evaluateProbeSet(dataset: Dataset, set: ProbeSet, options: Parti
   const probes = set.probes.map((p) => {
     const out: ProbeOutcome = { id: p.id, kind: p.kind, label: probeLabel(p), ok: true, error: null, quantities: [], notes: [], anchor: null, definition: '' };
     try {
+      const bad = fieldNamesOf(p).find((n) => derivedFailed.has(n.replace(/^(point|cell):/, '')));
+      if (bad) throw new Error(derivedFailed.get(bad.replace(/^(point|cell):/, ''))!);
       EVALUATORS[p.kind](ctx, p, out);
     } catch (e) {
       out.ok = false;
@@ -88,4 +91,38 @@ export function evaluateProbeSet(dataset: Dataset, set: ProbeSet, options: Parti
     return out;
   });
   return { source: dataset.source, probes, failed: probes.filter((p) => !p.ok).length, lengthUnit: set.units?.length ?? 'm', reference };
+}
+
+/** Every field name a probe's `fields` names (strings and lists of strings). */
+export function fieldNamesOf(p: Probe): string[] {
+  const out: string[] = [];
+  const f = (p as { fields?: Record<string, unknown> }).fields;
+  for (const v of Object.values(f ?? {})) {
+    if (typeof v === 'string') out.push(v);
+    else if (Array.isArray(v)) for (const x of v) if (typeof x === 'string') out.push(x);
+  }
+  return out;
+}
+
+/**
+ * The dataset with the derived fields the set's probes name (src/derive/derivedFields.ts), cp on the set's
+ * reference density, speed and pressure; a derived field that cannot be made is left out and its reason
+ * kept, so only the probes that use it fail.
+ */
+function withSetDerivedFields(d: Dataset, set: ProbeSet, reference: ResolvedReference): { dataset: Dataset; failed: Map<string, string> } {
+  const names = derivedNamesIn(d, set.probes.flatMap(fieldNamesOf));
+  const failed = new Map<string, string>();
+  if (names.length === 0) return { dataset: d, failed };
+  const o: Partial<DeriveOptions> = {
+    ...(reference.density !== undefined ? { density: reference.density } : {}),
+    reference: {
+      ...(reference.density !== undefined ? { density: reference.density } : {}),
+      ...(reference.speed !== undefined ? { speed: reference.speed } : {}),
+      ...(reference.pressure !== undefined ? { pressure: reference.pressure } : {}),
+    },
+  };
+  const ok = names.filter((n) => {
+    try { withDerivedFields(d, [n], o); return true; } catch (e) { failed.set(n, (e as Error).message.split('\n')[0]!); return false; }
+  });
+  return { dataset: withDerivedFields(d, ok, o), failed };
 }

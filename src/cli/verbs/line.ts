@@ -4,6 +4,7 @@
  * a line probe with statistics along the line and, for a wall-normal line, boundary-layer quantities.
  */
 import { loadDatasetFile } from '../../io/nodeFiles.ts';
+import { DERIVED_HELP, DERIVED_OPTIONS, withDerivedArgs } from '../derivedArgs.ts';
 import { boundaryLayer, type BoundaryLayerResult } from '../../locate/boundaryLayer.ts';
 import { LINE_PROBE_DEFAULTS, probeLine, type LineProbeResult } from '../../locate/lineProbe.ts';
 import { lineStats, type LineStats } from '../../locate/lineStats.ts';
@@ -68,10 +69,12 @@ const line: Verb = {
     '                     (default 0.001) of its wall value — both common practice',
     '  --stream x,y,z     use the velocity component along this direction (default: magnitude of the part parallel to the wall)',
     '  Samples outside the mesh are flagged (valid = 0) and left out of every statistic.',
+    DERIVED_HELP,
   ].join('\n'),
   options: {
     from: 'string', to: 'string', samples: 'string', crossings: 'boolean', fields: 'string', csv: 'boolean', json: 'boolean',
     tolerance: 'string', 'wall-normal': 'boolean', velocity: 'string', edge: 'string', 'edge-fraction': 'string', stream: 'string',
+    ...DERIVED_OPTIONS,
   },
   async run(argv, io) {
     const args = parseArgs(argv, this.options, 'line');
@@ -94,7 +97,7 @@ const line: Verb = {
     const frac = str(args, 'edge-fraction');
     const stream = str(args, 'stream');
 
-    const dataset = await loadDatasetFile(file);
+    const dataset = withDerivedArgs(await loadDatasetFile(file), fields ?? [], args, { velocity: str(args, 'velocity') });
     const r = probeLine(dataset, parseVec3(f, 'from'), parseVec3(t, 'to'), {
       mode: args.options.crossings ? 'crossings' : 'samples', samples,
       ...(fields ? { fields } : {}), ...(tol !== undefined ? { tolerance: parseNumber(tol, 'tolerance') } : {}),
