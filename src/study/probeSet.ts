@@ -141,6 +141,8 @@ export interface ForceProbe extends ProbeBase {
     viscous?: 'auto' | 'wall-shear' | 'gradient' | 'none';
     kinematicPressure?: boolean;
     wallShearSign?: 1 | -1;
+    /** Wall velocity gradient for the viscous part from the velocity: 'second-order' (default) or 'first-order'. */
+    wallGradient?: 'second-order' | 'first-order';
     /** Values that replace the set's reference values for this probe. */
     reference?: ReferenceDoc;
   };

@@ -34,7 +34,7 @@ export const MEMBERS = {
   forceProbe: ['id', 'kind', 'label', 'geometry', 'fields', 'options'],
   forceGeometry: ['surfaces'],
   forceFields: ['pressure', 'wallShear', 'velocity', 'viscosity'],
-  forceOptions: ['featureAngle', 'groupArray', 'viscous', 'kinematicPressure', 'wallShearSign', 'reference'],
+  forceOptions: ['featureAngle', 'groupArray', 'viscous', 'kinematicPressure', 'wallShearSign', 'wallGradient', 'reference'],
   pressureLossProbe: ['id', 'kind', 'label', 'geometry', 'fields', 'options'],
   lossGeometry: ['upstream', 'downstream'],
   lossOptions: ['kinematicPressure', 'dynamicPressureFrom'],
@@ -237,6 +237,7 @@ function options(c: Checks, kind: string, v: unknown, path: string): void {
     c.optional(o, 'viscous', path, (x, p) => c.oneOf(x, p, ['auto', 'wall-shear', 'gradient', 'none']));
     c.optional(o, 'kinematicPressure', path, (x, p) => c.boolean(x, p));
     c.optional(o, 'wallShearSign', path, (x, p) => c.oneOf(x, p, [1, -1]));
+    c.optional(o, 'wallGradient', path, (x, p) => c.oneOf(x, p, ['second-order', 'first-order']));
     c.optional(o, 'reference', path, (x, p) => reference(c, x, p));
     return;
   }
