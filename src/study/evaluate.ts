@@ -15,6 +15,7 @@ import type { SurfaceGroups } from '../surface/surfaceGroups.ts';
 import { evaluateForce } from './evaluateForce.ts';
 import { evaluateBalance, evaluateCutPlane, evaluateLoss } from './evaluatePlanes.ts';
 import { evaluateLine, evaluatePoint } from './evaluateSamples.ts';
+import { evaluateWall } from './evaluateWall.ts';
 import { resolveReference, type EvalContext, type ProbeOutcome, type ResolvedReference } from './outcome.ts';
 import { probeLabel, type Probe, type ProbeKind, type ProbeSet, type SurfaceGrouping } from './probeSet.ts';
 import { siDataset, siFactors } from './siDataset.ts';
@@ -58,6 +59,7 @@ const EVALUATORS: Record<ProbeKind, KindEvaluator> = {
   force: evaluateForce as KindEvaluator,
   'pressure-loss': evaluateLoss as KindEvaluator,
   'mass-balance': evaluateBalance as KindEvaluator,
+  wall: evaluateWall as KindEvaluator,
 };
 
 /** Evaluates every probe of a (checked) set on `dataset`. Never throws for a single probe's failure. */

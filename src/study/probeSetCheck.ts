@@ -41,6 +41,10 @@ export const MEMBERS = {
   massBalanceProbe: ['id', 'kind', 'label', 'geometry', 'fields', 'options'],
   balanceGeometry: ['planes', 'surfaces'],
   balanceOptions: ['featureAngle', 'groupArray'],
+  wallProbe: ['id', 'kind', 'label', 'geometry', 'fields', 'options'],
+  wallGeometry: ['surfaces'],
+  wallFields: ['wallShear', 'velocity', 'viscosity', 'pressure'],
+  wallOptions: ['featureAngle', 'groupArray', 'wallDistance', 'thresholds', 'bins', 'shearFrom', 'wallGradient', 'wallShearSign'],
 } as const satisfies Record<string, readonly string[]>;
 
 /** Limits shared with the schema. */
@@ -175,7 +179,7 @@ function geometry(c: Checks, kind: string, v: unknown, path: string): void {
     if (o) c.optional(o, 'at', path, (x, p) => c.vec3(x, p));
     return;
   }
-  if (kind === 'force') {
+  if (kind === 'force' || kind === 'wall') {
     const o = c.object(v, path, MEMBERS.forceGeometry, MEMBERS.forceGeometry);
     if (o) c.optional(o, 'surfaces', path, (x, p) => c.array(x, p, surfaceRef(c), 1));
     return;
@@ -198,8 +202,9 @@ function geometry(c: Checks, kind: string, v: unknown, path: string): void {
 function fields(c: Checks, kind: string, v: unknown, path: string): void {
   if (kind === 'cut-plane' || kind === 'pressure-loss' || kind === 'mass-balance') return flowFields(c, v, path);
   if (kind === 'line' || kind === 'point') return sampleFields(c, v, path);
-  const o = c.object(v, path, MEMBERS.forceFields);
-  if (o) for (const k of MEMBERS.forceFields) c.optional(o, k, path, fieldName(c));
+  const members = kind === 'wall' ? MEMBERS.wallFields : MEMBERS.forceFields;
+  const o = c.object(v, path, members);
+  if (o) for (const k of members) c.optional(o, k, path, fieldName(c));
 }
 
 function options(c: Checks, kind: string, v: unknown, path: string): void {
@@ -239,6 +244,18 @@ function options(c: Checks, kind: string, v: unknown, path: string): void {
     c.optional(o, 'wallShearSign', path, (x, p) => c.oneOf(x, p, [1, -1]));
     c.optional(o, 'wallGradient', path, (x, p) => c.oneOf(x, p, ['second-order', 'first-order']));
     c.optional(o, 'reference', path, (x, p) => reference(c, x, p));
+    return;
+  }
+  if (kind === 'wall') {
+    const o = c.object(v, path, MEMBERS.wallOptions);
+    if (!o) return;
+    grouping(c, o, path);
+    c.optional(o, 'wallDistance', path, (x, p) => c.oneOf(x, p, ['cell-centroid', 'first-node']));
+    c.optional(o, 'thresholds', path, (x, p) => c.array(x, p, (y, q) => c.number(y, q, { min: 0 }), 1));
+    c.optional(o, 'bins', path, (x, p) => c.number(x, p, { integer: true, min: 1, max: 1000 }));
+    c.optional(o, 'shearFrom', path, (x, p) => c.oneOf(x, p, ['auto', 'wall-shear', 'gradient']));
+    c.optional(o, 'wallGradient', path, (x, p) => c.oneOf(x, p, ['second-order', 'first-order']));
+    c.optional(o, 'wallShearSign', path, (x, p) => c.oneOf(x, p, [1, -1]));
     return;
   }
   const o = c.object(v, path, MEMBERS.balanceOptions);
