@@ -36,6 +36,12 @@ export const DERIVED_FIELDS = {
   cp: { components: 1, needs: 'pressure', about: '(p − p_ref)/(½ρU²)' },
 } as const;
 
+/** SI unit of each derived field when the inputs are SI. */
+export const DERIVED_UNITS: Readonly<Record<DerivedName, string>> = {
+  'velocity-gradient': '1/s', vorticity: '1/s', 'vorticity-magnitude': '1/s', 'q-criterion': '1/s²', lambda2: '1/s²',
+  helicity: 'm/s²', 'velocity-magnitude': 'm/s', 'total-pressure': 'Pa', cp: '1',
+};
+
 export type DerivedName = keyof typeof DERIVED_FIELDS;
 
 /** Inputs of the derived fields; defaults in DERIVE_DEFAULTS. */
