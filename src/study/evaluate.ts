@@ -8,6 +8,7 @@
  * Anchors and shapes (for pins and pictures) are in the file's length unit, like the set's geometry.
  */
 import { derivedNamesIn, withDerivedFields, type DeriveOptions } from '../derive/derivedFields.ts';
+import { withFormulaFields } from '../derive/formulaFields.ts';
 import type { Dataset } from '../model/dataset.ts';
 import type { BoundaryFaces } from '../surface/boundaryFaces.ts';
 import { getBoundaryFaces, getSurfaceGroups } from '../surface/surfaceCache.ts';
@@ -67,12 +68,15 @@ export function evaluateProbeSet(dataset: Dataset, set: ProbeSet, options: Parti
   const o = { ...EVALUATE_DEFAULTS, ...options };
   const factors = siFactors(set.units);
   const reference = resolveReference(set.reference);
-  const { dataset: d, failed: derivedFailed } = withSetDerivedFields(siDataset(dataset, factors), set, reference);
-  const k = factors.length;
   const declared = set.units?.fields ?? {};
+  const derived = withSetDerivedFields(siDataset(dataset, factors), set, reference);
+  const derivedFailed = derived.failed;
+  const formulas = withSetFormulas(derived.dataset, set, reference, declared, derivedFailed);
+  const d = formulas.dataset;
+  const k = factors.length;
   const ctx: EvalContext = {
     dataset: d, lengthFactor: k, reference, keepShapes: o.keepShapes,
-    fieldUnit: (name) => fieldSiUnit(name.replace(/^(point|cell):/, ''), declared),
+    fieldUnit: (name) => formulas.units[name.replace(/^(point|cell):/, '')] ?? fieldSiUnit(name.replace(/^(point|cell):/, ''), declared),
     surfaces: (g) => surfacesOf(d, g),
     si: (v) => [v[0] * k, v[1] * k, v[2] * k],
     file: (v) => [v[0]! / k, v[1]! / k, v[2]! / k],
@@ -111,11 +115,8 @@ export function fieldNamesOf(p: Probe): string[] {
  * reference density, speed and pressure; a derived field that cannot be made is left out and its reason
  * kept, so only the probes that use it fail.
  */
-function withSetDerivedFields(d: Dataset, set: ProbeSet, reference: ResolvedReference): { dataset: Dataset; failed: Map<string, string> } {
-  const names = derivedNamesIn(d, set.probes.flatMap(fieldNamesOf));
-  const failed = new Map<string, string>();
-  if (names.length === 0) return { dataset: d, failed };
-  const o: Partial<DeriveOptions> = {
+function deriveOptions(reference: ResolvedReference): Partial<DeriveOptions> {
+  return {
     ...(reference.density !== undefined ? { density: reference.density } : {}),
     reference: {
       ...(reference.density !== undefined ? { density: reference.density } : {}),
@@ -123,8 +124,41 @@ function withSetDerivedFields(d: Dataset, set: ProbeSet, reference: ResolvedRefe
       ...(reference.pressure !== undefined ? { pressure: reference.pressure } : {}),
     },
   };
+}
+
+function withSetDerivedFields(d: Dataset, set: ProbeSet, reference: ResolvedReference): { dataset: Dataset; failed: Map<string, string> } {
+  const names = derivedNamesIn(d, set.probes.flatMap(fieldNamesOf)).filter((n) => !(set.formulas ?? []).some((f) => f.name === n));
+  const failed = new Map<string, string>();
+  if (names.length === 0) return { dataset: d, failed };
+  const o = deriveOptions(reference);
   const ok = names.filter((n) => {
     try { withDerivedFields(d, [n], o); return true; } catch (e) { failed.set(n, (e as Error).message.split('\n')[0]!); return false; }
   });
   return { dataset: withDerivedFields(d, ok, o), failed };
+}
+
+/**
+ * The dataset with the set's formulas attached one by one (src/derive/formulaFields.ts) and their SI
+ * units; a formula that fails is left out, its message kept in `failed` under its name (so only the probes
+ * naming it, or formulas after it that use it, fail).
+ */
+function withSetFormulas(d: Dataset, set: ProbeSet, reference: ResolvedReference, declared: Record<string, string>,
+  failed: Map<string, string>): { dataset: Dataset; units: Record<string, string> } {
+  let cur = d;
+  const units: Record<string, string> = {};
+  const ctx = {
+    reference: { density: reference.density, viscosity: reference.viscosity, speed: reference.speed, pressure: reference.pressure, area: reference.area, length: reference.length },
+    unitOf: (name: string) => units[name] ?? fieldSiUnit(name, declared),
+    derive: deriveOptions(reference),
+  };
+  for (const f of set.formulas ?? []) {
+    try {
+      const r = withFormulaFields(cur, [f], ctx);
+      cur = r.dataset;
+      Object.assign(units, r.units);
+    } catch (e) {
+      failed.set(f.name, (e as Error).message.split('\n')[0]!);
+    }
+  }
+  return { dataset: cur, units };
 }

@@ -192,6 +192,8 @@ export interface ProbeSet {
   description?: string;
   units?: UnitsDoc;
   reference?: ReferenceDoc;
+  /** User formulas defining new fields (name = expression; see src/derive/formulaParse.ts), evaluated in order. */
+  formulas?: { name: string; expression: string }[];
   probes: Probe[];
 }
 

@@ -7,12 +7,14 @@
  * a zero rectangle axis or drag/lift direction, and a line whose two ends coincide.
  */
 import { Checks, DocumentError, at } from './checkValues.ts';
+import { checkFormula, FORMULA_NAME } from '../derive/formulaFields.ts';
 import { PROBE_KINDS, PROBE_SET_FORMAT, PROBE_SET_VERSION, type ProbeSet } from './probeSet.ts';
 import { FLUID_PRESETS, LENGTH_UNITS, UNIT_CATALOGUE, unitDef, unitProblem } from './units.ts';
 
 /** Members each object of the document may hold, by schema `$defs` name (`document` is the root). */
 export const MEMBERS = {
-  document: ['format', 'version', 'title', 'description', 'units', 'reference', 'probes'],
+  document: ['format', 'version', 'title', 'description', 'units', 'reference', 'formulas', 'probes'],
+  formula: ['name', 'expression'],
   units: ['length', 'fields'],
   reference: ['preset', 'density', 'viscosity', 'speed', 'area', 'length', 'pressure', 'dragDirection', 'liftDirection', 'momentPoint'],
   plane: ['origin', 'normal', 'region'],
@@ -280,6 +282,16 @@ function probe(c: Checks, v: unknown, path: string, ids: Map<string, string>): v
   c.optional(o, 'options', path, (x, p) => options(c, k, x, p));
 }
 
+/** A formula: a new field's name and an expression that parses (the parser's message names the column). */
+function formula(c: Checks, v: unknown, path: string): void {
+  const o = c.object(v, path, MEMBERS.formula, MEMBERS.formula);
+  if (!o) return;
+  const name = o['name'] === undefined ? undefined : c.string(o['name'], at(path, 'name'), { pattern: FORMULA_NAME, patternText: 'a name of letters, digits, "_", "-" or "." starting with a letter (at most 64)' });
+  const expr = o['expression'] === undefined ? undefined : c.string(o['expression'], at(path, 'expression'), { minLength: 1, maxLength: 10000 });
+  if (name === undefined || expr === undefined) return;
+  try { checkFormula({ name, expression: expr }); } catch (e) { c.fail(at(path, 'expression'), `a formula that parses (${(e as Error).message.replace(/^formula "[^"]*": /, '')})`, expr); }
+}
+
 /**
  * Checks a parsed version-2 document; returns a deep copy typed as `ProbeSet`, or throws a `DocumentError`
  * listing every issue (`source` names the document in messages).
@@ -294,6 +306,7 @@ export function checkProbeSet(doc: unknown, source = 'probe set'): ProbeSet {
     c.optional(o, 'description', '', (x, p) => c.string(x, p));
     c.optional(o, 'units', '', (x, p) => units(c, x, p));
     c.optional(o, 'reference', '', (x, p) => reference(c, x, p));
+    c.optional(o, 'formulas', '', (x, p) => c.array(x, p, (y, q) => { formula(c, y, q); return y; }));
     const ids = new Map<string, string>();
     c.optional(o, 'probes', '', (x, p) => c.array(x, p, (y, q) => { probe(c, y, q, ids); return y; }));
   }

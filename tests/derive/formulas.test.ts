@@ -89,3 +89,42 @@ describe('evaluation over arrays', () => {
     expect(() => withFormulaFields(d, [{ name: '9x', expression: '1' }], { reference: {}, unitOf: () => undefined })).toThrow(/starting with a letter/);
   });
 });
+
+describe('formulas in probe sets and on the command line', () => {
+  const PIPE = resolve(__dirname, '../../sample-fields/pipe-medium.vtu');
+  it('a set\'s formulas become fields its probes sample, with their units; a failing formula fails only its probes', async () => {
+    const { checkProbeSet } = await import('../../src/study/probeSetCheck.ts');
+    const { evaluateProbeSet } = await import('../../src/study/evaluate.ts');
+    const e = pipeExact();
+    const d = await readDataset('pipe-medium.vtu', new Uint8Array(readFileSync(PIPE)));
+    const set = checkProbeSet({
+      format: 'fieldtally-probe-set', version: 2, reference: { density: e.rho },
+      formulas: [{ name: 'dyn', expression: '0.5 * ref.density * dot(velocity, velocity)' }, { name: 'bad', expression: 'nothing * 2' }],
+      probes: [
+        { id: 'a', kind: 'point', geometry: { at: [0, 0, 0.05] }, fields: { sample: ['dyn'] } },
+        { id: 'b', kind: 'point', geometry: { at: [0, 0, 0.05] }, fields: { sample: ['bad'] } },
+      ],
+    }, 'set.json');
+    const ev = evaluateProbeSet(d, set);
+    const q = ev.probes[0]!.quantities.find((x) => x.key === 'dyn')!;
+    expect(q.value).toBeCloseTo(0.5 * e.rho * (2 * e.V) ** 2, 9);
+    expect(q.unit).toBe('Pa');
+    expect(ev.probes[1]!.ok).toBe(false);
+    expect(ev.probes[1]!.error).toBe('formula "bad": column 1: no field "nothing"');
+    expect(() => checkProbeSet({ format: 'fieldtally-probe-set', version: 2, formulas: [{ name: 'x', expression: 'p +' }], probes: [] }, 'set.json'))
+      .toThrow(/formulas\[0\]\.expression: expected a formula that parses.*column 4: expected a number, a field name, a function or "\(", found the end of the formula/);
+  });
+
+  it('--formula on the point verb', async () => {
+    const { main } = await import('../../src/cli/main.ts');
+    let out = '', err = '';
+    const code = await main(['point', PIPE, '--at', '0,0,0.05', '--formula', 'dyn = 0.5*ref.density*dot(velocity,velocity); pt = p + dyn', '--fields', 'p,dyn,pt', '--reference-density', '998.207', '--json'],
+      { out: (t) => { out += t; }, err: (t) => { err += t; } });
+    expect(code, err).toBe(0);
+    const v = JSON.parse(out).points[0].values;
+    expect(v.pt).toBeCloseTo(v.p + v.dyn, 12);
+    const bad = await main(['point', PIPE, '--at', '0,0,0.05', '--formula', 'x = 2 *'], { out: () => {}, err: (t) => { err = t; } });
+    expect(bad).toBe(1);
+    expect(err).toMatch(/^fieldtally point: formula "x": column 4: expected a number/);
+  });
+});
