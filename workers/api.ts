@@ -206,6 +206,22 @@ export interface SeriesProgress {
   time: number;
 }
 
+/**
+ * Derived fields to attach to the held dataset (src/derive/derivedFields.ts): after the call they are
+ * fields like the file's own for colouring, cuts, line probes and probe sets. Reference values are SI.
+ */
+export interface DeriveRequest {
+  /** Derived field names, e.g. `vorticity`, `q-criterion`, `cp`. */
+  names: string[];
+  /** Velocity / pressure field names (default: by the naming rule). */
+  velocity?: string;
+  pressure?: string;
+  /** Constant density (kg/m³) or a density field's name, for total pressure. */
+  density?: number | string;
+  /** For cp: reference density (kg/m³), speed (m/s) and pressure (Pa). */
+  reference?: { density?: number; speed?: number; pressure?: number };
+}
+
 /** The worker's API. */
 export interface ComputeApi {
   /** Reads a file or set; replaces the held dataset only on success. Rejects with the reader's error. */
@@ -254,4 +270,6 @@ export interface ComputeApi {
   evaluateSeries(set: ProbeSet, window?: { from?: number; to?: number }, onProgress?: (p: SeriesProgress) => void): Promise<HistoryTable>;
   /** Stops a running `evaluateSeries` (and a `showStep` still reading) at the next step. */
   cancelSeries(): void;
+  /** Attaches derived fields to the held dataset; resolves to the updated description (its arrays list them). */
+  deriveFields(request: DeriveRequest): Promise<Description>;
 }

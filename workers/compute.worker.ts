@@ -25,8 +25,9 @@ import { datasetBounds } from '../src/model/bounds.ts';
 import type { BoundaryFaces } from '../src/surface/boundaryFaces.ts';
 import { getBoundaryFaces, getSurfaceGroups } from '../src/surface/surfaceCache.ts';
 import { facesOfGroups, type SurfaceGroups } from '../src/surface/surfaceGroups.ts';
+import { withDerivedFields } from '../src/derive/derivedFields.ts';
 import type {
-  ComputeApi, CutReply, CutRequest, Description, DrawingValues, FieldChoice, ForceReply, ForceRequest, SetEvaluation,
+  ComputeApi, CutReply, DeriveRequest, CutRequest, Description, DrawingValues, FieldChoice, ForceReply, ForceRequest, SetEvaluation,
   LineReply, LineRequest, LoadRequest, ProgressCallback, SurfaceReply,
 } from './api.ts';
 import { groupOutline } from '../src/surface/groupOutline.ts';
@@ -338,6 +339,17 @@ export function createComputeApi(): ComputeApi {
     },
 
     cancelSeries(): void { seriesRun?.abort(); loading?.abort(); },
+
+    async deriveFields(request: DeriveRequest): Promise<Description> {
+      const h = need();
+      if (!Array.isArray(request.names) || request.names.some((n) => typeof n !== 'string')) throw new Error('derived fields: expected a list of field names');
+      const dataset = withDerivedFields(h.dataset, request.names, {
+        velocity: request.velocity || undefined, pressure: request.pressure || undefined, density: request.density, reference: request.reference ?? {},
+      });
+      // same points and cells: the boundary faces and groups found at load stay valid
+      held = { ...h, dataset, description: { ...h.description, report: loadReport(dataset) } };
+      return held.description;
+    },
   };
 }
 

@@ -31,7 +31,7 @@ import type { Viewer } from './viewer.ts';
 const SAVE_DELAY_MS = 250;
 
 const KIND: Record<Probe['kind'], ProbeKind> = {
-  'cut-plane': 'plane', line: 'line', point: 'point', force: 'force', 'pressure-loss': 'pressure-loss', 'mass-balance': 'mass-balance',
+  'cut-plane': 'plane', line: 'line', point: 'point', force: 'force', 'pressure-loss': 'pressure-loss', 'mass-balance': 'mass-balance', wall: 'wall',
 };
 
 /** A probe outcome of the worker's set evaluation as a row of the results table and a pin. */

@@ -43,7 +43,7 @@ export function evaluateForce(ctx: EvalContext, p: ForceProbe, out: ProbeOutcome
   out.definition = `force on ${names.join(' + ')}`;
   const loadOptions: Partial<LoadOptions> = {
     viscous: o.viscous ?? 'auto', pRef: ref.pressure ?? 0, kinematic: o.kinematicPressure ?? false, rho: ref.density,
-    mu: f.viscosity ?? ref.viscosity, wallShearSign: o.wallShearSign ?? 1,
+    mu: f.viscosity ?? ref.viscosity, wallShearSign: o.wallShearSign ?? 1, wallGradient: o.wallGradient ?? 'second-order',
     ...(f.pressure !== undefined ? { pressure: f.pressure } : {}),
     ...(f.wallShear !== undefined ? { wallShear: f.wallShear } : {}),
     ...(f.velocity !== undefined ? { velocity: f.velocity } : {}),

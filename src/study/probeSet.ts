@@ -17,7 +17,7 @@ export const PROBE_SET_FORMAT = 'fieldtally-probe-set';
 /** The version this code writes; older versions are upgraded on reading. */
 export const PROBE_SET_VERSION = 2;
 
-export const PROBE_KINDS = ['cut-plane', 'line', 'point', 'force', 'pressure-loss', 'mass-balance'] as const;
+export const PROBE_KINDS = ['cut-plane', 'line', 'point', 'force', 'pressure-loss', 'mass-balance', 'wall'] as const;
 export type ProbeKind = (typeof PROBE_KINDS)[number];
 
 /** Filters that keep part of a cut (all optional; see src/cut/region.ts for the order they apply in). */
@@ -141,6 +141,8 @@ export interface ForceProbe extends ProbeBase {
     viscous?: 'auto' | 'wall-shear' | 'gradient' | 'none';
     kinematicPressure?: boolean;
     wallShearSign?: 1 | -1;
+    /** Wall velocity gradient for the viscous part from the velocity: 'second-order' (default) or 'first-order'. */
+    wallGradient?: 'second-order' | 'first-order';
     /** Values that replace the set's reference values for this probe. */
     reference?: ReferenceDoc;
   };
@@ -161,7 +163,26 @@ export interface MassBalanceProbe extends ProbeBase {
   options?: SurfaceGrouping;
 }
 
-export type Probe = CutPlaneProbe | LineProbe | PointProbe | ForceProbe | PressureLossProbe | MassBalanceProbe;
+/** Wall quantities (τ_w, c_f, y⁺ statistics) on each of the named surface groups together. */
+export interface WallProbe extends ProbeBase {
+  kind: 'wall';
+  geometry: { surfaces: SurfaceRef[] };
+  fields?: { wallShear?: string; velocity?: string; viscosity?: string; pressure?: string };
+  options?: SurfaceGrouping & {
+    /** y of y⁺: the wall cell's centroid (default) or its first off-wall node. */
+    wallDistance?: 'cell-centroid' | 'first-node';
+    /** y⁺ thresholds for area shares (default [1, 5, 30]). */
+    thresholds?: number[];
+    /** y⁺ histogram bins (default 10). */
+    bins?: number;
+    /** τ_w from the file's wall-shear array, the velocity gradient, or auto (array when present). */
+    shearFrom?: 'auto' | 'wall-shear' | 'gradient';
+    wallGradient?: 'second-order' | 'first-order';
+    wallShearSign?: 1 | -1;
+  };
+}
+
+export type Probe = CutPlaneProbe | LineProbe | PointProbe | ForceProbe | PressureLossProbe | MassBalanceProbe | WallProbe;
 
 /** A probe-set document of the current version. */
 export interface ProbeSet {
@@ -171,6 +192,8 @@ export interface ProbeSet {
   description?: string;
   units?: UnitsDoc;
   reference?: ReferenceDoc;
+  /** User formulas defining new fields (name = expression; see src/derive/formulaParse.ts), evaluated in order. */
+  formulas?: { name: string; expression: string }[];
   probes: Probe[];
 }
 

@@ -7,12 +7,14 @@
  * a zero rectangle axis or drag/lift direction, and a line whose two ends coincide.
  */
 import { Checks, DocumentError, at } from './checkValues.ts';
+import { checkFormula, FORMULA_NAME } from '../derive/formulaFields.ts';
 import { PROBE_KINDS, PROBE_SET_FORMAT, PROBE_SET_VERSION, type ProbeSet } from './probeSet.ts';
 import { FLUID_PRESETS, LENGTH_UNITS, UNIT_CATALOGUE, unitDef, unitProblem } from './units.ts';
 
 /** Members each object of the document may hold, by schema `$defs` name (`document` is the root). */
 export const MEMBERS = {
-  document: ['format', 'version', 'title', 'description', 'units', 'reference', 'probes'],
+  document: ['format', 'version', 'title', 'description', 'units', 'reference', 'formulas', 'probes'],
+  formula: ['name', 'expression'],
   units: ['length', 'fields'],
   reference: ['preset', 'density', 'viscosity', 'speed', 'area', 'length', 'pressure', 'dragDirection', 'liftDirection', 'momentPoint'],
   plane: ['origin', 'normal', 'region'],
@@ -34,13 +36,17 @@ export const MEMBERS = {
   forceProbe: ['id', 'kind', 'label', 'geometry', 'fields', 'options'],
   forceGeometry: ['surfaces'],
   forceFields: ['pressure', 'wallShear', 'velocity', 'viscosity'],
-  forceOptions: ['featureAngle', 'groupArray', 'viscous', 'kinematicPressure', 'wallShearSign', 'reference'],
+  forceOptions: ['featureAngle', 'groupArray', 'viscous', 'kinematicPressure', 'wallShearSign', 'wallGradient', 'reference'],
   pressureLossProbe: ['id', 'kind', 'label', 'geometry', 'fields', 'options'],
   lossGeometry: ['upstream', 'downstream'],
   lossOptions: ['kinematicPressure', 'dynamicPressureFrom'],
   massBalanceProbe: ['id', 'kind', 'label', 'geometry', 'fields', 'options'],
   balanceGeometry: ['planes', 'surfaces'],
   balanceOptions: ['featureAngle', 'groupArray'],
+  wallProbe: ['id', 'kind', 'label', 'geometry', 'fields', 'options'],
+  wallGeometry: ['surfaces'],
+  wallFields: ['wallShear', 'velocity', 'viscosity', 'pressure'],
+  wallOptions: ['featureAngle', 'groupArray', 'wallDistance', 'thresholds', 'bins', 'shearFrom', 'wallGradient', 'wallShearSign'],
 } as const satisfies Record<string, readonly string[]>;
 
 /** Limits shared with the schema. */
@@ -184,7 +190,7 @@ function geometry(c: Checks, kind: string, v: unknown, path: string): void {
     if (o) c.optional(o, 'at', path, (x, p) => c.vec3(x, p));
     return;
   }
-  if (kind === 'force') {
+  if (kind === 'force' || kind === 'wall') {
     const o = c.object(v, path, MEMBERS.forceGeometry, MEMBERS.forceGeometry);
     if (o) c.optional(o, 'surfaces', path, (x, p) => c.array(x, p, surfaceRef(c), 1));
     return;
@@ -207,8 +213,9 @@ function geometry(c: Checks, kind: string, v: unknown, path: string): void {
 function fields(c: Checks, kind: string, v: unknown, path: string): void {
   if (kind === 'cut-plane' || kind === 'pressure-loss' || kind === 'mass-balance') return flowFields(c, v, path);
   if (kind === 'line' || kind === 'point') return sampleFields(c, v, path);
-  const o = c.object(v, path, MEMBERS.forceFields);
-  if (o) for (const k of MEMBERS.forceFields) c.optional(o, k, path, fieldName(c));
+  const members = kind === 'wall' ? MEMBERS.wallFields : MEMBERS.forceFields;
+  const o = c.object(v, path, members);
+  if (o) for (const k of members) c.optional(o, k, path, fieldName(c));
 }
 
 function options(c: Checks, kind: string, v: unknown, path: string): void {
@@ -246,7 +253,20 @@ function options(c: Checks, kind: string, v: unknown, path: string): void {
     c.optional(o, 'viscous', path, (x, p) => c.oneOf(x, p, ['auto', 'wall-shear', 'gradient', 'none']));
     c.optional(o, 'kinematicPressure', path, (x, p) => c.boolean(x, p));
     c.optional(o, 'wallShearSign', path, (x, p) => c.oneOf(x, p, [1, -1]));
+    c.optional(o, 'wallGradient', path, (x, p) => c.oneOf(x, p, ['second-order', 'first-order']));
     c.optional(o, 'reference', path, (x, p) => reference(c, x, p));
+    return;
+  }
+  if (kind === 'wall') {
+    const o = c.object(v, path, MEMBERS.wallOptions);
+    if (!o) return;
+    grouping(c, o, path);
+    c.optional(o, 'wallDistance', path, (x, p) => c.oneOf(x, p, ['cell-centroid', 'first-node']));
+    c.optional(o, 'thresholds', path, (x, p) => c.array(x, p, (y, q) => c.number(y, q, { min: 0 }), 1));
+    c.optional(o, 'bins', path, (x, p) => c.number(x, p, { integer: true, min: 1, max: 1000 }));
+    c.optional(o, 'shearFrom', path, (x, p) => c.oneOf(x, p, ['auto', 'wall-shear', 'gradient']));
+    c.optional(o, 'wallGradient', path, (x, p) => c.oneOf(x, p, ['second-order', 'first-order']));
+    c.optional(o, 'wallShearSign', path, (x, p) => c.oneOf(x, p, [1, -1]));
     return;
   }
   const o = c.object(v, path, MEMBERS.balanceOptions);
@@ -271,6 +291,16 @@ function probe(c: Checks, v: unknown, path: string, ids: Map<string, string>): v
   c.optional(o, 'options', path, (x, p) => options(c, k, x, p));
 }
 
+/** A formula: a new field's name and an expression that parses (the parser's message names the column). */
+function formula(c: Checks, v: unknown, path: string): void {
+  const o = c.object(v, path, MEMBERS.formula, MEMBERS.formula);
+  if (!o) return;
+  const name = o['name'] === undefined ? undefined : c.string(o['name'], at(path, 'name'), { pattern: FORMULA_NAME, patternText: 'a name of letters, digits, "_", "-" or "." starting with a letter (at most 64)' });
+  const expr = o['expression'] === undefined ? undefined : c.string(o['expression'], at(path, 'expression'), { minLength: 1, maxLength: 10000 });
+  if (name === undefined || expr === undefined) return;
+  try { checkFormula({ name, expression: expr }); } catch (e) { c.fail(at(path, 'expression'), `a formula that parses (${(e as Error).message.replace(/^formula "[^"]*": /, '')})`, expr); }
+}
+
 /**
  * Checks a parsed version-2 document; returns a deep copy typed as `ProbeSet`, or throws a `DocumentError`
  * listing every issue (`source` names the document in messages).
@@ -285,6 +315,7 @@ export function checkProbeSet(doc: unknown, source = 'probe set'): ProbeSet {
     c.optional(o, 'description', '', (x, p) => c.string(x, p));
     c.optional(o, 'units', '', (x, p) => units(c, x, p));
     c.optional(o, 'reference', '', (x, p) => reference(c, x, p));
+    c.optional(o, 'formulas', '', (x, p) => c.array(x, p, (y, q) => { formula(c, y, q); return y; }));
     const ids = new Map<string, string>();
     c.optional(o, 'probes', '', (x, p) => c.array(x, p, (y, q) => { probe(c, y, q, ids); return y; }));
   }

@@ -32,6 +32,7 @@ export const HEADLINE_KEYS: Readonly<Record<string, readonly string[]>> = {
   force: ['CD', 'force.drag', 'CL'],
   'pressure-loss': ['totalPressureLoss', 'lossCoefficient'],
   'mass-balance': ['net', 'imbalanceShare'],
+  wall: ['yPlus.mean', 'wallShear.mean'],
 };
 
 /** Up to `n` headline quantities of an outcome (its first quantities when none of the headline keys is there). */
@@ -51,6 +52,7 @@ export const CONVENTIONS: readonly string[] = [
   'Mass balance: plane normals point out of the control volume, boundary surfaces out of the fluid; net = Σ outward flux (0 when balanced).',
   `Forces: ${FORCE_SIGN} Coefficients C = F/(½ρU²A) along the drag, lift and side (= lift × drag) directions.`,
   'Line probes: statistics over the samples inside the mesh only (length-weighted means); samples outside are left out, never zeroed.',
+  'Wall quantities: τ_w the tangential viscous traction on the wall; c_f = |τ_w|/(½ρU²); y+ = y·√(|τ_w|/ρ)/ν with y as the probe states (wall-cell centroid or first off-wall node); statistics area-weighted.',
 ];
 
 /** Failures over all files, as `file: probe — message` lines. */

@@ -11,16 +11,19 @@
  *  - `traction[3i..3i+2]`: the viscous force per area the fluid exerts on the wall (pressure unit), from
  *      * a wall-shear-stress vector array (point or cell data, as above), read as the traction the fluid
  *        exerts on the wall (`wallShearSign: -1` for files storing the opposite sign), or
- *      * the velocity of the wall-adjacent (owning) cell, constant over each face: for point velocity the
- *        cell's Green–Gauss gradient, t = −μ(∇u + ∇uᵀ)·n with n the unit normal out of the fluid
- *        (`wallGradient.ts`); for cell velocity t = μ u_t/d (see `gradientTraction`). μ a constant (Pa·s)
- *        or a point/cell array (face-node average / owning-cell value).
+ *      * the velocity gradient, t = −μ(∇u + ∇uᵀ)·n with n the unit normal out of the fluid: for point
+ *        velocity by default the second-order gradient at each corner node (`wallTraction.ts`, quadratic
+ *        least-squares fit), or with `wallGradient: 'first-order'` the wall cell's Green–Gauss gradient,
+ *        constant over each face (`wallGradient.ts`); for cell velocity t = μ u_t/d (see
+ *        `gradientTraction`). μ a constant (Pa·s) or a point/cell array (node value or face-node average /
+ *        owning-cell value).
  */
 import { pieceOfCell, type Dataset } from '../model/dataset.ts';
 import type { FieldArray } from '../model/fieldArray.ts';
 import type { BoundaryFaces } from './boundaryFaces.ts';
 import { vertexAverage } from './faceGeometry.ts';
 import { cellVelocityGradient } from './wallGradient.ts';
+import { cornerGradients, cornerTraction } from './wallTraction.ts';
 
 /** Options of `surfaceLoads` (and of force totals). */
 export interface LoadOptions {
@@ -42,11 +45,16 @@ export interface LoadOptions {
   velocity: string | undefined;
   /** Dynamic viscosity: a constant (Pa·s) or the name of a point/cell array. Needed for the gradient. */
   mu: number | string | undefined;
+  /**
+   * Velocity gradient at the wall for point velocity: 'second-order' (quadratic fit at each corner node,
+   * default) or 'first-order' (the wall cell's linear Green–Gauss gradient).
+   */
+  wallGradient: 'second-order' | 'first-order';
 }
 
 export const LOAD_DEFAULTS: LoadOptions = {
   pressure: undefined, pRef: 0, kinematic: false, rho: undefined, viscous: 'auto',
-  wallShear: undefined, wallShearSign: 1, velocity: undefined, mu: undefined,
+  wallShear: undefined, wallShearSign: 1, velocity: undefined, mu: undefined, wallGradient: 'second-order',
 };
 
 export type ViscousMethod = 'wall-shear-array' | 'velocity-gradient' | 'none';
@@ -59,7 +67,7 @@ export interface SurfaceLoads {
   readonly traction: Float64Array | null;
   readonly pressureArray: string;
   readonly pressureAssociation: 'point' | 'cell';
-  readonly viscous: { method: ViscousMethod; array?: string; association?: 'point' | 'cell'; mu?: number | string };
+  readonly viscous: { method: ViscousMethod; array?: string; association?: 'point' | 'cell'; mu?: number | string; gradient?: 'second-order' | 'first-order' };
   /** Things the caller should show with the result (approximations taken, parts skipped). */
   readonly notes: string[];
 }
@@ -137,8 +145,10 @@ export function surfaceLoads(d: Dataset, faces: BoundaryFaces, selection: Int32A
       if (o.viscous === 'gradient') throw new Error(`${d.source}: viscous force from the velocity gradient needs a velocity array and μ: ${why}`);
       notes.push(`viscous force not computed: no wall-shear array and ${why}`);
     } else {
-      traction = gradientTraction(d, faces, selection, offsets, vel, o.mu, notes);
-      viscous = { method: 'velocity-gradient', array: vel[pieces[0]!]!.name, association: vel[pieces[0]!]!.association as 'point' | 'cell', mu: o.mu };
+      const assoc = vel[pieces[0]!]!.association as 'point' | 'cell';
+      const second = assoc === 'point' && o.wallGradient !== 'first-order';
+      traction = second ? secondOrderTraction(d, faces, selection, offsets, vel, o.mu) : gradientTraction(d, faces, selection, offsets, vel, o.mu, notes);
+      viscous = { method: 'velocity-gradient', array: vel[pieces[0]!]!.name, association: assoc, mu: o.mu, gradient: second ? 'second-order' : 'first-order' };
     }
   } else notes.push('viscous force not computed (viscous: none)');
   return { selection, offsets, pressure, traction, pressureArray: pName, pressureAssociation: pAssoc, viscous, notes };
@@ -176,6 +186,20 @@ function gather(d: Dataset, faces: BoundaryFaces, selection: Int32Array, offsets
     for (let j = 0; j < m; j++) for (let c = 0; c < nc; c++) out[o + nc * j + c] = scale * (v[nc * cell + c]! - shift);
   }
   return out;
+}
+
+/** Traction from the second-order gradient at every corner node (`wallTraction.ts`), μ a constant or an array. */
+function secondOrderTraction(d: Dataset, faces: BoundaryFaces, selection: Int32Array, offsets: Int32Array, vel: FieldArray[],
+  mu: number | string): Float64Array {
+  if (typeof mu === 'number' && !(mu >= 0)) throw new Error(`viscosity μ must be ≥ 0, got ${mu}`);
+  const G = cornerGradients(d, faces, selection, offsets, vel);
+  if (typeof mu === 'number') return cornerTraction(faces, selection, offsets, G, () => mu);
+  const arrays = d.pieces.map((p) => p.pointData.find((f) => f.name === mu && f.components === 1) ?? p.cellData.find((f) => f.name === mu && f.components === 1));
+  return cornerTraction(faces, selection, offsets, G, (s, j) => {
+    const f = selection[s]!, piece = faces.piece[f]!, arr = arrays[piece];
+    if (!arr) throw new Error(`${d.source}: viscosity array "${mu}" is missing from piece ${piece}`);
+    return arr.association === 'cell' ? arr.values[faces.cell[f]! - faces.cellStarts[piece]!]! : arr.values[faces.nodes[faces.offsets[f]! + j]!]!;
+  });
 }
 
 /**

@@ -114,7 +114,7 @@ describe('probe set: malformed documents are refused with a clear error', () => 
   it('an unknown kind, unit or preset', () => {
     const s = valid() as unknown as { probes: { kind: string }[] };
     s.probes[4]!.kind = 'probe-point';
-    expect(refuse(s).message).toMatch(/^case\.json: probes\[4\]\.kind: expected one of "cut-plane", "line", "point", "force", "pressure-loss", "mass-balance", found "probe-point"$/);
+    expect(refuse(s).message).toMatch(/^case\.json: probes\[4\]\.kind: expected one of "cut-plane", "line", "point", "force", "pressure-loss", "mass-balance", "wall", found "probe-point"$/);
     const u = valid();
     u.units = { fields: { p: 'kg/m3', T: 'degC' } };
     const e = refuse(u);

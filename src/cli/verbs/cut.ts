@@ -11,16 +11,19 @@ import {
 } from '../cutCommon.ts';
 import type { Verb } from '../verb.ts';
 import { loadForCompute, WORKER_HELP, WORKER_OPTIONS } from '../workerOption.ts';
+import { DERIVED_HELP, DERIVED_OPTIONS, withDerivedArgs } from '../derivedArgs.ts';
 
 const cut: Verb = {
   summary: 'cut-plane integrals: area, flow rates, area- and mass-flow-weighted means, total pressure',
   usage: [
     'fieldtally cut <file> --origin x,y,z --normal x,y,z [--seed x,y,z] [--disk …] [--rect …] [--groups …]',
-    '               [--velocity name] [--pressure name] [--rho value|name] [--kinematic] [--json] [--workers N]',
+    '               [--velocity name] [--pressure name] [--rho value|name] [--kinematic] [--fields a,b] [--json] [--workers N]',
     '  Cuts every 3D cell with the plane through --origin with normal --normal and integrates over the cut.',
-    REGION_HELP, FIELD_HELP, FIELD_RULE, WORKER_HELP, SIGN_CONVENTION, UNITS_NOTE,
+    REGION_HELP, FIELD_HELP,
+    '  --fields a,b            derived fields to add: their integrals, means and ranges are reported with the file\'s fields',
+    DERIVED_HELP, FIELD_RULE, WORKER_HELP, SIGN_CONVENTION, UNITS_NOTE,
   ].join('\n'),
-  options: { origin: 'string', normal: 'string', ...REGION_OPTIONS, ...FIELD_OPTIONS, ...WORKER_OPTIONS },
+  options: { origin: 'string', normal: 'string', ...REGION_OPTIONS, ...FIELD_OPTIONS, fields: 'string', ...DERIVED_OPTIONS, ...WORKER_OPTIONS },
   async run(argv, io) {
     const args = parseArgs(argv, this.options, 'cut');
     const file = args.positional[0];
@@ -29,12 +32,21 @@ const cut: Verb = {
     if (!o || !n) throw new Error('--origin and --normal are required (three numbers each, e.g. --origin 0,0,0.05 --normal 0,0,1)');
     const origin = parseVec3(o, 'origin'), normal = parseDirection(n, 'normal');
     const region = regionSpecs(args);
+    const extra = str(args, 'fields')?.split(',').map((x) => x.trim()).filter((x) => x !== '') ?? [];
     const input = await loadForCompute(file, args);
-    const { dataset, pool } = input;
     let result;
+    let dataset;
     try {
+      const none = (v: string | undefined) => (v === 'none' ? undefined : v);
+      const rho = none(str(args, 'rho'));
+      dataset = withDerivedArgs(input.dataset, [...extra, ...[str(args, 'velocity'), str(args, 'pressure'), rho].filter((x): x is string => !!x)], args, {
+        velocity: none(str(args, 'velocity')), pressure: none(str(args, 'pressure')), kinematicPressure: args.options.kinematic === true,
+        ...(rho !== undefined ? { density: /^[-+]?(\d|\.\d)/.test(rho.trim()) ? Number(rho) : rho } : {}),
+      });
+      for (const n of extra) if (!dataset.pieces[0]?.pointData.some((f) => f.name === n) && !dataset.pieces[0]?.cellData.some((f) => f.name === n)) throw new Error(`--fields: no field "${n}" in ${file} and no derived field of that name`);
       const q = { origin, normal, region, integral: integralOptions(args, dataset) };
-      result = pool ? await pool.integratePlane(q) : integratePlane(dataset, q);
+      // Derived fields live on this thread's dataset only: the workers' shared copy lacks them.
+      result = input.pool && dataset === input.dataset ? await input.pool.integratePlane(q) : integratePlane(dataset, q);
     } finally {
       await input.close();
     }

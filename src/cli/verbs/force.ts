@@ -21,7 +21,7 @@ const force: Verb = {
     'fieldtally force <file> --groups a,b [--rho v] [--speed v] [--area v] [--length v] [--drag-direction x,y,z]',
     '                 [--lift-direction x,y,z] [--moment-point x,y,z] [--mu v|field] [--reference-pressure v] [--pressure name]',
     '                 [--kinematic] [--wall-shear name] [--shear-sign -1] [--velocity name] [--viscous auto|wall-shear|gradient|none]',
-    '                 [--cp-axis x,y,z] [--strips n] [--json]',
+    '                 [--cp-axis x,y,z] [--strips n] [--wall-gradient second-order|first-order] [--json]',
     '  --groups        surface groups by id or name (see `fieldtally surfaces`), merged into one force total',
     '  --rho/--speed/--area  reference density, speed and area for coefficients (q = ½ρU²); --length for moment coefficients',
     '  --drag-direction  drag direction (default 1,0,0); --lift-direction lift direction (default 0,0,1, made orthogonal',
@@ -32,6 +32,8 @@ const force: Verb = {
     '  --wall-shear    wall-shear-stress array (default: found by name); --shear-sign -1 if it is the force on the fluid',
     '  --strips n      cut the body into n strips of equal width along the drag direction and give the drag per unit',
     '                  length in each (JSON: distribution)',
+    '  --wall-gradient velocity gradient at the wall for --viscous gradient with point velocity: second-order (default;',
+    '                  quadratic least-squares fit at each wall node) or first-order (the wall cell\'s linear gradient)',
     GROUPING_HELP,
     WORKER_HELP,
     '  Force on the wall (body): F = ∫(p − p_ref)(−n_body) dA + ∫τ_w dA; moment about --moment-point (default origin).',
@@ -39,7 +41,7 @@ const force: Verb = {
   options: {
     groups: 'string', rho: 'string', speed: 'string', area: 'string', length: 'string', 'drag-direction': 'string', 'lift-direction': 'string',
     'moment-point': 'string', mu: 'string', 'reference-pressure': 'string', pressure: 'string', kinematic: 'boolean', 'wall-shear': 'string',
-    'shear-sign': 'string', velocity: 'string', viscous: 'string', 'cp-axis': 'string', strips: 'string', json: 'boolean', ...GROUPING_OPTIONS, ...WORKER_OPTIONS,
+    'shear-sign': 'string', velocity: 'string', viscous: 'string', 'cp-axis': 'string', strips: 'string', 'wall-gradient': 'string', json: 'boolean', ...GROUPING_OPTIONS, ...WORKER_OPTIONS,
   },
   aliases: { 'drag-dir': 'drag-direction', 'lift-dir': 'lift-direction', 'p-ref': 'reference-pressure', bins: 'strips' },
   async run(argv, io) {
@@ -57,6 +59,8 @@ const force: Verb = {
     const muText = str(args, 'mu');
     const mu = muText === undefined ? undefined : /^[-+]?(\d|\.\d)/.test(muText.trim()) ? parsePositive(muText, 'mu', 'a dynamic viscosity in Pa·s') : muText;
     const shearSign = num('shear-sign') ?? 1;
+    const wallGradient = str(args, 'wall-gradient') ?? 'second-order';
+    if (wallGradient !== 'second-order' && wallGradient !== 'first-order') throw new Error(`--wall-gradient: expected second-order or first-order, got "${wallGradient}"`);
     if (shearSign !== 1 && shearSign !== -1) throw new Error(`--shear-sign: expected 1 or -1, got ${shearSign}`);
     const given = [rho, speed, area].filter((x) => x !== undefined).length;
     if (given > 0 && given < 3) throw new Error('coefficients need all of --rho, --speed and --area');
@@ -69,7 +73,7 @@ const force: Verb = {
     const selection = facesOfGroups(groups, picked);
     const loadOptions: Partial<LoadOptions> = {
       viscous: viscous as LoadOptions['viscous'], pRef: num('reference-pressure') ?? 0, kinematic: args.options.kinematic === true,
-      rho, mu, wallShearSign: shearSign as 1 | -1,
+      rho, mu, wallShearSign: shearSign as 1 | -1, wallGradient,
       ...(str(args, 'pressure') !== undefined ? { pressure: str(args, 'pressure') } : {}),
       ...(str(args, 'wall-shear') !== undefined ? { wallShear: str(args, 'wall-shear') } : {}),
       ...(str(args, 'velocity') !== undefined ? { velocity: str(args, 'velocity') } : {}),
@@ -104,7 +108,7 @@ const force: Verb = {
       `  surface ${quality.closed ? 'closed' : `not closed (${quality.openEdges} open, ${quality.inconsistentEdges} inconsistent edges)`}`,
       '',
       `pressure force   ${vec(r.pressureForce)}   [array "${r.pressureArray}"]`,
-      `viscous force    ${vec(r.viscousForce)}   [${r.viscous.method}${r.viscous.array ? ` "${r.viscous.array}"` : ''}]`,
+      `viscous force    ${vec(r.viscousForce)}   [${r.viscous.method}${r.viscous.array ? ` "${r.viscous.array}"` : ''}${r.viscous.gradient ? `, ${r.viscous.gradient}` : ''}]`,
       `total force      ${vec(r.force)}`,
       `moment about ${vec(r.momentPoint)}: ${vec(r.moment)}  (pressure ${vec(r.pressureMoment)}, viscous ${vec(r.viscousMoment)})`,
       `directions: drag ${vec(r.directions.drag)}, lift ${vec(r.directions.lift)}, side ${vec(r.directions.side)}`,

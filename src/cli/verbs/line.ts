@@ -4,6 +4,7 @@
  * a line probe with statistics along the line and, for a wall-normal line, boundary-layer quantities.
  */
 import type { Dataset } from '../../model/dataset.ts';
+import { DERIVED_HELP, DERIVED_OPTIONS, withDerivedArgs } from '../derivedArgs.ts';
 import { boundaryLayer, type BoundaryLayerResult } from '../../locate/boundaryLayer.ts';
 import { LINE_PROBE_DEFAULTS, probeLine, type LineProbeResult } from '../../locate/lineProbe.ts';
 import { lineStats, type LineStats } from '../../locate/lineStats.ts';
@@ -127,11 +128,13 @@ const line: Verb = {
     '  --stream x,y,z     use the velocity component along this direction (default: magnitude of the part parallel to the wall)',
     WORKER_HELP,
     '  Samples outside the mesh are flagged (valid = 0) and left out of every statistic.',
+    DERIVED_HELP,
   ].join('\n'),
   options: {
     from: 'string', to: 'string', samples: 'string', crossings: 'boolean', fields: 'string', csv: 'boolean', json: 'boolean',
     tolerance: 'string', 'wall-normal': 'boolean', velocity: 'string', edge: 'string', 'edge-fraction': 'string', stream: 'string',
     ...WORKER_OPTIONS,
+    ...DERIVED_OPTIONS,
   },
   async run(argv, io) {
     const args = parseArgs(argv, this.options, 'line');
@@ -163,8 +166,10 @@ const line: Verb = {
     const input = await loadForCompute(file, args);
     let r;
     try {
-      if (!args.options.crossings) checkMemory(samples * lineBytesPerSample(input.dataset), `--samples ${samples}: the probe's values and their output`);
-      r = input.pool ? await input.pool.probeLine(from, to, lineOptions) : probeLine(input.dataset, from, to, lineOptions);
+      const dataset = withDerivedArgs(input.dataset, fields ?? [], args, { velocity: str(args, 'velocity') });
+      if (!args.options.crossings) checkMemory(samples * lineBytesPerSample(dataset), `--samples ${samples}: the probe's values and their output`);
+      // Derived fields live on this thread's dataset only: the workers' shared copy lacks them.
+      r = input.pool && dataset === input.dataset ? await input.pool.probeLine(from, to, lineOptions) : probeLine(dataset, from, to, lineOptions);
     } finally {
       await input.close();
     }

@@ -4,6 +4,7 @@
  */
 import { basename } from 'node:path';
 import { loadDatasetFile, readBytes } from '../../io/nodeFiles.ts';
+import { DERIVED_HELP, DERIVED_OPTIONS, withDerivedArgs } from '../derivedArgs.ts';
 import { probePoints, type PointProbeResult } from '../../locate/pointProbe.ts';
 import { parseSensorCsv } from '../../locate/sensorCsv.ts';
 import { CAUTION, CAUTION_CSV_LINE } from '../../study/caution.ts';
@@ -46,8 +47,10 @@ const point: Verb = {
     '  --json | --csv     machine-readable output (CSV: [label,]x,y,z,valid, then one column per scalar, name_x,name_y,name_z per vector)',
     '  --tolerance t      locate tolerance, parametric, relative to the cell size (default 1e-6, at most 1e-4)',
     '  Points outside the mesh are flagged (valid = 0) and get no values.',
+    '  --velocity name    velocity field the derived fields use (default: by the naming rule)',
+    DERIVED_HELP,
   ].join('\n'),
-  options: { at: 'string', points: 'string', fields: 'string', json: 'boolean', csv: 'boolean', tolerance: 'string' },
+  options: { at: 'string', points: 'string', fields: 'string', json: 'boolean', csv: 'boolean', tolerance: 'string', velocity: 'string', ...DERIVED_OPTIONS },
   async run(argv, io) {
     const args = parseArgs(argv, this.options, 'point');
     const file = args.positional[0];
@@ -65,7 +68,7 @@ const point: Verb = {
     }
     const fields = str(args, 'fields')?.split(',').map((s) => s.trim()).filter((s) => s !== '');
     const tol = str(args, 'tolerance');
-    const dataset = await loadDatasetFile(file);
+    const dataset = withDerivedArgs(await loadDatasetFile(file), fields ?? [], args, { velocity: str(args, 'velocity') });
     const r = probePoints(dataset, points, {
       labels, ...(fields ? { fields } : {}), ...(tol !== undefined ? { tolerance: parseNumber(tol, 'tolerance') } : {}),
     });
