@@ -5,7 +5,7 @@
  */
 import { facesOfGroups, resolveGroups } from '../../surface/surfaceGroups.ts';
 import { wallQuantities, WALL_DEFAULTS, type WallOptions, type WallResult, type WallStat } from '../../surface/wallQuantities.ts';
-import { CAUTION } from '../../ui/caution.ts';
+import { CAUTION } from '../../study/caution.ts';
 import { parseArgs, parseNumber, str } from '../args.ts';
 import type { Verb } from '../verb.ts';
 import { GROUPING_HELP, GROUPING_OPTIONS, fmt, loadSurfaces } from './surfaces.ts';
