@@ -14,7 +14,7 @@ import { FLUID_PRESETS, LENGTH_UNITS, UNIT_CATALOGUE, unitDef, unitProblem } fro
 export const MEMBERS = {
   document: ['format', 'version', 'title', 'description', 'units', 'reference', 'probes'],
   units: ['length', 'fields'],
-  reference: ['preset', 'density', 'viscosity', 'speed', 'area', 'length', 'pressure', 'dragDirection', 'liftDirection', 'momentPoint'],
+  reference: ['preset', 'density', 'viscosity', 'speed', 'area', 'length', 'pressure', 'dragDirection', 'liftDirection', 'liftFrom', 'momentPoint'],
   plane: ['origin', 'normal', 'region'],
   region: ['seed', 'disk', 'rectangle', 'cellGroups'],
   disk: ['centre', 'radius'],
@@ -83,6 +83,7 @@ function reference(c: Checks, v: unknown, path: string): void {
   c.optional(o, 'pressure', path, (x, p) => c.number(x, p));
   c.optional(o, 'dragDirection', path, (x, p) => c.vec3(x, p, true));
   c.optional(o, 'liftDirection', path, (x, p) => c.vec3(x, p, true));
+  c.optional(o, 'liftFrom', path, (x, p) => c.oneOf(x, p, ['set', 'rule']));
   c.optional(o, 'momentPoint', path, (x, p) => c.vec3(x, p));
 }
 

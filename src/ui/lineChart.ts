@@ -4,6 +4,7 @@
  */
 import uPlot from 'uplot';
 import 'uplot/dist/uPlot.min.css';
+import { addCautionLine } from './cautionLine.ts';
 
 /** One column of a line probe for the chart: a scalar, or one component/the magnitude of a vector. */
 export interface ChartSeries {
@@ -47,6 +48,7 @@ export class LineChart {
     this.plotHost = document.createElement('div');
     this.plotHost.className = 'chart';
     host.append(head, this.plotHost);
+    addCautionLine(host);
     new ResizeObserver(() => this.resize()).observe(this.plotHost);
   }
 

@@ -30,6 +30,7 @@ export function pinLines(r: ProbeResult): { title: string; rows: { key: string; 
   // a long note (a failure's message) is cut on the pin; the table shows it whole
   const note = notesText(r.notes);
   if (rows.length === 0 && note) rows.push({ key: 'note', text: note.length > 90 ? `${note.slice(0, 89)}…` : note });
+  if (r.tag) rows.push({ key: 'tag', text: r.tag });
   return { title: r.label, rows };
 }
 

@@ -3,6 +3,7 @@
  * neutral style, problems as warnings), a pin toggle and a remove button per probe, and "copy as text"
  * for the whole table.
  */
+import { addCautionLine } from './cautionLine.ts';
 import { withUnit } from './format.ts';
 import type { ProbeResult } from './results.ts';
 import { noiseMark } from './roundingNoise.ts';
@@ -30,6 +31,7 @@ export class ResultsTable {
     this.body = document.createElement('div');
     this.body.className = 'results-body';
     host.append(head, this.body);
+    addCautionLine(host);
   }
 
   set(results: readonly ProbeResult[]): void {

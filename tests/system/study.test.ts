@@ -1,0 +1,243 @@
+/**
+ * The app carries a whole study (Debian chromium, software WebGL): reference conditions set in one place
+ * and used by every probe unless it overrides them; the pressure-loss and flow-split tools, pinned, saved
+ * in the probe set and equal to the command line's `loss` and `balance`; the force total's explicit
+ * viscous method and stated lift rule; the caution on the results pane and the chart. Screenshots go to
+ * tests/.screenshots/ (git-ignored) and were looked at.
+ */
+import { execFileSync } from 'node:child_process';
+import { mkdirSync, readFileSync } from 'node:fs';
+import { join } from 'node:path';
+import type { Page } from 'playwright-core';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { sphereExact } from '../../src/samples/sphere.ts';
+import { pipeExact } from '../../src/samples/pipe.ts';
+import { parseFormatted } from '../../src/ui/format.ts';
+import { REPO, openApp, waitIdle, type AppSession, type Browser } from './browser.ts';
+
+const SHOTS = join(REPO, 'tests/.screenshots');
+const PIPE = join(REPO, 'sample-fields/pipe-medium.vtu');
+const SPHERE = join(REPO, 'sample-fields/sphere-stokes.vtu');
+
+let app: AppSession | undefined;
+let browser: Browser;
+let page: Page;
+
+const shot = (name: string) => page.screenshot({ path: join(SHOTS, `${name}.png`) });
+const sig4 = (x: number) => Number(x.toPrecision(4));
+
+/** The lil-gui controller by its label (inside a folder when given). */
+function control(label: string | RegExp, folder?: string) {
+  const re = typeof label === 'string' ? new RegExp(`^${label.replace(/[[\]()|.*+?^$]/g, '\\$&')}$`) : label;
+  const scope = folder ? page.locator('.lil-gui', { has: page.locator(':scope > .lil-title', { hasText: folder }) }) : page;
+  return scope.locator('.lil-controller', { has: page.locator('.lil-name', { hasText: re }) }).first();
+}
+async function setNumber(label: string, value: number, folder?: string): Promise<void> {
+  const input = control(label, folder).locator('input').last();
+  await input.fill(String(value));
+  await input.press('Enter');
+  await waitIdle(page);
+}
+async function choose(label: string, option: string, folder?: string): Promise<void> {
+  await control(label, folder).locator('select').selectOption({ label: option });
+  await waitIdle(page);
+}
+async function pinText(id: string, quantity: string): Promise<string> {
+  return (await page.locator(`[data-pin="${id}"] [data-quantity="${quantity}"]`).innerText()).split('=').slice(1).join('=').trim();
+}
+const pinNumber = async (id: string, quantity: string) => parseFormatted((await pinText(id, quantity)).replace(/ \(≈ 0.*$/, '').replace(/ [^ ]*$/, ''));
+const definition = (id: string) => page.locator(`table.results tr.probe-head[data-probe="${id}"] .probe-def`).innerText();
+
+function cli(...args: string[]): Record<string, unknown> {
+  return JSON.parse(execFileSync(process.execPath, [join(REPO, 'bin/fieldtally.mjs'), ...args, '--json'], { cwd: REPO, encoding: 'utf8' })) as Record<string, unknown>;
+}
+
+async function openFile(path: string, name: string): Promise<void> {
+  await page.setInputFiles('#file-input', path);
+  await page.waitForFunction((n) => document.getElementById('file-summary')!.textContent!.startsWith(n), name, { timeout: 60_000 });
+  await waitIdle(page);
+}
+
+async function downloadOf(click: () => Promise<void>): Promise<string> {
+  const [d] = await Promise.all([page.waitForEvent('download'), click()]);
+  return readFileSync((await d.path())!, 'utf8');
+}
+
+beforeAll(async () => {
+  mkdirSync(SHOTS, { recursive: true });
+  app = await openApp();
+  ({ browser, page } = app);
+}, 240_000);
+
+afterAll(async () => {
+  await app?.close();
+});
+
+describe('a study in the app', () => {
+  const e = pipeExact();
+  let q = 0;
+
+  it('reference conditions: a fluid preset feeds every cut-plane; a plane\'s own density overrides it and says so', async () => {
+    await openFile(PIPE, 'pipe-medium.vtu');
+    // the preset comes from the study layer's catalogue: water at 20 °C
+    expect(await control('fluid', 'Reference conditions').locator('select').inputValue()).toBe('water at 20 °C, 1 atm');
+    expect(Number(await control('ref. density ρ [kg/m³]').locator('input').inputValue())).toBe(998.207);
+    await page.getByText('+ new cut-plane').click();
+    await page.waitForSelector('[data-pin="plane-1"] [data-quantity="massFlowRate"]');
+    for (const [k, v] of [['origin x [m]', 0], ['origin y [m]', 0], ['origin z [m]', 0.03], ['normal x', 0], ['normal y', 0], ['normal z', 1]] as const) await setNumber(k, v);
+    const out = cli('cut', PIPE, '--origin', '0,0,0.03', '--normal', '0,0,1', '--rho', '998.207') as { massFlowRate: number; volumeFlowRate: number };
+    q = out.volumeFlowRate;
+    expect(await pinNumber('plane-1', 'massFlowRate')).toBe(sig4(out.massFlowRate));
+    expect(await definition('plane-1')).toMatch(/ρ = 998\.2 kg\/m³ \(reference conditions\)/);
+
+    // Reference: ISA sea level, ρ = 1.2250 kg/m³ (Mechanical Engineers' Handbook vol. 4, Table 6, ISA) — the
+    // preset of src/study/units.ts; ṁ = ρQ on the same cut
+    await choose('fluid', 'air, ISA sea level (288.15 K, 101325 Pa)', 'Reference conditions');
+    expect(Number(await control('ref. density ρ [kg/m³]').locator('input').inputValue())).toBe(1.225);
+    expect(await pinNumber('plane-1', 'massFlowRate')).toBe(sig4(1.225 * q));
+    await shot('s01-reference-air');
+
+    // the plane's own density overrides the reference and says so; a later reference change leaves it alone
+    await control('own density (overrides reference)').locator('input').check();
+    await setNumber('density ρ [kg/m³]', 1000, 'Cut-plane');
+    expect(await pinNumber('plane-1', 'massFlowRate')).toBe(sig4(1000 * q));
+    expect(await definition('plane-1')).toMatch(/ρ = 1000 kg\/m³ \(own value, overrides the reference 1\.225 kg\/m³\)/);
+    await choose('fluid', 'water at 20 °C, 1 atm', 'Reference conditions');
+    expect(await pinNumber('plane-1', 'massFlowRate')).toBe(sig4(1000 * q));
+    expect(await definition('plane-1')).toMatch(/overrides the reference 998\.2 kg\/m³/);
+    // typing ρ by hand makes the fluid custom
+    await setNumber('ref. density ρ [kg/m³]', 850);
+    expect(await control('fluid', 'Reference conditions').locator('select').inputValue()).toBe('custom (type ρ and μ)');
+    await control('own density (overrides reference)').locator('input').uncheck();
+    await waitIdle(page);
+    expect(await pinNumber('plane-1', 'massFlowRate')).toBe(sig4(850 * q));
+    await choose('fluid', 'water at 20 °C, 1 atm', 'Reference conditions');
+    expect(await pinNumber('plane-1', 'massFlowRate')).toBe(sig4(out.massFlowRate));
+  });
+
+  it('pressure loss: two planes → Δp, Δp₀ and K with the dynamic pressure it used, pinned between them, equal to `fieldtally loss`', async () => {
+    await page.getByText('+ new pressure loss').click();
+    await page.waitForSelector('[data-pin="loss-1"] [data-quantity="lossCoefficient"]');
+    await waitIdle(page);
+    // the loss took plane 1 (z = 0.03) and made plane 2 at three quarters of the pipe (z = 0.075)
+    expect(Number(await control('origin z [m]', 'Cut-plane').locator('input').inputValue())).toBe(0.075);
+    const lib = cli('loss', PIPE, '--upstream', '0,0,0.03@0,0,1', '--downstream', '0,0,0.075@0,0,1', '--rho', '998.207') as
+      { totalPressureLoss: number; lossCoefficient: number; dynamicPressure: number; staticPressureDrop: { massFlowWeighted: number } };
+    expect(await pinNumber('loss-1', 'totalPressureLoss')).toBe(sig4(lib.totalPressureLoss));
+    expect(await pinNumber('loss-1', 'staticPressureDrop.massFlowWeighted')).toBe(sig4(lib.staticPressureDrop.massFlowWeighted));
+    expect(await pinNumber('loss-1', 'lossCoefficient')).toBe(sig4(lib.lossCoefficient));
+    expect(await pinNumber('loss-1', 'dynamicPressure')).toBe(sig4(lib.dynamicPressure));
+    // Reference: the Hagen–Poiseuille solution (Hagen 1839, Poiseuille 1840): p = G(L − z) with G = 8μV/R² and the same
+    // profile on both planes, so Δp₀ = G·Δz exactly
+    expect(lib.totalPressureLoss).toBeCloseTo(e.G * 0.045, 12);
+    // the pin says which plane's ½ρV² K was made with
+    expect(await page.locator('[data-pin="loss-1"] [data-quantity="lossCoefficient"]').innerText()).toMatch(/^K on ½ρV² upstream = /);
+    expect(await page.locator('[data-pin="loss-1"] [data-quantity="dynamicPressure"]').innerText()).toMatch(/^½ρV² upstream \(Plane 1\) = /);
+    // pinned between the planes: its anchor is the middle of the two cuts' centroids
+    const anchor = await page.evaluate(() => (window as unknown as { __fieldtally: { anchor(id: string): number[] } }).__fieldtally.anchor('loss-1'));
+    expect(anchor[2]).toBeCloseTo(0.0525, 12);
+    await shot('s02-loss');
+    // moving a plane re-evaluates the loss
+    await setNumber('origin z [m]', 0.09, 'Cut-plane');
+    expect(await pinNumber('loss-1', 'totalPressureLoss')).toBe(sig4(e.G * 0.06));
+    await choose('K made with ½ρV² of', 'downstream plane', 'Pressure loss');
+    expect(await page.locator('[data-pin="loss-1"] [data-quantity="dynamicPressure"]').innerText()).toMatch(/^½ρV² downstream \(Plane 2\) = /);
+  });
+
+  it('flow split: planes and surface groups → fluxes, imbalance share and outlet shares, equal to `fieldtally balance`', async () => {
+    await page.getByText('+ new flow split').click();
+    await page.waitForSelector('[data-pin="split-1"]');
+    // plane 1's normal (+z) points into the volume between the planes; plane 2's out of it
+    await choose('Plane 1', 'normal points into the volume', 'Flow split / balance');
+    await page.waitForSelector('[data-pin="split-1"] [data-quantity="item2.outflowShare"]');
+    const b = cli('balance', PIPE, '--planes', '0,0,0.03@0,0,-1; 0,0,0.09@0,0,1', '--rho', '998.207') as { inflow: number; imbalanceShare: number; items: { flux: number; outflow: number }[] };
+    expect(await pinNumber('split-1', 'inflow')).toBe(sig4(b.inflow));
+    // Reference: conservation of mass (identity): the one outlet carries the whole inflow
+    expect(await pinNumber('split-1', 'item2.outflowShare')).toBe(sig4(b.items[1]!.outflow / b.inflow));
+    expect(sig4(b.items[1]!.outflow / b.inflow)).toBe(1);
+    expect(await pinText('split-1', 'imbalanceShare')).toMatch(/\(≈ 0 relative to ṁ in\)$|^0$/);
+    expect(await page.locator('[data-pin="split-1"] [data-quantity="item2.outflowShare"]').innerText()).toMatch(/^Plane 2 share of inflow = /);
+    // add the pipe's outlet surface: the volume now ends there, and plane 2 leaves the balance
+    await choose('Plane 2', 'not used', 'Flow split / balance');
+    const outlet = (await page.locator('.lil-gui', { has: page.locator(':scope > .lil-title', { hasText: 'Flow split / balance' }) })
+      .locator('.lil-name', { hasText: /^surface / }).allInnerTexts());
+    expect(outlet.length).toBeGreaterThan(1);
+    await shot('s03-split');
+  });
+
+  it('the probe set keeps the reference conditions, the loss and the split, and opens again to the same numbers', async () => {
+    const k = await pinText('loss-1', 'lossCoefficient');
+    const saved = JSON.parse(await downloadOf(() => page.getByText('save probe set (JSON)').click())) as {
+      reference: Record<string, unknown>; probes: { id: string; kind: string; options?: Record<string, unknown>; geometry: Record<string, unknown> }[];
+    };
+    expect(saved.reference).toMatchObject({ preset: 'water-20c', density: 998.207, viscosity: 0.0010016 });
+    const loss = saved.probes.find((p) => p.id === 'loss-1')!;
+    expect(loss).toMatchObject({ kind: 'pressure-loss', options: { dynamicPressureFrom: 'downstream' }, geometry: { upstream: { origin: [0, 0, 0.03] }, downstream: { origin: [0, 0, 0.09] } } });
+    expect(saved.probes.find((p) => p.id === 'split-1')).toMatchObject({ kind: 'mass-balance', geometry: { planes: [{ origin: [0, 0, 0.03], normal: [0, 0, -1] }] } });
+    await page.reload();
+    await waitIdle(page, 90_000);
+    await openFile(PIPE, 'pipe-medium.vtu');
+    await page.waitForSelector('[data-pin="loss-1"] [data-quantity="lossCoefficient"]');
+    await waitIdle(page);
+    expect(await pinText('loss-1', 'lossCoefficient')).toBe(k);
+  });
+
+  it('force total: the viscous method is chosen and pinned; the lift rule is stated; Stokes drag and its split', async () => {
+    await openFile(SPHERE, 'sphere-stokes.vtu');
+    // Reference: Stokes (1851), drag on a sphere 6πμaU, one third from pressure and two thirds from shear, C_D = 24/Re
+    // (Bird, Stewart & Lightfoot, Transport Phenomena, 2nd ed., §2.6); the sample's ρ, U, μ, a from src/samples/sphere.ts
+    const s = sphereExact({ flow: 'stokes' });
+    await choose('fluid', 'custom (type ρ and μ)', 'Reference conditions');
+    await setNumber('ref. density ρ [kg/m³]', s.rho);
+    await setNumber('viscosity μ [Pa·s]', s.mu);
+    await setNumber('ref. speed U [m/s]', s.U);
+    await setNumber('ref. area A [m²]', s.frontalArea);
+    await setNumber('surface opacity', 1);
+    const box = (await page.locator('#view-canvas').boundingBox())!;
+    await page.mouse.click(box.x + box.width / 2, box.y + box.height / 2);
+    await page.waitForSelector('[data-pin="force-1"] [data-quantity="CD"]');
+    await waitIdle(page);
+    const cd = 24 / s.Re;
+    expect(await page.locator('[data-pin="force-1"] [data-quantity="tag"]').innerText()).toBe('viscous: wall-shear array "wallShearStress"');
+    const wall = await pinNumber('force-1', 'CD');
+    expect(Math.abs(wall / cd - 1)).toBeLessThan(0.03);
+    const lib = cli('force', SPHERE, '--groups', 'group 1', '--rho', String(s.rho), '--speed', String(s.U), '--area', String(s.frontalArea)) as { coefficients: { drag: number } };
+    expect(wall).toBe(sig4(lib.coefficients.drag));
+    // the lift direction was not set: the rule that gave it is stated in the table
+    expect(await page.locator('table.results td.note', { hasText: /^lift \(0, 0, 1\) derived: a 3D case/ }).count()).toBe(1);
+    await shot('s04-force-wall-shear');
+
+    await choose('viscous part', 'velocity gradient with μ (reference)', 'Force total');
+    expect(await page.locator('[data-pin="force-1"] [data-quantity="tag"]').innerText()).toBe('viscous: velocity gradient, μ = 1.5 Pa·s');
+    expect(Math.abs(await pinNumber('force-1', 'CD') / cd - 1)).toBeLessThan(0.05);
+
+    await choose('viscous part', 'none (pressure force only)', 'Force total');
+    expect(await page.locator('[data-pin="force-1"] [data-quantity="tag"]').innerText()).toBe('viscous: none (pressure force only)');
+    // pressure alone: one third of the Stokes drag
+    expect(Math.abs(await pinNumber('force-1', 'CD') / (cd / 3) - 1)).toBeLessThan(0.03);
+    // lift of a sphere in Stokes flow is rounding noise next to drag: marked, never a bare number
+    expect(await pinText('force-1', 'CL')).toMatch(/\(≈ 0 relative to C_D\)$/);
+    await shot('s05-force-pressure-only');
+
+    // a lift direction set by hand is used and the rule's note goes
+    await choose('lift direction from', 'set by hand', 'Reference conditions');
+    await setNumber('lift direction y', 1);
+    await setNumber('lift direction z', 0);
+    expect(await page.locator('table.results td.note', { hasText: /derived/ }).count()).toBe(0);
+    expect(await definition('force-1')).toMatch(/lift \(0, 1, 0\)/);
+  });
+
+  it('the caution stands on the results pane and the chart', async () => {
+    for (const pane of ['#results-pane', '#chart-pane']) {
+      const c = page.locator(`${pane} .caution-line`);
+      expect(await c.textContent()).toMatch(/^Caution: These numbers are only as good as the simulation .* licensed professional for any engineering decision\.$/);
+      expect(await c.isVisible()).toBe(true);
+    }
+    await shot('s06-caution');
+  });
+
+  it('made no request beyond localhost and logged no error', () => {
+    expect(browser.blocked).toEqual([]);
+    expect(browser.errors).toEqual([]);
+  });
+});
