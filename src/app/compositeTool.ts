@@ -89,6 +89,7 @@ export abstract class CompositeTool<T extends CompositeItem> {
   protected push(item: T): void {
     this.items.push(item);
     this.current = item;
+    this.v.select(item.id);
     this.buildPanel();
     this.evaluate();
   }
@@ -133,6 +134,7 @@ export abstract class CompositeTool<T extends CompositeItem> {
       for (const i of this.items) opts[i.label] = i.id;
       this.folder.add({ which: x.id }, 'which', opts).name('editing').onChange((id: string) => {
         this.current = this.items.find((i) => i.id === id);
+        this.v.select(this.current?.id);
         this.buildPanel();
       });
     }

@@ -40,6 +40,8 @@ export class ForceTool {
   private readonly viscous = { method: 'none' as ViscousChoice };
   /** Reference values this force total overrides (from a loaded probe set's `options.reference`). */
   private override: ReferenceDoc | undefined;
+  /** The surfaces as a loaded set named them, written back while the selection is still theirs. */
+  private loadedRefs: { refs: (string | number)[]; groups: string } | undefined;
 
   constructor(private readonly v: Viewer, private readonly refs: ReferenceTool) {
     this.folder = v.gui.addFolder('Force total');
@@ -89,6 +91,7 @@ export class ForceTool {
   toggle(group: number): void {
     if (this.selected.has(group)) this.selected.delete(group); else this.selected.add(group);
     this.v.surface?.setGroupSelected(group, this.selected.has(group));
+    if (this.selected.size) this.v.select(this.id);
     this.updateChosen();
     this.v.view.requestRender();
     this.recompute();
@@ -103,6 +106,7 @@ export class ForceTool {
     this.id = ID;
     this.label = 'Force total';
     this.override = undefined;
+    this.loadedRefs = undefined;
     this.v.view.requestRender();
   }
 
@@ -131,7 +135,8 @@ export class ForceTool {
   probe(): ForceProbe | null {
     if (this.selected.size === 0) return null;
     const groups = this.v.description?.groups ?? [];
-    const surfaces = groups.filter((g) => this.selected.has(g.id))
+    const same = this.loadedRefs && this.loadedRefs.groups === [...this.selected].sort((a, b) => a - b).join(',');
+    const surfaces = same ? [...this.loadedRefs!.refs] : groups.filter((g) => this.selected.has(g.id))
       .map((g) => (groups.filter((x) => x.name === g.name).length === 1 ? g.name : g.fileId));
     return {
       id: this.id, kind: 'force', label: this.label, geometry: { surfaces },
@@ -148,7 +153,9 @@ export class ForceTool {
     this.viscous.method = m === 'wall-shear' || m === 'gradient' || m === 'none' ? m : this.defaultViscous();
     this.override = p.options?.reference ? { ...p.options.reference } : undefined;
     for (const c of this.folder.controllersRecursive()) c.updateDisplay();
-    for (const g of this.resolve(p.geometry.surfaces) ?? []) this.toggle(g);
+    const ids = this.resolve(p.geometry.surfaces) ?? [];
+    this.loadedRefs = { refs: [...p.geometry.surfaces], groups: [...new Set(ids)].sort((a, b) => a - b).join(',') };
+    for (const g of ids) this.toggle(g);
   }
 
   private recompute(): void {

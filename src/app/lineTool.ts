@@ -86,6 +86,7 @@ export class LineTool {
     this.lines.push(l);
     this.v.view.root.add(l.widget.group);
     this.current = l;
+    this.v.select(l.id);
     this.buildPanel();
     this.changed(l);
   }
@@ -107,6 +108,7 @@ export class LineTool {
     this.lines.push(l);
     this.v.view.root.add(l.widget.group);
     this.current = l;
+    this.v.select(l.id);
     this.buildPanel();
     this.changed(l);
   }
@@ -181,6 +183,7 @@ export class LineTool {
       for (const x of this.lines) opts[x.label] = x.id;
       this.folder.add({ which: l.id }, 'which', opts).name('editing').onChange((id: string) => {
         this.current = this.lines.find((x) => x.id === id);
+        this.v.select(this.current?.id);
         this.buildPanel();
         this.chart.set(this.chartData(this.current));
       });
@@ -198,6 +201,7 @@ export class LineTool {
         if (!l) return false;
         this.dragged = l;
         if (this.current !== l) { this.current = l; this.buildPanel(); this.chart.set(this.chartData(l)); }
+        this.v.select(l.id);
         return true;
       },
       move: (_ev: PointerEvent, ray: THREE.Raycaster): void => {

@@ -19,6 +19,9 @@ interface Loss extends CompositeItem {
   downstream: PlaneLink;
   /** The plane whose ½ρV² K is made with. */
   dynamicFrom: 'upstream' | 'downstream';
+  /** Field roles and options as a loaded set gave them (kept as they are), or the cut-plane tool's field choice at creation. */
+  fields: PressureLossProbe['fields'];
+  options: PressureLossProbe['options'];
 }
 
 /** Pin rows of a loss, in order. */
@@ -34,13 +37,15 @@ export class LossTool extends CompositeTool<Loss> {
   protected newItem(id: string, number: number, label: string): Loss {
     while (this.planes.list().length < 2) this.planes.addAt(this.planes.list().length === 0 ? 0.25 : 0.75);
     const [a, b] = this.planes.list();
-    return { id, number, label, upstream: { planeId: a!.id, plane: a!.plane }, downstream: { planeId: b!.id, plane: b!.plane }, dynamicFrom: 'upstream' };
+    const f = this.planes.fieldChoice();
+    return {
+      id, number, label, upstream: { planeId: a!.id, plane: a!.plane }, downstream: { planeId: b!.id, plane: b!.plane }, dynamicFrom: 'upstream',
+      fields: Object.keys(f).length ? f : undefined, options: undefined,
+    };
   }
 
   accepts(p: Probe): p is PressureLossProbe {
-    if (p.kind !== 'pressure-loss') return false;
-    const o = p.options ?? {};
-    return !p.fields && Object.keys(o).every((k) => k === 'dynamicPressureFrom');
+    return p.kind === 'pressure-loss';
   }
 
   addFrom(p: Probe): void {
@@ -49,7 +54,7 @@ export class LossTool extends CompositeTool<Loss> {
     const number = Math.max(0, ...this.items.map((x) => x.number)) + 1;
     this.push({
       id: p.id, number, label: p.label ?? p.id, upstream: linkFor(p.geometry.upstream, list), downstream: linkFor(p.geometry.downstream, list),
-      dynamicFrom: p.options?.dynamicPressureFrom ?? 'upstream',
+      dynamicFrom: p.options?.dynamicPressureFrom ?? 'upstream', fields: p.fields, options: p.options,
     });
   }
 
@@ -60,10 +65,9 @@ export class LossTool extends CompositeTool<Loss> {
   }
 
   protected probeOf(x: Loss): PressureLossProbe {
-    const f = this.planes.fieldChoice();
     return {
       id: x.id, kind: 'pressure-loss', label: x.label, geometry: { upstream: x.upstream.plane, downstream: x.downstream.plane },
-      ...(Object.keys(f).length ? { fields: f } : {}), options: { dynamicPressureFrom: x.dynamicFrom },
+      ...(x.fields ? { fields: x.fields } : {}), options: { ...x.options, dynamicPressureFrom: x.dynamicFrom },
     };
   }
 

@@ -14,6 +14,7 @@ import { PlaneTool } from './planeTool.ts';
 import { ProbeSetTool } from './probeSetTool.ts';
 import { ReferenceTool } from './referenceTool.ts';
 import { ReportTool } from './reportTool.ts';
+import { bindShortcuts } from './shortcuts.ts';
 import { SplitTool } from './splitTool.ts';
 import { LineChart } from '../ui/lineChart.ts';
 import { Viewer } from './viewer.ts';
@@ -37,7 +38,16 @@ const splits = new SplitTool(viewer, planes, refs);
 const exporter = new ExportTool(viewer, viewer.gui);
 const reports = new ReportTool(viewer, exporter);
 // after the tools: on a new file it re-applies the set once they have dropped the old file's probes
-new ProbeSetTool(viewer, { refs, planes, lines, force, losses, splits }, $('compare-pane'), (set) => reports.download(set));
+const probeSet = new ProbeSetTool(viewer, { refs, planes, lines, force, losses, splits }, $('compare-pane'), (set) => reports.download(set));
+const keys = bindShortcuts({
+  undo: () => void probeSet.undo(),
+  redo: () => void probeSet.redo(),
+  removeSelected: () => { if (viewer.selectedId) viewer.removeResult(viewer.selectedId, true); },
+  newPlane: () => planes.add(),
+  newLine: () => lines.add(),
+  fit: () => viewer.view.fit(),
+});
+$('keys-button').addEventListener('click', () => keys.toggle());
 
 for (const id of ['file-input', 'folder-input']) {
   const input = $<HTMLInputElement>(id);

@@ -182,6 +182,7 @@ export class PlaneTool {
 
   private select(p: Plane | undefined): void {
     this.current = p;
+    if (p) this.v.select(p.id);
     for (const q of this.planes) q.layer.setEditing(q === p);
     this.settings.pickingSeed = false;
     this.buildPanel();

@@ -23,6 +23,7 @@ import type { PlaneTool } from './planeTool.ts';
 import { ProbeSetStore, type KeyValueStore } from './probeSetStore.ts';
 import type { ReferenceTool } from './referenceTool.ts';
 import type { SplitTool } from './splitTool.ts';
+import { UndoHistory } from './undoHistory.ts';
 import type { Viewer } from './viewer.ts';
 
 /** Quiet time after the last change before the set is stored (ms). */
@@ -44,6 +45,9 @@ export class ProbeSetTool {
   private baseline: { file: string; evaluation: SetEvaluation } | undefined;
   private message: { kind: 'notice' | 'error'; text: string } | undefined;
   private readonly store = new ProbeSetStore(localStore());
+  /** Snapshots of the set for undo/redo; `quietStep` makes the next snapshot replace the state without a step. */
+  private readonly history = new UndoHistory();
+  private quietStep = true;
   private readonly input: HTMLInputElement;
   private readonly comparison: ComparisonTable;
 
@@ -53,7 +57,7 @@ export class ProbeSetTool {
     const f: GUI = v.gui.addFolder('Probe set');
     f.add({ save: () => this.save() }, 'save').name('save probe set (JSON)');
     f.add({ open: () => this.input.click() }, 'open').name('open probe set…');
-    f.add({ clear: () => this.removeAll() }, 'clear').name('remove all probes');
+    f.add({ clear: () => this.removeAll() }, 'clear').name('remove all probes (undo: Ctrl+Z)');
     f.add({ keep: () => void this.keepBaseline() }, 'keep').name('keep results as baseline');
     f.add({ report: () => void this.v.track(this.makeReport(this.currentSet())).catch((e) => v.banner.error(`Report: ${(e as Error).message}`)) }, 'report').name('save report (.zip)');
     this.input = document.createElement('input');
@@ -110,6 +114,8 @@ export class ProbeSetTool {
   private async afterDataset(): Promise<void> {
     const set = this.carry;
     this.carry = undefined;
+    // the same probes re-evaluated on another file are no step of their own
+    this.quietStep = true;
     if (set) await this.apply(set);
     else { this.applying = false; this.changed(); }
     if (this.message) {
@@ -191,13 +197,22 @@ export class ProbeSetTool {
   private changed(): void {
     if (this.applying) return;
     clearTimeout(this.saveTimer);
-    this.saveTimer = setTimeout(() => {
-      if (this.applying) return;
-      const err = this.store.save(this.currentSet(), this.v.description?.report.source ?? null);
-      if (err) this.v.banner.error(`The probe set could not be kept in this browser's storage (${err}); save it as a file to keep it.`);
-      else document.body.dataset['probeSetKept'] = String(Date.now());
-      if (this.baseline) void this.refreshComparison();
-    }, SAVE_DELAY_MS);
+    this.saveTimer = setTimeout(() => this.persist(), SAVE_DELAY_MS);
+  }
+
+  /** Takes the undo step of the last changes and stores the set (the quiet moment's work, or at once before an undo). */
+  private persist(): void {
+    clearTimeout(this.saveTimer);
+    this.saveTimer = undefined;
+    if (this.applying) return;
+    const set = this.currentSet();
+    const snap = writeProbeSet(set);
+    if (this.quietStep) { this.history.reset(snap); this.quietStep = false; } else this.history.record(snap);
+    document.body.dataset['undoSteps'] = String(this.history.depth);
+    const err = this.store.save(set, this.v.description?.report.source ?? null);
+    if (err) this.v.banner.error(`The probe set could not be kept in this browser's storage (${err}); save it as a file to keep it.`);
+    else document.body.dataset['probeSetKept'] = String(Date.now());
+    if (this.baseline) void this.refreshComparison();
   }
 
   private save(): void {
@@ -220,7 +235,29 @@ export class ProbeSetTool {
       `${fromVersion < PROBE_SET_VERSION ? ` (a version ${fromVersion} file, upgraded)` : ''}${this.extras.length ? `; ${this.extras.length} evaluated as a set (${this.extras.map(probeLabel).join(', ')})` : ''}.`);
   }
 
-  private removeAll(): void {
+  /** Goes back one step of probes, labels and reference conditions (re-evaluating the probes). */
+  async undo(): Promise<void> {
+    // a change still waiting for its quiet moment is a step of its own
+    if (this.saveTimer !== undefined) this.persist();
+    await this.restore(this.history.undo(), 'undo');
+  }
+
+  /** Goes forward one undone step. */
+  async redo(): Promise<void> {
+    if (this.saveTimer !== undefined) this.persist();
+    await this.restore(this.history.redo(), 'redo');
+  }
+
+  private async restore(snap: string | undefined, what: string): Promise<void> {
+    if (snap === undefined) { this.v.banner.notice(`Nothing to ${what}.`); return; }
+    let set: ProbeSet;
+    try { ({ set } = readProbeSet(snap, `${what} step`)); } catch (e) { this.v.banner.error(`Could not ${what}: ${(e as Error).message}`); return; }
+    this.quietStep = true;
+    await this.v.track(this.apply(set));
+  }
+
+  /** Removes every probe (one step: undo brings them back). */
+  removeAll(): void {
     this.clearTools();
     this.order = [];
     this.changed();

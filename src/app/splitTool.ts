@@ -25,6 +25,9 @@ interface Split extends CompositeItem {
   planes: SplitPlane[];
   /** Surface groups by name, or by file id where names repeat (as the probe set writes them). */
   surfaces: (string | number)[];
+  /** Field roles and grouping options as a loaded set gave them (kept as they are), or the cut-plane tool's field choice at creation. */
+  fields: MassBalanceProbe['fields'];
+  options: MassBalanceProbe['options'];
 }
 
 /** Most surface groups listed as check boxes (more: pick them by clicking for a force total, or by a probe set). */
@@ -40,11 +43,16 @@ export class SplitTool extends CompositeTool<Split> {
   protected newItem(id: string, number: number, label: string): Split | undefined {
     const list = this.planes.list();
     if (list.length === 0) this.planes.addAt(0.5);
-    return { id, number, label, planes: this.planes.list().map((p) => ({ link: { planeId: p.id, plane: p.plane }, outward: true })), surfaces: [] };
+    const f = this.planes.fieldChoice();
+    return {
+      id, number, label, planes: this.planes.list().map((p) => ({ link: { planeId: p.id, plane: p.plane }, outward: true })), surfaces: [],
+      fields: Object.keys(f).length ? f : undefined, options: undefined,
+    };
   }
 
+  /** Any mass balance; one with its own surface grouping lists no group rows (its groups are not the view's). */
   accepts(p: Probe): p is MassBalanceProbe {
-    return p.kind === 'mass-balance' && !p.fields && !p.options;
+    return p.kind === 'mass-balance';
   }
 
   addFrom(p: Probe): void {
@@ -58,7 +66,7 @@ export class SplitTool extends CompositeTool<Split> {
       return back.planeId !== undefined ? { link: back, outward: false } : { link: direct, outward: true };
     });
     const number = Math.max(0, ...this.items.map((x) => x.number)) + 1;
-    this.push({ id: p.id, number, label: p.label ?? p.id, planes, surfaces: [...(p.geometry.surfaces ?? [])] });
+    this.push({ id: p.id, number, label: p.label ?? p.id, planes, surfaces: [...(p.geometry.surfaces ?? [])], fields: p.fields, options: p.options });
   }
 
   protected refreshLinks(x: Split): void {
@@ -67,11 +75,10 @@ export class SplitTool extends CompositeTool<Split> {
   }
 
   protected probeOf(x: Split): MassBalanceProbe {
-    const f = this.planes.fieldChoice();
     return {
       id: x.id, kind: 'mass-balance', label: x.label,
       geometry: { planes: x.planes.map((p) => (p.outward ? p.link.plane : reversed(p.link.plane))), ...(x.surfaces.length ? { surfaces: [...x.surfaces] } : {}) },
-      ...(Object.keys(f).length ? { fields: f } : {}),
+      ...(x.fields ? { fields: x.fields } : {}), ...(x.options ? { options: x.options } : {}),
     };
   }
 
@@ -112,7 +119,8 @@ export class SplitTool extends CompositeTool<Split> {
         });
     }
     const own = x.planes.filter((p) => p.link.planeId === undefined).length;
-    const groups = this.v.description?.groups ?? [];
+    // a split with its own grouping names groups the view does not show
+    const groups = x.options ? [] : this.v.description?.groups ?? [];
     for (const g of groups.slice(0, MAX_GROUP_ROWS)) {
       const ref = groups.filter((y) => y.name === g.name).length === 1 ? g.name : g.fileId;
       const o = { on: x.surfaces.some((s) => String(s) === String(ref)) };

@@ -90,7 +90,7 @@ export class Viewer {
     this.view = new ViewScene(els.canvas);
     this.banner = new Banner(els.overlay.parentElement!);
     this.legend = new LegendView(els.overlay);
-    this.pins = new PinOverlay(els.overlay, (p) => this.view.project(p));
+    this.pins = new PinOverlay(els.overlay, (p) => this.view.project(p), (id) => this.select(id));
     this.view.onFrame(() => this.pins.update());
     this.progress = new ProgressBar(els.progress);
     this.progress.cancel.onclick = () => { this.progress.cancelling(); void this.compute.cancelLoad(); };
@@ -100,6 +100,7 @@ export class Viewer {
       onTogglePin: (id, on) => { const r = this.results.get(id); if (r) { r.pinVisible = on; this.refreshResults(); } },
       onRemove: (id) => this.removeResult(id, true),
       onCopy: () => this.emit('copy'),
+      onSelect: (id) => this.select(id),
     });
     this.table.set([]);
     this.gui = new GUI({ container: els.side, title: 'Panel' });
@@ -359,10 +360,23 @@ export class Viewer {
     if (prev) r.pinVisible = prev.pinVisible;
     this.results.set(r.id, r);
     this.refreshResults();
+    if (r.id === this.selectedId) this.select(r.id);
+  }
+
+  /** The probe the Delete key removes: the one last placed, edited or clicked (pin or table heading). */
+  selectedId: string | undefined;
+
+  /** Selects a probe (or none); its pin and table heading are marked. */
+  select(id: string | undefined): void {
+    this.selectedId = id;
+    this.pins.setSelected(id);
+    this.table.setSelected(id);
+    if (id) document.body.dataset['selected'] = id; else delete document.body.dataset['selected'];
   }
 
   removeResult(id: string, tellTools: boolean): void {
     if (!this.results.delete(id)) return;
+    if (this.selectedId === id) this.select(undefined);
     if (tellTools) for (const l of this.resultListeners) l(id);
     this.refreshResults();
   }

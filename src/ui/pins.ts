@@ -40,7 +40,10 @@ export class PinOverlay {
   private readonly boxes = new Map<string, { el: HTMLDivElement; width: number; height: number }>();
   private results: ProbeResult[] = [];
 
-  constructor(private readonly host: HTMLElement, private readonly project: Projector) {
+  private selected: string | undefined;
+
+  /** `onPick`: a pin was clicked (its probe becomes the selected one). */
+  constructor(private readonly host: HTMLElement, private readonly project: Projector, private readonly onPick?: (id: string) => void) {
     this.svg = document.createElementNS('http://www.w3.org/2000/svg', 'svg');
     this.svg.classList.add('pin-leaders');
     host.append(this.svg);
@@ -57,12 +60,15 @@ export class PinOverlay {
         const el = document.createElement('div');
         el.className = 'pin';
         el.dataset['pin'] = r.id;
+        const id = r.id;
+        el.addEventListener('click', () => this.onPick?.(id));
         this.host.append(el);
         b = { el, width: 0, height: 0 };
         this.boxes.set(r.id, b);
       }
       const { title, rows } = pinLines(r);
       b.el.replaceChildren();
+      b.el.classList.toggle('selected', r.id === this.selected);
       const t = document.createElement('div');
       t.className = 'pin-title';
       t.textContent = title;
@@ -79,6 +85,12 @@ export class PinOverlay {
       b.height = b.el.offsetHeight;
     }
     this.update();
+  }
+
+  /** Marks the selected probe's pin. */
+  setSelected(id: string | undefined): void {
+    this.selected = id;
+    for (const [k, b] of this.boxes) b.el.classList.toggle('selected', k === id);
   }
 
   /** Re-projects anchors and re-lays out the boxes (call after each rendered frame). */

@@ -12,6 +12,8 @@ export interface ResultsTableEvents {
   onTogglePin: (id: string, visible: boolean) => void;
   onRemove: (id: string) => void;
   onCopy: () => void;
+  /** A probe's heading was clicked (it becomes the selected probe). */
+  onSelect?: (id: string) => void;
 }
 
 export class ResultsTable {
@@ -34,6 +36,14 @@ export class ResultsTable {
     addCautionLine(host);
   }
 
+  private selected: string | undefined;
+
+  /** Marks the selected probe's heading. */
+  setSelected(id: string | undefined): void {
+    this.selected = id;
+    for (const tr of this.body.querySelectorAll<HTMLElement>('tr.probe-head')) tr.classList.toggle('selected', tr.dataset['probe'] === id);
+  }
+
   set(results: readonly ProbeResult[]): void {
     if (results.length === 0) {
       const p = document.createElement('p');
@@ -48,6 +58,8 @@ export class ResultsTable {
       const tr = table.insertRow();
       tr.className = 'probe-head';
       tr.dataset['probe'] = r.id;
+      if (r.id === this.selected) tr.classList.add('selected');
+      tr.onclick = (ev) => { if (!(ev.target instanceof HTMLInputElement || ev.target instanceof HTMLButtonElement)) this.events.onSelect?.(r.id); };
       const th = document.createElement('th');
       th.colSpan = 2;
       const name = document.createElement('span');

@@ -236,6 +236,63 @@ describe('a study in the app', () => {
     await shot('s06-caution');
   });
 
+  it('undo and redo every probe, label and reference change; Delete removes the selected probe; "remove all" can be undone', async () => {
+    const pins = () => page.locator('[data-pin]').evaluateAll((els) => els.map((e) => (e as HTMLElement).dataset['pin']!).sort());
+    const steps = () => page.evaluate(() => Number(document.body.dataset['undoSteps'] ?? 0));
+    const blur = () => page.evaluate(() => (document.activeElement as HTMLElement | null)?.blur());
+    /** Waits until the change just made is an undo step of its own (the set is kept after a quiet 250 ms). */
+    const stepAfter = async (n: number) => { await page.waitForFunction((k) => Number(document.body.dataset['undoSteps'] ?? 0) > k, n); await waitIdle(page); };
+    const key = async (k: string) => { await blur(); await page.keyboard.press(k); await waitIdle(page); };
+    await page.waitForTimeout(400);
+    const start = await pins();
+    // P makes a new cut-plane
+    let n = await steps();
+    await key('p');
+    await stepAfter(n);
+    const withPlane = await pins();
+    expect(withPlane.length).toBe(start.length + 1);
+    const added = withPlane.find((id) => !start.includes(id))!;
+    await key('Control+z');
+    await page.waitForFunction((id) => !document.querySelector(`[data-pin="${id}"]`), added);
+    expect(await pins()).toEqual(start);
+    await key('Control+y');
+    await page.waitForSelector(`[data-pin="${added}"]`);
+    expect(await pins()).toEqual(withPlane);
+    // Delete removes the selected probe (selected by clicking its table heading), and comes back with an undo
+    await waitIdle(page);
+    n = await steps();
+    await page.locator(`table.results tr.probe-head[data-probe="${added}"] .probe-def`).click();
+    expect(await page.evaluate(() => document.body.dataset['selected'])).toBe(added);
+    await key('Delete');
+    await stepAfter(n);
+    expect(await pins()).toEqual(start);
+    await key('Control+z');
+    await page.waitForSelector(`[data-pin="${added}"]`);
+    // a reference change is a step too
+    const speed = await control('ref. speed U [m/s]').locator('input').inputValue();
+    n = await steps();
+    await setNumber('ref. speed U [m/s]', 2);
+    await stepAfter(n);
+    await key('Control+z');
+    await page.waitForFunction((v) => (document.querySelector('.lil-controller input') && [...document.querySelectorAll('.lil-controller')]
+      .find((c) => c.querySelector('.lil-name')?.textContent === 'ref. speed U [m/s]')?.querySelector('input')?.value === v), speed);
+    // "remove all" acts at once, and one undo brings every probe back
+    n = await steps();
+    await page.getByText('remove all probes (undo: Ctrl+Z)').click();
+    await stepAfter(n);
+    expect(await pins()).toEqual([]);
+    await key('Control+z');
+    await page.waitForFunction((k) => document.querySelectorAll('[data-pin]').length === k, withPlane.length);
+    expect(await pins()).toEqual(withPlane);
+    // ? shows the keys of our own
+    await key('?');
+    expect(await page.locator('dialog.keys').isVisible()).toBe(true);
+    expect(await page.locator('dialog.keys').innerText()).toMatch(/Ctrl\+Z\s+undo the last change of probes, labels or reference conditions/);
+    await shot('s07-keys');
+    await page.keyboard.press('Escape');
+    expect(await page.locator('dialog.keys').isVisible()).toBe(false);
+  });
+
   it('made no request beyond localhost and logged no error', () => {
     expect(browser.blocked).toEqual([]);
     expect(browser.errors).toEqual([]);

@@ -102,7 +102,8 @@ describe('viewer', () => {
     await setNumber('normal x', 0);
     await setNumber('normal y', 0);
     await setNumber('normal z', 1);
-    await setNumber('density ρ [kg/m³]', 998.207);
+    // ρ comes from the reference conditions: water at 20 °C at start
+    expect(Number(await control('ref. density ρ [kg/m³]').locator('input').inputValue())).toBe(998.207);
     await waitIdle(page);
     await shot('03-pipe-cut-plane');
     const shown = pinNumber(await pinText('plane-1', 'massFlowRate'));
