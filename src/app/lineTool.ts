@@ -15,7 +15,7 @@ import { classifyNotes } from '../ui/notes.ts';
 import type { ProbeResult, Quantity } from '../ui/results.ts';
 import { UNITS, fieldUnit } from '../ui/units.ts';
 import { LineProbeWidget } from '../view/lineProbeWidget.ts';
-import { latestWins } from './latestWins.ts';
+import { latestWinsPerKey } from './latestWins.ts';
 import type { Viewer } from './viewer.ts';
 
 /** Samples per line at first (evenly spaced, both ends included). */
@@ -44,7 +44,8 @@ export class LineTool {
 
   constructor(private readonly v: Viewer, private readonly chart: LineChart) {
     this.folder = v.gui.addFolder('Line probe');
-    this.request = latestWins(
+    // one lane per probe: several probes computed at once never drop each other's requests
+    this.request = latestWinsPerKey((x: { id: string }) => x.id,
       (l: Line) => v.track(v.compute.sample({ from: [l.ax, l.ay, l.az], to: [l.bx, l.by, l.bz], samples: l.samples })),
       (reply, l) => this.show(l, reply),
       (e) => v.banner.error(`Line probe: ${(e as Error).message}`),

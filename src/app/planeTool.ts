@@ -13,7 +13,7 @@ import { classifyNotes } from '../ui/notes.ts';
 import type { ProbeResult, Quantity } from '../ui/results.ts';
 import { UNITS, fieldUnit } from '../ui/units.ts';
 import { CutPlaneLayer } from '../view/cutPlaneLayer.ts';
-import { latestWins } from './latestWins.ts';
+import { latestWinsPerKey } from './latestWins.ts';
 import type { ReferenceTool } from './referenceTool.ts';
 import type { Viewer } from './viewer.ts';
 
@@ -47,7 +47,8 @@ export class PlaneTool {
 
   constructor(private readonly v: Viewer, private readonly refs: ReferenceTool) {
     this.folder = v.gui.addFolder('Cut-plane');
-    this.request = latestWins(
+    // one lane per probe: several probes computed at once never drop each other's requests
+    this.request = latestWinsPerKey((x: { id: string }) => x.id,
       (p: Plane) => v.track(v.compute.cut({
         origin: [p.ox, p.oy, p.oz], normal: [p.nx, p.ny, p.nz], ...(p.seed ? { seed: p.seed } : {}),
         ...(v.colorChoice ? { color: v.colorChoice } : {}),
