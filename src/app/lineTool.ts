@@ -7,9 +7,9 @@ import type GUI from 'lil-gui';
 import type * as THREE from 'three';
 import type { LineReply, Vec3 } from '../../workers/api.ts';
 import type { LineProbe, Probe } from '../study/probeSet.ts';
-import { CAUTION } from '../ui/caution.ts';
 import { download } from '../ui/download.ts';
 import { formatVec } from '../ui/format.ts';
+import { lineSamplesCsv } from '../ui/lineCsv.ts';
 import { LineChart, type ChartData } from '../ui/lineChart.ts';
 import { classifyNotes } from '../ui/notes.ts';
 import type { ProbeResult, Quantity } from '../ui/results.ts';
@@ -161,17 +161,7 @@ export class LineTool {
   private downloadCsv(): void {
     const l = this.current, r = l?.reply;
     if (!l || !r) return;
-    const head = ['s', 'x', 'y', 'z', 'valid', ...r.fields.flatMap((f) => f.labels)];
-    const rows = [`# fieldtally line probe ${l.number}: ${formatVec([l.ax, l.ay, l.az], 17, true)} → ${formatVec([l.bx, l.by, l.bz], 17, true)} m; ` +
-      'lengths in m, values in the file\'s units (SI assumed); samples outside the mesh have valid = 0 and empty values',
-    `# Caution: ${CAUTION}`, head.join(',')];
-    for (let i = 0; i < r.count; i++) {
-      const cells = [r.s[i], r.x[i], r.y[i], r.z[i]].map(String);
-      cells.push(String(r.valid[i]));
-      for (const f of r.fields) for (const c of f.columns) cells.push(Number.isFinite(c[i]!) ? String(c[i]) : '');
-      rows.push(cells.join(','));
-    }
-    download(`line-${l.number}.csv`, rows.join('\n') + '\n', 'text/csv');
+    download(`line-${l.number}.csv`, lineSamplesCsv(l.label, [l.ax, l.ay, l.az], [l.bx, l.by, l.bz], r), 'text/csv');
   }
 
   private buildPanel(): void {

@@ -18,6 +18,7 @@ import { ProgressBar } from '../ui/progressBar.ts';
 import type { ProbeResult } from '../ui/results.ts';
 import { ResultsTable } from '../ui/resultsTable.ts';
 import { fieldUnit } from '../ui/units.ts';
+import { outlinesShownFor } from '../ui/viewDefaults.ts';
 import { COLOR_MAPS, DEFAULT_COLOR_MAP, colorMap, type ColorMap } from '../view/colorMaps.ts';
 import { CutPlaneLayer } from '../view/cutPlaneLayer.ts';
 import { LineProbeWidget } from '../view/lineProbeWidget.ts';
@@ -216,7 +217,9 @@ export class Viewer {
     if (this.surface) { this.view.root.remove(this.surface.group); this.surface.dispose(); }
     const groupCount = Math.max(1, ...d.groups.map((g) => g.id + 1));
     this.surface = new SurfaceLayer(drawing, this.colorMap, groupCount, this.view.software);
+    // every file starts from the same view state: opaque surfaces, outlines only where they stay readable
     this.settings.opacity = 1;
+    this.settings.edges = outlinesShownFor(d.groups.reduce((n, g) => n + g.faces, 0));
     this.surface.setEdgesVisible(this.settings.edges);
     this.surface.setOpacity(this.settings.opacity);
     this.view.root.add(this.surface.group);
@@ -303,8 +306,11 @@ export class Viewer {
     for (const c of [...this.colorFolder.controllers]) c.destroy();
     const opts: Record<string, string> = { '(none: grey)': '' };
     for (const f of this.fields) opts[`${f.name} (${f.association === 'point' ? 'points' : 'cells'})`] = f.key;
-    this.colorFolder.add(this.settings, 'field', opts).name('field').onChange(() => void this.recolor());
-    this.colorFolder.add(this.settings, 'component', [...COMPONENTS]).name('vector part').onChange(() => void this.recolor());
+    // a scalar has no parts to choose: the choice shows only for a vector field
+    const showPart = () => part.show((this.fields.find((f) => f.key === this.settings.field)?.components ?? 1) > 1);
+    this.colorFolder.add(this.settings, 'field', opts).name('field').onChange(() => { showPart(); void this.recolor(); });
+    const part = this.colorFolder.add(this.settings, 'component', [...COMPONENTS]).name('vector part').onChange(() => void this.recolor());
+    showPart();
     const maps: Record<string, string> = {};
     for (const m of COLOR_MAPS) maps[m.label] = m.id;
     this.colorFolder.add(this.settings, 'map', maps).name('colour map').onChange(() => this.applyColorSettings());

@@ -293,6 +293,18 @@ describe('a study in the app', () => {
     expect(await page.locator('dialog.keys').isVisible()).toBe(false);
   });
 
+  it('view hygiene: a scalar offers no vector part; each file starts opaque with outlines on for a small mesh', async () => {
+    await openFile(PIPE, 'pipe-medium.vtu');
+    await choose('field', 'p (points)', 'Colour');
+    expect(await control('vector part', 'Colour').isVisible()).toBe(false);
+    await choose('field', 'velocity (points)', 'Colour');
+    expect(await control('vector part', 'Colour').isVisible()).toBe(true);
+    await shot('s08-vector-part');
+    await choose('field', 'p (points)', 'Colour');
+    // the pipe's boundary (under a thousand faces) is far below the 200 000 above which outlines start off
+    expect(await control('face outlines').locator('input').isChecked()).toBe(true);
+  });
+
   it('made no request beyond localhost and logged no error', () => {
     expect(browser.blocked).toEqual([]);
     expect(browser.errors).toEqual([]);

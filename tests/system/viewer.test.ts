@@ -166,7 +166,7 @@ describe('viewer', () => {
     const csv = new TextDecoder().decode(await downloadOf(() => page.locator('.chart-csv').click()));
     const lines = csv.trim().split('\n');
     expect(lines[1]).toMatch(/^# Caution: /);
-    expect(lines[2]).toBe('s,x,y,z,valid,velocity_x,velocity_y,velocity_z,p');
+    expect(lines[2]).toBe('s [m],x [m],y [m],z [m],valid,velocity_x [m/s],velocity_y [m/s],velocity_z [m/s],p [Pa]');
     expect(lines.length).toBe(3 + 201);
     await shot('05-pipe-line-probe');
   });
