@@ -41,6 +41,8 @@ export class LineTool {
   private readonly folder: GUI;
   private readonly request;
   private dragged: Line | undefined;
+  /** The baseline file's samples of each line, by geometry and sample count. */
+  private baselines: { file: string; lines: Map<string, LineReply> } | undefined;
 
   constructor(private readonly v: Viewer, private readonly chart: LineChart) {
     this.folder = v.gui.addFolder('Line probe');
@@ -141,21 +143,24 @@ export class LineTool {
   private chartData(l: Line | undefined): ChartData | undefined {
     const r = l?.reply;
     if (!l || !r || r.outside) return undefined;
-    const series: ChartData['series'] = [];
-    for (const f of r.fields) {
-      const unit = fieldUnit(f.name);
-      if (f.components > 1) {
-        const mag = new Float64Array(r.count);
-        for (let i = 0; i < r.count; i++) {
-          let s2 = 0;
-          for (const c of f.columns) s2 += c[i]! * c[i]!;
-          mag[i] = Math.sqrt(s2);
-        }
-        series.push({ label: `|${f.name}|`, unit, values: mag });
-      }
-      f.columns.forEach((c, k) => series.push({ label: f.labels[k]!, unit, values: c }));
-    }
-    return { title: l.label, s: r.s, series };
+    const b = this.baselines?.lines.get(geometryKey(l));
+    return {
+      key: l.id, title: l.label, s: r.s, x: r.x, y: r.y, z: r.z, series: chartSeries(r),
+      ...(b ? { baseline: { file: this.baselines!.file, s: b.s, x: b.x, y: b.y, z: b.z, series: chartSeries(b) } } : {}),
+    };
+  }
+
+  /** Keeps every line's samples on the open file as the baseline its chart overlays (the same line on a later file). */
+  keepBaseline(file: string): void {
+    const lines = new Map<string, LineReply>();
+    for (const l of this.lines) if (l.reply && !l.reply.outside) lines.set(geometryKey(l), l.reply);
+    this.baselines = { file, lines };
+  }
+
+  /** Forgets the baseline's lines. */
+  clearBaseline(): void {
+    this.baselines = undefined;
+    this.chart.set(this.chartData(this.current));
   }
 
   private downloadCsv(): void {
@@ -205,6 +210,30 @@ export class LineTool {
       up: (): void => { this.dragged?.widget.endDrag(); this.dragged = undefined; },
     };
   }
+}
+
+/** A line's identity across files: its ends and sample count. */
+function geometryKey(l: Line): string {
+  return [l.ax, l.ay, l.az, l.bx, l.by, l.bz, l.samples].join(',');
+}
+
+/** Every sampled column for the chart: scalars, vector components and magnitudes. */
+function chartSeries(r: LineReply): ChartData['series'] {
+  const series: ChartData['series'] = [];
+  for (const f of r.fields) {
+    const unit = fieldUnit(f.name);
+    if (f.components > 1) {
+      const mag = new Float64Array(r.count);
+      for (let i = 0; i < r.count; i++) {
+        let s2 = 0;
+        for (const c of f.columns) s2 += c[i]! * c[i]!;
+        mag[i] = Math.sqrt(s2);
+      }
+      series.push({ label: `|${f.name}|`, unit, values: mag });
+    }
+    f.columns.forEach((c, k) => series.push({ label: f.labels[k]!, unit, values: c }));
+  }
+  return series;
 }
 
 /** The numbers of a line for pins, table and exports. */

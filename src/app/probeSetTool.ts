@@ -268,6 +268,7 @@ export class ProbeSetTool {
     try {
       const evaluation = await this.v.track(this.v.compute.evaluateProbeSet(this.currentSet()));
       this.baseline = { file: this.v.description.report.source, evaluation };
+      this.tools.lines.keepBaseline(this.baseline.file);
       this.comparison.set(null, `Baseline kept: ${this.baseline.file}, ${evaluation.probes.length} probe${evaluation.probes.length === 1 ? '' : 's'}. Open the variant file: every probe is evaluated on it and compared here.`);
       document.body.dataset['baseline'] = this.baseline.file;
     } catch (e) {
@@ -277,6 +278,7 @@ export class ProbeSetTool {
 
   private clearBaseline(): void {
     this.baseline = undefined;
+    this.tools.lines.clearBaseline();
     this.comparison.set(null);
     delete document.body.dataset['baseline'];
   }

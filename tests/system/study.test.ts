@@ -6,7 +6,8 @@
  * tests/.screenshots/ (git-ignored) and were looked at.
  */
 import { execFileSync } from 'node:child_process';
-import { mkdirSync, readFileSync } from 'node:fs';
+import { mkdirSync, readFileSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import type { Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
@@ -303,6 +304,55 @@ describe('a study in the app', () => {
     await choose('field', 'p (points)', 'Colour');
     // the pipe's boundary (under a thousand faces) is far below the 200 000 above which outlines start off
     expect(await control('face outlines').locator('input').isChecked()).toBe(true);
+  });
+
+  it('charts: readable ticks with a shared ×10ⁿ, x as r/L from a point, two fields, measured points with ± bars, the baseline dashed, half the screen', async () => {
+    const chart = page.locator('#chart-pane .chart');
+    await openFile(PIPE, 'pipe-medium.vtu');
+    await page.getByText('+ new line probe').click();
+    await page.waitForSelector('#chart-pane .uplot canvas');
+    // a 2 mm line: its arc length reads 0 … 2 with ×10⁻³ m once in the title, not 0, 0, 0.001, 0.001, 0.002
+    for (const [k, v] of [['start x [m]', 0], ['start y [m]', 0], ['start z [m]', 0.07], ['end x [m]', 0.002], ['end y [m]', 0], ['end z [m]', 0.07]] as const) await setNumber(k, v, 'Line probe');
+    expect(await chart.getAttribute('data-x-title')).toBe('arc length s [×10⁻³ m]');
+    // across the diameter, plotted against r/R from the axis (R = 10 mm)
+    await setNumber('start x [m]', -0.0099, 'Line probe');
+    await setNumber('end x [m]', 0.0099, 'Line probe');
+    await page.locator('#chart-pane select.chart-x').selectOption('distance');
+    await page.locator('#chart-pane input.chart-x-point').fill('0, 0, 0.07');
+    await page.locator('#chart-pane input.chart-x-point').press('Enter');
+    await page.locator('#chart-pane input.chart-x-length').fill('0.01');
+    await page.locator('#chart-pane input.chart-x-length').press('Enter');
+    expect(await chart.getAttribute('data-x-title')).toBe('r/L from (0, 0, 0.07), L = 0.01 m');
+    // |velocity| at first; add p (a second unit: the right axis) and velocity_z, then take p off again
+    await page.locator('#chart-pane select.chart-field').selectOption('p');
+    await page.locator('#chart-pane select.chart-field').selectOption('velocity_z');
+    expect(await chart.getAttribute('data-series')).toBe('3');
+    expect(await chart.getAttribute('data-y-titles')).toBe('|velocity|, velocity_z [m/s] | p [Pa]');
+    await page.locator('#chart-pane .chart-chip', { hasText: /^p×$/ }).locator('button').click();
+    expect(await chart.getAttribute('data-y-titles')).toBe('|velocity|, velocity_z [m/s]');
+    await page.locator('#chart-pane select.chart-field').selectOption('p');
+    // measured points: the Hagen–Poiseuille profile u = 2V(1 − (r/R)²) (Hagen 1839, Poiseuille 1840) with ±2 mm/s bars
+    const csv = join(tmpdir(), `fieldtally-measured-${process.pid}.csv`);
+    writeFileSync(csv, 'r/R,u [m/s],±u\n' + [0, 0.25, 0.5, 0.75, 0.95].map((r) => `${r},${2 * e.V * (1 - r * r)},0.002`).join('\n') + '\n');
+    await page.setInputFiles('#chart-pane .chart-measured-input', csv);
+    await page.waitForSelector('#chart-pane .chart-chip.measured');
+    expect(await page.locator('#chart-pane .chart-chip.measured').innerText()).toMatch(/measured: fieldtally-measured-\d+\.csv \(± bars\), on the \|velocity\| axis/);
+    // a bad file is refused with its line, and the points already shown stay
+    writeFileSync(csv, 'r/R,u\n0,0.1\n0.5,fast\n');
+    await page.setInputFiles('#chart-pane .chart-measured-input', csv);
+    expect(await page.locator('#chart-pane .chart-message').innerText()).toMatch(/^Measured points not read: fieldtally-measured-\d+\.csv: line 3: column 2 is not a finite number \("fast"\)$/);
+    await page.locator('#chart-pane .chart-enlarge').click();
+    const h = await page.locator('#chart-pane').evaluate((e) => e.getBoundingClientRect().height / window.innerHeight);
+    expect(h).toBeGreaterThan(0.45);
+    await shot('s09-chart-large');
+    // keep this file as the baseline; the same line on the fine mesh shows it dashed
+    await page.getByText('keep results as baseline').click();
+    await waitIdle(page);
+    await openFile(join(REPO, 'sample-fields/pipe-fine.vtu'), 'pipe-fine.vtu');
+    await page.waitForSelector('#chart-pane .chart-chip.baseline');
+    expect(await page.locator('#chart-pane .chart-chip.baseline').innerText()).toBe('- - baseline: pipe-medium.vtu');
+    await shot('s10-chart-baseline');
+    await page.locator('#chart-pane .chart-enlarge').click();
   });
 
   it('made no request beyond localhost and logged no error', () => {
