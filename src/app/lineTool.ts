@@ -9,7 +9,9 @@ import type { LineReply, Vec3 } from '../../workers/api.ts';
 import type { LineProbe, Probe } from '../study/probeSet.ts';
 import { download } from '../ui/download.ts';
 import { formatVec } from '../ui/format.ts';
+import { CAUTION } from '../ui/caution.ts';
 import { lineSamplesCsv } from '../ui/lineCsv.ts';
+import { profileSvg } from '../ui/profileSvg.ts';
 import { LineChart, type ChartData } from '../ui/lineChart.ts';
 import { classifyNotes } from '../ui/notes.ts';
 import type { ProbeResult, Quantity } from '../ui/results.ts';
@@ -148,6 +150,28 @@ export class LineTool {
       key: l.id, title: l.label, s: r.s, x: r.x, y: r.y, z: r.z, series: chartSeries(r),
       ...(b ? { baseline: { file: this.baselines!.file, s: b.s, x: b.x, y: b.y, z: b.z, series: chartSeries(b) } } : {}),
     };
+  }
+
+  /**
+   * Every line's samples for a report: `<id>-samples.csv` (every column, headed with units) and one SVG profile
+   * per field against the arc length (`<id>-<field>.svg`: a scalar, or a vector's magnitude and components).
+   */
+  reportFiles(): Record<string, Uint8Array> {
+    const enc = new TextEncoder(), out: Record<string, Uint8Array> = {};
+    const safe = (t: string) => t.replace(/[^\w.-]+/g, '-');
+    for (const l of this.lines) {
+      const r = l.reply;
+      if (!r || r.outside) continue;
+      out[`${safe(l.id)}-samples.csv`] = enc.encode(lineSamplesCsv(l.label, [l.ax, l.ay, l.az], [l.bx, l.by, l.bz], r));
+      const all = chartSeries(r);
+      for (const f of r.fields) {
+        const series = all.filter((x) => x.label === `|${f.name}|` || f.labels.includes(x.label));
+        out[`${safe(l.id)}-${safe(f.name)}.svg`] = enc.encode(profileSvg({
+          title: `${l.label}: ${f.name} along the line`, xName: 'arc length s', xUnit: 'm', x: r.s, series, caution: CAUTION,
+        }));
+      }
+    }
+    return out;
   }
 
   /** Keeps every line's samples on the open file as the baseline its chart overlays (the same line on a later file). */

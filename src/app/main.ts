@@ -36,7 +36,7 @@ const force = new ForceTool(viewer, refs);
 const losses = new LossTool(viewer, planes, refs);
 const splits = new SplitTool(viewer, planes, refs);
 const exporter = new ExportTool(viewer, viewer.gui);
-const reports = new ReportTool(viewer, exporter);
+const reports = new ReportTool(viewer, exporter, () => lines.reportFiles());
 // after the tools: on a new file it re-applies the set once they have dropped the old file's probes
 const probeSet = new ProbeSetTool(viewer, { refs, planes, lines, force, losses, splits }, $('compare-pane'), (set) => reports.download(set));
 const keys = bindShortcuts({

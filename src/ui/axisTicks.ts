@@ -46,3 +46,13 @@ export function tickLabels(values: readonly number[], exponent: number): string[
   while (decimals < 12 && new Set(out).size < new Set(scaled).size) out = text(++decimals);
   return out;
 }
+
+/** About `count` round tick values (steps of 1, 2, 2.5 or 5 × 10ⁿ) covering [lo, hi]. */
+export function niceTicks(lo: number, hi: number, count = 5): number[] {
+  if (!(hi > lo) || !Number.isFinite(lo) || !Number.isFinite(hi)) return Number.isFinite(lo) ? [lo] : [];
+  const raw = (hi - lo) / Math.max(1, count), p = 10 ** Math.floor(Math.log10(raw));
+  const step = [1, 2, 2.5, 5, 10].map((m) => m * p).find((s) => s >= raw * 0.999)!;
+  const out: number[] = [];
+  for (let k = Math.ceil(lo / step - 1e-9); k * step <= hi + 1e-9 * step; k++) out.push(Number((k * step).toPrecision(12)));
+  return out;
+}

@@ -10,6 +10,7 @@ import { mkdirSync, readFileSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import type { Page } from 'playwright-core';
+import { unzipSync } from 'fflate';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { sphereExact } from '../../src/samples/sphere.ts';
 import { pipeExact } from '../../src/samples/pipe.ts';
@@ -353,6 +354,17 @@ describe('a study in the app', () => {
     expect(await page.locator('#chart-pane .chart-chip.baseline').innerText()).toBe('- - baseline: pipe-medium.vtu');
     await shot('s10-chart-baseline');
     await page.locator('#chart-pane .chart-enlarge').click();
+    // the report carries the line's samples (units in the header) and a profile picture per field, caution included
+    const [dl] = await Promise.all([page.waitForEvent('download'), page.getByText('save report (.zip)').click()]);
+    const zip = unzipSync(new Uint8Array(readFileSync((await dl.path())!)));
+    const names = Object.keys(zip).map((n) => n.split('/').pop());
+    expect(names).toEqual(expect.arrayContaining(['line-1-samples.csv', 'line-1-velocity.svg', 'line-1-p.svg']));
+    const file = (n: string) => new TextDecoder().decode(Object.entries(zip).find(([k]) => k.endsWith(`/${n}`))![1]);
+    expect(file('line-1-samples.csv').split('\n')[2]).toBe('s [m],x [m],y [m],z [m],valid,velocity_x [m/s],velocity_y [m/s],velocity_z [m/s],p [Pa]');
+    const svg = file('line-1-velocity.svg');
+    expect(svg).toContain('>arc length s [m]</text>');
+    expect(svg).toContain('>|velocity|, velocity_x, velocity_y, velocity_z [m/s]</text>');
+    expect(svg).toMatch(/class="caution">Caution: These numbers are only as good as/);
   });
 
   it('made no request beyond localhost and logged no error', () => {
