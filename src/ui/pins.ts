@@ -4,7 +4,7 @@
  * drawing serve the PNG export (`drawPins`).
  */
 import { notesText } from './notes.ts';
-import { layoutPins, leaderEnd, type PinBox, type PlacedPin } from './pinLayout.ts';
+import { edgeAnchor, layoutPins, leaderEnd, type PinBox, type PlacedPin, type Rect } from './pinLayout.ts';
 import type { ProbeResult } from './results.ts';
 import { quantityText } from './roundingNoise.ts';
 
@@ -97,13 +97,18 @@ export class PinOverlay {
   update(): void {
     const w = this.host.clientWidth, h = this.host.clientHeight;
     const boxes: PinBox[] = [];
+    const edges = new Map<string, [number, number]>();
     for (const r of this.results) {
       const b = this.boxes.get(r.id)!;
       const p = this.project(r.anchor);
       b.el.style.display = p.behind ? 'none' : '';
-      if (!p.behind) boxes.push({ id: r.id, anchorX: p.x, anchorY: p.y, width: b.width, height: b.height });
+      if (p.behind) continue;
+      // an anchor off the view: the pin points to a marker on the edge, towards it
+      const e = edgeAnchor(p.x, p.y, w, h);
+      if (e.dir) edges.set(r.id, e.dir);
+      boxes.push({ id: r.id, anchorX: e.x, anchorY: e.y, width: b.width, height: b.height });
     }
-    const placed = layoutPins(boxes, w, h);
+    const placed = layoutPins(boxes, w, h, { obstacles: this.obstacles() });
     this.svg.setAttribute('width', String(w));
     this.svg.setAttribute('height', String(h));
     const parts: string[] = [];
@@ -111,11 +116,32 @@ export class PinOverlay {
       const b = this.boxes.get(p.id)!;
       b.el.style.transform = `translate(${Math.round(p.x)}px, ${Math.round(p.y)}px)`;
       const [ex, ey] = leaderEnd(p);
-      parts.push(`<line x1="${p.anchorX}" y1="${p.anchorY}" x2="${ex}" y2="${ey}" stroke="${PIN_STYLE.leader}" stroke-width="1.5"/>`,
-        `<circle cx="${p.anchorX}" cy="${p.anchorY}" r="3.5" fill="${PIN_STYLE.leader}" stroke="white" stroke-width="1"/>`);
+      parts.push(`<line x1="${p.anchorX}" y1="${p.anchorY}" x2="${ex}" y2="${ey}" stroke="${PIN_STYLE.leader}" stroke-width="1.5"/>`);
+      const dir = edges.get(p.id);
+      if (dir) parts.push(`<polygon class="edge-marker" data-pin-edge="${p.id}" points="${edgeMarker(p.anchorX, p.anchorY, dir, 1)}" fill="${PIN_STYLE.leader}" stroke="white" stroke-width="1"/>`);
+      else parts.push(`<circle cx="${p.anchorX}" cy="${p.anchorY}" r="3.5" fill="${PIN_STYLE.leader}" stroke="white" stroke-width="1"/>`);
     }
     this.svg.innerHTML = parts.join('');
   }
+
+  /** What pins keep clear of on screen: the legend and the view's buttons (pixels of the overlay). */
+  private obstacles(): Rect[] {
+    const o = this.host.getBoundingClientRect();
+    const out: Rect[] = [];
+    for (const el of this.host.parentElement?.querySelectorAll<HTMLElement>('.legend, .view-tools') ?? []) {
+      const r = el.getBoundingClientRect();
+      if (r.width > 0 && r.height > 0) out.push({ x: r.left - o.left, y: r.top - o.top, width: r.width, height: r.height });
+    }
+    return out;
+  }
+}
+
+/** A small arrowhead at (x, y) pointing along `dir` (unit), as SVG polygon points; `scale` sizes it. */
+function edgeMarker(x: number, y: number, dir: [number, number], scale: number): string {
+  const [dx, dy] = dir, L = 11 * scale, W = 6 * scale;
+  const tip = [x + dx * L / 2, y + dy * L / 2], back = [x - dx * L / 2, y - dy * L / 2];
+  const a = [back[0]! - dy * W, back[1]! + dx * W], b = [back[0]! + dy * W, back[1]! - dx * W];
+  return [tip, a, b].map((q) => `${q[0]!.toFixed(1)},${q[1]!.toFixed(1)}`).join(' ');
 }
 
 /** Measures a pin's box for canvas drawing at `scale` (device pixels per CSS pixel). */
@@ -130,20 +156,29 @@ function measure(ctx: CanvasRenderingContext2D, r: ProbeResult, scale: number): 
 
 /**
  * Draws the pins with their leader lines onto an exported picture. `project` maps world points to
- * pixels of the picture; `scale` sizes text so the picture reads like the screen at its resolution.
+ * pixels of the picture; `scale` sizes text so the picture reads like the screen at its resolution;
+ * `obstacles` (the legend, the footer) are kept clear; off-picture anchors are marked above the lowest
+ * `bottomReserve` pixels (the footer band).
  * Returns where each pin went (the browser test looks for pin pixels there).
  */
-export function drawPins(ctx: CanvasRenderingContext2D, results: readonly ProbeResult[], project: Projector, scale: number): PlacedPin[] {
+export function drawPins(ctx: CanvasRenderingContext2D, results: readonly ProbeResult[], project: Projector, scale: number, obstacles: readonly Rect[] = [],
+  bottomReserve = 0): PlacedPin[] {
   const shown = results.filter((r) => r.pinVisible);
   const boxes: PinBox[] = [];
+  const edges = new Map<string, [number, number]>();
+  const W = ctx.canvas.width, H = ctx.canvas.height;
   ctx.save();
   for (const r of shown) {
     const p = project(r.anchor);
     if (p.behind) continue;
     const m = measure(ctx, r, 1);
-    boxes.push({ id: r.id, anchorX: p.x, anchorY: p.y, width: m.width * scale, height: m.height * scale });
+    // an off-picture anchor is marked above the footer band, so its leader never crosses the footer's text
+    const inView = p.x >= 0 && p.x <= W && p.y >= 0 && p.y <= H;
+    const e = inView ? { x: p.x, y: p.y, dir: null } : edgeAnchor(p.x, p.y, W, H - bottomReserve, 10 * scale);
+    if (e.dir) edges.set(r.id, e.dir);
+    boxes.push({ id: r.id, anchorX: e.x, anchorY: e.y, width: m.width * scale, height: m.height * scale });
   }
-  const placed = layoutPins(boxes, ctx.canvas.width, ctx.canvas.height, { offset: 28 * scale, gap: 6 * scale, margin: 8 * scale });
+  const placed = layoutPins(boxes, W, H, { offset: 28 * scale, gap: 6 * scale, margin: 8 * scale, obstacles });
   for (const p of placed) {
     const r = shown.find((x) => x.id === p.id)!;
     const [ex, ey] = leaderEnd(p);
@@ -151,7 +186,13 @@ export function drawPins(ctx: CanvasRenderingContext2D, results: readonly ProbeR
     ctx.lineWidth = 1.5 * scale;
     ctx.beginPath(); ctx.moveTo(p.anchorX, p.anchorY); ctx.lineTo(ex, ey); ctx.stroke();
     ctx.fillStyle = PIN_STYLE.leader;
-    ctx.beginPath(); ctx.arc(p.anchorX, p.anchorY, 3.5 * scale, 0, 2 * Math.PI); ctx.fill();
+    const dir = edges.get(p.id);
+    if (dir) {
+      const pts = edgeMarker(p.anchorX, p.anchorY, dir, scale).split(' ').map((q) => q.split(',').map(Number));
+      ctx.beginPath(); ctx.moveTo(pts[0]![0]!, pts[0]![1]!); ctx.lineTo(pts[1]![0]!, pts[1]![1]!); ctx.lineTo(pts[2]![0]!, pts[2]![1]!); ctx.closePath(); ctx.fill();
+    } else {
+      ctx.beginPath(); ctx.arc(p.anchorX, p.anchorY, 3.5 * scale, 0, 2 * Math.PI); ctx.fill();
+    }
     ctx.fillStyle = PIN_STYLE.background;
     ctx.fillRect(p.x, p.y, p.width, p.height);
     ctx.strokeStyle = PIN_STYLE.border;

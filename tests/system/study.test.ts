@@ -16,6 +16,7 @@ import { sphereExact } from '../../src/samples/sphere.ts';
 import { pipeExact } from '../../src/samples/pipe.ts';
 import { parseFormatted } from '../../src/ui/format.ts';
 import { REPO, openApp, waitIdle, type AppSession, type Browser } from './browser.ts';
+import { readPng } from './png.ts';
 
 const SHOTS = join(REPO, 'tests/.screenshots');
 const PIPE = join(REPO, 'sample-fields/pipe-medium.vtu');
@@ -365,6 +366,46 @@ describe('a study in the app', () => {
     expect(svg).toContain('>arc length s [m]</text>');
     expect(svg).toContain('>|velocity|, velocity_x, velocity_y, velocity_z [m/s]</text>');
     expect(svg).toMatch(/class="caution">Caution: These numbers are only as good as/);
+  });
+
+  it('pins never hide the legend, the footer or the caution; an anchor off the view gets an edge marker', async () => {
+    await openFile(PIPE, 'pipe-medium.vtu');
+    await page.getByText('+ new line probe').click();
+    await waitIdle(page);
+    // a line whose end (the pin's anchor) lies far beyond the pipe, below and right of the view
+    for (const [k, v] of [['start x [m]', 0], ['start y [m]', 0], ['start z [m]', 0.05], ['end x [m]', 0.6], ['end y [m]', -0.6], ['end z [m]', -0.4]] as const) await setNumber(k, v, 'Line probe');
+    const id = await page.evaluate(() => document.body.dataset['selected']!);
+    await page.waitForSelector(`svg.pin-leaders [data-pin-edge="${id}"]`);
+    const marker = await page.locator(`svg.pin-leaders [data-pin-edge="${id}"]`).boundingBox();
+    const view = (await page.locator('#view').boundingBox())!;
+    // the marker sits on the view's edge (within 20 px of it)
+    const d = Math.min(marker!.x - view.x, view.x + view.width - marker!.x - marker!.width, marker!.y - view.y, view.y + view.height - marker!.y - marker!.height);
+    expect(d).toBeLessThan(20);
+    const over = async (a: string, b: string) => page.evaluate(([x, y]) => {
+      const r1 = document.querySelector(x!)!.getBoundingClientRect();
+      return [...document.querySelectorAll(y!)].some((e) => { const r2 = e.getBoundingClientRect(); return r1.left < r2.right && r2.left < r1.right && r1.top < r2.bottom && r2.top < r1.bottom; });
+    }, [a, b]);
+    expect(await over('.legend', '.pin')).toBe(false);
+    expect(await over('.view-tools', '.pin')).toBe(false);
+    await shot('s11-pin-edge-marker');
+    // in the exported picture no pin pixel falls on the legend or on the footer's text
+    await setNumber('picture width [px]', 1280);
+    await setNumber('picture height [px]', 720);
+    const [dl] = await Promise.all([page.waitForEvent('download'), page.getByText('save picture (PNG)').click()]);
+    const bytes = new Uint8Array(readFileSync((await dl.path())!));
+    writeFileSync(join(SHOTS, 's12-export-pins-clear.png'), bytes);
+    const pic = readPng(bytes);
+    const pinPixels = (x0: number, y0: number, x1: number, y1: number) => {
+      let n = 0;
+      for (let y = y0; y < y1; y++) for (let x = x0; x < x1; x++) {
+        const i = 4 * (y * pic.width + x);
+        if (Math.abs(pic.rgba[i]! - 0x1d) < 12 && Math.abs(pic.rgba[i + 1]! - 0x4e) < 12 && Math.abs(pic.rgba[i + 2]! - 0xd8) < 12) n++;
+      }
+      return n;
+    };
+    // footer: the lower right, four lines of 11 px text (file, date and the caution)
+    expect(pinPixels(Math.round(0.38 * 1280), 720 - 70, 1280, 720)).toBe(0);
+    expect(pinPixels(0, 720 - 260, 150, 720)).toBe(0);
   });
 
   it('made no request beyond localhost and logged no error', () => {
