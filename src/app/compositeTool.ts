@@ -44,6 +44,7 @@ export abstract class CompositeTool<T extends CompositeItem> {
     );
     v.onDataset(() => { this.removeAll(); this.buildPanel(); });
     v.onResultRemoved((id) => this.remove(id));
+    v.onRename((id, label) => { const x = this.items.find((i) => i.id === id); if (x) { x.label = label; this.buildPanel(); } });
     planes.onPlanesChanged(() => {
       if (this.items.length === 0) return;
       for (const x of this.items) this.refreshLinks(x);

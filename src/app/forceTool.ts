@@ -56,6 +56,7 @@ export class ForceTool {
       this.buildPanel();
     });
     v.onResultRemoved((id) => { if (id === this.id) this.clear(); });
+    v.onRename((id, label) => { if (id === this.id) this.label = label; });
     v.addPointerTool({ click: (_ev, ray) => this.click(ray) });
     refs.onChange(() => this.recompute());
     this.buildPanel();

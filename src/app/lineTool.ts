@@ -57,6 +57,7 @@ export class LineTool {
     chart.download.onclick = () => this.downloadCsv();
     v.onDataset(() => { this.removeAll(); this.buildPanel(); });
     v.onResultRemoved((id) => this.remove(id));
+    v.onRename((id, label) => { const l = this.lines.find((x) => x.id === id); if (l) { l.label = label; this.buildPanel(); this.chart.set(this.chartData(this.current)); } });
     v.addPointerTool(this.pointer());
     this.buildPanel();
   }

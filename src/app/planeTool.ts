@@ -62,6 +62,7 @@ export class PlaneTool {
     refs.onChange(() => { this.buildPanel(); this.recomputeAll(); });
     v.onColorSettings(() => this.applyColorSettings());
     v.onResultRemoved((id) => this.remove(id));
+    v.onRename((id, label) => { const p = this.planes.find((q) => q.id === id); if (p) { p.label = label; this.buildPanel(); this.planesChanged(); } });
     v.addPointerTool(this.pointer());
     this.buildPanel();
   }

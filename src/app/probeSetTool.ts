@@ -93,6 +93,7 @@ export class ProbeSetTool {
       if (this.applying) return;
       this.extras = this.extras.filter((p) => p.id !== id);
     });
+    v.onRename((id, label) => { const p = this.extras.find((x) => x.id === id); if (p) p.label = label; });
     // the set's other probes use the reference conditions too
     tools.refs.onChange(() => { if (!this.applying) void this.evaluateExtras(this.generation); this.changed(); });
   }

@@ -102,6 +102,7 @@ export class Viewer {
       onRemove: (id) => this.removeResult(id, true),
       onCopy: () => this.emit('copy'),
       onSelect: (id) => this.select(id),
+      onRename: (id, label) => this.rename(id, label),
     });
     this.table.set([]);
     this.gui = new GUI({ container: els.side, title: 'Panel' });
@@ -367,6 +368,18 @@ export class Viewer {
     this.results.set(r.id, r);
     this.refreshResults();
     if (r.id === this.selectedId) this.select(r.id);
+  }
+
+  private readonly renameListeners: ((id: string, label: string) => void)[] = [];
+
+  /** Called when the user renames a probe (each tool takes the new label for its own probe). */
+  onRename(f: (id: string, label: string) => void): void { this.renameListeners.push(f); }
+
+  /** Gives a probe a new label: the tools keep it (probe set, pins, table, CSV, reports). */
+  rename(id: string, label: string): void {
+    for (const f of this.renameListeners) f(id, label);
+    const r = this.results.get(id);
+    if (r) { r.label = label; this.refreshResults(); }
   }
 
   /** The probe the Delete key removes: the one last placed, edited or clicked (pin or table heading). */

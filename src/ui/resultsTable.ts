@@ -14,6 +14,8 @@ export interface ResultsTableEvents {
   onCopy: () => void;
   /** A probe's heading was clicked (it becomes the selected probe). */
   onSelect?: (id: string) => void;
+  /** A probe's label was edited (double-click the label, Enter to keep, Escape to drop). */
+  onRename?: (id: string, label: string) => void;
 }
 
 export class ResultsTable {
@@ -37,6 +39,27 @@ export class ResultsTable {
   }
 
   private selected: string | undefined;
+
+  /** Turns a label into a field: Enter (or leaving it) keeps a non-empty new label, Escape drops the edit. */
+  private editLabel(name: HTMLElement, id: string, label: string): void {
+    const input = document.createElement('input');
+    input.className = 'probe-label-input';
+    input.value = label;
+    input.maxLength = 120;
+    let done = false;
+    const finish = (keep: boolean) => {
+      if (done) return;
+      done = true;
+      const v = input.value.trim();
+      input.replaceWith(name);
+      if (keep && v && v !== label) this.events.onRename?.(id, v);
+    };
+    input.onkeydown = (ev) => { if (ev.key === 'Enter') finish(true); else if (ev.key === 'Escape') finish(false); ev.stopPropagation(); };
+    input.onblur = () => finish(true);
+    name.replaceWith(input);
+    input.focus();
+    input.select();
+  }
 
   /** Marks the selected probe's heading. */
   setSelected(id: string | undefined): void {
@@ -63,7 +86,10 @@ export class ResultsTable {
       const th = document.createElement('th');
       th.colSpan = 2;
       const name = document.createElement('span');
+      name.className = 'probe-label';
       name.textContent = r.label;
+      name.title = 'double-click to rename';
+      name.ondblclick = () => this.editLabel(name, r.id, r.label);
       const def = document.createElement('span');
       def.className = 'probe-def';
       def.textContent = r.definition;

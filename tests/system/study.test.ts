@@ -408,6 +408,31 @@ describe('a study in the app', () => {
     expect(pinPixels(0, 720 - 260, 150, 720)).toBe(0);
   });
 
+  it('every probe takes a label of the user\'s: pins, table, CSV and the saved set use it; undo brings the old one back', async () => {
+    await openFile(PIPE, 'pipe-medium.vtu');
+    await page.getByText('+ new cut-plane').click();
+    await waitIdle(page);
+    const id = await page.evaluate(() => document.body.dataset['selected']!);
+    const head = page.locator(`table.results tr.probe-head[data-probe="${id}"]`);
+    const n = await page.evaluate(() => Number(document.body.dataset['undoSteps'] ?? 0));
+    await head.locator('.probe-label').dblclick();
+    await head.locator('input.probe-label-input').fill('Outlet station');
+    await head.locator('input.probe-label-input').press('Enter');
+    await waitIdle(page);
+    expect(await page.locator(`[data-pin="${id}"] .pin-title`).innerText()).toBe('Outlet station');
+    expect(await head.locator('.probe-label').innerText()).toBe('Outlet station');
+    const csv = await downloadOf(() => page.getByText('save results (CSV)').click());
+    expect(csv).toMatch(/^Outlet station,plane,/m);
+    const set = JSON.parse(await downloadOf(() => page.getByText('save probe set (JSON)').click())) as { probes: { id: string; label: string }[] };
+    expect(set.probes.find((p) => p.id === id)!.label).toBe('Outlet station');
+    await shot('s13-label');
+    await page.waitForFunction((k) => Number(document.body.dataset['undoSteps'] ?? 0) > k, n);
+    await page.evaluate(() => (document.activeElement as HTMLElement | null)?.blur());
+    await page.keyboard.press('Control+z');
+    await page.waitForFunction((i) => document.querySelector(`[data-pin="${i}"] .pin-title`)?.textContent !== 'Outlet station', id);
+    expect(await page.locator(`[data-pin="${id}"] .pin-title`).innerText()).toMatch(/^Plane \d+$/);
+  });
+
   it('made no request beyond localhost and logged no error', () => {
     expect(browser.blocked).toEqual([]);
     expect(browser.errors).toEqual([]);
