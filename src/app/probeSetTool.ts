@@ -102,7 +102,13 @@ export class ProbeSetTool {
   currentSet(): ProbeSet {
     const { refs, planes, lines, force, losses, splits } = this.tools;
     const fp = force.probe();
-    const probes = [...planes.probes(), ...lines.probes(), ...(fp ? [fp] : []), ...losses.probes(), ...splits.probes(), ...this.extras];
+    // a pin placed by hand is kept with its probe
+    const probes = [...planes.probes(), ...lines.probes(), ...(fp ? [fp] : []), ...losses.probes(), ...splits.probes(), ...this.extras].map((p) => {
+      const off = this.v.pinOffsets.get(p.id);
+      const { pin: _pin, ...rest } = p;
+      void _pin;
+      return off ? { ...rest, pin: { offset: [off[0], off[1]] as [number, number] } } : rest;
+    });
     const rank = (p: Probe) => { const i = this.order.indexOf(p.id); return i < 0 ? this.order.length : i; };
     probes.sort((a, b) => rank(a) - rank(b));
     return {
@@ -142,6 +148,8 @@ export class ProbeSetTool {
         ...(set.units ? { units: set.units } : {}),
       };
       this.order = set.probes.map((p) => p.id);
+      this.v.pinOffsets.clear();
+      for (const p of set.probes) if (p.pin) this.v.pinOffsets.set(p.id, [...p.pin.offset]);
       // before the probes: every tool evaluates on the set's reference conditions
       refs.setFromDoc(set.reference, false);
       // the tools compute in the file's units; a set in other units is evaluated as a whole by the worker

@@ -91,7 +91,7 @@ export class Viewer {
     this.view = new ViewScene(els.canvas);
     this.banner = new Banner(els.overlay.parentElement!);
     this.legend = new LegendView(els.overlay);
-    this.pins = new PinOverlay(els.overlay, (p) => this.view.project(p), (id) => this.select(id));
+    this.pins = new PinOverlay(els.overlay, (p) => this.view.project(p), (id) => this.select(id), (id) => { this.select(id); this.refreshResults(); });
     this.view.onFrame(() => this.pins.update());
     this.progress = new ProgressBar(els.progress);
     this.progress.cancel.onclick = () => { this.progress.cancelling(); void this.compute.cancelLoad(); };
@@ -393,8 +393,12 @@ export class Viewer {
     if (id) document.body.dataset['selected'] = id; else delete document.body.dataset['selected'];
   }
 
+  /** Pins placed by hand, by probe id (box corner relative to the anchor, CSS pixels); kept in the probe set. */
+  get pinOffsets(): Map<string, [number, number]> { return this.pins.offsets; }
+
   removeResult(id: string, tellTools: boolean): void {
     if (!this.results.delete(id)) return;
+    this.pins.offsets.delete(id);
     if (this.selectedId === id) this.select(undefined);
     if (tellTools) for (const l of this.resultListeners) l(id);
     this.refreshResults();

@@ -90,6 +90,8 @@ interface ProbeBase {
   id: string;
   /** Shown in tables and on pins; default: the id. */
   label?: string;
+  /** Where the app shows the pin: the box's top-left corner relative to the anchor (CSS pixels); default: placed automatically. */
+  pin?: { offset: [number, number] };
 }
 
 export interface CutPlaneProbe extends ProbeBase {

@@ -20,25 +20,26 @@ export const MEMBERS = {
   disk: ['centre', 'radius'],
   rectangle: ['centre', 'axis', 'halfSizes'],
   cellGroups: ['field', 'ids'],
+  pin: ['offset'],
   flowFields: ['velocity', 'pressure', 'density'],
   flowOptions: ['kinematicPressure'],
   sampleFields: ['sample'],
   boundaryLayer: ['velocity', 'edge', 'edgeFraction', 'direction'],
-  cutPlaneProbe: ['id', 'kind', 'label', 'geometry', 'fields', 'options'],
-  lineProbe: ['id', 'kind', 'label', 'geometry', 'fields', 'options'],
+  cutPlaneProbe: ['id', 'kind', 'label', 'geometry', 'fields', 'options', 'pin'],
+  lineProbe: ['id', 'kind', 'label', 'geometry', 'fields', 'options', 'pin'],
   lineGeometry: ['from', 'to'],
   lineOptions: ['spacing', 'samples', 'tolerance', 'boundaryLayer'],
-  pointProbe: ['id', 'kind', 'label', 'geometry', 'fields', 'options'],
+  pointProbe: ['id', 'kind', 'label', 'geometry', 'fields', 'options', 'pin'],
   pointGeometry: ['at'],
   pointOptions: ['tolerance'],
-  forceProbe: ['id', 'kind', 'label', 'geometry', 'fields', 'options'],
+  forceProbe: ['id', 'kind', 'label', 'geometry', 'fields', 'options', 'pin'],
   forceGeometry: ['surfaces'],
   forceFields: ['pressure', 'wallShear', 'velocity', 'viscosity'],
   forceOptions: ['featureAngle', 'groupArray', 'viscous', 'kinematicPressure', 'wallShearSign', 'reference'],
-  pressureLossProbe: ['id', 'kind', 'label', 'geometry', 'fields', 'options'],
+  pressureLossProbe: ['id', 'kind', 'label', 'geometry', 'fields', 'options', 'pin'],
   lossGeometry: ['upstream', 'downstream'],
   lossOptions: ['kinematicPressure', 'dynamicPressureFrom'],
-  massBalanceProbe: ['id', 'kind', 'label', 'geometry', 'fields', 'options'],
+  massBalanceProbe: ['id', 'kind', 'label', 'geometry', 'fields', 'options', 'pin'],
   balanceGeometry: ['planes', 'surfaces'],
   balanceOptions: ['featureAngle', 'groupArray'],
 } as const satisfies Record<string, readonly string[]>;
@@ -261,6 +262,14 @@ function probe(c: Checks, v: unknown, path: string, ids: Map<string, string>): v
   c.optional(o, 'geometry', path, (x, p) => geometry(c, k, x, p));
   c.optional(o, 'fields', path, (x, p) => fields(c, k, x, p));
   c.optional(o, 'options', path, (x, p) => options(c, k, x, p));
+  c.optional(o, 'pin', path, (x, p) => {
+    const pin = c.object(x, p, MEMBERS.pin, MEMBERS.pin);
+    if (!pin) return;
+    c.optional(pin, 'offset', p, (y, q) => {
+      if (!Array.isArray(y) || y.length !== 2) return c.fail(q, 'an array of 2 numbers (CSS pixels)', y);
+      y.forEach((z, i) => c.number(z, at(q, i), { min: -10000, max: 10000 }));
+    });
+  });
 }
 
 /**

@@ -12,6 +12,8 @@ export interface PinBox {
   anchorY: number;
   width: number;
   height: number;
+  /** Placed by hand: the box's top-left corner relative to the anchor (pixels); kept (inside the view), and the others avoid it. */
+  offset?: [number, number];
 }
 
 /** A placed pin: the box's top-left corner, and whether its anchor is in front of the camera and on screen. */
@@ -67,7 +69,15 @@ export function layoutPins(pins: readonly PinBox[], viewWidth: number, viewHeigh
   const o = { ...DEFAULT_PIN_LAYOUT, ...options };
   const placed: PlacedPin[] = [];
   const order = [...pins].sort((a, b) => (a.id < b.id ? -1 : a.id > b.id ? 1 : 0));
+  const clampX = (x: number, w: number) => Math.min(Math.max(x, o.margin), Math.max(o.margin, viewWidth - o.margin - w));
+  const clampY = (y: number, h: number) => Math.min(Math.max(y, o.margin), Math.max(o.margin, viewHeight - o.margin - h));
+  // pins placed by hand first, where they were put
   for (const p of order) {
+    if (!p.offset) continue;
+    placed.push({ id: p.id, x: clampX(p.anchorX + p.offset[0], p.width), y: clampY(p.anchorY + p.offset[1], p.height), anchorX: p.anchorX, anchorY: p.anchorY, width: p.width, height: p.height });
+  }
+  for (const p of order) {
+    if (p.offset) continue;
     let chosen: [number, number] | undefined, fallback: [number, number] | undefined;
     for (let ring = 0; ring < o.rings && !chosen; ring++) {
       const d = o.offset * (1 + ring * 0.75);
@@ -84,7 +94,8 @@ export function layoutPins(pins: readonly PinBox[], viewWidth: number, viewHeigh
     const [x, y] = chosen ?? fallback!;
     placed.push({ id: p.id, x, y, anchorX: p.anchorX, anchorY: p.anchorY, width: p.width, height: p.height });
   }
-  return placed;
+  // in id order, as before
+  return placed.sort((a, b) => (a.id < b.id ? -1 : a.id > b.id ? 1 : 0));
 }
 
 /**

@@ -41,9 +41,17 @@ export class PinOverlay {
   private results: ProbeResult[] = [];
 
   private selected: string | undefined;
+  /** Pins placed by hand: box corner relative to the anchor (CSS pixels), by probe id. */
+  offsets = new Map<string, [number, number]>();
+  /** Where each pin is now (for a drag's start). */
+  private placedNow = new Map<string, PlacedPin>();
 
-  /** `onPick`: a pin was clicked (its probe becomes the selected one). */
-  constructor(private readonly host: HTMLElement, private readonly project: Projector, private readonly onPick?: (id: string) => void) {
+  /**
+   * `onPick`: a pin was clicked (its probe becomes the selected one); `onMoved`: a pin was dragged to a new
+   * place (offset from its anchor, CSS pixels), to be kept with the probe.
+   */
+  constructor(private readonly host: HTMLElement, private readonly project: Projector, private readonly onPick?: (id: string) => void,
+    private readonly onMoved?: (id: string, offset: [number, number]) => void) {
     this.svg = document.createElementNS('http://www.w3.org/2000/svg', 'svg');
     this.svg.classList.add('pin-leaders');
     host.append(this.svg);
@@ -61,7 +69,7 @@ export class PinOverlay {
         el.className = 'pin';
         el.dataset['pin'] = r.id;
         const id = r.id;
-        el.addEventListener('click', () => this.onPick?.(id));
+        el.addEventListener('pointerdown', (ev) => this.drag(ev, id, el));
         this.host.append(el);
         b = { el, width: 0, height: 0 };
         this.boxes.set(r.id, b);
@@ -108,7 +116,9 @@ export class PinOverlay {
       if (e.dir) edges.set(r.id, e.dir);
       boxes.push({ id: r.id, anchorX: e.x, anchorY: e.y, width: b.width, height: b.height });
     }
+    for (const b of boxes) { const off = this.offsets.get(b.id); if (off) b.offset = off; }
     const placed = layoutPins(boxes, w, h, { obstacles: this.obstacles() });
+    this.placedNow = new Map(placed.map((p) => [p.id, p]));
     this.svg.setAttribute('width', String(w));
     this.svg.setAttribute('height', String(h));
     const parts: string[] = [];
@@ -122,6 +132,40 @@ export class PinOverlay {
       else parts.push(`<circle cx="${p.anchorX}" cy="${p.anchorY}" r="3.5" fill="${PIN_STYLE.leader}" stroke="white" stroke-width="1"/>`);
     }
     this.svg.innerHTML = parts.join('');
+  }
+
+  /**
+   * Drags a pin by hand (the leader follows); a press without movement is a click (selects the probe).
+   * Page text is not selected meanwhile.
+   */
+  private drag(ev: PointerEvent, id: string, el: HTMLElement): void {
+    if (ev.button !== 0) return;
+    ev.preventDefault();
+    const start = this.placedNow.get(id);
+    if (!start) return;
+    const x0 = ev.clientX, y0 = ev.clientY;
+    let moved = false;
+    el.setPointerCapture(ev.pointerId);
+    const move = (e: PointerEvent) => {
+      if (!moved && Math.hypot(e.clientX - x0, e.clientY - y0) < 4) return;
+      moved = true;
+      this.offsets.set(id, [start.x - start.anchorX + e.clientX - x0, start.y - start.anchorY + e.clientY - y0]);
+      this.update();
+    };
+    const up = () => {
+      el.removeEventListener('pointermove', move);
+      el.removeEventListener('pointerup', up);
+      el.removeEventListener('pointercancel', up);
+      if (!moved) { this.onPick?.(id); return; }
+      const p = this.placedNow.get(id)!;
+      // the kept offset is where the pin ended (inside the view)
+      const off: [number, number] = [Math.round(p.x - p.anchorX), Math.round(p.y - p.anchorY)];
+      this.offsets.set(id, off);
+      this.onMoved?.(id, off);
+    };
+    el.addEventListener('pointermove', move);
+    el.addEventListener('pointerup', up);
+    el.addEventListener('pointercancel', up);
   }
 
   /** What pins keep clear of on screen: the legend and the view's buttons (pixels of the overlay). */
@@ -158,11 +202,11 @@ function measure(ctx: CanvasRenderingContext2D, r: ProbeResult, scale: number): 
  * Draws the pins with their leader lines onto an exported picture. `project` maps world points to
  * pixels of the picture; `scale` sizes text so the picture reads like the screen at its resolution;
  * `obstacles` (the legend, the footer) are kept clear; off-picture anchors are marked above the lowest
- * `bottomReserve` pixels (the footer band).
+ * `bottomReserve` pixels (the footer band); pins placed by hand keep their `offsets` (CSS pixels, scaled).
  * Returns where each pin went (the browser test looks for pin pixels there).
  */
 export function drawPins(ctx: CanvasRenderingContext2D, results: readonly ProbeResult[], project: Projector, scale: number, obstacles: readonly Rect[] = [],
-  bottomReserve = 0): PlacedPin[] {
+  bottomReserve = 0, offsets: ReadonlyMap<string, [number, number]> = new Map()): PlacedPin[] {
   const shown = results.filter((r) => r.pinVisible);
   const boxes: PinBox[] = [];
   const edges = new Map<string, [number, number]>();
@@ -176,7 +220,8 @@ export function drawPins(ctx: CanvasRenderingContext2D, results: readonly ProbeR
     const inView = p.x >= 0 && p.x <= W && p.y >= 0 && p.y <= H;
     const e = inView ? { x: p.x, y: p.y, dir: null } : edgeAnchor(p.x, p.y, W, H - bottomReserve, 10 * scale);
     if (e.dir) edges.set(r.id, e.dir);
-    boxes.push({ id: r.id, anchorX: e.x, anchorY: e.y, width: m.width * scale, height: m.height * scale });
+    const off = offsets.get(r.id);
+    boxes.push({ id: r.id, anchorX: e.x, anchorY: e.y, width: m.width * scale, height: m.height * scale, ...(off ? { offset: [off[0] * scale, off[1] * scale] as [number, number] } : {}) });
   }
   const placed = layoutPins(boxes, W, H, { offset: 28 * scale, gap: 6 * scale, margin: 8 * scale, obstacles });
   for (const p of placed) {

@@ -388,6 +388,25 @@ describe('a study in the app', () => {
     expect(await over('.legend', '.pin')).toBe(false);
     expect(await over('.view-tools', '.pin')).toBe(false);
     await shot('s11-pin-edge-marker');
+    // drag the pin by hand: it stays where it was put, its leader stays attached, the set keeps the place
+    const box0 = (await page.locator(`[data-pin="${id}"]`).boundingBox())!;
+    await page.mouse.move(box0.x + 20, box0.y + 8);
+    await page.mouse.down();
+    for (let i = 1; i <= 6; i++) await page.mouse.move(box0.x + 20 - 30 * i, box0.y + 8 - 25 * i);
+    await page.mouse.up();
+    await waitIdle(page);
+    const box1 = (await page.locator(`[data-pin="${id}"]`).boundingBox())!;
+    expect(box1.x).toBeCloseTo(box0.x - 180, -1);
+    expect(box1.y).toBeCloseTo(box0.y - 150, -1);
+    // no page text got selected by the drag
+    expect(await page.evaluate(() => String(window.getSelection() ?? ''))).toBe('');
+    const leader = await page.locator('svg.pin-leaders line').evaluateAll((ls) => ls.map((l) => [Number(l.getAttribute('x2')), Number(l.getAttribute('y2'))]));
+    const o = (await page.locator('#overlay').boundingBox())!;
+    expect(leader.some(([x, y]) => x! >= box1.x - o.x - 1 && x! <= box1.x - o.x + box1.width + 1 && y! >= box1.y - o.y - 1 && y! <= box1.y - o.y + box1.height + 1)).toBe(true);
+    await page.waitForTimeout(400);
+    const saved = JSON.parse(await downloadOf(() => page.getByText('save probe set (JSON)').click())) as { probes: { id: string; pin?: { offset: number[] } }[] };
+    expect(saved.probes.find((p) => p.id === id)!.pin!.offset.length).toBe(2);
+    await shot('s11b-pin-dragged');
     // in the exported picture no pin pixel falls on the legend or on the footer's text
     await setNumber('picture width [px]', 1280);
     await setNumber('picture height [px]', 720);

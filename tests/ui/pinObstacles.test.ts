@@ -41,3 +41,18 @@ describe('edgeAnchor', () => {
     expect(Math.hypot(...e.dir!)).toBeCloseTo(1, 12);
   });
 });
+
+describe('pins placed by hand', () => {
+  it('keep their place (inside the view); the automatic ones avoid them', () => {
+    const pins = [
+      { id: 'a', anchorX: 100, anchorY: 100, width: 120, height: 40, offset: [200, 50] as [number, number] },
+      { id: 'b', anchorX: 300, anchorY: 150, width: 120, height: 40 },
+    ];
+    const [a, b] = layoutPins(pins, 800, 600);
+    expect([a!.x, a!.y]).toEqual([300, 150]);
+    expect(clear(a!, b!)).toBe(true);
+    // a hand offset that would leave the view is brought back inside it
+    const [c] = layoutPins([{ id: 'c', anchorX: 700, anchorY: 500, width: 120, height: 40, offset: [300, 300] }], 800, 600);
+    expect([c!.x, c!.y]).toEqual([800 - 8 - 120, 600 - 8 - 40]);
+  });
+});
