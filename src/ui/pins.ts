@@ -117,7 +117,8 @@ export class PinOverlay {
       boxes.push({ id: r.id, anchorX: e.x, anchorY: e.y, width: b.width, height: b.height });
     }
     for (const b of boxes) { const off = this.offsets.get(b.id); if (off) b.offset = off; }
-    const placed = layoutPins(boxes, w, h, { obstacles: this.obstacles() });
+    // no pins, no layout work (and no forced style pass for the obstacles) in this frame
+    const placed = boxes.length ? layoutPins(boxes, w, h, { obstacles: this.obstacles() }) : [];
     this.placedNow = new Map(placed.map((p) => [p.id, p]));
     this.svg.setAttribute('width', String(w));
     this.svg.setAttribute('height', String(h));

@@ -180,7 +180,9 @@ describe('probe sets in the viewer', () => {
     await settle();
     const zip = unzipSync(await downloadOf(() => button('save report (.zip)').click()));
     const names = Object.keys(zip).sort();
-    expect(names).toEqual(['pipe-medium-report/probe-set.json', 'pipe-medium-report/report.html', 'pipe-medium-report/results-long.csv',
+    // the line probe the view holds brings its samples and a profile picture per field
+    expect(names).toEqual(['pipe-medium-report/diameter-p.svg', 'pipe-medium-report/diameter-samples.csv', 'pipe-medium-report/diameter-velocity.svg',
+      'pipe-medium-report/probe-set.json', 'pipe-medium-report/report.html', 'pipe-medium-report/results-long.csv',
       'pipe-medium-report/results.csv', 'pipe-medium-report/results.json', 'pipe-medium-report/view-1.png']);
     const res = JSON.parse(new TextDecoder().decode(zip['pipe-medium-report/results.json'])) as { version: string; inputs: { name: string; sha256: string }[]; files: { probes: ReturnType<typeof cliResults> }[] };
     const cliMedium = cliResults(MEDIUM);

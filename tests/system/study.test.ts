@@ -85,7 +85,7 @@ describe('a study in the app', () => {
     // the preset comes from the study layer's catalogue: water at 20 °C
     expect(await control('fluid', 'Reference conditions').locator('select').inputValue()).toBe('water at 20 °C, 1 atm');
     expect(Number(await control('ref. density ρ [kg/m³]').locator('input').inputValue())).toBe(998.207);
-    await page.getByText('+ new cut-plane').click();
+    await page.locator('.lil-name', { hasText: /^\+ new cut-plane$/ }).click();
     await page.waitForSelector('[data-pin="plane-1"] [data-quantity="massFlowRate"]');
     for (const [k, v] of [['origin x [m]', 0], ['origin y [m]', 0], ['origin z [m]', 0.03], ['normal x', 0], ['normal y', 0], ['normal z', 1]] as const) await setNumber(k, v);
     const out = cli('cut', PIPE, '--origin', '0,0,0.03', '--normal', '0,0,1', '--rho', '998.207') as { massFlowRate: number; volumeFlowRate: number };
@@ -306,12 +306,31 @@ describe('a study in the app', () => {
     await choose('field', 'p (points)', 'Colour');
     // the pipe's boundary (under a thousand faces) is far below the 200 000 above which outlines start off
     expect(await control('face outlines').locator('input').isChecked()).toBe(true);
+    // the cut-plane's knob is 9 px in radius on screen on the 100 mm pipe and on the 1 mm bead alike
+    const knobPixels = async () => {
+      await waitIdle(page);
+      const k = await page.evaluate(() => (window as unknown as { __fieldtally: { knobScreen(): [number, number] } }).__fieldtally.knobScreen());
+      if (!k) throw new Error("no knob on screen");
+      const pic = readPng(await page.screenshot({ clip: { x: k[0] - 20, y: k[1] - 20, width: 40, height: 40 } }));
+      let n = 0;
+      for (let i = 0; i < pic.rgba.length; i += 4) if (pic.rgba[i]! < 90 && pic.rgba[i + 1]! < 140 && pic.rgba[i + 2]! > 180) n++;
+      return n;
+    };
+    await page.locator('.lil-name', { hasText: /^\+ new cut-plane$/ }).click();
+    const onPipe = await knobPixels();
+    await openFile(SPHERE, 'sphere-stokes.vtu');
+    await page.locator('.lil-name', { hasText: /^\+ new cut-plane$/ }).click();
+    const onBead = await knobPixels();
+    await shot('s08b-knob-on-bead');
+    // in a 40 × 40 px box around its centre: the knob (π·9² ≈ 254 px) and the end of its arrow; a knob sized by the
+    // domain (as before) filled the whole box on the bead
+    for (const n of [onPipe, onBead]) { expect(n).toBeGreaterThan(150); expect(n).toBeLessThan(900); }
   });
 
   it('charts: readable ticks with a shared ×10ⁿ, x as r/L from a point, two fields, measured points with ± bars, the baseline dashed, half the screen', async () => {
     const chart = page.locator('#chart-pane .chart');
     await openFile(PIPE, 'pipe-medium.vtu');
-    await page.getByText('+ new line probe').click();
+    await page.locator('.lil-name', { hasText: /^\+ new line probe$/ }).click();
     await page.waitForSelector('#chart-pane .uplot canvas');
     // a 2 mm line: its arc length reads 0 … 2 with ×10⁻³ m once in the title, not 0, 0, 0.001, 0.001, 0.002
     for (const [k, v] of [['start x [m]', 0], ['start y [m]', 0], ['start z [m]', 0.07], ['end x [m]', 0.002], ['end y [m]', 0], ['end z [m]', 0.07]] as const) await setNumber(k, v, 'Line probe');
@@ -370,7 +389,7 @@ describe('a study in the app', () => {
 
   it('pins never hide the legend, the footer or the caution; an anchor off the view gets an edge marker', async () => {
     await openFile(PIPE, 'pipe-medium.vtu');
-    await page.getByText('+ new line probe').click();
+    await page.locator('.lil-name', { hasText: /^\+ new line probe$/ }).click();
     await waitIdle(page);
     // a line whose end (the pin's anchor) lies far beyond the pipe, below and right of the view
     for (const [k, v] of [['start x [m]', 0], ['start y [m]', 0], ['start z [m]', 0.05], ['end x [m]', 0.6], ['end y [m]', -0.6], ['end z [m]', -0.4]] as const) await setNumber(k, v, 'Line probe');
@@ -429,7 +448,7 @@ describe('a study in the app', () => {
 
   it('every probe takes a label of the user\'s: pins, table, CSV and the saved set use it; undo brings the old one back', async () => {
     await openFile(PIPE, 'pipe-medium.vtu');
-    await page.getByText('+ new cut-plane').click();
+    await page.locator('.lil-name', { hasText: /^\+ new cut-plane$/ }).click();
     await waitIdle(page);
     const id = await page.evaluate(() => document.body.dataset['selected']!);
     const head = page.locator(`table.results tr.probe-head[data-probe="${id}"]`);
