@@ -58,19 +58,27 @@ export class ExportTool {
     // text sized as on a 1080-pixel-high screen, scaled with the picture
     const scale = Math.max(1, h / 900);
     const cam = this.v.view.cameraFor(w, h);
+    cam.updateMatrixWorld();
+    // as the view projects: a point off the picture keeps its direction (its pin marks it on the edge)
     const project = (p: [number, number, number]) => {
+      const c = new THREE.Vector3(p[0], p[1], p[2]).applyMatrix4(cam.matrixWorldInverse);
+      if (c.z >= 0) { const n = Math.hypot(c.x, c.y) || 1; return { x: w / 2 + (c.x / n) * 1e6, y: h / 2 - (c.y / n) * 1e6, behind: false }; }
       const q = new THREE.Vector3(p[0], p[1], p[2]).project(cam);
-      return { x: (q.x + 1) / 2 * w, y: (1 - q.y) / 2 * h, behind: q.z > 1 || q.z < -1 };
+      return { x: (q.x + 1) / 2 * w, y: (1 - q.y) / 2 * h, behind: false };
     };
-    drawPins(ctx, this.v.allResults, project, scale);
+    // legend and footer first: the pins are laid out clear of both
     const legend = this.v.legendState();
-    if (legend) drawLegend(ctx, legend, scale);
+    const obstacles = legend ? [drawLegend(ctx, legend, scale)] : [];
+    ctx.font = `${11 * scale}px system-ui, sans-serif`;
+    const ctxText = this.context();
+    const lines = [`fieldtally — ${ctxText.file} — ${ctxText.createdAt.slice(0, 10)}`, ...wrapText(ctx, `Caution: ${CAUTION}`, w * 0.6)];
+    const footW = Math.max(...lines.map((l) => ctx.measureText(l).width)), footH = (8 + 15 * lines.length + 4) * scale;
+    obstacles.push({ x: w - 12 * scale - footW, y: h - footH, width: footW + 12 * scale, height: footH });
+    drawPins(ctx, this.v.allResults, project, scale, obstacles, footH, this.v.pinOffsets);
     ctx.font = `${11 * scale}px system-ui, sans-serif`;
     ctx.fillStyle = '#4b5563';
     ctx.textAlign = 'right';
     ctx.textBaseline = 'bottom';
-    const ctxText = this.context();
-    const lines = [`fieldtally — ${ctxText.file} — ${ctxText.createdAt.slice(0, 10)}`, ...wrapText(ctx, `Caution: ${CAUTION}`, w * 0.6)];
     lines.reverse().forEach((line, i) => ctx.fillText(line, w - 12 * scale, h - (8 + 15 * i) * scale));
     return new Promise((resolve, reject) => canvas.toBlob((b) => (b ? resolve(b) : reject(new Error('the picture could not be encoded'))), 'image/png'));
   }

@@ -36,3 +36,20 @@ export function latestWins<A, R>(run: (arg: A) => Promise<R>, onResult: (r: R, a
     },
   };
 }
+
+/**
+ * `latestWins` per key (e.g. per probe): requests for one key replace each other, requests for different
+ * keys never do, so a set of several planes loaded at once computes every one of them.
+ */
+export function latestWinsPerKey<A, R>(key: (arg: A) => unknown, run: (arg: A) => Promise<R>, onResult: (r: R, arg: A) => void,
+  onError: (e: unknown) => void): { request: (arg: A) => void } {
+  const lanes = new Map<unknown, ReturnType<typeof latestWins<A, R>>>();
+  return {
+    request(arg) {
+      const k = key(arg);
+      let lane = lanes.get(k);
+      if (!lane) { lane = latestWins(run, onResult, onError); lanes.set(k, lane); }
+      lane.request(arg);
+    },
+  };
+}

@@ -7,15 +7,17 @@ import type GUI from 'lil-gui';
 import type * as THREE from 'three';
 import type { LineReply, Vec3 } from '../../workers/api.ts';
 import type { LineProbe, Probe } from '../study/probeSet.ts';
-import { CAUTION } from '../study/caution.ts';
 import { download } from '../ui/download.ts';
 import { formatVec } from '../ui/format.ts';
+import { CAUTION } from '../study/caution.ts';
+import { lineSamplesCsv } from '../ui/lineCsv.ts';
+import { profileSvg } from '../ui/profileSvg.ts';
 import { LineChart, type ChartData } from '../ui/lineChart.ts';
 import { classifyNotes } from '../ui/notes.ts';
 import type { ProbeResult, Quantity } from '../ui/results.ts';
 import { UNITS, fieldUnit } from '../ui/units.ts';
 import { LineProbeWidget } from '../view/lineProbeWidget.ts';
-import { latestWins } from './latestWins.ts';
+import { latestWinsPerKey } from './latestWins.ts';
 import type { Viewer } from './viewer.ts';
 
 /** Samples per line at first (evenly spaced, both ends included). */
@@ -41,10 +43,13 @@ export class LineTool {
   private readonly folder: GUI;
   private readonly request;
   private dragged: Line | undefined;
+  /** The baseline file's samples of each line, by geometry and sample count. */
+  private baselines: { file: string; lines: Map<string, LineReply> } | undefined;
 
   constructor(private readonly v: Viewer, private readonly chart: LineChart) {
     this.folder = v.gui.addFolder('Line probe');
-    this.request = latestWins(
+    // one lane per probe: several probes computed at once never drop each other's requests
+    this.request = latestWinsPerKey((x: { id: string }) => x.id,
       (l: Line) => v.track(v.compute.sample({ from: [l.ax, l.ay, l.az], to: [l.bx, l.by, l.bz], samples: l.samples })),
       (reply, l) => this.show(l, reply),
       (e) => v.banner.error(`Line probe: ${(e as Error).message}`),
@@ -52,6 +57,7 @@ export class LineTool {
     chart.download.onclick = () => this.downloadCsv();
     v.onDataset(() => { this.removeAll(); this.buildPanel(); });
     v.onResultRemoved((id) => this.remove(id));
+    v.onRename((id, label) => { const l = this.lines.find((x) => x.id === id); if (l) { l.label = label; this.buildPanel(); this.chart.set(this.chartData(this.current)); } });
     v.addPointerTool(this.pointer());
     this.buildPanel();
   }
@@ -86,6 +92,7 @@ export class LineTool {
     this.lines.push(l);
     this.v.view.root.add(l.widget.group);
     this.current = l;
+    this.v.select(l.id);
     this.buildPanel();
     this.changed(l);
   }
@@ -107,6 +114,7 @@ export class LineTool {
     this.lines.push(l);
     this.v.view.root.add(l.widget.group);
     this.current = l;
+    this.v.select(l.id);
     this.buildPanel();
     this.changed(l);
   }
@@ -138,37 +146,52 @@ export class LineTool {
   private chartData(l: Line | undefined): ChartData | undefined {
     const r = l?.reply;
     if (!l || !r || r.outside) return undefined;
-    const series: ChartData['series'] = [];
-    for (const f of r.fields) {
-      const unit = fieldUnit(f.name);
-      if (f.components > 1) {
-        const mag = new Float64Array(r.count);
-        for (let i = 0; i < r.count; i++) {
-          let s2 = 0;
-          for (const c of f.columns) s2 += c[i]! * c[i]!;
-          mag[i] = Math.sqrt(s2);
-        }
-        series.push({ label: `|${f.name}|`, unit, values: mag });
+    const b = this.baselines?.lines.get(geometryKey(l));
+    return {
+      key: l.id, title: l.label, s: r.s, x: r.x, y: r.y, z: r.z, series: chartSeries(r),
+      ...(b ? { baseline: { file: this.baselines!.file, s: b.s, x: b.x, y: b.y, z: b.z, series: chartSeries(b) } } : {}),
+    };
+  }
+
+  /**
+   * Every line's samples for a report: `<id>-samples.csv` (every column, headed with units) and one SVG profile
+   * per field against the arc length (`<id>-<field>.svg`: a scalar, or a vector's magnitude and components).
+   */
+  reportFiles(): Record<string, Uint8Array> {
+    const enc = new TextEncoder(), out: Record<string, Uint8Array> = {};
+    const safe = (t: string) => t.replace(/[^\w.-]+/g, '-');
+    for (const l of this.lines) {
+      const r = l.reply;
+      if (!r || r.outside) continue;
+      out[`${safe(l.id)}-samples.csv`] = enc.encode(lineSamplesCsv(l.label, [l.ax, l.ay, l.az], [l.bx, l.by, l.bz], r));
+      const all = chartSeries(r);
+      for (const f of r.fields) {
+        const series = all.filter((x) => x.label === `|${f.name}|` || f.labels.includes(x.label));
+        out[`${safe(l.id)}-${safe(f.name)}.svg`] = enc.encode(profileSvg({
+          title: `${l.label}: ${f.name} along the line`, xName: 'arc length s', xUnit: 'm', x: r.s, series, caution: CAUTION,
+        }));
       }
-      f.columns.forEach((c, k) => series.push({ label: f.labels[k]!, unit, values: c }));
     }
-    return { title: l.label, s: r.s, series };
+    return out;
+  }
+
+  /** Keeps every line's samples on the open file as the baseline its chart overlays (the same line on a later file). */
+  keepBaseline(file: string): void {
+    const lines = new Map<string, LineReply>();
+    for (const l of this.lines) if (l.reply && !l.reply.outside) lines.set(geometryKey(l), l.reply);
+    this.baselines = { file, lines };
+  }
+
+  /** Forgets the baseline's lines. */
+  clearBaseline(): void {
+    this.baselines = undefined;
+    this.chart.set(this.chartData(this.current));
   }
 
   private downloadCsv(): void {
     const l = this.current, r = l?.reply;
     if (!l || !r) return;
-    const head = ['s', 'x', 'y', 'z', 'valid', ...r.fields.flatMap((f) => f.labels)];
-    const rows = [`# fieldtally line probe ${l.number}: ${formatVec([l.ax, l.ay, l.az], 17, true)} → ${formatVec([l.bx, l.by, l.bz], 17, true)} m; ` +
-      'lengths in m, values in the file\'s units (SI assumed); samples outside the mesh have valid = 0 and empty values',
-    `# Caution: ${CAUTION}`, head.join(',')];
-    for (let i = 0; i < r.count; i++) {
-      const cells = [r.s[i], r.x[i], r.y[i], r.z[i]].map(String);
-      cells.push(String(r.valid[i]));
-      for (const f of r.fields) for (const c of f.columns) cells.push(Number.isFinite(c[i]!) ? String(c[i]) : '');
-      rows.push(cells.join(','));
-    }
-    download(`line-${l.number}.csv`, rows.join('\n') + '\n', 'text/csv');
+    download(`line-${l.number}.csv`, lineSamplesCsv(l.label, [l.ax, l.ay, l.az], [l.bx, l.by, l.bz], r), 'text/csv');
   }
 
   private buildPanel(): void {
@@ -181,6 +204,7 @@ export class LineTool {
       for (const x of this.lines) opts[x.label] = x.id;
       this.folder.add({ which: l.id }, 'which', opts).name('editing').onChange((id: string) => {
         this.current = this.lines.find((x) => x.id === id);
+        this.v.select(this.current?.id);
         this.buildPanel();
         this.chart.set(this.chartData(this.current));
       });
@@ -198,6 +222,7 @@ export class LineTool {
         if (!l) return false;
         this.dragged = l;
         if (this.current !== l) { this.current = l; this.buildPanel(); this.chart.set(this.chartData(l)); }
+        this.v.select(l.id);
         return true;
       },
       move: (_ev: PointerEvent, ray: THREE.Raycaster): void => {
@@ -210,6 +235,30 @@ export class LineTool {
       up: (): void => { this.dragged?.widget.endDrag(); this.dragged = undefined; },
     };
   }
+}
+
+/** A line's identity across files: its ends and sample count. */
+function geometryKey(l: Line): string {
+  return [l.ax, l.ay, l.az, l.bx, l.by, l.bz, l.samples].join(',');
+}
+
+/** Every sampled column for the chart: scalars, vector components and magnitudes. */
+function chartSeries(r: LineReply): ChartData['series'] {
+  const series: ChartData['series'] = [];
+  for (const f of r.fields) {
+    const unit = fieldUnit(f.name);
+    if (f.components > 1) {
+      const mag = new Float64Array(r.count);
+      for (let i = 0; i < r.count; i++) {
+        let s2 = 0;
+        for (const c of f.columns) s2 += c[i]! * c[i]!;
+        mag[i] = Math.sqrt(s2);
+      }
+      series.push({ label: `|${f.name}|`, unit, values: mag });
+    }
+    f.columns.forEach((c, k) => series.push({ label: f.labels[k]!, unit, values: c }));
+  }
+  return series;
 }
 
 /** The numbers of a line for pins, table and exports. */

@@ -9,11 +9,15 @@ import { loadRequestFor } from './fileChoice.ts';
 import { ExportTool } from './exportTool.ts';
 import { ForceTool } from './forceTool.ts';
 import { LineTool } from './lineTool.ts';
+import { LossTool } from './lossTool.ts';
 import { PlaneTool } from './planeTool.ts';
 import { ProbeSetTool } from './probeSetTool.ts';
+import { ReferenceTool } from './referenceTool.ts';
 import { ReportTool } from './reportTool.ts';
 import { seriesChoiceFor, type SeriesChoice } from './seriesChoice.ts';
 import { SeriesTool } from './seriesTool.ts';
+import { bindShortcuts } from './shortcuts.ts';
+import { SplitTool } from './splitTool.ts';
 import { LineChart } from '../ui/lineChart.ts';
 import { Viewer } from './viewer.ts';
 import { ensureIsolation } from './isolation.ts';
@@ -31,14 +35,26 @@ const viewer = new Viewer(startCompute(), {
   results: $('results-pane'), progress: $('progress-host'), summary: $('file-summary'),
 });
 
-const planes = new PlaneTool(viewer);
+const refs = new ReferenceTool(viewer);
+const planes = new PlaneTool(viewer, refs);
 const lines = new LineTool(viewer, new LineChart($('chart-pane')));
-const force = new ForceTool(viewer);
+const force = new ForceTool(viewer, refs);
+const losses = new LossTool(viewer, planes, refs);
+const splits = new SplitTool(viewer, planes, refs);
 const exporter = new ExportTool(viewer, viewer.gui);
-const reports = new ReportTool(viewer, exporter);
+const reports = new ReportTool(viewer, exporter, () => lines.reportFiles());
 // after the tools: on a new file it re-applies the set once they have dropped the old file's probes
-const probeSets = new ProbeSetTool(viewer, { planes, lines, force }, $('compare-pane'), (set) => reports.download(set));
+const probeSets = new ProbeSetTool(viewer, { refs, planes, lines, force, losses, splits }, $('compare-pane'), (set) => reports.download(set));
 const series = new SeriesTool(viewer, probeSets, { view: $('view'), drawer: document.querySelector<HTMLElement>('.drawer')! });
+const keys = bindShortcuts({
+  undo: () => void probeSets.undo(),
+  redo: () => void probeSets.redo(),
+  removeSelected: () => { if (viewer.selectedId) viewer.removeResult(viewer.selectedId, true); },
+  newPlane: () => planes.add(),
+  newLine: () => lines.add(),
+  fit: () => viewer.view.fit(),
+});
+$('keys-button').addEventListener('click', () => keys.toggle());
 
 for (const id of ['file-input', 'folder-input']) {
   const input = $<HTMLInputElement>(id);
@@ -72,6 +88,10 @@ $('about-button').addEventListener('click', () => viewer.about.open());
     if (!k) return undefined;
     const p = viewer.view.project(k), r = viewer.view.canvas.getBoundingClientRect();
     return [r.left + p.x, r.top + p.y];
+  },
+  /** A probe's pin anchor (file length unit), or undefined. */
+  anchor(id: string): [number, number, number] | undefined {
+    return viewer.allResults.find((r) => r.id === id)?.anchor;
   },
 };
 

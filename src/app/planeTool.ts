@@ -6,17 +6,16 @@
 import type GUI from 'lil-gui';
 import type * as THREE from 'three';
 import type { CutReply, Vec3 } from '../../workers/api.ts';
-import type { CutPlaneProbe, Probe } from '../study/probeSet.ts';
+import { guessRole } from '../cut/fieldRoles.ts';
+import type { CutPlaneProbe, PlaneDoc, Probe } from '../study/probeSet.ts';
 import { formatNumber, formatVec } from '../ui/format.ts';
 import { classifyNotes } from '../ui/notes.ts';
 import type { ProbeResult, Quantity } from '../ui/results.ts';
 import { UNITS, fieldUnit } from '../ui/units.ts';
 import { CutPlaneLayer } from '../view/cutPlaneLayer.ts';
-import { latestWins } from './latestWins.ts';
+import { latestWinsPerKey } from './latestWins.ts';
+import type { ReferenceTool } from './referenceTool.ts';
 import type { Viewer } from './viewer.ts';
-
-/** Density offered at first: water at 20 °C, 998.207 kg/m³ (docs/references.md §10, IAPWS-95). */
-export const DEFAULT_DENSITY = 998.207;
 
 interface Plane {
   id: string;
@@ -26,6 +25,8 @@ interface Plane {
   ox: number; oy: number; oz: number;
   nx: number; ny: number; nz: number;
   seed: Vec3 | undefined;
+  /** The plane's own density (kg/m³), overriding the reference conditions; undefined: the reference's (or the file's density field). */
+  ownDensity: number | undefined;
   /** Last computed reply (kept for exports). */
   reply?: CutReply;
 }
@@ -35,7 +36,6 @@ export class PlaneTool {
   private current: Plane | undefined;
   private readonly folder: GUI;
   private readonly settings = {
-    density: DEFAULT_DENSITY,
     velocity: '',
     pressure: '',
     slide: 0,
@@ -43,22 +43,26 @@ export class PlaneTool {
   };
   private readonly request;
   private drag: { t0: number; origin: Vec3 } | undefined;
+  private readonly planeListeners: (() => void)[] = [];
 
-  constructor(private readonly v: Viewer) {
+  constructor(private readonly v: Viewer, private readonly refs: ReferenceTool) {
     this.folder = v.gui.addFolder('Cut-plane');
-    this.request = latestWins(
+    // one lane per probe: several probes computed at once never drop each other's requests
+    this.request = latestWinsPerKey((x: { id: string }) => x.id,
       (p: Plane) => v.track(v.compute.cut({
         origin: [p.ox, p.oy, p.oz], normal: [p.nx, p.ny, p.nz], ...(p.seed ? { seed: p.seed } : {}),
         ...(v.colorChoice ? { color: v.colorChoice } : {}),
-        velocity: this.settings.velocity, pressure: this.settings.pressure, rho: this.settings.density,
+        velocity: this.settings.velocity, pressure: this.settings.pressure, rho: this.densityOf(p).rho,
       })),
       (reply, p) => this.show(p, reply),
       (e) => v.banner.error(`Cut-plane: ${(e as Error).message}`),
     );
     v.onDataset(() => this.reset());
     v.onColor(() => { for (const p of this.planes) this.request.request(p); });
+    refs.onChange(() => { this.buildPanel(); this.recomputeAll(); });
     v.onColorSettings(() => this.applyColorSettings());
     v.onResultRemoved((id) => this.remove(id));
+    v.onRename((id, label) => { const p = this.planes.find((q) => q.id === id); if (p) { p.label = label; this.buildPanel(); this.planesChanged(); } });
     v.addPointerTool(this.pointer());
     this.buildPanel();
   }
@@ -70,36 +74,51 @@ export class PlaneTool {
     this.buildPanel();
   }
 
-  /** The density (kg/m³) every plane's flow rates use. */
-  get density(): number { return this.settings.density; }
+  /** Called when a plane is added, moved or removed (tools built on planes follow it). */
+  onPlanesChanged(f: () => void): void { this.planeListeners.push(f); }
+  private planesChanged(): void { for (const f of this.planeListeners) f(); }
+
+  /** The planes by id and label, with their geometry as a probe set writes it (file's length unit). */
+  list(): { id: string; label: string; plane: PlaneDoc }[] {
+    return this.planes.map((p) => ({ id: p.id, label: p.label, plane: planeDoc(p) }));
+  }
+
+  /**
+   * The density a plane uses, by the probe set's rule: its own value, else the file's density field, else
+   * the reference density; `text` says which for the pin and the table.
+   */
+  densityOf(p: { ownDensity: number | undefined }): { rho: number | string; text: string } {
+    if (p.ownDensity !== undefined) return { rho: p.ownDensity, text: `ρ = ${formatNumber(p.ownDensity)} kg/m³ (own value, overrides the reference ${formatNumber(this.refs.density)} kg/m³)` };
+    const field = guessRole(this.v.fields.map((f) => ({ name: f.name, association: f.association, components: f.components })), 'density').field;
+    if (field) return { rho: field.name, text: `ρ from the file's field "${field.name}"` };
+    return { rho: this.refs.density, text: `ρ = ${formatNumber(this.refs.density)} kg/m³ (reference conditions)` };
+  }
 
   /** Removes every plane. */
   removeAll(): void {
     for (const p of [...this.planes]) this.remove(p.id);
   }
 
-  /** True when a probe-set probe is a plane this tool can hold and edit (whole cut or a seed, one density for all). */
-  accepts(p: Probe, density: number | undefined): p is CutPlaneProbe {
+  /** True when a probe-set probe is a plane this tool can hold and edit (whole cut or a seed; density the reference's or a constant of its own). */
+  accepts(p: Probe): p is CutPlaneProbe {
     if (p.kind !== 'cut-plane') return false;
     const r = p.geometry.region ?? {}, f = p.fields ?? {};
     return !r.disk && !r.rectangle && !r.cellGroups && f.velocity !== null && f.pressure !== null && !p.options?.kinematicPressure &&
-      (f.density === undefined || (typeof f.density === 'number' && (density === undefined || f.density === density)));
+      (f.density === undefined || typeof f.density === 'number');
   }
 
-  /** The planes as probe-set probes (origin, normal and seed in the file's length unit, density in kg/m³). */
+  /** The planes as probe-set probes (origin, normal and seed in the file's length unit; a density only when the plane has its own, kg/m³). */
   probes(): CutPlaneProbe[] {
     const s = this.settings;
-    return this.planes.map((p) => ({
-      id: p.id, kind: 'cut-plane', label: p.label,
-      geometry: { origin: [p.ox, p.oy, p.oz], normal: [p.nx, p.ny, p.nz], ...(p.seed ? { region: { seed: [...p.seed] } } : {}) },
-      fields: { ...(s.velocity ? { velocity: s.velocity } : {}), ...(s.pressure ? { pressure: s.pressure } : {}), density: s.density },
-    }));
+    return this.planes.map((p) => {
+      const fields = { ...(s.velocity ? { velocity: s.velocity } : {}), ...(s.pressure ? { pressure: s.pressure } : {}), ...(p.ownDensity !== undefined ? { density: p.ownDensity } : {}) };
+      return { id: p.id, kind: 'cut-plane', label: p.label, geometry: planeDoc(p), ...(Object.keys(fields).length ? { fields } : {}) };
+    });
   }
 
   /** Adds a plane from a probe-set probe (see `accepts`), keeping its id and label. */
   addFrom(probe: CutPlaneProbe): void {
     const g = probe.geometry, f = probe.fields ?? {};
-    if (typeof f.density === 'number') this.settings.density = f.density;
     if (typeof f.velocity === 'string') this.settings.velocity = f.velocity;
     if (typeof f.pressure === 'string') this.settings.pressure = f.pressure;
     const number = Math.max(0, ...this.planes.map((p) => p.number)) + 1;
@@ -107,6 +126,8 @@ export class PlaneTool {
       id: probe.id, number, label: probe.label ?? probe.id, layer: new CutPlaneLayer(this.v.colorMap, this.v.diagonal),
       ox: g.origin[0], oy: g.origin[1], oz: g.origin[2], nx: g.normal[0], ny: g.normal[1], nz: g.normal[2],
       seed: g.region?.seed ? [...g.region.seed] : undefined,
+      // a density equal to the reference's (as older sets wrote on every plane) is no override
+      ownDensity: typeof f.density === 'number' && f.density !== this.refs.density ? f.density : undefined,
     };
     this.planes.push(p);
     this.v.view.root.add(p.layer.group);
@@ -120,15 +141,30 @@ export class PlaneTool {
     return this.current?.layer.knobPosition;
   }
 
+  /** The velocity and pressure fields chosen for every plane (undefined: found by name). */
+  fieldChoice(): { velocity?: string; pressure?: string } {
+    const s = this.settings;
+    return { ...(s.velocity ? { velocity: s.velocity } : {}), ...(s.pressure ? { pressure: s.pressure } : {}) };
+  }
+
   /** Adds a plane through the middle of the shown geometry, normal along the longest side of its box. */
-  add(): void {
+  add(): void { this.addAt(undefined); }
+
+  /**
+   * Adds a plane with its normal along the longest side of the data's box, through the shown geometry's
+   * centre, or at `fraction` (0…1) of the data along that side; returns its id.
+   */
+  addAt(fraction: number | undefined): string {
     const b = this.v.bounds, { center } = this.v.view.extent;
     const sides = [b[1] - b[0], b[3] - b[2], b[5] - b[4]];
     const axis = sides.indexOf(Math.max(...sides));
     const number = Math.max(0, ...this.planes.map((p) => p.number)) + 1;
+    const o: Vec3 = [center.x, center.y, center.z];
+    if (fraction !== undefined) o[axis] = Number((b[2 * axis]! + fraction * sides[axis]!).toPrecision(6));
     const p: Plane = {
       id: this.freeId(number), number, label: `Plane ${number}`, layer: new CutPlaneLayer(this.v.colorMap, this.v.diagonal),
-      ox: center.x, oy: center.y, oz: center.z, nx: axis === 0 ? 1 : 0, ny: axis === 1 ? 1 : 0, nz: axis === 2 ? 1 : 0, seed: undefined,
+      ox: o[0], oy: o[1], oz: o[2], nx: axis === 0 ? 1 : 0, ny: axis === 1 ? 1 : 0, nz: axis === 2 ? 1 : 0, seed: undefined,
+      ownDensity: undefined,
     };
     this.planes.push(p);
     this.v.view.root.add(p.layer.group);
@@ -136,6 +172,7 @@ export class PlaneTool {
     if (this.v.settings.opacity === 1) this.v.setSurfaceOpacity(0.35);
     this.select(p);
     this.changed();
+    return p.id;
   }
 
   /** `plane-N`, or the next free number when a loaded set already uses that id. */
@@ -147,6 +184,7 @@ export class PlaneTool {
 
   private select(p: Plane | undefined): void {
     this.current = p;
+    if (p) this.v.select(p.id);
     for (const q of this.planes) q.layer.setEditing(q === p);
     this.settings.pickingSeed = false;
     this.buildPanel();
@@ -161,6 +199,7 @@ export class PlaneTool {
     this.v.removeResult(id, false);
     if (this.current === p) this.select(this.planes.at(-1));
     this.v.view.requestRender();
+    this.planesChanged();
   }
 
   /** The current plane moved or changed: redraw its marker, recompute (latest request wins). */
@@ -175,6 +214,7 @@ export class PlaneTool {
     for (const c of this.folder.controllersRecursive()) c.updateDisplay();
     this.v.view.requestRender();
     this.request.request(p);
+    this.planesChanged();
   }
 
   private show(p: Plane, reply: CutReply): void {
@@ -184,7 +224,7 @@ export class PlaneTool {
     p.layer.setTriangles(reply.drawing, colored);
     p.layer.material.setRange(...this.v.colorRange);
     p.layer.material.setColorMap(this.v.colorMap);
-    this.v.setResult(planeResult(p, reply, this.settings.density));
+    this.v.setResult(planeResult(p, reply, this.densityOf(p).text));
     this.v.view.requestRender();
   }
 
@@ -217,7 +257,20 @@ export class PlaneTool {
       p.ox = r6(p.ox + k * p.nx); p.oy = r6(p.oy + k * p.ny); p.oz = r6(p.oz + k * p.nz);
       this.changed();
     });
-    this.folder.add(s, 'density').name(`density ρ [${UNITS.density}]`).onFinishChange(() => this.recomputeAll());
+    const own = { on: p.ownDensity !== undefined, value: p.ownDensity ?? this.refs.density };
+    const value = this.folder.add(own, 'value').name(`density ρ [${UNITS.density}]`).onFinishChange((x: number) => {
+      if (!(x > 0) || !Number.isFinite(x)) { this.v.banner.error(`Cut-plane: the density must be a positive number (got ${x}).`); own.value = p.ownDensity ?? this.refs.density; value.updateDisplay(); return; }
+      p.ownDensity = x;
+      this.request.request(p);
+      this.planesChanged();
+    }).enable(own.on);
+    this.folder.add(own, 'on').name('own density (overrides reference)').onChange((on: boolean) => {
+      p.ownDensity = on ? own.value : undefined;
+      own.value = p.ownDensity ?? this.refs.density;
+      value.enable(on).updateDisplay();
+      this.request.request(p);
+      this.planesChanged();
+    });
     const vectors: Record<string, string> = { '(by name)': '' }, scalars: Record<string, string> = { '(by name)': '' };
     for (const f of this.v.fields) (f.components === 3 ? vectors : f.components === 1 ? scalars : {})[`${f.name} (${f.association})`] = `${f.association}:${f.name}`;
     this.folder.add(s, 'velocity', vectors).name('velocity field').onChange(() => this.recomputeAll());
@@ -280,12 +333,16 @@ export class PlaneTool {
   }
 }
 
+function planeDoc(p: Plane): PlaneDoc {
+  return { origin: [p.ox, p.oy, p.oz], normal: [p.nx, p.ny, p.nz], ...(p.seed ? { region: { seed: [...p.seed] } } : {}) };
+}
+
 /** The numbers of a plane for pins, table and exports. */
-function planeResult(p: Plane, r: CutReply, density: number): ProbeResult {
+function planeResult(p: Plane, r: CutReply, densityText: string): ProbeResult {
   const s = r.integrals;
   const n = r.normal;
   const definition = `origin ${formatVec([p.ox, p.oy, p.oz])} m, normal ${formatVec(n)}` +
-    (p.seed ? `, seed ${formatVec(p.seed)} m` : '') + `, ρ = ${formatNumber(density)} kg/m³`;
+    (p.seed ? `, seed ${formatVec(p.seed)} m` : '') + `, ${densityText}`;
   const anchor: Vec3 = s.centroid ? [...s.centroid] : [p.ox, p.oy, p.oz];
   const base = { id: p.id, kind: 'plane' as const, label: p.label, anchor, definition, pinVisible: true };
   if (s.empty) return { ...base, quantities: [], notes: classifyNotes([s.reason ?? 'the plane cuts no cell']) };

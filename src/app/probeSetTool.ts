@@ -10,42 +10,24 @@
 import type GUI from 'lil-gui';
 import type { SetEvaluation } from '../../workers/api.ts';
 import { compareEvaluations } from '../study/compare.ts';
-import { resolveReference, type ProbeOutcome } from '../study/evaluate.ts';
-import { PROBE_SET_FORMAT, PROBE_SET_VERSION, probeLabel, type Probe, type ProbeSet, type ReferenceDoc, type UnitsDoc } from '../study/probeSet.ts';
+import { PROBE_SET_FORMAT, PROBE_SET_VERSION, probeLabel, type Probe, type ProbeSet, type UnitsDoc } from '../study/probeSet.ts';
 import { readProbeSet, writeProbeSet } from '../study/probeSetFile.ts';
-import { headline } from '../study/resultTables.ts';
 import { siFactors } from '../study/siDataset.ts';
-import { unitLabel } from '../study/units.ts';
 import { ComparisonTable } from '../ui/comparisonTable.ts';
 import { download } from '../ui/download.ts';
-import { classifyNotes } from '../ui/notes.ts';
-import type { ProbeKind, ProbeResult } from '../ui/results.ts';
-import { assignNoiseScales } from '../ui/roundingNoise.ts';
 import type { ForceTool } from './forceTool.ts';
 import type { LineTool } from './lineTool.ts';
+import type { LossTool } from './lossTool.ts';
+import { outcomeResult } from './outcomeResult.ts';
 import type { PlaneTool } from './planeTool.ts';
 import { ProbeSetStore, type KeyValueStore } from './probeSetStore.ts';
+import type { ReferenceTool } from './referenceTool.ts';
+import type { SplitTool } from './splitTool.ts';
+import { UndoHistory } from './undoHistory.ts';
 import type { Viewer } from './viewer.ts';
 
 /** Quiet time after the last change before the set is stored (ms). */
 const SAVE_DELAY_MS = 250;
-
-const KIND: Record<Probe['kind'], ProbeKind> = {
-  'cut-plane': 'plane', line: 'line', point: 'point', force: 'force', 'pressure-loss': 'pressure-loss', 'mass-balance': 'mass-balance', wall: 'wall',
-};
-
-/** A probe outcome of the worker's set evaluation as a row of the results table and a pin. */
-export function outcomeResult(o: ProbeOutcome, fallbackAnchor: [number, number, number]): ProbeResult {
-  const pinned = new Set(headline(o, 2).map((q) => q.key));
-  const notes = [...(o.ok ? [] : [`FAILED: ${o.error}`]), ...o.notes];
-  const quantities = o.quantities.map((q) => ({ key: q.key, label: q.label, value: q.value, unit: unitLabel(q.unit), pinned: pinned.has(q.key) }));
-  return {
-    id: o.id, kind: KIND[o.kind], label: o.label, anchor: o.anchor ?? fallbackAnchor,
-    definition: `${o.definition} — evaluated from the probe set`, pinVisible: true,
-    quantities: assignNoiseScales(KIND[o.kind], quantities),
-    ...(notes.length ? { notes: classifyNotes(notes) } : {}),
-  };
-}
 
 function localStore(): KeyValueStore | null {
   try { return window.localStorage; } catch { return null; }
@@ -53,7 +35,7 @@ function localStore(): KeyValueStore | null {
 
 export class ProbeSetTool {
   private extras: Probe[] = [];
-  private meta: { title?: string; description?: string; units?: UnitsDoc; reference?: ReferenceDoc } = {};
+  private meta: { title?: string; description?: string; units?: UnitsDoc } = {};
   /** Probe ids in the order of the last applied set, so a saved set keeps its order. */
   private order: string[] = [];
   private carry: ProbeSet | undefined;
@@ -63,15 +45,19 @@ export class ProbeSetTool {
   private baseline: { file: string; evaluation: SetEvaluation } | undefined;
   private message: { kind: 'notice' | 'error'; text: string } | undefined;
   private readonly store = new ProbeSetStore(localStore());
+  /** Snapshots of the set for undo/redo; `quietStep` makes the next snapshot replace the state without a step. */
+  private readonly history = new UndoHistory();
+  private quietStep = true;
   private readonly input: HTMLInputElement;
   private readonly comparison: ComparisonTable;
 
-  constructor(private readonly v: Viewer, private readonly tools: { planes: PlaneTool; lines: LineTool; force: ForceTool },
+  constructor(private readonly v: Viewer,
+    private readonly tools: { refs: ReferenceTool; planes: PlaneTool; lines: LineTool; force: ForceTool; losses: LossTool; splits: SplitTool },
     compareHost: HTMLElement, private readonly makeReport: (set: ProbeSet) => Promise<void>) {
     const f: GUI = v.gui.addFolder('Probe set');
     f.add({ save: () => this.save() }, 'save').name('save probe set (JSON)');
     f.add({ open: () => this.input.click() }, 'open').name('open probe set…');
-    f.add({ clear: () => this.removeAll() }, 'clear').name('remove all probes');
+    f.add({ clear: () => this.removeAll() }, 'clear').name('remove all probes (undo: Ctrl+Z)');
     f.add({ keep: () => void this.keepBaseline() }, 'keep').name('keep results as baseline');
     f.add({ report: () => void this.v.track(this.makeReport(this.currentSet())).catch((e) => v.banner.error(`Report: ${(e as Error).message}`)) }, 'report').name('save report (.zip)');
     this.input = document.createElement('input');
@@ -107,26 +93,36 @@ export class ProbeSetTool {
       if (this.applying) return;
       this.extras = this.extras.filter((p) => p.id !== id);
     });
+    v.onRename((id, label) => { const p = this.extras.find((x) => x.id === id); if (p) p.label = label; });
+    // the set's other probes use the reference conditions too
+    tools.refs.onChange(() => { if (!this.applying) void this.evaluateExtras(this.generation); this.changed(); });
   }
 
   /** The probe set as it stands: the tools' probes and the set's other probes, in the set's order. */
   currentSet(): ProbeSet {
-    const { planes, lines, force } = this.tools;
+    const { refs, planes, lines, force, losses, splits } = this.tools;
     const fp = force.probe();
-    const probes = [...planes.probes(), ...lines.probes(), ...(fp ? [fp] : []), ...this.extras];
+    // a pin placed by hand is kept with its probe
+    const probes = [...planes.probes(), ...lines.probes(), ...(fp ? [fp] : []), ...losses.probes(), ...splits.probes(), ...this.extras].map((p) => {
+      const off = this.v.pinOffsets.get(p.id);
+      const { pin: _pin, ...rest } = p;
+      void _pin;
+      return off ? { ...rest, pin: { offset: [off[0], off[1]] as [number, number] } } : rest;
+    });
     const rank = (p: Probe) => { const i = this.order.indexOf(p.id); return i < 0 ? this.order.length : i; };
     probes.sort((a, b) => rank(a) - rank(b));
-    const reference = fp || this.meta.reference ? { ...this.meta.reference, ...force.reference() } : undefined;
     return {
       format: PROBE_SET_FORMAT, version: PROBE_SET_VERSION,
       ...(this.meta.title ? { title: this.meta.title } : {}), ...(this.meta.description ? { description: this.meta.description } : {}),
-      ...(this.meta.units ? { units: this.meta.units } : {}), ...(reference ? { reference } : {}), probes,
+      ...(this.meta.units ? { units: this.meta.units } : {}), reference: refs.doc(), probes,
     };
   }
 
   private async afterDataset(): Promise<void> {
     const set = this.carry;
     this.carry = undefined;
+    // the same probes re-evaluated on another file are no step of their own
+    this.quietStep = true;
     if (set) await this.apply(set);
     else { this.applying = false; this.changed(); }
     if (this.message) {
@@ -145,24 +141,31 @@ export class ProbeSetTool {
     const gen = ++this.generation;
     this.applying = true;
     try {
-      const { planes, lines, force } = this.tools;
+      const { refs, planes, lines, force, losses, splits } = this.tools;
       this.clearTools();
       this.meta = {
         ...(set.title ? { title: set.title } : {}), ...(set.description ? { description: set.description } : {}),
-        ...(set.units ? { units: set.units } : {}), ...(set.reference ? { reference: set.reference } : {}),
+        ...(set.units ? { units: set.units } : {}),
       };
       this.order = set.probes.map((p) => p.id);
-      if (set.reference) force.setReference(resolveReference(set.reference));
+      this.v.pinOffsets.clear();
+      for (const p of set.probes) if (p.pin) this.v.pinOffsets.set(p.id, [...p.pin.offset]);
+      // before the probes: every tool evaluates on the set's reference conditions
+      refs.setFromDoc(set.reference, false);
       // the tools compute in the file's units; a set in other units is evaluated as a whole by the worker
       const f = siFactors(set.units);
       const si = f.length === 1 && Object.keys(f.fields).length === 0;
-      let planeTaken = false, forceTaken = false;
+      let forceTaken = false;
+      const composite: Probe[] = [];
       for (const p of set.probes) {
-        if (si && planes.accepts(p, planeTaken ? planes.density : undefined)) { planes.addFrom(p); planeTaken = true; }
+        if (si && planes.accepts(p)) planes.addFrom(p);
         else if (si && lines.accepts(p)) lines.addFrom(p);
         else if (si && !forceTaken && force.accepts(p)) { force.setFrom(p); forceTaken = true; }
+        else if (si && (losses.accepts(p) || splits.accepts(p))) composite.push(p);
         else this.extras.push(p);
       }
+      // after the planes, so they link to the view's planes
+      for (const p of composite) if (losses.accepts(p)) losses.addFrom(p); else splits.addFrom(p);
       await this.evaluateExtras(gen);
     } finally {
       if (gen === this.generation) { this.applying = false; this.changed(); }
@@ -170,7 +173,9 @@ export class ProbeSetTool {
   }
 
   private clearTools(): void {
-    const { planes, lines, force } = this.tools;
+    const { planes, lines, force, losses, splits } = this.tools;
+    losses.removeAll();
+    splits.removeAll();
     planes.removeAll();
     lines.removeAll();
     force.clear();
@@ -201,13 +206,22 @@ export class ProbeSetTool {
   private changed(): void {
     if (this.applying) return;
     clearTimeout(this.saveTimer);
-    this.saveTimer = setTimeout(() => {
-      if (this.applying) return;
-      const err = this.store.save(this.currentSet(), this.v.description?.report.source ?? null);
-      if (err) this.v.banner.error(`The probe set could not be kept in this browser's storage (${err}); save it as a file to keep it.`);
-      else document.body.dataset['probeSetKept'] = String(Date.now());
-      if (this.baseline) void this.refreshComparison();
-    }, SAVE_DELAY_MS);
+    this.saveTimer = setTimeout(() => this.persist(), SAVE_DELAY_MS);
+  }
+
+  /** Takes the undo step of the last changes and stores the set (the quiet moment's work, or at once before an undo). */
+  private persist(): void {
+    clearTimeout(this.saveTimer);
+    this.saveTimer = undefined;
+    if (this.applying) return;
+    const set = this.currentSet();
+    const snap = writeProbeSet(set);
+    if (this.quietStep) { this.history.reset(snap); this.quietStep = false; } else this.history.record(snap);
+    document.body.dataset['undoSteps'] = String(this.history.depth);
+    const err = this.store.save(set, this.v.description?.report.source ?? null);
+    if (err) this.v.banner.error(`The probe set could not be kept in this browser's storage (${err}); save it as a file to keep it.`);
+    else document.body.dataset['probeSetKept'] = String(Date.now());
+    if (this.baseline) void this.refreshComparison();
   }
 
   private save(): void {
@@ -230,7 +244,29 @@ export class ProbeSetTool {
       `${fromVersion < PROBE_SET_VERSION ? ` (a version ${fromVersion} file, upgraded)` : ''}${this.extras.length ? `; ${this.extras.length} evaluated as a set (${this.extras.map(probeLabel).join(', ')})` : ''}.`);
   }
 
-  private removeAll(): void {
+  /** Goes back one step of probes, labels and reference conditions (re-evaluating the probes). */
+  async undo(): Promise<void> {
+    // a change still waiting for its quiet moment is a step of its own
+    if (this.saveTimer !== undefined) this.persist();
+    await this.restore(this.history.undo(), 'undo');
+  }
+
+  /** Goes forward one undone step. */
+  async redo(): Promise<void> {
+    if (this.saveTimer !== undefined) this.persist();
+    await this.restore(this.history.redo(), 'redo');
+  }
+
+  private async restore(snap: string | undefined, what: string): Promise<void> {
+    if (snap === undefined) { this.v.banner.notice(`Nothing to ${what}.`); return; }
+    let set: ProbeSet;
+    try { ({ set } = readProbeSet(snap, `${what} step`)); } catch (e) { this.v.banner.error(`Could not ${what}: ${(e as Error).message}`); return; }
+    this.quietStep = true;
+    await this.v.track(this.apply(set));
+  }
+
+  /** Removes every probe (one step: undo brings them back). */
+  removeAll(): void {
     this.clearTools();
     this.order = [];
     this.changed();
@@ -241,6 +277,7 @@ export class ProbeSetTool {
     try {
       const evaluation = await this.v.track(this.v.compute.evaluateProbeSet(this.currentSet()));
       this.baseline = { file: this.v.description.report.source, evaluation };
+      this.tools.lines.keepBaseline(this.baseline.file);
       this.comparison.set(null, `Baseline kept: ${this.baseline.file}, ${evaluation.probes.length} probe${evaluation.probes.length === 1 ? '' : 's'}. Open the variant file: every probe is evaluated on it and compared here.`);
       document.body.dataset['baseline'] = this.baseline.file;
     } catch (e) {
@@ -250,6 +287,7 @@ export class ProbeSetTool {
 
   private clearBaseline(): void {
     this.baseline = undefined;
+    this.tools.lines.clearBaseline();
     this.comparison.set(null);
     delete document.body.dataset['baseline'];
   }

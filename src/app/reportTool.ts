@@ -1,6 +1,7 @@
 /**
  * The report from the viewer: the same folder the command line writes (`src/study/reportFolder.ts`) —
- * report.html, results.json, results.csv, results-long.csv, probe-set.json and the picture — packed into
+ * report.html, results.json, results.csv, results-long.csv, probe-set.json and the picture — plus each line
+ * probe's samples (CSV) and profile pictures (SVG), packed into
  * a .zip for download. The numbers come from the worker's evaluation of the probe set (the command line's
  * path); the picture is the view's own PNG export with the pins and legend drawn in; the inputs are listed
  * with sizes and SHA-256 checksums of the bytes that were opened.
@@ -41,7 +42,8 @@ async function inputsOf(r: LoadRequest | undefined): Promise<InputFileInfo[]> {
 }
 
 export class ReportTool {
-  constructor(private readonly v: Viewer, private readonly exporter: ExportTool) {}
+  /** `extraFiles`: more files for the folder (the line probes' samples CSV and profile pictures). */
+  constructor(private readonly v: Viewer, private readonly exporter: ExportTool, private readonly extraFiles: () => Record<string, Uint8Array> = () => ({})) {}
 
   /** Builds the report of `set` on the open file and downloads it as `<file>-report.zip`. */
   async download(set: ProbeSet): Promise<void> {
@@ -62,6 +64,10 @@ export class ReportTool {
       pictures: [{ file: 'view-1.png', png, width, height, caption: `${d.report.source}: the view as shown in fieldtally, with the pins and the legend` }],
       conventions: [...CONVENTIONS],
     });
+    for (const [name, bytes] of Object.entries(this.extraFiles())) {
+      if (name in files) throw new Error(`report: "${name}" clashes with another file of the report`);
+      files[name] = bytes;
+    }
     const folder = `${base}-report`;
     const zip = zipSync(Object.fromEntries(Object.entries(files).map(([name, bytes]) => [`${folder}/${name}`, bytes])), { level: 6 });
     download(`${folder}.zip`, new Blob([zip as Uint8Array<ArrayBuffer>], { type: 'application/zip' }));

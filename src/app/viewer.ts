@@ -19,6 +19,7 @@ import { ProgressBar } from '../ui/progressBar.ts';
 import type { ProbeResult } from '../ui/results.ts';
 import { ResultsTable } from '../ui/resultsTable.ts';
 import { fieldUnit } from '../ui/units.ts';
+import { outlinesShownFor } from '../ui/viewDefaults.ts';
 import { COLOR_MAPS, DEFAULT_COLOR_MAP, colorMap, type ColorMap } from '../view/colorMaps.ts';
 import { CutPlaneLayer } from '../view/cutPlaneLayer.ts';
 import { LineProbeWidget } from '../view/lineProbeWidget.ts';
@@ -91,7 +92,7 @@ export class Viewer {
     this.view = new ViewScene(els.canvas);
     this.banner = new Banner(els.overlay.parentElement!);
     this.legend = new LegendView(els.overlay);
-    this.pins = new PinOverlay(els.overlay, (p) => this.view.project(p));
+    this.pins = new PinOverlay(els.overlay, (p) => this.view.project(p), (id) => this.select(id), (id) => { this.select(id); this.refreshResults(); });
     this.view.onFrame(() => this.pins.update());
     this.progress = new ProgressBar(els.progress);
     this.progress.cancel.onclick = () => { this.progress.cancelling(); void this.compute.cancelLoad(); };
@@ -104,6 +105,8 @@ export class Viewer {
       onTogglePin: (id, on) => { const r = this.results.get(id); if (r) { r.pinVisible = on; this.refreshResults(); } },
       onRemove: (id) => this.removeResult(id, true),
       onCopy: () => this.emit('copy'),
+      onSelect: (id) => this.select(id),
+      onRename: (id, label) => this.rename(id, label),
     });
     this.table.set([]);
     this.gui = new GUI({ container: els.side, title: 'Panel' });
@@ -246,7 +249,12 @@ export class Viewer {
     if (this.surface) { this.view.root.remove(this.surface.group); this.surface.dispose(); }
     const groupCount = Math.max(1, ...d.groups.map((g) => g.id + 1));
     this.surface = new SurfaceLayer(drawing, this.colorMap, groupCount, this.view.software);
-    if (!keepView) this.settings.opacity = 1;
+    // every file starts from the same view state: opaque surfaces, outlines only where they stay readable;
+    // a step of a series keeps the view it had
+    if (!keepView) {
+      this.settings.opacity = 1;
+      this.settings.edges = outlinesShownFor(d.groups.reduce((n, g) => n + g.faces, 0));
+    }
     this.surface.setEdgesVisible(this.settings.edges);
     this.surface.setOpacity(this.settings.opacity);
     this.view.root.add(this.surface.group);
@@ -335,8 +343,11 @@ export class Viewer {
     for (const c of [...this.colorFolder.controllers]) c.destroy();
     const opts: Record<string, string> = { '(none: grey)': '' };
     for (const f of this.fields) opts[`${f.name} (${f.association === 'point' ? 'points' : 'cells'})`] = f.key;
-    this.colorFolder.add(this.settings, 'field', opts).name('field').onChange(() => void this.recolor());
-    this.colorFolder.add(this.settings, 'component', [...COMPONENTS]).name('vector part').onChange(() => void this.recolor());
+    // a scalar has no parts to choose: the choice shows only for a vector field
+    const showPart = () => part.show((this.fields.find((f) => f.key === this.settings.field)?.components ?? 1) > 1);
+    this.colorFolder.add(this.settings, 'field', opts).name('field').onChange(() => { showPart(); void this.recolor(); });
+    const part = this.colorFolder.add(this.settings, 'component', [...COMPONENTS]).name('vector part').onChange(() => void this.recolor());
+    showPart();
     const maps: Record<string, string> = {};
     for (const m of COLOR_MAPS) maps[m.label] = m.id;
     this.colorFolder.add(this.settings, 'map', maps).name('colour map').onChange(() => this.applyColorSettings());
@@ -394,10 +405,39 @@ export class Viewer {
     if (prev) r.pinVisible = prev.pinVisible;
     this.results.set(r.id, r);
     this.refreshResults();
+    if (r.id === this.selectedId) this.select(r.id);
   }
+
+  private readonly renameListeners: ((id: string, label: string) => void)[] = [];
+
+  /** Called when the user renames a probe (each tool takes the new label for its own probe). */
+  onRename(f: (id: string, label: string) => void): void { this.renameListeners.push(f); }
+
+  /** Gives a probe a new label: the tools keep it (probe set, pins, table, CSV, reports). */
+  rename(id: string, label: string): void {
+    for (const f of this.renameListeners) f(id, label);
+    const r = this.results.get(id);
+    if (r) { r.label = label; this.refreshResults(); }
+  }
+
+  /** The probe the Delete key removes: the one last placed, edited or clicked (pin or table heading). */
+  selectedId: string | undefined;
+
+  /** Selects a probe (or none); its pin and table heading are marked. */
+  select(id: string | undefined): void {
+    this.selectedId = id;
+    this.pins.setSelected(id);
+    this.table.setSelected(id);
+    if (id) document.body.dataset['selected'] = id; else delete document.body.dataset['selected'];
+  }
+
+  /** Pins placed by hand, by probe id (box corner relative to the anchor, CSS pixels); kept in the probe set. */
+  get pinOffsets(): Map<string, [number, number]> { return this.pins.offsets; }
 
   removeResult(id: string, tellTools: boolean): void {
     if (!this.results.delete(id)) return;
+    this.pins.offsets.delete(id);
+    if (this.selectedId === id) this.select(undefined);
     if (tellTools) for (const l of this.resultListeners) l(id);
     this.refreshResults();
   }

@@ -6,12 +6,14 @@
  * note, when any is missing. μ is the viscosity field named in `fields.viscosity`, else the reference
  * viscosity; it is used only when the viscous force comes from the velocity gradient.
  */
+import { datasetBounds } from '../model/bounds.ts';
 import { forceTotals, type ForceReference } from '../surface/forces.ts';
 import { facesOfGroups, resolveGroups } from '../surface/surfaceGroups.ts';
 import { surfaceLoads, type LoadOptions } from '../surface/surfaceLoads.ts';
 import type { SurfaceGroups } from '../surface/surfaceGroups.ts';
 import { openSurfaceNote, surfaceQuality, type SurfaceQuality } from '../surface/surfaceQuality.ts';
 import { addQuantity, fmt6, resolveReference, vecText, type EvalContext, type ProbeOutcome } from './outcome.ts';
+import { deriveLift } from './liftRule.ts';
 import type { ForceProbe } from './probeSet.ts';
 import { SI } from './units.ts';
 
@@ -53,8 +55,12 @@ export function evaluateForce(ctx: EvalContext, p: ForceProbe, out: ProbeOutcome
   const reference: ForceReference | undefined = hasRef
     ? { rho: ref.density!, speed: ref.speed!, area: ref.area!, ...(ref.length !== undefined ? { length: ref.length } : {}) } : undefined;
   const momentPoint = ctx.si(ref.momentPoint ?? [0, 0, 0]);
+  const drag = ref.dragDirection ?? DEFAULT_DRAG;
+  // lift by the stated rule when the set asks for it (bounds scale with the file's unit; the rule reads only their ratios)
+  const byRule = ref.liftFrom === 'rule' && !(o.reference?.liftDirection && o.reference.liftFrom !== 'rule');
+  const derived = byRule ? deriveLift(drag, datasetBounds(ctx.dataset)) : undefined;
   const r = forceTotals(ctx.dataset, faces, loads, {
-    dragDirection: ref.dragDirection ?? DEFAULT_DRAG, liftDirection: ref.liftDirection ?? DEFAULT_LIFT, momentPoint, reference,
+    dragDirection: drag, liftDirection: derived?.direction ?? ref.liftDirection ?? DEFAULT_LIFT, momentPoint, reference,
   });
   let cx = 0, cy = 0, cz = 0, a = 0;
   for (const i of picked) { const g = groups.groups[i]!; cx += g.area * g.centroid[0]; cy += g.area * g.centroid[1]; cz += g.area * g.centroid[2]; a += g.area; }
@@ -81,6 +87,7 @@ export function evaluateForce(ctx: EvalContext, p: ForceProbe, out: ProbeOutcome
     addQuantity(out, 'CM.lift', 'C_M about lift axis', c.moment.aboutLift, SI.dimensionless);
   }
   addQuantity(out, 'wettedArea', 'wetted area', r.area, SI.area);
+  if (derived) out.notes.push(derived.text);
   if (!reference) out.notes.push('coefficients need the reference density, speed and area (reference.density or a preset, reference.speed, reference.area)');
   out.notes.push(...r.notes.filter((n) => !/^coefficients not computed/.test(n)));
   const open = openSurfaceNote(selectionQuality(groups, faces, picked, selection));

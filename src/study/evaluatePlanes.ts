@@ -183,6 +183,12 @@ export function evaluateBalance(ctx: EvalContext, p: MassBalanceProbe, out: Prob
   addQuantity(out, 'outflow', `${sym} out`, b.outflow, unit);
   addQuantity(out, 'imbalanceShare', 'imbalance / inflow', b.imbalanceShare, SI.dimensionless);
   b.items.forEach((it, i) => addQuantity(out, `item${i + 1}.flux`, `${sym} ${it.label}`, it.flux, unit));
+  // a flow split: what share of the inflow leaves through each outlet (a part with a net outward flux)
+  if (b.inflow !== null && b.inflow > 0) {
+    b.items.forEach((it, i) => {
+      if (it.flux !== null && it.flux > 0 && it.outflow !== null) addQuantity(out, `item${i + 1}.outflowShare`, `share of ${sym} in leaving by ${it.label}`, it.outflow / b.inflow!, SI.dimensionless);
+    });
+  }
   out.notes.push(...b.notes);
   if (b.net === null) {
     const missing = b.notes.filter((x) => /empty|no velocity/.test(x));

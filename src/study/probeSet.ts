@@ -69,6 +69,11 @@ export interface ReferenceDoc {
   pressure?: number;
   dragDirection?: Vec3;
   liftDirection?: Vec3;
+  /**
+   * How the lift direction is chosen: `set` (default) uses `liftDirection`; `rule` derives it on each file
+   * from the drag direction and the mesh's extents (`liftRule.ts`), `liftDirection` then only records the last one.
+   */
+  liftFrom?: 'set' | 'rule';
   /** Point moments are taken about, in the file's length unit. */
   momentPoint?: Vec3;
 }
@@ -85,6 +90,8 @@ interface ProbeBase {
   id: string;
   /** Shown in tables and on pins; default: the id. */
   label?: string;
+  /** Where the app shows the pin: the box's top-left corner relative to the anchor (CSS pixels); default: placed automatically. */
+  pin?: { offset: [number, number] };
 }
 
 export interface CutPlaneProbe extends ProbeBase {

@@ -16,34 +16,35 @@ export const MEMBERS = {
   document: ['format', 'version', 'title', 'description', 'units', 'reference', 'formulas', 'probes'],
   formula: ['name', 'expression'],
   units: ['length', 'fields'],
-  reference: ['preset', 'density', 'viscosity', 'speed', 'area', 'length', 'pressure', 'dragDirection', 'liftDirection', 'momentPoint'],
+  reference: ['preset', 'density', 'viscosity', 'speed', 'area', 'length', 'pressure', 'dragDirection', 'liftDirection', 'liftFrom', 'momentPoint'],
   plane: ['origin', 'normal', 'region'],
   region: ['seed', 'disk', 'rectangle', 'cellGroups'],
   disk: ['centre', 'radius'],
   rectangle: ['centre', 'axis', 'halfSizes'],
   cellGroups: ['field', 'ids'],
+  pin: ['offset'],
   flowFields: ['velocity', 'pressure', 'density'],
   flowOptions: ['kinematicPressure'],
   sampleFields: ['sample'],
   boundaryLayer: ['velocity', 'edge', 'edgeFraction', 'direction'],
-  cutPlaneProbe: ['id', 'kind', 'label', 'geometry', 'fields', 'options'],
-  lineProbe: ['id', 'kind', 'label', 'geometry', 'fields', 'options'],
+  cutPlaneProbe: ['id', 'kind', 'label', 'geometry', 'fields', 'options', 'pin'],
+  lineProbe: ['id', 'kind', 'label', 'geometry', 'fields', 'options', 'pin'],
   lineGeometry: ['from', 'to'],
   lineOptions: ['spacing', 'samples', 'tolerance', 'boundaryLayer'],
-  pointProbe: ['id', 'kind', 'label', 'geometry', 'fields', 'options'],
+  pointProbe: ['id', 'kind', 'label', 'geometry', 'fields', 'options', 'pin'],
   pointGeometry: ['at'],
   pointOptions: ['tolerance'],
-  forceProbe: ['id', 'kind', 'label', 'geometry', 'fields', 'options'],
+  forceProbe: ['id', 'kind', 'label', 'geometry', 'fields', 'options', 'pin'],
   forceGeometry: ['surfaces'],
   forceFields: ['pressure', 'wallShear', 'velocity', 'viscosity'],
   forceOptions: ['featureAngle', 'groupArray', 'viscous', 'kinematicPressure', 'wallShearSign', 'wallGradient', 'reference'],
-  pressureLossProbe: ['id', 'kind', 'label', 'geometry', 'fields', 'options'],
+  pressureLossProbe: ['id', 'kind', 'label', 'geometry', 'fields', 'options', 'pin'],
   lossGeometry: ['upstream', 'downstream'],
   lossOptions: ['kinematicPressure', 'dynamicPressureFrom'],
-  massBalanceProbe: ['id', 'kind', 'label', 'geometry', 'fields', 'options'],
+  massBalanceProbe: ['id', 'kind', 'label', 'geometry', 'fields', 'options', 'pin'],
   balanceGeometry: ['planes', 'surfaces'],
   balanceOptions: ['featureAngle', 'groupArray'],
-  wallProbe: ['id', 'kind', 'label', 'geometry', 'fields', 'options'],
+  wallProbe: ['id', 'kind', 'label', 'geometry', 'fields', 'options', 'pin'],
   wallGeometry: ['surfaces'],
   wallFields: ['wallShear', 'velocity', 'viscosity', 'pressure'],
   wallOptions: ['featureAngle', 'groupArray', 'wallDistance', 'thresholds', 'bins', 'shearFrom', 'wallGradient', 'wallShearSign'],
@@ -89,6 +90,7 @@ function reference(c: Checks, v: unknown, path: string): void {
   c.optional(o, 'pressure', path, (x, p) => c.number(x, p));
   c.optional(o, 'dragDirection', path, (x, p) => c.vec3(x, p, true));
   c.optional(o, 'liftDirection', path, (x, p) => c.vec3(x, p, true));
+  c.optional(o, 'liftFrom', path, (x, p) => c.oneOf(x, p, ['set', 'rule']));
   c.optional(o, 'momentPoint', path, (x, p) => c.vec3(x, p));
   // Coefficients divide by ½ρV²A (and ·L for moments): it must neither overflow nor vanish.
   const { density: rho, speed, area, length } = o as Record<string, unknown>;
@@ -289,6 +291,14 @@ function probe(c: Checks, v: unknown, path: string, ids: Map<string, string>): v
   c.optional(o, 'geometry', path, (x, p) => geometry(c, k, x, p));
   c.optional(o, 'fields', path, (x, p) => fields(c, k, x, p));
   c.optional(o, 'options', path, (x, p) => options(c, k, x, p));
+  c.optional(o, 'pin', path, (x, p) => {
+    const pin = c.object(x, p, MEMBERS.pin, MEMBERS.pin);
+    if (!pin) return;
+    c.optional(pin, 'offset', p, (y, q) => {
+      if (!Array.isArray(y) || y.length !== 2) return c.fail(q, 'an array of 2 numbers (CSS pixels)', y);
+      y.forEach((z, i) => c.number(z, at(q, i), { min: -10000, max: 10000 }));
+    });
+  });
 }
 
 /** A formula: a new field's name and an expression that parses (the parser's message names the column). */

@@ -70,7 +70,8 @@ export class LegendView {
 }
 
 /** Draws the legend at the bottom-left of an exported picture; `scale` is device pixels per CSS pixel. */
-export function drawLegend(ctx: CanvasRenderingContext2D, s: LegendState, scale: number): void {
+/** Draws the legend box at the picture's lower left; returns the box (pixels) so pins keep clear of it. */
+export function drawLegend(ctx: CanvasRenderingContext2D, s: LegendState, scale: number): { x: number; y: number; width: number; height: number } {
   const font = (px: number, weight = '') => `${weight}${px * scale}px system-ui, -apple-system, "Segoe UI", Roboto, Arial, sans-serif`;
   const barW = 16 * scale, barH = 180 * scale, pad = 10 * scale;
   const ticks = tickValues(s.range[0], s.range[1]).reverse();
@@ -106,4 +107,5 @@ export function drawLegend(ctx: CanvasRenderingContext2D, s: LegendState, scale:
     ctx.fillText('fixed range', x0 + pad, by + barH + 6 * scale);
   }
   ctx.restore();
+  return { x: x0, y: y0, width: boxW, height: boxH };
 }

@@ -21,6 +21,7 @@ export interface ResultNote {
  */
 const EXPLANATIONS: readonly RegExp[] = [
   /^centre of pressure undefined\b/,
+  /^lift \([^)]*\) derived: /,
   /^lift direction was not orthogonal to the drag direction/,
   /^viscous force not computed \(viscous: none\)/,
   /^(pressure|wall shear) "[^"]*" read as kinematic/,

@@ -42,6 +42,8 @@ export interface ProbeResult {
   notes?: ResultNote[];
   /** The pin can be hidden without removing the probe. */
   pinVisible: boolean;
+  /** A short line the pin shows under its numbers: how a number was got when it matters (e.g. `viscous: wall-shear array "tau"`). */
+  tag?: string;
 }
 
 /** Context of an export: the file and when. */

@@ -3,6 +3,7 @@
  * neutral style, problems as warnings), a pin toggle and a remove button per probe, and "copy as text"
  * for the whole table.
  */
+import { addCautionLine } from './cautionLine.ts';
 import { withUnit } from './format.ts';
 import type { ProbeResult } from './results.ts';
 import { noiseMark } from './roundingNoise.ts';
@@ -11,6 +12,10 @@ export interface ResultsTableEvents {
   onTogglePin: (id: string, visible: boolean) => void;
   onRemove: (id: string) => void;
   onCopy: () => void;
+  /** A probe's heading was clicked (it becomes the selected probe). */
+  onSelect?: (id: string) => void;
+  /** A probe's label was edited (double-click the label, Enter to keep, Escape to drop). */
+  onRename?: (id: string, label: string) => void;
 }
 
 export class ResultsTable {
@@ -30,6 +35,36 @@ export class ResultsTable {
     this.body = document.createElement('div');
     this.body.className = 'results-body';
     host.append(head, this.body);
+    addCautionLine(host);
+  }
+
+  private selected: string | undefined;
+
+  /** Turns a label into a field: Enter (or leaving it) keeps a non-empty new label, Escape drops the edit. */
+  private editLabel(name: HTMLElement, id: string, label: string): void {
+    const input = document.createElement('input');
+    input.className = 'probe-label-input';
+    input.value = label;
+    input.maxLength = 120;
+    let done = false;
+    const finish = (keep: boolean) => {
+      if (done) return;
+      done = true;
+      const v = input.value.trim();
+      input.replaceWith(name);
+      if (keep && v && v !== label) this.events.onRename?.(id, v);
+    };
+    input.onkeydown = (ev) => { if (ev.key === 'Enter') finish(true); else if (ev.key === 'Escape') finish(false); ev.stopPropagation(); };
+    input.onblur = () => finish(true);
+    name.replaceWith(input);
+    input.focus();
+    input.select();
+  }
+
+  /** Marks the selected probe's heading. */
+  setSelected(id: string | undefined): void {
+    this.selected = id;
+    for (const tr of this.body.querySelectorAll<HTMLElement>('tr.probe-head')) tr.classList.toggle('selected', tr.dataset['probe'] === id);
   }
 
   set(results: readonly ProbeResult[]): void {
@@ -46,10 +81,15 @@ export class ResultsTable {
       const tr = table.insertRow();
       tr.className = 'probe-head';
       tr.dataset['probe'] = r.id;
+      if (r.id === this.selected) tr.classList.add('selected');
+      tr.onclick = (ev) => { if (!(ev.target instanceof HTMLInputElement || ev.target instanceof HTMLButtonElement)) this.events.onSelect?.(r.id); };
       const th = document.createElement('th');
       th.colSpan = 2;
       const name = document.createElement('span');
+      name.className = 'probe-label';
       name.textContent = r.label;
+      name.title = 'double-click to rename';
+      name.ondblclick = () => this.editLabel(name, r.id, r.label);
       const def = document.createElement('span');
       def.className = 'probe-def';
       def.textContent = r.definition;

@@ -7,7 +7,11 @@ import * as THREE from 'three';
 import type { DrawingValues, TriangleDrawing, Vec3 } from '../../workers/api.ts';
 import type { ColorMap } from './colorMaps.ts';
 import { FieldMaterial } from './fieldMaterial.ts';
+import { keepScreenSize } from './screenSize.ts';
 
+
+/** Radius of the cut-plane's drag knob on screen (CSS pixels). */
+export const KNOB_PIXELS = 9;
 export class CutPlaneLayer {
   readonly group = new THREE.Group();
   readonly material: FieldMaterial;
@@ -37,7 +41,10 @@ export class CutPlaneLayer {
     this.arrow = new THREE.ArrowHelper(new THREE.Vector3(0, 0, 1), new THREE.Vector3(), size * 0.15, 0x2563eb, size * 0.04, size * 0.025);
     this.seed = new THREE.Mesh(new THREE.SphereGeometry(size * 0.008, 16, 12), new THREE.MeshBasicMaterial({ color: 0xdc2626 }));
     this.seed.visible = false;
-    this.knob = new THREE.Mesh(new THREE.SphereGeometry(size * 0.022, 20, 14), new THREE.MeshBasicMaterial({ color: 0x2563eb }));
+    // the knob is a fixed size on screen (a 1 mm bead and a 10 m duct alike); about its old size until first drawn
+    this.knob = new THREE.Mesh(new THREE.SphereGeometry(1, 20, 14), new THREE.MeshBasicMaterial({ color: 0x2563eb }));
+    this.knob.scale.setScalar(size * 0.022);
+    keepScreenSize(this.knob, KNOB_PIXELS);
     this.group.add(this.handle, this.arrow, this.seed, this.knob);
   }
 

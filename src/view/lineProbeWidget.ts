@@ -4,6 +4,10 @@
  */
 import * as THREE from 'three';
 import type { Vec3 } from '../../workers/api.ts';
+import { keepScreenSize } from './screenSize.ts';
+
+/** Radius of the end handles on screen (CSS pixels). */
+export const HANDLE_PIXELS = 7;
 
 export class LineProbeWidget {
   readonly group = new THREE.Group();
@@ -12,15 +16,18 @@ export class LineProbeWidget {
   private dragging: 0 | 1 | -1 = -1;
   private readonly dragPlane = new THREE.Plane();
 
-  /** `size` is the data's diagonal: the end handles scale with it. */
+  /** `size` (the data's diagonal) is kept for callers; the end handles are a fixed size on screen. */
   constructor(size: number) {
     const g = new THREE.BufferGeometry();
     g.setAttribute('position', new THREE.BufferAttribute(new Float32Array(6), 3));
     this.line = new THREE.Line(g, new THREE.LineBasicMaterial({ color: 0x1d4ed8, depthTest: false }));
     this.line.renderOrder = 3;
     const mk = (color: number) => {
-      const m = new THREE.Mesh(new THREE.SphereGeometry(size * 0.012, 20, 14), new THREE.MeshBasicMaterial({ color, depthTest: false }));
+      const m = new THREE.Mesh(new THREE.SphereGeometry(1, 20, 14), new THREE.MeshBasicMaterial({ color, depthTest: false }));
       m.renderOrder = 4;
+      // until the first draw sizes it, about as large as before
+      m.scale.setScalar(size * 0.012);
+      keepScreenSize(m, HANDLE_PIXELS);
       return m;
     };
     this.ends = [mk(0x1d4ed8), mk(0x0ea5e9)];

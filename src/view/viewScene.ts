@@ -239,8 +239,15 @@ export class ViewScene {
 
   /** World point → CSS pixels in the view (origin top-left); `behind` when it is behind the camera. */
   project(p: ArrayLike<number>, width = this.size.width, height = this.size.height): { x: number; y: number; behind: boolean } {
+    // beyond the far plane or outside the view a point still has a screen direction (pins mark it on the edge);
+    // only a point behind the camera has none on the picture, and it is reported far off towards its side
+    const c = new THREE.Vector3(p[0], p[1], p[2]).applyMatrix4(this.camera.matrixWorldInverse);
+    if ((this.camera as THREE.PerspectiveCamera).isPerspectiveCamera && c.z >= 0) {
+      const n = Math.hypot(c.x, c.y) || 1;
+      return { x: width / 2 + (c.x / n) * 1e6, y: height / 2 - (c.y / n) * 1e6, behind: false };
+    }
     const v = new THREE.Vector3(p[0], p[1], p[2]).project(this.camera);
-    return { x: (v.x + 1) / 2 * width, y: (1 - v.y) / 2 * height, behind: v.z > 1 || v.z < -1 };
+    return { x: (v.x + 1) / 2 * width, y: (1 - v.y) / 2 * height, behind: false };
   }
 
   /** Normalised device coordinates of a pointer event, for ray casting. */

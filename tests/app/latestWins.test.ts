@@ -1,6 +1,6 @@
 /** Live-update throttling: one request in flight, the latest waiting one wins, no result is lost or reordered. */
 import { describe, expect, it } from 'vitest';
-import { latestWins } from '../../src/app/latestWins.ts';
+import { latestWins, latestWinsPerKey } from '../../src/app/latestWins.ts';
 
 describe('latestWins', () => {
   it('runs the first and the last of a burst, in order', async () => {
@@ -20,5 +20,13 @@ describe('latestWins', () => {
     await q.idle();
     expect(errors).toEqual(['bad']);
     expect(got).toEqual([2]);
+  });
+  it('per key: bursts on one key keep first and last, other keys are never dropped', async () => {
+    const got: string[] = [];
+    const q = latestWinsPerKey((x: { id: string; v: number }) => x.id,
+      async (x) => { await new Promise((r) => setTimeout(r, 5)); return `${x.id}${x.v}`; }, (r) => got.push(r), (e) => { throw e; });
+    for (let i = 1; i <= 3; i++) for (const id of ['a', 'b', 'c']) q.request({ id, v: i });
+    await new Promise((r) => setTimeout(r, 50));
+    expect(got.sort()).toEqual(['a1', 'a3', 'b1', 'b3', 'c1', 'c3']);
   });
 });

@@ -96,7 +96,7 @@ describe('probe set: malformed documents are refused with a clear error', () => 
     expect(noProbes.message).toBe('case.json: probes: expected a value (required), found nothing');
     const s = valid() as unknown as { probes: Record<string, unknown>[] };
     s.probes[2]!['colour'] = 'red';
-    expect(refuse(s).message).toBe('case.json: probes[2].colour: expected one of the members id, kind, label, geometry, fields, options, found an unknown member "colour"');
+    expect(refuse(s).message).toBe('case.json: probes[2].colour: expected one of the members id, kind, label, geometry, fields, options, pin, found an unknown member "colour"');
   });
 
   it('a wrong value deep in a probe: path, expected and found', () => {

@@ -102,7 +102,8 @@ describe('viewer', () => {
     await setNumber('normal x', 0);
     await setNumber('normal y', 0);
     await setNumber('normal z', 1);
-    await setNumber('density ρ [kg/m³]', 998.207);
+    // ρ comes from the reference conditions: water at 20 °C at start
+    expect(Number(await control('ref. density ρ [kg/m³]').locator('input').inputValue())).toBe(998.207);
     await waitIdle(page);
     await shot('03-pipe-cut-plane');
     const shown = pinNumber(await pinText('plane-1', 'massFlowRate'));
@@ -165,7 +166,7 @@ describe('viewer', () => {
     const csv = new TextDecoder().decode(await downloadOf(() => page.locator('.chart-csv').click()));
     const lines = csv.trim().split('\n');
     expect(lines[1]).toMatch(/^# Caution: /);
-    expect(lines[2]).toBe('s,x,y,z,valid,velocity_x,velocity_y,velocity_z,p');
+    expect(lines[2]).toBe('s [m],x [m],y [m],z [m],valid,velocity_x [m/s],velocity_y [m/s],velocity_z [m/s],p [Pa]');
     expect(lines.length).toBe(3 + 201);
     await shot('05-pipe-line-probe');
   });
