@@ -11,6 +11,8 @@
  *    the plane at a node or a face are in, as the on-plane rule of `cutPlane.ts` needs;
  *  - a volume cell whose bounding box, grown by `boxMargin` of its own diagonal, meets a line probe's
  *    segment or holds a point probe's point (the point-location tolerance is at most 1e-4 of a cell).
+ *  - a volume cell within two node rings of any cell above (gradient stencils of wall quantities and
+ *    derived fields reach that far).
  * Keeping more cells than needed never changes a number: the cut takes only the cells the plane crosses,
  * and point location picks among the cells holding a point by the smallest violation, then the lowest
  * global cell id, an order the assembled dataset keeps (cells stay in piece and cell order).
@@ -80,6 +82,19 @@ function segmentMeetsBox(s: Segment, lo: Float64Array, hi: Float64Array): boolea
   return true;
 }
 
+/** Node rings kept around every kept cell (the widest gradient stencil: two rings on boundaries). */
+const STENCIL_RINGS = 2;
+
+/** Marks every cell that shares a node with a marked cell (one ring wider). */
+function growByNodes(conn: Int32Array, offs: Int32Array, pointCount: number, mark: Uint8Array): void {
+  const node = new Uint8Array(pointCount);
+  for (let c = 0; c < mark.length; c++) if (mark[c]) for (let q = offs[c]!; q < offs[c + 1]!; q++) node[conn[q]!] = 1;
+  for (let c = 0; c < mark.length; c++) {
+    if (mark[c]) continue;
+    for (let q = offs[c]!; q < offs[c + 1]!; q++) if (node[conn[q]!]) { mark[c] = 1; break; }
+  }
+}
+
 /** The footprint of `set` on the task's dataset `d` (see the file comment). */
 export function footprint(d: Dataset, set: ProbeSet, options: Partial<FootprintOptions> = {}): Footprint {
   const o = { ...FOOTPRINT_DEFAULTS, ...options };
@@ -121,6 +136,10 @@ export function footprint(d: Dataset, set: ProbeSet, options: Partial<FootprintO
       if (keep) mark[c] = 1;
     }
   });
+  // Gradient-based quantities (the second-order wall gradient of force totals and wall probes, derived
+  // fields) fit over two rings of nodes around each node (src/derive/stencils.ts, per piece): keep every cell
+  // within two node rings of a kept cell, so the assembled dataset rebuilds the same stencils.
+  d.pieces.forEach((p, k) => { for (let ring = 0; ring < STENCIL_RINGS; ring++) growByNodes(p.connectivity, p.offsets, p.points.length / 3, marks[k]!); });
   const cells = marks.map((mark) => {
     let n = 0;
     for (let c = 0; c < mark.length; c++) n += mark[c]!;

@@ -59,7 +59,7 @@ describe('Hagen–Poiseuille pipe wall', () => {
   it('the file\'s wall-shear array is used when present and said so (Stokes sphere, max 3μU/2a at the equator; Stokes 1851); without μ and no array: a clear error', () => {
     const s = sphereCase({ refinement: 1 }), ex = sphereExact(), fs = getBoundaryFaces(s), gs = getSurfaceGroups(s);
     const r = wallQuantities(s, fs, facesOfGroups(gs, [gs.groups.findIndex((g) => g.id === 1)]), { density: ex.rho, viscosity: ex.mu });
-    expect(r.shearSource).toMatchObject({ method: 'wall-shear-array', array: 'wallShearStress' });
+    expect(r.shearSource).toMatchObject({ method: 'wall-shear-array', array: 'skinFriction' });
     expect(r.stats.shearMagnitude.max / ex.wallShearMax).toBeGreaterThan(0.98);
     expect(r.stats.shearMagnitude.max / ex.wallShearMax).toBeLessThanOrEqual(1 + 1e-12);
     const faces2 = getBoundaryFaces(d);
