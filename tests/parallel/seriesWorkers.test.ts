@@ -9,6 +9,7 @@ import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { main } from '../../src/cli/main.ts';
 import { nodeSeriesFiles, openSeriesInput } from '../../src/cli/seriesInputs.ts';
 import { readProbeSetFile } from '../../src/cli/studyInputs.ts';
 import { writeVtu } from '../../src/io/writeVtu.ts';
@@ -110,5 +111,35 @@ describe('a series on worker threads', () => {
       ac.abort();
       await expect(run).rejects.toMatchObject({ name: 'AbortError' });
     } finally { rmSync(bad, { recursive: true, force: true }); }
+  }, 60_000);
+});
+
+async function cli(...argv: string[]): Promise<{ code: number; out: string; err: string }> {
+  let out = '', err = '';
+  const code = await main(argv, { out: (t) => { out += t + '\n'; }, err: (t) => { err += t + '\n'; } });
+  return { code, out, err };
+}
+
+describe('--workers on the series verbs', () => {
+  it('history --csv gives the same rows on 1 and 2 threads and says how often the mesh was built', async () => {
+    const one = await cli('history', PVD, '--probes', PROBES, '--csv', '--workers', '1');
+    const two = await cli('history', PVD, '--probes', PROBES, '--csv', '--workers', '2');
+    expect([one.code, two.code]).toEqual([0, 0]);
+    const rows = (t: string) => t.split('\n').filter((l) => l && !l.startsWith('#'));
+    expect(rows(two.out)).toEqual(rows(one.out));
+    expect(rows(one.out).length).toBe(9);
+    expect(one.out).toContain('built 1 time(s); reused for 7 of 8 steps');
+    expect(two.out).toContain('built 2 time(s); reused for 6 of 8 steps');
+    const bad = await cli('history', PVD, '--probes', PROBES, '--workers', 'many');
+    expect(bad.code).not.toBe(0);
+    expect(bad.err.trim()).toBe('fieldtally history: --workers: expected a whole number of workers from 1 to 256, got "many"');
+  }, 60_000);
+
+  it('compare of two series gives the same JSON rows on 1 and 2 threads', async () => {
+    const a = await cli('compare', PVD, dir, '--probes', PROBES, '--json', '--workers', '1');
+    const b = await cli('compare', PVD, dir, '--probes', PROBES, '--json', '--workers', '2');
+    expect(a.err).toBe(b.err);
+    expect(JSON.parse(b.out).rows).toEqual(JSON.parse(a.out).rows);
+    expect(JSON.parse(a.out).rows.length).toBeGreaterThan(5);
   }, 60_000);
 });

@@ -85,7 +85,8 @@ describe('fieldtally history', () => {
     const probes = join(dir, 'osc.probes.json');
     writeFileSync(probes, JSON.stringify({ format: 'fieldtally-probe-set', version: 2, reference: { length: 0.2, speed: 2 },
       probes: [{ id: 'mid', kind: 'cut-plane', geometry: { origin: [0.5, 0.5, 0.5], normal: [1, 0, 0] }, fields: { velocity: 'velocity', pressure: 'p', density: 1 } }] }));
-    const j = await run('history', join(folder, 'osc.*.vtu'), '--probes', probes, '--json');
+    // one thread: every step after the first reuses the mesh (on N threads each run of steps builds it once; tests/parallel/seriesWorkers.test.ts)
+    const j = await run('history', join(folder, 'osc.*.vtu'), '--probes', probes, '--json', '--workers', '1');
     expect(j.code).toBe(0);
     const doc = JSON.parse(j.out);
     expect(doc.timeSource).toBe('field-data');
@@ -169,7 +170,7 @@ describe('fieldtally history', () => {
     expect(m.code).toBe(1);
     expect(m.err.trim().split('\n')).toHaveLength(1);
     expect(m.err).toContain('run.pvd line 3:');
-    expect(m.err).toContain('missing.vtu: cannot read file (no such file)');
+    expect(m.err).toContain('missing.vtu: cannot read file (no such file or folder)');
 
     const rep = join(dir, 'repeat');
     mkdirSync(rep, { recursive: true });
@@ -180,6 +181,6 @@ describe('fieldtally history', () => {
     expect(d.err).toContain('c_2.vtu has time 0.05, the same as c_1.vtu (0.05); step times must increase strictly');
 
     expect((await run('history', PVD, '--probes', PROBES, '--csv', '--json')).err).toContain('choose one of --csv, --json and --out');
-    expect((await run('history', PVD, '--probes', PROBES, '--from', 'soon')).err).toContain('--from: expected a number, got "soon"');
+    expect((await run('history', PVD, '--probes', PROBES, '--from', 'soon')).err).toContain('--from: expected a number written as a decimal number, got "soon"');
   });
 });
