@@ -9,6 +9,8 @@
  * live array buffers (every typed array) are sampled while that step is still held — what streaming keeps
  * resident; the peak of unforced samples after every step is reported too (it includes garbage not yet
  * collected). The 20 forced collections are included in the times.
+ * Then the same series on 2 worker threads (src/parallel/seriesPool.ts, runs of 100 steps each): wall and
+ * process CPU (all threads), and whether its table equals the one-thread table number for number.
  */
 import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
@@ -19,6 +21,7 @@ import { nodeSeriesFiles, openSeriesInput } from '../src/cli/seriesInputs.ts';
 import { writeVtu } from '../src/io/writeVtu.ts';
 import { getCellTree } from '../src/locate/cellTree.ts';
 import { datasetOf, field, hexGrid } from '../src/model/meshBuild.ts';
+import { evaluateSeriesOnWorkers } from '../src/parallel/seriesPool.ts';
 import { evaluateSeries } from '../src/series/evaluateSeries.ts';
 import type { ProbeSet } from '../src/study/probeSet.ts';
 import { getBoundaryFaces } from '../src/surface/surfaceCache.ts';
@@ -89,6 +92,12 @@ export async function run(): Promise<Record<string, unknown>> {
     });
     const wallMs = performance.now() - t0;
     const cpu = process.cpuUsage(c0);
+    // the same steps on two threads (the index is open already; its time is in openMs above)
+    const c2 = process.cpuUsage(), t2 = performance.now();
+    const table2 = await evaluateSeriesOnWorkers(index, nodeSeriesFiles, SET, { workers: 2 });
+    const wall2 = performance.now() - t2, cpu2 = process.cpuUsage(c2);
+    const same = table2.time.length === table.time.length && table2.columns.length === table.columns.length
+      && table.columns.every((c, i) => c.values.every((v, j) => Object.is(v, table2.columns[i]!.values[j])));
     // the shared geometry: cell tree and boundary faces of the (one) mesh, as cached
     const first = await nodeSeriesFiles.load(index.steps[0]!.files[0]!);
     const tree = getCellTree(first), faces = getBoundaryFaces(first);
@@ -98,6 +107,8 @@ export async function run(): Promise<Record<string, unknown>> {
     return {
       steps: STEPS, cells: N[0] * N[1] * N[2], fileBytes, generateMs: Math.round(generateMs),
       openMs: Math.round(openMs), wallMs: Math.round(wallMs), cpuMs: Math.round((cpu.user + cpu.system) / 1000), goalMs: 10_000,
+      twoWorkers: { wallMs: Math.round(wall2), cpuMs: Math.round((cpu2.user + cpu2.system) / 1000), sameTableAsOneThread: same, meshReuse: table2.meshReuse,
+        note: 'evaluation only (series index opened before); one thread for comparison: wallMs - openMs' },
       perStepWallMs: +(wallMs / STEPS).toFixed(1), readWallMs: Math.round(loadWallMs), readCpuMs: Math.round(loadCpuUs / 1000), meshReuse: table.meshReuse, failures: table.failures.length, timeSource: table.timeSource,
       memory: {
         stepDecodedBytes, sharedGeometryBytes: sharedBytes, budgetBytes: budget,

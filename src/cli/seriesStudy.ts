@@ -5,13 +5,15 @@
 import { createHash } from 'node:crypto';
 import { basename } from 'node:path';
 import { readBytes } from '../io/nodeFiles.ts';
-import { evaluateSeries } from '../series/evaluateSeries.ts';
+import { evaluateSeriesOnWorkers } from '../parallel/seriesPool.ts';
+import { stepsInWindow } from '../series/seriesIndex.ts';
 import { summarizeTable, type ColumnSummary } from '../series/historyStats.ts';
 import type { HistoryTable } from '../series/historyTable.ts';
 import { resolveReference } from '../study/outcome.ts';
 import type { ProbeSet } from '../study/probeSet.ts';
 import type { InputFileInfo } from '../study/reportHtml.ts';
 import { nodeSeriesFiles, openSeriesInput } from './seriesInputs.ts';
+import { seriesWorkerCount } from './workerOption.ts';
 
 /** One evaluated series. */
 export interface SeriesStudy {
@@ -21,10 +23,13 @@ export interface SeriesStudy {
   inputs: InputFileInfo[];
 }
 
-/** Evaluates a probe set over the series named by `input` (a .pvd or a folder) and summarises every quantity. */
-export async function studySeries(input: string, set: ProbeSet, withInputs = false): Promise<SeriesStudy> {
+/**
+ * Evaluates a probe set over the series named by `input` (a .pvd or a folder) and summarises every quantity;
+ * `workers` is the `--workers` option (threads evaluating runs of steps, `seriesWorkerCount`).
+ */
+export async function studySeries(input: string, set: ProbeSet, withInputs = false, workers?: string): Promise<SeriesStudy> {
   const index = await openSeriesInput([input]);
-  const table = await evaluateSeries(index, nodeSeriesFiles, set);
+  const table = await evaluateSeriesOnWorkers(index, nodeSeriesFiles, set, { workers: seriesWorkerCount(workers, stepsInWindow(index).length) });
   const summaries = summarizeTable(table, { reference: resolveReference(set.reference) });
   const inputs: InputFileInfo[] = [];
   if (withInputs) {

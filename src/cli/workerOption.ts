@@ -56,3 +56,18 @@ export async function loadForCompute(file: string, args: ParsedArgs): Promise<Co
   const pool = await openNodePool(dataset, n, ports);
   return { dataset: pool.dataset, pool, close: () => pool.close() };
 }
+
+/** A series of fewer steps than this (in its window) runs in this process unless `--workers` asks for threads. */
+export const SERIES_POOL_MIN_STEPS = 16;
+
+export const SERIES_WORKER_HELP = '  --workers N           threads evaluating runs of steps at once (default: FIELDTALLY_WORKERS, else one per core, for 16 steps or more); 1: none';
+
+/**
+ * How many threads evaluate the steps of a series (src/parallel/seriesPool.ts): `--workers` if given, else
+ * `FIELDTALLY_WORKERS` or one per core when the window holds at least `SERIES_POOL_MIN_STEPS` steps (starting a
+ * thread costs a few hundred ms), else 1.
+ */
+export function seriesWorkerCount(asked: string | undefined, steps: number): number {
+  const n = poolSize(asked);
+  return asked === undefined && steps < SERIES_POOL_MIN_STEPS ? 1 : n;
+}

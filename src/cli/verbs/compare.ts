@@ -13,6 +13,7 @@ import { resolveReference } from '../../study/outcome.ts';
 import { parseArgs, str } from '../args.ts';
 import { looksLikeSeries } from '../seriesInputs.ts';
 import { studySeries } from '../seriesStudy.ts';
+import { SERIES_WORKER_HELP, WORKER_OPTIONS } from '../workerOption.ts';
 import { loadInput, readProbeSetFile, toolVersion } from '../studyInputs.ts';
 import type { Verb } from '../verb.ts';
 import { EXIT_PROBE_FAILED } from './report.ts';
@@ -27,9 +28,10 @@ const compare: Verb = {
     '  Two series (a .pvd or a folder each, see `fieldtally history`) compare their time means over the statistics window',
     '  (from the detected end of the initial transient), each with its 95 % half-width, and say whether the difference',
     '  exceeds the two half-widths combined in quadrature.',
+    SERIES_WORKER_HELP + ' (series only)',
     `  ${UNITS_STATEMENT}`,
   ].join('\n'),
-  options: { probes: 'string', json: 'boolean', csv: 'boolean' },
+  options: { probes: 'string', json: 'boolean', csv: 'boolean', ...WORKER_OPTIONS },
   async run(argv, io) {
     const args = parseArgs(argv, this.options, 'compare');
     const probesPath = str(args, 'probes');
@@ -40,7 +42,7 @@ const compare: Verb = {
     const ps = await readProbeSetFile(probesPath);
     if (looksLikeSeries(basePath) || looksLikeSeries(varPath)) {
       if (!looksLikeSeries(basePath) || !looksLikeSeries(varPath)) throw new Error(`compare a series with a series: ${looksLikeSeries(basePath) ? varPath : basePath} is a single result file (give a .pvd or a folder of numbered files)`);
-      const b = await studySeries(basePath, ps.set), v = await studySeries(varPath, ps.set);
+      const b = await studySeries(basePath, ps.set, false, str(args, 'workers')), v = await studySeries(varPath, ps.set, false, str(args, 'workers'));
       const c = compareSeries(b, v, resolveReference(ps.set.reference), ps.set.units?.length ?? 'm');
       const note = 'time means over each series\' statistics window; ± = 95 % half-width of the mean; "exceeds" = |difference| > √(h_b² + h_v²) (common practice)';
       if (args.options.json) {

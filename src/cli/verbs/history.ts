@@ -10,7 +10,8 @@ import { summarizeTable } from '../../series/historyStats.ts';
 import { historyReport } from '../../series/historyReport.ts';
 import { historyCsv, historyPreamble } from '../../series/historyTable.ts';
 import { historyJson } from '../../series/historyStats.ts';
-import { evaluateSeries } from '../../series/evaluateSeries.ts';
+import { evaluateSeriesOnWorkers } from '../../parallel/seriesPool.ts';
+import { stepsInWindow } from '../../series/seriesIndex.ts';
 import { resolveReference } from '../../study/outcome.ts';
 import { writeProbeSet } from '../../study/probeSetFile.ts';
 import { UNITS_STATEMENT, sig6, type TableContext } from '../../study/resultTables.ts';
@@ -20,12 +21,13 @@ import { writeReportFolder } from '../reportWriter.ts';
 import { nodeSeriesFiles, openSeriesInput } from '../seriesInputs.ts';
 import { readProbeSetFile, toolVersion } from '../studyInputs.ts';
 import type { Verb } from '../verb.ts';
+import { SERIES_WORKER_HELP, seriesWorkerCount, WORKER_OPTIONS } from '../workerOption.ts';
 import { EXIT_PROBE_FAILED } from './report.ts';
 
 const history: Verb = {
   summary: 'a probe set at every step of a series: history table, window statistics, spectra, report folder',
   usage: [
-    'fieldtally history <series> --probes set.json [--from t0] [--to t1] [--csv | --json | --out dir/]',
+    'fieldtally history <series> --probes set.json [--from t0] [--to t1] [--csv | --json | --out dir/] [--workers N]',
     '  <series>: a .pvd collection file; a folder (its .pvd, else its numbered result files); a pattern such as',
     '  "run/flow_*.vtu"; or several numbered files (flow.0001.vtu, flow_0002.vtu, flow0003.vtk … ordered by number).',
     '  Times come from the collection, else each file\'s TimeValue field data, else the step index — the output says which.',
@@ -35,10 +37,11 @@ const history: Verb = {
     '  --json        the table plus, per quantity, window statistics (mean, std, rms fluctuation, min/max, uncertainty',
     '                of the mean with its method, transient end) and the dominant frequency with its Strouhal number',
     '  --out dir/    report folder: report.html, history.csv/.json, statistics.csv, spectra.csv, plots (SVG)',
+    SERIES_WORKER_HELP,
     '  Exit code 3 when a probe failed at some step.',
     `  ${UNITS_STATEMENT}`,
   ].join('\n'),
-  options: { probes: 'string', from: 'string', to: 'string', csv: 'boolean', json: 'boolean', out: 'string' },
+  options: { probes: 'string', from: 'string', to: 'string', csv: 'boolean', json: 'boolean', out: 'string', ...WORKER_OPTIONS },
   async run(argv, io) {
     const args = parseArgs(argv, this.options, 'history');
     const probesPath = str(args, 'probes');
@@ -50,7 +53,8 @@ const history: Verb = {
     const ps = await readProbeSetFile(probesPath);
     if (ps.fromVersion < ps.set.version) io.err(`note: ${basename(probesPath)} is a version ${ps.fromVersion} probe set; it was upgraded on reading`);
     const index = await openSeriesInput(args.positional);
-    const table = await evaluateSeries(index, nodeSeriesFiles, ps.set, { ...(from !== undefined ? { from } : {}), ...(to !== undefined ? { to } : {}) });
+    const workers = seriesWorkerCount(str(args, 'workers'), stepsInWindow(index, from, to).length);
+    const table = await evaluateSeriesOnWorkers(index, nodeSeriesFiles, ps.set, { workers, ...(from !== undefined ? { from } : {}), ...(to !== undefined ? { to } : {}) });
     const ctx: TableContext = { tool: 'fieldtally', version: toolVersion(), createdAt: new Date().toISOString(), caution: CAUTION, ...(ps.set.title ? { probeSet: ps.set.title } : {}) };
     const reference = resolveReference(ps.set.reference);
     const summaries = args.options.csv ? [] : summarizeTable(table, { ...(from !== undefined ? { from } : {}), ...(to !== undefined ? { to } : {}), reference });

@@ -22,6 +22,7 @@ import { statisticsCsv } from '../../series/historyStats.ts';
 import { meanEvaluation } from '../../series/seriesMeans.ts';
 import { looksLikeSeries } from '../seriesInputs.ts';
 import { studySeries } from '../seriesStudy.ts';
+import { SERIES_WORKER_HELP, WORKER_OPTIONS } from '../workerOption.ts';
 import type { Verb } from '../verb.ts';
 
 /** Exit code when the report was written but some probe failed. */
@@ -45,10 +46,11 @@ const report: Verb = {
     '  series-<n>-history.csv and series-<n>-statistics.csv (mean ± 95 % half-width, rms, min/max) beside them; no picture.',
     '  --color       field to colour the surfaces by (default: a pressure field, else the first field)',
     '  --width/--height  picture size in pixels (default 1200 × 800); --pictures n: pictures for the first n files (default 12)',
+    SERIES_WORKER_HELP + ' (series only)',
     '  Exit code 3 when any probe failed (the report is still written; the failures go to stderr).',
     `  ${UNITS_STATEMENT}`,
   ].join('\n'),
-  options: { probes: 'string', out: 'string', title: 'string', color: 'string', width: 'string', height: 'string', pictures: 'string', 'no-pictures': 'boolean' },
+  options: { probes: 'string', out: 'string', title: 'string', color: 'string', width: 'string', height: 'string', pictures: 'string', 'no-pictures': 'boolean', ...WORKER_OPTIONS },
   async run(argv, io) {
     const args = parseArgs(argv, this.options, 'report');
     const probesPath = str(args, 'probes'), out = str(args, 'out');
@@ -76,7 +78,7 @@ const report: Verb = {
     const seriesFiles: Record<string, Uint8Array> = {};
     for (const [i, file] of files.entries()) {
       if (looksLikeSeries(file)) {
-        const st = await studySeries(file, ps.set, true);
+        const st = await studySeries(file, ps.set, true, str(args, 'workers'));
         inputs.push(...st.inputs);
         const ctx = { tool: 'fieldtally', version: toolVersion(), createdAt: new Date().toISOString(), caution: CAUTION, ...(ps.set.title ? { probeSet: ps.set.title } : {}) };
         seriesFiles[`series-${i + 1}-history.csv`] = new TextEncoder().encode(historyCsv(st.table, ctx));

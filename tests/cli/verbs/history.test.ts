@@ -85,7 +85,8 @@ describe('fieldtally history', () => {
     const probes = join(dir, 'osc.probes.json');
     writeFileSync(probes, JSON.stringify({ format: 'fieldtally-probe-set', version: 2, reference: { length: 0.2, speed: 2 },
       probes: [{ id: 'mid', kind: 'cut-plane', geometry: { origin: [0.5, 0.5, 0.5], normal: [1, 0, 0] }, fields: { velocity: 'velocity', pressure: 'p', density: 1 } }] }));
-    const j = await run('history', join(folder, 'osc.*.vtu'), '--probes', probes, '--json');
+    // one thread: every step after the first reuses the mesh (on N threads each run of steps builds it once; tests/parallel/seriesWorkers.test.ts)
+    const j = await run('history', join(folder, 'osc.*.vtu'), '--probes', probes, '--json', '--workers', '1');
     expect(j.code).toBe(0);
     const doc = JSON.parse(j.out);
     expect(doc.timeSource).toBe('field-data');
