@@ -6,6 +6,7 @@
  * gradient with μ of the reference conditions, or none — and the pin says which; the lift direction is
  * the reference conditions' (set, or derived by the stated rule, which the result then states).
  */
+import { SHEAR_NAME } from '../surface/surfaceLoads.ts';
 import type GUI from 'lil-gui';
 import type * as THREE from 'three';
 import { PROBE_SET_FORMAT, PROBE_SET_VERSION, type ForceProbe, type Probe, type ReferenceDoc } from '../study/probeSet.ts';
@@ -22,7 +23,6 @@ const ID = 'force-1';
 export type ViscousChoice = 'wall-shear' | 'gradient' | 'none';
 
 /** Wall-shear arrays by name, as the force evaluator finds them (src/surface/surfaceLoads.ts). */
-const SHEAR_NAME = /^(wall[ _-]?shear[ _-]?stress(es)?|wall[ _-]?shear|wss|tau[ _-]?w(all)?)$/i;
 const VELOCITY_NAME = /^(velocity|velocities|u|vel|flow[ _-]?velocity)$/i;
 
 /** Pin keys of a force total, in order. */

@@ -73,7 +73,8 @@ export interface SurfaceLoads {
 }
 
 const PRESSURE_NAME = /^(p|pressure|static[ _-]?pressure|p[ _-]?static|pres)$/i;
-const SHEAR_NAME = /^(skin[ _-]?friction|wall[ _-]?shear[ _-]?stress(es)?|wall[ _-]?shear|wss|tau[ _-]?w(all)?)$/i;
+/** Names of a wall-shear-stress array found without being named (any case; users name their own with an option). */
+export const SHEAR_NAME = /^(skin[ _-]?friction|wall[ _-]?shear[ _-]?stress(es)?|wall[ _-]?shear|wss|tau[ _-]?w(all)?)$/i;
 const VELOCITY_NAME = /^(velocity|velocities|u|vel|flow[ _-]?velocity)$/i;
 
 /** A field present in every piece that owns a selected face, by name or pattern; point data first. */

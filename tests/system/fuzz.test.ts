@@ -29,10 +29,16 @@ interface Outcome { file: string; label: string; keepsCounts: boolean; kind: 'ok
 
 let work = '', child = '';
 
+/** Originals larger than this are left out: every mutant of a file is held in memory while it is written. */
+const MAX_ORIGINAL_BYTES = 8 * 1024 * 1024;
+
+/** Result files under `dir`, leaving out the benchmark files (`large/`, git-ignored) and anything above the size cap. */
 function walk(dir: string): string[] {
   return readdirSync(dir).flatMap((f) => {
     const p = join(dir, f);
-    return statSync(p).isDirectory() ? walk(p) : /\.(vtk|vtu|vtp|pvtu|vtm)$/.test(f) ? [p] : [];
+    const st = statSync(p);
+    if (st.isDirectory()) return f === 'large' ? [] : walk(p);
+    return /\.(vtk|vtu|vtp|pvtu|vtm)$/.test(f) && st.size <= MAX_ORIGINAL_BYTES ? [p] : [];
   });
 }
 
@@ -86,7 +92,7 @@ async function runAll(files: string[]): Promise<Omit<Outcome, 'label' | 'keepsCo
 beforeAll(async () => {
   work = mkdtempSync(join(tmpdir(), 'fieldtally-fuzz-'));
   cpSync(EXTERNAL, join(work, 'external'), { recursive: true });
-  cpSync(SAMPLES, join(work, 'samples'), { recursive: true });
+  cpSync(SAMPLES, join(work, 'samples'), { recursive: true, filter: (src) => basename(src) !== 'large' });
   child = join(work, 'fuzzChild.mjs');
   await build({ entryPoints: [join(__dirname, 'fuzzChild.ts')], bundle: true, platform: 'node', format: 'esm', outfile: child, logLevel: 'error' });
 }, 120_000);

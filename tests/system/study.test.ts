@@ -201,7 +201,7 @@ describe('a study in the app', () => {
     await page.waitForSelector('[data-pin="force-1"] [data-quantity="CD"]');
     await waitIdle(page);
     const cd = 24 / s.Re;
-    expect(await page.locator('[data-pin="force-1"] [data-quantity="tag"]').innerText()).toBe('viscous: wall-shear array "wallShearStress"');
+    expect(await page.locator('[data-pin="force-1"] [data-quantity="tag"]').innerText()).toBe('viscous: wall-shear array "skinFriction"');
     const wall = await pinNumber('force-1', 'CD');
     expect(Math.abs(wall / cd - 1)).toBeLessThan(0.03);
     const lib = cli('force', SPHERE, '--groups', 'group 1', '--rho', String(s.rho), '--speed', String(s.U), '--area', String(s.frontalArea)) as { coefficients: { drag: number } };
@@ -241,7 +241,8 @@ describe('a study in the app', () => {
 
   it('undo and redo every probe, label and reference change; Delete removes the selected probe; "remove all" can be undone', async () => {
     const pins = () => page.locator('[data-pin]').evaluateAll((els) => els.map((e) => (e as HTMLElement).dataset['pin']!).sort());
-    const steps = () => page.evaluate(() => Number(document.body.dataset['undoSteps'] ?? 0));
+    /** The undo depth once the app has settled: an undo or a change still being kept (after a quiet 250 ms) has landed. */
+    const steps = async () => { await page.waitForTimeout(400); await waitIdle(page); return page.evaluate(() => Number(document.body.dataset['undoSteps'] ?? 0)); };
     const blur = () => page.evaluate(() => (document.activeElement as HTMLElement | null)?.blur());
     /** Waits until the change just made is an undo step of its own (the set is kept after a quiet 250 ms). */
     const stepAfter = async (n: number) => { await page.waitForFunction((k) => Number(document.body.dataset['undoSteps'] ?? 0) > k, n); await waitIdle(page); };
@@ -361,7 +362,8 @@ describe('a study in the app', () => {
     // a bad file is refused with its line, and the points already shown stay
     writeFileSync(csv, 'r/R,u\n0,0.1\n0.5,fast\n');
     await page.setInputFiles('#chart-pane .chart-measured-input', csv);
-    expect(await page.locator('#chart-pane .chart-message').innerText()).toMatch(/^Measured points not read: fieldtally-measured-\d+\.csv: line 3: column 2 is not a finite number \("fast"\)$/);
+    // the file is read asynchronously: wait for its message
+    await expect.poll(() => page.locator('#chart-pane .chart-message').innerText(), { timeout: 10_000 }).toMatch(/^Measured points not read: fieldtally-measured-\d+\.csv: line 3: column 2 is not a finite number \("fast"\)$/);
     await page.locator('#chart-pane .chart-enlarge').click();
     const h = await page.locator('#chart-pane').evaluate((e) => e.getBoundingClientRect().height / window.innerHeight);
     expect(h).toBeGreaterThan(0.45);
@@ -452,6 +454,9 @@ describe('a study in the app', () => {
     await waitIdle(page);
     const id = await page.evaluate(() => document.body.dataset['selected']!);
     const head = page.locator(`table.results tr.probe-head[data-probe="${id}"]`);
+    // the undo depth once every earlier change has been kept (after a quiet 250 ms)
+    await page.waitForTimeout(400);
+    await waitIdle(page);
     const n = await page.evaluate(() => Number(document.body.dataset['undoSteps'] ?? 0));
     await head.locator('.probe-label').dblclick();
     await head.locator('input.probe-label-input').fill('Outlet station');
