@@ -45,7 +45,7 @@ const history: Verb = {
   async run(argv, io) {
     const args = parseArgs(argv, this.options, 'history');
     const probesPath = str(args, 'probes');
-    if (!probesPath) throw new Error('--probes set.json is required (a probe-set file; see `fieldtally probes --help`)');
+    if (!probesPath) throw new Error('--probes set.json is required (a probe-set file; see `fieldtally check-probes --help`)');
     const modes = [args.options.csv, args.options.json, str(args, 'out')].filter(Boolean).length;
     if (modes > 1) throw new Error('choose one of --csv, --json and --out');
     const from = str(args, 'from') === undefined ? undefined : parseNumber(str(args, 'from')!, 'from');

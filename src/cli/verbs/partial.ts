@@ -40,7 +40,7 @@ const partial: Verb = {
     const args = parseArgs(argv, this.options, 'partial');
     const probesPath = str(args, 'probes'), out = str(args, 'out');
     if (args.positional.length !== 1) throw new Error(`give exactly one piece set (.pvtu, .vtm …), got ${args.positional.length} file names`);
-    if (!probesPath) throw new Error('--probes set.json is required (a probe-set file; see `fieldtally probes --help`)');
+    if (!probesPath) throw new Error('--probes set.json is required (a probe-set file; see `fieldtally check-probes --help`)');
     if (!out) throw new Error('--out part.json is required (the partial-results file to write)');
     const tasks = wholeNumber(str(args, 'tasks'), 'tasks', 1, MAX_TASKS);
     const task = wholeNumber(str(args, 'task'), 'task', 0, tasks - 1);

@@ -15,8 +15,9 @@ import { reportFolder } from '../../study/reportFolder.ts';
 import type { ReportPicture } from '../../study/reportHtml.ts';
 import { CONVENTIONS, UNITS_STATEMENT, failureLines, resultsText, type FileEvaluation } from '../../study/resultTables.ts';
 import { CAUTION } from '../../study/caution.ts';
-import { parseArgs, parseNumber, str } from '../args.ts';
+import { parseArgs, str } from '../args.ts';
 import { expandInputs } from '../fileGlob.ts';
+import { pictureOptions } from '../pictureOptions.ts';
 import { reportPicture } from '../reportPicture.ts';
 import { writeReportFolder } from '../reportWriter.ts';
 import { toolVersion } from '../studyInputs.ts';
@@ -42,14 +43,8 @@ const reduce: Verb = {
     if (!out) throw new Error('--out dir/ is required (the report folder to write)');
     if (args.positional.length === 0) throw new Error('give the partial-results files of every task (or a pattern such as "parts/part-*.json")');
     const files = expandInputs(args.positional);
-    const size = (name: string, def: number) => {
-      const t = str(args, name);
-      const v = t === undefined ? def : parseNumber(t, name);
-      if (!(Number.isInteger(v) && v >= 64 && v <= 4096)) throw new Error(`--${name}: expected whole pixels from 64 to 4096, got ${t}`);
-      return v;
-    };
-    const width = size('width', 1200), height = size('height', 800);
-    const picture = !args.options['no-pictures'] && (str(args, 'pictures') === undefined || parseNumber(str(args, 'pictures')!, 'pictures') >= 1);
+    const { width, height, maxPictures } = pictureOptions(args);
+    const picture = maxPictures >= 1;
     const parts = files.map((f) => {
       let text: string;
       try { text = readFileSync(f, 'utf8'); } catch (e) { throw new Error(`${f}: cannot be read (${(e as NodeJS.ErrnoException).code ?? (e as Error).message})`); }

@@ -12,8 +12,9 @@ import { reportFolder } from '../../study/reportFolder.ts';
 import type { InputFileInfo, ReportPicture } from '../../study/reportHtml.ts';
 import { CONVENTIONS, UNITS_STATEMENT, failureLines, resultsText, type FileEvaluation } from '../../study/resultTables.ts';
 import { CAUTION } from '../../study/caution.ts';
-import { parseArgs, parseNumber, str } from '../args.ts';
+import { parseArgs, str } from '../args.ts';
 import { expandInputs } from '../fileGlob.ts';
+import { pictureOptions } from '../pictureOptions.ts';
 import { reportPicture } from '../reportPicture.ts';
 import { checkReportFolder, writeReportFolder } from '../reportWriter.ts';
 import { loadInput, readProbeSetFile, toolVersion } from '../studyInputs.ts';
@@ -29,7 +30,6 @@ import type { Verb } from '../verb.ts';
 export const EXIT_PROBE_FAILED = 3;
 
 /** Pictures made at most (one per file, in order). */
-const MAX_PICTURES_DEFAULT = 12;
 
 const report: Verb = {
   summary: 'evaluate a probe set on one or more result files and write a report folder (HTML, CSV, JSON, pictures)',
@@ -58,20 +58,10 @@ const report: Verb = {
     if (!out) throw new Error('--out dir/ is required (the report folder to write)');
     if (args.positional.length === 0) throw new Error('give at least one result file (or a pattern such as "runs/*.vtu")');
     const files = expandInputs(args.positional);
-    const size = (name: string, def: number) => {
-      const t = str(args, name);
-      const v = t === undefined ? def : parseNumber(t, name);
-      if (!(Number.isInteger(v) && v >= 64 && v <= 4096)) throw new Error(`--${name}: expected whole pixels from 64 to 4096, got ${t}`);
-      return v;
-    };
-    const width = size('width', 1200), height = size('height', 800);
-    const picturesText = str(args, 'pictures');
-    if (picturesText !== undefined && args.options['no-pictures']) throw new Error('choose one of --pictures and --no-pictures');
-    const maxPictures = args.options['no-pictures'] ? 0 : picturesText === undefined ? MAX_PICTURES_DEFAULT : parseNumber(picturesText, 'pictures');
-    if (!(Number.isInteger(maxPictures) && (maxPictures >= 1 || args.options['no-pictures']))) throw new Error(`--pictures: expected a whole number of pictures, at least 1, got "${picturesText}" (--no-pictures makes none)`);
+    const { width, height, maxPictures } = pictureOptions(args);
     checkReportFolder(out, { inputs: [probesPath, ...files] });
     const ps = await readProbeSetFile(probesPath);
-    if (ps.fromVersion < ps.set.version) io.err(`note: ${basename(probesPath)} is a version ${ps.fromVersion} probe set; it was upgraded on reading (fieldtally probes ${basename(probesPath)} --upgrade new.json writes the current version)`);
+    if (ps.fromVersion < ps.set.version) io.err(`note: ${basename(probesPath)} is a version ${ps.fromVersion} probe set; it was upgraded on reading (fieldtally check-probes ${basename(probesPath)} --upgrade new.json writes the current version)`);
     const inputs: InputFileInfo[] = [];
     const evaluations: FileEvaluation[] = [];
     const pictures: ReportPicture[] = [];
