@@ -17,6 +17,7 @@ import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { main } from '../../src/cli/main.ts';
 import { loadDatasetFile } from '../../src/io/nodeFiles.ts';
+import { evaluateProbeSet } from '../../src/study/evaluate.ts';
 import { probePoints } from '../../src/locate/pointProbe.ts';
 import type { Dataset } from '../../src/model/dataset.ts';
 import { forceTotals } from '../../src/surface/forces.ts';
@@ -217,5 +218,23 @@ describe('fieldtally force on the DFG field (command line)', () => {
     expect(first.coefficients.drag).toBeCloseTo(coreFirst.cD, 12);
     expect(Math.abs(rel(byDefault.coefficients.drag, REF.cD))).toBeLessThan(1.5e-3);
     expect(byDefault.caution).toMatch(/only as good as the simulation/);
+  });
+});
+
+describe('a probe set on the DFG field (the report path)', () => {
+  it('a force probe with the benchmark\'s reference values gives the core\'s C_D and C_L', async () => {
+    const d = await load('dfg-2d1-fine');
+    const ev = evaluateProbeSet(d, {
+      format: 'fieldtally-probe-set', version: 2,
+      reference: { density: RHO, viscosity: MU, speed: SPEED, area: DIAMETER * DEPTH, dragDirection: [1, 0, 0], liftDirection: [0, 1, 0] },
+      probes: [{ id: 'cylinder', kind: 'force', geometry: { surfaces: [2] } }],
+    });
+    const o = ev.probes[0]!;
+    expect(o.ok, o.notes.join('; ')).toBe(true);
+    const value = (key: string) => o.quantities.find((x) => x.key === key)!.value;
+    const core = await coefficients('dfg-2d1-fine', 'second-order');
+    expect(value('CD')).toBeCloseTo(core.cD, 12);
+    expect(value('CL')).toBeCloseTo(core.cL, 12);
+    expect(Math.abs(rel(value('CD'), REF.cD))).toBeLessThan(1.5e-3);
   });
 });
