@@ -39,9 +39,9 @@ UMEAN = 2.0 * UMAX / 3.0
 DIAMETER = 2 * RADIUS
 DEPTH = 0.1
 
-# Schäfer & Turek (1996), Table 4 as reproduced to more digits in later high-accuracy computations
-# (values as given in the task brief; the 1996 paper's own intervals are c_D 5.57–5.59, c_L 0.0104–0.0110,
-# Δp 0.1172–0.1176 — those intervals from memory)
+# High-accuracy values of the later literature as listed on the TU Dortmund benchmark page for the Re = 20 case
+# (docs/references.md §8); inside the 1996 paper's intervals (c_D 5.57–5.59, c_L 0.0104–0.0110 from memory;
+# Δp 0.1172–0.1176)
 REFERENCE = {'cD': 5.57953523384, 'cL': 0.010618948146, 'dp': 0.11752016697}
 
 # 7-point degree-5 rule on the reference triangle (Radon 1948; weights for area 1, scaled by ½ below)
@@ -327,7 +327,7 @@ def main():
     ap = argparse.ArgumentParser(description=__doc__.split('\n')[0])
     ap.add_argument('--quarter', type=int, default=8, help='coarse cells per eighth of the circle')
     ap.add_argument('--radial', type=int, default=16, help='coarse layers in the O-grid')
-    ap.add_argument('--first', type=float, default=None, help='first coarse layer thickness (default: circle spacing)')
+    ap.add_argument('--first', type=float, default=None, help='first coarse layer thickness (default: half the coarse spacing along the circle)')
     ap.add_argument('--down', type=int, default=24, help='coarse columns downstream')
     ap.add_argument('--write', action='store_true', help='write the field and JSON (to --out)')
     ap.add_argument('--depth', type=float, default=DEPTH, help=f'depth of the wedge layer (default {DEPTH})')
