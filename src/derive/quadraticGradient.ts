@@ -47,6 +47,12 @@ let ring = new Int32Array(256);
 let stamp = new Int32Array(0);
 
 /**
+ * The neighbours and scale of the last `fitSite`: the site's fit runs over `list[lo .. hi-1]` with offsets
+ * scaled by `ih` (1 / RMS neighbour distance); its normal matrix is factorised in the module's scratch.
+ */
+export const lastSite: { list: Int32Array; lo: number; hi: number; ih: number } = { list: ring, lo: 0, hi: 0, ih: 0.5 };
+
+/**
  * Gradients at the `targets` sites (default: every site). `positions` holds one xyz per site, `values`
  * `nc` components per site, `stencil` each site's one-ring of neighbours. Returns a new Float64Array of
  * `targets.length · nc · 3` (see the file comment). A site with no neighbours gets NaN.
@@ -62,27 +68,44 @@ export function quadraticGradient(positions: Float64Array, values: NumericArray,
 /**
  * The gradients of sites `from .. to-1` (indices into `targets`, or sites themselves when `targets` is
  * undefined), written to `out` from `outStart` on in the layout of `quadraticGradient` (site `from`
- * first). Exposed so a caller can split the sites into shares (workers) that each fill their own slice;
- * every site's result is the same whichever share computes it.
+ * first); `ringSizes[k]`, when given, receives the number of neighbours site k's fit used. A caller may split the sites into shares that each fill their own slice: every site's result
+ * is the same whichever share computes it.
  */
 export function gradientInto(out: Float64Array, outStart: number, positions: Float64Array, values: NumericArray, nc: number,
-  stencil: Stencil, targets: Int32Array | undefined, from: number, to: number): void {
-  const nSites = positions.length / 3;
+  stencil: Stencil, targets: Int32Array | undefined, from: number, to: number, ringSizes?: Int32Array): void {
   if (B.length < 9 * nc) { B = new Float64Array(9 * nc); Y = new Float64Array(9 * nc); }
-  if (stamp.length < nSites) stamp = new Int32Array(nSites);
-  stamp.fill(-1, 0, nSites);
-  const so = stencil.offsets, sid = stencil.ids;
+  beginSites(positions.length / 3);
   for (let k = from; k < to; k++) {
     const i = targets ? targets[k]! : k;
     const ob = outStart + (k - from) * nc * 3;
-    let ok = fit(positions, values, nc, i, sid, so[i]!, so[i + 1]!, true);
-    if (ok < WIDEN_TOLERANCE) {
-      const m = twoRing(so, sid, i, k);
-      ok = fit(positions, values, nc, i, ring, 0, m, false);
-    }
+    const ok = fitSite(positions, stencil, i, k);
+    if (ringSizes) ringSizes[k] = ok < 0 ? 0 : lastSite.hi - lastSite.lo;
     if (ok < 0) { for (let c = 0; c < 3 * nc; c++) out[ob + c] = NaN; continue; }
+    solveSite(positions, values, nc, i);
     for (let c = 0; c < nc; c++) { out[ob + 3 * c] = Y[9 * c]!; out[ob + 3 * c + 1] = Y[9 * c + 1]!; out[ob + 3 * c + 2] = Y[9 * c + 2]!; }
   }
+}
+
+/** Readies the two-ring marks for a pass over sites of a set of `nSites`; call before a run of `fitSite`. */
+export function beginSites(nSites: number): void {
+  if (stamp.length < nSites) stamp = new Int32Array(nSites);
+  stamp.fill(-1, 0, nSites);
+}
+
+/**
+ * Chooses site `i`'s neighbours (its one-ring, or the two-ring when the one-ring is one-sided or
+ * ill-conditioned), leaves them in `lastSite` and the factorised normal matrix in the module's scratch.
+ * `mark` must differ between calls since the last `beginSites`. Returns the fit's smallest relative
+ * pivot (0 when an unknown was dropped), or −1 when the site has no neighbour at all.
+ */
+export function fitSite(positions: Float64Array, stencil: Stencil, i: number, mark: number): number {
+  const so = stencil.offsets, sid = stencil.ids;
+  let ok = fitGeometry(positions, i, sid, so[i]!, so[i + 1]!, true);
+  if (ok >= WIDEN_TOLERANCE) { lastSite.list = sid; lastSite.lo = so[i]!; lastSite.hi = so[i + 1]!; return ok; }
+  const m = twoRing(so, sid, i, mark);
+  ok = fitGeometry(positions, i, ring, 0, m, false);
+  lastSite.list = ring; lastSite.lo = 0; lastSite.hi = m;
+  return ok;
 }
 
 /** Gathers the two-ring of site `i` (without `i`) into `ring`; returns its length. `mark` is unique per call. */
@@ -103,13 +126,12 @@ function twoRing(so: Int32Array, sid: Int32Array, i: number, mark: number): numb
 }
 
 /**
- * Fits the quadratic at site `i` over neighbours `list[lo..hi-1]`; leaves the gradient (field unit per
- * length unit) in `Y[9c + 0..2]`. Returns the smallest relative pivot of the kept unknowns among the
- * gradient and curvature terms (1 = perfectly conditioned), 0 when an unknown was dropped, −1 when
+ * Sums and factorises the normal matrix of the quadratic fit at site `i` over neighbours
+ * `list[lo..hi-1]` (sets `lastSite.ih`). Returns the smallest relative pivot of the kept unknowns among
+ * the gradient and curvature terms (1 = perfectly conditioned), 0 when an unknown was dropped, −1 when
  * there is no neighbour at all, SKEWED (without fitting) when `skipOneSided` and the ring is one-sided.
  */
-function fit(positions: Float64Array, values: NumericArray, nc: number, i: number, list: Int32Array, lo: number, hi: number,
-  skipOneSided: boolean): number {
+function fitGeometry(positions: Float64Array, i: number, list: Int32Array, lo: number, hi: number, skipOneSided: boolean): number {
   const x0 = positions[3 * i]!, y0 = positions[3 * i + 1]!, z0 = positions[3 * i + 2]!;
   let h2 = 0, used = 0, mx = 0, my = 0, mz = 0;
   for (let s = lo; s < hi; s++) {
@@ -119,13 +141,50 @@ function fit(positions: Float64Array, values: NumericArray, nc: number, i: numbe
   }
   if (used === 0) return -1;
   const ih = 1 / Math.sqrt(h2 / used);
+  lastSite.ih = ih;
   if (skipOneSided && Math.hypot(mx, my, mz) / used * ih > ONE_SIDED) return SKEWED;
   // weighted moments Σ w x^a y^b z^c of degree 2 (s), 3 (t) and 4 (q) in scaled offsets
   let sxx = 0, syy = 0, szz = 0, sxy = 0, sxz = 0, syz = 0;
   let txxx = 0, txxy = 0, txxz = 0, txyy = 0, tyyy = 0, tyyz = 0, txzz = 0, tyzz = 0, tzzz = 0, txyz = 0;
   let qxxxx = 0, qyyyy = 0, qzzzz = 0, qxxxy = 0, qxxxz = 0, qxyyy = 0, qyyyz = 0, qxzzz = 0, qyzzz = 0;
   let qxxyy = 0, qxxzz = 0, qyyzz = 0, qxxyz = 0, qxyyz = 0, qxyzz = 0;
-  // right-hand sides Σ w a_k Δf for components 0 … 2 (the ½ of the square terms applied after the sum)
+  for (let s = lo; s < hi; s++) {
+    const q = 3 * list[s]!;
+    const x = (positions[q]! - x0) * ih, y = (positions[q + 1]! - y0) * ih, z = (positions[q + 2]! - z0) * ih;
+    const r2 = x * x + y * y + z * z;
+    if (!(r2 > 0)) continue;
+    const w = 1 / r2;
+    const wx = w * x, wy = w * y, wz = w * z;
+    const wxx = wx * x, wyy = wy * y, wzz = wz * z, wxy = wx * y;
+    const xx = x * x, yy = y * y, zz = z * z, xy = x * y, xz = x * z, yz = y * z;
+    sxx += wxx; syy += wyy; szz += wzz; sxy += wxy; sxz += wx * z; syz += wy * z;
+    txxx += wxx * x; txxy += wxx * y; txxz += wxx * z; txyy += wyy * x; tyyy += wyy * y; tyyz += wyy * z;
+    txzz += wzz * x; tyzz += wzz * y; tzzz += wzz * z; txyz += wxy * z;
+    qxxxx += wxx * xx; qyyyy += wyy * yy; qzzzz += wzz * zz; qxxxy += wxx * xy; qxxxz += wxx * xz; qxyyy += wyy * xy;
+    qyyyz += wyy * yz; qxzzz += wzz * xz; qyzzz += wzz * yz; qxxyy += wxx * yy; qxxzz += wxx * zz; qyyzz += wyy * zz;
+    qxxyz += wxx * yz; qxyyz += wyy * xz; qxyzz += wzz * xy;
+  }
+  // the normal matrix of the unknowns (g_x, g_y, g_z, H_xx, H_yy, H_zz, H_xy, H_xz, H_yz), packed upper
+  // triangle: entry (a, b) = Σ w m_a m_b with m = (x, y, z, ½x², ½y², ½z², xy, xz, yz)
+  Mp[0] = sxx; Mp[1] = sxy; Mp[2] = sxz; Mp[3] = 0.5 * txxx; Mp[4] = 0.5 * txyy; Mp[5] = 0.5 * txzz; Mp[6] = txxy; Mp[7] = txxz; Mp[8] = txyz;
+  Mp[9] = syy; Mp[10] = syz; Mp[11] = 0.5 * txxy; Mp[12] = 0.5 * tyyy; Mp[13] = 0.5 * tyzz; Mp[14] = txyy; Mp[15] = txyz; Mp[16] = tyyz;
+  Mp[17] = szz; Mp[18] = 0.5 * txxz; Mp[19] = 0.5 * tyyz; Mp[20] = 0.5 * tzzz; Mp[21] = txyz; Mp[22] = txzz; Mp[23] = tyzz;
+  Mp[24] = 0.25 * qxxxx; Mp[25] = 0.25 * qxxyy; Mp[26] = 0.25 * qxxzz; Mp[27] = 0.5 * qxxxy; Mp[28] = 0.5 * qxxxz; Mp[29] = 0.5 * qxxyz;
+  Mp[30] = 0.25 * qyyyy; Mp[31] = 0.25 * qyyzz; Mp[32] = 0.5 * qxyyy; Mp[33] = 0.5 * qxyyz; Mp[34] = 0.5 * qyyyz;
+  Mp[35] = 0.25 * qzzzz; Mp[36] = 0.5 * qxyzz; Mp[37] = 0.5 * qxzzz; Mp[38] = 0.5 * qyzzz;
+  Mp[39] = qxxyy; Mp[40] = qxxyz; Mp[41] = qxyyz;
+  Mp[42] = qxxzz; Mp[43] = qxyzz;
+  Mp[44] = qyyzz;
+  return factorNine(Mp, Lp, inv, PIVOT_TOLERANCE);
+}
+
+/**
+ * After `fitSite(…, i, …)`: sums the right-hand sides Σ w m_a Δf over `lastSite`'s neighbours for the
+ * `nc` components of `values` and solves; leaves the gradient (field unit per length unit) in `Y[9c + 0..2]`.
+ */
+function solveSite(positions: Float64Array, values: NumericArray, nc: number, i: number): void {
+  const { list, lo, hi, ih } = lastSite;
+  const x0 = positions[3 * i]!, y0 = positions[3 * i + 1]!, z0 = positions[3 * i + 2]!;
   let b0_0 = 0, b1_0 = 0, b2_0 = 0, b3_0 = 0, b4_0 = 0, b5_0 = 0, b6_0 = 0, b7_0 = 0, b8_0 = 0;
   let b0_1 = 0, b1_1 = 0, b2_1 = 0, b3_1 = 0, b4_1 = 0, b5_1 = 0, b6_1 = 0, b7_1 = 0, b8_1 = 0;
   let b0_2 = 0, b1_2 = 0, b2_2 = 0, b3_2 = 0, b4_2 = 0, b5_2 = 0, b6_2 = 0, b7_2 = 0, b8_2 = 0;
@@ -140,13 +199,6 @@ function fit(positions: Float64Array, values: NumericArray, nc: number, i: numbe
     const w = 1 / r2;
     const wx = w * x, wy = w * y, wz = w * z;
     const wxx = wx * x, wyy = wy * y, wzz = wz * z, wxy = wx * y, wxz = wx * z, wyz = wy * z;
-    const xx = x * x, yy = y * y, zz = z * z, xy = x * y, xz = x * z, yz = y * z;
-    sxx += wxx; syy += wyy; szz += wzz; sxy += wxy; sxz += wxz; syz += wyz;
-    txxx += wxx * x; txxy += wxx * y; txxz += wxx * z; txyy += wyy * x; tyyy += wyy * y; tyyz += wyy * z;
-    txzz += wzz * x; tyzz += wzz * y; tzzz += wzz * z; txyz += wxy * z;
-    qxxxx += wxx * xx; qyyyy += wyy * yy; qzzzz += wzz * zz; qxxxy += wxx * xy; qxxxz += wxx * xz; qxyyy += wyy * xy;
-    qyyyz += wyy * yz; qxzzz += wzz * xz; qyzzz += wzz * yz; qxxyy += wxx * yy; qxxzz += wxx * zz; qyyzz += wyy * zz;
-    qxxyz += wxx * yz; qxyyz += wyy * xz; qxyzz += wzz * xy;
     const g0 = values[j * nc]! - f0;
     b0_0 += wx * g0; b1_0 += wy * g0; b2_0 += wz * g0; b3_0 += wxx * g0; b4_0 += wyy * g0; b5_0 += wzz * g0; b6_0 += wxy * g0; b7_0 += wxz * g0; b8_0 += wyz * g0;
     if (nc === 3) {
@@ -161,17 +213,7 @@ function fit(positions: Float64Array, values: NumericArray, nc: number, i: numbe
       }
     }
   }
-  // the normal matrix of the unknowns (g_x, g_y, g_z, H_xx, H_yy, H_zz, H_xy, H_xz, H_yz), packed upper
-  // triangle: entry (a, b) = Σ w m_a m_b with m = (x, y, z, ½x², ½y², ½z², xy, xz, yz)
-  Mp[0] = sxx; Mp[1] = sxy; Mp[2] = sxz; Mp[3] = 0.5 * txxx; Mp[4] = 0.5 * txyy; Mp[5] = 0.5 * txzz; Mp[6] = txxy; Mp[7] = txxz; Mp[8] = txyz;
-  Mp[9] = syy; Mp[10] = syz; Mp[11] = 0.5 * txxy; Mp[12] = 0.5 * tyyy; Mp[13] = 0.5 * tyzz; Mp[14] = txyy; Mp[15] = txyz; Mp[16] = tyyz;
-  Mp[17] = szz; Mp[18] = 0.5 * txxz; Mp[19] = 0.5 * tyyz; Mp[20] = 0.5 * tzzz; Mp[21] = txyz; Mp[22] = txzz; Mp[23] = tyzz;
-  Mp[24] = 0.25 * qxxxx; Mp[25] = 0.25 * qxxyy; Mp[26] = 0.25 * qxxzz; Mp[27] = 0.5 * qxxxy; Mp[28] = 0.5 * qxxxz; Mp[29] = 0.5 * qxxyz;
-  Mp[30] = 0.25 * qyyyy; Mp[31] = 0.25 * qyyzz; Mp[32] = 0.5 * qxyyy; Mp[33] = 0.5 * qxyyz; Mp[34] = 0.5 * qyyyz;
-  Mp[35] = 0.25 * qzzzz; Mp[36] = 0.5 * qxyzz; Mp[37] = 0.5 * qxzzz; Mp[38] = 0.5 * qyzzz;
-  Mp[39] = qxxyy; Mp[40] = qxxyz; Mp[41] = qxyyz;
-  Mp[42] = qxxzz; Mp[43] = qxyzz;
-  Mp[44] = qyyzz;
+  // the ½ of the square terms' monomials, applied once after the sums
   B[0] = b0_0; B[1] = b1_0; B[2] = b2_0; B[3] = 0.5 * b3_0; B[4] = 0.5 * b4_0; B[5] = 0.5 * b5_0; B[6] = b6_0; B[7] = b7_0; B[8] = b8_0;
   if (nc === 3) {
     B[9] = b0_1; B[10] = b1_1; B[11] = b2_1; B[12] = 0.5 * b3_1; B[13] = 0.5 * b4_1; B[14] = 0.5 * b5_1; B[15] = b6_1; B[16] = b7_1; B[17] = b8_1;
@@ -179,11 +221,35 @@ function fit(positions: Float64Array, values: NumericArray, nc: number, i: numbe
   } else if (wide) {
     for (let c = 1; c < nc; c++) { B[9 * c + 3]! *= 0.5; B[9 * c + 4]! *= 0.5; B[9 * c + 5]! *= 0.5; }
   }
-  const worst = factorNine(Mp, Lp, inv, PIVOT_TOLERANCE);
   for (let c = 0; c < nc; c++) {
     const o = 9 * c;
     gradientNine(Lp, inv, B, Y, o);
     Y[o]! *= ih; Y[o + 1]! *= ih; Y[o + 2]! *= ih;
   }
-  return worst;
 }
+
+/**
+ * After `fitSite(…, i, …)`: the gradient's weights of `lastSite`'s neighbours, so that for any field
+ * ∂f/∂x_k at site i = Σ_s c[3s + k]·(f(list[s]) − f(i)) (per length unit). Writes 3 values per neighbour
+ * to `c` from `at` on (`hi − lo` neighbours, in list order).
+ */
+export function siteWeights(positions: Float64Array, i: number, c: Float64Array, at: number): void {
+  const { list, lo, hi, ih } = lastSite;
+  // rows 0 … 2 of the (pivot-dropping) inverse: the solve applied to each unit right-hand side
+  for (let l = 0; l < 9; l++) { B.fill(0, 0, 9); B[l] = 1; gradientNine(Lp, inv, B, Y, 0); R[l] = Y[0]!; R[9 + l] = Y[1]!; R[18 + l] = Y[2]!; }
+  const x0 = positions[3 * i]!, y0 = positions[3 * i + 1]!, z0 = positions[3 * i + 2]!;
+  for (let s = lo, o = at; s < hi; s++, o += 3) {
+    const q = 3 * list[s]!;
+    const x = (positions[q]! - x0) * ih, y = (positions[q + 1]! - y0) * ih, z = (positions[q + 2]! - z0) * ih;
+    const r2 = x * x + y * y + z * z;
+    if (!(r2 > 0)) { c[o] = 0; c[o + 1] = 0; c[o + 2] = 0; continue; }
+    const w = 1 / r2;
+    const m0 = w * x, m1 = w * y, m2 = w * z, m3 = 0.5 * m0 * x, m4 = 0.5 * m1 * y, m5 = 0.5 * m2 * z, m6 = m0 * y, m7 = m0 * z, m8 = m1 * z;
+    for (let k = 0; k < 3; k++) {
+      const r = 9 * k;
+      c[o + k] = ih * (R[r]! * m0 + R[r + 1]! * m1 + R[r + 2]! * m2 + R[r + 3]! * m3 + R[r + 4]! * m4 + R[r + 5]! * m5
+        + R[r + 6]! * m6 + R[r + 7]! * m7 + R[r + 8]! * m8);
+    }
+  }
+}
+const R = new Float64Array(27);
