@@ -26,13 +26,19 @@ interface GeometryEntry {
   cell?: Sites;
   /** The last prepared node set (e.g. a wall's nodes), kept for the next field on the same mesh. */
   prepared?: PreparedGradient;
-  /** The last node list fitted directly, with each node's neighbour count (prepared if asked again). */
-  seen?: { nodes: Int32Array; ringSizes: Int32Array };
+  /** The last node list fitted directly, each node's neighbour count, and how many requests in a row asked for it. */
+  seen?: { nodes: Int32Array; ringSizes: Int32Array; requests: number };
 }
 
 /** Entries by connectivity array (several when meshes share it but differ in points or offsets). */
 const byConnectivity = new WeakMap<Int32Array, GeometryEntry[]>();
 const gradients = new WeakMap<object, Float64Array>();
+/**
+ * The request for the same wall nodes at which their weights are prepared: preparing costs about two direct
+ * fits (the weights are fresh memory), so a single report asking for a wall twice (force, then wall
+ * quantities) stays direct, and a series pays it back from its fourth step on.
+ */
+export const PREPARE_AFTER = 3;
 
 function geometryOf(p: Piece): GeometryEntry {
   let list = byConnectivity.get(p.connectivity);
@@ -65,21 +71,22 @@ export function fieldGradient(p: Piece, f: FieldArray): Float64Array {
 }
 
 /**
- * Gradient of a point field at chosen nodes only (`nodes` local to `p`), same layout per node. The first
- * request for a node list on a mesh fits directly and remembers the list; a second request for the same
- * list prepares the fit's weights (preparedGradient.ts) and keeps them for every later field, until
- * another list is asked for. Past the memory budget the fit always runs directly.
+ * Gradient of a point field at chosen nodes only (`nodes` local to `p`), same layout per node. Requests for a
+ * node list on a mesh fit directly and remember the list; the PREPARE_AFTER-th request in a row for the same
+ * list prepares the fit's weights (preparedGradient.ts) and keeps them for every later field, until another
+ * list is asked for. Past the memory budget the fit always runs directly.
  */
 export function pointGradientAt(p: Piece, f: FieldArray, nodes: Int32Array): Float64Array {
   const s = sitesOf(p, 'point'), e = geometryOf(p);
   if (e.prepared && sameIds(e.prepared.targets, nodes)) return applyGradient(e.prepared, f.values, f.components);
-  if (e.seen && sameIds(e.seen.nodes, nodes)) {
-    const prepared = prepareGradient(s.positions, s.stencil, nodes, e.seen.ringSizes);
+  const seen = e.seen && sameIds(e.seen.nodes, nodes) ? e.seen : undefined;
+  if (seen && seen.requests + 1 >= PREPARE_AFTER) {
+    const prepared = prepareGradient(s.positions, s.stencil, nodes, seen.ringSizes);
     if (prepared) { e.prepared = prepared; e.seen = undefined; return applyGradient(prepared, f.values, f.components); }
   }
   const ringSizes = new Int32Array(nodes.length), out = new Float64Array(3 * f.components * nodes.length);
   gradientInto(out, 0, s.positions, f.values, f.components, s.stencil, nodes, 0, nodes.length, ringSizes);
-  e.seen = { nodes: nodes.slice(), ringSizes };
+  e.seen = { nodes: seen ? seen.nodes : nodes.slice(), ringSizes, requests: (seen ? seen.requests : 0) + 1 };
   return out;
 }
 

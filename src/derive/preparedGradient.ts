@@ -11,8 +11,8 @@
  *
  * Memory: 28 bytes per neighbour entry (3 weights and an index); a wall node's one-sided fit uses its
  * two-ring, 40–80 neighbours. `prepareGradient` gives up (returns null) past `budgetBytes`. Writing the
- * weights touches that much fresh memory, which costs more than one direct fit, so callers prepare on the
- * second request for the same sites (fieldGradient.ts).
+ * weights touches that much fresh memory, which costs about as much as another direct fit, so callers
+ * prepare on the third request in a row for the same sites (fieldGradient.ts, PREPARE_AFTER).
  */
 import type { NumericArray } from '../model/fieldArray.ts';
 import { beginSites, fitSite, lastSite, siteWeights } from './quadraticGradient.ts';

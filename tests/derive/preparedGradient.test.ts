@@ -3,11 +3,11 @@
  * AIAA 90-0013, k-exact with k = 2) reduced to neighbour weights once per mesh and node list. Checks:
  *  - the weights give the fit's own answer: exact on a quadratic vector field on every cell type, and the
  *    same numbers as the direct fit (to rounding) on a smooth field, for 1, 2 and 3 components;
- *  - `pointGradientAt` fits directly on the first request, prepares on the second and reuses the weights
- *    after, for new values on the same mesh (a series' steps), and a new piece object on the same geometry
- *    arrays shares the cache;
+ *  - `pointGradientAt` fits directly on the first requests, prepares on the PREPARE_AFTER-th and reuses the
+ *    weights after, for new values on the same mesh (a series' steps), and a new piece object on the same
+ *    geometry arrays shares the cache;
  *  - Hagen–Poiseuille wall shear τ_w = 4μV/R (Hagen 1839, Poiseuille 1840; on the n_θ-sided faceted wall
- *    τ_w·cos(π/n_θ) per face) on three successive steps of one mesh with mean speeds V, 2V and V/2.
+ *    τ_w·cos(π/n_θ) per face) on five successive steps of one mesh with mean speeds V, 2V, V/2, 3V and V/4.
  */
 import { describe, expect, it } from 'vitest';
 import { pointGradientAt, sitesOf } from '../../src/derive/fieldGradient.ts';
@@ -88,11 +88,12 @@ describe('prepared weights reproduce the fit', () => {
 });
 
 describe('pointGradientAt: direct, then prepared, then reused across steps on one mesh', () => {
+
   it('gives the direct fit\'s numbers on every request, new values each time, and shares the cache with a piece on the same arrays', () => {
     const p = boxMesh('wedge', 6, 5, 4, 0.3), n = p.points.length / 3;
     const nodes = Int32Array.from({ length: 40 }, (_, k) => (11 * k) % n);
     const { values } = vectorField(p);
-    const steps = [1, -2, 0.5, 3].map((a) => values.map((v, i) => a * v + Math.sin(i)));
+    const steps = [1, -2, 0.5, 3, -1.5].map((a) => values.map((v, i) => a * v + Math.sin(i)));
     // the second piece object holds the same geometry arrays (a later step of a series)
     const later: Piece = { ...p, pointData: [] };
     expect(sitesOf(later, 'point')).toBe(sitesOf(p, 'point'));
@@ -109,12 +110,12 @@ describe('pointGradientAt: direct, then prepared, then reused across steps on on
 });
 
 describe('Hagen–Poiseuille wall shear on successive steps of one mesh', () => {
-  it('τ_w = 4μV/R·cos(π/n_θ) on every face for V, 2V and V/2 (direct, prepared, reused)', () => {
+  it('τ_w = 4μV/R·cos(π/n_θ) on every face for V, 2V, V/2, 3V and V/4 (direct, prepared, reused)', () => {
     const e = pipeExact(), d = pipeCase(PIPE_LEVELS.medium), facet = Math.cos(Math.PI / PIPE_LEVELS.medium.nTheta);
     const faces = getBoundaryFaces(d), groups = getSurfaceGroups(d);
     const wall = groups.groups.reduce((b, g, i, all) => (g.area > all[b]!.area ? i : b), 0);
     const sel = facesOfGroups(groups, [wall]);
-    for (const scale of [1, 2, 0.5]) {
+    for (const scale of [1, 2, 0.5, 3, 0.25]) {
       // a new step: the same geometry arrays, new velocity values
       const step: Dataset = {
         ...d, pieces: d.pieces.map((p) => ({
