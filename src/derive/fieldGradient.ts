@@ -2,32 +2,57 @@
  * The gradient of a field of one piece, at its own sites: a point field at the nodes (neighbours: nodes
  * sharing a cell), a cell field at the cell centroids (neighbours: cells sharing a node); an
  * ill-conditioned one-ring (boundary faces, edges, corners) is refitted over the two-ring by the kernel.
- * Results and stencils are cached per piece and values array (WeakMaps), so vorticity, Q and λ₂ share
- * one reconstruction. Pieces of a set are reconstructed one by one (a node on a piece's interface gets a
- * one-sided fit, still second order).
+ * Pieces of a set are reconstructed one by one (a node on a piece's interface gets a one-sided fit, still
+ * second order).
+ *
+ * Caches: the sites (positions and stencil) and the prepared wall-node weights depend on the geometry only
+ * and are kept per mesh — keyed by the piece's points, offsets and connectivity arrays, so the steps of a
+ * series that share those arrays (src/series/meshReuse.ts) share them; a gradient is kept per values array
+ * (WeakMap), so vorticity, Q and λ₂ share one reconstruction.
  */
 import type { FieldArray } from '../model/fieldArray.ts';
 import type { Piece } from '../model/piece.ts';
-import { quadraticGradient } from './quadraticGradient.ts';
+import { applyGradient, prepareGradient, type PreparedGradient } from './preparedGradient.ts';
+import { gradientInto, quadraticGradient } from './quadraticGradient.ts';
 import { cellCentres, cellStencil, pointStencil, type Stencil } from './stencils.ts';
 
-interface Sites { positions: Float64Array; stencil: Stencil }
+/** Positions (xyz per site, length unit) and one-ring stencil of a piece's nodes or cells. */
+export interface Sites { positions: Float64Array; stencil: Stencil }
 
-const pointSites = new WeakMap<Piece, Sites>();
-const cellSites = new WeakMap<Piece, Sites>();
+interface GeometryEntry {
+  points: Float64Array;
+  offsets: Int32Array;
+  point?: Sites;
+  cell?: Sites;
+  /** The last prepared node set (e.g. a wall's nodes), kept for the next field on the same mesh. */
+  prepared?: PreparedGradient;
+  /** The last node list fitted directly, each node's neighbour count, and how many requests in a row asked for it. */
+  seen?: { nodes: Int32Array; ringSizes: Int32Array; requests: number };
+}
+
+/** Entries by connectivity array (several when meshes share it but differ in points or offsets). */
+const byConnectivity = new WeakMap<Int32Array, GeometryEntry[]>();
 const gradients = new WeakMap<object, Float64Array>();
+/**
+ * The request for the same wall nodes at which their weights are prepared: preparing costs about two direct
+ * fits (the weights are fresh memory), so a single report asking for a wall twice (force, then wall
+ * quantities) stays direct, and a series pays it back from its fourth step on.
+ */
+export const PREPARE_AFTER = 3;
 
-/** Positions and one-ring stencil of a piece's nodes or cells, built once. */
+function geometryOf(p: Piece): GeometryEntry {
+  let list = byConnectivity.get(p.connectivity);
+  if (!list) { list = []; byConnectivity.set(p.connectivity, list); }
+  let e = list.find((x) => x.points === p.points && x.offsets === p.offsets);
+  if (!e) { e = { points: p.points, offsets: p.offsets }; list.push(e); }
+  return e;
+}
+
+/** Positions and one-ring stencil of a piece's nodes or cells, built once per mesh. */
 export function sitesOf(p: Piece, association: 'point' | 'cell'): Sites {
-  const cache = association === 'point' ? pointSites : cellSites;
-  let s = cache.get(p);
-  if (!s) {
-    s = association === 'point'
-      ? { positions: p.points, stencil: pointStencil(p) }
-      : { positions: cellCentres(p), stencil: cellStencil(p) };
-    cache.set(p, s);
-  }
-  return s;
+  const e = geometryOf(p);
+  if (association === 'point') return (e.point ??= { positions: p.points, stencil: pointStencil(p) });
+  return (e.cell ??= { positions: cellCentres(p), stencil: cellStencil(p) });
 }
 
 /**
@@ -45,8 +70,28 @@ export function fieldGradient(p: Piece, f: FieldArray): Float64Array {
   return g;
 }
 
-/** Gradient of a point field at chosen nodes only (`nodes` local to `p`), same layout per node. */
+/**
+ * Gradient of a point field at chosen nodes only (`nodes` local to `p`), same layout per node. Requests for a
+ * node list on a mesh fit directly and remember the list; the PREPARE_AFTER-th request in a row for the same
+ * list prepares the fit's weights (preparedGradient.ts) and keeps them for every later field, until another
+ * list is asked for. Past the memory budget the fit always runs directly.
+ */
 export function pointGradientAt(p: Piece, f: FieldArray, nodes: Int32Array): Float64Array {
-  const s = sitesOf(p, 'point');
-  return quadraticGradient(s.positions, f.values, f.components, s.stencil, nodes);
+  const s = sitesOf(p, 'point'), e = geometryOf(p);
+  if (e.prepared && sameIds(e.prepared.targets, nodes)) return applyGradient(e.prepared, f.values, f.components);
+  const seen = e.seen && sameIds(e.seen.nodes, nodes) ? e.seen : undefined;
+  if (seen && seen.requests + 1 >= PREPARE_AFTER) {
+    const prepared = prepareGradient(s.positions, s.stencil, nodes, seen.ringSizes);
+    if (prepared) { e.prepared = prepared; e.seen = undefined; return applyGradient(prepared, f.values, f.components); }
+  }
+  const ringSizes = new Int32Array(nodes.length), out = new Float64Array(3 * f.components * nodes.length);
+  gradientInto(out, 0, s.positions, f.values, f.components, s.stencil, nodes, 0, nodes.length, ringSizes);
+  e.seen = { nodes: seen ? seen.nodes : nodes.slice(), ringSizes, requests: (seen ? seen.requests : 0) + 1 };
+  return out;
+}
+
+function sameIds(a: Int32Array, b: Int32Array): boolean {
+  if (a.length !== b.length) return false;
+  for (let i = 0; i < a.length; i++) if (a[i] !== b[i]) return false;
+  return true;
 }

@@ -23,46 +23,58 @@ function pointCells(p: Piece): Stencil {
   for (let k = 0; k < conn.length; k++) count[conn[k]! + 1]!++;
   for (let i = 0; i < np; i++) count[i + 1]! += count[i]!;
   const fill = count.slice(0, np), ids = new Int32Array(conn.length);
-  for (let c = 0; c < nc; c++) for (let k = off[c]!; k < off[c + 1]!; k++) ids[fill[conn[k]!]!++] = c;
+  for (let c = 0, a = off[0]!; c < nc; c++) {
+    const b = off[c + 1]!;
+    for (let k = a; k < b; k++) ids[fill[conn[k]!]!++] = c;
+    a = b;
+  }
   return { offsets: count, ids };
 }
 
-/** Rows of the union of `via(j)` over the entries `j` of `first(i)`, without `i` itself and without repeats. */
-function unionRows(n: number, first: Stencil, second: Stencil, secondIsCells: Piece | null): Stencil {
-  const stamp = new Int32Array(n).fill(-1);
-  let ids = new Int32Array(Math.max(16, 8 * n));
+/**
+ * Rows of the union of `second(j)` over the entries `j` of `first(i)`, without `i` itself and without
+ * repeats, in order of first appearance. Plain typed arrays in, so the loop sees one shape.
+ */
+function unionRows(n: number, firstOff: Int32Array, firstIds: Int32Array, secondOff: Int32Array, secondIds: Int32Array,
+  marks: number, guess: number): Stencil {
+  const stamp = new Int32Array(marks).fill(-1);
+  let ids = new Int32Array(Math.max(16, guess));
   const offsets = new Int32Array(n + 1);
   let o = 0;
   for (let i = 0; i < n; i++) {
-    stamp[i] = i;
-    for (let a = first.offsets[i]!; a < first.offsets[i + 1]!; a++) {
-      const j = first.ids[a]!;
-      const lo = secondIsCells ? secondIsCells.offsets[j]! : second.offsets[j]!;
-      const hi = secondIsCells ? secondIsCells.offsets[j + 1]! : second.offsets[j + 1]!;
-      const src = secondIsCells ? secondIsCells.connectivity : second.ids;
-      for (let b = lo; b < hi; b++) {
-        const q = src[b]!;
+    if (i < marks) stamp[i] = i;
+    const fa = firstOff[i]!, fb = firstOff[i + 1]!;
+    // room for every entry this row could add, so the inner loop never checks capacity
+    let most = 0;
+    for (let a = fa; a < fb; a++) { const j = firstIds[a]!; most += secondOff[j + 1]! - secondOff[j]!; }
+    if (o + most > ids.length) { const grown = new Int32Array(Math.max(2 * ids.length, o + most)); grown.set(ids.subarray(0, o)); ids = grown; }
+    for (let a = fa; a < fb; a++) {
+      const j = firstIds[a]!, hi = secondOff[j + 1]!;
+      for (let b = secondOff[j]!; b < hi; b++) {
+        const q = secondIds[b]!;
         if (stamp[q] === i) continue;
         stamp[q] = i;
-        if (o === ids.length) { const grown = new Int32Array(2 * ids.length); grown.set(ids); ids = grown; }
         ids[o++] = q;
       }
     }
     offsets[i + 1] = o;
   }
-  return { offsets, ids: ids.slice(0, o) };
+  // keep the buffer when little of it is unused (a copy of ~100 MB costs more than the slack)
+  return { offsets, ids: o >= 0.8 * ids.length ? ids.subarray(0, o) : ids.slice(0, o) };
 }
 
 /** Nodes sharing a cell with each node (see the file comment). */
 export function pointStencil(p: Piece): Stencil {
-  return unionRows(p.points.length / 3, pointCells(p), { offsets: new Int32Array(0), ids: new Int32Array(0) }, p);
+  const np = p.points.length / 3, pc = pointCells(p);
+  // a hexahedral lattice node has 26 neighbours, a tetrahedral one about 14
+  return unionRows(np, pc.offsets, pc.ids, p.offsets, p.connectivity, np, 27 * np);
 }
 
 /** Cells sharing a node with each cell. */
 export function cellStencil(p: Piece): Stencil {
   const pc = pointCells(p), nc = p.cellTypes.length;
   // cell → its nodes is the piece's own connectivity; each node → its cells is `pc`
-  return unionRows(nc, { offsets: p.offsets, ids: p.connectivity }, pc, null);
+  return unionRows(nc, p.offsets, p.connectivity, pc.offsets, pc.ids, nc, 27 * nc);
 }
 
 /** Cell centroids (vertex means), xyz interleaved (length unit). */

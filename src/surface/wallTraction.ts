@@ -19,24 +19,31 @@ import type { BoundaryFaces } from './boundaryFaces.ts';
  */
 export function cornerGradients(d: Dataset, faces: BoundaryFaces, selection: Int32Array, offsets: Int32Array, vel: readonly (FieldArray | undefined)[]): Float64Array {
   const out = new Float64Array(9 * offsets[offsets.length - 1]!);
-  const fo = faces.offsets, nodes = faces.nodes;
+  const fo = faces.offsets, nodes = faces.nodes, facePiece = faces.piece, ns = selection.length;
   for (let k = 0; k < d.pieces.length; k++) {
     const p = d.pieces[k]!, np = p.points.length / 3;
+    // each wall node of this piece once, numbered in order of first use
     const slot = new Int32Array(np).fill(-1);
-    const list: number[] = [];
-    for (let s = 0; s < selection.length; s++) {
+    let list = new Int32Array(Math.min(np, 4 * ns) + 1), n = 0;
+    for (let s = 0; s < ns; s++) {
       const f = selection[s]!;
-      if (faces.piece[f] !== k) continue;
-      for (let j = fo[f]!; j < fo[f + 1]!; j++) { const q = nodes[j]!; if (slot[q] === -1) { slot[q] = list.length; list.push(q); } }
+      if (facePiece[f] !== k) continue;
+      for (let j = fo[f]!, e = fo[f + 1]!; j < e; j++) {
+        const q = nodes[j]!;
+        if (slot[q] !== -1) continue;
+        if (n === list.length) { const g = new Int32Array(2 * n); g.set(list); list = g; }
+        slot[q] = n; list[n++] = q;
+      }
     }
-    if (list.length === 0) continue;
-    const G = pointGradientAt(p, vel[k]!, Int32Array.from(list));
-    for (let s = 0; s < selection.length; s++) {
+    if (n === 0) continue;
+    const G = pointGradientAt(p, vel[k]!, list.subarray(0, n));
+    for (let s = 0; s < ns; s++) {
       const f = selection[s]!;
-      if (faces.piece[f] !== k) continue;
-      for (let j = 0, a = fo[f]!; j < fo[f + 1]! - a; j++) {
-        const g = 9 * slot[nodes[a + j]!]!, o = 9 * (offsets[s]! + j);
-        for (let c = 0; c < 9; c++) out[o + c] = G[g + c]!;
+      if (facePiece[f] !== k) continue;
+      for (let j = fo[f]!, e = fo[f + 1]!, o = 9 * offsets[s]!; j < e; j++, o += 9) {
+        const g = 9 * slot[nodes[j]!]!;
+        out[o] = G[g]!; out[o + 1] = G[g + 1]!; out[o + 2] = G[g + 2]!; out[o + 3] = G[g + 3]!; out[o + 4] = G[g + 4]!;
+        out[o + 5] = G[g + 5]!; out[o + 6] = G[g + 6]!; out[o + 7] = G[g + 7]!; out[o + 8] = G[g + 8]!;
       }
     }
   }
@@ -49,10 +56,10 @@ export function cornerGradients(d: Dataset, faces: BoundaryFaces, selection: Int
  */
 export function cornerTraction(faces: BoundaryFaces, selection: Int32Array, offsets: Int32Array, G: Float64Array,
   muAt: (s: number, j: number) => number): Float64Array {
-  const out = new Float64Array(3 * offsets[offsets.length - 1]!);
+  const out = new Float64Array(3 * offsets[offsets.length - 1]!), area = faces.areaVector;
   for (let s = 0; s < selection.length; s++) {
     const f = selection[s]!;
-    const ax = faces.areaVector[3 * f]!, ay = faces.areaVector[3 * f + 1]!, az = faces.areaVector[3 * f + 2]!;
+    const ax = area[3 * f]!, ay = area[3 * f + 1]!, az = area[3 * f + 2]!;
     const len = Math.sqrt(ax * ax + ay * ay + az * az);
     if (len === 0) continue;
     const nx = ax / len, ny = ay / len, nz = az / len;
