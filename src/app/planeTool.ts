@@ -13,6 +13,7 @@ import { classifyNotes } from '../ui/notes.ts';
 import type { ProbeResult, Quantity } from '../ui/results.ts';
 import { UNITS, fieldUnit } from '../ui/units.ts';
 import { CutPlaneLayer } from '../view/cutPlaneLayer.ts';
+import { markDrawn, timedCall } from './callTiming.ts';
 import { latestWinsPerKey } from './latestWins.ts';
 import type { ReferenceTool } from './referenceTool.ts';
 import type { Viewer } from './viewer.ts';
@@ -49,11 +50,11 @@ export class PlaneTool {
     this.folder = v.gui.addFolder('Cut-plane');
     // one lane per probe: several probes computed at once never drop each other's requests
     this.request = latestWinsPerKey((x: { id: string }) => x.id,
-      (p: Plane) => v.track(v.compute.cut({
+      (p: Plane) => v.track(timedCall('cut', () => v.compute.cut({
         origin: [p.ox, p.oy, p.oz], normal: [p.nx, p.ny, p.nz], ...(p.seed ? { seed: p.seed } : {}),
         ...(v.colorChoice ? { color: v.colorChoice } : {}),
         velocity: this.settings.velocity, pressure: this.settings.pressure, rho: this.densityOf(p).rho,
-      })),
+      }), true, p.id)),
       (reply, p) => this.show(p, reply),
       (e) => v.banner.error(`Cut-plane: ${(e as Error).message}`),
     );
@@ -225,7 +226,7 @@ export class PlaneTool {
     p.layer.material.setRange(...this.v.colorRange);
     p.layer.material.setColorMap(this.v.colorMap);
     this.v.setResult(planeResult(p, reply, this.densityOf(p).text));
-    this.v.view.requestRender();
+    markDrawn(reply, this.v.view.nextFrame());
   }
 
   /** Range and map follow the surface's. */

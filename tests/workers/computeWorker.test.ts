@@ -63,7 +63,7 @@ describe('compute worker contract', () => {
     expect(s.positions.length % 9).toBe(0);
     expect(s.normals.length).toBe(s.positions.length);
     expect(s.groups.length).toBe(s.positions.length / 3);
-    const bytes = s.positions.byteLength + s.normals.byteLength + s.groups.byteLength + s.edges.byteLength + s.edgeGroups.byteLength
+    const bytes = s.positions.byteLength + s.normals.byteLength + s.groups.byteLength + s.edges.byteLength + s.edgeGroups.byteLength + s.edgeShares.byteLength
       + s.outline.positions.byteLength + s.outline.groups.byteLength;
     expect((await api.transferredBytes()) - before).toBe(bytes);
     // the groups' outlines are the pipe's two rims (R = 10 mm at z = 0 and 0.1 m, sample-fields/README.md): the
