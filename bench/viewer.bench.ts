@@ -3,7 +3,8 @@
  * `sample-fields/large/` (written by the sample generator when missing). For each file: file chosen → first
  * coloured picture (twice: the first load also warms the engine's compiled code), then a new cut-plane until
  * its pin is drawn, a drag of the plane's knob (each step from its request to the frame showing it), and a
- * new line probe until its pin and chart are drawn. Each figure is split into worker compute, transfer
+ * new line probe until its pin and chart are drawn. A drag step is the cut's picture (`cutDrawing`); its
+ * numbers follow (`cut`) when no newer step waits, and are reported apart. Each figure is split into worker compute, transfer
  * (request and reply crossing, waiting in the worker's queue included) and drawing, from the app's
  * `fieldtally:call` marks (src/app/callTiming.ts). Goals (seconds): load ≤ 2.0 raw / 2.5 zlib, cut-plane ≤ 0.6,
  * drag step ≤ 0.2, line probe ≤ 0.6. Reports JSON, with the machine's load average before and after: the
@@ -102,13 +103,19 @@ async function timeDrag(page: Page): Promise<Record<string, unknown>> {
   }
   await page.mouse.up();
   await waitIdle(page);
-  const steps = (await calls(page)).filter((c) => c.what === 'cut' && c.drawnAt !== undefined).sort((a, b) => a.sentAt - b.sentAt).map((c) => split(c));
+  const all = (await calls(page)).filter((c) => c.drawnAt !== undefined).sort((a, b) => a.sentAt - b.sentAt);
+  // a drag step draws the cut (`cutDrawing`); its numbers (`cut`) follow when no newer step waits
+  const steps = all.filter((c) => c.what === 'cutDrawing').map((c) => split(c));
+  const numbers = all.filter((c) => c.what === 'cut');
+  const lastStep = all.filter((c) => c.what === 'cutDrawing').at(-1);
   const median = (xs: number[]) => { const v = [...xs].sort((a, b) => a - b); return v.length ? v[Math.floor((v.length - 1) / 2)]! : NaN; };
   const pick = (k: keyof Split) => median(steps.map((x) => x[k] ?? NaN));
   return {
     moves: DRAG_MOVES, stepsComputed: steps.length,
     medianStep: { seconds: pick('seconds'), workerCompute: pick('workerCompute'), transfer: pick('transfer'), drawing: pick('drawing') },
     slowestStepSeconds: Math.max(...steps.map((x) => x.seconds)), steps: steps.map((x) => x.seconds),
+    numbersComputed: numbers.length,
+    ...(numbers.length && lastStep ? { lastNumbers: split(numbers.at(-1)!), numbersShownAfterLastStepSeconds: s3(numbers.at(-1)!.drawnAt! - lastStep.sentAt) } : {}),
     longestMainThreadTaskMs: await longestTask(page),
   };
 }

@@ -123,6 +123,18 @@ export interface CutReply {
   timing?: WorkerStamps;
 }
 
+/**
+ * A cut's picture only (`cutDrawing`): the drawn part of the cut, exactly as `cut` draws it, without the
+ * integrals, for the steps of a drag (the numbers follow with `cut`).
+ */
+export interface CutDrawingReply {
+  drawing: (TriangleDrawing & DrawingValues) | null;
+  /** Unit normal used. */
+  normal: Vec3;
+  cellsCut: number;
+  timing?: WorkerStamps;
+}
+
 export interface LineRequest {
   from: Vec3;
   to: Vec3;
@@ -256,6 +268,8 @@ export interface ComputeApi {
   surfaceValues(field: FieldChoice): Promise<SurfaceValuesReply>;
   /** Cuts the dataset by a plane: triangles coloured by `request.color`, and integrals. */
   cut(request: CutRequest): Promise<CutReply>;
+  /** The same cut's drawing only (only the colouring field carried onto the cut, no integrals): a drag step's picture. */
+  cutDrawing(request: CutRequest): Promise<CutDrawingReply>;
   /** Samples every field along a line (point fields, then cell fields with other names). */
   sample(request: LineRequest): Promise<LineReply>;
   /** Force total over surface groups. */

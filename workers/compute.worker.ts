@@ -5,6 +5,8 @@
  */
 import * as Comlink from 'comlink';
 import { integratePlane } from '../src/cut/planeIntegrals.ts';
+import { cutPlane } from '../src/cut/cutPlane.ts';
+import { selectRegion } from '../src/cut/region.ts';
 import { warmUpCutKernels } from '../src/cut/warmUp.ts';
 import { getCellTree, hasCellTree } from '../src/locate/cellTree.ts';
 import type { RegionSpec } from '../src/cut/region.ts';
@@ -28,7 +30,7 @@ import { getBoundaryFaces, getSurfaceGroups } from '../src/surface/surfaceCache.
 import { facesOfGroups, type SurfaceGroups } from '../src/surface/surfaceGroups.ts';
 import { withDerivedFields } from '../src/derive/derivedFields.ts';
 import type {
-  ComputeApi, CutReply, DeriveRequest, CutRequest, Description, FieldChoice, SurfaceValuesReply, ForceReply, ForceRequest, SetEvaluation,
+  ComputeApi, CutDrawingReply, CutReply, DeriveRequest, DrawingValues, TriangleDrawing, CutRequest, Description, FieldChoice, SurfaceValuesReply, ForceReply, ForceRequest, SetEvaluation,
   LineReply, LineRequest, LoadRequest, ProgressCallback, SurfaceReply,
 } from './api.ts';
 import { groupOutline } from '../src/surface/groupOutline.ts';
@@ -238,11 +240,25 @@ export function createComputeApi(): ComputeApi {
       return Comlink.transfer(v, [v.values.buffer]);
     },
 
+    async cutDrawing(request: CutRequest): Promise<CutDrawingReply> {
+      const h = need(), startedAt = epochNow();
+      checkCut(request);
+      const c = request.color, specs: RegionSpec[] = request.seed ? [{ kind: 'seed', point: request.seed }] : [];
+      // share workers cut and merge as for `cut` (the integrals they add are left out of the reply)
+      const { cut, region } = h.pool
+        ? await h.pool.integratePlane({ origin: request.origin, normal: request.normal, region: specs })
+        : (() => {
+          const whole = cutPlane(h.dataset, request.origin, request.normal, { fields: c ? [{ name: c.name, association: c.association }] : 'none' });
+          return { cut: whole, region: selectRegion(whole, specs) };
+        })();
+      const drawing = region.set.indices.length > 0 ? drawTriangleSet(region.set, cut.normal, c) : null;
+      const reply: CutDrawingReply = { drawing, normal: [...cut.normal], cellsCut: cut.stats.cutCells, timing: { startedAt, finishedAt: epochNow() } };
+      return drawing ? Comlink.transfer(reply, transfers(drawing)) : reply;
+    },
+
     async cut(request: CutRequest): Promise<CutReply> {
       const h = need(), startedAt = epochNow();
-      checkVec(request.origin, 'cut-plane origin');
-      checkVec(request.normal, 'cut-plane normal');
-      if (Math.hypot(...request.normal) === 0) throw new Error('cut-plane normal: (0, 0, 0) has no direction; give a non-zero vector');
+      checkCut(request);
       const region: RegionSpec[] = request.seed ? [{ kind: 'seed', point: request.seed }] : [];
       const q = {
         origin: request.origin, normal: request.normal, region,
@@ -252,7 +268,7 @@ export function createComputeApi(): ComputeApi {
       const drawing = r.region.set.indices.length > 0 ? drawTriangleSet(r.region.set, r.cut.normal, request.color) : null;
       const reply: CutReply = { drawing, integrals: r.integrals, normal: [...r.cut.normal], region: r.region.applied, cellsCut: r.cut.stats.cutCells,
         timing: { startedAt, finishedAt: epochNow() } };
-      return drawing ? Comlink.transfer(reply, [drawing.positions.buffer, drawing.normals.buffer, drawing.groups.buffer, drawing.values.buffer]) : reply;
+      return drawing ? Comlink.transfer(reply, transfers(drawing)) : reply;
     },
 
     async sample(request: LineRequest): Promise<LineReply> {
@@ -396,6 +412,18 @@ function describe(dataset: Dataset, fileBytes: number, t0: number): Held {
         centroid: [(b[0] + b[1]) / 2, (b[2] + b[3]) / 2, (b[4] + b[5]) / 2], bounds: b }],
     },
   };
+}
+
+/** Validates a cut request's plane at the API edge. */
+function checkCut(request: CutRequest): void {
+  checkVec(request.origin, 'cut-plane origin');
+  checkVec(request.normal, 'cut-plane normal');
+  if (Math.hypot(...request.normal) === 0) throw new Error('cut-plane normal: (0, 0, 0) has no direction; give a non-zero vector');
+}
+
+/** The buffers of a cut's drawing, handed over with the reply. */
+function transfers(d: TriangleDrawing & DrawingValues): ArrayBuffer[] {
+  return [d.positions.buffer, d.normals.buffer, d.groups.buffer, d.values.buffer] as ArrayBuffer[];
 }
 
 /** Validates a vector at the API edge. */

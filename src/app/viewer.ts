@@ -468,6 +468,17 @@ export class Viewer {
     host.append(toolButton('Fit', 'fit everything in the view', () => this.view.fit()));
   }
 
+  /**
+   * While a tool drags a probe (each step recomputed and drawn), a software rasteriser leaves the face
+   * outlines out: they cost about as much as the surfaces, and a drag step is waited for. They come back
+   * with the frame after the drag.
+   */
+  private liveDrag(on: boolean): void {
+    if (!this.view.software || !this.surface || !this.settings.edges) return;
+    this.surface.setEdgesVisible(!on);
+    this.view.requestRender();
+  }
+
   private bindPointer(canvas: HTMLCanvasElement): void {
     const ray = new THREE.Raycaster();
     let active: PointerTool | undefined, downAt: [number, number] | undefined;
@@ -476,12 +487,12 @@ export class Viewer {
     canvas.addEventListener('pointerdown', (ev) => {
       downAt = [ev.clientX, ev.clientY];
       active = this.tools.find((t) => t.down?.(ev, cast(ev)));
-      if (active) { this.view.controls.enabled = false; canvas.setPointerCapture(ev.pointerId); }
+      if (active) { this.view.controls.enabled = false; canvas.setPointerCapture(ev.pointerId); this.liveDrag(true); }
     }, { capture: true });
     canvas.addEventListener('pointermove', (ev) => { if (active) active.move?.(ev, cast(ev)); });
     canvas.addEventListener('pointerup', (ev) => {
       const r = cast(ev);
-      if (active) { active.up?.(ev, r); active = undefined; this.view.controls.enabled = true; }
+      if (active) { active.up?.(ev, r); active = undefined; this.view.controls.enabled = true; this.liveDrag(false); }
       else if (downAt && Math.hypot(ev.clientX - downAt[0], ev.clientY - downAt[1]) < 4) this.tools.some((t) => t.click?.(ev, r));
       downAt = undefined;
     });
