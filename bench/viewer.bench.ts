@@ -117,7 +117,15 @@ async function timeDrag(page: Page): Promise<Record<string, unknown>> {
     numbersComputed: numbers.length,
     ...(numbers.length && lastStep ? { lastNumbers: split(numbers.at(-1)!), numbersShownAfterLastStepSeconds: s3(numbers.at(-1)!.drawnAt! - lastStep.sentAt) } : {}),
     longestMainThreadTaskMs: await longestTask(page),
+    frames: await frameCosts(page),
   };
+}
+
+/** Median cost (ms) of the last software frames: issuing the draw calls, rasterising and reading back, showing. */
+async function frameCosts(page: Page): Promise<Record<string, number>> {
+  const f = await page.evaluate(() => (window as unknown as { __fieldtally: { frameTimes(): { draw: number; raster: number; show: number }[] } }).__fieldtally.frameTimes());
+  const med = (xs: number[]) => { const v = [...xs].sort((a, b) => a - b); return v.length ? Math.round(v[Math.floor((v.length - 1) / 2)]!) : NaN; };
+  return { count: f.length, drawMs: med(f.map((x) => x.draw)), rasterMs: med(f.map((x) => x.raster)), showMs: med(f.map((x) => x.show)) };
 }
 
 /** Runs one step, saying on stderr which (the bench takes minutes) and naming it in an error. */

@@ -60,7 +60,7 @@ export class PlaneTool {
       (p: Plane) => v.track(timedCall('cut', () => v.compute.cut(request(p)), true, p.id)),
       (reply, p) => this.showDrawing(p, reply),
       (reply, p) => this.show(p, reply),
-      (e) => v.banner.error(`Cut-plane: ${(e as Error).message}`),
+      (e) => { v.banner.error(`Cut-plane: ${(e as Error).message}`); v.view.requestRender(); },
     );
     v.onDataset(() => this.reset());
     v.onColor(() => { for (const p of this.planes) this.request.request(p, false); });
@@ -217,7 +217,9 @@ export class PlaneTool {
     p.layer.setSeed(p.seed);
     this.settings.slide = (p.ox * p.nx + p.oy * p.ny + p.oz * p.nz) / n;
     for (const c of this.folder.controllersRecursive()) c.updateDisplay();
-    this.v.view.requestRender();
+    // a drag step's marker is drawn with its cut (one frame, the two in step): a frame for the marker
+    // alone would be in the way when the cut arrives
+    if (!live) this.v.view.requestRender();
     this.request.request(p, live);
     this.planesChanged();
   }
