@@ -8,9 +8,10 @@
  * (request and reply crossing, waiting in the worker's queue included) and drawing, from the app's
  * `fieldtally:call` marks (src/app/callTiming.ts). Goals (seconds): load ≤ 2.0 raw / 2.5 zlib, cut-plane ≤ 0.6,
  * drag step ≤ 0.2, line probe ≤ 0.6. Reports JSON, with the machine's load average before and after: the
- * figures are wall-clock times and move with whatever else runs.
+ * figures are wall-clock times and move with whatever else runs; each stage also gives the CPU seconds the
+ * browser's processes used for it (includes waiting-for-idle frames), which the load moves far less.
  */
-import { existsSync, rmSync, statSync } from 'node:fs';
+import { existsSync, readdirSync, readFileSync, rmSync, statSync } from 'node:fs';
 import { loadavg } from 'node:os';
 import { join } from 'node:path';
 import type { Page } from 'playwright-core';
@@ -128,10 +129,42 @@ async function frameCosts(page: Page): Promise<Record<string, number>> {
   return { count: f.length, drawMs: med(f.map((x) => x.draw)), rasterMs: med(f.map((x) => x.raster)), showMs: med(f.map((x) => x.show)) };
 }
 
-/** Runs one step, saying on stderr which (the bench takes minutes) and naming it in an error. */
-async function stage<T>(what: string, f: () => Promise<T>): Promise<T> {
+/**
+ * CPU time (s) used so far by this process's descendants (the browser's processes: page, workers' host,
+ * GPU process with the software rasteriser), from /proc; 0 where /proc is not there. Less moved by the
+ * machine's load than wall-clock time.
+ */
+function browserCpuSeconds(): number {
+  if (!existsSync('/proc/self/stat')) return 0;
+  const parent = new Map<number, number>(), ticks = new Map<number, number>();
+  for (const name of readdirSync('/proc')) {
+    if (!/^\d+$/.test(name)) continue;
+    try {
+      const stat = readFileSync(`/proc/${name}/stat`, 'utf8');
+      // fields after the command (which may hold spaces) start after the last ')'
+      const f = stat.slice(stat.lastIndexOf(')') + 2).split(' ');
+      parent.set(Number(name), Number(f[1]));
+      ticks.set(Number(name), Number(f[11]) + Number(f[12]) + Number(f[13]) + Number(f[14]));
+    } catch { /* the process ended meanwhile */ }
+  }
+  let total = 0;
+  for (const [pid, t] of ticks) {
+    for (let p = parent.get(pid); p !== undefined && p > 1; p = parent.get(p)) if (p === process.pid) { total += t; break; }
+  }
+  return total / CLOCK_TICKS;
+}
+
+/** Linux's clock ticks per second of /proc/<pid>/stat times (USER_HZ, 100 on every mainstream build). */
+const CLOCK_TICKS = 100;
+
+/** Runs one step, saying on stderr which (the bench takes minutes) and naming it in an error; adds the browser's CPU seconds for it. */
+async function stage<T extends object>(what: string, f: () => Promise<T>): Promise<T & { browserCpuSeconds: number }> {
   process.stderr.write(`viewer bench: ${what}\n`);
-  try { return await f(); } catch (e) { throw new Error(`${what}: ${(e as Error).message.split('\n')[0]}`); }
+  const cpu0 = browserCpuSeconds();
+  try {
+    const r = await f();
+    return { ...r, browserCpuSeconds: Number((browserCpuSeconds() - cpu0).toFixed(2)) };
+  } catch (e) { throw new Error(`${what}: ${(e as Error).message.split('\n')[0]}`); }
 }
 
 export async function run(): Promise<Record<string, unknown>> {
