@@ -18,6 +18,16 @@ export type { GroupOutline, ProbeSet, SetEvaluation };
 
 export type Vec3 = [number, number, number];
 
+/**
+ * When the worker started and finished a call, in ms since the epoch (`performance.timeOrigin +
+ * performance.now()`, comparable between the page and the worker); the viewer benchmark splits a call's
+ * time into worker compute and transfer with it.
+ */
+export interface WorkerStamps {
+  startedAt: number;
+  finishedAt: number;
+}
+
 /** One input file: its path relative to the set file's folder (`/`-separated) and its bytes. */
 export interface InputFile {
   path: string;
@@ -60,6 +70,8 @@ export interface Description {
   /** Seconds the read took in the worker. */
   loadSeconds: number;
   groups: GroupInfo[];
+  /** When the worker ran the call that returned this description. */
+  timing?: WorkerStamps;
 }
 
 import type { DrawingValues, FieldChoice, SurfaceDrawing, TriangleDrawing } from '../src/surface/surfaceDrawing.ts';
@@ -73,6 +85,12 @@ export type { DrawingValues, FieldChoice, SurfaceDrawing, TriangleDrawing };
  */
 export interface SurfaceReply extends SurfaceDrawing {
   outline: GroupOutline;
+  timing?: WorkerStamps;
+}
+
+/** A field's values on the boundary surface (`faceValues` of src/surface/surfaceDrawing.ts). */
+export interface SurfaceValuesReply extends DrawingValues {
+  timing?: WorkerStamps;
 }
 
 /** A cut-plane request. `rho` is a constant density (kg/m³) or the name of a density field. */
@@ -102,6 +120,19 @@ export interface CutReply {
   region: string[];
   /** Cells the plane cut. */
   cellsCut: number;
+  timing?: WorkerStamps;
+}
+
+/**
+ * A cut's picture only (`cutDrawing`): the drawn part of the cut, exactly as `cut` draws it, without the
+ * integrals, for the steps of a drag (the numbers follow with `cut`).
+ */
+export interface CutDrawingReply {
+  drawing: (TriangleDrawing & DrawingValues) | null;
+  /** Unit normal used. */
+  normal: Vec3;
+  cellsCut: number;
+  timing?: WorkerStamps;
 }
 
 export interface LineRequest {
@@ -140,6 +171,7 @@ export interface LineReply {
   valid: Uint8Array;
   fields: LineField[];
   stats: LineStats;
+  timing?: WorkerStamps;
 }
 
 /** Reference values and choices for a force total (SI). */
@@ -233,9 +265,11 @@ export interface ComputeApi {
   /** The boundary surface for drawing, with the groups' outlines. */
   surface(): Promise<SurfaceReply>;
   /** A field's values on the boundary surface, in `surface()`'s vertex order. */
-  surfaceValues(field: FieldChoice): Promise<DrawingValues>;
+  surfaceValues(field: FieldChoice): Promise<SurfaceValuesReply>;
   /** Cuts the dataset by a plane: triangles coloured by `request.color`, and integrals. */
   cut(request: CutRequest): Promise<CutReply>;
+  /** The same cut's drawing only (only the colouring field carried onto the cut, no integrals): a drag step's picture. */
+  cutDrawing(request: CutRequest): Promise<CutDrawingReply>;
   /** Samples every field along a line (point fields, then cell fields with other names). */
   sample(request: LineRequest): Promise<LineReply>;
   /** Force total over surface groups. */

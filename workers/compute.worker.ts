@@ -5,7 +5,10 @@
  */
 import * as Comlink from 'comlink';
 import { integratePlane } from '../src/cut/planeIntegrals.ts';
+import { cutPlane } from '../src/cut/cutPlane.ts';
+import { selectRegion } from '../src/cut/region.ts';
 import { warmUpCutKernels } from '../src/cut/warmUp.ts';
+import { getCellTree, hasCellTree } from '../src/locate/cellTree.ts';
 import type { RegionSpec } from '../src/cut/region.ts';
 import { readDatasetFrom } from '../src/io/readDataset.ts';
 import { blobSource } from '../src/io/blobSource.ts';
@@ -27,7 +30,7 @@ import { getBoundaryFaces, getSurfaceGroups } from '../src/surface/surfaceCache.
 import { facesOfGroups, type SurfaceGroups } from '../src/surface/surfaceGroups.ts';
 import { withDerivedFields } from '../src/derive/derivedFields.ts';
 import type {
-  ComputeApi, CutReply, DeriveRequest, CutRequest, Description, DrawingValues, FieldChoice, ForceReply, ForceRequest, SetEvaluation,
+  ComputeApi, CutDrawingReply, CutReply, DeriveRequest, DrawingValues, TriangleDrawing, CutRequest, Description, FieldChoice, SurfaceValuesReply, ForceReply, ForceRequest, SetEvaluation,
   LineReply, LineRequest, LoadRequest, ProgressCallback, SurfaceReply,
 } from './api.ts';
 import { groupOutline } from '../src/surface/groupOutline.ts';
@@ -114,8 +117,21 @@ function throttle(cb: ProgressCallback | undefined): { send: (p: LoadProgress) =
  */
 const WARM_UP_DELAY_MS = 150;
 
-/** Whether this worker has scheduled the warm-up (recolouring asks for values again; one warm-up is enough). */
-let warmUpScheduled = false;
+/** The pending warm-up (recolouring asks for values again: the last request schedules it). */
+let warmUpTimer: ReturnType<typeof setTimeout> | undefined;
+
+/**
+ * Readies the held dataset for its first cut-plane and line probe while the user looks at the picture: the
+ * cut kernels' compiled code (once per worker) and the dataset's cell tree (once per mesh; `crossingCells.ts`
+ * uses it for cuts once built, `lineProbe.ts` always). With share workers, they hold their own.
+ */
+async function warmUp(h: Held | undefined): Promise<void> {
+  await warmUpCutKernels();
+  if (h && !h.pool && h.boundary && !hasCellTree(h.dataset)) getCellTree(h.dataset);
+}
+
+/** The clock of `WorkerStamps` (ms since the epoch, comparable with the page's). */
+const epochNow = (): number => performance.timeOrigin + performance.now();
 
 /** Lets queued messages (a cancel) run before the load commits. */
 const yieldToMessages = (): Promise<void> => new Promise((r) => setTimeout(r, 0));
@@ -140,7 +156,7 @@ export function createComputeApi(): ComputeApi {
       const controller = new AbortController();
       loading = controller;
       const progress = throttle(onProgress);
-      const t0 = performance.now();
+      const t0 = performance.now(), startedAt = epochNow();
       try {
         let name: string, main: ByteSource, fileBytes: number;
         let resolveSource: ((rel: string) => Promise<ByteSource>) | undefined;
@@ -196,7 +212,7 @@ export function createComputeApi(): ComputeApi {
         const old = held?.pool;
         held = found;
         await old?.close();
-        return held.description;
+        return { ...held.description, timing: { startedAt, finishedAt: epochNow() } };
       } finally {
         if (loading === controller) loading = undefined;
       }
@@ -207,29 +223,42 @@ export function createComputeApi(): ComputeApi {
     async describe(): Promise<Description> { return need().description; },
 
     async surface(): Promise<SurfaceReply> {
-      const h = need();
+      const h = need(), startedAt = epochNow();
       const d = drawFaces(h.dataset, facesOf(h), h.boundary?.groups.faceGroup ?? null);
       const outline = h.boundary ? groupOutline(h.dataset, h.boundary.faces, h.boundary.groups.faceGroup) : { positions: new Float32Array(0), groups: new Int32Array(0) };
-      const reply: SurfaceReply = { ...d, outline };
-      return Comlink.transfer(reply, [d.positions.buffer, d.normals.buffer, d.groups.buffer, d.edges.buffer, d.edgeGroups.buffer, outline.positions.buffer, outline.groups.buffer]);
+      const reply: SurfaceReply = { ...d, outline, timing: { startedAt, finishedAt: epochNow() } };
+      return Comlink.transfer(reply, [d.positions.buffer, d.normals.buffer, d.groups.buffer, d.edges.buffer, d.edgeGroups.buffer, d.edgeShares.buffer, outline.positions.buffer, outline.groups.buffer]);
     },
 
-    async surfaceValues(field: FieldChoice): Promise<DrawingValues> {
-      const h = need();
-      const v = faceValues(h.dataset, facesOf(h), field);
-      // the first picture is about to show: warm the cut kernels while the user looks at it (once per worker)
-      if (!warmUpScheduled) {
-        warmUpScheduled = true;
-        setTimeout(() => void warmUpCutKernels().catch((e: unknown) => console.warn('fieldtally: cut kernel warm-up failed (cuts stay correct, the first is slower)', e)), WARM_UP_DELAY_MS);
-      }
+    async surfaceValues(field: FieldChoice): Promise<SurfaceValuesReply> {
+      const h = need(), startedAt = epochNow();
+      const v: SurfaceValuesReply = { ...faceValues(h.dataset, facesOf(h), field), timing: { startedAt, finishedAt: 0 } };
+      // the picture is about to show: ready the first cut and probe while the user looks at it
+      clearTimeout(warmUpTimer);
+      warmUpTimer = setTimeout(() => void warmUp(held).catch((e: unknown) => console.warn('fieldtally: warm-up failed (cuts and probes stay correct, the first is slower)', e)), WARM_UP_DELAY_MS);
+      v.timing!.finishedAt = epochNow();
       return Comlink.transfer(v, [v.values.buffer]);
     },
 
+    async cutDrawing(request: CutRequest): Promise<CutDrawingReply> {
+      const h = need(), startedAt = epochNow();
+      checkCut(request);
+      const c = request.color, specs: RegionSpec[] = request.seed ? [{ kind: 'seed', point: request.seed }] : [];
+      // share workers cut and merge as for `cut` (the integrals they add are left out of the reply)
+      const { cut, region } = h.pool
+        ? await h.pool.integratePlane({ origin: request.origin, normal: request.normal, region: specs })
+        : (() => {
+          const whole = cutPlane(h.dataset, request.origin, request.normal, { fields: c ? [{ name: c.name, association: c.association }] : 'none' });
+          return { cut: whole, region: selectRegion(whole, specs) };
+        })();
+      const drawing = region.set.indices.length > 0 ? drawTriangleSet(region.set, cut.normal, c) : null;
+      const reply: CutDrawingReply = { drawing, normal: [...cut.normal], cellsCut: cut.stats.cutCells, timing: { startedAt, finishedAt: epochNow() } };
+      return drawing ? Comlink.transfer(reply, transfers(drawing)) : reply;
+    },
+
     async cut(request: CutRequest): Promise<CutReply> {
-      const h = need();
-      checkVec(request.origin, 'cut-plane origin');
-      checkVec(request.normal, 'cut-plane normal');
-      if (Math.hypot(...request.normal) === 0) throw new Error('cut-plane normal: (0, 0, 0) has no direction; give a non-zero vector');
+      const h = need(), startedAt = epochNow();
+      checkCut(request);
       const region: RegionSpec[] = request.seed ? [{ kind: 'seed', point: request.seed }] : [];
       const q = {
         origin: request.origin, normal: request.normal, region,
@@ -237,12 +266,13 @@ export function createComputeApi(): ComputeApi {
       };
       const r = h.pool ? await h.pool.integratePlane(q) : integratePlane(h.dataset, q);
       const drawing = r.region.set.indices.length > 0 ? drawTriangleSet(r.region.set, r.cut.normal, request.color) : null;
-      const reply: CutReply = { drawing, integrals: r.integrals, normal: [...r.cut.normal], region: r.region.applied, cellsCut: r.cut.stats.cutCells };
-      return drawing ? Comlink.transfer(reply, [drawing.positions.buffer, drawing.normals.buffer, drawing.groups.buffer, drawing.values.buffer]) : reply;
+      const reply: CutReply = { drawing, integrals: r.integrals, normal: [...r.cut.normal], region: r.region.applied, cellsCut: r.cut.stats.cutCells,
+        timing: { startedAt, finishedAt: epochNow() } };
+      return drawing ? Comlink.transfer(reply, transfers(drawing)) : reply;
     },
 
     async sample(request: LineRequest): Promise<LineReply> {
-      const h = need();
+      const h = need(), startedAt = epochNow();
       checkVec(request.from, 'line probe start');
       checkVec(request.to, 'line probe end');
       const r = h.pool ? await h.pool.probeLine(request.from, request.to, { samples: request.samples }) : probeLine(h.dataset, request.from, request.to, { samples: request.samples });
@@ -250,7 +280,7 @@ export function createComputeApi(): ComputeApi {
         length: r.length, count: r.count, validCount: r.validCount, outside: r.outside,
         s: r.s, x: r.x, y: r.y, z: r.z, valid: r.valid,
         fields: r.fields.map((f) => ({ name: f.name, association: f.association, components: f.components, labels: [...f.labels], columns: f.columns })),
-        stats: lineStats(r),
+        stats: lineStats(r), timing: { startedAt, finishedAt: epochNow() },
       };
       return Comlink.transfer(reply, [r.s.buffer, r.x.buffer, r.y.buffer, r.z.buffer, r.valid.buffer, ...r.fields.flatMap((f) => f.columns.map((c) => c.buffer))]);
     },
@@ -382,6 +412,18 @@ function describe(dataset: Dataset, fileBytes: number, t0: number): Held {
         centroid: [(b[0] + b[1]) / 2, (b[2] + b[3]) / 2, (b[4] + b[5]) / 2], bounds: b }],
     },
   };
+}
+
+/** Validates a cut request's plane at the API edge. */
+function checkCut(request: CutRequest): void {
+  checkVec(request.origin, 'cut-plane origin');
+  checkVec(request.normal, 'cut-plane normal');
+  if (Math.hypot(...request.normal) === 0) throw new Error('cut-plane normal: (0, 0, 0) has no direction; give a non-zero vector');
+}
+
+/** The buffers of a cut's drawing, handed over with the reply. */
+function transfers(d: TriangleDrawing & DrawingValues): ArrayBuffer[] {
+  return [d.positions.buffer, d.normals.buffer, d.groups.buffer, d.values.buffer] as ArrayBuffer[];
 }
 
 /** Validates a vector at the API edge. */

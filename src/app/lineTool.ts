@@ -17,6 +17,7 @@ import { classifyNotes } from '../ui/notes.ts';
 import type { ProbeResult, Quantity } from '../ui/results.ts';
 import { UNITS, fieldUnit } from '../ui/units.ts';
 import { LineProbeWidget } from '../view/lineProbeWidget.ts';
+import { markDrawn, timedCall } from './callTiming.ts';
 import { latestWinsPerKey } from './latestWins.ts';
 import type { Viewer } from './viewer.ts';
 
@@ -50,7 +51,7 @@ export class LineTool {
     this.folder = v.gui.addFolder('Line probe');
     // one lane per probe: several probes computed at once never drop each other's requests
     this.request = latestWinsPerKey((x: { id: string }) => x.id,
-      (l: Line) => v.track(v.compute.sample({ from: [l.ax, l.ay, l.az], to: [l.bx, l.by, l.bz], samples: l.samples })),
+      (l: Line) => v.track(timedCall('sample', () => v.compute.sample({ from: [l.ax, l.ay, l.az], to: [l.bx, l.by, l.bz], samples: l.samples }), true, l.id)),
       (reply, l) => this.show(l, reply),
       (e) => v.banner.error(`Line probe: ${(e as Error).message}`),
     );
@@ -141,6 +142,7 @@ export class LineTool {
     l.reply = reply;
     this.v.setResult(lineResult(l, reply));
     if (l === this.current) this.chart.set(this.chartData(l));
+    markDrawn(reply, this.v.view.nextFrame());
   }
 
   private chartData(l: Line | undefined): ChartData | undefined {

@@ -89,6 +89,8 @@ $('about-button').addEventListener('click', () => viewer.about.open());
     const p = viewer.view.project(k), r = viewer.view.canvas.getBoundingClientRect();
     return [r.left + p.x, r.top + p.y];
   },
+  /** The last software frames' costs (ms), for the viewer benchmark. */
+  frameTimes(): { draw: number; raster: number; show: number }[] { return [...viewer.view.frameTimes]; },
   /** A probe's pin anchor (file length unit), or undefined. */
   anchor(id: string): [number, number, number] | undefined {
     return viewer.allResults.find((r) => r.id === id)?.anchor;

@@ -5,7 +5,7 @@
  */
 import type GUI from 'lil-gui';
 import type * as THREE from 'three';
-import type { CutReply, Vec3 } from '../../workers/api.ts';
+import type { CutDrawingReply, CutReply, CutRequest, Vec3 } from '../../workers/api.ts';
 import { guessRole } from '../cut/fieldRoles.ts';
 import type { CutPlaneProbe, PlaneDoc, Probe } from '../study/probeSet.ts';
 import { formatNumber, formatVec } from '../ui/format.ts';
@@ -13,7 +13,8 @@ import { classifyNotes } from '../ui/notes.ts';
 import type { ProbeResult, Quantity } from '../ui/results.ts';
 import { UNITS, fieldUnit } from '../ui/units.ts';
 import { CutPlaneLayer } from '../view/cutPlaneLayer.ts';
-import { latestWinsPerKey } from './latestWins.ts';
+import { markDrawn, timedCall } from './callTiming.ts';
+import { drawThenNumbers } from './drawThenNumbers.ts';
 import type { ReferenceTool } from './referenceTool.ts';
 import type { Viewer } from './viewer.ts';
 
@@ -47,18 +48,22 @@ export class PlaneTool {
 
   constructor(private readonly v: Viewer, private readonly refs: ReferenceTool) {
     this.folder = v.gui.addFolder('Cut-plane');
-    // one lane per probe: several probes computed at once never drop each other's requests
-    this.request = latestWinsPerKey((x: { id: string }) => x.id,
-      (p: Plane) => v.track(v.compute.cut({
-        origin: [p.ox, p.oy, p.oz], normal: [p.nx, p.ny, p.nz], ...(p.seed ? { seed: p.seed } : {}),
-        ...(v.colorChoice ? { color: v.colorChoice } : {}),
-        velocity: this.settings.velocity, pressure: this.settings.pressure, rho: this.densityOf(p).rho,
-      })),
+    // one lane per probe: several probes computed at once never drop each other's requests; a drag step
+    // asks for the picture first and the numbers follow when no newer step waits
+    const request = (p: Plane): CutRequest => ({
+      origin: [p.ox, p.oy, p.oz], normal: [p.nx, p.ny, p.nz], ...(p.seed ? { seed: p.seed } : {}),
+      ...(v.colorChoice ? { color: v.colorChoice } : {}),
+      velocity: this.settings.velocity, pressure: this.settings.pressure, rho: this.densityOf(p).rho,
+    });
+    this.request = drawThenNumbers((x: { id: string }) => x.id,
+      (p: Plane) => v.track(timedCall('cutDrawing', () => v.compute.cutDrawing(request(p)), true, p.id)),
+      (p: Plane) => v.track(timedCall('cut', () => v.compute.cut(request(p)), true, p.id)),
+      (reply, p) => this.showDrawing(p, reply),
       (reply, p) => this.show(p, reply),
-      (e) => v.banner.error(`Cut-plane: ${(e as Error).message}`),
+      (e) => { v.banner.error(`Cut-plane: ${(e as Error).message}`); v.view.requestRender(); },
     );
     v.onDataset(() => this.reset());
-    v.onColor(() => { for (const p of this.planes) this.request.request(p); });
+    v.onColor(() => { for (const p of this.planes) this.request.request(p, false); });
     refs.onChange(() => { this.buildPanel(); this.recomputeAll(); });
     v.onColorSettings(() => this.applyColorSettings());
     v.onResultRemoved((id) => this.remove(id));
@@ -202,8 +207,8 @@ export class PlaneTool {
     this.planesChanged();
   }
 
-  /** The current plane moved or changed: redraw its marker, recompute (latest request wins). */
-  private changed(): void {
+  /** The current plane moved or changed: redraw its marker, recompute (latest request wins; `live`: a drag step, picture first). */
+  private changed(live = false): void {
     const p = this.current;
     if (!p) return;
     const n = Math.hypot(p.nx, p.ny, p.nz);
@@ -212,9 +217,20 @@ export class PlaneTool {
     p.layer.setSeed(p.seed);
     this.settings.slide = (p.ox * p.nx + p.oy * p.ny + p.oz * p.nz) / n;
     for (const c of this.folder.controllersRecursive()) c.updateDisplay();
-    this.v.view.requestRender();
-    this.request.request(p);
+    // a drag step's marker is drawn with its cut (one frame, the two in step): a frame for the marker
+    // alone would be in the way when the cut arrives
+    if (!live) this.v.view.requestRender();
+    this.request.request(p, live);
     this.planesChanged();
+  }
+
+  /** A drag step's picture: the cut redrawn, its numbers still those of the last computed position until they follow. */
+  private showDrawing(p: Plane, reply: CutDrawingReply): void {
+    if (!this.planes.includes(p)) return;
+    p.layer.setTriangles(reply.drawing, !!this.v.colorChoice && !!reply.drawing);
+    p.layer.material.setRange(...this.v.colorRange);
+    p.layer.material.setColorMap(this.v.colorMap);
+    markDrawn(reply, this.v.view.nextFrame());
   }
 
   private show(p: Plane, reply: CutReply): void {
@@ -225,7 +241,7 @@ export class PlaneTool {
     p.layer.material.setRange(...this.v.colorRange);
     p.layer.material.setColorMap(this.v.colorMap);
     this.v.setResult(planeResult(p, reply, this.densityOf(p).text));
-    this.v.view.requestRender();
+    markDrawn(reply, this.v.view.nextFrame());
   }
 
   /** Range and map follow the surface's. */
@@ -255,20 +271,20 @@ export class PlaneTool {
       const n = Math.hypot(p.nx, p.ny, p.nz), cur = (p.ox * p.nx + p.oy * p.ny + p.oz * p.nz) / n, k = (d - cur) / n;
       const r6 = (x: number) => Number(x.toPrecision(6));
       p.ox = r6(p.ox + k * p.nx); p.oy = r6(p.oy + k * p.ny); p.oz = r6(p.oz + k * p.nz);
-      this.changed();
+      this.changed(true);
     });
     const own = { on: p.ownDensity !== undefined, value: p.ownDensity ?? this.refs.density };
     const value = this.folder.add(own, 'value').name(`density ρ [${UNITS.density}]`).onFinishChange((x: number) => {
       if (!(x > 0) || !Number.isFinite(x)) { this.v.banner.error(`Cut-plane: the density must be a positive number (got ${x}).`); own.value = p.ownDensity ?? this.refs.density; value.updateDisplay(); return; }
       p.ownDensity = x;
-      this.request.request(p);
+      this.request.request(p, false);
       this.planesChanged();
     }).enable(own.on);
     this.folder.add(own, 'on').name('own density (overrides reference)').onChange((on: boolean) => {
       p.ownDensity = on ? own.value : undefined;
       own.value = p.ownDensity ?? this.refs.density;
       value.enable(on).updateDisplay();
-      this.request.request(p);
+      this.request.request(p, false);
       this.planesChanged();
     });
     const vectors: Record<string, string> = { '(by name)': '' }, scalars: Record<string, string> = { '(by name)': '' };
@@ -293,7 +309,7 @@ export class PlaneTool {
     return [Number(lo.toPrecision(6)), Number(hi.toPrecision(6))];
   }
 
-  private recomputeAll(): void { for (const p of this.planes) this.request.request(p); }
+  private recomputeAll(): void { for (const p of this.planes) this.request.request(p, false); }
 
   private pointer() {
     return {
@@ -316,7 +332,7 @@ export class PlaneTool {
         // 6 significant figures: what the panel shows is exactly what is computed
         const r6 = (x: number) => Number(x.toPrecision(6));
         p.ox = r6(d.origin[0] + k * n.x); p.oy = r6(d.origin[1] + k * n.y); p.oz = r6(d.origin[2] + k * n.z);
-        this.changed();
+        this.changed(true);
       },
       up: (): void => { this.drag = undefined; },
       click: (_ev: PointerEvent, ray: THREE.Raycaster): boolean => {

@@ -25,6 +25,7 @@ import { CutPlaneLayer } from '../view/cutPlaneLayer.ts';
 import { LineProbeWidget } from '../view/lineProbeWidget.ts';
 import { SurfaceLayer } from '../view/surfaceLayer.ts';
 import { ViewScene, type ViewPreset } from '../view/viewScene.ts';
+import { markDrawn, timedCall } from './callTiming.ts';
 import type { Compute } from './computeClient.ts';
 import { memoryNeeded, memoryWarning, requestBytes } from './fileChoice.ts';
 
@@ -193,11 +194,11 @@ export class Viewer {
       if (current()) this.progress.show(p.stage, p.bytesDone, p.bytesTotal);
     });
     try {
-      const d = await this.track(this.compute.load(request, onProgress));
+      const d = await this.track(timedCall('load', () => this.compute.load(request, onProgress), false));
       if (!current()) return false;
       // the worker now holds the new file: a cancel could no longer bring the previous one back
       this.progress.show('drawing the surfaces', bytes, bytes, false);
-      const drawing = await this.track(this.compute.surface());
+      const drawing = await this.track(timedCall('surface', () => this.compute.surface(), false));
       if (!current()) return false;
       this.openRequest = request;
       this.install(d, drawing);
@@ -273,7 +274,8 @@ export class Viewer {
       this.view.view('iso');
     }
     // the benchmark times "files chosen" → this mark (first coloured picture on screen, every part shown)
-    void Promise.all([this.uploadSurface(this.surface), this.recolor()]).then(() => this.view.nextFrame()).then(() => performance.mark('fieldtally:coloured'));
+    const uploaded = this.uploadSurface(this.surface).then(() => { performance.mark('fieldtally:surface-uploaded'); });
+    void Promise.all([uploaded, this.recolor()]).then(() => this.view.nextFrame()).then(() => performance.mark('fieldtally:coloured'));
     if (d.report.warnings.length) this.banner.notice(`Opened with warnings: ${d.report.warnings.slice(0, 3).join('; ')}`);
   }
 
@@ -300,9 +302,10 @@ export class Viewer {
       this.legend.set(null);
     } else {
       try {
-        const v = await this.track(this.compute.surfaceValues(choice));
+        const v = await this.track(timedCall('surfaceValues', () => this.compute.surfaceValues(choice), true));
         if (this.surface !== s) return;
         s.setValues(v);
+        markDrawn(v, this.view.nextFrame());
         if (Number.isFinite(v.range[0])) this.dataRange = v.range;
         else {
           const f = this.fields.find((x) => x.key === this.settings.field);
@@ -465,6 +468,17 @@ export class Viewer {
     host.append(toolButton('Fit', 'fit everything in the view', () => this.view.fit()));
   }
 
+  /**
+   * While a tool drags a probe (each step recomputed and drawn), a software rasteriser leaves the face
+   * outlines out: they cost about as much as the surfaces, and a drag step is waited for. They come back
+   * with the frame after the drag.
+   */
+  private liveDrag(on: boolean): void {
+    if (!this.view.software || !this.surface || !this.settings.edges) return;
+    this.surface.setEdgesVisible(!on);
+    this.view.requestRender();
+  }
+
   private bindPointer(canvas: HTMLCanvasElement): void {
     const ray = new THREE.Raycaster();
     let active: PointerTool | undefined, downAt: [number, number] | undefined;
@@ -473,12 +487,12 @@ export class Viewer {
     canvas.addEventListener('pointerdown', (ev) => {
       downAt = [ev.clientX, ev.clientY];
       active = this.tools.find((t) => t.down?.(ev, cast(ev)));
-      if (active) { this.view.controls.enabled = false; canvas.setPointerCapture(ev.pointerId); }
+      if (active) { this.view.controls.enabled = false; canvas.setPointerCapture(ev.pointerId); this.liveDrag(true); }
     }, { capture: true });
     canvas.addEventListener('pointermove', (ev) => { if (active) active.move?.(ev, cast(ev)); });
     canvas.addEventListener('pointerup', (ev) => {
       const r = cast(ev);
-      if (active) { active.up?.(ev, r); active = undefined; this.view.controls.enabled = true; }
+      if (active) { active.up?.(ev, r); active = undefined; this.view.controls.enabled = true; this.liveDrag(false); }
       else if (downAt && Math.hypot(ev.clientX - downAt[0], ev.clientY - downAt[1]) < 4) this.tools.some((t) => t.click?.(ev, r));
       downAt = undefined;
     });
@@ -489,7 +503,7 @@ export class Viewer {
 function warmUpObjects(map: ColorMap): THREE.Object3D[] {
   const tri = () => ({ positions: new Float32Array([0, 0, 0, 1, 0, 0, 0, 1, 0]), normals: new Float32Array([0, 0, 1, 0, 0, 1, 0, 0, 1]), groups: new Float32Array(3) });
   const box: [number, number, number, number, number, number] = [0, 1, 0, 1, 0, 0];
-  const drawing = () => ({ ...tri(), edges: new Float32Array(6), edgeGroups: new Float32Array(2), box, outline: { positions: new Float32Array(6), groups: new Int32Array(1) } });
+  const drawing = () => ({ ...tri(), edges: new Float32Array(6), edgeGroups: new Float32Array(2), edgeShares: new Float32Array([1, 1]), box, outline: { positions: new Float32Array(6), groups: new Int32Array(1) } });
   const surface = new SurfaceLayer(drawing(), map, 1);
   surface.setGroupSelected(0, true);
   const seeThrough = new SurfaceLayer(drawing(), map, 1);

@@ -8,6 +8,7 @@ import { cellStarts, type Dataset } from '../model/dataset.ts';
 import { cellDimension } from '../model/cellTypes.ts';
 import type { FieldArray } from '../model/fieldArray.ts';
 import type { TriangleSet } from '../cut/triangleSet.ts';
+import { outlineEdges } from './outlineEdges.ts';
 
 /** A field to colour by or to sample: a scalar, one component, or the magnitude (component −1). */
 export interface FieldChoice {
@@ -27,10 +28,14 @@ export interface TriangleDrawing {
   groups: Float32Array;
 }
 
-/** The boundary surface for drawing, plus the outline of its faces as line segments (xyz pairs) with their group per vertex. */
+/**
+ * The boundary surface for drawing, plus the outline of its faces as line segments (xyz pairs), each edge
+ * once per group (`outlineEdges.ts`), with its group and the number of the group's faces sharing it per vertex.
+ */
 export interface SurfaceDrawing extends TriangleDrawing {
   edges: Float32Array;
   edgeGroups: Float32Array;
+  edgeShares: Float32Array;
   /** Box around the triangles, [xmin, xmax, ymin, ymax, zmin, zmax] (m), so the view need not scan them. */
   box: [number, number, number, number, number, number];
 }
@@ -101,8 +106,7 @@ function triangleTotal(f: FaceList): number {
 export function drawFaces(d: Dataset, f: FaceList, groupOfFace: Int32Array | null): SurfaceDrawing {
   const nt = triangleTotal(f);
   const positions = new Float32Array(9 * nt), normals = new Float32Array(9 * nt), groups = new Float32Array(3 * nt);
-  const edges = new Float32Array(6 * f.nodes.length), edgeGroups = new Float32Array(2 * f.nodes.length);
-  let v = 0, e = 0, eg = 0;
+  let v = 0;
   for (let i = 0; i < f.count; i++) {
     const P = d.pieces[f.piece[i]!]!.points, a = f.offsets[i]!, m = f.offsets[i + 1]! - a;
     const ax = f.areaVector[3 * i]!, ay = f.areaVector[3 * i + 1]!, az = f.areaVector[3 * i + 2]!;
@@ -117,19 +121,13 @@ export function drawFaces(d: Dataset, f: FaceList, groupOfFace: Int32Array | nul
       for (let k = 0; k < 3; k++) { normals[3 * (v + k)] = nx; normals[3 * (v + k) + 1] = ny; normals[3 * (v + k) + 2] = nz; groups[v + k] = g; }
       v += 3;
     }
-    for (let j = 0; j < m; j++) {
-      const q0 = 3 * f.nodes[a + j]!, q1 = 3 * f.nodes[a + ((j + 1) % m)]!;
-      edges[e++] = P[q0]!; edges[e++] = P[q0 + 1]!; edges[e++] = P[q0 + 2]!;
-      edges[e++] = P[q1]!; edges[e++] = P[q1 + 1]!; edges[e++] = P[q1 + 2]!;
-      edgeGroups[eg++] = g; edgeGroups[eg++] = g;
-    }
   }
   let x0 = Infinity, x1 = -Infinity, y0 = Infinity, y1 = -Infinity, z0 = Infinity, z1 = -Infinity;
   for (let i = 0; i < positions.length; i += 3) {
     const x = positions[i]!, y = positions[i + 1]!, z = positions[i + 2]!;
     if (x < x0) x0 = x; if (x > x1) x1 = x; if (y < y0) y0 = y; if (y > y1) y1 = y; if (z < z0) z0 = z; if (z > z1) z1 = z;
   }
-  return { positions, normals, groups, edges, edgeGroups, box: [x0, x1, y0, y1, z0, z1] };
+  return { positions, normals, groups, ...outlineEdges(d, f, groupOfFace), box: [x0, x1, y0, y1, z0, z1] };
 }
 
 /** Value of tuple `i` of a field: one component, or the magnitude for component −1. */

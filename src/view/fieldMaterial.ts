@@ -155,24 +155,32 @@ export class FieldMaterial extends THREE.ShaderMaterial {
 }
 
 /** Face outlines: thin dark lines, hidden with their group (reads the field material's flags). */
+/** Opacity of one face's outline line. */
+const OUTLINE_ALPHA = 0.35;
+
 export class OutlineMaterial extends THREE.ShaderMaterial {
   constructor(flags: THREE.DataTexture) {
     super({
       vertexShader: /* glsl */ `
         attribute float aGroup;
+        attribute float aShare;
         uniform sampler2D uFlags;
         varying float vHidden;
+        varying float vAlpha;
         void main() {
           int g = int(aGroup + 0.5);
           vHidden = texelFetch(uFlags, ivec2(g % ${FLAG_WIDTH}, g / ${FLAG_WIDTH}), 0).r < 0.5 ? 1.0 : 0.0;
+          // an edge drawn once for the n faces sharing it looks like n overlaid lines of opacity ALPHA
+          vAlpha = 1.0 - pow(1.0 - ${OUTLINE_ALPHA.toFixed(2)}, max(aShare, 1.0));
           gl_Position = projectionMatrix * modelViewMatrix * vec4(position, 1.0);
         }`,
       fragmentShader: /* glsl */ `
         uniform vec3 uColor;
         varying float vHidden;
+        varying float vAlpha;
         void main() {
           if (vHidden > 0.5) discard;
-          gl_FragColor = vec4(uColor, 0.35);
+          gl_FragColor = vec4(uColor, vAlpha);
           #include <colorspace_fragment>
         }`,
       transparent: true,

@@ -23,8 +23,8 @@ export const PART_VERTICES = 6 * 16_384;
  */
 export const UPLOAD_BYTES_PER_TASK = 3 << 20;
 
-/** Bytes per vertex: triangles (position, normal, group, value), outlines (position, group). */
-const TRIANGLE_VERTEX_BYTES = 32, EDGE_VERTEX_BYTES = 16;
+/** Bytes per vertex: triangles (position, normal, group, value), outlines (position, group, faces sharing the edge). */
+const TRIANGLE_VERTEX_BYTES = 32, EDGE_VERTEX_BYTES = 20;
 
 interface Part {
   object: THREE.Mesh | THREE.LineSegments;
@@ -78,6 +78,7 @@ export class SurfaceLayer {
       const g = new THREE.BufferGeometry();
       g.setAttribute('position', new THREE.BufferAttribute(d.edges.subarray(3 * a, 3 * b), 3));
       g.setAttribute('aGroup', new THREE.BufferAttribute(d.edgeGroups.subarray(a, b), 1));
+      g.setAttribute('aShare', new THREE.BufferAttribute(d.edgeShares.subarray(a, b), 1));
       g.boundingSphere = sphere.clone();
       this.edges.push({ object: new THREE.LineSegments(g, lines), start: a, bytes: (b - a) * EDGE_VERTEX_BYTES, revealed: false });
     }

@@ -23,6 +23,9 @@ function softwareRendering(): boolean {
 /** Background of the view and of exported pictures (light, for reports). */
 export const BACKGROUND = 0xf5f6f8;
 
+/** Software frames whose costs `ViewScene.frameTimes` keeps. */
+const FRAME_TIMES_KEPT = 64;
+
 export class ViewScene {
   readonly renderer: THREE.WebGLRenderer;
   readonly scene = new THREE.Scene();
@@ -44,6 +47,12 @@ export class ViewScene {
   private readonly shown: { ctx: CanvasRenderingContext2D; target: THREE.WebGLRenderTarget; pixels: Uint8Array<ArrayBuffer> } | undefined;
   private inFlight = false;
   private again = false;
+  /**
+   * The last software frames' costs (ms, newest last, at most `FRAME_TIMES_KEPT`): `draw` issuing the draw
+   * calls, `raster` waiting for the rasteriser and the pixels, `show` putting them on the page. Read by the
+   * viewer benchmark.
+   */
+  readonly frameTimes: { draw: number; raster: number; show: number }[] = [];
 
   constructor(readonly canvas: HTMLCanvasElement) {
     this.software = softwareRendering();
@@ -152,15 +161,20 @@ export class ViewScene {
     try {
       const { target } = shown, w = target.width, h = target.height;
       if (shown.pixels.length !== 4 * w * h) shown.pixels = new Uint8Array(4 * w * h);
+      const t0 = performance.now();
       this.renderer.setRenderTarget(target);
       this.renderer.render(this.scene, this.camera);
       this.renderer.setRenderTarget(null);
+      const t1 = performance.now();
       await this.renderer.readRenderTargetPixelsAsync(target, 0, 0, w, h, shown.pixels);
+      const t2 = performance.now();
       const image = new ImageData(new Uint8ClampedArray(shown.pixels.buffer, 0, 4 * w * h), w, h);
       const bitmap = await createImageBitmap(image, { imageOrientation: 'flipY' });
       if (this.canvas.width !== w || this.canvas.height !== h) { this.canvas.width = w; this.canvas.height = h; }
       shown.ctx.drawImage(bitmap, 0, 0);
       bitmap.close();
+      this.frameTimes.push({ draw: t1 - t0, raster: t2 - t1, show: performance.now() - t2 });
+      if (this.frameTimes.length > FRAME_TIMES_KEPT) this.frameTimes.shift();
       this.frameDone();
     } finally {
       this.inFlight = false;

@@ -63,7 +63,7 @@ describe('compute worker contract', () => {
     expect(s.positions.length % 9).toBe(0);
     expect(s.normals.length).toBe(s.positions.length);
     expect(s.groups.length).toBe(s.positions.length / 3);
-    const bytes = s.positions.byteLength + s.normals.byteLength + s.groups.byteLength + s.edges.byteLength + s.edgeGroups.byteLength
+    const bytes = s.positions.byteLength + s.normals.byteLength + s.groups.byteLength + s.edges.byteLength + s.edgeGroups.byteLength + s.edgeShares.byteLength
       + s.outline.positions.byteLength + s.outline.groups.byteLength;
     expect((await api.transferredBytes()) - before).toBe(bytes);
     // the groups' outlines are the pipe's two rims (R = 10 mm at z = 0 and 0.1 m, sample-fields/README.md): the
@@ -101,6 +101,27 @@ describe('compute worker contract', () => {
       const bytes = d.positions.byteLength + d.normals.byteLength + d.groups.byteLength + d.values.byteLength;
       expect((await api.transferredBytes()) - before).toBe(bytes);
     }
+  });
+
+  it('draws a drag step without the integrals: the same triangles and colours as the full cut, by transfer, with worker stamps', async () => {
+    for (const seed of [undefined, [0.002, 0.001, 0.05] as [number, number, number]]) {
+      const q = { origin: [0, 0, 0.047] as [number, number, number], normal: [0, 0.2, 1] as [number, number, number], rho: 998.207,
+        color: { name: 'p', association: 'point' as const, component: 0 }, ...(seed ? { seed } : {}) };
+      const full = await api.cut(q);
+      const before = await api.transferredBytes();
+      const step = await api.cutDrawing(q);
+      const d = step.drawing!, w = full.drawing!;
+      expect(d.positions.length).toBeGreaterThan(0);
+      for (const k of ['positions', 'normals', 'groups', 'values'] as const) expect(d[k]).toEqual(w[k]);
+      expect(d.range).toEqual(w.range);
+      expect(step.normal).toEqual(full.normal);
+      expect(step.cellsCut).toBe(full.cellsCut);
+      expect((await api.transferredBytes()) - before).toBe(d.positions.byteLength + d.normals.byteLength + d.groups.byteLength + d.values.byteLength);
+      expect(step.timing!.finishedAt).toBeGreaterThanOrEqual(step.timing!.startedAt);
+      expect(full.timing!.finishedAt).toBeGreaterThanOrEqual(full.timing!.startedAt);
+    }
+    expect((await api.cutDrawing({ origin: [0, 0, 5], normal: [0, 0, 1], rho: 1 })).drawing).toBeNull();
+    await expect(api.cutDrawing({ origin: [0, 0, 0], normal: [0, 0, 0], rho: 1 })).rejects.toThrow(/cut-plane normal: \(0, 0, 0\) has no direction/);
   });
 
   it('flags a plane that misses the mesh instead of reporting zeros', async () => {
