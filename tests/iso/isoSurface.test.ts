@@ -145,7 +145,7 @@ function applyMid(corners: V3[]): V3 {
 
 describe('fields by magnitude, component and cell data', () => {
   const p = boxMesh('hex', 6, 6, 6, 0.2);
-  const d = datasetOf([withFields(p, [pointFieldFrom(p, 'velocity', 3, (x, y, z, o) => { o[0] = 3; o[1] = 4 * y; o[2] = 0; })],
+  const d = datasetOf([withFields(p, [pointFieldFrom(p, 'velocity', 3, (_x, y, _z, o) => { o[0] = 3; o[1] = 4 * y; o[2] = 0; })],
     [field('level', 'cell', 1, Float64Array.from({ length: p.cellTypes.length }, (_, c) => c % 2))])]);
 
   it('a component is the plane y = c/4; the magnitude sqrt(9 + 16y²) = 4 is the plane y = √7/4', () => {
