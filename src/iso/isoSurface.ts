@@ -62,6 +62,8 @@ export interface IsoSurface extends TriangleSet {
   readonly vertexT: Float64Array;
   /** Iso-line segments of 2D cells: two vertex numbers each. */
   readonly segments: Uint32Array;
+  /** Global cell id of each segment. */
+  readonly segmentCell: Int32Array;
   /** Total area of the triangles (L²). */
   readonly area: number;
   /** Total length of the iso-lines (L). */
@@ -118,12 +120,12 @@ function isoAt(d: Dataset, src: ScalarSource, scalars: readonly Float64Array[], 
     if (a === b || b === c || a === c) continue;
     idx.push(a, b, c); cells.push(raw.cells[tr]!);
   }
-  const seg: number[] = [];
+  const seg: number[] = [], segCells: number[] = [];
   let lineLength = 0;
   for (let s = 0; s < raw.segments; s++) {
     const a = vid[raw.triVertices + 2 * s]!, b = vid[raw.triVertices + 2 * s + 1]!;
     if (a === b) continue;
-    seg.push(a, b);
+    seg.push(a, b); segCells.push(raw.cells[raw.triangles + s]!);
     lineLength += Math.hypot(positions[3 * a]! - positions[3 * b]!, positions[3 * a + 1]! - positions[3 * b + 1]!, positions[3 * a + 2]! - positions[3 * b + 2]!);
   }
   const indices = Uint32Array.from(idx), sourceCell = Int32Array.from(cells), segments = Uint32Array.from(seg);
@@ -152,7 +154,7 @@ function isoAt(d: Dataset, src: ScalarSource, scalars: readonly Float64Array[], 
     stats = colourStats(f, colour, positions, indices, segments);
   }
   return {
-    positions, indices, sourceCell, fields, field: src, value, vertexEnds, vertexT, segments,
+    positions, indices, sourceCell, fields, field: src, value, vertexEnds, vertexT, segments, segmentCell: Int32Array.from(segCells),
     area: m.area, lineLength, pieces, closed, boundaryEdges,
     volume: signed === null ? null : Math.abs(signed), enclosed: signed === null ? null : signed >= 0 ? 'below' : 'above',
     openReason, colour: stats, empty: nt === 0 && segments.length === 0,
