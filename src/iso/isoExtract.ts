@@ -12,7 +12,10 @@
  * (x, y, z). That choice depends on the face alone, so the two cells sharing a face (in one piece or two)
  * split it alike and the surface has no cracks. The same holds for the position bits: a crossing on edge
  * (a below, b at or above) is x = (d_b·x_a − d_a·x_b)/(d_b − d_a) with d = f − v, identical in every cell
- * holding the edge, and exactly the node when d_b = 0 (nodes are classified half-open: below when d < 0).
+ * holding the edge, and exactly the node when d_b = 0. Nodes are classified half-open (below when d < 0), i.e.
+ * the surface is that of f − v + ε for a vanishing ε (simulation of simplicity): a vertex is identified by its
+ * edge, not its position, so a value met exactly at nodes still gives a manifold surface (some of its
+ * vertices then share a position and some triangles have zero area).
  * Cell edges are thus cut at their exact linear-interpolation point; the interior edges (face diagonals,
  * edges to C) only carry the subdivision. A strongly warped cell can fold its subdivision (a warped face
  * passing on the far side of C): the folded tetrahedra are wound against the geometric gradient so the
@@ -21,7 +24,7 @@
  * Triangles are wound so that their normal (b − a) × (c − a) points towards increasing f. Vertices keep their
  * provenance (two end points and the parameter t; an end point is a global point id ≥ 0 or −1 − g for the
  * vertex mean of global cell g) so other fields can be interpolated onto them (`isoFields.ts`). Positions are
- * welded later, by exact position (`isoSurface.ts`).
+ * welded later by that edge, its end points identified by exact position across pieces (`isoSurface.ts`).
  */
 import { CellType, cellDimension, FACE_TABLE } from '../model/cellTypes.ts';
 import { cellStarts, pointStarts, type Dataset } from '../model/dataset.ts';
@@ -72,8 +75,9 @@ function ensureNodes(n: number): void {
 function crossing(a: number, b: number): void {
   const o = nV++, da = nD[a]!, db = nD[b]!;
   if (db === 0) {
+    // At the node, but kept as a vertex of this edge: the surface is that of f − v + ε (see the file comment).
     oPos[3 * o] = nX[b]!; oPos[3 * o + 1] = nY[b]!; oPos[3 * o + 2] = nZ[b]!;
-    oEnd[2 * o] = nE[b]!; oEnd[2 * o + 1] = nE[b]!; oT[o] = 0;
+    oEnd[2 * o] = nE[a]!; oEnd[2 * o + 1] = nE[b]!; oT[o] = 1;
     return;
   }
   const den = db - da;
@@ -83,18 +87,20 @@ function crossing(a: number, b: number): void {
   oEnd[2 * o] = nE[a]!; oEnd[2 * o + 1] = nE[b]!; oT[o] = -da / den;
 }
 
-/** Swaps the last two raw vertices when the last triangle's normal points against (gx, gy, gz). */
-function orient(gx: number, gy: number, gz: number): void {
-  const o = nV - 3, p = oPos;
-  const ax = p[3 * o]!, ay = p[3 * o + 1]!, az = p[3 * o + 2]!;
-  const ux = p[3 * o + 3]! - ax, uy = p[3 * o + 4]! - ay, uz = p[3 * o + 5]! - az;
-  const vx = p[3 * o + 6]! - ax, vy = p[3 * o + 7]! - ay, vz = p[3 * o + 8]! - az;
+/**
+ * Writes the triangle of crossings on edges (b0, a0), (b1, a1), (b2, a2) (b below, a at or above), wound so
+ * its normal has a positive component along (gx, gy, gz). The winding is judged on the edges' midpoints: the
+ * crossings may coincide (a value met at a node), the midpoints do not, and as the crossings move along their
+ * edges the triangle's winding does not change.
+ */
+function emitTriangle(b0: number, a0: number, b1: number, a1: number, b2: number, a2: number, gx: number, gy: number, gz: number, g: number): void {
+  const mx0 = nX[b0]! + nX[a0]!, my0 = nY[b0]! + nY[a0]!, mz0 = nZ[b0]! + nZ[a0]!;
+  const ux = nX[b1]! + nX[a1]! - mx0, uy = nY[b1]! + nY[a1]! - my0, uz = nZ[b1]! + nZ[a1]! - mz0;
+  const vx = nX[b2]! + nX[a2]! - mx0, vy = nY[b2]! + nY[a2]! - my0, vz = nZ[b2]! + nZ[a2]! - mz0;
   const s = gx * (uy * vz - uz * vy) + gy * (uz * vx - ux * vz) + gz * (ux * vy - uy * vx);
-  if (s >= 0) return;
-  for (let k = 0; k < 3; k++) { const q = p[3 * (o + 1) + k]!; p[3 * (o + 1) + k] = p[3 * (o + 2) + k]!; p[3 * (o + 2) + k] = q; }
-  const e0 = oEnd[2 * (o + 1)]!, e1 = oEnd[2 * (o + 1) + 1]!, tt = oT[o + 1]!;
-  oEnd[2 * (o + 1)] = oEnd[2 * (o + 2)]!; oEnd[2 * (o + 1) + 1] = oEnd[2 * (o + 2) + 1]!; oT[o + 1] = oT[o + 2]!;
-  oEnd[2 * (o + 2)] = e0; oEnd[2 * (o + 2) + 1] = e1; oT[o + 2] = tt;
+  crossing(b0, a0);
+  if (s >= 0) { crossing(b1, a1); crossing(b2, a2); } else { crossing(b2, a2); crossing(b1, a1); }
+  oCell[nPrim++] = g;
 }
 
 const tb = new Int32Array(4), ta = new Int32Array(4);
@@ -120,19 +126,15 @@ function tetra(i0: number, i1: number, i2: number, i3: number, g: number, flip =
   reserve(6);
   if (nb === 1) {
     const b = tb[0]!;
-    crossing(b, ta[0]!); crossing(b, ta[1]!); crossing(b, ta[2]!);
-    oCell[nPrim++] = g; orient(gx, gy, gz);
+    emitTriangle(b, ta[0]!, b, ta[1]!, b, ta[2]!, gx, gy, gz, g);
   } else if (nb === 3) {
     const a = ta[0]!;
-    crossing(tb[0]!, a); crossing(tb[1]!, a); crossing(tb[2]!, a);
-    oCell[nPrim++] = g; orient(gx, gy, gz);
+    emitTriangle(tb[0]!, a, tb[1]!, a, tb[2]!, a, gx, gy, gz, g);
   } else {
     // Quad (b0a0, b0a1, b1a1, b1a0), split along b0a0–b1a1.
     const b0 = tb[0]!, b1 = tb[1]!, a0 = ta[0]!, a1 = ta[1]!;
-    crossing(b0, a0); crossing(b0, a1); crossing(b1, a1);
-    oCell[nPrim++] = g; orient(gx, gy, gz);
-    crossing(b0, a0); crossing(b1, a1); crossing(b1, a0);
-    oCell[nPrim++] = g; orient(gx, gy, gz);
+    emitTriangle(b0, a0, b0, a1, b1, a1, gx, gy, gz, g);
+    emitTriangle(b0, a0, b1, a1, b1, a0, gx, gy, gz, g);
   }
 }
 

@@ -8,7 +8,7 @@
  */
 import { ExactPointIndex } from '../cut/pointKey.ts';
 import type { SurfaceField, TriangleSet } from '../cut/triangleSet.ts';
-import type { Dataset } from '../model/dataset.ts';
+import { pieceOfCell, pointStarts, totalCells, type Dataset } from '../model/dataset.ts';
 import { cellFieldOnIso, pointFieldOnIso, type IsoProvenance } from './isoFields.ts';
 import { extractIso } from './isoExtract.ts';
 import { pointScalars, resolveScalar, scalarOf, type ScalarSource } from './isoField.ts';
@@ -100,10 +100,7 @@ export function isoSurfaces(d: Dataset, opts: IsoOptions): IsoSurface[] {
 function isoAt(d: Dataset, src: ScalarSource, scalars: readonly Float64Array[], value: number, colour?: ScalarSource): IsoSurface {
   const raw = extractIso(d, scalars, value);
   const nRaw = raw.t.length;
-  const index = new ExactPointIndex(Math.max(16, nRaw >> 2));
-  const vid = new Int32Array(nRaw);
-  for (let i = 0; i < nRaw; i++) vid[i] = index.idOf(raw.positions[3 * i]!, raw.positions[3 * i + 1]!, raw.positions[3 * i + 2]!);
-  const nv = index.count;
+  const { vid, count: nv } = weldByEdge(d, raw.ends, nRaw);
   const positions = new Float64Array(3 * nv), vertexEnds = new Int32Array(2 * nv), vertexT = new Float64Array(nv);
   const filled = new Uint8Array(nv);
   for (let i = 0; i < nRaw; i++) {
@@ -113,7 +110,7 @@ function isoAt(d: Dataset, src: ScalarSource, scalars: readonly Float64Array[], 
     positions[3 * v] = raw.positions[3 * i]!; positions[3 * v + 1] = raw.positions[3 * i + 1]!; positions[3 * v + 2] = raw.positions[3 * i + 2]!;
     vertexEnds[2 * v] = raw.ends[2 * i]!; vertexEnds[2 * v + 1] = raw.ends[2 * i + 1]!; vertexT[v] = raw.t[i]!;
   }
-  // Triangles that collapse when welded (an iso value met exactly at nodes) carry no area: dropped.
+  // A triangle repeating a vertex (only from degenerate cells) carries no area: dropped.
   const idx: number[] = [], cells: number[] = [];
   for (let tr = 0; tr < raw.triangles; tr++) {
     const a = vid[3 * tr]!, b = vid[3 * tr + 1]!, c = vid[3 * tr + 2]!;
@@ -159,6 +156,37 @@ function isoAt(d: Dataset, src: ScalarSource, scalars: readonly Float64Array[], 
     volume: signed === null ? null : Math.abs(signed), enclosed: signed === null ? null : signed >= 0 ? 'below' : 'above',
     openReason, colour: stats, empty: nt === 0 && segments.length === 0,
   };
+}
+
+/**
+ * Vertex numbers of the raw vertices, one per subdivision edge: an end point is a mesh point identified by
+ * its exact position (so points repeated in several pieces are one), or a cell's vertex mean (its own).
+ */
+function weldByEdge(d: Dataset, ends: Int32Array, nRaw: number): { vid: Int32Array; count: number } {
+  const pStarts = pointStarts(d), total = pStarts[pStarts.length - 1]!;
+  const posId = d.pieces.length > 1 ? new Int32Array(total).fill(-1) : null;
+  const index = posId ? new ExactPointIndex(Math.max(16, nRaw >> 1)) : null;
+  const endKey = (e: number): number => {
+    if (e < 0) return total + (-1 - e);
+    if (!posId) return e;
+    let id = posId[e]!;
+    if (id < 0) {
+      const k = pieceOfCell(pStarts, e), pts = d.pieces[k]!.points, j = 3 * (e - pStarts[k]!);
+      id = posId[e] = index!.idOf(pts[j]!, pts[j + 1]!, pts[j + 2]!);
+    }
+    return id;
+  };
+  const span = total + totalCells(d) + 1;
+  const map = new Map<number, number>();
+  const vid = new Int32Array(nRaw);
+  for (let i = 0; i < nRaw; i++) {
+    const a = endKey(ends[2 * i]!), b = endKey(ends[2 * i + 1]!);
+    const key = a < b ? a * span + b : b * span + a;
+    let v = map.get(key);
+    if (v === undefined) { v = map.size; map.set(key, v); }
+    vid[i] = v;
+  }
+  return { vid, count: map.size };
 }
 
 function colourStats(f: SurfaceField, src: ScalarSource, pos: Float64Array, idx: Uint32Array, seg: Uint32Array): ColourStats {

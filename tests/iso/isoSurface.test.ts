@@ -143,6 +143,27 @@ function applyMid(corners: V3[]): V3 {
   return m;
 }
 
+describe('a value met exactly at nodes (the surface of f − v + ε)', () => {
+  it('a sphere through lattice nodes is closed; a plane along a node layer has the exact area, counted once', () => {
+    for (const [n, kind] of [[10, 'hex'], [10, 'tet'], [10, 'polyhedron']] as const) {
+      const p = boxMesh(kind, n, n, n);
+      const d = datasetOf([withFields(p, [
+        pointFieldFrom(p, 'r', 1, (x, y, z, o) => { o[0] = Math.hypot(x - 0.5, y - 0.5, z - 0.5); }),
+        pointFieldFrom(p, 'z', 1, (_x, _y, z, o) => { o[0] = z; }),
+      ])]);
+      // r = 0.3 holds at nodes such as (0.5, 0.5, 0.8) and (0.7, 0.7, 0.6) of this lattice
+      const [s] = isoSurfaces(d, { field: 'r', values: [0.3] });
+      expect(s!.closed, `${kind}: ${s!.openReason}`).toBe(true);
+      expect(s!.pieces).toHaveLength(1);
+      expect(Math.abs(s!.volume! / ((4 / 3) * Math.PI * 0.027) - 1)).toBeLessThan(0.08);
+      for (const level of [0.5, 0, 1]) {
+        const [pl] = isoSurfaces(d, { field: 'z', values: [level] });
+        expect(pl!.area, `${kind} z = ${level}`).toBeCloseTo(level === 0 ? 0 : 1, 12);
+      }
+    }
+  });
+});
+
 describe('fields by magnitude, component and cell data', () => {
   const p = boxMesh('hex', 6, 6, 6, 0.2);
   const d = datasetOf([withFields(p, [pointFieldFrom(p, 'velocity', 3, (_x, y, _z, o) => { o[0] = 3; o[1] = 4 * y; o[2] = 0; })],
