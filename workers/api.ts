@@ -83,6 +83,12 @@ export type { DrawingValues, FieldChoice, SurfaceDrawing, TriangleDrawing };
  * group (`groupOutline.ts`: segments where a group ends, drawn around a selected group; none for a file
  * without volume cells).
  */
+/** An iso-surface probe's evaluation and its triangles for the view (`isoSurface`). */
+export interface IsoReply {
+  evaluation: SetEvaluation;
+  drawing: (TriangleDrawing & DrawingValues) | null;
+}
+
 export interface SurfaceReply extends SurfaceDrawing {
   outline: GroupOutline;
   timing?: WorkerStamps;
@@ -280,6 +286,12 @@ export interface ComputeApi {
    * The set is checked first (src/study/probeSetCheck.ts); a malformed set rejects with the checker's message.
    */
   evaluateProbeSet(set: ProbeSet): Promise<SetEvaluation>;
+  /**
+   * Evaluates a set of one iso-surface probe (kind `iso`) like `evaluateProbeSet` and returns, beside the
+   * evaluation, its triangles for drawing (file length unit) coloured by the probe's `fields.colourBy`
+   * (null when the surface is empty). Arrays arrive by transfer.
+   */
+  isoSurface(set: ProbeSet): Promise<IsoReply>;
   /**
    * Opens a series from the chosen files: one `.pvd` among them (its steps' files chosen with it), or
    * numbered result files (`flow_0001.vtu` …; per-step `.pvtu`/`.vtm` sets with their pieces). Times come

@@ -29,8 +29,9 @@ import type { BoundaryFaces } from '../src/surface/boundaryFaces.ts';
 import { getBoundaryFaces, getSurfaceGroups } from '../src/surface/surfaceCache.ts';
 import { facesOfGroups, type SurfaceGroups } from '../src/surface/surfaceGroups.ts';
 import { withDerivedFields } from '../src/derive/derivedFields.ts';
+import { isoDrawing } from '../src/iso/isoDrawing.ts';
 import type {
-  ComputeApi, CutDrawingReply, CutReply, DeriveRequest, DrawingValues, TriangleDrawing, CutRequest, Description, FieldChoice, SurfaceValuesReply, ForceReply, ForceRequest, SetEvaluation,
+  ComputeApi, CutDrawingReply, CutReply, DeriveRequest, DrawingValues, TriangleDrawing, CutRequest, Description, FieldChoice, SurfaceValuesReply, ForceReply, ForceRequest, IsoReply, SetEvaluation,
   LineReply, LineRequest, LoadRequest, ProgressCallback, SurfaceReply,
 } from './api.ts';
 import { groupOutline } from '../src/surface/groupOutline.ts';
@@ -310,6 +311,18 @@ export function createComputeApi(): ComputeApi {
     async evaluateProbeSet(set: ProbeSet): Promise<SetEvaluation> {
       const h = need();
       return evaluateProbeSet(h.dataset, checkProbeSet(set, 'probe set'));
+    },
+
+    async isoSurface(set: ProbeSet): Promise<IsoReply> {
+      const h = need();
+      const checked = checkProbeSet(set, 'probe set');
+      const probe = checked.probes[0];
+      if (checked.probes.length !== 1 || probe?.kind !== 'iso') throw new Error('isoSurface: expected a probe set of one iso probe');
+      const evaluation = evaluateProbeSet(h.dataset, checked, { keepShapes: true });
+      const drawing = isoDrawing(evaluation.probes[0]!, probe.fields?.colourBy);
+      for (const o of evaluation.probes) delete o.shapes;
+      const reply: IsoReply = { evaluation, drawing };
+      return drawing ? Comlink.transfer(reply, [drawing.positions.buffer, drawing.normals.buffer, drawing.groups.buffer, drawing.values.buffer]) : reply;
     },
 
     async openSeries(files: InputFile[]): Promise<SeriesDescription> {

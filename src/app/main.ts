@@ -8,6 +8,7 @@ import { startCompute } from './computeClient.ts';
 import { loadRequestFor } from './fileChoice.ts';
 import { ExportTool } from './exportTool.ts';
 import { ForceTool } from './forceTool.ts';
+import { IsoTool } from './isoTool.ts';
 import { LineTool } from './lineTool.ts';
 import { LossTool } from './lossTool.ts';
 import { PlaneTool } from './planeTool.ts';
@@ -41,10 +42,11 @@ const lines = new LineTool(viewer, new LineChart($('chart-pane')));
 const force = new ForceTool(viewer, refs);
 const losses = new LossTool(viewer, planes, refs);
 const splits = new SplitTool(viewer, planes, refs);
+const isoSurfaces = new IsoTool(viewer, refs);
 const exporter = new ExportTool(viewer, viewer.gui);
 const reports = new ReportTool(viewer, exporter, () => lines.reportFiles());
 // after the tools: on a new file it re-applies the set once they have dropped the old file's probes
-const probeSets = new ProbeSetTool(viewer, { refs, planes, lines, force, losses, splits }, $('compare-pane'), (set) => reports.download(set));
+const probeSets = new ProbeSetTool(viewer, { refs, planes, lines, force, losses, splits, iso: isoSurfaces }, $('compare-pane'), (set) => reports.download(set));
 const series = new SeriesTool(viewer, probeSets, { view: $('view'), drawer: document.querySelector<HTMLElement>('.drawer')! });
 const keys = bindShortcuts({
   undo: () => void probeSets.undo(),

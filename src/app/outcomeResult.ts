@@ -12,7 +12,7 @@ import { assignNoiseScales } from '../ui/roundingNoise.ts';
 
 /** The table's kind of each probe-set kind. */
 export const KIND: Record<Probe['kind'], ProbeKind> = {
-  'cut-plane': 'plane', line: 'line', point: 'point', force: 'force', 'pressure-loss': 'pressure-loss', 'mass-balance': 'mass-balance', wall: 'wall',
+  'cut-plane': 'plane', line: 'line', point: 'point', force: 'force', 'pressure-loss': 'pressure-loss', 'mass-balance': 'mass-balance', wall: 'wall', iso: 'iso',
 };
 
 export interface OutcomeResultOptions {

@@ -1,5 +1,6 @@
 /**
- * The probe set in the viewer: every probe placed in the view (cut-planes, line probes, the force total)
+ * The probe set in the viewer: every probe placed in the view (cut-planes, line probes, the force total,
+ * iso-surfaces)
  * plus the probes of a loaded set that the view's tools cannot edit (points, pressure losses, mass
  * balances, planes with other regions, any probe of a set in non-SI units), which the worker evaluates as
  * a set. Saved and opened as a file (download / upload), kept in local storage on every change and
@@ -16,6 +17,7 @@ import { siFactors } from '../study/siDataset.ts';
 import { ComparisonTable } from '../ui/comparisonTable.ts';
 import { download } from '../ui/download.ts';
 import type { ForceTool } from './forceTool.ts';
+import type { IsoTool } from './isoTool.ts';
 import type { LineTool } from './lineTool.ts';
 import type { LossTool } from './lossTool.ts';
 import { outcomeResult } from './outcomeResult.ts';
@@ -52,7 +54,7 @@ export class ProbeSetTool {
   private readonly comparison: ComparisonTable;
 
   constructor(private readonly v: Viewer,
-    private readonly tools: { refs: ReferenceTool; planes: PlaneTool; lines: LineTool; force: ForceTool; losses: LossTool; splits: SplitTool },
+    private readonly tools: { refs: ReferenceTool; planes: PlaneTool; lines: LineTool; force: ForceTool; losses: LossTool; splits: SplitTool; iso?: IsoTool },
     compareHost: HTMLElement, private readonly makeReport: (set: ProbeSet) => Promise<void>) {
     const f: GUI = v.gui.addFolder('Probe set');
     f.add({ save: () => this.save() }, 'save').name('save probe set (JSON)');
@@ -103,7 +105,7 @@ export class ProbeSetTool {
     const { refs, planes, lines, force, losses, splits } = this.tools;
     const fp = force.probe();
     // a pin placed by hand is kept with its probe
-    const probes = [...planes.probes(), ...lines.probes(), ...(fp ? [fp] : []), ...losses.probes(), ...splits.probes(), ...this.extras].map((p) => {
+    const probes = [...planes.probes(), ...lines.probes(), ...(fp ? [fp] : []), ...losses.probes(), ...splits.probes(), ...(this.tools.iso?.probes() ?? []), ...this.extras].map((p) => {
       const off = this.v.pinOffsets.get(p.id);
       const { pin: _pin, ...rest } = p;
       void _pin;
@@ -156,17 +158,18 @@ export class ProbeSetTool {
       const f = siFactors(set.units);
       const si = f.length === 1 && Object.keys(f.fields).length === 0;
       let forceTaken = false;
-      const composite: Probe[] = [];
+      const composite: Probe[] = [], isoProbes: Probe[] = [];
       for (const p of set.probes) {
         if (si && planes.accepts(p)) planes.addFrom(p);
         else if (si && lines.accepts(p)) lines.addFrom(p);
         else if (si && !forceTaken && force.accepts(p)) { force.setFrom(p); forceTaken = true; }
         else if (si && (losses.accepts(p) || splits.accepts(p))) composite.push(p);
+        else if (si && this.tools.iso?.accepts(p)) isoProbes.push(p);
         else this.extras.push(p);
       }
       // after the planes, so they link to the view's planes
       for (const p of composite) if (losses.accepts(p)) losses.addFrom(p); else splits.addFrom(p);
-      await this.evaluateExtras(gen);
+      await Promise.all([this.evaluateExtras(gen), ...isoProbes.map((p) => this.tools.iso!.addFrom(p))]);
     } finally {
       if (gen === this.generation) { this.applying = false; this.changed(); }
     }
@@ -179,6 +182,7 @@ export class ProbeSetTool {
     planes.removeAll();
     lines.removeAll();
     force.clear();
+    this.tools.iso?.removeAll();
     for (const p of this.extras) this.v.removeResult(p.id, false);
     this.extras = [];
   }

@@ -11,6 +11,7 @@
  *    the plane at a node or a face are in, as the on-plane rule of `cutPlane.ts` needs;
  *  - a volume cell whose bounding box, grown by `boxMargin` of its own diagonal, meets a line probe's
  *    segment or holds a point probe's point (the point-location tolerance is at most 1e-4 of a cell).
+ *  - every volume cell when the set has an iso-surface probe (the surface may pass through any cell);
  *  - a volume cell within two node rings of any cell above (gradient stencils of wall quantities and
  *    derived fields reach that far).
  * Keeping more cells than needed never changes a number: the cut takes only the cells the plane crosses,
@@ -100,6 +101,7 @@ export function footprint(d: Dataset, set: ProbeSet, options: Partial<FootprintO
   const o = { ...FOOTPRINT_DEFAULTS, ...options };
   const bounds = datasetBounds(d) as Footprint['bounds'];
   const { planes, segments } = probeGeometry(set);
+  const everyCell = set.probes.some((p) => p.kind === 'iso');
   const marks = d.pieces.map((p) => new Uint8Array(cellCount(p)));
   const starts = cellStarts(d);
   const faces = boundaryFaces(d);
@@ -114,7 +116,7 @@ export function footprint(d: Dataset, set: ProbeSet, options: Partial<FootprintO
   d.pieces.forEach((p, k) => {
     const mark = marks[k]!, pts = p.points, conn = p.connectivity, offs = p.offsets, types = p.cellTypes;
     for (let c = 0; c < mark.length; c++) {
-      if (cellDimension(types[c]!) !== 3) { mark[c] = 1; continue; }
+      if (everyCell || cellDimension(types[c]!) !== 3) { mark[c] = 1; continue; }
       if (mark[c]) continue;
       lo.fill(Infinity); hi.fill(-Infinity);
       for (let q = offs[c]!; q < offs[c + 1]!; q++) {

@@ -17,6 +17,7 @@ import { evaluateForce } from './evaluateForce.ts';
 import { evaluateBalance, evaluateCutPlane, evaluateLoss } from './evaluatePlanes.ts';
 import { evaluateLine, evaluatePoint } from './evaluateSamples.ts';
 import { evaluateWall } from './evaluateWall.ts';
+import { evaluateIso } from './evaluateIso.ts';
 import { resolveReference, type EvalContext, type ProbeOutcome, type ResolvedReference } from './outcome.ts';
 import { probeLabel, type Probe, type ProbeKind, type ProbeSet, type SurfaceGrouping } from './probeSet.ts';
 import { siDataset, siFactors } from './siDataset.ts';
@@ -61,6 +62,7 @@ const EVALUATORS: Record<ProbeKind, KindEvaluator> = {
   'pressure-loss': evaluateLoss as KindEvaluator,
   'mass-balance': evaluateBalance as KindEvaluator,
   wall: evaluateWall as KindEvaluator,
+  iso: evaluateIso as KindEvaluator,
 };
 
 /** Evaluates every probe of a (checked) set on `dataset`. Never throws for a single probe's failure. */

@@ -17,7 +17,7 @@ export const PROBE_SET_FORMAT = 'fieldtally-probe-set';
 /** The version this code writes; older versions are upgraded on reading. */
 export const PROBE_SET_VERSION = 2;
 
-export const PROBE_KINDS = ['cut-plane', 'line', 'point', 'force', 'pressure-loss', 'mass-balance', 'wall'] as const;
+export const PROBE_KINDS = ['cut-plane', 'line', 'point', 'force', 'pressure-loss', 'mass-balance', 'wall', 'iso'] as const;
 export type ProbeKind = (typeof PROBE_KINDS)[number];
 
 /** Filters that keep part of a cut (all optional; see src/cut/region.ts for the order they apply in). */
@@ -189,7 +189,18 @@ export interface WallProbe extends ProbeBase {
   };
 }
 
-export type Probe = CutPlaneProbe | LineProbe | PointProbe | ForceProbe | PressureLossProbe | MassBalanceProbe | WallProbe;
+/**
+ * An iso-surface: where `geometry.field` (a file array, derived field or formula; a vector by magnitude,
+ * `NAME_x`/`_y`/`_z` for a component) equals `geometry.value` (in the field's SI unit: the set is evaluated
+ * in SI). Reports area, enclosed volume when closed, pieces, and statistics of `fields.colourBy` on it.
+ */
+export interface IsoProbe extends ProbeBase {
+  kind: 'iso';
+  geometry: { field: string; value: number };
+  fields?: { colourBy?: string };
+}
+
+export type Probe = CutPlaneProbe | LineProbe | PointProbe | ForceProbe | PressureLossProbe | MassBalanceProbe | WallProbe | IsoProbe;
 
 /** A probe-set document of the current version. */
 export interface ProbeSet {

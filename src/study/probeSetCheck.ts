@@ -48,6 +48,9 @@ export const MEMBERS = {
   wallGeometry: ['surfaces'],
   wallFields: ['wallShear', 'velocity', 'viscosity', 'pressure'],
   wallOptions: ['featureAngle', 'groupArray', 'wallDistance', 'thresholds', 'bins', 'shearFrom', 'wallGradient', 'wallShearSign'],
+  isoProbe: ['id', 'kind', 'label', 'geometry', 'fields', 'pin'],
+  isoGeometry: ['field', 'value'],
+  isoFields: ['colourBy'],
 } as const satisfies Record<string, readonly string[]>;
 
 /** Limits shared with the schema. */
@@ -197,6 +200,13 @@ function geometry(c: Checks, kind: string, v: unknown, path: string): void {
     if (o) c.optional(o, 'surfaces', path, (x, p) => c.array(x, p, surfaceRef(c), 1));
     return;
   }
+  if (kind === 'iso') {
+    const o = c.object(v, path, MEMBERS.isoGeometry, MEMBERS.isoGeometry);
+    if (!o) return;
+    c.optional(o, 'field', path, fieldName(c));
+    c.optional(o, 'value', path, (x, p) => c.number(x, p));
+    return;
+  }
   if (kind === 'pressure-loss') {
     const o = c.object(v, path, MEMBERS.lossGeometry, MEMBERS.lossGeometry);
     if (!o) return;
@@ -215,6 +225,11 @@ function geometry(c: Checks, kind: string, v: unknown, path: string): void {
 function fields(c: Checks, kind: string, v: unknown, path: string): void {
   if (kind === 'cut-plane' || kind === 'pressure-loss' || kind === 'mass-balance') return flowFields(c, v, path);
   if (kind === 'line' || kind === 'point') return sampleFields(c, v, path);
+  if (kind === 'iso') {
+    const o = c.object(v, path, MEMBERS.isoFields);
+    if (o) c.optional(o, 'colourBy', path, fieldName(c));
+    return;
+  }
   const members = kind === 'wall' ? MEMBERS.wallFields : MEMBERS.forceFields;
   const o = c.object(v, path, members);
   if (o) for (const k of members) c.optional(o, k, path, fieldName(c));
@@ -280,7 +295,7 @@ function probe(c: Checks, v: unknown, path: string, ids: Map<string, string>): v
   const kind = (v as Record<string, unknown>)['kind'];
   if (!(PROBE_KINDS as readonly unknown[]).includes(kind)) { c.oneOf(kind, at(path, 'kind'), PROBE_KINDS); return; }
   const k = kind as string;
-  const o = c.object(v, path, MEMBERS.cutPlaneProbe, ['id', 'kind', 'geometry'])!;
+  const o = c.object(v, path, k === 'iso' ? MEMBERS.isoProbe : MEMBERS.cutPlaneProbe, ['id', 'kind', 'geometry'])!;
   const id = o['id'] === undefined ? undefined : c.string(o['id'], at(path, 'id'), { pattern: LIMITS.idPattern, patternText: ID_TEXT });
   if (id !== undefined) {
     const prev = ids.get(id);

@@ -33,6 +33,7 @@ export const HEADLINE_KEYS: Readonly<Record<string, readonly string[]>> = {
   'pressure-loss': ['totalPressureLoss', 'lossCoefficient'],
   'mass-balance': ['net', 'imbalanceShare'],
   wall: ['yPlus.mean', 'wallShear.mean'],
+  iso: ['area', 'volume'],
 };
 
 /** Up to `n` headline quantities of an outcome (its first quantities when none of the headline keys is there). */
@@ -53,6 +54,7 @@ export const CONVENTIONS: readonly string[] = [
   `Forces: ${FORCE_SIGN} Coefficients C = F/(½ρU²A) along the drag, lift and side (= lift × drag) directions.`,
   'Line probes: statistics over the samples inside the mesh only (length-weighted means); samples outside are left out, never zeroed.',
   'Wall quantities: τ_w the tangential viscous traction on the wall; c_f = |τ_w|/(½ρU²); y+ = y·√(|τ_w|/ρ)/ν with y as the probe states (wall-cell centroid or first off-wall node); statistics area-weighted.',
+  'Iso-surfaces: each cell split into tetrahedra and cut where the linear interpolant equals the value; area of the triangles; enclosed volume (divergence theorem) only for a surface closed on itself, otherwise the count of open edges; colour statistics area-weighted.',
 ];
 
 /** Failures over all files, as `file: probe — message` lines. */

@@ -8,7 +8,7 @@ import { notesText, type ResultNote } from './notes.ts';
 import { noiseMark, type NoiseScale } from './roundingNoise.ts';
 
 /** `plane`, `line`, `force` come from the view's tools; the others only from a loaded probe set. */
-export type ProbeKind = 'plane' | 'line' | 'force' | 'point' | 'pressure-loss' | 'mass-balance' | 'wall';
+export type ProbeKind = 'plane' | 'line' | 'force' | 'point' | 'pressure-loss' | 'mass-balance' | 'wall' | 'iso';
 
 /** One number of a probe. */
 export interface Quantity {

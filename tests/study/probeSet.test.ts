@@ -107,14 +107,14 @@ describe('probe set: malformed documents are refused with a clear error', () => 
     (t.probes[1]!.geometry as { region: { disk: { radius: number } } }).region.disk.radius = -1;
     expect(refuse(t).message).toBe('case.json: probes[1].geometry.region.disk.radius: expected a number > 0, found -1');
     const u = valid();
-    (u.probes[2]!.options as { samples: number }).samples = 2.5;
+    ((u.probes[2] as { options?: unknown }).options as { samples: number }).samples = 2.5;
     expect(refuse(u).message).toBe('case.json: probes[2].options.samples: expected a whole number, found 2.5');
   });
 
   it('an unknown kind, unit or preset', () => {
     const s = valid() as unknown as { probes: { kind: string }[] };
     s.probes[4]!.kind = 'probe-point';
-    expect(refuse(s).message).toMatch(/^case\.json: probes\[4\]\.kind: expected one of "cut-plane", "line", "point", "force", "pressure-loss", "mass-balance", "wall", found "probe-point"$/);
+    expect(refuse(s).message).toMatch(/^case\.json: probes\[4\]\.kind: expected one of "cut-plane", "line", "point", "force", "pressure-loss", "mass-balance", "wall", "iso", found "probe-point"$/);
     const u = valid();
     u.units = { fields: { p: 'kg/m3', T: 'degC' } };
     const e = refuse(u);

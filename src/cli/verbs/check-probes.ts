@@ -41,7 +41,7 @@ const checkProbes: Verb = {
   usage: [
     'fieldtally check-probes <set.json> [--upgrade out.json] [--json]',
     `  A probe set (format "fieldtally-probe-set", version ${PROBE_SET_VERSION}; schema: src/study/probeSet.schema.json) holds the probes`,
-    '  (cut-plane, line, point, force, pressure-loss, mass-balance), the reference values (SI) and the file\'s units.',
+    '  (cut-plane, line, point, force, pressure-loss, mass-balance, wall, iso), the reference values (SI) and the file\'s units.',
     '  Version 1 files are read and upgraded; --upgrade writes the current version to out.json (never over the input).',
     `  Reference presets: ${FLUID_PRESETS.map((p) => `${p.id} (${p.label}: ρ = ${p.density} kg/m³, μ = ${p.viscosity} Pa·s)`).join('; ')}.`,
     `  Units: ${UNIT_CATALOGUE.map((u) => u.symbol).join(' ')}`,
