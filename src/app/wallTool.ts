@@ -114,6 +114,12 @@ export class WallTool implements FieldSource {
       wallDistance: o.wallDistance ?? 'cell-centroid', shearFrom: o.shearFrom ?? 'auto',
     };
     this.pins.push(pin);
+    // the panel shows the thresholds of a pinned group it has chosen (after an undo, a reload, an opened set)
+    if (this.resolveRefs(pin.surfaces)?.every((g) => g === this.settings.group)) {
+      this.settings.thresholds = pin.thresholds.join(', ');
+      for (const c of this.folder.controllers) c.updateDisplay();
+      void this.refreshPanel();
+    }
     const n = /^wall-(\d+)$/.exec(p.id);
     if (n) this.next = Math.max(this.next, Number(n[1]) + 1);
     this.evaluate.request(pin);

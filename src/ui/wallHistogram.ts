@@ -37,15 +37,17 @@ export function histogramSvg(h: HistogramInput, width = 260, height = 130): stri
     const s = h.areaShare[i]!, bh = (s / peak) * ht;
     parts.push(`<rect data-bin="${i}" data-share="${s}" x="${r1(x(h.edges[i]!) + 0.5)}" y="${r1(top + ht - bh)}" width="${r1(Math.max(0.5, x(h.edges[i + 1]!) - x(h.edges[i]!) - 1))}" height="${r1(bh)}" fill="#1d4ed8"/>`);
   }
+  let above = 0;
   for (const t of h.above) {
     if (!(t.threshold >= lo && t.threshold <= hi)) continue;
-    const tx = r1(x(t.threshold));
+    const tx = r1(x(t.threshold)), rightHalf = x(t.threshold) > left + w / 2;
+    // the label sits on the side with room: left of a line in the right half
     parts.push(`<line data-threshold="${t.threshold}" x1="${tx}" y1="${top}" x2="${tx}" y2="${top + ht}" stroke="#b91c1c" stroke-dasharray="3 2"/>`,
-      `<text x="${tx}" y="${top + 9}" dx="2" fill="#b91c1c">&gt; ${formatNumber(t.threshold)}: ${formatNumber(100 * t.areaShare)} %</text>`);
+      `<text x="${tx}" y="${top + 9 + 11 * above++}" dx="${rightHalf ? -2 : 2}"${rightHalf ? ' text-anchor="end"' : ''} fill="#b91c1c">&gt; ${Number(t.threshold.toPrecision(4))}: ${(100 * t.areaShare).toFixed(1)} %</text>`);
   }
   parts.push(`<text x="${left}" y="${height - 8}" fill="#4b5563">${formatNumber(lo)}</text>`,
     `<text x="${left + w}" y="${height - 8}" text-anchor="end" fill="#4b5563">y+ ${formatNumber(hi)}</text>`,
-    `<text x="${left - 3}" y="${top + 8}" text-anchor="end" fill="#4b5563">${formatNumber(100 * peak)}%</text>`,
+    `<text x="${left - 3}" y="${top + 8}" text-anchor="end" fill="#4b5563">${(100 * peak).toFixed(1)} %</text>`,
     `<text x="${left - 3}" y="${top + ht}" text-anchor="end" fill="#4b5563">0</text>`, '</svg>');
   return parts.join('');
 }
