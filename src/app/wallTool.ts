@@ -51,6 +51,8 @@ export class WallTool implements FieldSource {
     shearFrom: WALL_PANEL_DEFAULTS.shearFrom as WallRequest['shearFrom'], thresholds: WALL_PANEL_DEFAULTS.thresholds.join(', '),
   };
   private pins: WallPin[] = [];
+  /** Set once the tool was used on this file (colour, pin, a choice changed, a pinned group restored). */
+  private used = false;
   private next = 1;
   private readonly panel: HTMLDivElement;
   private readonly evaluate;
@@ -64,7 +66,7 @@ export class WallTool implements FieldSource {
       (ev, p) => { const o = ev.probes[0]; if (o && this.pins.includes(p)) v.setResult(this.result(o, p)); },
       (e) => v.banner.error(`Wall quantities: ${(e as Error).message}`));
     v.addFieldSource(this);
-    v.onDataset(() => { this.pins = []; this.next = 1; this.settings.group = this.defaultGroup(); this.buildPanel(); });
+    v.onDataset(() => { this.pins = []; this.next = 1; this.used = false; this.settings.group = this.defaultGroup(); this.buildPanel(); });
     v.onResultRemoved((id) => { this.pins = this.pins.filter((p) => p.id !== id); });
     v.onRename((id, label) => { const p = this.pins.find((x) => x.id === id); if (p) p.label = label; });
     refs.onChange(() => {
@@ -88,6 +90,7 @@ export class WallTool implements FieldSource {
   async resolve(key: string): Promise<ResolvedColour> {
     const q = key.slice(KEY.length) as Quantity, g = this.group();
     if (!g || !(q in QUANTITIES)) throw new Error(`no wall quantity "${q}" on a surface group`);
+    if (!this.used) { this.used = true; void this.refreshPanel(); }
     const r = await this.request(q);
     return { kind: 'values', values: r.values, title: `${QUANTITIES[q].title} on ${g.name}`, unit: QUANTITIES[q].unit };
   }
@@ -116,6 +119,7 @@ export class WallTool implements FieldSource {
     this.pins.push(pin);
     // the panel shows the thresholds of a pinned group it has chosen (after an undo, a reload, an opened set)
     if (this.resolveRefs(pin.surfaces)?.every((g) => g === this.settings.group)) {
+      this.used = true;
       this.settings.thresholds = pin.thresholds.join(', ');
       for (const c of this.folder.controllers) c.updateDisplay();
       void this.refreshPanel();
@@ -139,10 +143,12 @@ export class WallTool implements FieldSource {
     const groups = this.v.description?.groups ?? [];
     const ref = groups.filter((x) => x.name === g.name).length === 1 ? g.name : g.fileId;
     while (this.v.allResults.some((r) => r.id === `wall-${this.next}`)) this.next++;
+    this.used = true;
     const pin: WallPin = { id: `wall-${this.next++}`, label: `Wall ${g.name}`, surfaces: [ref], thresholds, wallDistance: this.settings.wallDistance, shearFrom: this.settings.shearFrom };
     this.pins.push(pin);
     this.v.select(pin.id);
     this.evaluate.request(pin);
+    void this.refreshPanel();
   }
 
   private doc(p: WallPin): WallProbe {
@@ -174,9 +180,10 @@ export class WallTool implements FieldSource {
 
   private group() { return this.v.description?.groups.find((g) => g.id === this.settings.group); }
 
-  /** A group named like a wall, else the largest. */
+  /** Among the groups shown at opening (an enclosing far field is hidden): one named like a wall, else the largest. */
   private defaultGroup(): number {
-    const groups = this.v.description?.groups ?? [];
+    const all = this.v.description?.groups ?? [], shown = all.filter((g) => this.v.shownGroups.has(g.id));
+    const groups = shown.length ? shown : all;
     const wall = groups.find((g) => /wall|body|surface|sphere|cylinder|blade|hull|wing/i.test(g.name));
     return (wall ?? [...groups].sort((a, b) => b.area - a.area)[0])?.id ?? 0;
   }
@@ -191,9 +198,19 @@ export class WallTool implements FieldSource {
     });
   }
 
-  /** Panel text: where τ_w comes from, the y⁺ histogram of the group. */
+  /**
+   * Panel text: where τ_w comes from, the y⁺ histogram of the group. Computed once the tool is used (not on
+   * opening a file, so the first picture is not kept waiting).
+   */
   private async refreshPanel(): Promise<void> {
     if (!this.group() || !this.v.description) { this.panel.replaceChildren(); return; }
+    if (!this.used) {
+      const hint = document.createElement('div');
+      hint.className = 'wall-source';
+      hint.textContent = 'Colour the group or pin its statistics: the y+ histogram and the source of τ_w show here.';
+      this.panel.replaceChildren(hint);
+      return;
+    }
     try {
       const r = await this.v.track(this.request('shear'));
       const text = document.createElement('div');
@@ -223,7 +240,7 @@ export class WallTool implements FieldSource {
     const opts: Record<string, number> = {};
     for (const g of groups) opts[g.name in opts ? `${g.name} (${g.fileId})` : g.name] = g.id;
     const s = this.settings;
-    const changed = () => { this.v.rebuildColorChooser(); this.recolourIfShown(); void this.refreshPanel(); };
+    const changed = () => { this.used = true; this.v.rebuildColorChooser(); this.recolourIfShown(); void this.refreshPanel(); };
     this.folder.add(s, 'group', opts).name('surface group').onChange(changed);
     const q: Record<string, Quantity> = {};
     for (const k of Object.keys(QUANTITIES) as Quantity[]) q[QUANTITIES[k].label] = k;
