@@ -27,8 +27,23 @@ export class DerivedTool implements FieldSource {
 
   constructor(private readonly v: Viewer, private readonly refs: ReferenceTool) {
     v.addFieldSource(this);
-    // a new file starts with none of the previous file's derived fields; the set's formulas stay
-    v.onDataset(() => { this.wanted = []; if (this.formulaList.length) void this.attach('making the formulas'); });
+    // the derived field the view is coloured by carries over to the next file or step when it has the inputs;
+    // the others are dropped; the set's formulas stay
+    let keep: DerivedName | undefined;
+    v.onBeforeDataset(() => {
+      const f = v.fields.find((x) => x.key === v.settings.field);
+      keep = f && (this.wanted as string[]).includes(f.name) ? f.name as DerivedName : undefined;
+    });
+    v.onDataset(() => {
+      const offered = offeredDerived(v.fields.map((f) => ({ name: f.name, association: f.association, components: f.components })));
+      this.wanted = keep && offered.includes(keep) ? [keep] : [];
+      const colour = this.wanted[0];
+      if (!this.wanted.length && !this.formulaList.length) return;
+      void this.attach(colour ? `computing ${colour}` : 'making the formulas').then(() => {
+        const f = colour ? v.fields.find((x) => x.name === colour) : undefined;
+        if (f && !this.failureOf(colour!)) void v.chooseField(f.key);
+      });
+    });
     // cp, total pressure and formulas naming ref.* depend on the reference conditions
     refs.onChange(() => { if (this.wanted.length || this.formulaList.length) void this.attach('updating derived fields'); });
   }

@@ -123,6 +123,12 @@ describe('derived fields, wall quantities and formulas in the app', () => {
     expect(Math.abs((await colourRange())[0])).toBeLessThan(1e-9);
     await setText('ref. speed U [m/s]', U);
     await shot('d02-cp');
+    // the next file (here the same one again) is coloured by cp too: made again on it
+    await openFile(PIPE, 'pipe-medium.vtu');
+    await page.waitForFunction(() => document.querySelector('.legend')?.textContent?.startsWith('cp'));
+    await settle();
+    expect(await control('field', 'Colour').locator('select option:checked').innerText()).toBe('cp (points)');
+    expect((await colourRange())[1]).toBe(sig6(e.G * e.L / (0.5 * rho * U * U)));
   });
 
   it('colours the pipe wall by y+ and pins its statistics, equal to the `wall` verb; thresholds are editable and undoable', async () => {
