@@ -159,6 +159,14 @@ describe('derived fields, wall quantities and formulas in the app', () => {
     // Hagen–Poiseuille τ_w = 4μV/R = 0.020032 Pa; the faceted wall (24 facets) puts the mean 0.9 % low
     expect(Math.abs(w.stats.shearMagnitude.mean / (4 * mu * e.V / e.R) - 1)).toBeLessThan(0.01);
     await shot('d03-wall-yplus');
+    // c_f = |τ_w|/(½ρU²) with U = 1: the colour range is the verb's, face by face
+    await choose('quantity', 'c_f skin friction', 'Wall quantities');
+    await control('colour the group by it', 'Wall quantities').locator('button').click();
+    await settle();
+    const cf = (cli('wall', PIPE, '--groups', '1', '--rho', String(rho), '--mu', String(mu), '--speed', '1') as { groups: { stats: { cf: { min: number; max: number } } }[] }).groups[0]!.stats.cf;
+    expect(await colourRange()).toEqual([sig6(cf.min), sig6(cf.max)]);
+    expect(await page.locator('.legend').innerText()).toMatch(/c_f on part 1/);
+    await choose('quantity', 'y+', 'Wall quantities');
     // thresholds 1.8 and 5: the pin takes them (one undo step), numbers the verb's
     const steps = () => page.evaluate(() => Number(document.body.dataset['undoSteps'] ?? 0));
     const before = await steps();
@@ -213,12 +221,24 @@ describe('derived fields, wall quantities and formulas in the app', () => {
     // ½ρ|u|² peaks on the axis, u = 2V
     expect((await colourRange())[1]).toBe(sig6(0.5 * rho * 4 * e.V * e.V));
     expect(await control('pressure field', 'Cut-plane').locator('select option').allInnerTexts()).toContain('dynp (point)');
+    // a line probe samples it (and the derived fields made so far), column by column in its CSV
+    await page.getByText('+ new line probe').click();
+    await page.waitForSelector('[data-pin="line-1"]');
+    await settle();
+    const [d] = await Promise.all([page.waitForEvent('download'), page.locator('.chart-csv').click()]);
+    const header = readFileSync((await d.path())!, 'utf8').trim().split('\n')[2]!.split(',');
+    expect(header.some((h) => h.startsWith('dynp'))).toBe(true);
+    expect(header.some((h) => h.startsWith('cp'))).toBe(true);
     await shot('d06-formula-colour');
     await page.waitForFunction((n) => Number(document.body.dataset['undoSteps'] ?? 0) > n, before);
     const saved = JSON.parse(await downloadOf(() => page.getByText('save probe set (JSON)').click())) as { formulas?: unknown[] };
     expect(saved.formulas).toEqual([{ name: 'dynp', expression: '0.5 * ref.density * dot(velocity, velocity)', unit: 'Pa' }]);
-    // undo removes it, redo brings it back
+    // undo (after undoing the line probe) removes it, redo brings it back
     await page.evaluate(() => (document.activeElement as HTMLElement | null)?.blur());
+    await page.keyboard.press('Control+z');
+    await page.waitForFunction(() => !document.querySelector('[data-pin="line-1"]'));
+    await settle();
+    expect(await folder.locator('.formula-row').count()).toBe(1);
     await page.keyboard.press('Control+z');
     await settle();
     expect(await folder.locator('.formula-row').count()).toBe(0);
