@@ -260,6 +260,64 @@ export interface DeriveRequest {
   reference?: { density?: number; speed?: number; pressure?: number };
 }
 
+/**
+ * Fields the app attaches to the held dataset (`attachFields`): derived fields and user formulas, always
+ * made afresh from the file's own arrays, so a changed reference value (cp) or a removed formula takes effect.
+ */
+export interface FieldsRequest {
+  /** Derived field names (src/derive/derivedFields.ts), e.g. `vorticity-magnitude`, `cp`. */
+  derived: string[];
+  /** User formulas in order (src/derive/formulaFields.ts); `unit` an optional SI label. */
+  formulas: { name: string; expression: string; unit?: string }[];
+  /** Reference values (SI): density kg/m³, viscosity Pa·s, speed m/s, pressure Pa, area m², length m. */
+  reference: { density?: number; viscosity?: number; speed?: number; pressure?: number; area?: number; length?: number };
+}
+
+/** The description with the attached fields, and what could not be made (one line each, the core's message). */
+export interface FieldsReply {
+  description: Description;
+  /** SI unit of each formula made (`undeclared` when an input's unit is unknown). */
+  formulaUnits: Record<string, string>;
+  failed: { name: string; message: string }[];
+}
+
+/** Wall quantities on surface groups for colouring and statistics (`wallSurface`; src/surface/wallQuantities.ts). */
+export interface WallRequest {
+  /** Group indices (`GroupInfo.id`). */
+  groups: number[];
+  /** What the per-vertex values hold: |τ_w| (Pa), c_f, or y⁺. */
+  quantity: 'shear' | 'cf' | 'yplus';
+  /** ρ (kg/m³), U (m/s), μ (Pa·s) of the reference conditions. */
+  density: number;
+  speed: number;
+  viscosity: number;
+  /** y⁺ thresholds for the area shares. */
+  thresholds: number[];
+  /** Histogram bins of y⁺. */
+  bins: number;
+  wallDistance: 'cell-centroid' | 'first-node';
+  /** τ_w from the file's wall-shear array, the velocity gradient, or auto (the array when present). */
+  shearFrom: 'auto' | 'wall-shear' | 'gradient';
+}
+
+/** Per-vertex values of the chosen quantity (`NO_VALUE` of src/surface/wallDrawing.ts off the groups) and the statistics. */
+export interface WallReply {
+  values: DrawingValues;
+  /** How τ_w was found, in words (array name, or the velocity gradient, its order and μ). */
+  shearSource: string;
+  wallDistanceDefinition: string;
+  faces: number;
+  /** m². */
+  area: number;
+  stats: { shear: WallStatTriple; cf: WallStatTriple | null; yPlus: WallStatTriple | null };
+  yPlusAbove: { threshold: number; areaShare: number }[];
+  yPlusHistogram: { edges: number[]; areaShare: number[] } | null;
+  notes: string[];
+}
+
+/** Area-weighted mean, min and max. */
+export interface WallStatTriple { mean: number; min: number; max: number }
+
 /** The worker's API. */
 export interface ComputeApi {
   /** Reads a file or set; replaces the held dataset only on success. Rejects with the reader's error. */
@@ -318,4 +376,11 @@ export interface ComputeApi {
   cancelSeries(): void;
   /** Attaches derived fields to the held dataset; resolves to the updated description (its arrays list them). */
   deriveFields(request: DeriveRequest): Promise<Description>;
+  /**
+   * Replaces the app's derived and formula fields on the held dataset by those of `request`, made from the
+   * file's own arrays; a field that cannot be made is left out and listed in `failed`.
+   */
+  attachFields(request: FieldsRequest): Promise<FieldsReply>;
+  /** Wall quantities on surface groups: values for colouring the drawn surface and the groups' statistics. */
+  wallSurface(request: WallRequest): Promise<WallReply>;
 }

@@ -30,6 +30,8 @@ import { getBoundaryFaces, getSurfaceGroups } from '../src/surface/surfaceCache.
 import { facesOfGroups, type SurfaceGroups } from '../src/surface/surfaceGroups.ts';
 import { withDerivedFields } from '../src/derive/derivedFields.ts';
 import { isoDrawing } from '../src/iso/isoDrawing.ts';
+import { attachFields, wallSurface } from './fieldCalls.ts';
+import type { FieldsReply, FieldsRequest, WallReply, WallRequest } from './api.ts';
 import type {
   ComputeApi, CutDrawingReply, CutReply, DeriveRequest, DrawingValues, TriangleDrawing, CutRequest, Description, FieldChoice, SurfaceValuesReply, ForceReply, ForceRequest, IsoReply, SetEvaluation,
   LineReply, LineRequest, LoadRequest, ProgressCallback, SurfaceReply,
@@ -58,6 +60,8 @@ interface Held {
   boundary?: { faces: BoundaryFaces; groups: SurfaceGroups };
   /** Share workers holding the dataset (src/parallel/), when the plan uses more than one worker. */
   pool?: ComputePool;
+  /** The dataset as read, before `attachFields` added the app's derived and formula fields. */
+  base?: Dataset;
 }
 
 /** This worker's pool plan: from its own isolation, the core count and the page's `?workers=N` (passed in the worker's name). */
@@ -310,7 +314,8 @@ export function createComputeApi(): ComputeApi {
 
     async evaluateProbeSet(set: ProbeSet): Promise<SetEvaluation> {
       const h = need();
-      return evaluateProbeSet(h.dataset, checkProbeSet(set, 'probe set'));
+      // from the file's own arrays: the set attaches its own derived fields and formulas
+      return evaluateProbeSet(h.base ?? h.dataset, checkProbeSet(set, 'probe set'));
     },
 
     async isoSurface(set: ProbeSet): Promise<IsoReply> {
@@ -392,6 +397,24 @@ export function createComputeApi(): ComputeApi {
       // same points and cells: the boundary faces and groups found at load stay valid
       held = { ...h, dataset, description: { ...h.description, report: loadReport(dataset) } };
       return held.description;
+    },
+
+    async attachFields(request: FieldsRequest): Promise<FieldsReply> {
+      const h = need(), base = h.base ?? h.dataset;
+      const { dataset, formulaUnits, failed } = attachFields(base, request);
+      // share workers hold only the file's arrays: with fields attached, cuts and lines run here
+      const pool = dataset === base ? h.pool : undefined;
+      held = { ...h, base, dataset, description: { ...h.description, report: loadReport(dataset) }, ...(pool ? { pool } : {}) };
+      if (!pool) delete held.pool;
+      if (h.pool && !pool) await h.pool.close();
+      return { description: held.description, formulaUnits, failed };
+    },
+
+    async wallSurface(request: WallRequest): Promise<WallReply> {
+      const h = need();
+      if (!h.boundary) throw new Error('wall quantities need volume cells: this file holds surface cells only');
+      const r = wallSurface(h.dataset, h.boundary.faces, h.boundary.groups, facesOf(h), request);
+      return Comlink.transfer(r, [r.values.values.buffer as ArrayBuffer]);
     },
   };
 }

@@ -58,6 +58,8 @@ export class LineTool {
     chart.download.onclick = () => this.downloadCsv();
     v.onDataset(() => { this.removeAll(); this.buildPanel(); });
     v.onResultRemoved((id) => this.remove(id));
+    // derived or formula fields attached: every line samples them too
+    v.onFields(() => { for (const l of this.lines) this.request.request(l); });
     v.onRename((id, label) => { const l = this.lines.find((x) => x.id === id); if (l) { l.label = label; this.buildPanel(); this.chart.set(this.chartData(this.current)); } });
     v.addPointerTool(this.pointer());
     this.buildPanel();

@@ -7,8 +7,10 @@ import sampleUrl from '../../sample-fields/sphere-stokes.vtu?url';
 import { startCompute } from './computeClient.ts';
 import { loadRequestFor } from './fileChoice.ts';
 import { ExportTool } from './exportTool.ts';
+import { DerivedTool } from './derivedTool.ts';
 import { ForceTool } from './forceTool.ts';
 import { IsoTool } from './isoTool.ts';
+import { FormulaTool } from './formulaTool.ts';
 import { LineTool } from './lineTool.ts';
 import { LossTool } from './lossTool.ts';
 import { PlaneTool } from './planeTool.ts';
@@ -19,6 +21,7 @@ import { seriesChoiceFor, type SeriesChoice } from './seriesChoice.ts';
 import { SeriesTool } from './seriesTool.ts';
 import { bindShortcuts } from './shortcuts.ts';
 import { SplitTool } from './splitTool.ts';
+import { WallTool } from './wallTool.ts';
 import { LineChart } from '../ui/lineChart.ts';
 import { Viewer } from './viewer.ts';
 import { ensureIsolation } from './isolation.ts';
@@ -37,6 +40,8 @@ const viewer = new Viewer(startCompute(), {
 });
 
 const refs = new ReferenceTool(viewer);
+// before the other tools: on a new file the formulas reach the worker before any probe's request
+const derived = new DerivedTool(viewer, refs);
 const planes = new PlaneTool(viewer, refs);
 const lines = new LineTool(viewer, new LineChart($('chart-pane')));
 const force = new ForceTool(viewer, refs);
@@ -45,8 +50,10 @@ const splits = new SplitTool(viewer, planes, refs);
 const isoSurfaces = new IsoTool(viewer, refs);
 const exporter = new ExportTool(viewer, viewer.gui);
 const reports = new ReportTool(viewer, exporter, () => lines.reportFiles());
+const walls = new WallTool(viewer, refs);
+const formulas = new FormulaTool(viewer, derived);
 // after the tools: on a new file it re-applies the set once they have dropped the old file's probes
-const probeSets = new ProbeSetTool(viewer, { refs, planes, lines, force, losses, splits, iso: isoSurfaces }, $('compare-pane'), (set) => reports.download(set));
+const probeSets = new ProbeSetTool(viewer, { refs, planes, lines, force, losses, splits, iso: isoSurfaces, walls, formulas }, $('compare-pane'), (set) => reports.download(set));
 const series = new SeriesTool(viewer, probeSets, { view: $('view'), drawer: document.querySelector<HTMLElement>('.drawer')! });
 const keys = bindShortcuts({
   undo: () => void probeSets.undo(),

@@ -65,6 +65,8 @@ export class PlaneTool {
     v.onDataset(() => this.reset());
     v.onColor(() => { for (const p of this.planes) this.request.request(p, false); });
     refs.onChange(() => { this.buildPanel(); this.recomputeAll(); });
+    // derived or formula fields attached: they join the field choices and the cuts are made again
+    v.onFields(() => { this.buildPanel(); this.recomputeAll(); });
     v.onColorSettings(() => this.applyColorSettings());
     v.onResultRemoved((id) => this.remove(id));
     v.onRename((id, label) => { const p = this.planes.find((q) => q.id === id); if (p) { p.label = label; this.buildPanel(); this.planesChanged(); } });

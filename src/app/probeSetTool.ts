@@ -18,6 +18,8 @@ import { ComparisonTable } from '../ui/comparisonTable.ts';
 import { download } from '../ui/download.ts';
 import type { ForceTool } from './forceTool.ts';
 import type { IsoTool } from './isoTool.ts';
+import type { FormulaTool } from './formulaTool.ts';
+import type { WallTool } from './wallTool.ts';
 import type { LineTool } from './lineTool.ts';
 import type { LossTool } from './lossTool.ts';
 import { outcomeResult } from './outcomeResult.ts';
@@ -54,7 +56,7 @@ export class ProbeSetTool {
   private readonly comparison: ComparisonTable;
 
   constructor(private readonly v: Viewer,
-    private readonly tools: { refs: ReferenceTool; planes: PlaneTool; lines: LineTool; force: ForceTool; losses: LossTool; splits: SplitTool; iso?: IsoTool },
+    private readonly tools: { refs: ReferenceTool; planes: PlaneTool; lines: LineTool; force: ForceTool; losses: LossTool; splits: SplitTool; iso?: IsoTool; walls?: WallTool; formulas?: FormulaTool },
     compareHost: HTMLElement, private readonly makeReport: (set: ProbeSet) => Promise<void>) {
     const f: GUI = v.gui.addFolder('Probe set');
     f.add({ save: () => this.save() }, 'save').name('save probe set (JSON)');
@@ -96,16 +98,19 @@ export class ProbeSetTool {
       this.extras = this.extras.filter((p) => p.id !== id);
     });
     v.onRename((id, label) => { const p = this.extras.find((x) => x.id === id); if (p) p.label = label; });
+    // a formula defined or removed is a change of the set (an undo step)
+    tools.formulas?.onChange(() => this.changed());
     // the set's other probes use the reference conditions too
     tools.refs.onChange(() => { if (!this.applying) void this.evaluateExtras(this.generation); this.changed(); });
   }
 
   /** The probe set as it stands: the tools' probes and the set's other probes, in the set's order. */
   currentSet(): ProbeSet {
-    const { refs, planes, lines, force, losses, splits } = this.tools;
+    const { refs, planes, lines, force, losses, splits, walls, formulas } = this.tools;
     const fp = force.probe();
+    const formulaDocs = formulas?.docs() ?? [];
     // a pin placed by hand is kept with its probe
-    const probes = [...planes.probes(), ...lines.probes(), ...(fp ? [fp] : []), ...losses.probes(), ...splits.probes(), ...(this.tools.iso?.probes() ?? []), ...this.extras].map((p) => {
+    const probes = [...planes.probes(), ...lines.probes(), ...(fp ? [fp] : []), ...losses.probes(), ...splits.probes(), ...(this.tools.iso?.probes() ?? []), ...(walls?.probes() ?? []), ...this.extras].map((p) => {
       const off = this.v.pinOffsets.get(p.id);
       const { pin: _pin, ...rest } = p;
       void _pin;
@@ -116,7 +121,7 @@ export class ProbeSetTool {
     return {
       format: PROBE_SET_FORMAT, version: PROBE_SET_VERSION,
       ...(this.meta.title ? { title: this.meta.title } : {}), ...(this.meta.description ? { description: this.meta.description } : {}),
-      ...(this.meta.units ? { units: this.meta.units } : {}), reference: refs.doc(), probes,
+      ...(this.meta.units ? { units: this.meta.units } : {}), reference: refs.doc(), ...(formulaDocs.length ? { formulas: formulaDocs } : {}), probes,
     };
   }
 
@@ -143,8 +148,10 @@ export class ProbeSetTool {
     const gen = ++this.generation;
     this.applying = true;
     try {
-      const { refs, planes, lines, force, losses, splits } = this.tools;
+      const { refs, planes, lines, force, losses, splits, walls, formulas } = this.tools;
       this.clearTools();
+      // first: the formulas reach the worker before any probe's request that may name them
+      void formulas?.setFrom(set.formulas ?? []);
       this.meta = {
         ...(set.title ? { title: set.title } : {}), ...(set.description ? { description: set.description } : {}),
         ...(set.units ? { units: set.units } : {}),
@@ -165,6 +172,7 @@ export class ProbeSetTool {
         else if (si && !forceTaken && force.accepts(p)) { force.setFrom(p); forceTaken = true; }
         else if (si && (losses.accepts(p) || splits.accepts(p))) composite.push(p);
         else if (si && this.tools.iso?.accepts(p)) isoProbes.push(p);
+        else if (si && walls?.accepts(p)) walls.addFrom(p);
         else this.extras.push(p);
       }
       // after the planes, so they link to the view's planes
@@ -176,7 +184,8 @@ export class ProbeSetTool {
   }
 
   private clearTools(): void {
-    const { planes, lines, force, losses, splits } = this.tools;
+    const { planes, lines, force, losses, splits, walls } = this.tools;
+    walls?.removeAll();
     losses.removeAll();
     splits.removeAll();
     planes.removeAll();

@@ -27,6 +27,7 @@ import { SurfaceLayer } from '../view/surfaceLayer.ts';
 import { ViewScene, type ViewPreset } from '../view/viewScene.ts';
 import { markDrawn, timedCall } from './callTiming.ts';
 import type { Compute } from './computeClient.ts';
+import type { FieldSource } from './fieldSource.ts';
 import { memoryNeeded, memoryWarning, requestBytes } from './fileChoice.ts';
 
 /** A field the panel offers: `key` is `point:name` or `cell:name`. */
@@ -87,6 +88,11 @@ export class Viewer {
     opacity: 1,
   };
   private dataRange: [number, number] = [0, 1];
+  /** Tools adding colour entries beyond the file's arrays (derived fields, formulas, wall quantities). */
+  private readonly fieldSources: FieldSource[] = [];
+  private readonly fieldListeners: (() => void)[] = [];
+  /** Legend title and unit while a source draws its own values (no field of the dataset). */
+  private sourceLegend: { title: string; unit: string } | undefined;
 
   constructor(readonly compute: Compute, els: { canvas: HTMLCanvasElement; overlay: HTMLElement; side: HTMLElement; tools: HTMLElement;
     results: HTMLElement; progress: HTMLElement; summary: HTMLElement }) {
@@ -136,6 +142,36 @@ export class Viewer {
   /** Called when a result is removed from the table (the tool drops its probe). */
   onResultRemoved(f: (id: string) => void): void { this.resultListeners.push(f); }
   addPointerTool(t: PointerTool): void { this.tools.push(t); }
+  /** Adds colour-chooser entries of a tool (see fieldSource.ts). */
+  addFieldSource(s: FieldSource): void { this.fieldSources.push(s); if (this.description) this.rebuildColorPanel(); }
+  /** Called when the held dataset's fields changed without a new file (derived fields or formulas attached). */
+  onFields(f: () => void): void { this.fieldListeners.push(f); }
+
+  /**
+   * Takes the worker's description after fields were attached or dropped: same surfaces, new field list;
+   * the colouring is kept (and recomputed, its values may have changed) when its field still exists.
+   */
+  updateFields(d: Description): void {
+    if (!this.description) return;
+    this.description = { ...this.description, report: d.report };
+    this.fields = fieldEntries(d.report);
+    const key = this.settings.field, owned = this.fieldSources.some((x) => x.owns(key));
+    const kept = owned || key === '' || this.fields.some((f) => f.key === key);
+    if (!kept) this.settings.field = this.fields.find((f) => /^p$|pressure/i.test(f.name))?.key ?? this.fields[0]?.key ?? '';
+    this.rebuildColorPanel();
+    for (const l of this.fieldListeners) l();
+    if (!owned) void this.recolor();
+  }
+
+  /** Rebuilds the colour chooser (a source's entries changed). */
+  rebuildColorChooser(): void { if (this.description) this.rebuildColorPanel(); }
+
+  /** Colours by `key` (a file field's `point:`/`cell:` key or a source's entry), as if chosen in the panel. */
+  async chooseField(key: string): Promise<void> {
+    this.settings.field = key;
+    this.rebuildColorPanel();
+    await this.recolor();
+  }
 
   /** Marks work in progress for the page's `data-busy` attribute (tests wait on it). */
   async track<T>(p: Promise<T>): Promise<T> {
@@ -295,8 +331,28 @@ export class Viewer {
 
   /** Recolours the surface by the chosen field and tells the tools (the cut-plane recolours too). */
   async recolor(): Promise<void> {
-    const s = this.surface, choice = this.colorChoice;
+    const s = this.surface;
     if (!s) return;
+    const key = this.settings.field, source = this.fieldSources.find((x) => x.owns(key));
+    this.sourceLegend = undefined;
+    if (source) {
+      try {
+        const r = await this.track(source.resolve(key));
+        if (this.surface !== s || this.settings.field !== key) return;
+        if (r.kind === 'field') { await this.chooseField(r.key); return; }
+        s.setValues(r.values);
+        this.sourceLegend = { title: r.title, unit: r.unit };
+        this.dataRange = Number.isFinite(r.values.range[0]) ? r.values.range : [0, 1];
+      } catch (e) {
+        if (this.settings.field !== key) return;
+        this.banner.error(`Could not colour by ${key.replace(/^[a-z]+:/, '')}: ${(e as Error).message}`);
+        s.setValues(null);
+      }
+      this.applyColorSettings();
+      for (const l of this.colorListeners) l();
+      return;
+    }
+    const choice = this.colorChoice;
     if (!choice) {
       s.setValues(null);
       this.legend.set(null);
@@ -335,6 +391,8 @@ export class Viewer {
 
   /** What the legend shows, or null without a colouring field. */
   legendState(): LegendState | null {
+    const own = this.sourceLegend;
+    if (own) return { title: own.title, unit: own.unit, range: this.colorRange, fixed: !this.settings.autoRange, map: this.colorMap };
     const c = this.colorChoice;
     if (!c) return null;
     const f = this.fields.find((x) => x.key === this.settings.field)!;
@@ -346,6 +404,7 @@ export class Viewer {
     for (const c of [...this.colorFolder.controllers]) c.destroy();
     const opts: Record<string, string> = { '(none: grey)': '' };
     for (const f of this.fields) opts[`${f.name} (${f.association === 'point' ? 'points' : 'cells'})`] = f.key;
+    for (const src of this.fieldSources) for (const e of src.entries()) if (!(e.label in opts)) opts[e.label] = e.key;
     // a scalar has no parts to choose: the choice shows only for a vector field
     const showPart = () => part.show((this.fields.find((f) => f.key === this.settings.field)?.components ?? 1) > 1);
     this.colorFolder.add(this.settings, 'field', opts).name('field').onChange(() => { showPart(); void this.recolor(); });

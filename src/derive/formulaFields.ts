@@ -9,13 +9,15 @@ import { cellCount, findField, pointCount, type Piece } from '../model/piece.ts'
 import { DERIVED_UNITS, isDerivedName, withDerivedFields, type DeriveOptions } from './derivedFields.ts';
 import { evaluateFormula } from './formulaEval.ts';
 import { FormulaError, formulaFields, parseFormula } from './formulaParse.ts';
-import { unitOfDims } from './formulaUnits.ts';
+import { dimsOf, FORMULA_UNIT_LABELS, sameDims, unitOfDims, type Dims } from './formulaUnits.ts';
 
 /** A formula as a probe set stores it. */
 export interface FormulaDoc {
   /** Name of the new field: letters, digits, `_`, `-`, `.`, starting with a letter. */
   name: string;
   expression: string;
+  /** Optional SI unit label of the result (a label of formulaUnits.ts): checked against the expression's unit, or taken when that is unknown. */
+  unit?: string;
 }
 
 export const FORMULA_NAME = /^[A-Za-z][A-Za-z0-9_.-]{0,63}$/;
@@ -88,8 +90,17 @@ export function withFormulaFields(d: Dataset, formulas: readonly FormulaDoc[], c
         throw new FormulaError(`formula "${f.name}"${cur.pieces.length > 1 ? ` (piece ${k})` : ''}: ${(e as Error).message}`);
       }
     });
-    units[f.name] = unitOfDims(dims);
+    units[f.name] = declaredUnit(f, dims);
     cur = { ...cur, pieces };
   }
   return { dataset: cur, units };
+}
+
+/** The formula's unit: the expression's, checked against a declared `unit`; the declared one when the expression's is unknown. */
+function declaredUnit(f: FormulaDoc, dims: Dims): string {
+  if (f.unit === undefined) return unitOfDims(dims);
+  const want = dimsOf(f.unit);
+  if (!want) throw new FormulaError(`formula "${f.name}": unit "${f.unit}" is not an SI unit label; expected one of ${FORMULA_UNIT_LABELS.join(', ')}`);
+  if (dims && !sameDims(dims, want)) throw new FormulaError(`formula "${f.name}": the expression gives ${unitOfDims(dims)}, but the declared unit is ${f.unit}`);
+  return f.unit;
 }

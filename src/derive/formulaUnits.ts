@@ -14,6 +14,9 @@ const TABLE: readonly (readonly [string, readonly [number, number, number, numbe
   ['W/m²', [0, 1, -3, 0]], ['kg', [0, 1, 0, 0]], ['s', [0, 0, 1, 0]],
 ];
 
+/** The SI unit labels a formula may declare as its unit. */
+export const FORMULA_UNIT_LABELS: readonly string[] = TABLE.map(([u]) => u);
+
 /** Dimensions of an SI unit label, or null for an unknown one. */
 export function dimsOf(unit: string | undefined): Dims {
   if (unit === undefined) return null;

@@ -210,8 +210,8 @@ export interface ProbeSet {
   description?: string;
   units?: UnitsDoc;
   reference?: ReferenceDoc;
-  /** User formulas defining new fields (name = expression; see src/derive/formulaParse.ts), evaluated in order. */
-  formulas?: { name: string; expression: string }[];
+  /** User formulas defining new fields (name = expression; see src/derive/formulaParse.ts), evaluated in order; `unit` (optional, an SI label) is checked against the expression's unit, or names it when the inputs' units are unknown. */
+  formulas?: { name: string; expression: string; unit?: string }[];
   probes: Probe[];
 }
 

@@ -8,13 +8,14 @@
  */
 import { Checks, DocumentError, at } from './checkValues.ts';
 import { checkFormula, FORMULA_NAME } from '../derive/formulaFields.ts';
+import { dimsOf, FORMULA_UNIT_LABELS } from '../derive/formulaUnits.ts';
 import { PROBE_KINDS, PROBE_SET_FORMAT, PROBE_SET_VERSION, type ProbeSet } from './probeSet.ts';
 import { FLUID_PRESETS, LENGTH_UNITS, UNIT_CATALOGUE, unitDef, unitProblem } from './units.ts';
 
 /** Members each object of the document may hold, by schema `$defs` name (`document` is the root). */
 export const MEMBERS = {
   document: ['format', 'version', 'title', 'description', 'units', 'reference', 'formulas', 'probes'],
-  formula: ['name', 'expression'],
+  formula: ['name', 'expression', 'unit'],
   units: ['length', 'fields'],
   reference: ['preset', 'density', 'viscosity', 'speed', 'area', 'length', 'pressure', 'dragDirection', 'liftDirection', 'liftFrom', 'momentPoint'],
   plane: ['origin', 'normal', 'region'],
@@ -318,10 +319,12 @@ function probe(c: Checks, v: unknown, path: string, ids: Map<string, string>): v
 
 /** A formula: a new field's name and an expression that parses (the parser's message names the column). */
 function formula(c: Checks, v: unknown, path: string): void {
-  const o = c.object(v, path, MEMBERS.formula, MEMBERS.formula);
+  const o = c.object(v, path, MEMBERS.formula, ['name', 'expression']);
   if (!o) return;
   const name = o['name'] === undefined ? undefined : c.string(o['name'], at(path, 'name'), { pattern: FORMULA_NAME, patternText: 'a name of letters, digits, "_", "-" or "." starting with a letter (at most 64)' });
   const expr = o['expression'] === undefined ? undefined : c.string(o['expression'], at(path, 'expression'), { minLength: 1, maxLength: 10000 });
+  const unit = o['unit'] === undefined ? undefined : c.string(o['unit'], at(path, 'unit'), { minLength: 1, maxLength: 40 });
+  if (unit !== undefined && dimsOf(unit) === null) c.fail(at(path, 'unit'), `an SI unit label (${FORMULA_UNIT_LABELS.join(', ')})`, unit);
   if (name === undefined || expr === undefined) return;
   try { checkFormula({ name, expression: expr }); } catch (e) { c.fail(at(path, 'expression'), `a formula that parses (${(e as Error).message.replace(/^formula "[^"]*": /, '')})`, expr); }
 }

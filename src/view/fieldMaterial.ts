@@ -7,6 +7,7 @@
  */
 import * as THREE from 'three';
 import { colorMapStrip, type ColorMap } from './colorMaps.ts';
+import { NO_VALUE } from '../surface/wallDrawing.ts';
 
 /** Colour of selected surface groups: their tint and rim here, their outline in selectionOutline.ts. */
 export const SELECTION_COLOR = 0xff7a00;
@@ -24,7 +25,10 @@ varying vec3 vNormal;
 varying vec3 vView;
 varying float vSelected;
 varying float vHidden;
+varying float vMissing;
 void main() {
+  // NO_VALUE (src/surface/wallDrawing.ts) marks a face without a value: drawn grey
+  vMissing = aValue >= ${NO_VALUE / 10} ? 1.0 : 0.0;
   float span = uRange.y - uRange.x;
   vT = span > 0.0 ? (aValue - uRange.x) / span : 0.5;
   int g = int(aGroup + 0.5);
@@ -48,9 +52,10 @@ varying vec3 vNormal;
 varying vec3 vView;
 varying float vSelected;
 varying float vHidden;
+varying float vMissing;
 void main() {
   if (vHidden > 0.5) discard;
-  vec3 c = uSolid > 0.5 ? uSolidColor : texture2D(uMap, vec2(clamp(vT, 0.0, 1.0) * 0.99609375 + 0.001953125, 0.5)).rgb;
+  vec3 c = uSolid > 0.5 || vMissing > 0.5 ? uSolidColor : texture2D(uMap, vec2(clamp(vT, 0.0, 1.0) * 0.99609375 + 0.001953125, 0.5)).rgb;
   // selected groups: a light tint, and a rim where the surface turns away at grazing angles toward its
   // silhouette (a closed body has no outline to draw), opaque even when the surface is see-through; the
   // field's colours stay readable wherever the surface faces the viewer
