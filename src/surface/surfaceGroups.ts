@@ -16,10 +16,10 @@
  *  group per name (`block-name`, id = the name's rank in order of first appearance).
  *
  * Ids do not depend on cell order: a group from a group array has the array's value as id; feature parts get
- * ids after the largest such value (from 0 when there is none), ranked by a geometric key — larger area first,
- * then smaller centroid x, y, z (areas within 1e-9 relative and coordinates within 1e-9 of the bounds
- * diagonal count as equal) — so the same wall gets the same id in two files whose cells are numbered
- * differently. Names come from the file where it has them (a group array's name table, block names; see
+ * ids after the largest such value (from 0 when there is none), ranked by a geometric key — smaller centroid
+ * x, then y, then z, then (concentric parts) smaller area first; coordinates within 1e-9 of the bounds
+ * diagonal and areas within 1e-9 relative count as equal — so the same wall gets the same id in two files
+ * whose cells are numbered differently (a pipe along z: inlet, wall, outlet). Names come from the file where it has them (a group array's name table, block names; see
  * `groupNames.ts`), else `<array> <value>` / `surface <piece>` / `part <id>`, and are renamed by
  * `renameGroups` (the caller keeps the name map). Areas in length unit², centroids (area-weighted) and
  * bounds in the length unit. Groups can also be chosen by what they are (`groupSelect.ts`).
@@ -268,12 +268,11 @@ function rankFeatureParts(s: Stats, faceGroup: Int32Array, first: number, diagon
   const tol = 1e-9 * diagonal;
   const order = Array.from({ length: n }, (_, i) => first + i).sort((a, b) => {
     const da = s.area[a]!, db = s.area[b]!;
-    if (Math.abs(da - db) > 1e-9 * Math.max(da, db)) return db - da;
     for (let k = 0; k < 3; k++) {
       const ca = s.cen[3 * a + k]! / (da || 1), cb = s.cen[3 * b + k]! / (db || 1);
       if (Math.abs(ca - cb) > tol) return ca - cb;
     }
-    return 0;
+    return Math.abs(da - db) > 1e-9 * Math.max(da, db) ? da - db : 0;
   });
   const newIndex = new Int32Array(s.area.length);
   for (let g = 0; g < first; g++) newIndex[g] = g;

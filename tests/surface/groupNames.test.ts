@@ -32,7 +32,7 @@ describe('group names from the file', () => {
       ]);
       expect(centre(g.groups[0]!.centroid)).toBe('0,0.5,0.5');
       expect(centre(g.groups[1]!.centroid)).toBe('1,0.5,0.5');
-      // equal areas (1): ranked by centroid x, then y, then z — y = 0, z = 0, z = 1, y = 1
+      // ranked by centroid x, then y, then z: y = 0, z = 0, z = 1, y = 1
       expect(g.groups.slice(2).map((x) => centre(x.centroid))).toEqual(['0.5,0,0.5', '0.5,0.5,0', '0.5,0.5,1', '0.5,1,0.5']);
       expect(resolveGroups(g, ['drain'])).toEqual([1]);
     });
@@ -93,9 +93,9 @@ describe('feature-part ids do not depend on cell order', () => {
   for (const [label, piece] of [['hexahedra', hexGrid(4, 3, 2, box)], ['tetrahedra', tetGrid(3, 2, 2, box)]] as const) {
     it(`${label}: the same side gets the same id after the cells and points are shuffled`, () => {
       const a = datasetOf([piece]), ga = surfaceGroups(a, boundaryFaces(a));
-      // larger area first; equal areas by centroid x, y, z
+      // by centroid x, then y, then z
       expect(ga.groups.map((g) => [g.id, Math.round(g.area * 1e12) / 1e12, centre(g.centroid)])).toEqual([
-        [0, 2, '1,0.5,0'], [1, 2, '1,0.5,0.5'], [2, 1, '1,0,0.25'], [3, 1, '1,1,0.25'], [4, 0.5, '0,0.5,0.25'], [5, 0.5, '2,0.5,0.25'],
+        [0, 0.5, '0,0.5,0.25'], [1, 1, '1,0,0.25'], [2, 2, '1,0.5,0'], [3, 2, '1,0.5,0.5'], [4, 1, '1,1,0.25'], [5, 0.5, '2,0.5,0.25'],
       ]);
       for (const seed of [1, 2, 3]) {
         const b = datasetOf([permuted(piece, seed)]), gb = surfaceGroups(b, boundaryFaces(b));
