@@ -3,7 +3,7 @@ import { describe, expect, it } from 'vitest';
 import { loadDatasetFile } from '../../src/io/nodeFiles.ts';
 import { pieceLabels } from '../../src/io/vtkSets.ts';
 import { cellCount, type Piece } from '../../src/model/piece.ts';
-import { datasetOf, field, hexGrid, pieceFromCells, tetGrid } from '../../src/model/meshBuild.ts';
+import { datasetOf, hexGrid, pieceFromCells, tetGrid } from '../../src/model/meshBuild.ts';
 import { seededRandom } from '../../src/model/seededRandom.ts';
 import { boundaryFaces } from '../../src/surface/boundaryFaces.ts';
 import { groupNameTable } from '../../src/surface/groupNames.ts';
@@ -63,7 +63,7 @@ describe('group names from the file', () => {
     const base: Dataset = datasetOf([hexGrid(1, 1, 1)], 'names.vtu');
     const d = (strings: string[], ids?: number[]): Dataset => ({
       ...base, fieldStrings: [{ name: 'Zone_Names', values: strings }],
-      fieldData: ids ? [field('zone ids', 'dataset', 1, new Int32Array(ids))] : [],
+      fieldData: ids ? [{ name: 'zone ids', association: 'dataset', components: 1, values: new Int32Array(ids), sourceType: 'Int32' }] : [],
     });
     const t1 = groupNameTable(d(['a', 'b'], [7, 3]), 'zone', [3, 7]);
     expect(t1 && 'names' in t1 ? [...t1.names] : t1).toEqual([[7, 'a'], [3, 'b']]);
