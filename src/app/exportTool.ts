@@ -6,6 +6,7 @@ import type GUI from 'lil-gui';
 import * as THREE from 'three';
 import { CAUTION } from '../study/caution.ts';
 import { download } from '../ui/download.ts';
+import { drawTriad } from '../ui/axisTriad.ts';
 import { drawLegend } from '../ui/legend.ts';
 import { drawPins } from '../ui/pins.ts';
 import { resultsAsCsv, resultsAsJson, resultsAsText, type ExportContext } from '../ui/results.ts';
@@ -74,6 +75,7 @@ export class ExportTool {
     const lines = [`fieldtally — ${ctxText.file} — ${ctxText.createdAt.slice(0, 10)}`, ...wrapText(ctx, `Caution: ${CAUTION}`, w * 0.6)];
     const footW = Math.max(...lines.map((l) => ctx.measureText(l).width)), footH = (8 + 15 * lines.length + 4) * scale;
     obstacles.push({ x: w - 12 * scale - footW, y: h - footH, width: footW + 12 * scale, height: footH });
+    obstacles.push(await drawTriad(ctx, cam, w, h, scale, footH));
     drawPins(ctx, this.v.allResults, project, scale, obstacles, footH, this.v.pinOffsets);
     ctx.font = `${11 * scale}px system-ui, sans-serif`;
     ctx.fillStyle = '#4b5563';

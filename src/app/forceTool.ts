@@ -9,7 +9,7 @@
 import { SHEAR_NAME } from '../surface/surfaceLoads.ts';
 import type GUI from 'lil-gui';
 import type * as THREE from 'three';
-import { PROBE_SET_FORMAT, PROBE_SET_VERSION, type ForceProbe, type Probe, type ReferenceDoc } from '../study/probeSet.ts';
+import { PROBE_SET_FORMAT, PROBE_SET_VERSION, type ForceProbe, type Probe, type ReferenceDoc, type SurfaceRef } from '../study/probeSet.ts';
 import type { ResultNote } from '../ui/notes.ts';
 import { latestWins } from './latestWins.ts';
 import { outcomeResult } from './outcomeResult.ts';
@@ -41,7 +41,7 @@ export class ForceTool {
   /** Reference values this force total overrides (from a loaded probe set's `options.reference`). */
   private override: ReferenceDoc | undefined;
   /** The surfaces as a loaded set named them, written back while the selection is still theirs. */
-  private loadedRefs: { refs: (string | number)[]; groups: string } | undefined;
+  private loadedRefs: { refs: SurfaceRef[]; groups: string } | undefined;
 
   constructor(private readonly v: Viewer, private readonly refs: ReferenceTool) {
     this.folder = v.gui.addFolder('Force total');
@@ -120,10 +120,12 @@ export class ForceTool {
     return this.resolve(p.geometry.surfaces) !== undefined;
   }
 
-  private resolve(refs: readonly (string | number)[]): number[] | undefined {
+  /** Group ids of references by name or id; undefined when one is unknown or a selector (the worker evaluates those). */
+  private resolve(refs: readonly SurfaceRef[]): number[] | undefined {
     const groups = this.v.description?.groups ?? [];
     const out: number[] = [];
     for (const r of refs) {
+      if (typeof r === 'object') return undefined;
       const byName = groups.filter((g) => g.name === String(r));
       const g = byName.length === 1 ? byName[0] : byName.length === 0 && /^-?\d+$/.test(String(r)) ? groups.find((x) => x.fileId === Number(r)) : undefined;
       if (!g) return undefined;

@@ -138,7 +138,7 @@ export class PlaneTool {
     };
     this.planes.push(p);
     this.v.view.root.add(p.layer.group);
-    if (this.v.settings.opacity === 1) this.v.setSurfaceOpacity(0.35);
+    // no see-through here: a set re-applied on a newly opened file leaves that file's fresh view alone
     this.select(p);
     this.changed();
   }

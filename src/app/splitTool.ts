@@ -6,7 +6,7 @@
  * balance, which wants outward normals); surface groups are oriented out of the fluid already.
  */
 import type { ProbeOutcome } from '../study/evaluate.ts';
-import type { MassBalanceProbe, Probe } from '../study/probeSet.ts';
+import type { MassBalanceProbe, Probe, SurfaceRef } from '../study/probeSet.ts';
 import type { ProbeResult } from '../ui/results.ts';
 import { CompositeTool, type CompositeItem } from './compositeTool.ts';
 import { outcomeResult } from './outcomeResult.ts';
@@ -24,7 +24,7 @@ interface SplitPlane {
 interface Split extends CompositeItem {
   planes: SplitPlane[];
   /** Surface groups by name, or by file id where names repeat (as the probe set writes them). */
-  surfaces: (string | number)[];
+  surfaces: SurfaceRef[];
   /** Field roles and grouping options as a loaded set gave them (kept as they are), or the cut-plane tool's field choice at creation. */
   fields: MassBalanceProbe['fields'];
   options: MassBalanceProbe['options'];

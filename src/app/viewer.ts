@@ -12,6 +12,7 @@ import type { LoadReport } from '../model/loadReport.ts';
 import { AboutBox } from '../ui/aboutBox.ts';
 import { planPool, requestedWorkers } from '../parallel/poolPlan.ts';
 import { Banner } from '../ui/banner.ts';
+import { TriadView } from '../ui/axisTriad.ts';
 import { formatBytes, formatNumber } from '../ui/format.ts';
 import { LegendView, type LegendState } from '../ui/legend.ts';
 import { PinOverlay } from '../ui/pins.ts';
@@ -86,6 +87,8 @@ export class Viewer {
     max: 1,
     edges: true,
     opacity: 1,
+    /** Keep the camera, colouring, opacity, outlines and shown groups when another file is opened (off: every file starts afresh). */
+    keepView: false,
   };
   private dataRange: [number, number] = [0, 1];
   /** Tools adding colour entries beyond the file's arrays (derived fields, formulas, wall quantities). */
@@ -97,10 +100,11 @@ export class Viewer {
   constructor(readonly compute: Compute, els: { canvas: HTMLCanvasElement; overlay: HTMLElement; side: HTMLElement; tools: HTMLElement;
     results: HTMLElement; progress: HTMLElement; summary: HTMLElement }) {
     this.view = new ViewScene(els.canvas);
-    this.banner = new Banner(els.overlay.parentElement!);
+    this.banner = new Banner(els.overlay.parentElement!, () => this.view.requestRender());
     this.legend = new LegendView(els.overlay);
     this.pins = new PinOverlay(els.overlay, (p) => this.view.project(p), (id) => this.select(id), (id) => { this.select(id); this.refreshResults(); });
-    this.view.onFrame(() => this.pins.update());
+    const triad = new TriadView(els.overlay.parentElement!);
+    this.view.onFrame(() => { triad.update(this.view.camera); this.pins.update(); });
     this.progress = new ProgressBar(els.progress);
     this.progress.cancel.onclick = () => { this.progress.cancelling(); void this.compute.cancelLoad(); };
     const requested = requestedWorkers(location.search);
@@ -237,7 +241,7 @@ export class Viewer {
       const drawing = await this.track(timedCall('surface', () => this.compute.surface(), false));
       if (!current()) return false;
       this.openRequest = request;
-      this.install(d, drawing);
+      this.install(d, drawing, this.settings.keepView);
       document.body.dataset['state'] = 'ready';
       return true;
     } catch (e) {
@@ -284,6 +288,8 @@ export class Viewer {
     this.description = d;
     for (const id of [...this.results.keys()]) this.removeResult(id, true);
     if (this.surface) { this.view.root.remove(this.surface.group); this.surface.dispose(); }
+    // a new file starts with the default colour map and part (the rest of the view state is reset below)
+    if (!keepView) { this.settings.map = DEFAULT_COLOR_MAP; this.settings.component = 'magnitude'; }
     const groupCount = Math.max(1, ...d.groups.map((g) => g.id + 1));
     this.surface = new SurfaceLayer(drawing, this.colorMap, groupCount, this.view.software);
     // every file starts from the same view state: opaque surfaces, outlines only where they stay readable;
@@ -443,6 +449,7 @@ export class Viewer {
     this.groupFolder.add(this.settings, 'edges').name('face outlines').onChange((on: boolean) => { this.surface?.setEdgesVisible(on); this.view.requestRender(); });
     this.groupFolder.add(this.settings, 'opacity', 0.1, 1, 0.05).name('surface opacity').listen()
       .onChange((a: number) => this.setSurfaceOpacity(a));
+    this.groupFolder.add(this.settings, 'keepView').name('keep this view for the next file');
     const hide = enclosingGroups(d, this.bounds);
     const keep = shown && d.groups.some((g) => shown.has(g.id)) ? shown : undefined;
     for (const g of d.groups) {

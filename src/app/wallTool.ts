@@ -106,14 +106,16 @@ export class WallTool implements FieldSource {
     const o = p.options ?? {};
     if (Object.keys(o).some((k) => !['thresholds', 'wallDistance', 'shearFrom', 'wallGradient'].includes(k))) return false;
     if (o.wallGradient !== undefined && o.wallGradient !== 'second-order') return false;
-    return this.resolveRefs(p.geometry.surfaces) !== undefined;
+    // a group chosen by a selector (name, bounds, area) is evaluated by the worker with the set's other probes
+    if (p.geometry.surfaces.some((r) => typeof r === 'object')) return false;
+    return this.resolveRefs(p.geometry.surfaces as (string | number)[]) !== undefined;
   }
 
   /** Pins a probe-set `wall` probe (see `accepts`), keeping its id, label and options. */
   addFrom(p: WallProbe): void {
     const o = p.options ?? {};
     const pin: WallPin = {
-      id: p.id, label: p.label ?? p.id, surfaces: [...p.geometry.surfaces], thresholds: o.thresholds ? [...o.thresholds] : [1, 5, 30],
+      id: p.id, label: p.label ?? p.id, surfaces: p.geometry.surfaces.filter((r): r is string | number => typeof r !== 'object'), thresholds: o.thresholds ? [...o.thresholds] : [1, 5, 30],
       wallDistance: o.wallDistance ?? 'cell-centroid', shearFrom: o.shearFrom ?? 'auto',
     };
     this.pins.push(pin);

@@ -18,6 +18,7 @@ import type { UnitsDoc } from '../study/probeSet.ts';
 import { getBoundaryFaces, getSurfaceGroups } from '../surface/surfaceCache.ts';
 import { overlaySvg, pinRow, type OverlayPin } from '../ui/reportOverlay.ts';
 import { DEFAULT_COLOR_MAP, colorMap } from '../view/colorMaps.ts';
+import { basisOf } from '../study/axisTriad.ts';
 import { drawFaces, faceValues, surfaceCellFaces } from '../surface/surfaceDrawing.ts';
 import type { FieldChoice } from '../surface/surfaceDrawing.ts';
 
@@ -161,6 +162,6 @@ export function reportPicture(d: Dataset, ev: SetEvaluation, units: UnitsDoc | u
     file: o.file, png: encodePng(o.width, o.height, rgba), width: o.width, height: o.height,
     caption: `${ev.source}: boundary surfaces${choice ? ` coloured by ${choice.name}${part}` : ''}, isometric view, with the probes and their first numbers (software rendering)` +
       `${hidden.size ? '; outer boundary hidden' : ''}${outside ? `; ${outside} probe${outside > 1 ? 's' : ''} outside the picture (see the tables)` : ''}`,
-    overlay: overlaySvg(o.width, o.height, pins, legend),
+    overlay: overlaySvg(o.width, o.height, pins, legend, basisOf(cam.eye, cam.target, cam.up)),
   };
 }

@@ -10,7 +10,7 @@
  * with `opts.resolve(path)`, paths relative to the set file's folder, normalised (`/` separators, no `.`
  * or `x/..` segments).
  */
-import type { Dataset } from '../model/dataset.ts';
+import type { Dataset, FieldStrings } from '../model/dataset.ts';
 import type { FieldArray } from '../model/fieldArray.ts';
 import type { Piece } from '../model/piece.ts';
 import { bytesSource, type ByteSource } from './byteSource.ts';
@@ -46,17 +46,33 @@ function folderOf(path: string): string {
   return i < 0 ? '' : path.slice(0, i);
 }
 
-/** Leaf file paths of a composite set, depth first, in file order. */
-function compositeLeaves(el: XmlElement, out: string[]): string[] {
+/** A leaf of a set: its file path and the `/`-joined names of the blocks around it and its own ('' when none). */
+interface Leaf { readonly file: string; readonly name: string }
+
+const joinName = (outer: string, inner: string | undefined): string => (inner ? (outer ? `${outer}/${inner}` : inner) : outer);
+
+/** Leaf files of a composite set, depth first, in file order, with the `name` attributes of their blocks. */
+function compositeLeaves(el: XmlElement, out: Leaf[], outer = ''): Leaf[] {
   for (const c of el.children) {
     if (c.name === 'DataSet') {
       const f = c.attrs.get('file');
-      if (f) out.push(f);
+      if (f) out.push({ file: f, name: joinName(outer, c.attrs.get('name')?.trim()) });
     } else if (c.name !== 'FieldData' && c.name !== 'DataAssembly' && c.name !== 'InformationKey') {
-      compositeLeaves(c, out);
+      compositeLeaves(c, out, joinName(outer, c.attrs.get('name')?.trim()));
     }
   }
   return out;
+}
+
+/**
+ * Piece labels from block paths: the innermost name where it tells the leaves apart, else the whole path
+ * (`walls/floor` and `body/floor` stay apart; a lone `floor` is just `floor`).
+ */
+export function pieceLabels(paths: readonly string[]): string[] {
+  const last = (p: string) => p.slice(p.lastIndexOf('/') + 1);
+  const owners = new Map<string, Set<string>>();
+  for (const p of paths) if (p) owners.set(last(p), (owners.get(last(p)) ?? new Set()).add(p));
+  return paths.map((p) => (p && owners.get(last(p))!.size === 1 ? last(p) : p));
 }
 
 /** Arrays declared by `<PPointData>`/`<PCellData>`, for a warning when a piece lacks one. */
@@ -66,6 +82,9 @@ function declaredNames(el: XmlElement | undefined): string[] {
 
 interface Collected {
   pieces: Piece[];
+  /** Block path of each piece ('' when unnamed). */
+  pieceNames: string[];
+  fieldStrings: FieldStrings[];
   fieldData: FieldArray[];
   warnings: string[];
   fileCellTypes: Record<number, number>;
@@ -85,9 +104,11 @@ async function fetchPiece(setName: string, resolve: ResolveSource, path: string)
 }
 
 /** Adds the pieces of one leaf dataset; warns about arrays the parallel set declares but the leaf lacks. */
-function addLeaf(acc: Collected, d: Dataset, path: string, declared: { point: string[]; cell: string[] } | undefined): void {
+function addLeaf(acc: Collected, d: Dataset, path: string, declared: { point: string[]; cell: string[] } | undefined, blockName: string): void {
   if (d.kind !== 'polydata') acc.allPolyData = false;
   acc.pieces.push(...d.pieces);
+  for (let k = 0; k < d.pieces.length; k++) acc.pieceNames.push(blockName);
+  for (const f of d.fieldStrings ?? []) if (!acc.fieldStrings.some((g) => g.name === f.name)) acc.fieldStrings.push(f);
   for (const f of d.fieldData) if (!acc.fieldData.some((g) => g.name === f.name)) acc.fieldData.push(f);
   acc.warnings.push(...d.warnings.map((w) => `${path}: ${w}`));
   for (const [t, n] of Object.entries(d.fileCellTypes)) acc.fileCellTypes[Number(t)] = (acc.fileCellTypes[Number(t)] ?? 0) + n;
@@ -110,13 +131,13 @@ function setLeaves(setName: string, type: string, body: XmlElement) {
       return src;
     });
     const declared = { point: declaredNames(child(body, 'PPointData')), cell: declaredNames(child(body, 'PCellData')) };
-    return { leaves, expectLeafType: PARALLEL[type], declared };
+    return { leaves: leaves.map((file): Leaf => ({ file, name: '' })), expectLeafType: PARALLEL[type], declared };
   }
   if (COMPOSITE.has(type)) return { leaves: compositeLeaves(body, []), expectLeafType: undefined, declared: undefined };
   throw unsupportedTypeError(setName, type);
 }
 
-async function collect(setName: string, bytes: Uint8Array, resolve: ResolveSource, opts: LoadOptions, depth: number, acc: Collected): Promise<void> {
+async function collect(setName: string, bytes: Uint8Array, resolve: ResolveSource, opts: LoadOptions, depth: number, acc: Collected, outerName = ''): Promise<void> {
   const doc = scanXml(bytes, setName);
   const { type } = fileSettings(doc, setName);
   const body = child(doc.root, type);
@@ -124,7 +145,8 @@ async function collect(setName: string, bytes: Uint8Array, resolve: ResolveSourc
   const { leaves, expectLeafType, declared } = setLeaves(setName, type, body);
   for (let i = 0; i < leaves.length; i++) {
     checkAborted(opts.signal, setName);
-    const path = joinPath('', leaves[i]!);
+    const path = joinPath('', leaves[i]!.file);
+    const blockName = joinName(outerName, leaves[i]!.name);
     const namedSet = SET_FILE_NAME.test(path);
     if (opts.pieceShare && !namedSet && !opts.pieceShare(acc.leaves++, path)) continue;
     const leaf = await fetchPiece(setName, resolve, path);
@@ -149,10 +171,10 @@ async function collect(setName: string, bytes: Uint8Array, resolve: ResolveSourc
         if (depth >= MAX_DEPTH) throw new Error(`${leafName}: sets nested more than ${MAX_DEPTH} deep (does a set name itself?)`);
         const folder = folderOf(path);
         const setBytes = input.whole ? input.bytes : await readWhole(leaf);
-        await collect(leafName, setBytes, (p) => resolve(joinPath(folder, p)), opts, depth + 1, acc);
+        await collect(leafName, setBytes, (p) => resolve(joinPath(folder, p)), opts, depth + 1, acc, blockName);
         continue;
       }
-      addLeaf(acc, await readVtkXmlInput(leafName, input, leafOpts), path, declared);
+      addLeaf(acc, await readVtkXmlInput(leafName, input, leafOpts), path, declared, blockName);
     } finally {
       await leaf.close?.();
     }
@@ -171,11 +193,13 @@ export async function readVtkSet(name: string, bytes: Uint8Array, opts: LoadOpti
   const resolve: ResolveSource | undefined = opts.resolveSource
     ?? (fetchBytes && (async (rel) => bytesSource(rel.split('/').pop() ?? rel, await fetchBytes(rel))));
   if (!resolve) throw new Error(`${name}: a multi-file set needs its piece files, but no way to fetch them was given (LoadOptions.resolve)`);
-  const acc: Collected = { pieces: [], fieldData: [], warnings: [], fileCellTypes: {}, allPolyData: true, leaves: 0 };
+  const acc: Collected = { pieces: [], pieceNames: [], fieldStrings: [], fieldData: [], warnings: [], fileCellTypes: {}, allPolyData: true, leaves: 0 };
   await collect(name, bytes, resolve, opts, 0, acc);
   return {
     source: name,
     kind: acc.allPolyData && acc.pieces.length > 0 ? 'polydata' : 'unstructured',
     pieces: acc.pieces, fieldData: acc.fieldData, warnings: acc.warnings, fileCellTypes: acc.fileCellTypes,
+    ...(acc.pieceNames.some((n) => n !== '') ? { pieceNames: pieceLabels(acc.pieceNames) } : {}),
+    ...(acc.fieldStrings.length ? { fieldStrings: acc.fieldStrings } : {}),
   };
 }

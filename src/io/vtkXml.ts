@@ -14,6 +14,7 @@ import { Checkpoint, type LoadOptions } from './loadOptions.ts';
 import { appendedOffsets, type XmlFileContext } from './xmlArrays.ts';
 import { fflateInflate } from './xmlBlocks.ts';
 import { readFieldData } from './xmlFields.ts';
+import { readFieldStrings } from './xmlStrings.ts';
 import { scanXmlSource, type XmlInput } from './xmlHead.ts';
 import { readXmlPiece } from './xmlPiece.ts';
 import { child, childrenNamed, type XmlDocument } from './xmlScan.ts';
@@ -63,6 +64,7 @@ export async function readVtkXmlInput(name: string, input: XmlInput, opts: LoadO
     appended: doc.appended, cp: new Checkpoint(name, opts, source.size), warnings,
   };
   const fieldData = await readFieldData(ctx, child(dataEl, 'FieldData'), name);
+  const fieldStrings = await readFieldStrings(ctx, child(dataEl, 'FieldData'), name);
   const pieces: Piece[] = [];
   const fileCellTypes: Record<number, number> = {};
   const pieceEls = childrenNamed(dataEl, 'Piece');
@@ -73,7 +75,7 @@ export async function readVtkXmlInput(name: string, input: XmlInput, opts: LoadO
     warnings.push(...(pieceEls.length > 1 ? r.warnings : r.warnings.map((w) => w.replace(/^piece 0: /, ''))));
   }
   if (pieces.length === 0) warnings.push('the file holds no <Piece> (empty dataset)');
-  return { source: name, kind, pieces, fieldData, warnings, fileCellTypes };
+  return { source: name, kind, pieces, fieldData, warnings, fileCellTypes, ...(fieldStrings.length ? { fieldStrings } : {}) };
 }
 
 /**

@@ -300,7 +300,7 @@ function firstAbove(a: readonly number[], v: number): number | undefined {
 /** The appended offsets of every DataArray under `el`, sorted (where each array's data ends, at the latest). */
 export function appendedOffsets(el: XmlElement, out: number[] = []): number[] {
   for (const c of el.children) {
-    const o = c.name === 'DataArray' && c.attrs.get('format') === 'appended' ? Number(c.attrs.get('offset')) : NaN;
+    const o = (c.name === 'DataArray' || c.name === 'Array') && c.attrs.get('format') === 'appended' ? Number(c.attrs.get('offset')) : NaN;
     if (Number.isSafeInteger(o) && o >= 0) out.push(o);
     appendedOffsets(c, out);
   }

@@ -59,6 +59,7 @@ export async function readFieldData(ctx: XmlFileContext, section: XmlElement | u
     const label = `${where}: FieldData ${arrayLabel(el, `field array ${k}`)}`;
     k++;
     const type = numericType(el);
+    if (!type && el.attrs.get('type') === 'String') continue; // read by xmlStrings.ts
     if (!type) {
       ctx.warnings.push(`${where}: FieldData array "${name}" of type ${el.attrs.get('type') ?? '(none)'} skipped (only numeric arrays are read)`);
       continue;

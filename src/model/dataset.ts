@@ -22,6 +22,13 @@ export interface Dataset {
   readonly warnings: readonly string[];
   /** Cell counts per cell type as declared in the file (before higher-order cells were linearised). */
   readonly fileCellTypes: Readonly<Record<number, number>>;
+  /**
+   * Names a set gave its pieces (a `.vtm`/`.vtpc` block or dataset `name`), one per piece, '' where none;
+   * absent when no piece is named. Surface groups take them as labels (src/surface/groupNames.ts).
+   */
+  readonly pieceNames?: readonly string[];
+  /** Dataset-level string arrays (field data of type String), e.g. the name table of a group array. */
+  readonly fieldStrings?: readonly FieldStrings[];
   /** Only on a dataset assembled from the parts of a larger piece set that its probes need (see `AssembledParts`). */
   readonly assembled?: AssembledParts;
 }
@@ -39,6 +46,12 @@ export interface AssembledParts {
   readonly bounds: readonly [number, number, number, number, number, number];
   /** Per piece, ascending keys `localCell × 65536 + localFace` (face numbering of `boundaryFaces`). */
   readonly boundary: readonly Float64Array[];
+}
+
+/** A field-data string array: one string per tuple. */
+export interface FieldStrings {
+  readonly name: string;
+  readonly values: readonly string[];
 }
 
 /** Total number of points over all pieces. */

@@ -39,7 +39,7 @@ export function evaluateForce(ctx: EvalContext, p: ForceProbe, out: ProbeOutcome
   const ref = o.reference ? resolveReference(ctx.reference, o.reference) : ctx.reference;
   out.definition = `force on the surfaces ${p.geometry.surfaces.join(' + ')}`;
   const { faces, groups } = ctx.surfaces(o);
-  const picked = resolveGroups(groups, p.geometry.surfaces);
+  const picked = resolveGroups(groups, p.geometry.surfaces, faces);
   const selection = facesOfGroups(groups, picked);
   const names = picked.map((i) => `${groups.groups[i]!.id} "${groups.groups[i]!.name}"`);
   out.definition = `force on ${names.join(' + ')}`;

@@ -167,7 +167,7 @@ export function evaluateBalance(ctx: EvalContext, p: MassBalanceProbe, out: Prob
   });
   if (g.surfaces?.length) {
     const { faces, groups } = ctx.surfaces(p.options);
-    for (const gi of resolveGroups(groups, g.surfaces)) {
+    for (const gi of resolveGroups(groups, g.surfaces, faces)) {
       const set = boundaryTriangleSet(ctx.dataset, faces, facesOfGroups(groups, [gi]));
       const s = integrateSurface(set, integral);
       items.push({ label: `surface ${groups.groups[gi]!.id} "${groups.groups[gi]!.name}"`, integrals: s });

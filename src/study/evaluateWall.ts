@@ -13,7 +13,7 @@ import { SI } from './units.ts';
 export function evaluateWall(ctx: EvalContext, p: WallProbe, out: ProbeOutcome): void {
   const o = p.options ?? {}, f = p.fields ?? {}, ref = ctx.reference;
   const { faces, groups } = ctx.surfaces(o);
-  const picked = resolveGroups(groups, p.geometry.surfaces);
+  const picked = resolveGroups(groups, p.geometry.surfaces, faces);
   const selection = facesOfGroups(groups, picked);
   const r = wallQuantities(ctx.dataset, faces, selection, {
     density: ref.density, speed: ref.speed, viscosity: f.viscosity ?? ref.viscosity,

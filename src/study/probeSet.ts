@@ -9,6 +9,7 @@
  * SI (kg/m³, m/s, m², m, Pa, Pa·s), field units are declared per field (`units.fields`, default SI).
  * Optional members may be left out; `probeDefaults.ts` says what a missing member means.
  */
+import type { GroupSelector } from '../surface/groupSelect.ts';
 
 export type Vec3 = [number, number, number];
 
@@ -131,8 +132,12 @@ export interface PointProbe extends ProbeBase {
   options?: { tolerance?: number };
 }
 
-/** Surface groups by name or by id (as `fieldtally surfaces` lists them). */
-export type SurfaceRef = string | number;
+/**
+ * Surface groups by name or by id (as `fieldtally surfaces` lists them), or chosen by what they are: a
+ * selector `{ name?, within?, nearest?, areaFrom?, areaTo? }` (src/surface/groupSelect.ts; lengths in the
+ * set's length unit, areas in its square).
+ */
+export type SurfaceRef = string | number | GroupSelector;
 
 export interface SurfaceGrouping {
   featureAngle?: number;

@@ -17,6 +17,7 @@ export const MEMBERS = {
   document: ['format', 'version', 'title', 'description', 'units', 'reference', 'formulas', 'probes'],
   formula: ['name', 'expression', 'unit'],
   units: ['length', 'fields'],
+  groupSelector: ['name', 'within', 'nearest', 'areaFrom', 'areaTo'],
   reference: ['preset', 'density', 'viscosity', 'speed', 'area', 'length', 'pressure', 'dragDirection', 'liftDirection', 'liftFrom', 'momentPoint'],
   plane: ['origin', 'normal', 'region'],
   region: ['seed', 'disk', 'rectangle', 'cellGroups'],
@@ -178,8 +179,28 @@ function grouping(c: Checks, o: Record<string, unknown>, path: string): void {
   c.optional(o, 'groupArray', path, (x, p) => (x === false ? false : c.string(x, p, { minLength: 1 }) ?? c.fail(p, 'an array name or false', x)));
 }
 
+/** A group chosen by what it is (src/surface/groupSelect.ts): at least one criterion; a box with min ≤ max; areas ≥ 0. */
+function groupSelector(c: Checks, x: Record<string, unknown>, p: string): unknown {
+  const o = c.object(x, p, MEMBERS.groupSelector);
+  if (!o) return undefined;
+  if (!MEMBERS.groupSelector.some((k) => o[k] !== undefined)) return c.fail(p, `a group selector with at least one of ${MEMBERS.groupSelector.join(', ')}`, x);
+  c.optional(o, 'name', p, (y, q) => c.string(y, q, { minLength: 1 }));
+  c.optional(o, 'within', p, (y, q) => {
+    const b = c.array(y, q, (z, r) => c.number(z, r));
+    if (b && (b.length !== 6 || b[0]! > b[1]! || b[2]! > b[3]! || b[4]! > b[5]!)) return c.fail(q, 'a box [xmin, xmax, ymin, ymax, zmin, zmax] with each min ≤ max', y);
+    return b;
+  });
+  c.optional(o, 'nearest', p, (y, q) => c.vec3(y, q));
+  c.optional(o, 'areaFrom', p, (y, q) => c.number(y, q, { min: 0 }));
+  c.optional(o, 'areaTo', p, (y, q) => c.number(y, q, { min: 0 }));
+  if (typeof o['areaFrom'] === 'number' && typeof o['areaTo'] === 'number' && o['areaFrom'] > o['areaTo']) c.fail(at(p, 'areaTo'), `an area ≥ areaFrom (${o['areaFrom']})`, o['areaTo']);
+  return x;
+}
+
 const surfaceRef = (c: Checks) => (x: unknown, p: string) =>
-  (typeof x === 'string' && x.length > 0) || (typeof x === 'number' && Number.isInteger(x)) ? x : c.fail(p, 'a surface group name or whole-number id', x);
+  (typeof x === 'string' && x.length > 0) || (typeof x === 'number' && Number.isInteger(x)) ? x
+    : typeof x === 'object' && x !== null && !Array.isArray(x) ? groupSelector(c, x as Record<string, unknown>, p)
+      : c.fail(p, 'a surface group name, whole-number id or selector object', x);
 
 function geometry(c: Checks, kind: string, v: unknown, path: string): void {
   if (kind === 'cut-plane') return plane(c, v, path);

@@ -12,11 +12,17 @@
  *      cube splits into its six sides while a coarse sphere or a 12-sided cylinder wall stays whole), or an
  *      edge not shared by exactly two faces.
  *
- * Ids are stable: a group from a group array has the array's value as id; feature parts get ids after the
- * largest such value (from 0 when there is none), numbered in the order of their smallest boundary face, and
- * boundary faces are ordered by owning cell, so the same file always gives the same ids. Names default to
- * `<array> <value>` / `surface <piece>` / `part <id>` and are renamed by `renameGroups` (the caller keeps
- * the name map). Areas in length unit², centroids (area-weighted) and bounds in the length unit.
+ *  Without a group array, the 2D cells of pieces a set names (`.vtm` blocks, `Dataset.pieceNames`) form one
+ *  group per name (`block-name`, id = the name's rank in order of first appearance).
+ *
+ * Ids do not depend on cell order: a group from a group array has the array's value as id; feature parts get
+ * ids after the largest such value (from 0 when there is none), ranked by a geometric key — smaller centroid
+ * x, then y, then z, then (concentric parts) smaller area first; coordinates within 1e-9 of the bounds
+ * diagonal and areas within 1e-9 relative count as equal — so the same wall gets the same id in two files
+ * whose cells are numbered differently (a pipe along z: inlet, wall, outlet). Names come from the file where it has them (a group array's name table, block names; see
+ * `groupNames.ts`), else `<array> <value>` / `surface <piece>` / `part <id>`, and are renamed by
+ * `renameGroups` (the caller keeps the name map). Areas in length unit², centroids (area-weighted) and
+ * bounds in the length unit. Groups can also be chosen by what they are (`groupSelect.ts`).
  */
 import { emptyBounds, datasetBounds, boundsDiagonal, type Bounds } from '../model/bounds.ts';
 import { cellDimension, CellType } from '../model/cellTypes.ts';
@@ -27,13 +33,17 @@ import type { BoundaryFaces } from './boundaryFaces.ts';
 import { faceEdges } from './faceEdges.ts';
 import { FaceTable, faceKey } from './faceTable.ts';
 import { PointHash } from './pointHash.ts';
+import { groupNameTable, pieceNameIndex } from './groupNames.ts';
+import { describeSelector, selectGroups, type GroupRef } from './groupSelect.ts';
 
-export type GroupSource = 'cell-array' | 'surface-file' | 'feature-angle';
+export type GroupSource = 'cell-array' | 'surface-file' | 'feature-angle' | 'block-name';
 
 export interface SurfaceGroup {
   /** Stable id (see the file comment). */
   readonly id: number;
   readonly name: string;
+  /** Where the name came from when the file gave it (`groupNames.ts`); absent for a default name. */
+  readonly nameFrom?: 'name-table' | 'block-name';
   readonly source: GroupSource;
   /** Value of the group array (cell-array and surface-file groups with an array). */
   readonly value?: number;
@@ -56,6 +66,8 @@ export interface SurfaceGroups {
   readonly featureAngle: number;
   /** 2D cells (or surface-file polygons) that lie on no boundary face. */
   readonly unmatched2d: number;
+  /** Why the file's names were not used (a name table that fits no values), if anything. */
+  readonly notes?: readonly string[];
 }
 
 /** Options of `surfaceGroups`. */
@@ -114,7 +126,7 @@ function boundaryTable(faces: BoundaryFaces): FaceTable {
   return t;
 }
 
-interface Labels { faceValue: Float64Array; labelled: Uint8Array; faceSurfaceCell: Int32Array; unmatched: number; array?: string; pieceNames?: boolean }
+interface Labels { faceValue: Float64Array; labelled: Uint8Array; faceSurfaceCell: Int32Array; unmatched: number; array?: string; pieceNames?: boolean; blockNames?: string[] }
 
 /** (a) Labels from the dataset's own 2D cells. */
 function labelsFromCells(d: Dataset, faces: BoundaryFaces, table: FaceTable, arrayName: string | false | undefined, has2d: boolean): Labels {
@@ -122,6 +134,8 @@ function labelsFromCells(d: Dataset, faces: BoundaryFaces, table: FaceTable, arr
   const faceSurfaceCell = new Int32Array(faces.count).fill(-1);
   if (!has2d) return { faceValue, labelled, faceSurfaceCell, unmatched: 0 };
   const array = pickGroupArray(d.pieces, arrayName, d.source);
+  // without a group array, named blocks of a set label their own 2D cells
+  const blocks = array === undefined && arrayName !== false ? pieceNameIndex(d) : undefined;
   const starts = cellStarts(d), key = new Int32Array(4), map = faces.merge.map;
   let unmatched = 0;
   for (let k = 0; k < d.pieces.length; k++) {
@@ -139,9 +153,10 @@ function labelsFromCells(d: Dataset, faces: BoundaryFaces, table: FaceTable, arr
       const face = table.vals[2 * slot]!;
       faceSurfaceCell[face] = starts[k]! + c;
       if (f) { faceValue[face] = groupValue(f, c, `${d.source} piece ${k}`); labelled[face] = 1; }
+      else if (blocks && blocks.ofPiece[k]! >= 0) { faceValue[face] = blocks.ofPiece[k]!; labelled[face] = 1; }
     }
   }
-  return { faceValue, labelled, faceSurfaceCell, unmatched, ...(array !== undefined ? { array } : {}) };
+  return { faceValue, labelled, faceSurfaceCell, unmatched, ...(array !== undefined ? { array } : blocks ? { blockNames: blocks.names } : {}) };
 }
 
 /** (a) Labels from a separate surface dataset, matched by coordinates. */
@@ -241,6 +256,38 @@ function groupStats(d: Dataset, faces: BoundaryFaces, faceGroup: Int32Array, cou
   return { area, cen, nf, bounds };
 }
 
+type Stats = ReturnType<typeof groupStats>;
+
+/**
+ * Renumbers the feature parts (group indices `first…`) by their geometric key (see the file comment),
+ * rewriting `faceGroup` in place; returns the stats in the new order.
+ */
+function rankFeatureParts(s: Stats, faceGroup: Int32Array, first: number, diagonal: number): Stats {
+  const n = s.area.length - first;
+  if (n < 2) return s;
+  const tol = 1e-9 * diagonal;
+  const order = Array.from({ length: n }, (_, i) => first + i).sort((a, b) => {
+    const da = s.area[a]!, db = s.area[b]!;
+    for (let k = 0; k < 3; k++) {
+      const ca = s.cen[3 * a + k]! / (da || 1), cb = s.cen[3 * b + k]! / (db || 1);
+      if (Math.abs(ca - cb) > tol) return ca - cb;
+    }
+    return Math.abs(da - db) > 1e-9 * Math.max(da, db) ? da - db : 0;
+  });
+  const newIndex = new Int32Array(s.area.length);
+  for (let g = 0; g < first; g++) newIndex[g] = g;
+  order.forEach((g, i) => { newIndex[g] = first + i; });
+  for (let f = 0; f < faceGroup.length; f++) faceGroup[f] = newIndex[faceGroup[f]!]!;
+  const area = new Float64Array(s.area.length), cen = new Float64Array(s.cen.length), nf = new Int32Array(s.nf.length);
+  const bounds = s.bounds.slice();
+  for (let g = 0; g < s.area.length; g++) {
+    const h = newIndex[g]!;
+    area[h] = s.area[g]!; nf[h] = s.nf[g]!; bounds[h] = s.bounds[g]!;
+    cen[3 * h] = s.cen[3 * g]!; cen[3 * h + 1] = s.cen[3 * g + 1]!; cen[3 * h + 2] = s.cen[3 * g + 2]!;
+  }
+  return { area, cen, nf, bounds };
+}
+
 /**
  * Splits the boundary faces into groups (see the file comment).
  * @throws Error when a named group array is missing or holds non-integer values.
@@ -270,16 +317,19 @@ export function surfaceGroups(d: Dataset, faces: BoundaryFaces, options: Partial
   for (let i = 0; i < rest.length; i++) faceGroup[rest[i]!] = values.length + part[i]!;
   const firstFeatureId = values.length ? Math.max(0, values[values.length - 1]! + 1) : 0;
   const total = values.length + parts;
-  const s = groupStats(d, faces, faceGroup, total);
+  const s = rankFeatureParts(groupStats(d, faces, faceGroup, total), faceGroup, values.length, boundsDiagonal(datasetBounds(d)));
+  const nameTable = labels.array !== undefined ? groupNameTable(d, labels.array, values) : undefined;
+  const named = nameTable && 'names' in nameTable ? nameTable.names : undefined;
   const groups: SurfaceGroup[] = [];
   for (let g = 0; g < total; g++) {
     const a = s.area[g]!;
     const centroid: [number, number, number] = a > 0 ? [s.cen[3 * g]! / a, s.cen[3 * g + 1]! / a, s.cen[3 * g + 2]! / a] : [NaN, NaN, NaN];
     const common = { faces: s.nf[g]!, area: a, centroid, bounds: s.bounds[g]! };
     if (g < values.length) {
-      const v = values[g]!;
-      const name = labels.array !== undefined ? `${labels.array} ${v}` : `surface ${v}`;
-      groups.push({ id: v, name, source, value: v, ...common });
+      const v = values[g]!, block = labels.blockNames?.[v], fromTable = named?.get(v);
+      if (block !== undefined) { groups.push({ id: v, name: block, nameFrom: 'block-name', source: 'block-name', ...common }); continue; }
+      const name = fromTable ?? (labels.array !== undefined ? `${labels.array} ${v}` : `surface ${v}`);
+      groups.push({ id: v, name, ...(fromTable !== undefined ? { nameFrom: 'name-table' as const } : {}), source, value: v, ...common });
     } else {
       const id = firstFeatureId + g - values.length;
       groups.push({ id, name: `part ${id}`, source: 'feature-angle', ...common });
@@ -288,6 +338,7 @@ export function surfaceGroups(d: Dataset, faces: BoundaryFaces, options: Partial
   return {
     groups, faceGroup, faceSurfaceCell: labels.faceSurfaceCell, featureAngle: o.featureAngle, unmatched2d: labels.unmatched,
     ...(labels.array !== undefined ? { groupArray: labels.array } : {}),
+    ...(nameTable && 'note' in nameTable ? { notes: [nameTable.note] } : {}),
   };
 }
 
@@ -300,12 +351,18 @@ export function renameGroups(groups: SurfaceGroups, names: Readonly<Record<strin
 }
 
 /**
- * Resolves group references (an id such as `3`, or a name) to group indices.
+ * Resolves group references (an id such as `3`, a name, or a selector of `groupSelect.ts`) to group indices.
+ * `faces` (the boundary faces the groups were made from) is needed only by a selector with `nearest`.
  * @throws Error naming the reference and the known groups when one matches nothing or a name is ambiguous.
  */
-export function resolveGroups(groups: SurfaceGroups, refs: readonly (string | number)[]): number[] {
+export function resolveGroups(groups: SurfaceGroups, refs: readonly GroupRef[], faces?: BoundaryFaces): number[] {
   const out: number[] = [];
   for (const r of refs) {
+    if (typeof r === 'object') {
+      if (r.nearest && !faces) throw new Error(`surface group ${describeSelector(r)}: choosing the nearest group needs the boundary faces`);
+      for (const i of selectGroups(groups, faces!, r)) if (!out.includes(i)) out.push(i);
+      continue;
+    }
     const text = String(r).trim();
     let i = groups.groups.findIndex((g) => g.name === text);
     if (i >= 0 && groups.groups.findIndex((g, j) => j > i && g.name === text) >= 0) {

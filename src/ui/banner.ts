@@ -7,7 +7,8 @@
 export class Banner {
   private readonly el: HTMLDivElement;
 
-  constructor(host: HTMLElement) {
+  /** `onChange` runs when the banner shows or hides (the view lays its pins out clear of it). */
+  constructor(host: HTMLElement, private readonly onChange: () => void = () => {}) {
     this.el = document.createElement('div');
     this.el.className = 'banner';
     this.el.hidden = true;
@@ -21,7 +22,7 @@ export class Banner {
   /** Shows a notice until dismissed. */
   notice(message: string): void { this.show('notice', message); }
 
-  clear(): void { this.el.hidden = true; this.el.replaceChildren(); }
+  clear(): void { this.el.hidden = true; this.el.replaceChildren(); this.onChange(); }
 
   /** Asks a yes/no question; resolves true when the user chooses `yes`. */
   confirm(message: string, yes: string, no: string): Promise<boolean> {
@@ -46,6 +47,7 @@ export class Banner {
       close.onclick = () => this.clear();
       this.el.append(close);
     }
+    this.onChange();
   }
 }
 

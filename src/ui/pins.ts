@@ -169,11 +169,11 @@ export class PinOverlay {
     el.addEventListener('pointercancel', up);
   }
 
-  /** What pins keep clear of on screen: the legend and the view's buttons (pixels of the overlay). */
+  /** What pins keep clear of on screen: the legend, the view's buttons, the axis triad and a shown banner (pixels of the overlay). */
   private obstacles(): Rect[] {
     const o = this.host.getBoundingClientRect();
     const out: Rect[] = [];
-    for (const el of this.host.parentElement?.querySelectorAll<HTMLElement>('.legend, .view-tools') ?? []) {
+    for (const el of this.host.parentElement?.querySelectorAll<HTMLElement>('.legend, .view-tools, .axis-triad-view, .banner:not([hidden])') ?? []) {
       const r = el.getBoundingClientRect();
       if (r.width > 0 && r.height > 0) out.push({ x: r.left - o.left, y: r.top - o.top, width: r.width, height: r.height });
     }

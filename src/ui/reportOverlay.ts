@@ -4,6 +4,7 @@
  * are laid out by the same rule as on screen (`pinLayout.ts`); box sizes are estimated from the text
  * length since there is no font to measure. Pure: returns strings.
  */
+import { triadBox, triadSvg, type ViewBasis } from '../study/axisTriad.ts';
 import { colorMapCss, type ColorMap } from '../view/colorMaps.ts';
 import { formatNumber, withUnit } from './format.ts';
 import { layoutPins, leaderEnd } from './pinLayout.ts';
@@ -40,15 +41,19 @@ export function pinRow(label: string, value: number, unit: string): string {
   return `${label} = ${withUnit(value, unit === '1' ? '' : unit)}`;
 }
 
-/** SVG markup (width × height pixel coordinates) with the pins, their leader lines and the legend. */
-export function overlaySvg(width: number, height: number, pins: readonly OverlayPin[], legend: OverlayLegend | null): string {
+/**
+ * SVG markup (width × height pixel coordinates) with the pins, their leader lines, the legend and, given the
+ * picture's camera basis, the axis triad (bottom right; pins keep clear of it).
+ */
+export function overlaySvg(width: number, height: number, pins: readonly OverlayPin[], legend: OverlayLegend | null, triad?: ViewBasis): string {
   const pad = PIN_STYLE.padding, lh = PIN_STYLE.lineHeight;
   const boxes = pins.map((p) => ({
     id: p.id, anchorX: p.x, anchorY: p.y,
     width: Math.ceil(Math.max(textWidth(p.title, true), ...p.rows.map((r) => textWidth(r))) + 2 * pad),
     height: (p.rows.length + 1) * lh + 2 * pad,
   }));
-  const placed = layoutPins(boxes, width, height);
+  const triadAt = triad ? triadBox(width, height) : undefined;
+  const placed = layoutPins(boxes, width, height, triadAt ? { obstacles: [triadAt] } : {});
   const parts: string[] = [`<svg class="overlay" xmlns="http://www.w3.org/2000/svg" viewBox="0 0 ${width} ${height}" width="${width}" height="${height}" font-family="system-ui, -apple-system, 'Segoe UI', Roboto, Arial, sans-serif" font-size="12">`];
   for (const p of placed) {
     const pin = pins.find((x) => x.id === p.id)!;
@@ -62,6 +67,7 @@ export function overlaySvg(width: number, height: number, pins: readonly Overlay
     parts.push('</g>');
   }
   if (legend) parts.push(legendSvg(height, legend));
+  if (triad && triadAt) parts.push(triadSvg(triad, triadAt.x, triadAt.y));
   parts.push('</svg>');
   return parts.join('');
 }

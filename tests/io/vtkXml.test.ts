@@ -231,7 +231,7 @@ describe('hand-built files: every encoding and header layout', () => {
     }
   });
 
-  it('reads several pieces, roles, dataset field data, and skips text arrays with a warning', async () => {
+  it('reads several pieces, roles, dataset field data, and field-data text arrays as strings', async () => {
     const second = tetPyramidPiece();
     second.sections[0]!.attrs = { Scalars: 'static pressure', Vectors: 'U' };
     const bytes = buildXml('UnstructuredGrid', [tetPyramidPiece(), second], {
@@ -246,7 +246,9 @@ describe('hand-built files: every encoding and header layout', () => {
     expect(d.pieces.length).toBe(2);
     expect(d.pieces[1]!.pointData.map((f) => f.role)).toEqual(['scalars', 'vectors']);
     expect(d.fieldData.map((f) => [f.name, f.association, Array.from(f.values)])).toEqual([['TimeValue', 'dataset', [0.125]], ['run id', 'dataset', [7, 8, 9]]]);
-    expect(d.warnings).toEqual(['multi.vtu: FieldData array "solver note" of type String skipped (only numeric arrays are read)']);
+    // a String array holds each string's bytes and a 0 (VTK's XML layout): "hi"
+    expect(d.fieldStrings).toEqual([{ name: 'solver note', values: ['hi'] }]);
+    expect(d.warnings).toEqual([]);
     expect(d.fileCellTypes).toEqual({ 14: 2, 10: 2 });
   });
 

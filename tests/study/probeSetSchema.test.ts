@@ -79,6 +79,7 @@ const VALID: [string, () => unknown][] = [
   ['a rectangle region and cell groups', () => { const d = clone(); d['probes'][0].geometry.region = { rectangle: { centre: [0, 0, 0.05], axis: [1, 0, 0], halfSizes: [0.002, 0.003] }, cellGroups: { field: 'zone', ids: [1, 2] } }; return d; }],
   ['a force with every option', () => { const d = clone(); d['probes'][5].options = { featureAngle: 30, groupArray: false, viscous: 'gradient', kinematicPressure: true, wallShearSign: -1, reference: { speed: 2 } }; d['probes'][5].fields = { pressure: 'p', viscosity: 'mu' }; return d; }],
   ['a balance of surfaces only', () => { const d = clone(); d['probes'][7].geometry = { planes: [], surfaces: ['inlet', 2] }; return d; }],
+  ['surfaces chosen by name, box, nearest point and area', () => { const d = clone(); d['probes'][5].geometry.surfaces = [{ name: 'wall' }, { within: [0, 1, 0, 1, 0, 1], areaFrom: 0.1, areaTo: 2 }, { nearest: [0, 0, 0.05] }]; return d; }],
   ['null field roles and a density field', () => { const d = clone(); d['probes'][0].fields = { velocity: null, pressure: null, density: 'rho' }; return d; }],
 ];
 
@@ -103,6 +104,9 @@ const INVALID: [string, (d: Record<string, any>) => void][] = [
   ['edge fraction 1', (d) => { d['probes'][3].options.boundaryLayer.edgeFraction = 1; }],
   ['an empty surface list', (d) => { d['probes'][5].geometry.surfaces = []; }],
   ['a fractional surface id', (d) => { d['probes'][5].geometry.surfaces = [1.5]; }],
+  ['a selector member unknown', (d) => { d['probes'][5].geometry.surfaces = [{ largest: true }]; }],
+  ['a box of five numbers', (d) => { d['probes'][5].geometry.surfaces = [{ within: [0, 1, 0, 1, 0] }]; }],
+  ['a negative area limit', (d) => { d['probes'][5].geometry.surfaces = [{ areaFrom: -1 }]; }],
   ['an unknown viscous method', (d) => { d['probes'][5].options.viscous = 'les'; }],
   ['a wall-shear sign of 2', (d) => { d['probes'][5].options = { wallShearSign: 2 }; }],
   ['a balance with nothing in it', (d) => { d['probes'][7].geometry.planes = []; }],
@@ -122,6 +126,9 @@ const CHECKER_ONLY: [string, (d: Record<string, any>) => void][] = [
   ['duplicate probe ids', (d) => { d['probes'][1].id = 'mid'; }],
   ['a zero plane normal', (d) => { d['probes'][0].geometry.normal = [0, 0, 0]; }],
   ['a zero drag direction', (d) => { d['reference'].dragDirection = [0, 0, 0]; }],
+  ['an empty group selector', (d) => { d['probes'][5].geometry.surfaces = [{}]; }],
+  ['a box whose min exceeds its max', (d) => { d['probes'][5].geometry.surfaces = [{ within: [1, 0, 0, 1, 0, 1] }]; }],
+  ['areaFrom above areaTo', (d) => { d['probes'][5].geometry.surfaces = [{ areaFrom: 2, areaTo: 1 }]; }],
   ['a line whose ends coincide', (d) => { d['probes'][2].geometry.to = d['probes'][2].geometry.from; }],
 ];
 

@@ -10,6 +10,7 @@ import { surfaceQuality } from '../../surface/surfaceQuality.ts';
 import { CAUTION } from '../../study/caution.ts';
 import { checkReferenceScale, parseArgs, parseNumber, parsePositive, parseVec3, str } from '../args.ts';
 import type { Verb } from '../verb.ts';
+import { GROUP_SELECT_HELP, GROUP_SELECT_OPTIONS, groupRefsOf } from '../groupArgs.ts';
 import { GROUPING_HELP, GROUPING_OPTIONS, fmt, loadSurfaces, vec } from './surfaces.ts';
 import { WORKER_HELP, WORKER_OPTIONS } from '../workerOption.ts';
 
@@ -34,6 +35,7 @@ const force: Verb = {
     '                  length in each (JSON: distribution)',
     '  --wall-gradient velocity gradient at the wall for --viscous gradient with point velocity: second-order (default;',
     '                  quadratic least-squares fit at each wall node) or first-order (the wall cell\'s linear gradient)',
+    GROUP_SELECT_HELP,
     GROUPING_HELP,
     WORKER_HELP,
     '  Force on the wall (body): F = ∫(p − p_ref)(−n_body) dA + ∫τ_w dA; moment about --moment-point (default origin).',
@@ -41,7 +43,7 @@ const force: Verb = {
   options: {
     groups: 'string', rho: 'string', speed: 'string', area: 'string', length: 'string', 'drag-direction': 'string', 'lift-direction': 'string',
     'moment-point': 'string', mu: 'string', 'reference-pressure': 'string', pressure: 'string', kinematic: 'boolean', 'wall-shear': 'string',
-    'shear-sign': 'string', velocity: 'string', viscous: 'string', 'cp-axis': 'string', strips: 'string', 'wall-gradient': 'string', json: 'boolean', ...GROUPING_OPTIONS, ...WORKER_OPTIONS,
+    'shear-sign': 'string', velocity: 'string', viscous: 'string', 'cp-axis': 'string', strips: 'string', 'wall-gradient': 'string', json: 'boolean', ...GROUPING_OPTIONS, ...GROUP_SELECT_OPTIONS, ...WORKER_OPTIONS,
   },
   aliases: { 'drag-dir': 'drag-direction', 'lift-dir': 'lift-direction', 'p-ref': 'reference-pressure', bins: 'strips' },
   async run(argv, io) {
@@ -49,8 +51,7 @@ const force: Verb = {
     for (const n of args.notices) io.err(n);
     const file = args.positional[0];
     if (!file || args.positional.length > 1) throw new Error('expected one result file: fieldtally force <file> --groups a,b');
-    const groupText = str(args, 'groups');
-    if (!groupText) throw new Error('--groups is required: surface group ids or names (list them with `fieldtally surfaces <file>`)');
+    const refs = groupRefsOf(args, 'force');
     const num = (name: string): number | undefined => { const t = str(args, name); return t === undefined ? undefined : parseNumber(t, name); };
     const v3 = (name: string): Vec3 | undefined => { const t = str(args, name); return t === undefined ? undefined : parseVec3(t, name); };
     const rho = num('rho'), speed = num('speed'), area = num('area'), length = num('length'), strips = num('strips');
@@ -69,7 +70,7 @@ const force: Verb = {
     const reference: ForceReference | undefined = given === 3 ? { rho: rho!, speed: speed!, area: area!, ...(length !== undefined ? { length } : {}) } : undefined;
 
     const { dataset, faces, groups } = await loadSurfaces(file, args);
-    const picked = resolveGroups(groups, groupText.split(',').map((s) => s.trim()).filter(Boolean));
+    const picked = resolveGroups(groups, refs, faces);
     const selection = facesOfGroups(groups, picked);
     const loadOptions: Partial<LoadOptions> = {
       viscous: viscous as LoadOptions['viscous'], pRef: num('reference-pressure') ?? 0, kinematic: args.options.kinematic === true,

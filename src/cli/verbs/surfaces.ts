@@ -76,7 +76,7 @@ const surfaces: Verb = {
         pointMatching: { method: faces.merge.method, sharedPoints: faces.merge.shared },
         groupArray: groups.groupArray ?? null, featureAngle: groups.featureAngle, unmatched2dCells: groups.unmatched2d,
         groups: rows.map(({ g, q }) => ({
-          id: g.id, name: g.name, source: g.source, faces: g.faces, area: g.area, centroid: g.centroid, bounds: g.bounds,
+          id: g.id, name: g.name, nameFrom: g.nameFrom ?? null, source: g.source, faces: g.faces, area: g.area, centroid: g.centroid, bounds: g.bounds,
           closed: q.closed, closure: q.closure, openEdges: q.openEdges, nonManifoldEdges: q.nonManifoldEdges, inconsistentEdges: q.inconsistentEdges,
         })),
         units: 'areas in length unit², positions in the file\'s length unit',
@@ -92,10 +92,11 @@ const surfaces: Verb = {
         (groups.groupArray ? ` from cell array "${groups.groupArray}"` : '') + `, feature angle ${fmt(groups.featureAngle)}°`,
       ...(faces.merge.method !== 'single-piece' ? [`pieces matched by ${faces.merge.method}: ${faces.merge.shared} shared points`] : []),
       ...(faces.flipped ? [`${faces.flipped} faces were turned to point out of their cell (inverted cells or inward polyhedron faces)`] : []),
+      ...(groups.notes ?? []).map((n) => `note: ${n}`),
       ...(groups.unmatched2d ? [`${groups.unmatched2d} 2D cells lie on no boundary face (interior surfaces or a different mesh)`] : []),
       '',
       ...rows.flatMap(({ g, q }) => [
-        `${String(g.id).padStart(4)}  ${g.name}  [${g.source}]`,
+        `${String(g.id).padStart(4)}  ${g.name}  [${g.source}${g.nameFrom === 'name-table' ? '; name from the file\'s name table' : ''}]`,
         `      faces ${g.faces}   area ${fmt(g.area)}   centroid ${vec(g.centroid)}`,
         `      bounds x ${fmt(g.bounds[0])} … ${fmt(g.bounds[1])}, y ${fmt(g.bounds[2])} … ${fmt(g.bounds[3])}, z ${fmt(g.bounds[4])} … ${fmt(g.bounds[5])}`,
         `      ${closedness(q)}`,

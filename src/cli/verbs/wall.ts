@@ -8,6 +8,7 @@ import { wallQuantities, WALL_DEFAULTS, type WallOptions, type WallResult, type 
 import { CAUTION } from '../../study/caution.ts';
 import { parseArgs, parseNumber, str } from '../args.ts';
 import type { Verb } from '../verb.ts';
+import { GROUP_SELECT_HELP, GROUP_SELECT_OPTIONS, groupRefsOf } from '../groupArgs.ts';
 import { GROUPING_HELP, GROUPING_OPTIONS, fmt, loadSurfaces } from './surfaces.ts';
 
 const SOURCES = ['auto', 'wall-shear', 'gradient'] as const;
@@ -44,19 +45,19 @@ const wall: Verb = {
     '                    auto: the array when there is one. The output says which was used.',
     '  --wall-gradient   second-order (default: quadratic fit at each wall node) or first-order (wall cell\'s gradient)',
     '  --per-face        JSON: add the per-face values',
+    GROUP_SELECT_HELP,
     GROUPING_HELP,
   ].join('\n'),
   options: {
     groups: 'string', rho: 'string', mu: 'string', speed: 'string', 'wall-distance': 'string', thresholds: 'string',
     'histogram-bins': 'string', 'shear-from': 'string', 'wall-gradient': 'string', velocity: 'string', 'wall-shear': 'string',
-    'per-face': 'boolean', json: 'boolean', ...GROUPING_OPTIONS,
+    'per-face': 'boolean', json: 'boolean', ...GROUPING_OPTIONS, ...GROUP_SELECT_OPTIONS,
   },
   async run(argv, io) {
     const args = parseArgs(argv, this.options, 'wall');
     const file = args.positional[0];
     if (!file || args.positional.length > 1) throw new Error('expected one result file: fieldtally wall <file> --groups a,b');
-    const groupText = str(args, 'groups');
-    if (!groupText) throw new Error('--groups is required: surface group ids or names (list them with `fieldtally surfaces <file>`)');
+    const refs = groupRefsOf(args, 'wall');
     const num = (k: string): number | undefined => { const t = str(args, k); return t === undefined ? undefined : parseNumber(t, k); };
     const muText = str(args, 'mu');
     const viscosity = muText === undefined ? undefined : muText.trim() !== '' && Number.isFinite(Number(muText)) ? Number(muText) : muText;
@@ -74,7 +75,7 @@ const wall: Verb = {
       loads: { wallGradient, ...(str(args, 'velocity') ? { velocity: str(args, 'velocity') } : {}), ...(str(args, 'wall-shear') ? { wallShear: str(args, 'wall-shear') } : {}) },
     };
     const { dataset, faces, groups } = await loadSurfaces(file, args);
-    const picked = resolveGroups(groups, groupText.split(',').map((s) => s.trim()).filter(Boolean));
+    const picked = resolveGroups(groups, refs, faces);
     const results = picked.map((i) => ({ group: groups.groups[i]!, r: wallQuantities(dataset, faces, facesOfGroups(groups, [i]), options, groups.faceSurfaceCell) }));
     if (args.options.json) {
       io.out(JSON.stringify({

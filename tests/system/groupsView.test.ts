@@ -1,0 +1,150 @@
+/**
+ * Surface-group labels from the file, the axis triad, per-file view state and pins clear of the banner, in
+ * the app (Debian chromium, software WebGL). Screenshots g01–g06 go to tests/.screenshots/ (git-ignored)
+ * and were looked at. The named-group fixture was written by VTK 9.1 (tests/reference/group_names.py).
+ */
+import { mkdirSync, readFileSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import type { Page } from 'playwright-core';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { REPO, openApp, waitIdle, type AppSession } from './browser.ts';
+import { readPng } from './png.ts';
+
+const SHOTS = join(REPO, 'tests/.screenshots');
+const PIPE = join(REPO, 'sample-fields/pipe-medium.vtu');
+const SPHERE = join(REPO, 'sample-fields/sphere-stokes.vtu');
+const TANK = join(REPO, 'tests/fixtures/group-names/tank-names-binary.vtu');
+
+let app: AppSession | undefined;
+let page: Page;
+const shot = (name: string) => page.screenshot({ path: join(SHOTS, `${name}.png`) });
+
+function control(label: string | RegExp, folder?: string) {
+  const re = typeof label === 'string' ? new RegExp(`^${label.replace(/[[\]()|.*+?^$]/g, '\\$&')}$`) : label;
+  const scope = folder ? page.locator('.lil-gui', { has: page.locator(':scope > .lil-title', { hasText: folder }) }) : page;
+  return scope.locator('.lil-controller', { has: page.locator('.lil-name', { hasText: re }) }).first();
+}
+async function openFile(path: string, name: string): Promise<void> {
+  await page.setInputFiles('#file-input', path);
+  await page.waitForFunction((n) => document.getElementById('file-summary')!.textContent!.startsWith(n), name, { timeout: 90_000 });
+  await waitIdle(page);
+}
+const opacity = async () => Number(await control('surface opacity').locator('input').last().inputValue());
+/** The triad's arms on screen: end minus start of each line, and whether it points away. */
+const arms = () => page.locator('svg.axis-triad-view g[data-axis]').evaluateAll((gs) => Object.fromEntries(gs.map((g) => {
+  const l = g.querySelector('line')!, n = (a: string) => Number(l.getAttribute(a));
+  return [g.getAttribute('data-axis'), { dx: n('x2') - n('x1'), dy: n('y2') - n('y1'), away: l.hasAttribute('stroke-dasharray') }];
+}))) as Promise<Record<'x' | 'y' | 'z', { dx: number; dy: number; away: boolean }>>;
+const overlaps = (a: { x: number; y: number; width: number; height: number }, b: { x: number; y: number; width: number; height: number }) =>
+  a.x < b.x + b.width && b.x < a.x + a.width && a.y < b.y + b.height && b.y < a.y + a.height;
+
+beforeAll(async () => {
+  mkdirSync(SHOTS, { recursive: true });
+  app = await openApp();
+  page = app.page;
+}, 240_000);
+afterAll(async () => { await app?.close(); });
+
+describe('groups and view hygiene in the app', () => {
+  it('group labels come from the file\'s name table', async () => {
+    await openFile(TANK, 'tank-names-binary.vtu');
+    const names = await page.locator('.lil-gui', { has: page.locator(':scope > .lil-title', { hasText: 'Surfaces' }) }).locator('.lil-name').allInnerTexts();
+    // VTK wrote the name table "zone names" = filler neck, drain for values 1, 2; each unit side has area 1 m²
+    expect(names.filter((n) => /m²\)$/.test(n))).toEqual(['filler neck (1.000 m²)', 'drain (1.000 m²)', 'part 3 (1.000 m²)', 'part 4 (1.000 m²)', 'part 5 (1.000 m²)', 'part 6 (1.000 m²)']);
+    await shot('g01-group-names');
+  });
+
+  it('the axis triad turns with the camera: looking from +x, y points right, z up and x at the viewer', async () => {
+    await page.locator('#view-tools button', { hasText: /^\+X$/ }).click();
+    await waitIdle(page);
+    const a = await arms();
+    expect(a.y.dx).toBeGreaterThan(20);
+    expect(Math.abs(a.y.dy)).toBeLessThan(1);
+    expect(a.z.dy).toBeLessThan(-20);
+    expect(Math.abs(a.z.dx)).toBeLessThan(1);
+    expect(Math.hypot(a.x.dx, a.x.dy)).toBeLessThan(1);
+    expect(a.x.away).toBe(false);
+    await page.locator('#view-tools button', { hasText: /^−Z$/ }).click();
+    await waitIdle(page);
+    // looking from −z (up the z axis), z points into the picture
+    expect((await arms()).z.away).toBe(true);
+    await page.locator('#view-tools button', { hasText: /^Iso$/ }).click();
+    await waitIdle(page);
+    const box = (await page.locator('svg.axis-triad-view').boundingBox())!, view = (await page.locator('#view').boundingBox())!;
+    expect(box.x + box.width).toBeGreaterThan(view.x + view.width - 100);
+    expect(box.y + box.height).toBeGreaterThan(view.y + view.height - 100);
+    await shot('g02-triad-iso');
+  });
+
+  it('opening another file resets the view (no 0.35 opacity carried over) unless "keep this view" is ticked', async () => {
+    await openFile(PIPE, 'pipe-medium.vtu');
+    await page.locator('.lil-name', { hasText: /^\+ new cut-plane$/ }).click();
+    await page.waitForSelector('[data-pin="plane-1"]');
+    await waitIdle(page);
+    // a new cut-plane makes the walls see-through
+    expect(await opacity()).toBe(0.35);
+    await control('colour map').locator('select').selectOption({ index: 1 });
+    await waitIdle(page);
+    await shot('g03-pipe-plane');
+    await openFile(SPHERE, 'sphere-stokes.vtu');
+    expect(await opacity()).toBe(1);
+    expect(await control('colour map').locator('select').evaluate((s: HTMLSelectElement) => s.selectedIndex)).toBe(0);
+    await shot('g04-next-file-reset');
+    // kept on request: opacity, camera
+    await control('keep this view for the next file').locator('input').check();
+    const input = control('surface opacity').locator('input').last();
+    await input.fill('0.5');
+    await input.press('Enter');
+    await page.locator('#view-tools button', { hasText: /^\+Y$/ }).click();
+    await waitIdle(page);
+    const before = await arms();
+    await openFile(PIPE, 'pipe-medium.vtu');
+    expect(await opacity()).toBe(0.5);
+    expect(await arms()).toEqual(before);
+    await control('keep this view for the next file').locator('input').uncheck();
+    await shot('g05-view-kept');
+  });
+
+  it('pins keep clear of the banner and of the triad; the exported picture carries the triad', async () => {
+    await page.locator('#view-tools button', { hasText: /^Iso$/ }).click();
+    for (const z of [0.095, 0.05]) {
+      await page.locator('.lil-name', { hasText: /^\+ new cut-plane$/ }).click();
+      await waitIdle(page);
+      const origin = control('origin z [m]').locator('input').last();
+      await origin.fill(String(z));
+      await origin.press('Enter');
+      await waitIdle(page);
+    }
+    // a file that cannot be read shows an error banner over the top of the view; the open file stays
+    const bad = join(tmpdir(), 'fieldtally-broken.vtu');
+    writeFileSync(bad, '<VTKFile type="UnstructuredGrid"><UnstructuredGrid><Piece NumberOfPoints="x"');
+    await page.setInputFiles('#file-input', bad);
+    await page.waitForSelector('.banner:not([hidden])');
+    await waitIdle(page);
+    const banner = (await page.locator('.banner').boundingBox())!, triad = (await page.locator('svg.axis-triad-view').boundingBox())!;
+    const pins = await page.locator('#overlay .pin').evaluateAll((ps) => ps.map((p) => { const r = p.getBoundingClientRect(); return { x: r.x, y: r.y, width: r.width, height: r.height }; }));
+    expect(pins.length).toBeGreaterThanOrEqual(2);
+    for (const p of pins) { expect(overlaps(p, banner)).toBe(false); expect(overlaps(p, triad)).toBe(false); }
+    await shot('g06-banner-pins-clear');
+
+    const [dl] = await Promise.all([page.waitForEvent('download'), page.getByText('save picture (PNG)').click()]);
+    const bytes = new Uint8Array(readFileSync((await dl.path())!));
+    writeFileSync(join(SHOTS, 'g07-export-triad.png'), bytes);
+    const pic = readPng(bytes);
+    // the triad's filled tags (amber x, teal y, violet z; an arm pointing away has a white tag) in the lower
+    // right of the picture, above the footer
+    const count = (rgb: [number, number, number]) => {
+      let n = 0;
+      for (let y = Math.round(pic.height * 0.6); y < pic.height; y++) for (let x = Math.round(pic.width * 0.8); x < pic.width; x++) {
+        const i = 4 * (y * pic.width + x);
+        if (Math.abs(pic.rgba[i]! - rgb[0]) < 6 && Math.abs(pic.rgba[i + 1]! - rgb[1]) < 6 && Math.abs(pic.rgba[i + 2]! - rgb[2]) < 6) n++;
+      }
+      return n;
+    };
+    const toward = Object.entries(await arms()).filter(([, a]) => !a.away).map(([k]) => k);
+    expect(toward.length).toBeGreaterThanOrEqual(1);
+    const rgbOf: Record<string, [number, number, number]> = { x: [0xb4, 0x53, 0x09], y: [0x0f, 0x76, 0x6e], z: [0x6d, 0x28, 0xd9] };
+    for (const k of toward) expect(count(rgbOf[k]!)).toBeGreaterThan(20);
+  });
+});
