@@ -10,8 +10,9 @@ import { Worker } from 'node:worker_threads';
 import type { InflateBlock } from '../io/loadOptions.ts';
 import { nodeInflate } from '../io/nodeFiles.ts';
 import { checkWorkerCount } from './pool.ts';
+import { workerEntry } from './workerEntry.ts';
 
-const ENTRY = new URL('../../workers/inflateWorker.node.mjs', import.meta.url);
+const ENTRY = workerEntry('inflate');
 
 /** An inflater whose `batch` runs on worker threads; `close` ends them. */
 export interface InflatePool {

@@ -11,8 +11,9 @@ import type { Dataset } from '../model/dataset.ts';
 import { ComputePool, checkWorkerCount, type PoolPort } from './pool.ts';
 import type { ShareReply } from './shareHost.ts';
 import { toSharedDataset } from './sharedDataset.ts';
+import { workerEntry } from './workerEntry.ts';
 
-const ENTRY = new URL('../../workers/shareWorker.node.mjs', import.meta.url);
+const ENTRY = workerEntry('share');
 
 /** The pool size to use: `requested` if given, else `FIELDTALLY_WORKERS`, else the machine's parallelism (checked, 1 … 256). */
 export function poolSize(requested?: number | string): number {

@@ -16,8 +16,9 @@ import { abortError, type SeriesFiles } from '../series/seriesOpen.ts';
 import type { ProbeSet } from '../study/probeSet.ts';
 import { checkWorkerCount } from './pool.ts';
 import { joinHistoryTables, stepWindows, windowIndex } from './seriesWindows.ts';
+import { workerEntry } from './workerEntry.ts';
 
-const ENTRY = new URL('../../workers/seriesWorker.node.mjs', import.meta.url);
+const ENTRY = workerEntry('series');
 
 /** Options of `evaluateSeriesOnWorkers`: those of `evaluateSeries` (its `load` options are not passed to workers) and the worker count. */
 export interface ParallelSeriesOptions extends Omit<SeriesOptions, 'load'> {
