@@ -13,8 +13,6 @@ import type { ShareReply } from './shareHost.ts';
 import { toSharedDataset } from './sharedDataset.ts';
 import { workerEntry } from './workerEntry.ts';
 
-const ENTRY = workerEntry('share');
-
 /** The pool size to use: `requested` if given, else `FIELDTALLY_WORKERS`, else the machine's parallelism (checked, 1 … 256). */
 export function poolSize(requested?: number | string): number {
   if (requested !== undefined) return checkWorkerCount(requested, '--workers');
@@ -24,7 +22,7 @@ export function poolSize(requested?: number | string): number {
 }
 
 function nodePort(): PoolPort {
-  const w = new Worker(ENTRY);
+  const w = new Worker(workerEntry('share'));
   const handlers: ((r: ShareReply) => void)[] = [];
   let failed: string | undefined;
   w.on('message', (r: ShareReply) => { for (const h of handlers) h(r); });

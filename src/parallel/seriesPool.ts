@@ -18,8 +18,6 @@ import { checkWorkerCount } from './pool.ts';
 import { joinHistoryTables, stepWindows, windowIndex } from './seriesWindows.ts';
 import { workerEntry } from './workerEntry.ts';
 
-const ENTRY = workerEntry('series');
-
 /** Options of `evaluateSeriesOnWorkers`: those of `evaluateSeries` (its `load` options are not passed to workers) and the worker count. */
 export interface ParallelSeriesOptions extends Omit<SeriesOptions, 'load'> {
   /** Worker threads (1 … 256); 1 runs `evaluateSeries` in this thread with `files`. Never more than steps. */
@@ -47,7 +45,7 @@ export async function evaluateSeriesOnWorkers(index: SeriesIndex, files: SeriesF
   let done = 0;
   const threads: Worker[] = [];
   const results = windows.map((w) => new Promise<HistoryTable>((resolve, reject) => {
-    const t = new Worker(ENTRY, { workerData: { index: windowIndex(index, w), set } });
+    const t = new Worker(workerEntry('series'), { workerData: { index: windowIndex(index, w), set } });
     threads.push(t);
     let settled = false;
     t.on('message', (r: Reply) => {
