@@ -9,8 +9,8 @@
  *    first line (tree build included), later lines (median), boundary extraction, force total, and the peak
  *    of the whole run.
  * Goals (issue 12) at 10M: load ≤ 1.5 s, first cut ≤ 0.3 s, peak of loading ≤ 1.3× the decoded arrays, and
- * every stage ≤ 12× its 1M cost (linear growth). Times are wall ms of one run each, and `loadAverage` records
- * how busy the machine was. Alone: `node bin/run-ts.mjs bench/scale.bench.ts` (needs about 4 GB of memory).
+ * every stage ≤ 12× its 1M cost (linear growth). Times are wall ms of one run each (`loadCpu`: the load's
+ * process CPU ms, steadier on a busy machine), and `loadAverage` records how busy the machine was. Alone: `node bin/run-ts.mjs bench/scale.bench.ts` (needs about 4 GB of memory).
  */
 import { execFileSync } from 'node:child_process';
 import { mkdirSync, rmSync, statSync, writeFileSync } from 'node:fs';
@@ -59,6 +59,7 @@ function measure(file: string): Record<string, unknown> {
     fileBytes: statSync(file).size, cells: all.cells, decodedBytes: num(load, 'load', 'decodedBytes'),
     stagesMs: {
       load: num(load, 'load', 'ms'),
+      loadCpu: num(load, 'load', 'cpuMs'),
       firstCut: num(all, 'cut', 'firstCut', 'ms'),
       treeBuild: num(all, 'cut', 'treeBuildMs'),
       laterCut: num(all, 'cut', 'laterCuts', 'cutAndIntegralsMs', 'median'),
