@@ -93,7 +93,8 @@ export async function run(): Promise<Record<string, unknown>> {
     const lm = large.memory as Record<string, number>;
     return {
       benchmark: 'scale',
-      note: 'wall ms of one fresh `fieldtally bench` process per figure; growth = 10M / 1M per stage; the loading peak is (peak RSS − RSS before load) / decoded array bytes',
+      note: 'wall ms of one fresh `fieldtally bench` process per figure; growth = 10M / 1M per stage; the loading peak is (peak RSS − RSS before load) / decoded array bytes; '
+        + 'firstLine runs after the cut stage built the cell tree (its build is treeBuild)',
       goals: GOALS,
       met: {
         load: l.load! <= GOALS.loadMs, firstCut: l.firstCut! <= GOALS.firstCutMs,
