@@ -44,8 +44,8 @@ const ONE_SHOT_RUNS = 2;
 const BUNDLE = join(ROOT, 'dist-cli', 'fieldtally.mjs');
 const STAGES = ['load', 'firstCut', 'laterCut', 'firstLine', 'laterLine', 'boundary', 'force'] as const;
 type StageName = typeof STAGES[number];
-const GOALS: Record<StageName | 'oneShotCut', number> = {
-  load: 1, firstCut: 0.5, laterCut: 1, firstLine: 1, laterLine: 1, boundary: 1, force: 1, oneShotCut: 1,
+const GOALS: Record<StageName | 'oneShotCut' | 'oneShotCutInstalled', number> = {
+  load: 1, firstCut: 0.5, laterCut: 1, firstLine: 1, laterLine: 1, boundary: 1, force: 1, oneShotCut: 1, oneShotCutInstalled: 1,
 };
 
 type V3 = [number, number, number];
@@ -187,6 +187,23 @@ async function oneFile(name: string): Promise<Record<string, unknown>> {
   return { file: relative(ROOT, file), fileBytes: statSync(file).size, ratios: table, speedUpOneToTwoWorkers: speedUp, job, fieldtally: { core, pool1, pool2 }, vtk };
 }
 
+/** The ratios as a text table (stage × file), for stderr beside the JSON. */
+export function ratioTable(files: Record<string, unknown>): string {
+  const names = Object.keys(files).filter((f) => (files[f] as { ratios?: unknown }).ratios);
+  if (names.length === 0) return '';
+  const rows = Object.keys((files[names[0]!] as { ratios: Record<string, unknown> }).ratios);
+  const cell = (f: string, r: string) => {
+    const x = (files[f] as { ratios: Record<string, { ratio: number; met: boolean }> }).ratios[r];
+    return x ? `${x.ratio.toFixed(2)}${x.met ? ' ok' : '   '}` : '';
+  };
+  const w = Math.max(...names.map((n) => n.length)) + 2;
+  const label = (r: string) => `${r} (≤ ${GOALS[r as keyof typeof GOALS] ?? 1})`;
+  const lw = Math.max(16, ...rows.map((r) => label(r).length)) + 1;
+  const head = 'fieldtally / VTK'.padEnd(lw) + names.map((n) => n.padStart(w)).join('');
+  const lines = rows.map((r) => label(r).padEnd(lw) + names.map((n) => cell(n, r).padStart(w)).join(''));
+  return [head, ...lines, ''].join('\n');
+}
+
 export async function run(): Promise<Record<string, unknown>> {
   if (!existsSync(PYTHON)) return { error: `${PYTHON} not found: install Debian's python3-vtk9` };
   // the installed form of the command, for the one-shot comparison
@@ -198,6 +215,7 @@ export async function run(): Promise<Record<string, unknown>> {
     process.stderr.write(`versus: ${f} …\n`);
     files[f] = await oneFile(f);
   }
+  process.stderr.write(ratioTable(files));
   return {
     benchmark: 'versus',
     note: 'fieldtally / VTK 9.1 wall time per stage, each tool in fresh processes one after the other on the same file; '
