@@ -10,8 +10,7 @@ import { Worker } from 'node:worker_threads';
 import type { InflateBlock } from '../io/loadOptions.ts';
 import { nodeInflate } from '../io/nodeFiles.ts';
 import { checkWorkerCount } from './pool.ts';
-
-const ENTRY = new URL('../../workers/inflateWorker.node.mjs', import.meta.url);
+import { workerEntry } from './workerEntry.ts';
 
 /** An inflater whose `batch` runs on worker threads; `close` ends them. */
 export interface InflatePool {
@@ -25,7 +24,7 @@ export interface InflatePool {
 /** Starts `n` inflate workers (1 … 256). */
 export function startInflatePool(n: number): InflatePool {
   checkWorkerCount(n, 'inflate workers');
-  const workers = Array.from({ length: n }, () => new Worker(ENTRY));
+  const workers = Array.from({ length: n }, () => new Worker(workerEntry('inflate')));
   const waiting = new Map<number, { resolve: (g: (number | string)[]) => void; reject: (e: Error) => void }>();
   let next = 1;
   for (const w of workers) {

@@ -11,8 +11,7 @@ import type { Dataset } from '../model/dataset.ts';
 import { ComputePool, checkWorkerCount, type PoolPort } from './pool.ts';
 import type { ShareReply } from './shareHost.ts';
 import { toSharedDataset } from './sharedDataset.ts';
-
-const ENTRY = new URL('../../workers/shareWorker.node.mjs', import.meta.url);
+import { workerEntry } from './workerEntry.ts';
 
 /** The pool size to use: `requested` if given, else `FIELDTALLY_WORKERS`, else the machine's parallelism (checked, 1 … 256). */
 export function poolSize(requested?: number | string): number {
@@ -23,7 +22,7 @@ export function poolSize(requested?: number | string): number {
 }
 
 function nodePort(): PoolPort {
-  const w = new Worker(ENTRY);
+  const w = new Worker(workerEntry('share'));
   const handlers: ((r: ShareReply) => void)[] = [];
   let failed: string | undefined;
   w.on('message', (r: ShareReply) => { for (const h of handlers) h(r); });

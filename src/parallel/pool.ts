@@ -22,7 +22,10 @@ import { totalCells, type Dataset } from '../model/dataset.ts';
 import { probeLine, type LineProbeOptions, type LineProbeResult } from '../locate/lineProbe.ts';
 import type { BoundaryFaces } from '../surface/boundaryFaces.ts';
 import { primeBoundaryFaces } from '../surface/surfaceCache.ts';
+import type { EvaluateOptions, SetEvaluation } from '../study/evaluate.ts';
+import type { ProbeSet } from '../study/probeSet.ts';
 import { mergeBoundary, mergeCuts, mergeLines } from './mergeParts.ts';
+import { dealProbes, joinEvaluations, subSet } from './probeSetShares.ts';
 import type { ShareMessage, ShareReply, ShareRequest, WorkerMemory } from './shareHost.ts';
 import type { BoundaryPart, CutPart, LinePart } from './shareTasks.ts';
 import { splitCells, type CellShare } from './shares.ts';
@@ -150,6 +153,19 @@ export class ComputePool {
       return b;
     });
     return this.boundaryFaces;
+  }
+
+  /**
+   * Every probe of a (checked) set, as `evaluateProbeSet` gives it on the whole dataset: the probes are dealt
+   * out to the workers (`probeSetShares.ts`), each evaluating whole probes on the whole shared dataset.
+   */
+  async evaluateProbeSet(set: ProbeSet, options: Partial<EvaluateOptions> = {}): Promise<SetEvaluation> {
+    const lane = dealProbes(set.probes, this.lanes.length);
+    const parts = await Promise.all(this.lanes.map((l, w) => {
+      const sub = subSet(set, lane, w);
+      return sub ? l.call<SetEvaluation>({ op: 'evaluate', set: sub, options }) : Promise.resolve(null);
+    }));
+    return joinEvaluations(set, lane, parts);
   }
 
   /** Memory each worker reports (bytes; null where the platform cannot tell). The shared dataset is not in it. */

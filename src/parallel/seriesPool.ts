@@ -16,8 +16,7 @@ import { abortError, type SeriesFiles } from '../series/seriesOpen.ts';
 import type { ProbeSet } from '../study/probeSet.ts';
 import { checkWorkerCount } from './pool.ts';
 import { joinHistoryTables, stepWindows, windowIndex } from './seriesWindows.ts';
-
-const ENTRY = new URL('../../workers/seriesWorker.node.mjs', import.meta.url);
+import { workerEntry } from './workerEntry.ts';
 
 /** Options of `evaluateSeriesOnWorkers`: those of `evaluateSeries` (its `load` options are not passed to workers) and the worker count. */
 export interface ParallelSeriesOptions extends Omit<SeriesOptions, 'load'> {
@@ -46,7 +45,7 @@ export async function evaluateSeriesOnWorkers(index: SeriesIndex, files: SeriesF
   let done = 0;
   const threads: Worker[] = [];
   const results = windows.map((w) => new Promise<HistoryTable>((resolve, reject) => {
-    const t = new Worker(ENTRY, { workerData: { index: windowIndex(index, w), set } });
+    const t = new Worker(workerEntry('series'), { workerData: { index: windowIndex(index, w), set } });
     threads.push(t);
     let settled = false;
     t.on('message', (r: Reply) => {

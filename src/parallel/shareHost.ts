@@ -11,6 +11,8 @@ import { boundaryShare, cutShare, lineShare, type LineShareOptions } from './sha
 import { shareDataset, type CellShare } from './shares.ts';
 import type { CutOptions } from '../cut/cutPlane.ts';
 import type { Vec3 } from '../cut/triangleSet.ts';
+import { evaluateProbeSet, type EvaluateOptions } from '../study/evaluate.ts';
+import type { ProbeSet } from '../study/probeSet.ts';
 
 /** The operations a share worker answers, with their arguments. */
 export type ShareRequest =
@@ -18,6 +20,7 @@ export type ShareRequest =
   | { op: 'cut'; origin: Vec3; normal: Vec3; options: Partial<CutOptions> }
   | { op: 'line'; from: Vec3; to: Vec3; options: LineShareOptions }
   | { op: 'boundary'; withMerge: boolean }
+  | { op: 'evaluate'; set: ProbeSet; options: Partial<EvaluateOptions> }
   | { op: 'memory' };
 
 /** A message to a share worker. */
@@ -48,6 +51,8 @@ export function serveShares(port: SharePort, memory: () => WorkerMemory | null =
   const run = (m: ShareRequest): unknown => {
     if (m.op === 'hold') { whole = m.dataset; range = m.share; share = shareDataset(whole, range); return null; }
     if (m.op === 'memory') return memory();
+    // whole probes on the whole dataset (probeSetShares.ts): the single-thread path, bit for bit
+    if (m.op === 'evaluate') { if (!whole) throw new Error('worker pool: no dataset is held by this worker'); return evaluateProbeSet(whole, m.set, m.options); }
     if (!share || !range) throw new Error('worker pool: no dataset is held by this worker');
     if (m.op === 'cut') return cutShare(share, range, m.origin, m.normal, m.options);
     if (m.op === 'line') return lineShare(share, range, m.from, m.to, m.options);
@@ -58,7 +63,8 @@ export function serveShares(port: SharePort, memory: () => WorkerMemory | null =
     try {
       const result = run(m);
       const set = new Set<ArrayBuffer>();
-      transferables(result, set);
+      // an evaluation may hold arrays this worker keeps in its caches: it is copied, never transferred
+      if (m.op !== 'evaluate') transferables(result, set);
       transfer = [...set];
       reply = { id: m.id, ok: true, result };
     } catch (e) {

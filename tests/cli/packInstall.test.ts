@@ -38,7 +38,8 @@ describe('npm pack → npm install -g → fieldtally', () => {
     const listed = execFileSync('tar', ['-tzf', tarball], { encoding: 'utf8' }).trim().split('\n').sort();
     expect(listed).toEqual([
       'package/README.md', 'package/bin/fieldtally.mjs', 'package/dist-cli/THIRD-PARTY-NOTICES.txt',
-      'package/dist-cli/fieldtally.mjs', 'package/package.json', 'package/src/study/probeSet.schema.json',
+      'package/dist-cli/fieldtally.mjs', 'package/dist-cli/inflateWorker.mjs', 'package/dist-cli/seriesWorker.mjs',
+      'package/dist-cli/shareWorker.mjs', 'package/package.json', 'package/src/study/probeSet.schema.json',
     ]);
     const shipped = JSON.parse(execFileSync('tar', ['-xzOf', tarball, 'package/package.json'], { encoding: 'utf8' })) as Record<string, unknown>;
     expect(shipped['dependencies']).toBeUndefined();
@@ -58,6 +59,14 @@ describe('npm pack → npm install -g → fieldtally', () => {
     let text = '';
     expect(await main(args, { out: (t) => { text += t; }, err: () => {} })).toBe(0);
     expect(withoutTimes(installed)).toEqual(withoutTimes(JSON.parse(text)));
+
+    // the installed workers (bundled beside the command) start and give the same numbers as one thread
+    const pooled = JSON.parse(execFileSync(bin, [...args, '--workers', '2'], { cwd: outside, encoding: 'utf8' }));
+    expect(withoutTimes(pooled)).toEqual(withoutTimes(installed));
+    const history = (w: string) => execFileSync(bin, ['history', join(REPO, 'sample-fields/vortex-cell'), '--probes', join(REPO, 'examples/vortex-cell.probes.json'), '--workers', w],
+      { cwd: outside, encoding: 'utf8' }).split('\n').filter((l) => !/created \d|built \d time/.test(l)).join('\n');
+    // the same history with the steps run by two threads (apart from the creation time and the mesh-build count)
+    expect(history('2')).toBe(history('1'));
 
     const help = execFileSync(bin, ['--help'], { cwd: outside, encoding: 'utf8' });
     expect(help).toMatch(/check-probes +check a probe-set file/);

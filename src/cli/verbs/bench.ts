@@ -46,14 +46,14 @@ const bench: Verb = {
     const only = str(args, 'stages')?.split(',').map((s) => s.trim());
     const fileBytes = (await stat(file)).size;
     const rssBefore = process.memoryUsage().rss;
-    const t0 = performance.now();
+    const c0 = process.cpuUsage(), t0 = performance.now();
     const dataset = await loadDatasetFile(file);
-    const loadMs = performance.now() - t0;
+    const loadMs = performance.now() - t0, loadCpu = process.cpuUsage(c0);
     const decoded = decodedBytes(dataset);
     const out: Record<string, unknown> = {
       file, fileBytes, points: totalPoints(dataset), cells: totalCells(dataset),
       load: {
-        ms: round(loadMs), fileMBps: round(fileBytes / 1e3 / loadMs), decodedBytes: decoded,
+        ms: round(loadMs), cpuMs: round((loadCpu.user + loadCpu.system) / 1000), fileMBps: round(fileBytes / 1e3 / loadMs), decodedBytes: decoded,
         decodedMBps: round(decoded / 1e3 / loadMs),
       },
     };

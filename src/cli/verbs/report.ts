@@ -24,7 +24,10 @@ import { meanEvaluation } from '../../series/seriesMeans.ts';
 import { looksLikeSeries } from '../seriesInputs.ts';
 import { studySeries } from '../seriesStudy.ts';
 import { SERIES_WORKER_HELP, WORKER_OPTIONS } from '../workerOption.ts';
+import { openNodePool, poolSize } from '../../parallel/nodePool.ts';
 import type { Verb } from '../verb.ts';
+import type { Dataset } from '../../model/dataset.ts';
+import type { ProbeSet } from '../../study/probeSet.ts';
 
 /** Exit code when the report was written but some probe failed. */
 export const EXIT_PROBE_FAILED = 3;
@@ -46,7 +49,8 @@ const report: Verb = {
     '  series-<n>-history.csv and series-<n>-statistics.csv (mean ± 95 % half-width, rms, min/max) beside them; no picture.',
     '  --color       field to colour the surfaces by (default: a pressure field, else the first field)',
     '  --width/--height  picture size in pixels (default 1200 × 800); --pictures n: pictures for the first n files (default 12)',
-    SERIES_WORKER_HELP + ' (series only)',
+    SERIES_WORKER_HELP + ' (series);',
+    '                        on single files only when given: N compute workers evaluate the probes (the same numbers as one)',
     '  Exit code 3 when any probe failed (the report is still written; the failures go to stderr).',
     `  ${UNITS_STATEMENT}`,
   ].join('\n'),
@@ -81,7 +85,8 @@ const report: Verb = {
       const { dataset, inputs: read } = await loadInput(file);
       inputs.push(...read);
       const picture = i < maxPictures;
-      const evaluation = evaluateProbeSet(dataset, ps.set, { keepShapes: picture });
+      const workers = str(args, 'workers') === undefined ? 1 : poolSize(str(args, 'workers'));
+      const evaluation = workers > 1 ? await evaluateOnPool(dataset, ps.set, workers, picture) : evaluateProbeSet(dataset, ps.set, { keepShapes: picture });
       if (picture) pictures.push(reportPicture(dataset, evaluation, ps.set.units, { width, height, color: str(args, 'color'), file: `view-${i + 1}.png` }));
       for (const p of evaluation.probes) delete p.shapes;
       evaluations.push({ file, evaluation });
@@ -101,4 +106,10 @@ const report: Verb = {
     return 0;
   },
 };
+/** The probes dealt out to `workers` compute workers (src/parallel/probeSetShares.ts); the pool ends after. */
+async function evaluateOnPool(dataset: Dataset, set: ProbeSet, workers: number, keepShapes: boolean) {
+  const pool = await openNodePool(dataset, workers);
+  try { return await pool.evaluateProbeSet(set, { keepShapes }); } finally { await pool.close(); }
+}
+
 export default report;

@@ -1,0 +1,112 @@
+/**
+ * Scale benchmark: the command line on 1M and on 10M hexahedra (100 × 100 × 100 and 100 × 100 × 1000 unit-cube
+ * lattices with a velocity vector and a pressure scalar at the points), each written as appended raw .vtu to
+ * bench/out/ (the 10M file is about 1.2 GB; it is deleted at the end, also after a failure).
+ *
+ * Per file, in fresh processes (`fieldtally bench <file> --json`):
+ *  - `--stages load`: load time and the peak resident memory of loading alone, over the decoded arrays;
+ *  - `--stages cut,locate,surface`: first cut with integrals (scan), cell-tree build, later cuts (median),
+ *    first line (tree build included), later lines (median), boundary extraction, force total, and the peak
+ *    of the whole run.
+ * Goals (issue 12) at 10M: load ≤ 1.5 s, first cut ≤ 0.3 s, peak of loading ≤ 1.3× the decoded arrays, and
+ * every stage ≤ 12× its 1M cost (linear growth). Times are wall ms of one run each (`loadCpu`: the load's
+ * process CPU ms, steadier on a busy machine), and `loadAverage` records how busy the machine was. Alone: `node bin/run-ts.mjs bench/scale.bench.ts` (needs about 4 GB of memory).
+ */
+import { execFileSync } from 'node:child_process';
+import { mkdirSync, rmSync, statSync, writeFileSync } from 'node:fs';
+import { loadavg } from 'node:os';
+import { dirname, join, resolve } from 'node:path';
+import { fileURLToPath } from 'node:url';
+import { writeVtu } from '../src/io/writeVtu.ts';
+import { datasetOf, hexGrid, pointFieldFrom, withFields } from '../src/model/meshBuild.ts';
+
+const ROOT = resolve(dirname(fileURLToPath(import.meta.url)), '..');
+const OUT = join(ROOT, 'bench', 'out');
+const GOALS = { loadMs: 1500, firstCutMs: 300, loadPeakOverDecoded: 1.3, growth: 12 };
+
+/** Writes the lattice with `nz` layers (nz/10 million cells) as appended raw .vtu; returns its path. */
+function writeLattice(nz: number): string {
+  const p = hexGrid(100, 100, nz);
+  const d = datasetOf([withFields(p, [
+    pointFieldFrom(p, 'velocity', 3, (x, y, z, o) => { o[0] = 0.1 * y; o[1] = -0.1 * x; o[2] = 4 * x * (1 - x) * y * (1 - y) + 0.01 * z; }),
+    pointFieldFrom(p, 'p', 1, (x, y, z, o) => { o[0] = 100 * (1 - z) + x * y; }),
+  ])], `${nz / 100}M hexahedra`);
+  const file = join(OUT, `scale-hex-${nz / 100}M.appended-raw.vtu`);
+  writeFileSync(file, writeVtu(d, { encoding: 'appended-raw' }));
+  return file;
+}
+
+type Json = Record<string, Record<string, unknown> | undefined>;
+
+function bench(file: string, stages: string): Json {
+  const out = execFileSync(process.execPath, ['--max-old-space-size=8000', join(ROOT, 'bin', 'fieldtally.mjs'), 'bench', file, '--json', '--stages', stages], {
+    cwd: ROOT, encoding: 'utf8', maxBuffer: 16 << 20,
+  });
+  return JSON.parse(out) as Json;
+}
+
+const num = (o: unknown, ...path: string[]): number => {
+  let v: unknown = o;
+  for (const k of path) v = (v as Record<string, unknown> | undefined)?.[k];
+  return typeof v === 'number' ? v : NaN;
+};
+
+/** The stage figures of one file (wall ms) and its memory. */
+function measure(file: string): Record<string, unknown> {
+  const load = bench(file, 'load');
+  const all = bench(file, 'cut,locate,surface');
+  return {
+    fileBytes: statSync(file).size, cells: all.cells, decodedBytes: num(load, 'load', 'decodedBytes'),
+    stagesMs: {
+      load: num(load, 'load', 'ms'),
+      loadCpu: num(load, 'load', 'cpuMs'),
+      firstCut: num(all, 'cut', 'firstCut', 'ms'),
+      treeBuild: num(all, 'cut', 'treeBuildMs'),
+      laterCut: num(all, 'cut', 'laterCuts', 'cutAndIntegralsMs', 'median'),
+      firstLine: num(all, 'locate', 'firstLine', 'ms'),
+      laterLine: num(all, 'locate', 'laterLines', 'ms', 'median'),
+      boundary: num(all, 'surface', 'extraction', 'firstMs'),
+      force: num(all, 'surface', 'force', 'firstMs'),
+    },
+    memory: {
+      loadPeakOverDecoded: num(load, 'memory', 'peakOverDecoded'), loadPeakRssBytes: num(load, 'memory', 'peakRssBytes'),
+      allStagesPeakOverDecoded: num(all, 'memory', 'peakOverDecoded'), allStagesPeakRssBytes: num(all, 'memory', 'peakRssBytes'),
+    },
+  };
+}
+
+export async function run(): Promise<Record<string, unknown>> {
+  mkdirSync(OUT, { recursive: true });
+  const loadBefore = loadavg().map((v) => Math.round(v * 10) / 10);
+  const files: string[] = [];
+  try {
+    files.push(writeLattice(100));
+    const small = measure(files[0]!);
+    files.push(writeLattice(1000));
+    const large = measure(files[1]!);
+    const s = small.stagesMs as Record<string, number>, l = large.stagesMs as Record<string, number>;
+    const growth: Record<string, { ratio: number; met: boolean }> = {};
+    for (const k of Object.keys(s)) {
+      const r = Math.round((l[k]! / s[k]!) * 100) / 100;
+      growth[k] = { ratio: r, met: r <= GOALS.growth };
+    }
+    const lm = large.memory as Record<string, number>;
+    return {
+      benchmark: 'scale',
+      note: 'wall ms of one fresh `fieldtally bench` process per figure; growth = 10M / 1M per stage; the loading peak is (peak RSS − RSS before load) / decoded array bytes; '
+        + 'firstLine runs after the cut stage built the cell tree (its build is treeBuild)',
+      goals: GOALS,
+      met: {
+        load: l.load! <= GOALS.loadMs, firstCut: l.firstCut! <= GOALS.firstCutMs,
+        loadPeak: lm.loadPeakOverDecoded! <= GOALS.loadPeakOverDecoded, growth: Object.values(growth).every((g) => g.met),
+      },
+      growth, '1M': small, '10M': large,
+      loadAverageBefore: loadBefore, loadAverageAfter: loadavg().map((v) => Math.round(v * 10) / 10),
+    };
+  } finally {
+    for (const f of files) rmSync(f, { force: true });
+  }
+}
+
+const isMain = import.meta.url === `file://${process.argv[1]}`;
+if (isMain) process.stdout.write(JSON.stringify(await run(), null, 2) + '\n');
