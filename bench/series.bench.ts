@@ -5,7 +5,8 @@
  * cut-planes and one force total evaluated at every step through the streaming path of
  * `fieldtally history` (open with the TimeValue pass, read, reuse the mesh, evaluate, drop).
  * Goals (issue 11): all 200 steps in ≤ 10 s; peak memory ≤ 3 steps' decoded arrays plus the shared
- * geometry (cell tree and boundary faces). Memory: every 10th step a full collection is forced and the
+ * geometry (cell tree and boundary faces, and what the evaluation keeps per mesh: the wall-gradient plan
+ * of the force total and the three planes' cut geometry — each listed on its own). Memory: every 10th step a full collection is forced and the
  * live array buffers (every typed array) are sampled while that step is still held — what streaming keeps
  * resident; the peak of unforced samples after every step is reported too (it includes garbage not yet
  * collected). The 20 forced collections are included in the times.
@@ -25,6 +26,9 @@ import { evaluateSeriesOnWorkers } from '../src/parallel/seriesPool.ts';
 import { evaluateSeries } from '../src/series/evaluateSeries.ts';
 import type { ProbeSet } from '../src/study/probeSet.ts';
 import { getBoundaryFaces } from '../src/surface/surfaceCache.ts';
+import { wallPlanBytes } from '../src/surface/wallGradientCache.ts';
+import { evaluateProbeSet } from '../src/study/evaluate.ts';
+import { cutCacheBytes } from '../src/cut/cutCache.ts';
 
 const STEPS = 200, N = [47, 47, 46] as const;
 
@@ -98,10 +102,14 @@ export async function run(): Promise<Record<string, unknown>> {
     const wall2 = performance.now() - t2, cpu2 = process.cpuUsage(c2);
     const same = table2.time.length === table.time.length && table2.columns.length === table.columns.length
       && table.columns.every((c, i) => c.values.every((v, j) => Object.is(v, table2.columns[i]!.values[j])));
-    // the shared geometry: cell tree and boundary faces of the (one) mesh, as cached
+    // the shared geometry: cell tree and boundary faces of the (one) mesh, and the per-mesh caches the
+    // evaluation keeps (wall-gradient plan, cut geometry), rebuilt here on a fresh copy of the first step
     const first = await nodeSeriesFiles.load(index.steps[0]!.files[0]!);
     const tree = getCellTree(first), faces = getBoundaryFaces(first);
-    const sharedBytes = tree.bytes + faces.areaVector.byteLength + faces.centroid.byteLength + faces.nodes.byteLength + faces.points.byteLength;
+    const treeAndFacesBytes = tree.bytes + faces.areaVector.byteLength + faces.centroid.byteLength + faces.nodes.byteLength + faces.points.byteLength;
+    evaluateProbeSet(first, SET); evaluateProbeSet(first, SET);
+    const wallPlan = wallPlanBytes(faces), cutGeometry = cutCacheBytes(first);
+    const sharedBytes = treeAndFacesBytes + wallPlan + cutGeometry;
     const budget = 3 * stepDecodedBytes + sharedBytes;
     const peakTypedArrays = peakBuffers - base.arrayBuffers;
     return {
@@ -112,6 +120,7 @@ export async function run(): Promise<Record<string, unknown>> {
       perStepWallMs: +(wallMs / STEPS).toFixed(1), readWallMs: Math.round(loadWallMs), readCpuMs: Math.round(loadCpuUs / 1000), meshReuse: table.meshReuse, failures: table.failures.length, timeSource: table.timeSource,
       memory: {
         stepDecodedBytes, sharedGeometryBytes: sharedBytes, budgetBytes: budget,
+        shared: { cellTreeAndBoundaryFacesBytes: treeAndFacesBytes, wallGradientPlanBytes: wallPlan, cutGeometryBytes: cutGeometry },
         peakLiveArrayBufferBytes: peakLive, withinBudget: peakLive <= budget,
         peakArrayBufferGrowthUnforcedBytes: peakTypedArrays, peakHeapUsedBytes: peakHeap, peakRssBytes: peakRss,
         note: 'live = array buffers over the start of the run after a forced collection every 10th step (the step still held); unforced = peak of samples after every step, garbage included',

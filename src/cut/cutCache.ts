@@ -83,3 +83,8 @@ export function integratePlaneReusingCut(dataset: Dataset, q: PlaneQuery): Plane
   }
   return { cut, region, integrals };
 }
+
+/** Bytes of cut geometry kept for the mesh of `d` (for memory accounting). */
+export function cutCacheBytes(d: Dataset): number {
+  return byMesh.get(meshKey(d))?.bytes ?? 0;
+}
