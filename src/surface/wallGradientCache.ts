@@ -15,7 +15,7 @@ import type { Dataset } from '../model/dataset.ts';
 import type { FieldArray } from '../model/fieldArray.ts';
 import type { Piece } from '../model/piece.ts';
 import { applyGradientOperator, gradientOperator, type GradientOperator } from '../derive/gradientOperator.ts';
-import { pointStencil } from '../derive/stencils.ts';
+import { pointStencilAround } from '../derive/localStencil.ts';
 import type { BoundaryFaces } from './boundaryFaces.ts';
 import { cornerGradients } from './wallTraction.ts';
 
@@ -88,7 +88,8 @@ function build(d: Dataset, faces: BoundaryFaces, selection: Int32Array, offsets:
   for (let k = 0; k < d.pieces.length; k++) {
     if (targets[k]!.length === 0) continue;
     const p = d.pieces[k]!;
-    const op = gradientOperator(p.points, pointStencil(p), Int32Array.from(targets[k]!));
+    const nodes = Int32Array.from(targets[k]!);
+    const op = gradientOperator(p.points, pointStencilAround(p, nodes), nodes);
     bytes += op.bytes;
     if (bytes > WALL_PLAN_MAX_BYTES) return { ...plan, pieces: d.pieces.map(() => null) };
     pieces[k] = { points: p.points, connectivity: p.connectivity, offsets: p.offsets, op };
