@@ -66,7 +66,9 @@ export interface LoadOptions {
   /**
    * A dataset read before (the previous step of a series). XML files only: a geometry array (points, cell
    * types, offsets, connectivity) stored as raw appended bytes equal to the same piece's array of this
-   * dataset is taken from it instead of decoded again (`sameBlock.ts`); anything else is read as usual.
+   * dataset is taken from it instead of decoded again (`sameBlock.ts`), and not checked again when the whole
+   * geometry is (give only a dataset that was read or built through the usual checks); anything else is read
+   * as usual.
    */
   geometryBefore?: Dataset;
 }

@@ -10,7 +10,7 @@
  * cell arrays whose raw bytes equal that piece's are taken from it, not decoded again (`sameBlock.ts`).
  */
 import type { Piece, PolyFaces } from '../model/piece.ts';
-import { validatePiece } from '../model/validate.ts';
+import { validateFields, validatePiece } from '../model/validate.ts';
 import { linearizeCells, polyDataCells, type PolySection } from './cellAssembly.ts';
 import { arrayLabel, componentsOf, intAttr, readDataArray, readIdDataArray, type XmlFileContext } from './xmlArrays.ts';
 import { readSectionFields } from './xmlFields.ts';
@@ -126,8 +126,9 @@ async function readUnstructuredCells(ctx: XmlFileContext, pieceEl: XmlElement, n
   }
   const same = await sameCells(ctx, cells, nCells, before);
   if (same) {
-    const fileCellTypes: Record<number, number> = {};
-    for (const t of same.cellTypes) fileCellTypes[t] = (fileCellTypes[t] ?? 0) + 1;
+    const count = new Int32Array(256), fileCellTypes: Record<number, number> = {};
+    for (let c = 0; c < same.cellTypes.length; c++) count[same.cellTypes[c]!]!++;
+    for (let t = 0; t < 256; t++) if (count[t]) fileCellTypes[t] = count[t]!;
     return { lin: { cellTypes: same.cellTypes, offsets: same.offsets, connectivity: same.connectivity, fileCellTypes, warnings: [] as string[] }, polyFaces: undefined };
   }
   const typesEl = namedArray(cells, ['types']);
@@ -182,6 +183,8 @@ export async function readXmlPiece(ctx: XmlFileContext, pieceEl: XmlElement, kin
     ...(polyFaces ? { polyFaces } : {}),
     pointData, cellData,
   };
-  validatePiece(piece, where);
+  // geometry that is wholly the piece read before was checked then: only the fields are new
+  const checked = before && !polyFaces && points === before.points && lin.connectivity === before.connectivity && lin.offsets === before.offsets && lin.cellTypes === before.cellTypes;
+  if (checked) validateFields(piece, where); else validatePiece(piece, where);
   return { piece, fileCellTypes: lin.fileCellTypes, warnings: lin.warnings.map((w) => `piece ${index}: ${w}`) };
 }

@@ -74,6 +74,13 @@ describe('geometry taken from the dataset read before', () => {
     expect(mem.pieces[1]!.points).toBe(first.pieces[1]!.points);
   });
 
+  it('the fields of a step on the same geometry are still checked', async () => {
+    const first = await fromDisk('n1.vtu', dataset(1), RAW);
+    const bad = dataset(2);
+    bad.pieces[1]!.pointData[0]!.values[3] = NaN;
+    await expect(fromDisk('n2.vtu', bad, RAW, first)).rejects.toThrow(/n2\.vtu: piece 1: point array "p" has a non-finite value \(NaN\) at tuple 3/);
+  });
+
   it('one coordinate or one node id changed: decoded afresh, as without the option', async () => {
     const first = await fromDisk('b1.vtu', dataset(1), RAW);
     const moved = (h: Piece) => { h.points[3 * 7 + 1] = h.points[3 * 7 + 1]! + 1e-12; };
