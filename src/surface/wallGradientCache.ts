@@ -9,7 +9,7 @@
  * against each piece's geometry arrays on every use, so a changed mesh gets a new plan.
  *
  * An operator stores about 28 bytes per neighbour of every wall node; a wall whose plan would exceed
- * `WALL_PLAN_MAX_BYTES` is fitted by the kernel at every call instead (remembered, so it is not retried).
+ * `wallPlanAllowance` is fitted by the kernel at every call instead (remembered, so it is not retried).
  */
 import type { Dataset } from '../model/dataset.ts';
 import type { FieldArray } from '../model/fieldArray.ts';
@@ -19,8 +19,19 @@ import { pointStencilAround } from '../derive/localStencil.ts';
 import type { BoundaryFaces } from './boundaryFaces.ts';
 import { cornerGradients } from './wallTraction.ts';
 
-/** Largest plan kept for one face selection (bytes); larger walls use the kernel at every call. */
-export const WALL_PLAN_MAX_BYTES = 64 * 1024 * 1024;
+/**
+ * How large a plan may be (bytes) for one face selection: `shareOfGeometry` times the bytes of the mesh's
+ * geometry arrays (points, cell types, offsets, connectivity of the pieces it touches), but at least
+ * `minBytes` and at most `maxBytes`. Larger walls use the kernel at every call, so a one-off force total on
+ * a large file does not leave a large plan behind.
+ */
+export const WALL_PLAN_LIMITS = { shareOfGeometry: 0.5, minBytes: 16 * 1024 * 1024, maxBytes: 64 * 1024 * 1024 };
+
+/** The plan size allowed beside pieces whose geometry arrays hold `geometryBytes` (see `WALL_PLAN_LIMITS`). */
+export function wallPlanAllowance(geometryBytes: number): number {
+  const l = WALL_PLAN_LIMITS;
+  return Math.min(l.maxBytes, Math.max(l.minBytes, l.shareOfGeometry * geometryBytes));
+}
 /** Neighbours per wall node assumed when estimating a plan's size before building it (a hexahedral node's 5 × 5 × 3 two-ring). */
 const NEIGHBOURS_ESTIMATE = 75;
 /** Plans kept per boundary-face object (different face selections of one mesh). */
@@ -83,7 +94,10 @@ function build(d: Dataset, faces: BoundaryFaces, selection: Int32Array, offsets:
   }
   const nodesTotal = targets.reduce((n, t) => n + t.length, 0);
   const plan: Plan = { selection: selection.slice(), pieces, cornerRow, facePiece, cached: false, bytes: 0 };
-  if (nodesTotal * NEIGHBOURS_ESTIMATE * 28 > WALL_PLAN_MAX_BYTES) return plan;
+  let geometryBytes = 0;
+  d.pieces.forEach((p, k) => { if (targets[k]!.length) geometryBytes += p.points.byteLength + p.cellTypes.byteLength + p.offsets.byteLength + p.connectivity.byteLength; });
+  const allowed = wallPlanAllowance(geometryBytes);
+  if (nodesTotal * NEIGHBOURS_ESTIMATE * 28 > allowed) return plan;
   let bytes = cornerRow.byteLength + facePiece.byteLength + plan.selection.byteLength;
   for (let k = 0; k < d.pieces.length; k++) {
     if (targets[k]!.length === 0) continue;
@@ -91,7 +105,7 @@ function build(d: Dataset, faces: BoundaryFaces, selection: Int32Array, offsets:
     const nodes = Int32Array.from(targets[k]!);
     const op = gradientOperator(p.points, pointStencilAround(p, nodes), nodes);
     bytes += op.bytes;
-    if (bytes > WALL_PLAN_MAX_BYTES) return { ...plan, pieces: d.pieces.map(() => null) };
+    if (bytes > allowed) return { ...plan, pieces: d.pieces.map(() => null) };
     pieces[k] = { points: p.points, connectivity: p.connectivity, offsets: p.offsets, op };
   }
   return { ...plan, cached: true, bytes };

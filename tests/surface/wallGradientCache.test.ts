@@ -12,7 +12,7 @@ import { PIPE_LEVELS, pipeCase } from '../../src/samples/pipe.ts';
 import { sphereCase } from '../../src/samples/sphere.ts';
 import { getBoundaryFaces, getSurfaceGroups } from '../../src/surface/surfaceCache.ts';
 import { facesOfGroups } from '../../src/surface/surfaceGroups.ts';
-import { wallCornerGradients, wallPlanBytes } from '../../src/surface/wallGradientCache.ts';
+import { WALL_PLAN_LIMITS, wallCornerGradients, wallPlanAllowance, wallPlanBytes } from '../../src/surface/wallGradientCache.ts';
 import { cornerGradients } from '../../src/surface/wallTraction.ts';
 import type { BoundaryFaces } from '../../src/surface/boundaryFaces.ts';
 
@@ -84,5 +84,23 @@ describe('cached wall-gradient plan', () => {
     expect(gap(g, k)).toBeLessThan(1e-12);
     // gradients halve when lengths double
     expect(gap(g.map((x) => 2 * x), cornerGradients(d, faces, wall, offsets, velocities(d)))).toBeLessThan(1e-12);
+  });
+
+  it('leaves a wall whose plan would be too large to the kernel, and sizes the allowance by the mesh', () => {
+    expect(wallPlanAllowance(0)).toBe(16 * 1024 * 1024);
+    expect(wallPlanAllowance(100e6)).toBe(50e6);
+    expect(wallPlanAllowance(1e9)).toBe(64 * 1024 * 1024);
+    const saved = { ...WALL_PLAN_LIMITS };
+    try {
+      WALL_PLAN_LIMITS.minBytes = 1000; WALL_PLAN_LIMITS.maxBytes = 1000;
+      const d = sphereCase({ refinement: 1 }), faces = getBoundaryFaces(d), groups = getSurfaceGroups(d);
+      const wall = facesOfGroups(groups, [groups.groups.findIndex((g) => g.id === 1)]);
+      const offsets = cornerOffsets(faces, wall);
+      const g = wallCornerGradients(d, faces, wall, offsets, velocities(d));
+      expect(wallPlanBytes(faces)).toBe(0);
+      expect(Array.from(g)).toEqual(Array.from(cornerGradients(d, faces, wall, offsets, velocities(d))));
+    } finally {
+      Object.assign(WALL_PLAN_LIMITS, saved);
+    }
   });
 });
