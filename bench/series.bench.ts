@@ -5,11 +5,12 @@
  * cut-planes and one force total evaluated at every step through the streaming path of
  * `fieldtally history` (open with the TimeValue pass, read, reuse the mesh, evaluate, drop).
  * Goals (issue 11): all 200 steps in ≤ 10 s; peak memory ≤ 3 steps' decoded arrays plus the shared
- * * geometry (cell tree and boundary faces, and what the evaluation keeps per mesh: the wall-gradient plan
- * of the force total and the three planes' cut geometry — each listed on its own). Memory: every 10th step two full collections are forced and the
- * live array buffers (every typed array) are sampled while that step is still held — what streaming keeps
- * resident; the peak of unforced samples after every step is reported too (it includes garbage not yet
- * collected). The 20 forced collections are included in the times.
+ * geometry (cell tree and boundary faces, and what the evaluation keeps per mesh: the wall-gradient plan
+ * of the force total and the three planes' cut geometry — each listed on its own). Memory: every 10th
+ * step two full collections are forced (the second lets the first finish freeing buffers off-thread) and
+ * the live array buffers (every typed array) are sampled while that step is still held — what streaming
+ * keeps resident; the peak of unforced samples after every step is reported too (it includes garbage not
+ * yet collected). The 40 forced collections are included in the times.
  * Then the same series on 2 worker threads (src/parallel/seriesPool.ts, runs of 100 steps each): wall and
  * process CPU (all threads), and whether its table equals the one-thread table number for number.
  */
@@ -75,7 +76,7 @@ export async function run(): Promise<Record<string, unknown>> {
   try {
     setFlagsFromString('--expose-gc');
     const gc = runInNewContext('gc') as () => void;
-    gc();
+    gc(); gc();
     const base = process.memoryUsage();
     let peakBuffers = 0, peakHeap = 0, peakRss = 0, peakLive = 0, stepNo = 0;
     const c0 = process.cpuUsage(), t0 = performance.now();
