@@ -130,7 +130,7 @@ export async function run(): Promise<Record<string, unknown>> {
         shared: { cellTreeAndBoundaryFacesBytes: treeAndFacesBytes, wallGradientPlanBytes: wallPlan, cutGeometryBytes: cutGeometry },
         peakLiveArrayBufferBytes: peakLive, withinBudget: peakLive <= budget,
         peakArrayBufferGrowthUnforcedBytes: peakTypedArrays, peakHeapUsedBytes: peakHeap, peakRssBytes: peakRss,
-        note: 'live = array buffers over the start of the run after a forced collection every 10th step (the step still held); unforced = peak of samples after every step, garbage included',
+        note: 'live = array buffers over the start of the run after two forced collections every 10th step (the step still held); unforced = peak of samples after every step, garbage included',
       },
       note: 'measured on a shared 2-core machine under heavy load from other jobs: wall time is inflated; cpuMs is the process CPU time',
     };
