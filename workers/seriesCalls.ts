@@ -33,8 +33,15 @@ export function normalisePath(p: string): string {
 const sourceOf = (data: Blob | Uint8Array, name: string): ByteSource => (data instanceof Uint8Array ? bytesSource(name, data) : blobSource(data, name));
 const baseName = (p: string): string => p.split('/').pop()!;
 
+/**
+ * Series file access that counts the bytes of the files its loads open (step files and set pieces) in
+ * `meter`; `counting()` gives the same access with a meter of its own (so a step shown while a history
+ * runs counts only its own files).
+ */
+export type MeteredFiles = SeriesFiles & { readonly meter: { bytes: number }; counting(): MeteredFiles };
+
 /** The chosen files as series file access; a path not among them is an error naming it. */
-export function chosenFiles(list: readonly InputFile[]): SeriesFiles {
+export function chosenFiles(list: readonly InputFile[]): MeteredFiles {
   const byPath = new Map(list.map((f) => [normalisePath(f.path), f]));
   const get = (path: string, from?: string): InputFile => {
     const want = normalisePath(path);
@@ -42,7 +49,11 @@ export function chosenFiles(list: readonly InputFile[]): SeriesFiles {
     if (!f) throw new Error(`${from ? `${from}: ` : ''}"${path}" is missing: choose it together with the series (or open the folder)`);
     return f;
   };
+  const meter = { bytes: 0 };
+  const opened = (src: ByteSource): ByteSource => { meter.bytes += src.size; return src; };
   return {
+    meter,
+    counting: () => chosenFiles(list),
     async text(path) {
       const f = get(path);
       return f.data instanceof Uint8Array ? new TextDecoder().decode(f.data) : f.data.text();
@@ -50,9 +61,9 @@ export function chosenFiles(list: readonly InputFile[]): SeriesFiles {
     async load(path, opts) {
       const f = get(path);
       const folder = path.includes('/') ? path.slice(0, path.lastIndexOf('/') + 1) : '';
-      return readDatasetFrom(sourceOf(f.data, baseName(path)), {
+      return readDatasetFrom(opened(sourceOf(f.data, baseName(path))), {
         ...opts,
-        resolveSource: async (rel) => { const p = get(folder + rel, baseName(path)); return sourceOf(p.data, baseName(rel)); },
+        resolveSource: async (rel) => { const p = get(folder + rel, baseName(path)); return opened(sourceOf(p.data, baseName(rel))); },
       });
     },
     async fieldData(path) {
@@ -85,15 +96,20 @@ export function describeSeries(index: SeriesIndex): SeriesDescription {
 /** An open series in the worker: its index, file access and the geometry of the step shown last. */
 export class OpenSeries {
   private geometry: Dataset | null = null;
-  constructor(readonly index: SeriesIndex, readonly files: SeriesFiles) {}
+  constructor(readonly index: SeriesIndex, readonly files: SeriesFiles | MeteredFiles) {}
 
-  /** Reads step `i`, reusing the last shown step's mesh when the bytes match. */
-  async step(i: number, signal?: AbortSignal): Promise<{ dataset: Dataset; reused: boolean; time: number }> {
+  /**
+   * Reads step `i`, reusing the last shown step's mesh when the bytes match (the reader takes its geometry
+   * arrays where the raw bytes are equal). `fileBytes`: bytes of the files the step opened (0 when the file
+   * access does not count them).
+   */
+  async step(i: number, signal?: AbortSignal): Promise<{ dataset: Dataset; reused: boolean; time: number; fileBytes: number }> {
     if (!Number.isInteger(i) || i < 0 || i >= this.index.steps.length) throw new Error(`step ${i}: expected a whole number from 0 to ${this.index.steps.length - 1}`);
-    const read = await loadStep(this.index, i, this.files, signal ? { signal } : {});
+    const files: SeriesFiles & { meter?: { bytes: number } } = 'counting' in this.files ? this.files.counting() : this.files;
+    const read = await loadStep(this.index, i, files, { ...(signal ? { signal } : {}), ...(this.geometry ? { geometryBefore: this.geometry } : {}) });
     const { dataset, reused } = reuseMesh(this.geometry, read);
     this.geometry = reused ? this.geometry : geometryOnly(dataset);
-    return { dataset, reused, time: this.index.steps[i]!.time };
+    return { dataset, reused, time: this.index.steps[i]!.time, fileBytes: files.meter?.bytes ?? 0 };
   }
 
   /** The probe set over the steps of the window (see `evaluateSeries`). */

@@ -2,6 +2,7 @@
  * What every reader takes besides the bytes: progress reporting, cancellation, a way to fetch the other
  * files of a multi-file set (pieces of a `.pvtu`, blocks of a `.vtm`), and an optional faster inflater.
  */
+import type { Dataset } from '../model/dataset.ts';
 import type { ByteSource } from './byteSource.ts';
 
 /** One progress report: the current stage and how many bytes of the input it has consumed. */
@@ -62,6 +63,14 @@ export interface LoadOptions {
   memoryLimit?: number;
   /** How to lift `memoryLimit`, quoted in its message (e.g. the command-line flag). */
   memoryHint?: string;
+  /**
+   * A dataset read before (the previous step of a series). XML files only: a geometry array (points, cell
+   * types, offsets, connectivity) stored as raw appended bytes equal to the same piece's array of this
+   * dataset is taken from it instead of decoded again (`sameBlock.ts`), and not checked again when the whole
+   * geometry is (give only a dataset that was read or built through the usual checks); anything else is read
+   * as usual.
+   */
+  geometryBefore?: Dataset;
 }
 
 /** Throws an AbortError if the signal is aborted. */

@@ -69,7 +69,8 @@ export async function readVtkXmlInput(name: string, input: XmlInput, opts: LoadO
   const fileCellTypes: Record<number, number> = {};
   const pieceEls = childrenNamed(dataEl, 'Piece');
   for (let k = 0; k < pieceEls.length; k++) {
-    const r = await readXmlPiece(ctx, pieceEls[k]!, kind, k);
+    const before = opts.geometryBefore?.kind === kind ? opts.geometryBefore.pieces[k] : undefined;
+    const r = await readXmlPiece(ctx, pieceEls[k]!, kind, k, before);
     pieces.push(r.piece);
     for (const [t, n] of Object.entries(r.fileCellTypes)) fileCellTypes[Number(t)] = (fileCellTypes[Number(t)] ?? 0) + n;
     warnings.push(...(pieceEls.length > 1 ? r.warnings : r.warnings.map((w) => w.replace(/^piece 0: /, ''))));

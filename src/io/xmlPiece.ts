@@ -5,13 +5,17 @@
  * polyhedron faces in either VTK layout), `<PointData>`, `<CellData>`. Polygonal data: `<Verts>`,
  * `<Lines>`, `<Strips>`, `<Polys>` (each `connectivity` + `offsets`), stored as typed cells in VTK's
  * order (verts, lines, polys, strips), which is also the order of its cell data.
+ *
+ * Given the same piece of a dataset read before (`LoadOptions.geometryBefore`), points and unstructured
+ * cell arrays whose raw bytes equal that piece's are taken from it, not decoded again (`sameBlock.ts`).
  */
 import type { Piece, PolyFaces } from '../model/piece.ts';
-import { validatePiece } from '../model/validate.ts';
+import { validateFields, validatePiece } from '../model/validate.ts';
 import { linearizeCells, polyDataCells, type PolySection } from './cellAssembly.ts';
 import { arrayLabel, componentsOf, intAttr, readDataArray, readIdDataArray, type XmlFileContext } from './xmlArrays.ts';
 import { readSectionFields } from './xmlFields.ts';
 import { facesFromStream, facesFromTables } from './xmlPolyhedra.ts';
+import { appendedMatches } from './sameBlock.ts';
 import { child, type XmlElement } from './xmlScan.ts';
 
 /** A piece with what the file declared about its cells. */
@@ -61,7 +65,7 @@ async function readStartOffsets(ctx: XmlFileContext, sec: XmlElement, where: str
   return out;
 }
 
-async function readPoints(ctx: XmlFileContext, pieceEl: XmlElement, nPts: number, where: string): Promise<Float64Array> {
+async function readPoints(ctx: XmlFileContext, pieceEl: XmlElement, nPts: number, where: string, before?: Piece): Promise<Float64Array> {
   const sec = child(pieceEl, 'Points');
   const da = sec && child(sec, 'DataArray');
   if (!da) {
@@ -71,6 +75,7 @@ async function readPoints(ctx: XmlFileContext, pieceEl: XmlElement, nPts: number
   const label = `${where}: ${arrayLabel(da, 'Points')}`;
   const nc = componentsOf(da, label);
   if (nc !== 3) throw new Error(`${label}: points have ${nc} components, expected 3`);
+  if (before && before.points.length === nPts * 3 && await appendedMatches(ctx, da, before.points)) return before.points;
   return (await readDataArray(ctx, da, label, nPts * 3, true)).values as Float64Array;
 }
 
@@ -100,11 +105,31 @@ async function readPolyFaces(ctx: XmlFileContext, cells: XmlElement, types: Arra
   throw new Error(`${where}: the piece has polyhedron cells (type 42) but <Cells> holds no "faces"/"faceoffsets" or "polyhedron_offsets" arrays`);
 }
 
-async function readUnstructuredCells(ctx: XmlFileContext, pieceEl: XmlElement, nCells: number, where: string) {
+/**
+ * The cell arrays of `before` when the file's types, offsets and connectivity hold exactly their bytes (cells
+ * that were linear in the file, so nothing was converted), else undefined.
+ */
+async function sameCells(ctx: XmlFileContext, cells: XmlElement, nCells: number, before: Piece | undefined) {
+  if (!before || before.polyFaces || before.cellTypes.length !== nCells) return undefined;
+  const types = namedArray(cells, ['types']), offsets = namedArray(cells, ['offsets']), conn = namedArray(cells, ['connectivity']);
+  if (!types || !offsets || !conn) return undefined;
+  const same = await appendedMatches(ctx, types, before.cellTypes) && await appendedMatches(ctx, offsets, before.offsets, 1)
+    && await appendedMatches(ctx, conn, before.connectivity);
+  return same ? before : undefined;
+}
+
+async function readUnstructuredCells(ctx: XmlFileContext, pieceEl: XmlElement, nCells: number, where: string, before?: Piece) {
   const cells = child(pieceEl, 'Cells');
   if (!cells) {
     if (nCells === 0) return { lin: linearizeCells(new Uint8Array(0), new Int32Array(1), new Int32Array(0), where), polyFaces: undefined };
     throw new Error(`${where}: NumberOfCells="${nCells}" but the piece has no <Cells> section`);
+  }
+  const same = await sameCells(ctx, cells, nCells, before);
+  if (same) {
+    const count = new Int32Array(256), fileCellTypes: Record<number, number> = {};
+    for (let c = 0; c < same.cellTypes.length; c++) count[same.cellTypes[c]!]!++;
+    for (let t = 0; t < 256; t++) if (count[t]) fileCellTypes[t] = count[t]!;
+    return { lin: { cellTypes: same.cellTypes, offsets: same.offsets, connectivity: same.connectivity, fileCellTypes, warnings: [] as string[] }, polyFaces: undefined };
   }
   const typesEl = namedArray(cells, ['types']);
   if (!typesEl) throw new Error(`${where}: <Cells> has no DataArray named "types"`);
@@ -139,14 +164,14 @@ async function readPolyDataCells(ctx: XmlFileContext, pieceEl: XmlElement, where
  * Reads piece number `index` (`pieceEl`) of an UnstructuredGrid (`kind` 'unstructured') or PolyData
  * ('polydata') file and validates it. Messages start with `file: piece k`.
  */
-export async function readXmlPiece(ctx: XmlFileContext, pieceEl: XmlElement, kind: 'unstructured' | 'polydata', index: number): Promise<PieceResult> {
+export async function readXmlPiece(ctx: XmlFileContext, pieceEl: XmlElement, kind: 'unstructured' | 'polydata', index: number, before?: Piece): Promise<PieceResult> {
   const where = `${ctx.name}: piece ${index}`;
   const nPts = countAttr(pieceEl, 'NumberOfPoints', where, true);
-  const points = await readPoints(ctx, pieceEl, nPts, where);
+  const points = await readPoints(ctx, pieceEl, nPts, where, before);
   let lin, polyFaces: PolyFaces | undefined;
   if (kind === 'unstructured') {
     const nCells = countAttr(pieceEl, 'NumberOfCells', where, true);
-    ({ lin, polyFaces } = await readUnstructuredCells(ctx, pieceEl, nCells, where));
+    ({ lin, polyFaces } = await readUnstructuredCells(ctx, pieceEl, nCells, where, before));
   } else {
     lin = await readPolyDataCells(ctx, pieceEl, where);
   }
@@ -158,6 +183,8 @@ export async function readXmlPiece(ctx: XmlFileContext, pieceEl: XmlElement, kin
     ...(polyFaces ? { polyFaces } : {}),
     pointData, cellData,
   };
-  validatePiece(piece, where);
+  // geometry that is wholly the piece read before was checked then: only the fields are new
+  const checked = before && !polyFaces && points === before.points && lin.connectivity === before.connectivity && lin.offsets === before.offsets && lin.cellTypes === before.cellTypes;
+  if (checked) validateFields(piece, where); else validatePiece(piece, where);
   return { piece, fileCellTypes: lin.fileCellTypes, warnings: lin.warnings.map((w) => `piece ${index}: ${w}`) };
 }

@@ -65,6 +65,16 @@ export function validatePiece(p: Piece, where: string): void {
   } else if (types.indexOf(42) >= 0) {
     throw new Error(`${where}: cell ${types.indexOf(42)} is a polyhedron but the piece has no face stream`);
   }
+  validateFields(p, where);
+}
+
+/**
+ * The field checks of `validatePiece` alone (tuple counts against the piece's points and cells, finite
+ * floats), for a piece whose geometry arrays are those of a piece checked before (a series step read with
+ * the previous step's geometry).
+ */
+export function validateFields(p: Piece, where: string): void {
+  const nPts = p.points.length / 3, nCells = p.cellTypes.length;
   for (const f of [...p.pointData, ...p.cellData]) {
     const want = f.association === 'point' ? nPts : nCells;
     if (f.components < 1 || tupleCount(f) !== want || !Number.isInteger(tupleCount(f))) {

@@ -1,7 +1,9 @@
 /**
- * Evaluates a probe set at every step of a series, streaming: one step is read, its mesh matched against
- * the step before (`reuseMesh`: identical geometry bytes share the previous step's arrays, so the cell
- * tree and boundary faces cached by mesh are reused), every probe evaluated (`evaluateProbeSet`, the path
+ * Evaluates a probe set at every step of a series, streaming: one step is read — an XML step's geometry
+ * arrays whose file bytes equal the previous step's are not decoded again (`LoadOptions.geometryBefore`) —
+ * its mesh matched against the step before (`reuseMesh`: identical geometry bytes share the previous
+ * step's arrays, so the cell tree, boundary faces, wall-gradient plans and cut geometry cached by mesh
+ * are reused), every probe evaluated (`evaluateProbeSet`, the path
  * of `report`), its numbers kept and the step dropped. At most the current step's decoded arrays, the one
  * being read and the shared geometry are resident — never the whole series.
  */
@@ -45,7 +47,9 @@ export async function* streamSeries(index: SeriesIndex, files: SeriesFiles, o: S
   for (const i of stepsInWindow(index, o.from, o.to)) {
     if (o.signal?.aborted) throw abortError(index.name);
     // the freshly read step goes out of scope here, so its duplicate geometry is not held while the step is evaluated
-    const { dataset, reused } = reuseMesh(geometry, await loadStep(index, i, files, { ...o.load, ...(o.signal ? { signal: o.signal } : {}) }));
+    // the reader takes the previous step's geometry arrays where the file holds the same bytes (XML raw appended data)
+    const opts = { ...o.load, ...(o.signal ? { signal: o.signal } : {}), ...(geometry ? { geometryBefore: geometry } : {}) };
+    const { dataset, reused } = reuseMesh(geometry, await loadStep(index, i, files, opts));
     // keep only the geometry of this step for the next comparison: its fields may go once it is evaluated
     geometry = reused ? geometry : geometryOnly(dataset);
     yield { step: i, time: index.steps[i]!.time, dataset, meshReused: reused };

@@ -1,7 +1,8 @@
 /**
  * The plane-based probes of a probe set: a cut-plane's integrals, the pressure loss between two planes,
  * and a mass balance over planes and boundary surfaces. Each calls the same compute path as the `cut`,
- * `loss` and `balance` verbs (`integratePlane`, `pressureLoss`, `massBalance`), on the SI dataset.
+ * `loss` and `balance` verbs (`integratePlane`, `pressureLoss`, `massBalance`), on the SI dataset; a plane
+ * asked again on the same mesh (the steps of a series) reuses its cut geometry (`cutCache.ts`).
  *
  * Field roles: a named field, or null for none; left out, the velocity and pressure go by the rule of
  * src/cut/fieldRoles.ts (the velocity must then be found, else the probe fails asking for it), and the
@@ -13,7 +14,8 @@ import { allFieldRefs } from '../cut/cutFields.ts';
 import { boundaryTriangleSet } from '../cut/faceSet.ts';
 import { guessRole } from '../cut/fieldRoles.ts';
 import { integrateSurface, type IntegralOptions, type SurfaceIntegrals } from '../cut/integrals.ts';
-import { integratePlane, type PlaneResult } from '../cut/planeIntegrals.ts';
+import { integratePlaneReusingCut } from '../cut/cutCache.ts';
+import type { PlaneResult } from '../cut/planeIntegrals.ts';
 import type { RegionSpec } from '../cut/region.ts';
 import type { TriangleSet } from '../cut/triangleSet.ts';
 import { findField } from '../model/piece.ts';
@@ -52,7 +54,7 @@ function query(ctx: EvalContext, p: PlaneDoc): { origin: [number, number, number
 /** Cuts and integrates one plane; an empty cut or region (or a seed off the cut) is an error. */
 function planeIntegrals(ctx: EvalContext, p: PlaneDoc, integral: Partial<IntegralOptions>, what: string): PlaneResult {
   const q = query(ctx, p);
-  const r = integratePlane(ctx.dataset, { ...q, integral });
+  const r = integratePlaneReusingCut(ctx.dataset, { ...q, integral });
   if (r.integrals.empty) throw new Error(`${what}: ${r.integrals.reason ?? 'empty cut'}`);
   if (q.region.some((x) => x.kind === 'seed') && r.region.reason) throw new Error(`${what}: ${r.region.reason}`);
   return r;
@@ -159,7 +161,7 @@ export function evaluateBalance(ctx: EvalContext, p: MassBalanceProbe, out: Prob
   g.planes.forEach((pl, i) => {
     const label = `plane ${i + 1} ${planeText(pl)}`;
     const q = query(ctx, pl);
-    const r = integratePlane(ctx.dataset, { ...q, integral });
+    const r = integratePlaneReusingCut(ctx.dataset, { ...q, integral });
     if (r.integrals.empty) r.integrals.reason ??= 'empty cut';
     items.push({ label, integrals: r.integrals });
     shapes.push(r.region.set);

@@ -23,7 +23,8 @@ import type { FieldArray } from '../model/fieldArray.ts';
 import type { BoundaryFaces } from './boundaryFaces.ts';
 import { vertexAverage } from './faceGeometry.ts';
 import { cellVelocityGradient } from './wallGradient.ts';
-import { cornerGradients, cornerTraction } from './wallTraction.ts';
+import { wallCornerGradients } from './wallGradientCache.ts';
+import { cornerTraction } from './wallTraction.ts';
 
 /** Options of `surfaceLoads` (and of force totals). */
 export interface LoadOptions {
@@ -193,7 +194,8 @@ function gather(d: Dataset, faces: BoundaryFaces, selection: Int32Array, offsets
 function secondOrderTraction(d: Dataset, faces: BoundaryFaces, selection: Int32Array, offsets: Int32Array, vel: FieldArray[],
   mu: number | string): Float64Array {
   if (typeof mu === 'number' && !(mu >= 0)) throw new Error(`viscosity μ must be ≥ 0, got ${mu}`);
-  const G = cornerGradients(d, faces, selection, offsets, vel);
+  // the fit at each wall node is geometry: planned once per mesh and face selection (wallGradientCache.ts)
+  const G = wallCornerGradients(d, faces, selection, offsets, vel);
   if (typeof mu === 'number') return cornerTraction(faces, selection, offsets, G, () => mu);
   const arrays = d.pieces.map((p) => p.pointData.find((f) => f.name === mu && f.components === 1) ?? p.cellData.find((f) => f.name === mu && f.components === 1));
   return cornerTraction(faces, selection, offsets, G, (s, j) => {

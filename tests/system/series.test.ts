@@ -14,7 +14,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { writeVtu } from '../../src/io/writeVtu.ts';
 import { nodeSeriesFiles, openSeriesInput } from '../../src/cli/seriesInputs.ts';
 import { evaluateSeries } from '../../src/series/evaluateSeries.ts';
-import { readFileSync } from 'node:fs';
+import { readFileSync, statSync } from 'node:fs';
 import { readProbeSet } from '../../src/study/probeSetFile.ts';
 import { vortexMesh, vortexStep, VORTEX_DEFAULTS } from '../../src/samples/taylorGreen.ts';
 import { windowStatistics } from '../../src/stats/windowStats.ts';
@@ -77,6 +77,9 @@ describe('series in the app', () => {
     await page.locator('.time-bar .step-forward').click();
     await waitStep(1);
     expect(await page.locator('#file-summary').innerText()).toMatch(/^cells-1\.vtu/);
+    // the step's own file size, not "0 B read"
+    const kB = (statSync(join(SERIES, 'cells-1.vtu')).size / 1000).toPrecision(3);
+    expect(await page.locator('#file-summary').innerText()).toContain(` — ${kB} kB read in `);
     await page.locator('.time-bar .jump-time').fill('0.52');
     await page.locator('.time-bar .jump-time').press('Enter');
     await waitStep(4);

@@ -45,8 +45,11 @@ describe('series calls of the compute worker', () => {
     expect(s2.time).toBe(0.15);
     expect(s2.meshReused).toBe(false);
     expect(s2.report.cells).toBe(256);
+    // the step summary's bytes read are the step file's size (not 0)
+    expect(s2.fileBytes).toBe(readFileSync(join(PVD_DIR, 'cells-2.vtu')).length);
     const s3 = await api.showStep(3);
     expect(s3.meshReused).toBe(true);
+    expect(s3.fileBytes).toBe(readFileSync(join(PVD_DIR, 'cells-3.vtu')).length);
     expect(s3.groups.map((g) => g.name)).toEqual(s2.groups.map((g) => g.name));
     await expect(api.showStep(8)).rejects.toThrow('step 8: expected a whole number from 0 to 7');
 

@@ -1,0 +1,57 @@
+/**
+ * The point stencil of `stencils.ts` (nodes sharing a cell with a node) for a few nodes only: the rows of
+ * the chosen nodes and of their neighbours — every row a one-ring or two-ring fit at the chosen nodes
+ * reads — each holding exactly what `pointStencil` gives for it, in the same order; every other row is
+ * empty. For the wall nodes of a large mesh this costs two passes over the connectivity instead of the
+ * whole mesh's neighbour lists.
+ *
+ * Indices are local to one piece; the result is a `Stencil` over all the piece's points.
+ */
+import type { Piece } from '../model/piece.ts';
+import type { Stencil } from './stencils.ts';
+
+interface Incidence { cs: Int32Array; cells: Int32Array; stamp: Int32Array }
+
+/**
+ * Walks the row of node i (the nodes of its cells, cells ascending, nodes in connectivity order, i and
+ * repeats left out): marks them in `want` when given, writes them to `out` from `at` when given; returns
+ * the row's length. `stamp` must not hold i from an earlier walk.
+ */
+function walkRow(p: Piece, inc: Incidence, i: number, want: Uint8Array | null, out: Int32Array | null, at: number): number {
+  const { cs, cells, stamp } = inc, conn = p.connectivity, off = p.offsets;
+  let n = 0;
+  stamp[i] = i;
+  for (let a = cs[i]!; a < cs[i + 1]!; a++) {
+    const c = cells[a]!;
+    for (let b = off[c]!; b < off[c + 1]!; b++) {
+      const q = conn[b]!;
+      if (stamp[q] === i) continue;
+      stamp[q] = i;
+      if (want) want[q] = 1;
+      if (out) out[at + n] = q;
+      n++;
+    }
+  }
+  return n;
+}
+
+/** Rows of `pointStencil(p)` for `nodes` and their neighbours (see the file comment). */
+export function pointStencilAround(p: Piece, nodes: Int32Array): Stencil {
+  const np = p.points.length / 3, conn = p.connectivity, off = p.offsets, nc = p.cellTypes.length;
+  // point → cells, cells ascending (as stencils.ts)
+  const cs = new Int32Array(np + 1);
+  for (let k = 0; k < conn.length; k++) cs[conn[k]! + 1]!++;
+  for (let i = 0; i < np; i++) cs[i + 1]! += cs[i]!;
+  const fill = cs.slice(0, np), cells = new Int32Array(conn.length);
+  for (let c = 0; c < nc; c++) for (let k = off[c]!; k < off[c + 1]!; k++) cells[fill[conn[k]!]!++] = c;
+  const inc: Incidence = { cs, cells, stamp: new Int32Array(np).fill(-1) };
+  const want = new Uint8Array(np);
+  for (let k = 0; k < nodes.length; k++) { want[nodes[k]!] = 1; walkRow(p, inc, nodes[k]!, want, null, 0); }
+  inc.stamp.fill(-1);
+  const offsets = new Int32Array(np + 1);
+  for (let i = 0; i < np; i++) offsets[i + 1] = offsets[i]! + (want[i] ? walkRow(p, inc, i, null, null, 0) : 0);
+  const ids = new Int32Array(offsets[np]!);
+  inc.stamp.fill(-1);
+  for (let i = 0; i < np; i++) if (want[i]) walkRow(p, inc, i, null, ids, offsets[i]!);
+  return { offsets, ids };
+}
