@@ -6,9 +6,10 @@
  *    `newStepSameMesh` (a new velocity array on the same geometry arrays — a series step: the rows are reused).
  *  - wall quantities on a ~100k-face wall (a 224 × 224 × 1 slab of hexahedra, the bottom face's 50,176 faces
  *    plus the top's: both 0.01-thick slab faces as one group) with the second-order wall gradient. Goal 0.2 s.
- *    Figures: `cold` (first request on the mesh: rows built, direct fit), `secondRequest` (the same wall asked
- *    again: direct fit), `thirdRequest` (the fit's neighbour weights are prepared), `newStepSameMesh` (best of
- *    three new velocity arrays on the same geometry: the prepared weights are applied).
+ *    Figures: `cold` (first request on the mesh: rows built, direct fit), `secondRequest` and
+ *    `thirdRequest` (the same wall asked again), `newStepSameMesh` (best of three new velocity arrays on the
+ *    same geometry). Later requests reuse the wall's fit as an operator (src/surface/wallGradientCache.ts)
+ *    when its plan fits the size limit there; otherwise they fit afresh.
  * Every figure is wall time and CPU time (process.cpuUsage) of one thread; the machine is shared, so CPU time
  * is the steadier figure. Mesh and field building are not timed.
  */

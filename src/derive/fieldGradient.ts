@@ -5,14 +5,12 @@
  * Pieces of a set are reconstructed one by one (a node on a piece's interface gets a one-sided fit, still
  * second order).
  *
- * Caches: the sites (positions and stencil) and the prepared wall-node weights depend on the geometry only
- * and are kept per mesh — keyed by the piece's points, offsets and connectivity arrays, so the steps of a
+ * Caches: the sites (positions and stencil) depend on the geometry only and are kept per mesh — keyed by the piece's points, offsets and connectivity arrays, so the steps of a
  * series that share those arrays (src/series/meshReuse.ts) share them; a gradient is kept per values array
  * (WeakMap), so vorticity, Q and λ₂ share one reconstruction.
  */
 import type { FieldArray } from '../model/fieldArray.ts';
 import type { Piece } from '../model/piece.ts';
-import { applyGradient, prepareGradient, type PreparedGradient } from './preparedGradient.ts';
 import { gradientInto, quadraticGradient } from './quadraticGradient.ts';
 import { cellCentres, cellStencil, pointStencil, type Stencil } from './stencils.ts';
 
@@ -24,22 +22,11 @@ interface GeometryEntry {
   offsets: Int32Array;
   point?: Sites;
   cell?: Sites;
-  /** The last prepared node set (e.g. a wall's nodes), kept for the next field on the same mesh. */
-  prepared?: PreparedGradient;
-  /** The last node list fitted directly, each node's neighbour count, and how many requests in a row asked for it. */
-  seen?: { nodes: Int32Array; ringSizes: Int32Array; requests: number };
 }
 
 /** Entries by connectivity array (several when meshes share it but differ in points or offsets). */
 const byConnectivity = new WeakMap<Int32Array, GeometryEntry[]>();
 const gradients = new WeakMap<object, Float64Array>();
-/**
- * The request for the same wall nodes at which their weights are prepared: preparing costs about two direct
- * fits (the weights are fresh memory), so a single report asking for a wall twice (force, then wall
- * quantities) stays direct, and a series pays it back from its fourth step on.
- */
-export const PREPARE_AFTER = 3;
-
 function geometryOf(p: Piece): GeometryEntry {
   let list = byConnectivity.get(p.connectivity);
   if (!list) { list = []; byConnectivity.set(p.connectivity, list); }
@@ -71,27 +58,12 @@ export function fieldGradient(p: Piece, f: FieldArray): Float64Array {
 }
 
 /**
- * Gradient of a point field at chosen nodes only (`nodes` local to `p`), same layout per node. Requests for a
- * node list on a mesh fit directly and remember the list; the PREPARE_AFTER-th request in a row for the same
- * list prepares the fit's weights (preparedGradient.ts) and keeps them for every later field, until another
- * list is asked for. Past the memory budget the fit always runs directly.
+ * Gradient of a point field at chosen nodes only (`nodes` local to `p`), same layout per node: the direct fit
+ * over the mesh's cached stencil. A wall fitted at every step of a series keeps its fit as a linear operator
+ * instead (src/surface/wallGradientCache.ts).
  */
 export function pointGradientAt(p: Piece, f: FieldArray, nodes: Int32Array): Float64Array {
-  const s = sitesOf(p, 'point'), e = geometryOf(p);
-  if (e.prepared && sameIds(e.prepared.targets, nodes)) return applyGradient(e.prepared, f.values, f.components);
-  const seen = e.seen && sameIds(e.seen.nodes, nodes) ? e.seen : undefined;
-  if (seen && seen.requests + 1 >= PREPARE_AFTER) {
-    const prepared = prepareGradient(s.positions, s.stencil, nodes, seen.ringSizes);
-    if (prepared) { e.prepared = prepared; e.seen = undefined; return applyGradient(prepared, f.values, f.components); }
-  }
-  const ringSizes = new Int32Array(nodes.length), out = new Float64Array(3 * f.components * nodes.length);
-  gradientInto(out, 0, s.positions, f.values, f.components, s.stencil, nodes, 0, nodes.length, ringSizes);
-  e.seen = { nodes: seen ? seen.nodes : nodes.slice(), ringSizes, requests: (seen ? seen.requests : 0) + 1 };
+  const s = sitesOf(p, 'point'), out = new Float64Array(3 * f.components * nodes.length);
+  gradientInto(out, 0, s.positions, f.values, f.components, s.stencil, nodes, 0, nodes.length);
   return out;
-}
-
-function sameIds(a: Int32Array, b: Int32Array): boolean {
-  if (a.length !== b.length) return false;
-  for (let i = 0; i < a.length; i++) if (a[i] !== b[i]) return false;
-  return true;
 }
