@@ -129,7 +129,8 @@ describe('loading a large file', () => {
     expect(await drawnPixels()).toBe(before);
     await page.locator('.banner-close').click();
     // the worker still holds the pipe: colouring by another field works and gives the pipe's legend
-    await page.locator('.lil-controller', { has: page.locator('.lil-name', { hasText: /^field$/ }) }).locator('select').selectOption({ label: 'velocity (points)' });
+    const colourFolder = page.locator('.lil-gui', { has: page.locator(':scope > .lil-title', { hasText: 'Colour' }) });
+    await colourFolder.locator('.lil-controller', { has: page.locator('.lil-name', { hasText: /^field$/ }) }).first().locator('select').selectOption({ label: 'velocity (points)' });
     await waitIdle(page);
     expect(await page.locator('.legend-title').innerText()).toBe('velocity (magnitude) [m/s]');
     expect(await page.locator('.banner[data-kind=error]').count()).toBe(0);
