@@ -6,10 +6,9 @@
  *     ∇f(x_i) ≈ Σ_j c_ij (f_j − f_i),   c_ij = (1/h) · rows 0..2 of P · (w_j a_j),
  *
  * with a_j the nine scaled monomials of the offset d_j/h, w_j = 1/|d_j/h|² and P the (pivot-dropping)
- * inverse of the normal-equation matrix — all geometry. So the choice of stencil (one-ring, or the
- * two-ring when the one-ring is one-sided or ill-conditioned), the scaling, the dropped unknowns and the
- * Cholesky factor are decided once, here, by the same rules and tolerances as the kernel, and each later
- * gradient costs three multiply-adds per neighbour and component. Results equal the kernel's to rounding
+ * inverse of the normal-equation matrix — all geometry. The kernel itself chooses each site's neighbours,
+ * scale and dropped unknowns (`fitSite`) and turns its factor into these weights (`siteWeights`), once,
+ * here; each later gradient costs three multiply-adds per neighbour and component. Results equal the kernel's to rounding
  * (tests/derive/gradientOperator.test.ts); the method is Barth & Frederickson (1990), see that file.
  *
  * Layout: target k's neighbours are `ids[offsets[k] .. offsets[k+1]-1]` (site indices), their coefficients
@@ -17,14 +16,8 @@
  * offsets[k+1]` and `empty[k] = 1`, and gets NaN, as from the kernel.
  */
 import type { NumericArray } from '../model/fieldArray.ts';
+import { beginSites, fitSite, lastSite, siteWeights } from './quadraticGradient.ts';
 import type { Stencil } from './stencils.ts';
-
-/** Relative pivot below which an unknown is dropped (as `quadraticGradient.ts`). */
-const PIVOT_TOLERANCE = 1e-9;
-/** Relative pivot below which the one-ring is refitted over the two-ring (as `quadraticGradient.ts`). */
-const WIDEN_TOLERANCE = 1e-3;
-/** One-ring offset ratio above which the ring counts as one-sided (as `quadraticGradient.ts`). */
-const ONE_SIDED = 0.2;
 
 /** A gradient operator at chosen sites (see the file comment). */
 export interface GradientOperator {
@@ -40,138 +33,26 @@ export interface GradientOperator {
   readonly bytes: number;
 }
 
-const M = new Float64Array(81);
-const L = new Float64Array(81);
-const diag0 = new Float64Array(9);
-const dropped = new Uint8Array(9);
-const Z = new Float64Array(27);
-const A = new Float64Array(9);
-
-/** Fit scale of site i over `list[lo..hi-1]`: 1/h, and the one-sidedness ratio; null without neighbours. */
-function scaleOf(positions: Float64Array, i: number, list: Int32Array, lo: number, hi: number): { ih: number; skew: number } | null {
-  const x0 = positions[3 * i]!, y0 = positions[3 * i + 1]!, z0 = positions[3 * i + 2]!;
-  let h2 = 0, used = 0, mx = 0, my = 0, mz = 0;
-  for (let s = lo; s < hi; s++) {
-    const q = 3 * list[s]!, dx = positions[q]! - x0, dy = positions[q + 1]! - y0, dz = positions[q + 2]! - z0;
-    const r2 = dx * dx + dy * dy + dz * dz;
-    if (r2 > 0) { h2 += r2; used++; mx += dx; my += dy; mz += dz; }
-  }
-  if (used === 0) return null;
-  const ih = 1 / Math.sqrt(h2 / used);
-  return { ih, skew: Math.hypot(mx, my, mz) / used * ih };
-}
-
-/** Scaled monomials of neighbour q of site i into A; returns the weight w (0 when q sits on i). */
-function monomials(positions: Float64Array, i: number, q: number, ih: number): number {
-  const dx = (positions[3 * q]! - positions[3 * i]!) * ih, dy = (positions[3 * q + 1]! - positions[3 * i + 1]!) * ih;
-  const dz = (positions[3 * q + 2]! - positions[3 * i + 2]!) * ih;
-  const r2 = dx * dx + dy * dy + dz * dz;
-  if (!(r2 > 0)) return 0;
-  A[0] = dx; A[1] = dy; A[2] = dz; A[3] = 0.5 * dx * dx; A[4] = 0.5 * dy * dy; A[5] = 0.5 * dz * dz; A[6] = dx * dy; A[7] = dx * dz; A[8] = dy * dz;
-  return 1 / r2;
-}
-
-/** Normal equations over `list[lo..hi-1]` into M (upper triangle), factored into L; returns the smallest relative pivot (0 if one was dropped). */
-function factor(positions: Float64Array, i: number, list: Int32Array, lo: number, hi: number, ih: number): number {
-  M.fill(0);
-  for (let s = lo; s < hi; s++) {
-    const w = monomials(positions, i, list[s]!, ih);
-    if (w === 0) continue;
-    for (let r = 0; r < 9; r++) { const wr = w * A[r]!; for (let c = r; c < 9; c++) M[9 * r + c]! += wr * A[c]!; }
-  }
-  for (let r = 0; r < 9; r++) diag0[r] = M[9 * r + r]!;
-  let worst = 1;
-  for (let j = 0; j < 9; j++) {
-    let s = M[9 * j + j]!;
-    for (let k = 0; k < j; k++) s -= L[9 * j + k]! * L[9 * j + k]!;
-    if (!(s > PIVOT_TOLERANCE * diag0[j]!) || !(diag0[j]! > 0)) {
-      dropped[j] = 1; L[9 * j + j] = 0; worst = 0;
-      for (let r = j + 1; r < 9; r++) L[9 * r + j] = 0;
-      continue;
-    }
-    dropped[j] = 0;
-    if (s < worst * diag0[j]!) worst = s / diag0[j]!;
-    const d = Math.sqrt(s);
-    L[9 * j + j] = d;
-    for (let r = j + 1; r < 9; r++) {
-      let t = M[9 * j + r]!;
-      for (let k = 0; k < j; k++) t -= L[9 * r + k]! * L[9 * j + k]!;
-      L[9 * r + j] = t / d;
-    }
-  }
-  return worst;
-}
-
-/** Rows 0..2 of the pivot-dropping inverse (P e_r, P symmetric) into Z[9r .. 9r+8]. */
-function gradientRows(): void {
-  for (let r = 0; r < 3; r++) {
-    const o = 9 * r;
-    for (let j = 0; j < 9; j++) {
-      if (dropped[j]) { Z[o + j] = 0; continue; }
-      let t = j === r ? 1 : 0;
-      for (let k = 0; k < j; k++) t -= L[9 * j + k]! * Z[o + k]!;
-      Z[o + j] = t / L[9 * j + j]!;
-    }
-    for (let j = 8; j >= 0; j--) {
-      if (dropped[j]) { Z[o + j] = 0; continue; }
-      let t = Z[o + j]!;
-      for (let k = j + 1; k < 9; k++) t -= L[9 * k + j]! * Z[o + k]!;
-      Z[o + j] = t / L[9 * j + j]!;
-    }
-  }
-}
-
 /**
  * Builds the operator at `targets` over `positions` (xyz per site, length unit) with `stencil` each site's
- * one-ring, by the kernel's rules (see the file comment).
+ * one-ring: the kernel's own fit of each target (see the file comment).
  */
 export function gradientOperator(positions: Float64Array, stencil: Stencil, targets: Int32Array): GradientOperator {
-  const so = stencil.offsets, sid = stencil.ids, nSites = positions.length / 3;
-  const stamp = new Int32Array(nSites).fill(-1);
-  let ring = new Int32Array(256);
   const offsets = new Int32Array(targets.length + 1), empty = new Uint8Array(targets.length);
   let ids = new Int32Array(Math.max(64, 32 * targets.length)), coef = new Float64Array(3 * ids.length);
   let e = 0;
+  beginSites(positions.length / 3);
   for (let k = 0; k < targets.length; k++) {
     const i = targets[k]!;
-    let list: Int32Array = sid, lo = so[i]!, hi = so[i + 1]!;
-    let sc = scaleOf(positions, i, list, lo, hi);
-    let ok = sc ? factor(positions, i, list, lo, hi, sc.ih) : -1;
-    if (ok < WIDEN_TOLERANCE || (sc !== null && sc.skew > ONE_SIDED)) {
-      // the two-ring, gathered in the kernel's order: each neighbour, then its own neighbours
-      let m = 0;
-      stamp[i] = k;
-      for (let s = so[i]!; s < so[i + 1]!; s++) {
-        const j = sid[s]!;
-        for (let t = so[j]! - 1; t < so[j + 1]!; t++) {
-          const q = t < so[j]! ? j : sid[t]!;
-          if (stamp[q] === k) continue;
-          stamp[q] = k;
-          if (m === ring.length) { const g = new Int32Array(2 * m); g.set(ring); ring = g; }
-          ring[m++] = q;
-        }
-      }
-      list = ring; lo = 0; hi = m;
-      sc = scaleOf(positions, i, list, lo, hi);
-      ok = sc ? factor(positions, i, list, lo, hi, sc.ih) : -1;
-    }
-    if (ok < 0 || !sc) { empty[k] = 1; offsets[k + 1] = e; continue; }
-    gradientRows();
-    if (e + hi - lo > ids.length) {
-      const n = Math.max(2 * ids.length, e + hi - lo), gi = new Int32Array(n), gc = new Float64Array(3 * n);
+    if (fitSite(positions, stencil, i, k) < 0) { empty[k] = 1; offsets[k + 1] = e; continue; }
+    const { list, lo, hi } = lastSite, n = hi - lo;
+    if (e + n > ids.length) {
+      const size = Math.max(2 * ids.length, e + n), gi = new Int32Array(size), gc = new Float64Array(3 * size);
       gi.set(ids.subarray(0, e)); gc.set(coef.subarray(0, 3 * e)); ids = gi; coef = gc;
     }
-    const ih = sc.ih;
-    for (let s = lo; s < hi; s++) {
-      const q = list[s]!, w = monomials(positions, i, q, ih);
-      if (w === 0) continue;
-      for (let r = 0; r < 3; r++) {
-        let t = 0;
-        for (let c = 0; c < 9; c++) t += Z[9 * r + c]! * A[c]!;
-        coef[3 * e + r] = w * t * ih;
-      }
-      ids[e++] = q;
-    }
+    siteWeights(positions, i, coef, 3 * e);
+    ids.set(list.subarray(lo, hi), e);
+    e += n;
     offsets[k + 1] = e;
   }
   const outIds = ids.slice(0, e), outCoef = coef.slice(0, 3 * e), outTargets = targets.slice();

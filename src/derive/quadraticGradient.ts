@@ -227,3 +227,29 @@ function solveSite(positions: Float64Array, values: NumericArray, nc: number, i:
     Y[o]! *= ih; Y[o + 1]! *= ih; Y[o + 2]! *= ih;
   }
 }
+
+/**
+ * After `fitSite(…, i, …)`: the gradient's weights of `lastSite`'s neighbours, so that for any field
+ * ∂f/∂x_k at site i = Σ_s c[3s + k]·(f(list[s]) − f(i)) (per length unit). Writes 3 values per neighbour
+ * to `c` from `at` on (`hi − lo` neighbours, in list order).
+ */
+export function siteWeights(positions: Float64Array, i: number, c: Float64Array, at: number): void {
+  const { list, lo, hi, ih } = lastSite;
+  // rows 0 … 2 of the (pivot-dropping) inverse: the solve applied to each unit right-hand side
+  for (let l = 0; l < 9; l++) { B.fill(0, 0, 9); B[l] = 1; gradientNine(Lp, inv, B, Y, 0); R[l] = Y[0]!; R[9 + l] = Y[1]!; R[18 + l] = Y[2]!; }
+  const x0 = positions[3 * i]!, y0 = positions[3 * i + 1]!, z0 = positions[3 * i + 2]!;
+  for (let s = lo, o = at; s < hi; s++, o += 3) {
+    const q = 3 * list[s]!;
+    const x = (positions[q]! - x0) * ih, y = (positions[q + 1]! - y0) * ih, z = (positions[q + 2]! - z0) * ih;
+    const r2 = x * x + y * y + z * z;
+    if (!(r2 > 0)) { c[o] = 0; c[o + 1] = 0; c[o + 2] = 0; continue; }
+    const w = 1 / r2;
+    const m0 = w * x, m1 = w * y, m2 = w * z, m3 = 0.5 * m0 * x, m4 = 0.5 * m1 * y, m5 = 0.5 * m2 * z, m6 = m0 * y, m7 = m0 * z, m8 = m1 * z;
+    for (let k = 0; k < 3; k++) {
+      const r = 9 * k;
+      c[o + k] = ih * (R[r]! * m0 + R[r + 1]! * m1 + R[r + 2]! * m2 + R[r + 3]! * m3 + R[r + 4]! * m4 + R[r + 5]! * m5
+        + R[r + 6]! * m6 + R[r + 7]! * m7 + R[r + 8]! * m8);
+    }
+  }
+}
+const R = new Float64Array(27);

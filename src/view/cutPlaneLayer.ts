@@ -7,6 +7,7 @@ import * as THREE from 'three';
 import type { DrawingValues, TriangleDrawing, Vec3 } from '../../workers/api.ts';
 import type { ColorMap } from './colorMaps.ts';
 import { FieldMaterial } from './fieldMaterial.ts';
+import { triangleGeometry } from './triangleGeometry.ts';
 import { keepScreenSize } from './screenSize.ts';
 
 
@@ -70,12 +71,7 @@ export class CutPlaneLayer {
   setTriangles(d: (TriangleDrawing & DrawingValues) | null, colored: boolean): void {
     if (this.mesh) { this.group.remove(this.mesh); this.mesh.geometry.dispose(); this.mesh = undefined; }
     if (!d || d.positions.length === 0) return;
-    const g = new THREE.BufferGeometry();
-    g.setAttribute('position', new THREE.BufferAttribute(d.positions, 3));
-    g.setAttribute('normal', new THREE.BufferAttribute(d.normals, 3));
-    g.setAttribute('aGroup', new THREE.BufferAttribute(d.groups, 1));
-    g.setAttribute('aValue', new THREE.BufferAttribute(d.values, 1));
-    g.computeBoundingSphere();
+    const g = triangleGeometry(d);
     this.material.setSolid(!colored);
     this.mesh = new THREE.Mesh(g, this.material);
     this.mesh.renderOrder = 1;

@@ -6,6 +6,7 @@ import * as THREE from 'three';
 import type { DrawingValues, TriangleDrawing } from '../../workers/api.ts';
 import type { ColorMap } from './colorMaps.ts';
 import { FieldMaterial } from './fieldMaterial.ts';
+import { triangleGeometry } from './triangleGeometry.ts';
 
 export class IsoSurfaceLayer {
   readonly group = new THREE.Group();
@@ -20,12 +21,7 @@ export class IsoSurfaceLayer {
   setTriangles(d: (TriangleDrawing & DrawingValues) | null, colored: boolean, range?: [number, number]): void {
     if (this.mesh) { this.group.remove(this.mesh); this.mesh.geometry.dispose(); this.mesh = undefined; }
     if (!d || d.positions.length === 0) return;
-    const g = new THREE.BufferGeometry();
-    g.setAttribute('position', new THREE.BufferAttribute(d.positions, 3));
-    g.setAttribute('normal', new THREE.BufferAttribute(d.normals, 3));
-    g.setAttribute('aGroup', new THREE.BufferAttribute(d.groups, 1));
-    g.setAttribute('aValue', new THREE.BufferAttribute(d.values, 1));
-    g.computeBoundingSphere();
+    const g = triangleGeometry(d);
     this.material.setSolid(!colored);
     const [lo, hi] = range && Number.isFinite(range[0]) && Number.isFinite(range[1]) ? range : [0, 1];
     this.material.setRange(lo, hi > lo ? hi : lo + 1);
