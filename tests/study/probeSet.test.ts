@@ -61,7 +61,7 @@ describe('probe set: save and load', () => {
     const set = { ...valid(), groupLabels: { 'zone 3': 'left outlet', wall: 'hull' } } as ProbeSet;
     const text = writeProbeSet(set);
     expect(Object.keys(JSON.parse(text)).slice(-2)).toEqual(['groupLabels', 'probes']);
-    expect(readProbeSet(text, 'labels.json').groupLabels).toEqual({ 'zone 3': 'left outlet', wall: 'hull' });
+    expect(readProbeSet(text, 'labels.json').set.groupLabels).toEqual({ 'zone 3': 'left outlet', wall: 'hull' });
     expect(() => readProbeSet(JSON.stringify({ ...set, groupLabels: { wall: '' } }), 'labels.json')).toThrow(/groupLabels\.wall/);
   });
 
