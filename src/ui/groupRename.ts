@@ -1,5 +1,5 @@
 /**
- * A small rename control for a row of the Surfaces list: a pencil button at the row's end; pressing it
+ * A small rename control for a row of the Surfaces list: a "rename" button at the row's end; pressing it
  * turns the row's name into a text field holding the current label. Enter or leaving the field keeps the
  * text, Escape keeps the old label. An empty text gives the group its file name back.
  */
@@ -12,7 +12,7 @@ export function addGroupRename(row: HTMLElement, current: string, commit: (label
   const button = document.createElement('button');
   button.type = 'button';
   button.className = 'group-rename';
-  button.textContent = '✎';
+  button.textContent = 'rename';
   button.title = 'rename this surface group (empty: its name in the file)';
   button.setAttribute('aria-label', `rename ${current}`);
   button.addEventListener('click', (ev) => {
