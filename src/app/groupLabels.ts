@@ -5,6 +5,7 @@
  * place that shows a group (the Surfaces list, the force, wall and split tools, pins, the results table,
  * CSV and report exports) shows `labelOf(name)`; the probe set keeps the map as `groupLabels`. Pure: no DOM.
  */
+import { relabelGroups } from '../study/groupLabelText.ts';
 import { LIMITS } from '../study/probeSetCheck.ts';
 
 export class GroupLabels {
@@ -52,6 +53,6 @@ export class GroupLabels {
    */
   relabel(text: string): string {
     if (this.labels.size === 0) return text;
-    return text.replace(/(\d+ )"([^"]*)"/g, (m, id: string, name: string) => { const l = this.labels.get(name); return l === undefined ? m : `${id}"${l}"`; });
+    return relabelGroups(text, (n) => this.labels.get(n));
   }
 }
