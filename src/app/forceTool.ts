@@ -59,6 +59,8 @@ export class ForceTool {
     v.onRename((id, label) => { if (id === this.id) this.label = label; });
     v.addPointerTool({ click: (_ev, ray) => this.click(ray) });
     refs.onChange(() => this.recompute());
+    // the group rows and the chosen list show the groups' labels
+    v.groupLabels.onChange(() => this.buildPanel());
     this.buildPanel();
   }
 
@@ -175,7 +177,7 @@ export class ForceTool {
   }
 
   private updateChosen(): void {
-    const names = (this.v.description?.groups ?? []).filter((g) => this.selected.has(g.id)).map((g) => g.name);
+    const names = (this.v.description?.groups ?? []).filter((g) => this.selected.has(g.id)).map((g) => this.v.groupLabel(g));
     this.chosenText.surfaces = names.length ? names.join(', ') : '(click surfaces in the view)';
     this.chosen?.updateDisplay();
   }
@@ -189,7 +191,7 @@ export class ForceTool {
     for (const g of groups.length <= 8 ? groups : []) {
       // reads the selection live, so clicks in the view show here too
       const sel = this.selected, o = { get on() { return sel.has(g.id); }, set on(_v: boolean) { /* set by onChange */ } };
-      this.folder.add(o, 'on').name(`include ${g.name}`).onChange(() => this.toggle(g.id)).listen();
+      this.folder.add(o, 'on').name(`include ${this.v.groupLabel(g)}`).onChange(() => this.toggle(g.id)).listen();
     }
     const methods: Record<string, ViscousChoice> = {};
     const shear = this.shearArray();

@@ -98,6 +98,8 @@ export class ProbeSetTool {
       this.extras = this.extras.filter((p) => p.id !== id);
     });
     v.onRename((id, label) => { const p = this.extras.find((x) => x.id === id); if (p) p.label = label; });
+    // a surface group relabelled is a change of the set (an undo step)
+    v.groupLabels.onChange(() => this.changed());
     // a formula defined or removed is a change of the set (an undo step)
     tools.formulas?.onChange(() => this.changed());
     // the set's other probes use the reference conditions too
@@ -109,6 +111,7 @@ export class ProbeSetTool {
     const { refs, planes, lines, force, losses, splits, walls, formulas } = this.tools;
     const fp = force.probe();
     const formulaDocs = formulas?.docs() ?? [];
+    const groupLabels = this.v.groupLabels.doc();
     // a pin placed by hand is kept with its probe
     const probes = [...planes.probes(), ...lines.probes(), ...(fp ? [fp] : []), ...losses.probes(), ...splits.probes(), ...(this.tools.iso?.probes() ?? []), ...(walls?.probes() ?? []), ...this.extras].map((p) => {
       const off = this.v.pinOffsets.get(p.id);
@@ -121,7 +124,8 @@ export class ProbeSetTool {
     return {
       format: PROBE_SET_FORMAT, version: PROBE_SET_VERSION,
       ...(this.meta.title ? { title: this.meta.title } : {}), ...(this.meta.description ? { description: this.meta.description } : {}),
-      ...(this.meta.units ? { units: this.meta.units } : {}), reference: refs.doc(), ...(formulaDocs.length ? { formulas: formulaDocs } : {}), probes,
+      ...(this.meta.units ? { units: this.meta.units } : {}), reference: refs.doc(), ...(formulaDocs.length ? { formulas: formulaDocs } : {}),
+      ...(groupLabels ? { groupLabels } : {}), probes,
     };
   }
 
@@ -161,6 +165,8 @@ export class ProbeSetTool {
       for (const p of set.probes) if (p.pin) this.v.pinOffsets.set(p.id, [...p.pin.offset]);
       // before the probes: every tool evaluates on the set's reference conditions
       refs.setFromDoc(set.reference, false);
+      // the set's group labels (none: every group shows its file name), before the probes name groups in results
+      this.v.groupLabels.setFrom(set.groupLabels);
       // the tools compute in the file's units; a set in other units is evaluated as a whole by the worker
       const f = siFactors(set.units);
       const si = f.length === 1 && Object.keys(f.fields).length === 0;

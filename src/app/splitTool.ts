@@ -5,6 +5,7 @@
  * cut-plane takes part with its normal pointing out of the volume or into it (then reversed for the
  * balance, which wants outward normals); surface groups are oriented out of the fluid already.
  */
+import { describeSelector } from '../surface/groupSelect.ts';
 import type { ProbeOutcome } from '../study/evaluate.ts';
 import type { MassBalanceProbe, Probe, SurfaceRef } from '../study/probeSet.ts';
 import type { ProbeResult } from '../ui/results.ts';
@@ -36,6 +37,8 @@ const MAX_GROUP_ROWS = 12;
 export class SplitTool extends CompositeTool<Split> {
   constructor(v: Viewer, planes: PlaneTool, refs: ReferenceTool) {
     super(v, planes, refs, 'Flow split / balance', 'split', 'Flow split');
+    // the group rows and the parts' names in the result show the groups' labels
+    v.groupLabels.onChange(() => { this.buildPanel(); this.evaluate(); });
     this.buildPanel();
   }
 
@@ -87,8 +90,15 @@ export class SplitTool extends CompositeTool<Split> {
     const list = this.planes.list();
     return [
       ...x.planes.map((p) => `${list.find((q) => q.id === p.link.planeId)?.label ?? 'own plane'}${p.outward ? '' : ' (normal reversed)'}`),
-      ...x.surfaces.map((s) => String(s)),
+      ...x.surfaces.map((s) => this.surfaceName(s)),
     ];
+  }
+
+  /** A surface reference as shown: a group's label for its name or file id; as written otherwise. */
+  private surfaceName(s: SurfaceRef): string {
+    if (typeof s === 'object') return describeSelector(s);
+    const g = this.v.description?.groups.find((y) => y.name === String(s)) ?? (typeof s === 'number' ? this.v.description?.groups.find((y) => y.fileId === s) : undefined);
+    return g ? this.v.groupLabel(g) : String(s);
   }
 
   protected resultOf(o: ProbeOutcome, x: Split): ProbeResult {
@@ -124,7 +134,7 @@ export class SplitTool extends CompositeTool<Split> {
     for (const g of groups.slice(0, MAX_GROUP_ROWS)) {
       const ref = groups.filter((y) => y.name === g.name).length === 1 ? g.name : g.fileId;
       const o = { on: x.surfaces.some((s) => String(s) === String(ref)) };
-      this.folder.add(o, 'on').name(`surface ${g.name}`).onChange((on: boolean) => {
+      this.folder.add(o, 'on').name(`surface ${this.v.groupLabel(g)}`).onChange((on: boolean) => {
         x.surfaces = x.surfaces.filter((s) => String(s) !== String(ref));
         if (on) x.surfaces.push(ref);
         this.evaluate();

@@ -20,6 +20,7 @@ import { ProgressBar } from '../ui/progressBar.ts';
 import type { ProbeResult } from '../ui/results.ts';
 import { ResultsTable } from '../ui/resultsTable.ts';
 import { fieldUnit } from '../ui/units.ts';
+import { addGroupRename } from '../ui/groupRename.ts';
 import { outlinesShownFor } from '../ui/viewDefaults.ts';
 import { COLOR_MAPS, DEFAULT_COLOR_MAP, colorMap, type ColorMap } from '../view/colorMaps.ts';
 import { CutPlaneLayer } from '../view/cutPlaneLayer.ts';
@@ -29,6 +30,7 @@ import { ViewScene, type ViewPreset } from '../view/viewScene.ts';
 import { markDrawn, timedCall } from './callTiming.ts';
 import type { Compute } from './computeClient.ts';
 import type { FieldSource } from './fieldSource.ts';
+import { GroupLabels } from './groupLabels.ts';
 import { memoryNeeded, memoryWarning, requestBytes } from './fileChoice.ts';
 
 /** A field the panel offers: `key` is `point:name` or `cell:name`. */
@@ -62,6 +64,8 @@ export class Viewer {
   description: Description | undefined;
   surface: SurfaceLayer | undefined;
   fields: FieldEntry[] = [];
+  /** The user's labels of surface groups (kept in the probe set; see groupLabels.ts). */
+  readonly groupLabels = new GroupLabels();
   private results = new Map<string, ProbeResult>();
   private readonly datasetListeners: ((d: Description) => void)[] = [];
   private readonly beforeDatasetListeners: (() => void)[] = [];
@@ -120,6 +124,8 @@ export class Viewer {
       onRename: (id, label) => this.rename(id, label),
     });
     this.table.set([]);
+    // a relabelled group shows its new label in the list, the tools' panels, pins, table and exports
+    this.groupLabels.onChange(() => { if (this.description) this.rebuildGroupPanel(new Set(this.shownGroups)); this.refreshResults(); });
     this.gui = new GUI({ container: els.side, title: 'Panel' });
     this.colorFolder = this.gui.addFolder('Colour');
     this.buildViewTools(els.tools);
@@ -189,6 +195,9 @@ export class Viewer {
   get bounds(): Bounds {
     return this.description?.report.bounds ?? [-1, 1, -1, 1, -1, 1];
   }
+
+  /** The label shown for a surface group (the user's, else the file's name). */
+  groupLabel(g: { name: string }): string { return this.groupLabels.labelOf(g.name); }
 
   get diagonal(): number {
     const b = this.bounds;
@@ -456,12 +465,15 @@ export class Viewer {
       const o = { shown: keep ? keep.has(g.id) : !hide.has(g.id) };
       this.surface?.setGroupVisible(g.id, o.shown);
       if (o.shown) this.shownGroups.add(g.id); else this.shownGroups.delete(g.id);
-      this.groupFolder.add(o, 'shown').name(`${g.name} (${formatNumber(g.area)} m²)`).onChange((on: boolean) => {
+      const label = this.groupLabel(g);
+      const row = this.groupFolder.add(o, 'shown').name(`${label} (${formatNumber(g.area)} m²)`).onChange((on: boolean) => {
         this.surface?.setGroupVisible(g.id, on);
         if (on) this.shownGroups.add(g.id); else this.shownGroups.delete(g.id);
         this.fitToShown();
         this.view.requestRender();
       });
+      row.domElement.dataset['group'] = g.name;
+      addGroupRename(row.domElement, label, (l) => this.groupLabels.set(g.name, l));
     }
     // the surfaces folder sits right after colour
     this.gui.domElement.querySelector('.lil-children')?.insertBefore(this.groupFolder.domElement, this.colorFolder.domElement.nextSibling);
@@ -511,8 +523,11 @@ export class Viewer {
     this.refreshResults();
   }
 
+  /** Every result, sorted by id, with surface groups named by their labels (what pins, table and exports show). */
   get allResults(): ProbeResult[] {
-    return [...this.results.values()].sort((a, b) => (a.id < b.id ? -1 : 1));
+    const L = this.groupLabels;
+    return [...this.results.values()].sort((a, b) => (a.id < b.id ? -1 : 1))
+      .map((r) => ({ ...r, definition: L.relabel(r.definition) }));
   }
 
   private refreshResults(): void {

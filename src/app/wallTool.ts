@@ -69,6 +69,8 @@ export class WallTool implements FieldSource {
     v.onDataset(() => { this.pins = []; this.next = 1; this.used = false; this.settings.group = this.defaultGroup(); this.buildPanel(); });
     v.onResultRemoved((id) => { this.pins = this.pins.filter((p) => p.id !== id); });
     v.onRename((id, label) => { const p = this.pins.find((x) => x.id === id); if (p) p.label = label; });
+    // the group choice and the colour entries show the groups' labels
+    v.groupLabels.onChange(() => { if (v.description) { this.buildPanel(); v.rebuildColorChooser(); } });
     refs.onChange(() => {
       for (const p of this.pins) this.evaluate.request(p);
       if (this.owns(v.settings.field)) void v.recolor();
@@ -82,7 +84,7 @@ export class WallTool implements FieldSource {
   entries(): SourceEntry[] {
     const g = this.group();
     if (!g) return [];
-    return (Object.keys(QUANTITIES) as Quantity[]).map((q) => ({ label: `wall: ${QUANTITIES[q].title} on ${g.name}`, key: `${KEY}${q}` }));
+    return (Object.keys(QUANTITIES) as Quantity[]).map((q) => ({ label: `wall: ${QUANTITIES[q].title} on ${this.v.groupLabel(g)}`, key: `${KEY}${q}` }));
   }
 
   owns(key: string): boolean { return key.startsWith(KEY); }
@@ -92,7 +94,7 @@ export class WallTool implements FieldSource {
     if (!g || !(q in QUANTITIES)) throw new Error(`no wall quantity "${q}" on a surface group`);
     if (!this.used) { this.used = true; void this.refreshPanel(); }
     const r = await this.request(q);
-    return { kind: 'values', values: r.values, title: `${QUANTITIES[q].title} on ${g.name}`, unit: QUANTITIES[q].unit };
+    return { kind: 'values', values: r.values, title: `${QUANTITIES[q].title} on ${this.v.groupLabel(g)}`, unit: QUANTITIES[q].unit };
   }
 
   // ---- probe set ----
@@ -146,7 +148,7 @@ export class WallTool implements FieldSource {
     const ref = groups.filter((x) => x.name === g.name).length === 1 ? g.name : g.fileId;
     while (this.v.allResults.some((r) => r.id === `wall-${this.next}`)) this.next++;
     this.used = true;
-    const pin: WallPin = { id: `wall-${this.next++}`, label: `Wall ${g.name}`, surfaces: [ref], thresholds, wallDistance: this.settings.wallDistance, shearFrom: this.settings.shearFrom };
+    const pin: WallPin = { id: `wall-${this.next++}`, label: `Wall ${this.v.groupLabel(g)}`, surfaces: [ref], thresholds, wallDistance: this.settings.wallDistance, shearFrom: this.settings.shearFrom };
     this.pins.push(pin);
     this.v.select(pin.id);
     this.evaluate.request(pin);
@@ -221,7 +223,7 @@ export class WallTool implements FieldSource {
       const hist = document.createElement('div');
       hist.className = 'wall-histogram-host';
       if (r.yPlusHistogram) {
-        hist.innerHTML = histogramSvg({ ...r.yPlusHistogram, above: r.yPlusAbove, title: `y+ over ${this.group()!.name} (area share)` });
+        hist.innerHTML = histogramSvg({ ...r.yPlusHistogram, above: r.yPlusAbove, title: `y+ over ${this.v.groupLabel(this.group()!)} (area share)` });
       }
       this.panel.replaceChildren(text, hist);
     } catch (e) {
@@ -240,7 +242,7 @@ export class WallTool implements FieldSource {
     for (const c of [...this.folder.controllers]) c.destroy();
     const groups = this.v.description?.groups ?? [];
     const opts: Record<string, number> = {};
-    for (const g of groups) opts[g.name in opts ? `${g.name} (${g.fileId})` : g.name] = g.id;
+    for (const g of groups) { const l = this.v.groupLabel(g); opts[l in opts ? `${l} (${g.fileId})` : l] = g.id; }
     const s = this.settings;
     const changed = () => { this.used = true; this.v.rebuildColorChooser(); this.recolourIfShown(); void this.refreshPanel(); };
     this.folder.add(s, 'group', opts).name('surface group').onChange(changed);

@@ -217,6 +217,8 @@ export interface ProbeSet {
   reference?: ReferenceDoc;
   /** User formulas defining new fields (name = expression; see src/derive/formulaParse.ts), evaluated in order; `unit` (optional, an SI label) is checked against the expression's unit, or names it when the inputs' units are unknown. */
   formulas?: { name: string; expression: string; unit?: string }[];
+  /** The user's labels of surface groups, keyed by the group's name as the file gives it (its default label, e.g. `inlet`, `zone 3`, `part 2`), never by an id; shown in the group list, pins, tables and exports. */
+  groupLabels?: Record<string, string>;
   probes: Probe[];
 }
 

@@ -14,7 +14,7 @@ import { FLUID_PRESETS, LENGTH_UNITS, UNIT_CATALOGUE, unitDef, unitProblem } fro
 
 /** Members each object of the document may hold, by schema `$defs` name (`document` is the root). */
 export const MEMBERS = {
-  document: ['format', 'version', 'title', 'description', 'units', 'reference', 'formulas', 'probes'],
+  document: ['format', 'version', 'title', 'description', 'units', 'reference', 'formulas', 'groupLabels', 'probes'],
   formula: ['name', 'expression', 'unit'],
   units: ['length', 'fields'],
   groupSelector: ['name', 'within', 'nearest', 'areaFrom', 'areaTo'],
@@ -365,6 +365,10 @@ export function checkProbeSet(doc: unknown, source = 'probe set'): ProbeSet {
     c.optional(o, 'units', '', (x, p) => units(c, x, p));
     c.optional(o, 'reference', '', (x, p) => reference(c, x, p));
     c.optional(o, 'formulas', '', (x, p) => c.array(x, p, (y, q) => { formula(c, y, q); return y; }));
+    c.optional(o, 'groupLabels', '', (x, p) => {
+      if (typeof x !== 'object' || x === null || Array.isArray(x)) return c.fail(p, 'an object of group name → label', x);
+      for (const [name, label] of Object.entries(x as Record<string, unknown>)) c.string(label, at(p, name), { minLength: 1, maxLength: LIMITS.textMax });
+    });
     const ids = new Map<string, string>();
     c.optional(o, 'probes', '', (x, p) => c.array(x, p, (y, q) => { probe(c, y, q, ids); return y; }));
   }

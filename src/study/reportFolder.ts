@@ -4,6 +4,7 @@
  * `results-long.csv` (one row per file, probe and quantity), `probe-set.json` and the pictures.
  * Pure: the command line writes these to a folder, the app packs them into a .zip.
  */
+import { relabelEvaluation } from './groupLabelText.ts';
 import { reportHtml, type ReportInput } from './reportHtml.ts';
 import { failureLines, resultsCsvByFile, resultsCsvLong, resultsJson, type TableContext } from './resultTables.ts';
 
@@ -15,8 +16,10 @@ export const REPORT_FILES = {
   html: 'report.html', json: 'results.json', csv: 'results.csv', csvLong: 'results-long.csv', probeSet: 'probe-set.json',
 } as const;
 
-/** Builds every file of the report. */
-export function reportFolder(r: ReportInput): ReportFiles {
+/** Builds every file of the report; surface groups are named by the probe set's `groupLabels` where it has them. */
+export function reportFolder(input: ReportInput): ReportFiles {
+  const labels = input.probeSet.groupLabels;
+  const r: ReportInput = labels ? { ...input, files: input.files.map((f) => ({ ...f, evaluation: relabelEvaluation(f.evaluation, labels) })) } : input;
   const enc = new TextEncoder();
   const ctx: TableContext = { tool: r.tool, version: r.version, createdAt: r.createdAt, caution: r.caution, ...(r.probeSet.title ? { probeSet: r.probeSet.title } : {}) };
   const files: ReportFiles = {

@@ -57,6 +57,14 @@ describe('probe set: save and load', () => {
     expect(Object.keys(canonicalProbeSet(shuffled).probes[0]!)).toEqual(['id', 'kind', 'label', 'geometry']);
   });
 
+  it('keeps surface-group labels keyed by the group\'s file name, between formulas and probes', () => {
+    const set = { ...valid(), groupLabels: { 'zone 3': 'left outlet', wall: 'hull' } } as ProbeSet;
+    const text = writeProbeSet(set);
+    expect(Object.keys(JSON.parse(text)).slice(-2)).toEqual(['groupLabels', 'probes']);
+    expect(readProbeSet(text, 'labels.json').set.groupLabels).toEqual({ 'zone 3': 'left outlet', wall: 'hull' });
+    expect(() => readProbeSet(JSON.stringify({ ...set, groupLabels: { wall: '' } }), 'labels.json')).toThrow(/groupLabels\.wall/);
+  });
+
   it('a version-1 file (fixtures/pipe-stations.v1.json) loads and upgrades to version 2 with the same meaning', () => {
     const { set, fromVersion } = readProbeSet(fixture('pipe-stations.v1.json'), 'pipe-stations.v1.json');
     expect(fromVersion).toBe(1);

@@ -80,6 +80,7 @@ const VALID: [string, () => unknown][] = [
   ['a force with every option', () => { const d = clone(); d['probes'][5].options = { featureAngle: 30, groupArray: false, viscous: 'gradient', kinematicPressure: true, wallShearSign: -1, reference: { speed: 2 } }; d['probes'][5].fields = { pressure: 'p', viscosity: 'mu' }; return d; }],
   ['a balance of surfaces only', () => { const d = clone(); d['probes'][7].geometry = { planes: [], surfaces: ['inlet', 2] }; return d; }],
   ['surfaces chosen by name, box, nearest point and area', () => { const d = clone(); d['probes'][5].geometry.surfaces = [{ name: 'wall' }, { within: [0, 1, 0, 1, 0, 1], areaFrom: 0.1, areaTo: 2 }, { nearest: [0, 0, 0.05] }]; return d; }],
+  ['surface groups relabelled by name', () => ({ format: 'fieldtally-probe-set', version: 2, groupLabels: { 'zone 3': 'left outlet', 'part 2': 'hull' }, probes: [] })],
   ['null field roles and a density field', () => { const d = clone(); d['probes'][0].fields = { velocity: null, pressure: null, density: 'rho' }; return d; }],
 ];
 
@@ -88,6 +89,9 @@ const INVALID: [string, (d: Record<string, any>) => void][] = [
   ['wrong format', (d) => { d['format'] = 'other'; }],
   ['version 1 shape under version 2', (d) => { d['version'] = 1; }],
   ['an unknown top-level member', (d) => { d['comment'] = 'x'; }],
+  ['a group label that is no string', (d) => { d['groupLabels'] = { inlet: 3 }; }],
+  ['an empty group label', (d) => { d['groupLabels'] = { inlet: '' }; }],
+  ['group labels as a list', (d) => { d['groupLabels'] = ['inlet']; }],
   ['probes not an array', (d) => { d['probes'] = {}; }],
   ['an unknown kind', (d) => { d['probes'][0].kind = 'plane'; }],
   ['a member of another kind', (d) => { d['probes'][2].geometry.origin = [0, 0, 0]; }],
