@@ -10,11 +10,12 @@ Run: /usr/bin/python3 tests/reference/gradient_reference.py [--check]   (from an
 With --check it recomputes and compares with the committed JSON instead of writing (relative 1e-12),
 prints one line per difference ("differs") and exits 1 if there is any.
 """
-import json
 import os
 import sys
 
 import vtk
+
+from committed_values import write_or_check
 
 vtk.vtkSMPTools.Initialize(1)
 
@@ -67,23 +68,7 @@ def flatten(doc):
 
 def main():
     doc = {'vtk': vtk.vtkVersion.GetVTKVersion(), 'filter': 'vtkGradientFilter', 'cases': [run_case(*c) for c in CASES]}
-    if '--check' in sys.argv:
-        with open(OUT) as f:
-            old = json.load(f)
-        bad = 0
-        a, b = list(flatten(doc)), list(flatten(old))
-        if len(a) != len(b):
-            print('differs: %d values now, %d committed' % (len(a), len(b)))
-            sys.exit(1)
-        for (k, v), (_, u) in zip(a, b):
-            if abs(v - u) > 1e-12 * max(1e-300, abs(u), abs(v)) and abs(v - u) > 1e-300:
-                print('differs: %s now %r, committed %r' % (k, v, u))
-                bad += 1
-        sys.exit(1 if bad else 0)
-    os.makedirs(os.path.dirname(OUT), exist_ok=True)
-    with open(OUT, 'w') as f:
-        json.dump(doc, f, indent=1)
-        f.write('\n')
+    write_or_check(doc, OUT, flatten)
 
 
 main()

@@ -8,11 +8,13 @@ Run: /usr/bin/python3 tests/reference/dfg/dfg_vtk.py [--check]   (from anywhere)
 With --check it recomputes and compares with the committed JSON (relative 1e-12) instead of writing, prints one
 line per difference ("differs") and exits 1 if there is any.
 """
-import json
 import os
 import sys
 
 import vtk
+
+sys.path.insert(0, os.path.dirname(os.path.dirname(os.path.abspath(__file__))))
+from committed_values import write_or_check  # noqa: E402
 
 vtk.vtkSMPTools.Initialize(1)
 
@@ -67,23 +69,7 @@ def flatten(doc):
 
 def main():
     doc = {'vtk': vtk.vtkVersion.GetVTKVersion(), 'cases': [run(f) for f in FILES]}
-    if '--check' in sys.argv:
-        with open(OUT) as f:
-            old = json.load(f)
-        a, b = list(flatten(doc)), list(flatten(old))
-        if len(a) != len(b):
-            print('differs: %d values now, %d committed' % (len(a), len(b)))
-            sys.exit(1)
-        bad = 0
-        for (k, v), (_, u) in zip(a, b):
-            if abs(v - u) > 1e-12 * max(abs(u), abs(v)) and abs(v - u) > 1e-300:
-                print('differs: %s now %r, committed %r' % (k, v, u))
-                bad += 1
-        sys.exit(1 if bad else 0)
-    os.makedirs(os.path.dirname(OUT), exist_ok=True)
-    with open(OUT, 'w') as f:
-        json.dump(doc, f, indent=1)
-        f.write('\n')
+    write_or_check(doc, OUT, flatten)
 
 
 main()
