@@ -13,9 +13,7 @@ import { meshKey, type MeshKey } from '../model/meshKey.ts';
 import type { Dataset } from '../model/dataset.ts';
 import { interpolateCutFields } from './cutFields.ts';
 import { CUT_DEFAULTS, cutPlane, datasetScale, type CutOptions, type PlaneCut } from './cutPlane.ts';
-import type { PlaneQuery, PlaneResult } from './planeIntegrals.ts';
-import { integrateSurface } from './integrals.ts';
-import { selectRegion } from './region.ts';
+import { integrateCut, type PlaneQuery, type PlaneResult } from './planeIntegrals.ts';
 import type { Vec3 } from './triangleSet.ts';
 
 /** Planes kept per mesh. */
@@ -75,13 +73,7 @@ export function cachedCutPlane(dataset: Dataset, origin: Vec3, normal: Vec3, opt
 
 /** `integratePlane` (planeIntegrals.ts) with the cut from `cachedCutPlane`: same result, units of the file. */
 export function integratePlaneReusingCut(dataset: Dataset, q: PlaneQuery): PlaneResult {
-  const cut = cachedCutPlane(dataset, q.origin, q.normal, q.cut);
-  const region = selectRegion(cut, q.region ?? []);
-  const integrals = integrateSurface(region.set, q.integral, region.arcs ?? undefined);
-  if (integrals.empty) {
-    integrals.reason = cut.empty ? 'the plane misses every 3D cell of the mesh' : region.reason ?? integrals.reason;
-  }
-  return { cut, region, integrals };
+  return integrateCut(cachedCutPlane(dataset, q.origin, q.normal, q.cut), q);
 }
 
 /** Bytes of cut geometry kept for the mesh of `d` (for memory accounting). */

@@ -29,7 +29,11 @@ export interface PlaneResult {
 
 /** Cuts, selects the region and integrates (units: the file's). An empty cut or region gives `integrals.empty`. */
 export function integratePlane(dataset: Dataset, q: PlaneQuery): PlaneResult {
-  const cut = cutPlane(dataset, q.origin, q.normal, q.cut);
+  return integrateCut(cutPlane(dataset, q.origin, q.normal, q.cut), q);
+}
+
+/** Selects `q`'s region of a cut already made and integrates over it (units: the file's). */
+export function integrateCut(cut: PlaneCut, q: PlaneQuery): PlaneResult {
   const region = selectRegion(cut, q.region ?? []);
   const integrals = integrateSurface(region.set, q.integral, region.arcs ?? undefined);
   if (integrals.empty) {
