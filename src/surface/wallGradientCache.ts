@@ -13,11 +13,10 @@
  */
 import type { Dataset } from '../model/dataset.ts';
 import type { FieldArray } from '../model/fieldArray.ts';
-import type { Piece } from '../model/piece.ts';
 import { applyGradientOperator, gradientOperator, type GradientOperator } from '../derive/gradientOperator.ts';
 import { pointStencilAround } from '../derive/localStencil.ts';
 import type { BoundaryFaces } from './boundaryFaces.ts';
-import { cornerGradients } from './wallTraction.ts';
+import { cornerGradients, cornersFromNodes, wallNodes, type WallNodes } from './wallTraction.ts';
 
 /**
  * How large a plan may be (bytes) for one face selection: `shareOfGeometry` times the bytes of the mesh's
@@ -49,10 +48,8 @@ interface Plan {
   selection: Int32Array;
   /** Per piece: its operator, or null when no selected face is on it. */
   pieces: (PiecePlan | null)[];
-  /** Per corner of the selected faces: the row of its node in its piece's operator. */
-  cornerRow: Int32Array;
-  /** Per selected face: its piece. */
-  facePiece: Int32Array;
+  /** The selection's wall nodes per piece (each operator's targets) and the node each corner reads. */
+  nodes: WallNodes;
   /** False when the plan would be too large (kernel at every call). */
   cached: boolean;
   bytes: number;
@@ -76,34 +73,19 @@ function fits(plan: Plan, d: Dataset): boolean {
 }
 
 function build(d: Dataset, faces: BoundaryFaces, selection: Int32Array, offsets: Int32Array): Plan {
-  const fo = faces.offsets, nodes = faces.nodes;
-  const facePiece = new Int32Array(selection.length), cornerRow = new Int32Array(offsets[offsets.length - 1]!);
+  const nodes = wallNodes(d, faces, selection, offsets), targets = nodes.perPiece;
   const pieces: (PiecePlan | null)[] = d.pieces.map(() => null);
-  const targets: number[][] = d.pieces.map(() => []);
-  const rows = new Map<Piece, Int32Array>();
-  for (let s = 0; s < selection.length; s++) {
-    const f = selection[s]!, k = faces.piece[f]!, p = d.pieces[k]!;
-    facePiece[s] = k;
-    let row = rows.get(p);
-    if (!row) { row = new Int32Array(p.points.length / 3).fill(-1); rows.set(p, row); }
-    for (let j = fo[f]!, c = offsets[s]!; j < fo[f + 1]!; j++, c++) {
-      const q = nodes[j]!;
-      if (row[q] === -1) { row[q] = targets[k]!.length; targets[k]!.push(q); }
-      cornerRow[c] = row[q]!;
-    }
-  }
   const nodesTotal = targets.reduce((n, t) => n + t.length, 0);
-  const plan: Plan = { selection: selection.slice(), pieces, cornerRow, facePiece, cached: false, bytes: 0 };
+  const plan: Plan = { selection: selection.slice(), pieces, nodes, cached: false, bytes: 0 };
   let geometryBytes = 0;
   d.pieces.forEach((p, k) => { if (targets[k]!.length) geometryBytes += p.points.byteLength + p.cellTypes.byteLength + p.offsets.byteLength + p.connectivity.byteLength; });
   const allowed = wallPlanAllowance(geometryBytes);
   if (nodesTotal * NEIGHBOURS_ESTIMATE * 28 > allowed) return plan;
-  let bytes = cornerRow.byteLength + facePiece.byteLength + plan.selection.byteLength;
+  let bytes = nodes.cornerRow.byteLength + nodes.facePiece.byteLength + plan.selection.byteLength + targets.reduce((n, t) => n + t.byteLength, 0);
   for (let k = 0; k < d.pieces.length; k++) {
     if (targets[k]!.length === 0) continue;
     const p = d.pieces[k]!;
-    const nodes = Int32Array.from(targets[k]!);
-    const op = gradientOperator(p.points, pointStencilAround(p, nodes), nodes);
+    const op = gradientOperator(p.points, pointStencilAround(p, targets[k]!), targets[k]!);
     bytes += op.bytes;
     if (bytes > allowed) return { ...plan, pieces: d.pieces.map(() => null) };
     pieces[k] = { points: p.points, connectivity: p.connectivity, offsets: p.offsets, op };
@@ -133,17 +115,7 @@ export function wallCornerGradients(d: Dataset, faces: BoundaryFaces, selection:
   if (!plan.cached || vel.some((v, k) => plan.pieces[k] && (!v || v.components !== 3 || v.association !== 'point'))) {
     return cornerGradients(d, faces, selection, offsets, vel);
   }
-  const out = new Float64Array(9 * offsets[offsets.length - 1]!);
-  const byPiece = plan.pieces.map((pp, k) => (pp ? applyGradientOperator(pp.op, vel[k]!.values, 3) : null));
-  const rows = plan.cornerRow;
-  for (let s = 0; s < selection.length; s++) {
-    const G = byPiece[plan.facePiece[s]!]!;
-    for (let c = offsets[s]!; c < offsets[s + 1]!; c++) {
-      const g = 9 * rows[c]!, o = 9 * c;
-      for (let t = 0; t < 9; t++) out[o + t] = G[g + t]!;
-    }
-  }
-  return out;
+  return cornersFromNodes(plan.nodes, offsets, plan.pieces.map((pp, k) => (pp ? applyGradientOperator(pp.op, vel[k]!.values, 3) : null)));
 }
 
 /** Bytes held by the plans cached for `faces` (for benchmarks and memory accounting). */

@@ -14,40 +14,59 @@ import { pointGradientAt } from '../derive/fieldGradient.ts';
 import type { BoundaryFaces } from './boundaryFaces.ts';
 
 /**
+ * Which wall node each corner of the selected faces reads: per piece its wall nodes (local ids, each once, in
+ * order of first use along the selection; empty when no selected face is on the piece), per corner its row in
+ * its piece's list, per selected face its piece.
+ */
+export interface WallNodes { perPiece: Int32Array[]; cornerRow: Int32Array; facePiece: Int32Array }
+
+/** The wall nodes of the selected faces (`offsets`: the selection's corner offsets); see `WallNodes`. */
+export function wallNodes(d: Dataset, faces: BoundaryFaces, selection: Int32Array, offsets: Int32Array): WallNodes {
+  const fo = faces.offsets, nodes = faces.nodes, facePieceOf = faces.piece, ns = selection.length;
+  const facePiece = new Int32Array(ns), cornerRow = new Int32Array(offsets[offsets.length - 1]!);
+  const slots: (Int32Array | undefined)[] = d.pieces.map(() => undefined);
+  const lists = d.pieces.map(() => new Int32Array(16)), counts = new Int32Array(d.pieces.length);
+  for (let s = 0; s < ns; s++) {
+    const f = selection[s]!, k = facePieceOf[f]!;
+    facePiece[s] = k;
+    const slot = (slots[k] ??= new Int32Array(d.pieces[k]!.points.length / 3).fill(-1));
+    for (let j = fo[f]!, e = fo[f + 1]!, c = offsets[s]!; j < e; j++, c++) {
+      const q = nodes[j]!;
+      if (slot[q] === -1) {
+        let list = lists[k]!, n = counts[k]!;
+        if (n === list.length) { const g = new Int32Array(2 * n); g.set(list); lists[k] = list = g; }
+        slot[q] = n; list[n] = q; counts[k] = n + 1;
+      }
+      cornerRow[c] = slot[q]!;
+    }
+  }
+  return { perPiece: lists.map((l, k) => l.slice(0, counts[k]!)), cornerRow, facePiece };
+}
+
+/**
+ * Per corner the 9 gradient values of its node (layout of `cornerGradients`), from `byPiece[k]`: 9 values
+ * per wall node of piece k in the order of `w.perPiece[k]`.
+ */
+export function cornersFromNodes(w: WallNodes, offsets: Int32Array, byPiece: readonly (Float64Array | null)[]): Float64Array {
+  const out = new Float64Array(9 * offsets[offsets.length - 1]!), rows = w.cornerRow;
+  for (let s = 0; s < w.facePiece.length; s++) {
+    const G = byPiece[w.facePiece[s]!]!;
+    for (let c = offsets[s]!, e = offsets[s + 1]!, o = 9 * c; c < e; c++, o += 9) {
+      const g = 9 * rows[c]!;
+      out[o] = G[g]!; out[o + 1] = G[g + 1]!; out[o + 2] = G[g + 2]!; out[o + 3] = G[g + 3]!; out[o + 4] = G[g + 4]!;
+      out[o + 5] = G[g + 5]!; out[o + 6] = G[g + 6]!; out[o + 7] = G[g + 7]!; out[o + 8] = G[g + 8]!;
+    }
+  }
+  return out;
+}
+
+/**
  * Velocity gradients (9 per corner, ∂u_i/∂x_j at `9·corner + 3i + j`, velocity unit per length unit) at the
  * corners of the selected faces, each node fitted once.
  */
 export function cornerGradients(d: Dataset, faces: BoundaryFaces, selection: Int32Array, offsets: Int32Array, vel: readonly (FieldArray | undefined)[]): Float64Array {
-  const out = new Float64Array(9 * offsets[offsets.length - 1]!);
-  const fo = faces.offsets, nodes = faces.nodes, facePiece = faces.piece, ns = selection.length;
-  for (let k = 0; k < d.pieces.length; k++) {
-    const p = d.pieces[k]!, np = p.points.length / 3;
-    // each wall node of this piece once, numbered in order of first use
-    const slot = new Int32Array(np).fill(-1);
-    let list = new Int32Array(Math.min(np, 4 * ns) + 1), n = 0;
-    for (let s = 0; s < ns; s++) {
-      const f = selection[s]!;
-      if (facePiece[f] !== k) continue;
-      for (let j = fo[f]!, e = fo[f + 1]!; j < e; j++) {
-        const q = nodes[j]!;
-        if (slot[q] !== -1) continue;
-        if (n === list.length) { const g = new Int32Array(2 * n); g.set(list); list = g; }
-        slot[q] = n; list[n++] = q;
-      }
-    }
-    if (n === 0) continue;
-    const G = pointGradientAt(p, vel[k]!, list.subarray(0, n));
-    for (let s = 0; s < ns; s++) {
-      const f = selection[s]!;
-      if (facePiece[f] !== k) continue;
-      for (let j = fo[f]!, e = fo[f + 1]!, o = 9 * offsets[s]!; j < e; j++, o += 9) {
-        const g = 9 * slot[nodes[j]!]!;
-        out[o] = G[g]!; out[o + 1] = G[g + 1]!; out[o + 2] = G[g + 2]!; out[o + 3] = G[g + 3]!; out[o + 4] = G[g + 4]!;
-        out[o + 5] = G[g + 5]!; out[o + 6] = G[g + 6]!; out[o + 7] = G[g + 7]!; out[o + 8] = G[g + 8]!;
-      }
-    }
-  }
-  return out;
+  const w = wallNodes(d, faces, selection, offsets);
+  return cornersFromNodes(w, offsets, w.perPiece.map((n, k) => (n.length ? pointGradientAt(d.pieces[k]!, vel[k]!, n) : null)));
 }
 
 /**
