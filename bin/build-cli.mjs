@@ -34,7 +34,7 @@ const common = {
   metafile: true,
 };
 const result = await build({ ...common, entryPoints: [join(root, 'src/cli/run.ts')], outfile: join(root, 'dist-cli/fieldtally.mjs') });
-const workerEntries = { share: 'workers/shareWorkerBody.ts', series: 'workers/seriesWorkerBody.ts', inflate: 'workers/inflateWorker.node.mjs' };
+const workerEntries = { share: 'workers/shareWorkerBody.ts', series: 'workers/seriesWorkerBody.ts', inflate: 'workers/inflateWorker.node.mjs', text: 'workers/textWorkerBody.ts' };
 const workerInputs = [];
 for (const [kind, entry] of Object.entries(workerEntries)) {
   const w = await build({ ...common, entryPoints: [join(root, entry)], outfile: join(root, `dist-cli/${kind}Worker.mjs`) });

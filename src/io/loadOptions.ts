@@ -38,6 +38,19 @@ export type InflateBlock = ((block: Uint8Array, out: Uint8Array) => number) & {
 /** Inflates `blocks[i]` into `outs[i]` for every i; see `InflateBlock.batch`. */
 export type InflateBatch = (blocks: readonly Uint8Array[], outs: readonly Uint8Array[]) => Promise<(number | string)[]>;
 
+/**
+ * Parses the numbers of many windows of ASCII text at once (on several threads, src/parallel/textPool.ts):
+ * window `[a, b, o]` is `text[a, b)`, its numbers go to `values[o…]` (see `parseWindow` in
+ * src/io/asciiWindows.ts). Resolves, per window, to the count of numbers or a message. `text` and `values`
+ * view SharedArrayBuffers where the platform has them, so workers read and write them in place.
+ */
+export type ParseTextBatch = ((text: Uint8Array, windows: readonly (readonly [number, number, number])[], values: Float64Array) => Promise<(number | string)[]>) & {
+  /** Windows parsed at once (the pool's thread count); default 1. */
+  readonly workers?: number;
+  /** Text bytes of one window; default 1 MiB (`TEXT_WINDOW_BYTES`). */
+  readonly windowBytes?: number;
+};
+
 export interface LoadOptions {
   /** Called now and then (throttled by the reader) with the stage and bytes consumed. */
   onProgress?: (p: LoadProgress) => void;
@@ -56,6 +69,11 @@ export interface LoadOptions {
   pieceShare?: (leaf: number, path: string) => boolean;
   /** zlib inflater for compressed XML arrays. Default: fflate's (pure JavaScript); the Node loader passes node:zlib's. */
   inflate?: InflateBlock;
+  /**
+   * Optional: XML `format="ascii"` arrays are parsed window by window with it (on several threads); the
+   * arrays are the same bits as without it. Default: parsed on this thread.
+   */
+  parseText?: ParseTextBatch;
   /**
    * Most bytes the decoded arrays of this load may take (a set's pieces together); an array that would pass it
    * is refused before it is allocated (see `memoryBudget.ts`). Default: no limit.

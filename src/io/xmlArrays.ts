@@ -7,11 +7,12 @@
  */
 import type { NumericArray } from '../model/fieldArray.ts';
 import { parseNumbers, skipSpace } from './asciiNumbers.ts';
+import { parseTextInWindows, type FetchText } from './asciiWindows.ts';
 import { readInto, type ByteSource } from './byteSource.ts';
 import { SCRATCH_BYTES, type ArrayPlan } from './elementConvert.ts';
 import { ELEMENT_SIZE, allocateFor, isElementType, type ElementType } from './elementTypes.ts';
 import { claimMemory } from './memoryBudget.ts';
-import type { Checkpoint, InflateBlock } from './loadOptions.ts';
+import type { Checkpoint, InflateBlock, ParseTextBatch } from './loadOptions.ts';
 import { readAppendedArray } from './xmlAppended.ts';
 import { memoryBase64, readBase64Array, sourceBase64, type Base64Input } from './xmlBase64Arrays.ts';
 import type { BlockFormat } from './xmlBlocks.ts';
@@ -40,6 +41,8 @@ export interface XmlFileContext {
   readonly appended: AppendedSection | undefined;
   readonly cp: Checkpoint;
   readonly warnings: string[];
+  /** Parses ASCII arrays on several threads (`LoadOptions.parseText`); absent: on this thread. */
+  readonly parseText?: ParseTextBatch | undefined;
 }
 
 /** A decoded array: values (model type), its file type and components. */
@@ -159,6 +162,8 @@ async function readAscii(ctx: XmlFileContext, el: XmlElement, type: ElementType,
     throw new Error(`${where}: declares ${count} values, the text holds ${countTokens(bytes, start, end)}`);
   }
   const t = asciiTarget(type, count, want, where);
+  if (ctx.parseText && await asciiInParallel(ctx.parseText, ctx.cp, t, type, want, where, start, end, count,
+    (at, w) => { w.set(bytes.subarray(at, at + w.length)); })) return t.out;
   let pos = start;
   for (let i = 0; i < count; i += ASCII_CHUNK) {
     pos = parseAsciiValues(t, bytes, pos, end, i, Math.min(ASCII_CHUNK, count - i), type, want, where, start, count);
@@ -210,6 +215,7 @@ async function readAsciiFromSource(ctx: XmlFileContext, el: XmlElement, type: El
   if (count === undefined) count = await holds();
   else if (count > Math.ceil((end - start) / 2)) throw new Error(`${where}: declares ${count} values, the text holds ${await holds()}`);
   const t = asciiTarget(type, count, want, where), n = count;
+  if (ctx.parseText && await asciiInParallel(ctx.parseText, ctx.cp, t, type, want, where, start, end, n, (at, w) => readInto(src, at, w))) return t.out;
   let i = 0, tooMany = false;
   await textWindows(src, start, end, where, async (w, at) => {
     if (tooMany) return;
@@ -228,6 +234,30 @@ async function readAsciiFromSource(ctx: XmlFileContext, el: XmlElement, type: El
   });
   if (tooMany || i < n) throw new Error(`${where}: declares ${n} values, the text holds ${await holds()}`);
   return t.out;
+}
+
+/**
+ * An ASCII array parsed on several threads (`asciiWindows.ts`) into the target `t`, each window's doubles
+ * checked and stored as `parseAsciiValues` does. False when anything is off (a window that does not parse, a
+ * value that fails its check, fewer or more numbers than `count`): the caller then parses the array on this
+ * thread, into the same target, and says what is wrong exactly as it does without threads.
+ */
+async function asciiInParallel(parse: ParseTextBatch, cp: Checkpoint, t: AsciiTarget, type: ElementType, want: Want, where: string,
+  start: number, end: number, count: number, fetch: FetchText): Promise<boolean> {
+  const got = await parseTextInWindows(parse, fetch, start, end, (values, first) => {
+    if (first + values.length > count) return false;
+    try {
+      if (t.range) checkIntegers(values, 0, values.length, t.range, type, where, first);
+      if (want.target === 'ids') checkIds(values, values.length, want.min, where, first);
+    } catch {
+      return false;
+    }
+    if (t.inPlace && type === 'Float32' && t.out instanceof Float64Array) {
+      for (let j = 0; j < values.length; j++) t.out[first + j] = Math.fround(values[j]!);
+    } else t.out.set(values, t.lead + first);
+    return true;
+  }, cp);
+  return got === count;
 }
 
 /** Checks parsed values are ids in `[min, 2^31 − 1]`; `base` is the chunk's index in the array, for messages. */

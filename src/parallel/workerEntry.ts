@@ -17,11 +17,14 @@ import { fileURLToPath, pathToFileURL } from 'node:url';
 /** Set to true by the bundler (bin/build-cli.mjs); absent when running from source. */
 declare const FIELDTALLY_BUNDLED: boolean | undefined;
 
-/** The worker kinds: compute shares (`nodePool.ts`), series runs (`seriesPool.ts`), zlib blocks (`inflatePool.ts`). */
-export type WorkerKind = 'share' | 'series' | 'inflate';
+/**
+ * The worker kinds: compute shares (`nodePool.ts`), series runs (`seriesPool.ts`), zlib blocks (`inflatePool.ts`),
+ * ASCII text (`textPool.ts`).
+ */
+export type WorkerKind = 'share' | 'series' | 'inflate' | 'text';
 
 /** The body each TypeScript worker runs (inflate workers are plain JavaScript already). */
-const BODIES: Partial<Record<WorkerKind, string>> = { share: 'workers/shareWorkerBody.ts', series: 'workers/seriesWorkerBody.ts' };
+const BODIES: Partial<Record<WorkerKind, string>> = { share: 'workers/shareWorkerBody.ts', series: 'workers/seriesWorkerBody.ts', text: 'workers/textWorkerBody.ts' };
 
 const built = new Map<WorkerKind, URL | null>();
 
