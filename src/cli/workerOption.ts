@@ -10,6 +10,7 @@ import type { Dataset } from '../model/dataset.ts';
 import { openNodePool, poolSize, startNodeWorkers } from '../parallel/nodePool.ts';
 import type { ComputePool } from '../parallel/pool.ts';
 import { startInflatePool } from '../parallel/inflatePool.ts';
+import { startTextPool } from '../parallel/textPool.ts';
 import { str, type ParsedArgs } from './args.ts';
 import type { OptionKind } from './args.ts';
 
@@ -44,14 +45,16 @@ export async function loadForCompute(file: string, args: ParsedArgs): Promise<Co
   const ports = startNodeWorkers(n);
   // zlib blocks are inflated by as many threads while the compute workers start.
   const inflaters = startInflatePool(n);
+  // ASCII and base64 arrays are decoded by as many threads (started at the first such array only).
+  const parsers = startTextPool(n);
   let dataset: Dataset;
   try {
-    dataset = await loadDatasetFile(file, { inflate: inflaters.inflate });
+    dataset = await loadDatasetFile(file, { inflate: inflaters.inflate, parseText: parsers.parseText, decodeBase64: parsers.decodeBase64 });
   } catch (e) {
     await Promise.all(ports.map((p) => p.terminate()));
     throw e;
   } finally {
-    await inflaters.close();
+    await Promise.all([inflaters.close(), parsers.close()]);
   }
   const pool = await openNodePool(dataset, n, ports);
   return { dataset: pool.dataset, pool, close: () => pool.close() };

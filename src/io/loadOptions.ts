@@ -51,6 +51,19 @@ export type ParseTextBatch = ((text: Uint8Array, windows: readonly (readonly [nu
   readonly windowBytes?: number;
 };
 
+/**
+ * Decodes many windows of base64 text at once (on several threads, src/parallel/textPool.ts): window
+ * `[a, b, o, n]` is `text[a, b)`, decoded to exactly `n` bytes at `out[o…]` (see `decodeWindow` in
+ * src/io/base64Windows.ts). Resolves, per window, to `n` or a message. `text` and `out` view
+ * SharedArrayBuffers where the platform has them.
+ */
+export type Base64Batch = ((text: Uint8Array, windows: readonly (readonly [number, number, number, number])[], out: Uint8Array) => Promise<(number | string)[]>) & {
+  /** Windows decoded at once (the pool's thread count); default 1. */
+  readonly workers?: number;
+  /** Text characters of one window; default 1 MiB. */
+  readonly windowBytes?: number;
+};
+
 export interface LoadOptions {
   /** Called now and then (throttled by the reader) with the stage and bytes consumed. */
   onProgress?: (p: LoadProgress) => void;
@@ -74,6 +87,8 @@ export interface LoadOptions {
    * arrays are the same bits as without it. Default: parsed on this thread.
    */
   parseText?: ParseTextBatch;
+  /** Optional: uncompressed base64 arrays of XML files are decoded window by window with it (same bytes). */
+  decodeBase64?: Base64Batch;
   /**
    * Most bytes the decoded arrays of this load may take (a set's pieces together); an array that would pass it
    * is refused before it is allocated (see `memoryBudget.ts`). Default: no limit.

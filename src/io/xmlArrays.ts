@@ -12,7 +12,7 @@ import { readInto, type ByteSource } from './byteSource.ts';
 import { SCRATCH_BYTES, type ArrayPlan } from './elementConvert.ts';
 import { ELEMENT_SIZE, allocateFor, isElementType, type ElementType } from './elementTypes.ts';
 import { claimMemory } from './memoryBudget.ts';
-import type { Checkpoint, InflateBlock, ParseTextBatch } from './loadOptions.ts';
+import type { Base64Batch, Checkpoint, InflateBlock, ParseTextBatch } from './loadOptions.ts';
 import { readAppendedArray } from './xmlAppended.ts';
 import { memoryBase64, readBase64Array, sourceBase64, type Base64Input } from './xmlBase64Arrays.ts';
 import type { BlockFormat } from './xmlBlocks.ts';
@@ -43,6 +43,8 @@ export interface XmlFileContext {
   readonly warnings: string[];
   /** Parses ASCII arrays on several threads (`LoadOptions.parseText`); absent: on this thread. */
   readonly parseText?: ParseTextBatch | undefined;
+  /** Decodes uncompressed base64 arrays on several threads (`LoadOptions.decodeBase64`); absent: on this thread. */
+  readonly decodeBase64?: Base64Batch | undefined;
 }
 
 /** A decoded array: values (model type), its file type and components. */
@@ -369,7 +371,7 @@ async function decode(ctx: XmlFileContext, el: XmlElement, where: string, expect
     } else {
       const input = base64Input(ctx, el, format, where);
       try {
-        values = await readBase64Array(input, fmt, planOf(type, ctx, want, where), expectedValues, ctx.inflate, ctx.cp);
+        values = await readBase64Array(input, fmt, planOf(type, ctx, want, where), expectedValues, ctx.inflate, ctx.cp, ctx.decodeBase64);
         reached = input.position();
       } finally {
         input.release();

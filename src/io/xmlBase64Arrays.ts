@@ -13,7 +13,9 @@ import { Base64Reader } from './base64.ts';
 import type { ByteSource } from './byteSource.ts';
 import { ELEMENT_SIZE } from './elementTypes.ts';
 import { SCRATCH_BYTES, Scratch, allocateTarget, chunkElements, convertChunk, finishDirect, isDirect, type ArrayPlan } from './elementConvert.ts';
-import type { Checkpoint, InflateBlock } from './loadOptions.ts';
+import type { FetchText } from './asciiWindows.ts';
+import { decodeBase64InWindows } from './base64Windows.ts';
+import type { Base64Batch, Checkpoint, InflateBlock } from './loadOptions.ts';
 import { inflateBlocks } from './xmlAppended.ts';
 import {
   blockCountShort, blocksShort, checkDecodedSize, decodeHeaderWords, headerShort, headerSize, zlibLayout,
@@ -30,12 +32,20 @@ export interface Base64Input {
   readSome(out: Uint8Array, at: number, n: number): Promise<number>;
   /** Releases what the input holds (a scratch window). */
   release(): void;
+  /**
+   * The text still to decode, as file offsets `[at, end)` and a way to read it, when no decoded byte is held
+   * back (so the next byte starts a group); for decoding on several threads. The input itself does not move.
+   */
+  rest?(): { fetch: FetchText; at: number; end: number } | undefined;
 }
 
 /** Base64 text `text[start, end)` already in memory (positions are offsets in `text`). */
 export function memoryBase64(text: Uint8Array, start: number, end: number, where: string): Base64Input {
   const r = new Base64Reader(text, start, end, where);
-  return { available: () => r.available(), position: () => r.position(), readSome: async (out, at, n) => r.readSome(out, at, n), release: () => undefined };
+  return {
+    available: () => r.available(), position: () => r.position(), readSome: async (out, at, n) => r.readSome(out, at, n), release: () => undefined,
+    rest: () => (r.carried() ? undefined : { fetch: (at, w) => { w.set(text.subarray(at, at + w.length)); }, at: r.position(), end }),
+  };
 }
 
 const isSpace = (c: number) => c === 32 || c === 10 || c === 13 || c === 9;
@@ -85,6 +95,7 @@ export function sourceBase64(src: ByteSource, start: number, end: number, where:
       }
     },
     release: () => sc.release(),
+    rest: () => (r.carried() ? undefined : { fetch: (at, w) => readIntoSource(src, at, w), at: r.position(), end }),
   };
 }
 
@@ -112,7 +123,8 @@ async function words(input: Base64Input, count: number, fmt: BlockFormat, what: 
  * Decodes the array `input` holds (header, then data) as `plan` says; `expectedValues`, when known, is
  * checked against the header before anything is allocated.
  */
-export async function readBase64Array(input: Base64Input, fmt: BlockFormat, plan: ArrayPlan, expectedValues: number | undefined, inflate: InflateBlock, cp: Checkpoint): Promise<NumericArray> {
+export async function readBase64Array(input: Base64Input, fmt: BlockFormat, plan: ArrayPlan, expectedValues: number | undefined, inflate: InflateBlock, cp: Checkpoint,
+  decode?: Base64Batch): Promise<NumericArray> {
   const where = plan.where, size = ELEMENT_SIZE[plan.type];
   const exp: BlockExpectation = { where, elementSize: size, ...(expectedValues !== undefined ? { expectedValues } : {}) };
   if (fmt.compressed) {
@@ -140,6 +152,8 @@ export async function readBase64Array(input: Base64Input, fmt: BlockFormat, plan
   const out = allocateTarget(plan, count);
   const outBytes = isDirect(plan) ? new Uint8Array(out.buffer, out.byteOffset + (plan.lead ?? 0) * size, n!) : undefined;
   const step = chunkElements(size);
+  const rest = decode && n! > 0 ? input.rest?.() : undefined;
+  if (rest && await inWindows(decode!, rest, n!, plan, out, outBytes, cp)) return out;
   const sc = new Scratch(0);
   try {
     for (let i = 0; i < count; i += step) {
@@ -158,4 +172,26 @@ export async function readBase64Array(input: Base64Input, fmt: BlockFormat, plan
     sc.release();
   }
   return out;
+}
+
+/**
+ * The uncompressed data (`n` bytes) decoded on several threads (`base64Windows.ts`) into `out` (through
+ * `outBytes` when the file's bytes are the model's, else converted from a temporary copy). False when a window
+ * did not decode cleanly: the caller then decodes on this thread, for the one-thread message.
+ */
+async function inWindows(decode: Base64Batch, rest: NonNullable<ReturnType<NonNullable<Base64Input['rest']>>>, n: number, plan: ArrayPlan,
+  out: NumericArray, outBytes: Uint8Array | undefined, cp: Checkpoint): Promise<boolean> {
+  const size = ELEMENT_SIZE[plan.type], all = outBytes ?? new Uint8Array(n);
+  const ok = await decodeBase64InWindows(decode, rest.fetch, rest.at, rest.end, n, (bytes, first) => all.set(bytes, first), cp);
+  if (!ok) return false;
+  const count = n / size;
+  if (outBytes) finishDirect(plan, out, 0, count);
+  else {
+    const step = chunkElements(size);
+    for (let i = 0; i < count; i += step) {
+      const k = Math.min(step, count - i);
+      convertChunk(plan, all.subarray(i * size, (i + k) * size), k, out, i);
+    }
+  }
+  return true;
 }
