@@ -1,18 +1,16 @@
 /**
  * Uncompressed base64 arrays decoded on several threads: the array's text is cut into windows of whole
- * 4-character groups, a batch of windows is placed in one shared buffer, and `LoadOptions.decodeBase64`
+ * 4-character groups (counted without looking at the text: base64 without line breaks, as VTK writes it), a batch of windows is placed in one shared buffer, and `LoadOptions.decodeBase64`
  * (Node: src/parallel/textPool.ts) decodes each window on a worker into a shared byte buffer with
  * `decodeWindow` below (the reader's own `Base64Reader`). Every window but the last decodes to three bytes a
  * group, so each window's place in the array is known before it is decoded. A window that does not decode to
- * exactly that (padding inside the data, a bad character, text that ends early) makes
+ * exactly that (whitespace or padding inside the data, a bad character, text that ends early) makes
  * `decodeBase64InWindows` answer false, and the reader decodes the array on one thread, for its message.
  */
 import { Base64Reader } from './base64.ts';
 import type { FetchText } from './asciiWindows.ts';
 import { SCRATCH_BYTES } from './elementConvert.ts';
 import type { Base64Batch, Checkpoint } from './loadOptions.ts';
-
-const isSpace = (c: number) => c === 32 || c === 10 || c === 13 || c === 9;
 
 /**
  * Decodes `text[start, end)` into exactly `bytes` bytes at `out[outStart…]`. Returns `bytes`, or a message
@@ -56,14 +54,9 @@ export async function decodeBase64InWindows(decode: Base64Batch, fetch: FetchTex
     while (s.windows.length < per && produced < total && next < end && used < s.text.length) {
       const len = Math.min(windowChars, end - next, s.text.length - used), w = s.text.subarray(used, used + len);
       await fetch(next, w);
-      // whole groups only, and no more groups than the array's bytes need
-      const needGroups = Math.ceil((total - produced) / 3);
-      let chars = 0, cut = 0, groups = 0;
-      for (; cut < len && groups < needGroups; cut++) {
-        if (isSpace(w[cut]!)) continue;
-        if (++chars % 4 === 0) groups++;
-      }
-      if (groups < needGroups) cut -= chars % 4 === 0 ? 0 : lastPartial(w, cut, chars % 4);
+      // whole groups only, and no more groups than the array's bytes need; no scan for whitespace here (it
+      // would cost this thread as much as decoding): a window holding some decodes short and fails
+      const groups = Math.min(len >> 2, Math.ceil((total - produced) / 3)), cut = 4 * groups;
       if (groups === 0) { failed = true; return; }
       const bytes = Math.min(3 * groups, total - produced);
       s.windows.push([used, used + cut, o, bytes]);
@@ -86,11 +79,4 @@ export async function decodeBase64InWindows(decode: Base64Batch, fetch: FetchTex
   }
   await Promise.all(slots.map((s) => s.answer?.catch(() => undefined)));
   return !failed && produced === total;
-}
-
-/** How many characters to step back from `cut` to drop the `partial` non-space characters of an unfinished group. */
-function lastPartial(w: Uint8Array, cut: number, partial: number): number {
-  let back = 0;
-  for (let p = cut - 1; p >= 0 && partial > 0; p--, back++) if (!isSpace(w[p]!)) partial--;
-  return back;
 }

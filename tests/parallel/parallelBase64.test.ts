@@ -2,7 +2,8 @@
  * Parallel decoding of uncompressed base64 arrays: files loaded with 1, 2 and 3 text workers hold exactly the
  * bytes of the one-thread load (base64 is a fixed mapping, RFC 4648 §4), read by ranges from disk and whole
  * from memory, with windows small enough that every array spans many of them. Inputs: the committed sample
- * fields rewritten as inline base64 and as appended base64 .vtu, the same with line breaks inside the text,
+ * fields rewritten as inline base64 and as appended base64 .vtu, the same with line breaks inside the text
+ * (decoded on one thread after the first batch fails, still the same arrays),
  * and external base64 files written by other programs (the vtu11 and vtkio libraries' test files). Bad text
  * is reported with the one-thread reader's message.
  */
@@ -101,11 +102,12 @@ describe.each([1, 2, 3])('loading with %i text worker(s)', (n) => {
   it.each(FILES)('%s: every array byte for byte as the one-thread load, from disk and from memory', async (_name, make) => {
     const file = await make();
     const one = await loadDatasetFile(file);
+    failed = 0;
     expectSameArrays(await loadDatasetFile(file, { decodeBase64 }), one);
     const bytes = new Uint8Array(readFileSync(file));
     expectSameArrays(await readDataset(file, bytes, { decodeBase64 }), one);
-    // padding inside an array's text sends it back to one thread; none of the samples' windows failed
-    if (_name.startsWith('sphere')) expect(failed).toBe(0);
+    // line breaks or padding inside an array's text send it back to one thread; other windows never fail
+    if (_name.startsWith('sphere') && !_name.includes('line breaks')) expect(failed).toBe(0);
   });
 
   it.each(['base64', 'appended-base64'] as const)('the sample field in %s went through the workers', async (encoding) => {
