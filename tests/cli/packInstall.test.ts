@@ -39,7 +39,7 @@ describe('npm pack → npm install -g → fieldtally', () => {
     expect(listed).toEqual([
       'package/README.md', 'package/bin/fieldtally.mjs', 'package/dist-cli/THIRD-PARTY-NOTICES.txt',
       'package/dist-cli/fieldtally.mjs', 'package/dist-cli/inflateWorker.mjs', 'package/dist-cli/seriesWorker.mjs',
-      'package/dist-cli/shareWorker.mjs', 'package/package.json', 'package/src/study/probeSet.schema.json',
+      'package/dist-cli/shareWorker.mjs', 'package/dist-cli/textWorker.mjs', 'package/package.json', 'package/src/study/probeSet.schema.json',
     ]);
     const shipped = JSON.parse(execFileSync('tar', ['-xzOf', tarball, 'package/package.json'], { encoding: 'utf8' })) as Record<string, unknown>;
     expect(shipped['dependencies']).toBeUndefined();
