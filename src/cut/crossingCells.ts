@@ -64,6 +64,9 @@ function scan(d: Dataset, ox: number, oy: number, oz: number, nx: number, ny: nu
     const p = d.pieces[k]!, np = p.points.length / 3;
     if (side.length < np) side = new Uint8Array(Math.max(np, 2 * side.length));
     pointSides(p.points, np, ox, oy, oz, nx, ny, nz, tol, side);
+    const m = uniformSize(p.cellTypes, p.offsets);
+    if (m === 8) { nFound = crossingOf8(p.connectivity, p.cellTypes.length, side, starts[k]!, nFound); continue; }
+    if (m === 4) { nFound = crossingOf4(p.connectivity, p.cellTypes.length, side, starts[k]!, nFound); continue; }
     const pf = p.polyFaces;
     nFound = crossingCellsOf(p.cellTypes, p.offsets, p.connectivity, pf?.faceConnectivity, pf?.faceOffsets, pf?.cellFaceStart, side, starts[k]!, nFound);
   }
@@ -79,6 +82,54 @@ function pointSides(pts: Float64Array, np: number, ox: number, oy: number, oz: n
     const s = nx * (pts[j]! - ox) + ny * (pts[j + 1]! - oy) + nz * (pts[j + 2]! - oz);
     out[i] = s <= tol && s >= -tol ? 2 : s < 0 ? 1 : 4;
   }
+}
+
+const uniformCache = new WeakMap<Int32Array, { types: Uint8Array; size: number }>();
+
+/**
+ * The node count of every cell when a piece holds only tetrahedra (4) or only hexahedra (8) stored back to
+ * back (offsets c·size), else 0. Checked once per offsets array (the arrays of a loaded piece never change),
+ * so the scan of such a piece can skip the per-cell type test and offset reads.
+ */
+export function uniformSize(types: Uint8Array, off: Int32Array): number {
+  const hit = uniformCache.get(off);
+  if (hit && hit.types === types) return hit.size;
+  const size = uniformSizeOf(types, off);
+  uniformCache.set(off, { types, size });
+  return size;
+}
+
+function uniformSizeOf(types: Uint8Array, off: Int32Array): number {
+  const nc = types.length;
+  if (nc === 0 || off.length !== nc + 1 || off[0] !== 0) return 0;
+  const t = types[0]!, m = t === CellType.TETRA ? 4 : t === CellType.HEXAHEDRON ? 8 : 0;
+  if (m === 0) return 0;
+  for (let c = 0; c < nc; c++) if (types[c] !== t || off[c + 1] !== m * (c + 1)) return 0;
+  return m;
+}
+
+function push(id: number, nFound: number): void {
+  if (nFound === found.length) { const g = new Int32Array(2 * found.length); g.set(found); found = g; }
+  found[nFound] = id;
+}
+
+/** `crossingCellsOf` for a piece of hexahedra only (8 nodes a cell, back to back); same test, same order. */
+function crossingOf8(conn: Int32Array, nc: number, side: Uint8Array, g0: number, nFound: number): number {
+  for (let c = 0, q = 0; c < nc; c++, q += 8) {
+    const m = side[conn[q]!]! | side[conn[q + 1]!]! | side[conn[q + 2]!]! | side[conn[q + 3]!]!
+      | side[conn[q + 4]!]! | side[conn[q + 5]!]! | side[conn[q + 6]!]! | side[conn[q + 7]!]!;
+    if (m === 3 || m >= 5) push(g0 + c, nFound++);
+  }
+  return nFound;
+}
+
+/** `crossingCellsOf` for a piece of tetrahedra only (4 nodes a cell, back to back); same test, same order. */
+function crossingOf4(conn: Int32Array, nc: number, side: Uint8Array, g0: number, nFound: number): number {
+  for (let c = 0, q = 0; c < nc; c++, q += 4) {
+    const m = side[conn[q]!]! | side[conn[q + 1]!]! | side[conn[q + 2]!]! | side[conn[q + 3]!]!;
+    if (m === 3 || m >= 5) push(g0 + c, nFound++);
+  }
+  return nFound;
 }
 
 /** Appends to `found` (from `nFound`) the global ids (`g0` + local) of the 3D cells with nodes on both sides; returns the new count. */
