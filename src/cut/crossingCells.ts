@@ -21,6 +21,7 @@
 import { cellDimension, CellType } from '../model/cellTypes.ts';
 import { cellStarts, type Dataset } from '../model/dataset.ts';
 import { cellsCrossingPlane, getCellTree, hasCellTree } from '../locate/cellTree.ts';
+import { uniformSize } from '../model/uniformCells.ts';
 
 export type CandidateSource = 'auto' | 'tree' | 'scan';
 
@@ -82,30 +83,6 @@ function pointSides(pts: Float64Array, np: number, ox: number, oy: number, oz: n
     const s = nx * (pts[j]! - ox) + ny * (pts[j + 1]! - oy) + nz * (pts[j + 2]! - oz);
     out[i] = s <= tol && s >= -tol ? 2 : s < 0 ? 1 : 4;
   }
-}
-
-const uniformCache = new WeakMap<Int32Array, { types: Uint8Array; size: number }>();
-
-/**
- * The node count of every cell when a piece holds only tetrahedra (4) or only hexahedra (8) stored back to
- * back (offsets c·size), else 0. Checked once per offsets array (the arrays of a loaded piece never change),
- * so the scan of such a piece can skip the per-cell type test and offset reads.
- */
-export function uniformSize(types: Uint8Array, off: Int32Array): number {
-  const hit = uniformCache.get(off);
-  if (hit && hit.types === types) return hit.size;
-  const size = uniformSizeOf(types, off);
-  uniformCache.set(off, { types, size });
-  return size;
-}
-
-function uniformSizeOf(types: Uint8Array, off: Int32Array): number {
-  const nc = types.length;
-  if (nc === 0 || off.length !== nc + 1 || off[0] !== 0) return 0;
-  const t = types[0]!, m = t === CellType.TETRA ? 4 : t === CellType.HEXAHEDRON ? 8 : 0;
-  if (m === 0) return 0;
-  for (let c = 0; c < nc; c++) if (types[c] !== t || off[c + 1] !== m * (c + 1)) return 0;
-  return m;
 }
 
 function push(id: number, nFound: number): void {
