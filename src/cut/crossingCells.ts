@@ -21,7 +21,7 @@
 import { cellDimension, CellType } from '../model/cellTypes.ts';
 import { cellStarts, type Dataset } from '../model/dataset.ts';
 import { cellsCrossingPlane, getCellTree, hasCellTree } from '../locate/cellTree.ts';
-import { uniformSize } from '../model/uniformCells.ts';
+import { cellLayout } from '../model/uniformCells.ts';
 
 export type CandidateSource = 'auto' | 'tree' | 'scan';
 
@@ -64,10 +64,12 @@ function scan(d: Dataset, ox: number, oy: number, oz: number, nx: number, ny: nu
   for (let k = 0; k < d.pieces.length; k++) {
     const p = d.pieces[k]!, np = p.points.length / 3;
     if (side.length < np) side = new Uint8Array(Math.max(np, 2 * side.length));
-    pointSides(p.points, np, ox, oy, oz, nx, ny, nz, tol, side);
-    const m = uniformSize(p.cellTypes, p.offsets);
-    if (m === 8) { nFound = crossingOf8(p.connectivity, p.cellTypes.length, side, starts[k]!, nFound); continue; }
-    if (m === 4) { nFound = crossingOf4(p.connectivity, p.cellTypes.length, side, starts[k]!, nFound); continue; }
+    // Only the points this piece's cells use (a worker's share of the cells reaches part of the points).
+    const lay = cellLayout(p);
+    pointSides(p.points, lay.firstPoint, lay.endPoint, ox, oy, oz, nx, ny, nz, tol, side);
+    const m = lay.size;
+    if (m === 8) { nFound = crossingOf8(p.connectivity, lay.base, p.cellTypes.length, side, starts[k]!, nFound); continue; }
+    if (m === 4) { nFound = crossingOf4(p.connectivity, lay.base, p.cellTypes.length, side, starts[k]!, nFound); continue; }
     const pf = p.polyFaces;
     nFound = crossingCellsOf(p.cellTypes, p.offsets, p.connectivity, pf?.faceConnectivity, pf?.faceOffsets, pf?.cellFaceStart, side, starts[k]!, nFound);
   }
@@ -78,8 +80,8 @@ function scan(d: Dataset, ox: number, oy: number, oz: number, nx: number, ny: nu
  * One byte per point (1 below, 2 on, 4 above), so the per-cell pass ORs bytes instead of comparing doubles.
  * Each pass is its own small function so the engine optimises its loop on the first large file.
  */
-function pointSides(pts: Float64Array, np: number, ox: number, oy: number, oz: number, nx: number, ny: number, nz: number, tol: number, out: Uint8Array): void {
-  for (let i = 0, j = 0; i < np; i++, j += 3) {
+function pointSides(pts: Float64Array, first: number, end: number, ox: number, oy: number, oz: number, nx: number, ny: number, nz: number, tol: number, out: Uint8Array): void {
+  for (let i = first, j = 3 * first; i < end; i++, j += 3) {
     const s = nx * (pts[j]! - ox) + ny * (pts[j + 1]! - oy) + nz * (pts[j + 2]! - oz);
     out[i] = s <= tol && s >= -tol ? 2 : s < 0 ? 1 : 4;
   }
@@ -91,8 +93,8 @@ function push(id: number, nFound: number): void {
 }
 
 /** `crossingCellsOf` for a piece of hexahedra only (8 nodes a cell, back to back); same test, same order. */
-function crossingOf8(conn: Int32Array, nc: number, side: Uint8Array, g0: number, nFound: number): number {
-  for (let c = 0, q = 0; c < nc; c++, q += 8) {
+function crossingOf8(conn: Int32Array, base: number, nc: number, side: Uint8Array, g0: number, nFound: number): number {
+  for (let c = 0, q = base; c < nc; c++, q += 8) {
     const m = side[conn[q]!]! | side[conn[q + 1]!]! | side[conn[q + 2]!]! | side[conn[q + 3]!]!
       | side[conn[q + 4]!]! | side[conn[q + 5]!]! | side[conn[q + 6]!]! | side[conn[q + 7]!]!;
     if (m === 3 || m >= 5) push(g0 + c, nFound++);
@@ -101,8 +103,8 @@ function crossingOf8(conn: Int32Array, nc: number, side: Uint8Array, g0: number,
 }
 
 /** `crossingCellsOf` for a piece of tetrahedra only (4 nodes a cell, back to back); same test, same order. */
-function crossingOf4(conn: Int32Array, nc: number, side: Uint8Array, g0: number, nFound: number): number {
-  for (let c = 0, q = 0; c < nc; c++, q += 4) {
+function crossingOf4(conn: Int32Array, base: number, nc: number, side: Uint8Array, g0: number, nFound: number): number {
+  for (let c = 0, q = base; c < nc; c++, q += 4) {
     const m = side[conn[q]!]! | side[conn[q + 1]!]! | side[conn[q + 2]!]! | side[conn[q + 3]!]!;
     if (m === 3 || m >= 5) push(g0 + c, nFound++);
   }

@@ -163,10 +163,10 @@ const RANGE = new Int32Array(2);
 function mortonCodes(p: Piece, g0: number, ox: number, oy: number, oz: number, scale: number, roundPad: number, codes: Uint32Array, boxes: Float32Array): number {
   const pts = p.points, types = p.cellTypes, off = p.offsets, conn = p.connectivity, nc = types.length;
   // Pieces of only tetrahedra or only hexahedra: fixed stride through connectivity, no type or offset reads.
-  const m = uniformSize(types, off);
+  const m = uniformSize(types, off), base = off[0] ?? 0;
   let volume = m > 0 ? nc : 0;
   for (let c = 0; c < nc; c++) {
-    let a = m * c, b = a + m, ids = conn;
+    let a = base + m * c, b = a + m, ids = conn;
     if (m === 0) {
       const type = types[c]!;
       volume += DIM3[type]!;

@@ -11,6 +11,7 @@ import { CellType } from '../../src/model/cellTypes.ts';
 import { datasetOf, hexGrid, pieceFromCells, tetGrid } from '../../src/model/meshBuild.ts';
 import type { Dataset } from '../../src/model/dataset.ts';
 import type { Piece } from '../../src/model/piece.ts';
+import { shareDataset, splitCells } from '../../src/parallel/shares.ts';
 import { jitteredHex, jitteredTet, rng } from '../locate/meshes.ts';
 
 type V3 = [number, number, number];
@@ -74,5 +75,11 @@ describe('candidateCells scan', () => {
     const nodes = [Array.from(h.connectivity.subarray(0, 8)), Array.from(h.connectivity.subarray(8, 12)), Array.from(h.connectivity.subarray(16, 22))];
     const mixed = pieceFromCells(h.points, { types: [CellType.HEXAHEDRON, CellType.TETRA, CellType.WEDGE], nodes });
     expectSame(datasetOf([jitteredTet(3), mixed, jitteredHex(3)]), 5);
+  });
+
+  it('selects exactly the rule\'s cells on a worker\'s share of the cells (views; only the share\'s points classified)', () => {
+    for (const d of [datasetOf([jitteredHex(5)]), datasetOf([jitteredTet(4)]), datasetOf([jitteredTet(3), jitteredHex(3)])]) {
+      for (const share of splitCells(d.pieces.reduce((n, p) => n + p.cellTypes.length, 0), 3)) expectSame(shareDataset(d, share), 6);
+    }
   });
 });

@@ -5,7 +5,7 @@
 import { describe, expect, it } from 'vitest';
 import { CellType } from '../../src/model/cellTypes.ts';
 import { hexGrid, pieceFromCells, tetGrid } from '../../src/model/meshBuild.ts';
-import { uniformSize } from '../../src/model/uniformCells.ts';
+import { cellLayout, uniformSize } from '../../src/model/uniformCells.ts';
 
 describe('uniformSize', () => {
   it('is 8 for a piece of hexahedra and 4 for a piece of tetrahedra', () => {
@@ -32,5 +32,16 @@ describe('uniformSize', () => {
     const off = Int32Array.of(0, 4, 8);
     expect(uniformSize(Uint8Array.of(10, 10), off)).toBe(4);
     expect(uniformSize(Uint8Array.of(10, 9), off)).toBe(0);
+  });
+});
+
+describe('cellLayout', () => {
+  it('gives the stride, the first offset and the point ids used by a share of the cells', () => {
+    const h = hexGrid(4, 1, 1), np = h.points.length / 3;
+    expect(cellLayout(h)).toEqual({ size: 8, base: 0, firstPoint: 0, endPoint: np });
+    // the last two cells as a share's views (offsets and types narrowed, connectivity and points whole)
+    const view = { ...h, cellTypes: h.cellTypes.subarray(2, 4), offsets: h.offsets.subarray(2, 5) };
+    const ids = Array.from(h.connectivity.subarray(16, 32));
+    expect(cellLayout(view)).toEqual({ size: 8, base: 16, firstPoint: Math.min(...ids), endPoint: Math.max(...ids) + 1 });
   });
 });
