@@ -58,6 +58,11 @@ export function candidateCells(d: Dataset, ox: number, oy: number, oz: number, n
   return { cells: scan(d, ox, oy, oz, nx, ny, nz, tol), used: 'scan' };
 }
 
+/** Computes now what the first scan of `d` would (each piece's `cellLayout`), e.g. while a worker takes on its share. */
+export function prepareScan(d: Dataset): void {
+  for (const p of d.pieces) cellLayout(p);
+}
+
 function scan(d: Dataset, ox: number, oy: number, oz: number, nx: number, ny: number, nz: number, tol: number): Int32Array {
   const starts = cellStarts(d);
   let nFound = 0;
