@@ -5,17 +5,28 @@
  *  - `tree`: the flat bounding-box tree of `src/locate/cellTree.ts` (built once per dataset, then each query
  *    visits only the boxes the plane touches);
  *  - `scan`: signed distances of every point, then a sign test per cell — no set-up cost, a full pass per cut.
- * `auto` uses the tree when it is already built for this dataset (by a cut or a probe), and otherwise scans while it is cheap
- * (the first cuts of a file), building the tree on the cut that follows `AUTO_SCANS` scans.
+ * `auto` uses the tree when it is already built for this dataset (by a probe, or by an earlier cut), and
+ * otherwise scans, building the tree only on the cut that follows `AUTO_SCANS` scans of the same dataset.
+ *
+ * Why `AUTO_SCANS` is 12 (measured on the 1M-cell benchmark files, pipe-hex-1M appended raw, CPU time of
+ * one process, warm kernels, machine under load): the tree build costs about 335 ms; a cut whose
+ * candidates come from the scan costs 34 ms (near cross-section) to 65 ms (oblique plane through the
+ * axis), from the tree 6 to 47 ms — the tree saves 18–28 ms a cut. Building it on the second cut (the
+ * old setting) made that cut six times slower than a scan. Renting the scan until the rent paid reaches
+ * about the purchase price (twelve cuts × ~25 ms ≈ the build) never costs more than twice the better of
+ * the two choices made in hindsight (the classic rent-or-buy bound), and a session that drags a plane
+ * through a large file still gets the tree after a dozen frames. A line or point probe builds the tree
+ * anyway; every cut after that uses it.
  */
 import { cellDimension, CellType } from '../model/cellTypes.ts';
 import { cellStarts, type Dataset } from '../model/dataset.ts';
 import { cellsCrossingPlane, getCellTree, hasCellTree } from '../locate/cellTree.ts';
+import { cellLayout } from '../model/uniformCells.ts';
 
 export type CandidateSource = 'auto' | 'tree' | 'scan';
 
-/** Scans allowed per dataset before `auto` builds the tree (the first cut stays fast; dragging then gets the tree). */
-export const AUTO_SCANS = 1;
+/** Scans allowed per dataset before `auto` builds the tree (see the file comment for the measurement behind it). */
+export const AUTO_SCANS = 12;
 
 const scansDone = new WeakMap<Dataset, number>();
 
@@ -47,13 +58,23 @@ export function candidateCells(d: Dataset, ox: number, oy: number, oz: number, n
   return { cells: scan(d, ox, oy, oz, nx, ny, nz, tol), used: 'scan' };
 }
 
+/** Computes now what the first scan of `d` would (each piece's `cellLayout`), e.g. while a worker takes on its share. */
+export function prepareScan(d: Dataset): void {
+  for (const p of d.pieces) cellLayout(p);
+}
+
 function scan(d: Dataset, ox: number, oy: number, oz: number, nx: number, ny: number, nz: number, tol: number): Int32Array {
   const starts = cellStarts(d);
   let nFound = 0;
   for (let k = 0; k < d.pieces.length; k++) {
     const p = d.pieces[k]!, np = p.points.length / 3;
     if (side.length < np) side = new Uint8Array(Math.max(np, 2 * side.length));
-    pointSides(p.points, np, ox, oy, oz, nx, ny, nz, tol, side);
+    // Only the points this piece's cells use (a worker's share of the cells reaches part of the points).
+    const lay = cellLayout(p);
+    pointSides(p.points, lay.firstPoint, lay.endPoint, ox, oy, oz, nx, ny, nz, tol, side);
+    const m = lay.size;
+    if (m === 8) { nFound = crossingOf8(p.connectivity, lay.base, p.cellTypes.length, side, starts[k]!, nFound); continue; }
+    if (m === 4) { nFound = crossingOf4(p.connectivity, lay.base, p.cellTypes.length, side, starts[k]!, nFound); continue; }
     const pf = p.polyFaces;
     nFound = crossingCellsOf(p.cellTypes, p.offsets, p.connectivity, pf?.faceConnectivity, pf?.faceOffsets, pf?.cellFaceStart, side, starts[k]!, nFound);
   }
@@ -64,11 +85,35 @@ function scan(d: Dataset, ox: number, oy: number, oz: number, nx: number, ny: nu
  * One byte per point (1 below, 2 on, 4 above), so the per-cell pass ORs bytes instead of comparing doubles.
  * Each pass is its own small function so the engine optimises its loop on the first large file.
  */
-function pointSides(pts: Float64Array, np: number, ox: number, oy: number, oz: number, nx: number, ny: number, nz: number, tol: number, out: Uint8Array): void {
-  for (let i = 0, j = 0; i < np; i++, j += 3) {
+function pointSides(pts: Float64Array, first: number, end: number, ox: number, oy: number, oz: number, nx: number, ny: number, nz: number, tol: number, out: Uint8Array): void {
+  for (let i = first, j = 3 * first; i < end; i++, j += 3) {
     const s = nx * (pts[j]! - ox) + ny * (pts[j + 1]! - oy) + nz * (pts[j + 2]! - oz);
     out[i] = s <= tol && s >= -tol ? 2 : s < 0 ? 1 : 4;
   }
+}
+
+function push(id: number, nFound: number): void {
+  if (nFound === found.length) { const g = new Int32Array(2 * found.length); g.set(found); found = g; }
+  found[nFound] = id;
+}
+
+/** `crossingCellsOf` for a piece of hexahedra only (8 nodes a cell, back to back); same test, same order. */
+function crossingOf8(conn: Int32Array, base: number, nc: number, side: Uint8Array, g0: number, nFound: number): number {
+  for (let c = 0, q = base; c < nc; c++, q += 8) {
+    const m = side[conn[q]!]! | side[conn[q + 1]!]! | side[conn[q + 2]!]! | side[conn[q + 3]!]!
+      | side[conn[q + 4]!]! | side[conn[q + 5]!]! | side[conn[q + 6]!]! | side[conn[q + 7]!]!;
+    if (m === 3 || m >= 5) push(g0 + c, nFound++);
+  }
+  return nFound;
+}
+
+/** `crossingCellsOf` for a piece of tetrahedra only (4 nodes a cell, back to back); same test, same order. */
+function crossingOf4(conn: Int32Array, base: number, nc: number, side: Uint8Array, g0: number, nFound: number): number {
+  for (let c = 0, q = base; c < nc; c++, q += 4) {
+    const m = side[conn[q]!]! | side[conn[q + 1]!]! | side[conn[q + 2]!]! | side[conn[q + 3]!]!;
+    if (m === 3 || m >= 5) push(g0 + c, nFound++);
+  }
+  return nFound;
 }
 
 /** Appends to `found` (from `nFound`) the global ids (`g0` + local) of the 3D cells with nodes on both sides; returns the new count. */

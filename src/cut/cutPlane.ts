@@ -27,7 +27,7 @@ import { CellType, FACE_TABLE } from '../model/cellTypes.ts';
 import { datasetBounds, boundsDiagonal } from '../model/bounds.ts';
 import { cellStarts, pieceOfCell, pointStarts, type Dataset } from '../model/dataset.ts';
 import type { Piece } from '../model/piece.ts';
-import { candidateCells, type CandidateSource } from './crossingCells.ts';
+import { candidateCells, prepareScan, type CandidateSource } from './crossingCells.ts';
 import { interpolateCutFields, type FieldRef } from './cutFields.ts';
 import { claimedFaceKeys, facePositionKey, forEachUnclaimedFace, recordPlaneFace, resetPlaneFaces } from './planeFaces.ts';
 import { fillPolygon } from './polygonFill.ts';
@@ -372,6 +372,15 @@ export function datasetScale(d: Dataset): number {
   let s = scaleCache.get(d);
   if (s === undefined) { s = boundsDiagonal(datasetBounds(d)); scaleCache.set(d, s); }
   return s;
+}
+
+/**
+ * Does now the once-per-dataset set-up of the first cut (the length scale for the tolerance, the cell layout
+ * of each piece for the scan), so that a worker taking on a dataset pays it with the load, not the first cut.
+ */
+export function prepareCut(dataset: Dataset): void {
+  datasetScale(dataset);
+  prepareScan(dataset);
 }
 
 /**

@@ -8,7 +8,8 @@
  * the kernels their type feedback and their optimised code in about 0.1 s. The mesh goes through the XML
  * writer and reader so its pieces have the same shape as a loaded file's.
  *
- * The worker runs this once, when it is otherwise idle; the result of the warm-up is thrown away.
+ * The app's compute worker runs this once, when it is otherwise idle; the pool's share workers run it as they
+ * start (`src/parallel/shareHost.ts`), while the file is still being read. The result is thrown away.
  */
 import { readDataset } from '../io/readDataset.ts';
 import { writeVtu } from '../io/writeVtu.ts';

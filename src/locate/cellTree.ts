@@ -30,6 +30,7 @@ import { datasetBounds, isEmptyBounds } from '../model/bounds.ts';
 import { cellStarts, type Dataset } from '../model/dataset.ts';
 import { geometryOnly, meshKey, type MeshKey } from '../model/meshKey.ts';
 import type { Piece } from '../model/piece.ts';
+import { uniformSize } from '../model/uniformCells.ts';
 import { lattice, MORTON, radixSort30 } from './mortonOrder.ts';
 
 export { cellsAlongSegment, cellsAtPoint, cellsCrossingPlane, cellsInBox, leafBoxes } from './treeWalks.ts';
@@ -161,12 +162,17 @@ const RANGE = new Int32Array(2);
  */
 function mortonCodes(p: Piece, g0: number, ox: number, oy: number, oz: number, scale: number, roundPad: number, codes: Uint32Array, boxes: Float32Array): number {
   const pts = p.points, types = p.cellTypes, off = p.offsets, conn = p.connectivity, nc = types.length;
-  let volume = 0;
+  // Pieces of only tetrahedra or only hexahedra: fixed stride through connectivity, no type or offset reads.
+  const m = uniformSize(types, off), base = off[0] ?? 0;
+  let volume = m > 0 ? nc : 0;
   for (let c = 0; c < nc; c++) {
-    const type = types[c]!;
-    volume += DIM3[type]!;
-    let a = off[c]!, b = off[c + 1]!, ids = conn;
-    if (a === b && type === CellType.POLYHEDRON) { ids = idsOf(p, c, RANGE); a = RANGE[0]!; b = RANGE[1]!; }
+    let a = base + m * c, b = a + m, ids = conn;
+    if (m === 0) {
+      const type = types[c]!;
+      volume += DIM3[type]!;
+      a = off[c]!; b = off[c + 1]!;
+      if (a === b && type === CellType.POLYHEDRON) { ids = idsOf(p, c, RANGE); a = RANGE[0]!; b = RANGE[1]!; }
+    }
     let x0 = Infinity, x1 = -Infinity, y0 = Infinity, y1 = -Infinity, z0 = Infinity, z1 = -Infinity;
     for (let q = a; q < b; q++) {
       const i = 3 * ids[q]!, x = pts[i]!, y = pts[i + 1]!, z = pts[i + 2]!;

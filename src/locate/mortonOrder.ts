@@ -23,35 +23,35 @@ export function lattice(v: number): number {
   return q < 0 ? 0 : q > 1023 ? 1023 : q | 0;
 }
 
+/** Bits per counting-sort pass: two passes cover the 30-bit codes; 2^15 counters (128 kB) stay in cache. */
+const DIGIT = 15, DIGITS = 1 << DIGIT, MASK = DIGITS - 1;
+
 /**
- * Sorts `keys` (30-bit codes) ascending and applies the same permutation to `vals`, stably, in three
- * 10-bit passes. `keyB`/`valB` are scratch of the same length (they may be views into a buffer the
- * caller reuses afterwards). The result is left in `keys`/`vals`.
+ * Sorts `keys` (30-bit codes) ascending and applies the same permutation to `vals`, stably, in two
+ * 15-bit counting-sort passes (linear in the count, no comparisons). `keyB`/`valB` are scratch of the
+ * same length (they may be views into a buffer the caller reuses afterwards). Both histograms come from
+ * one read of the keys. The result is left in `keys`/`vals`.
  */
 export function radixSort30(keys: Uint32Array, vals: Int32Array, keyB: Uint32Array, valB: Int32Array): void {
-  const count = new Int32Array(1025);
-  let ka = keys, va = vals, kb = keyB, vb = valB;
-  for (let shift = 0; shift < 30; shift += 10) {
-    countDigits(ka, shift, count);
-    scatter(ka, va, kb, vb, shift, count);
-    const tk = ka; ka = kb; kb = tk;
-    const tv = va; va = vb; vb = tv;
-  }
-  // Three passes end in the scratch arrays: copy back.
-  keys.set(ka);
-  vals.set(va);
+  const low = new Int32Array(DIGITS + 1), high = new Int32Array(DIGITS + 1);
+  countDigits(keys, low, high);
+  scatter(keys, vals, keyB, valB, 0, low);
+  scatter(keyB, valB, keys, vals, DIGIT, high);
 }
 
-/** Start of each 10-bit digit value (at `shift`) in the output: exclusive prefix sums in count[0..1023]. */
-function countDigits(keys: Uint32Array, shift: number, count: Int32Array): void {
-  count.fill(0);
-  for (let i = 0, n = keys.length; i < n; i++) count[((keys[i]! >>> shift) & 1023) + 1]++;
-  for (let d = 0; d < 1024; d++) count[d + 1] += count[d]!;
+/** Start of each digit value in the output, for the low and high 15 bits: exclusive prefix sums. */
+function countDigits(keys: Uint32Array, low: Int32Array, high: Int32Array): void {
+  for (let i = 0, n = keys.length; i < n; i++) {
+    const k = keys[i]!;
+    low[(k & MASK) + 1]++;
+    high[((k >>> DIGIT) & MASK) + 1]++;
+  }
+  for (let d = 0; d < DIGITS; d++) { low[d + 1] += low[d]!; high[d + 1] += high[d]!; }
 }
 
 function scatter(keyA: Uint32Array, valA: Int32Array, keyB: Uint32Array, valB: Int32Array, shift: number, count: Int32Array): void {
   for (let i = 0, n = keyA.length; i < n; i++) {
-    const k = keyA[i]!, pos = count[(k >>> shift) & 1023]++;
+    const k = keyA[i]!, pos = count[(k >>> shift) & MASK]++;
     keyB[pos] = k; valB[pos] = valA[i]!;
   }
 }

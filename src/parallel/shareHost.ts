@@ -9,7 +9,8 @@
 import type { Dataset } from '../model/dataset.ts';
 import { boundaryShare, cutShare, lineShare, type LineShareOptions } from './shareTasks.ts';
 import { shareDataset, type CellShare } from './shares.ts';
-import type { CutOptions } from '../cut/cutPlane.ts';
+import { prepareCut, type CutOptions } from '../cut/cutPlane.ts';
+import { warmUpCutKernels } from '../cut/warmUp.ts';
 import type { Vec3 } from '../cut/triangleSet.ts';
 import { evaluateProbeSet, type EvaluateOptions } from '../study/evaluate.ts';
 import type { ProbeSet } from '../study/probeSet.ts';
@@ -45,11 +46,18 @@ function transferables(x: unknown, out: Set<ArrayBuffer>, depth = 0): void {
 /** What a worker reports about its memory (bytes), where the platform can tell: JS heap in use and its own (non-shared) array buffers. */
 export interface WorkerMemory { heapUsed: number; external: number; arrayBuffers: number }
 
-/** Serves the pool's requests on `port` until the worker ends. `memory` reports this worker's memory when the platform can tell. */
-export function serveShares(port: SharePort, memory: () => WorkerMemory | null = () => null): void {
+/**
+ * Serves the pool's requests on `port` until the worker ends. `memory` reports this worker's memory when the
+ * platform can tell. `warmUp` runs first (default: `warmUpCutKernels`, about 0.1 s): a pool's workers start
+ * while the file is still being read, so their cut kernels are optimised by the time the first cut arrives
+ * instead of running cold over their share (the cold first cut made two workers slower than one thread).
+ * Requests wait for it and are answered one at a time, in order; a failed warm-up only leaves the kernels cold.
+ */
+export function serveShares(port: SharePort, memory: () => WorkerMemory | null = () => null,
+  warmUp: () => Promise<void> = warmUpCutKernels): void {
   let whole: Dataset | undefined, share: Dataset | undefined, range: CellShare | undefined;
   const run = (m: ShareRequest): unknown => {
-    if (m.op === 'hold') { whole = m.dataset; range = m.share; share = shareDataset(whole, range); return null; }
+    if (m.op === 'hold') { whole = m.dataset; range = m.share; share = shareDataset(whole, range); prepareCut(share); return null; }
     if (m.op === 'memory') return memory();
     // whole probes on the whole dataset (probeSetShares.ts): the single-thread path, bit for bit
     if (m.op === 'evaluate') { if (!whole) throw new Error('worker pool: no dataset is held by this worker'); return evaluateProbeSet(whole, m.set, m.options); }
@@ -58,7 +66,7 @@ export function serveShares(port: SharePort, memory: () => WorkerMemory | null =
     if (m.op === 'line') return lineShare(share, range, m.from, m.to, m.options);
     return boundaryShare(share, range, m.withMerge);
   };
-  port.onMessage((m) => {
+  const answer = (m: ShareMessage): void => {
     let reply: ShareReply, transfer: ArrayBuffer[] = [];
     try {
       const result = run(m);
@@ -71,5 +79,7 @@ export function serveShares(port: SharePort, memory: () => WorkerMemory | null =
       reply = { id: m.id, ok: false, error: e instanceof Error ? e.message : String(e) };
     }
     port.postMessage(reply, transfer);
-  });
+  };
+  let queue: Promise<void> = warmUp().catch(() => undefined);
+  port.onMessage((m) => { queue = queue.then(() => answer(m)); });
 }
