@@ -67,3 +67,12 @@ export function pointGradientAt(p: Piece, f: FieldArray, nodes: Int32Array): Flo
   gradientInto(out, 0, s.positions, f.values, f.components, s.stencil, nodes, 0, nodes.length);
   return out;
 }
+
+/**
+ * Hands the gradient cache a gradient computed elsewhere (the worker pool's shares, src/parallel/deriveShares.ts)
+ * for the point or cell field whose values array is `values`: `g` in the layout of `fieldGradient`, which then
+ * returns it instead of computing it again.
+ */
+export function primeGradient(values: object, g: Float64Array): void {
+  gradients.set(values, g);
+}
