@@ -4,13 +4,13 @@
  * (src/parallel/deriveShares.ts), each filling its own slice of one shared result.
  *
  * A range needs its nodes' one-rings and, for the nodes whose fit widens to the two-ring, their neighbours'
- * rows too: `pointStencilAround` gives exactly those rows of the whole piece's stencil, in the same order, so
+ * rows too: `pointStencilOfRange` (localStencil.ts) gives exactly those rows of the whole piece's stencil, in the same order, so
  * every node's fit — and its result, bit for bit — is the one the whole-piece gradient gives, whichever
  * range (and worker) computes it.
  */
 import type { NumericArray } from '../model/fieldArray.ts';
 import type { Piece } from '../model/piece.ts';
-import { pointStencilAround } from './localStencil.ts';
+import { pointStencilOfRange } from './localStencil.ts';
 import { gradientInto } from './quadraticGradient.ts';
 
 /**
@@ -23,9 +23,7 @@ export function pointGradientRange(p: Piece, values: NumericArray, nc: number, f
   if (!(from >= 0 && to <= np && from <= to)) throw new Error(`gradient: node range ${from}..${to} is outside the piece's ${np} nodes`);
   if (out.length !== 3 * nc * np) throw new Error(`gradient: result holds ${out.length} values, expected ${3 * nc * np} (${np} nodes × ${3 * nc})`);
   if (from === to) return;
-  const nodes = new Int32Array(to - from);
-  for (let k = 0; k < nodes.length; k++) nodes[k] = from + k;
-  const stencil = pointStencilAround(p, nodes);
+  const stencil = pointStencilOfRange(p, from, to);
   gradientInto(out, 3 * nc * from, p.points, values, nc, stencil, undefined, from, to);
 }
 

@@ -7,6 +7,8 @@
 import { describe, expect, it } from 'vitest';
 import { fieldGradient } from '../../src/derive/fieldGradient.ts';
 import { nodeRanges, pointGradientRange } from '../../src/derive/rangeGradient.ts';
+import { pointStencilOfRange } from '../../src/derive/localStencil.ts';
+import { pointStencil } from '../../src/derive/stencils.ts';
 import { hexGrid, pointFieldFrom, tetGrid, withFields } from '../../src/model/meshBuild.ts';
 import type { Piece } from '../../src/model/piece.ts';
 
@@ -45,6 +47,18 @@ describe('pointGradientRange', () => {
       });
     }
   }
+
+  it('a range stencil holds exactly the whole stencil\'s rows of the range and its neighbours, the rest empty', () => {
+    for (const [, p] of meshes) {
+      const whole = pointStencil(p), np = p.points.length / 3;
+      const row = (st: typeof whole, i: number) => Array.from(st.ids.subarray(st.offsets[i]!, st.offsets[i + 1]!));
+      for (const [from, to] of [[0, 1], [Math.floor(np / 3), Math.floor(np / 2)], [np - 5, np]] as const) {
+        const part = pointStencilOfRange(p, from, to), needed = new Set<number>();
+        for (let i = from; i < to; i++) { needed.add(i); for (const j of row(whole, i)) needed.add(j); }
+        for (let i = 0; i < np; i++) expect(row(part, i)).toEqual(needed.has(i) ? row(whole, i) : []);
+      }
+    }
+  });
 
   it('splits nodes into contiguous near-equal ranges', () => {
     expect(Array.from(nodeRanges(10, 3))).toEqual([0, 3, 7, 10]);
