@@ -10,7 +10,10 @@
  *    `thirdRequest` (the same wall asked again), `newStepSameMesh` (best of three new velocity arrays on the
  *    same geometry). Later requests reuse the wall's fit as an operator (src/surface/wallGradientCache.ts)
  *    when its plan fits the size limit there; otherwise they fit afresh.
- * Every figure is wall time and CPU time (process.cpuUsage) of one thread; the machine is shared, so CPU time
+ *  - the same vorticity and Q with the gradient computed by the worker pool (1 and 2 workers, each filling a
+ *    range of nodes of a shared result; src/parallel/deriveShares.ts): `cold` on a fresh pool and mesh. Pool
+ *    start-up and the copy into shared memory are not timed; CPU time there is the whole process's (workers included).
+ * Every figure is wall time and CPU time (process.cpuUsage: the whole process, every thread); the machine is shared, so CPU time
  * is the steadier figure. Mesh and field building are not timed.
  */
 import { withDerivedFields } from '../src/derive/derivedFields.ts';
@@ -19,6 +22,8 @@ import type { Dataset } from '../src/model/dataset.ts';
 import { getBoundaryFaces, getSurfaceGroups } from '../src/surface/surfaceCache.ts';
 import { facesOfGroups } from '../src/surface/surfaceGroups.ts';
 import { wallQuantities } from '../src/surface/wallQuantities.ts';
+import { openNodePool } from '../src/parallel/nodePool.ts';
+import { primeDerivedGradients } from '../src/parallel/deriveShares.ts';
 
 interface Timing { ms: number; cpuMs: number }
 
@@ -62,6 +67,15 @@ export async function run(): Promise<Record<string, unknown>> {
     const d3 = step(d2, 1.5);
     const sameMesh = timed(() => { withDerivedFields(d3, names); });
     out.vorticityAndQOn1MHexahedra = { cells: 1_000_000, nodes: 101 ** 3, goalMs: 500, threads: 1, cold, secondFreshMesh: second, newStepSameMesh: sameMesh };
+    for (const workers of [1, 2]) {
+      const pool = await openNodePool(make(), workers);
+      const c0 = process.cpuUsage(), t0 = performance.now();
+      await primeDerivedGradients(pool, names);
+      withDerivedFields(pool.dataset, names);
+      const c = process.cpuUsage(c0);
+      await pool.close();
+      out[`vorticityAndQOn1MHexahedraPool${workers}`] = { cells: 1_000_000, goalMs: 500, workers, cold: { ms: performance.now() - t0, cpuMsAllThreads: (c.user + c.system) / 1000 } };
+    }
   }
   {
     const d = datasetOf([flow(hexGrid(224, 224, 1, (u, v, w) => [u, v, 0.01 * w]))], 'slab 224×224×1');

@@ -44,6 +44,7 @@ import type { InputFile } from './api.ts';
 import { drawFaces, drawTriangleSet, faceValues, surfaceCellFaces, type FaceList } from '../src/surface/surfaceDrawing.ts';
 import { planPool, POOL_MIN_CELLS, workersFromName, type PoolPlan } from '../src/parallel/poolPlan.ts';
 import type { ComputePool } from '../src/parallel/pool.ts';
+import { primeDerivedGradients } from '../src/parallel/deriveShares.ts';
 import { totalCells } from '../src/model/dataset.ts';
 import { openBrowserPool } from './sharePool.ts';
 
@@ -391,6 +392,8 @@ export function createComputeApi(): ComputeApi {
     async deriveFields(request: DeriveRequest): Promise<Description> {
       const h = need();
       if (!Array.isArray(request.names) || request.names.some((n) => typeof n !== 'string')) throw new Error('derived fields: expected a list of field names');
+      // with share workers, they compute the velocity gradient (src/parallel/deriveShares.ts); same values
+      if (h.pool) await primeDerivedGradients(h.pool, request.names, { velocity: request.velocity || undefined });
       const dataset = withDerivedFields(h.dataset, request.names, {
         velocity: request.velocity || undefined, pressure: request.pressure || undefined, density: request.density, reference: request.reference ?? {},
       });
@@ -401,6 +404,8 @@ export function createComputeApi(): ComputeApi {
 
     async attachFields(request: FieldsRequest): Promise<FieldsReply> {
       const h = need(), base = h.base ?? h.dataset;
+      // with share workers, they compute the velocity gradient first; a field that cannot be made is reported below
+      if (h.pool && Array.isArray(request.derived)) await primeDerivedGradients(h.pool, request.derived).catch(() => 0);
       const { dataset, formulaUnits, failed } = attachFields(base, request);
       // share workers hold only the file's arrays: with fields attached, cuts and lines run here
       const pool = dataset === base ? h.pool : undefined;

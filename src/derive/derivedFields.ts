@@ -104,6 +104,21 @@ function role(d: Dataset, infos: FieldInfo[], given: string | undefined, r: 'vel
   return g.field;
 }
 
+/** Derived fields computed from the velocity gradient. */
+const FROM_GRADIENT: readonly DerivedName[] = ['velocity-gradient', 'vorticity', 'vorticity-magnitude', 'q-criterion', 'lambda2', 'helicity'];
+
+/**
+ * The velocity field whose gradient `withDerivedFields(d, names, options)` would reconstruct, or null when no
+ * requested field needs a gradient (so a caller can compute that gradient elsewhere first and prime the
+ * cache of fieldGradient.ts). Throws as `withDerivedFields` does when the velocity cannot be found.
+ */
+export function gradientFieldFor(d: Dataset, names: readonly string[], options: Partial<DeriveOptions> = {}): FieldInfo | null {
+  const wanted = derivedNamesIn(d, names).filter((n) => FROM_GRADIENT.includes(n));
+  if (wanted.length === 0) return null;
+  const o = { ...DERIVE_DEFAULTS, ...options };
+  return role(d, fieldInfos(d), o.velocity, 'velocity', `derived field "${wanted[0]}"`);
+}
+
 const cache = new WeakMap<Dataset, Map<string, Dataset>>();
 
 /**

@@ -13,6 +13,7 @@ import type { FieldArray } from '../model/fieldArray.ts';
 import type { Piece } from '../model/piece.ts';
 import { gradientInto, quadraticGradient } from './quadraticGradient.ts';
 import { cellCentres, cellStencil, pointStencil, type Stencil } from './stencils.ts';
+import { pointStencilAround } from './localStencil.ts';
 
 /** Positions (xyz per site, length unit) and one-ring stencil of a piece's nodes or cells. */
 export interface Sites { positions: Float64Array; stencil: Stencil }
@@ -59,11 +60,28 @@ export function fieldGradient(p: Piece, f: FieldArray): Float64Array {
 
 /**
  * Gradient of a point field at chosen nodes only (`nodes` local to `p`), same layout per node: the direct fit
- * over the mesh's cached stencil. A wall fitted at every step of a series keeps its fit as a linear operator
+ * over the mesh's cached stencil, or — for a few nodes of a mesh whose stencil is not built — over the rows
+ * of those nodes and their neighbours only (`pointStencilAround`, the same rows, so the same values). A wall fitted at every step of a series keeps its fit as a linear operator
  * instead (src/surface/wallGradientCache.ts).
  */
 export function pointGradientAt(p: Piece, f: FieldArray, nodes: Int32Array): Float64Array {
-  const s = sitesOf(p, 'point'), out = new Float64Array(3 * f.components * nodes.length);
-  gradientInto(out, 0, s.positions, f.values, f.components, s.stencil, nodes, 0, nodes.length);
+  const out = new Float64Array(3 * f.components * nodes.length);
+  // a few nodes of a mesh without cached rows: only their rows and their neighbours' (the same rows)
+  const cached = geometryOf(p).point;
+  const stencil = cached ? cached.stencil
+    : nodes.length * LOCAL_ROWS_BELOW < p.points.length / 3 ? pointStencilAround(p, nodes) : sitesOf(p, 'point').stencil;
+  gradientInto(out, 0, p.points, f.values, f.components, stencil, nodes, 0, nodes.length);
   return out;
+}
+
+/** `pointGradientAt` builds only the chosen nodes' rows when they are fewer than 1 / this of the piece's nodes. */
+const LOCAL_ROWS_BELOW = 8;
+
+/**
+ * Hands the gradient cache a gradient computed elsewhere (the worker pool's shares, src/parallel/deriveShares.ts)
+ * for the point or cell field whose values array is `values`: `g` in the layout of `fieldGradient`, which then
+ * returns it instead of computing it again.
+ */
+export function primeGradient(values: object, g: Float64Array): void {
+  gradients.set(values, g);
 }

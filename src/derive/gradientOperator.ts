@@ -50,7 +50,7 @@ export function gradientOperator(positions: Float64Array, stencil: Stencil, targ
       const size = Math.max(2 * ids.length, e + n), gi = new Int32Array(size), gc = new Float64Array(3 * size);
       gi.set(ids.subarray(0, e)); gc.set(coef.subarray(0, 3 * e)); ids = gi; coef = gc;
     }
-    siteWeights(positions, i, coef, 3 * e);
+    siteWeights(coef, 3 * e);
     ids.set(list.subarray(lo, hi), e);
     e += n;
     offsets[k + 1] = e;

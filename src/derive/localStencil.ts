@@ -55,3 +55,59 @@ export function pointStencilAround(p: Piece, nodes: Int32Array): Stencil {
   for (let i = 0; i < np; i++) if (want[i]) walkRow(p, inc, i, null, ids, offsets[i]!);
   return { offsets, ids };
 }
+
+/**
+ * Rows of `pointStencil(p)` for the nodes `from .. to-1` and for their neighbours outside that range (every
+ * row a one-ring or two-ring fit of a node in the range reads), each exactly as `pointStencil` gives it;
+ * every other row is empty. One walk per node of the range (against three in `pointStencilAround`), for
+ * the node ranges the worker pool splits a gradient into.
+ */
+export function pointStencilOfRange(p: Piece, from: number, to: number): Stencil {
+  const np = p.points.length / 3, conn = p.connectivity, off = p.offsets, nc = p.cellTypes.length;
+  const cs = new Int32Array(np + 1);
+  for (let k = 0; k < conn.length; k++) cs[conn[k]! + 1]!++;
+  for (let i = 0; i < np; i++) cs[i + 1]! += cs[i]!;
+  const fill = cs.slice(0, np), cells = new Int32Array(conn.length);
+  for (let c = 0; c < nc; c++) for (let k = off[c]!; k < off[c + 1]!; k++) cells[fill[conn[k]!]!++] = c;
+  const inc: Incidence = { cs, cells, stamp: new Int32Array(np).fill(-1) };
+  // the range's rows, in node order, each walked once (inline: this is the hot loop); outside neighbours marked in `want`
+  const want = new Uint8Array(np), offsets = new Int32Array(np + 1), stamp = inc.stamp;
+  let rows = new Int32Array(Math.max(64, 27 * (to - from))), n = 0;
+  for (let i = from; i < to; i++) {
+    const ca = cs[i]!, cb = cs[i + 1]!;
+    let most = 0;
+    for (let a = ca; a < cb; a++) { const c = cells[a]!; most += off[c + 1]! - off[c]!; }
+    if (n + most > rows.length) { const g = new Int32Array(Math.max(2 * rows.length, n + most)); g.set(rows.subarray(0, n)); rows = g; }
+    const start = n;
+    stamp[i] = i;
+    for (let a = ca; a < cb; a++) {
+      const c = cells[a]!, hi = off[c + 1]!;
+      for (let b = off[c]!; b < hi; b++) {
+        const q = conn[b]!;
+        if (stamp[q] === i) continue;
+        stamp[q] = i;
+        rows[n++] = q;
+        if (q < from || q >= to) want[q] = 1;
+      }
+    }
+    offsets[i + 1] = n - start;
+  }
+  for (let i = from; i < to; i++) want[i] = 0;
+  // the neighbours' rows (a thin layer around the range), below and above it
+  inc.stamp.fill(-1);
+  let below = 0, above = 0;
+  for (let i = 0; i < np; i++) {
+    if (!want[i]) continue;
+    const m = walkRow(p, inc, i, null, null, 0);
+    offsets[i + 1] = m;
+    if (i < from) below += m; else above += m;
+  }
+  for (let i = 0; i < np; i++) offsets[i + 1]! += offsets[i]!;
+  // no neighbours outside (one range over the whole piece): the range's rows are the result as they stand
+  if (below + above === 0) return { offsets, ids: rows.subarray(0, n) };
+  const ids = new Int32Array(below + n + above);
+  ids.set(rows.subarray(0, n), below);
+  inc.stamp.fill(-1);
+  for (let i = 0; i < np; i++) if (want[i]) walkRow(p, inc, i, null, ids, offsets[i]!);
+  return { offsets, ids };
+}

@@ -44,6 +44,11 @@ const inv = new Float64Array(9);
 let B = new Float64Array(27);
 let Y = new Float64Array(27);
 let ring = new Int32Array(256);
+/** The last fit's scaled neighbour offsets and weights (0 for a coincident neighbour), in list order. */
+let X = new Float64Array(256);
+let Yo = new Float64Array(256);
+let Z = new Float64Array(256);
+let W = new Float64Array(256);
 let stamp = new Int32Array(0);
 
 /**
@@ -81,7 +86,7 @@ export function gradientInto(out: Float64Array, outStart: number, positions: Flo
     const ok = fitSite(positions, stencil, i, k);
     if (ringSizes) ringSizes[k] = ok < 0 ? 0 : lastSite.hi - lastSite.lo;
     if (ok < 0) { for (let c = 0; c < 3 * nc; c++) out[ob + c] = NaN; continue; }
-    solveSite(positions, values, nc, i);
+    solveSite(values, nc, i);
     for (let c = 0; c < nc; c++) { out[ob + 3 * c] = Y[9 * c]!; out[ob + 3 * c + 1] = Y[9 * c + 1]!; out[ob + 3 * c + 2] = Y[9 * c + 2]!; }
   }
 }
@@ -133,9 +138,13 @@ function twoRing(so: Int32Array, sid: Int32Array, i: number, mark: number): numb
  */
 function fitGeometry(positions: Float64Array, i: number, list: Int32Array, lo: number, hi: number, skipOneSided: boolean): number {
   const x0 = positions[3 * i]!, y0 = positions[3 * i + 1]!, z0 = positions[3 * i + 2]!;
+  const n = hi - lo;
+  if (X.length < n) { const m = Math.max(n, 2 * X.length); X = new Float64Array(m); Yo = new Float64Array(m); Z = new Float64Array(m); W = new Float64Array(m); }
+  // one gather of the offsets; the moments and every right-hand side read them from the scratch
   let h2 = 0, used = 0, mx = 0, my = 0, mz = 0;
-  for (let s = lo; s < hi; s++) {
+  for (let s = lo, t = 0; s < hi; s++, t++) {
     const q = 3 * list[s]!, dx = positions[q]! - x0, dy = positions[q + 1]! - y0, dz = positions[q + 2]! - z0;
+    X[t] = dx; Yo[t] = dy; Z[t] = dz;
     const r2 = dx * dx + dy * dy + dz * dz;
     if (r2 > 0) { h2 += r2; used++; mx += dx; my += dy; mz += dz; }
   }
@@ -148,12 +157,13 @@ function fitGeometry(positions: Float64Array, i: number, list: Int32Array, lo: n
   let txxx = 0, txxy = 0, txxz = 0, txyy = 0, tyyy = 0, tyyz = 0, txzz = 0, tyzz = 0, tzzz = 0, txyz = 0;
   let qxxxx = 0, qyyyy = 0, qzzzz = 0, qxxxy = 0, qxxxz = 0, qxyyy = 0, qyyyz = 0, qxzzz = 0, qyzzz = 0;
   let qxxyy = 0, qxxzz = 0, qyyzz = 0, qxxyz = 0, qxyyz = 0, qxyzz = 0;
-  for (let s = lo; s < hi; s++) {
-    const q = 3 * list[s]!;
-    const x = (positions[q]! - x0) * ih, y = (positions[q + 1]! - y0) * ih, z = (positions[q + 2]! - z0) * ih;
+  for (let t = 0; t < n; t++) {
+    const x = X[t]! * ih, y = Yo[t]! * ih, z = Z[t]! * ih;
+    X[t] = x; Yo[t] = y; Z[t] = z;
     const r2 = x * x + y * y + z * z;
-    if (!(r2 > 0)) continue;
+    if (!(r2 > 0)) { W[t] = 0; continue; }
     const w = 1 / r2;
+    W[t] = w;
     const wx = w * x, wy = w * y, wz = w * z;
     const wxx = wx * x, wyy = wy * y, wzz = wz * z, wxy = wx * y;
     const xx = x * x, yy = y * y, zz = z * z, xy = x * y, xz = x * z, yz = y * z;
@@ -182,21 +192,19 @@ function fitGeometry(positions: Float64Array, i: number, list: Int32Array, lo: n
  * After `fitSite(…, i, …)`: sums the right-hand sides Σ w m_a Δf over `lastSite`'s neighbours for the
  * `nc` components of `values` and solves; leaves the gradient (field unit per length unit) in `Y[9c + 0..2]`.
  */
-function solveSite(positions: Float64Array, values: NumericArray, nc: number, i: number): void {
+function solveSite(values: NumericArray, nc: number, i: number): void {
   const { list, lo, hi, ih } = lastSite;
-  const x0 = positions[3 * i]!, y0 = positions[3 * i + 1]!, z0 = positions[3 * i + 2]!;
   let b0_0 = 0, b1_0 = 0, b2_0 = 0, b3_0 = 0, b4_0 = 0, b5_0 = 0, b6_0 = 0, b7_0 = 0, b8_0 = 0;
   let b0_1 = 0, b1_1 = 0, b2_1 = 0, b3_1 = 0, b4_1 = 0, b5_1 = 0, b6_1 = 0, b7_1 = 0, b8_1 = 0;
   let b0_2 = 0, b1_2 = 0, b2_2 = 0, b3_2 = 0, b4_2 = 0, b5_2 = 0, b6_2 = 0, b7_2 = 0, b8_2 = 0;
   const wide = nc !== 1 && nc !== 3;
   if (wide) B.fill(0, 0, 9 * nc);
   const f0 = values[i * nc]!, f1 = nc > 1 ? values[i * nc + 1]! : 0, f2 = nc > 2 ? values[i * nc + 2]! : 0;
-  for (let s = lo; s < hi; s++) {
-    const j = list[s]!, q = 3 * j;
-    const x = (positions[q]! - x0) * ih, y = (positions[q + 1]! - y0) * ih, z = (positions[q + 2]! - z0) * ih;
-    const r2 = x * x + y * y + z * z;
-    if (!(r2 > 0)) continue;
-    const w = 1 / r2;
+  // the scaled offsets and weights of the fit just made (fitGeometry's scratch), in list order
+  for (let s = lo, t = 0; s < hi; s++, t++) {
+    const w = W[t]!;
+    if (w === 0) continue;
+    const j = list[s]!, x = X[t]!, y = Yo[t]!, z = Z[t]!;
     const wx = w * x, wy = w * y, wz = w * z;
     const wxx = wx * x, wyy = wy * y, wzz = wz * z, wxy = wx * y, wxz = wx * z, wyz = wy * z;
     const g0 = values[j * nc]! - f0;
@@ -229,21 +237,17 @@ function solveSite(positions: Float64Array, values: NumericArray, nc: number, i:
 }
 
 /**
- * After `fitSite(…, i, …)`: the gradient's weights of `lastSite`'s neighbours, so that for any field
+ * After `fitSite(…, i, …)` (and before the next fit): the gradient's weights of `lastSite`'s neighbours, so that for any field
  * ∂f/∂x_k at site i = Σ_s c[3s + k]·(f(list[s]) − f(i)) (per length unit). Writes 3 values per neighbour
  * to `c` from `at` on (`hi − lo` neighbours, in list order).
  */
-export function siteWeights(positions: Float64Array, i: number, c: Float64Array, at: number): void {
-  const { list, lo, hi, ih } = lastSite;
+export function siteWeights(c: Float64Array, at: number): void {
+  const { lo, hi, ih } = lastSite;
   // rows 0 … 2 of the (pivot-dropping) inverse: the solve applied to each unit right-hand side
   for (let l = 0; l < 9; l++) { B.fill(0, 0, 9); B[l] = 1; gradientNine(Lp, inv, B, Y, 0); R[l] = Y[0]!; R[9 + l] = Y[1]!; R[18 + l] = Y[2]!; }
-  const x0 = positions[3 * i]!, y0 = positions[3 * i + 1]!, z0 = positions[3 * i + 2]!;
-  for (let s = lo, o = at; s < hi; s++, o += 3) {
-    const q = 3 * list[s]!;
-    const x = (positions[q]! - x0) * ih, y = (positions[q + 1]! - y0) * ih, z = (positions[q + 2]! - z0) * ih;
-    const r2 = x * x + y * y + z * z;
-    if (!(r2 > 0)) { c[o] = 0; c[o + 1] = 0; c[o + 2] = 0; continue; }
-    const w = 1 / r2;
+  for (let t = 0, o = at; t < hi - lo; t++, o += 3) {
+    const w = W[t]!, x = X[t]!, y = Yo[t]!, z = Z[t]!;
+    if (w === 0) { c[o] = 0; c[o + 1] = 0; c[o + 2] = 0; continue; }
     const m0 = w * x, m1 = w * y, m2 = w * z, m3 = 0.5 * m0 * x, m4 = 0.5 * m1 * y, m5 = 0.5 * m2 * z, m6 = m0 * y, m7 = m0 * z, m8 = m1 * z;
     for (let k = 0; k < 3; k++) {
       const r = 9 * k;

@@ -19,6 +19,7 @@ import type { PlaneQuery, PlaneResult } from '../cut/planeIntegrals.ts';
 import { selectRegion } from '../cut/region.ts';
 import type { Vec3 } from '../cut/triangleSet.ts';
 import { totalCells, type Dataset } from '../model/dataset.ts';
+import { findField } from '../model/piece.ts';
 import { probeLine, type LineProbeOptions, type LineProbeResult } from '../locate/lineProbe.ts';
 import type { BoundaryFaces } from '../surface/boundaryFaces.ts';
 import { primeBoundaryFaces } from '../surface/surfaceCache.ts';
@@ -26,6 +27,7 @@ import type { EvaluateOptions, SetEvaluation } from '../study/evaluate.ts';
 import type { ProbeSet } from '../study/probeSet.ts';
 import { mergeBoundary, mergeCuts, mergeLines } from './mergeParts.ts';
 import { dealProbes, joinEvaluations, subSet } from './probeSetShares.ts';
+import { nodeRanges } from '../derive/rangeGradient.ts';
 import type { ShareMessage, ShareReply, ShareRequest, WorkerMemory } from './shareHost.ts';
 import type { BoundaryPart, CutPart, LinePart } from './shareTasks.ts';
 import { splitCells, type CellShare } from './shares.ts';
@@ -166,6 +168,24 @@ export class ComputePool {
       return sub ? l.call<SetEvaluation>({ op: 'evaluate', set: sub, options }) : Promise.resolve(null);
     }));
     return joinEvaluations(set, lane, parts);
+  }
+
+  /**
+   * The quadratic least-squares gradient of point field `field` of piece `piece` (`fieldGradient`'s layout and
+   * values, bit for bit): the piece's nodes split into one contiguous range per worker, each worker filling its
+   * range of one shared array (src/parallel/deriveShares.ts).
+   */
+  async pointGradient(piece: number, field: string): Promise<Float64Array> {
+    const p = this.dataset.pieces[piece], f = p && findField(p, field, 'point');
+    if (!p || !f) throw new Error(`gradient: no point field "${field}" on piece ${piece} of ${this.dataset.source}`);
+    const np = p.points.length / 3, bytes = 8 * 3 * f.components * np;
+    const out = typeof SharedArrayBuffer === 'undefined' ? new Float64Array(bytes / 8) : new Float64Array(new SharedArrayBuffer(bytes));
+    const bounds = nodeRanges(np, this.lanes.length), w = 3 * f.components;
+    const parts = await Promise.all(this.lanes.slice(0, bounds.length - 1).map((l, i) =>
+      l.call<Float64Array | null>({ op: 'gradient', piece, field, from: bounds[i]!, to: bounds[i + 1]!, out })));
+    // without shared memory each worker sends its range back
+    parts.forEach((part, i) => { if (part) out.set(part, w * bounds[i]!); });
+    return out;
   }
 
   /** Memory each worker reports (bytes; null where the platform cannot tell). The shared dataset is not in it. */

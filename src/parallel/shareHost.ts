@@ -8,6 +8,7 @@
  */
 import type { Dataset } from '../model/dataset.ts';
 import { boundaryShare, cutShare, lineShare, type LineShareOptions } from './shareTasks.ts';
+import { gradientShare, type GradientShare } from './deriveShares.ts';
 import { shareDataset, type CellShare } from './shares.ts';
 import { prepareCut, type CutOptions } from '../cut/cutPlane.ts';
 import { warmUpCutKernels } from '../cut/warmUp.ts';
@@ -22,6 +23,7 @@ export type ShareRequest =
   | { op: 'line'; from: Vec3; to: Vec3; options: LineShareOptions }
   | { op: 'boundary'; withMerge: boolean }
   | { op: 'evaluate'; set: ProbeSet; options: Partial<EvaluateOptions> }
+  | ({ op: 'gradient' } & GradientShare)
   | { op: 'memory' };
 
 /** A message to a share worker. */
@@ -61,6 +63,7 @@ export function serveShares(port: SharePort, memory: () => WorkerMemory | null =
     if (m.op === 'memory') return memory();
     // whole probes on the whole dataset (probeSetShares.ts): the single-thread path, bit for bit
     if (m.op === 'evaluate') { if (!whole) throw new Error('worker pool: no dataset is held by this worker'); return evaluateProbeSet(whole, m.set, m.options); }
+    if (m.op === 'gradient') { if (!whole) throw new Error('worker pool: no dataset is held by this worker'); return gradientShare(whole, m); }
     if (!share || !range) throw new Error('worker pool: no dataset is held by this worker');
     if (m.op === 'cut') return cutShare(share, range, m.origin, m.normal, m.options);
     if (m.op === 'line') return lineShare(share, range, m.from, m.to, m.options);

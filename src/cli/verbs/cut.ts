@@ -12,6 +12,7 @@ import {
 import type { Verb } from '../verb.ts';
 import { loadForCompute, WORKER_HELP, WORKER_OPTIONS } from '../workerOption.ts';
 import { DERIVED_HELP, DERIVED_OPTIONS, withDerivedArgs } from '../derivedArgs.ts';
+import { primeDerivedGradients } from '../../parallel/deriveShares.ts';
 
 const cut: Verb = {
   summary: 'cut-plane integrals: area, flow rates, area- and mass-flow-weighted means, total pressure',
@@ -39,6 +40,8 @@ const cut: Verb = {
     try {
       const none = (v: string | undefined) => (v === 'none' ? undefined : v);
       const rho = none(str(args, 'rho'));
+      // with workers, the velocity gradient of the derived fields is computed by them (deriveShares.ts)
+      if (input.pool) await primeDerivedGradients(input.pool, extra, { velocity: none(str(args, 'velocity')) });
       dataset = withDerivedArgs(input.dataset, [...extra, ...[str(args, 'velocity'), str(args, 'pressure'), rho].filter((x): x is string => !!x)], args, {
         velocity: none(str(args, 'velocity')), pressure: none(str(args, 'pressure')), kinematicPressure: args.options.kinematic === true,
         ...(rho !== undefined ? { density: /^[-+]?(\d|\.\d)/.test(rho.trim()) ? Number(rho) : rho } : {}),

@@ -5,6 +5,7 @@
  */
 import type { Dataset } from '../../model/dataset.ts';
 import { DERIVED_HELP, DERIVED_OPTIONS, withDerivedArgs } from '../derivedArgs.ts';
+import { primeDerivedGradients } from '../../parallel/deriveShares.ts';
 import { boundaryLayer, type BoundaryLayerResult } from '../../locate/boundaryLayer.ts';
 import { LINE_PROBE_DEFAULTS, probeLine, type LineProbeResult } from '../../locate/lineProbe.ts';
 import { lineStats, type LineStats } from '../../locate/lineStats.ts';
@@ -166,6 +167,8 @@ const line: Verb = {
     const input = await loadForCompute(file, args);
     let r;
     try {
+      // with workers, the velocity gradient of the derived fields is computed by them (deriveShares.ts)
+      if (input.pool) await primeDerivedGradients(input.pool, fields ?? [], { velocity: str(args, 'velocity') });
       const dataset = withDerivedArgs(input.dataset, fields ?? [], args, { velocity: str(args, 'velocity') });
       if (!args.options.crossings) checkMemory(samples * lineBytesPerSample(dataset), `--samples ${samples}: the probe's values and their output`);
       // Derived fields live on this thread's dataset only: the workers' shared copy lacks them.
