@@ -1,7 +1,7 @@
 /**
- * Which benchmarks `npm run bench` runs: with no names the light set (every benchmark not in `HEAVY`, a few
- * minutes on a laptop); with names those named, where `heavy` stands for every heavy one and `all` for every
- * benchmark.
+ * Which benchmarks `npm run bench` runs: with no names the light set (every benchmark not in `HEAVY`:
+ * meshes built in memory, no big files, no browser, no VTK); with names those named, where `heavy` stands
+ * for every heavy one and `all` for every benchmark.
  */
 
 /**

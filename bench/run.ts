@@ -1,9 +1,9 @@
 /**
  * `npm run bench`: runs the light benchmarks (every `bench/*.bench.ts` not listed in `HEAVY` of
- * `bench/benchSets.ts`, a few minutes on a laptop) in turn, or those named on the command line (e.g.
- * `npm run bench -- load cut`; `heavy` stands for every heavy one, `all` for every benchmark), and prints one
- * JSON document: machine facts, the benchmarks left out and why, then each benchmark's figures under its name.
- * Times in ms, sizes in bytes, rates in MB/s (10^6 bytes per second).
+ * `bench/benchSets.ts`) in turn, or those named on the command line (e.g. `npm run bench -- load cut`;
+ * `heavy` stands for every heavy one, `all` for every benchmark), and prints one JSON document: machine
+ * facts, the benchmarks left out and why, then each benchmark's figures under its name. Times in ms, sizes
+ * in bytes, rates in MB/s (10^6 bytes per second).
  */
 import { readdirSync } from 'node:fs';
 import { cpus, totalmem } from 'node:os';
