@@ -1,29 +1,35 @@
 /**
- * `npm run bench`: runs every `bench/*.bench.ts` in turn (or only those named on the command line,
- * e.g. `npm run bench -- load cut`) and prints one JSON document: machine facts, then each benchmark's
- * figures under its name. Times in ms, sizes in bytes, rates in MB/s (10^6 bytes per second).
+ * `npm run bench`: runs the light benchmarks (every `bench/*.bench.ts` not listed in `HEAVY` of
+ * `bench/benchSets.ts`) in turn, or those named on the command line (e.g. `npm run bench -- load cut`;
+ * `heavy` stands for every heavy one, `all` for every benchmark), and prints one JSON document: machine
+ * facts, the benchmarks left out and why, then each benchmark's figures under its name. Times in ms, sizes
+ * in bytes, rates in MB/s (10^6 bytes per second).
  */
 import { readdirSync } from 'node:fs';
 import { cpus, totalmem } from 'node:os';
 import { dirname, join } from 'node:path';
 import { fileURLToPath } from 'node:url';
+import { HEAVY, SET_WORDS, chooseBenchmarks } from './benchSets.ts';
 
 const here = dirname(fileURLToPath(import.meta.url));
-const only = process.argv.slice(2).filter((a) => !a.startsWith('-'));
+const args = process.argv.slice(2).filter((a) => !a.startsWith('-'));
 const names = readdirSync(here).filter((f) => f.endsWith('.bench.ts')).map((f) => f.slice(0, -'.bench.ts'.length)).sort();
-const unknown = only.filter((n) => !names.includes(n));
-if (unknown.length) {
-  process.stderr.write(`bench: unknown benchmark(s) ${unknown.join(', ')} (known: ${names.join(', ')})\n`);
+const choice = chooseBenchmarks(names, args);
+if (choice.unknown.length) {
+  process.stderr.write(`bench: unknown benchmark(s) ${choice.unknown.join(', ')} (known: ${names.join(', ')}; sets: ${SET_WORDS.join(', ')})\n`);
   process.exit(2);
+}
+if (args.length === 0) {
+  process.stderr.write(`bench: the light set; the heavy ones run when named: ${Object.keys(HEAVY).join(', ')} (or "heavy", "all")\n`);
 }
 
 const result: Record<string, unknown> = {
   machine: { node: process.version, cpus: cpus().length, cpuModel: cpus()[0]?.model ?? 'unknown', memoryBytes: totalmem() },
   startedAt: new Date().toISOString(),
+  leftOut: choice.leftOut,
 };
 let failed = false;
-for (const name of names) {
-  if (only.length && !only.includes(name)) continue;
+for (const name of choice.run) {
   process.stderr.write(`bench: ${name} …\n`);
   const t0 = performance.now();
   try {

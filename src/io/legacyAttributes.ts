@@ -2,14 +2,19 @@
  * Arrays of legacy `.vtk` files: the items of the attribute sections `POINT_DATA n` / `CELL_DATA n`
  * (SCALARS, COLOR_SCALARS, VECTORS, NORMALS, TENSORS, TENSORS6, TEXTURE_COORDINATES, GLOBAL_IDS,
  * PEDIGREE_IDS, EDGE_FLAGS, inline LOOKUP_TABLE tables, which are skipped, and FIELD blocks) and the
- * dataset-level `FIELD name n` block. Names are %-decoded. String arrays are skipped with a warning.
+ * dataset-level `FIELD name n` block. Names are %-decoded. String arrays of the dataset-level block are kept
+ * (`FieldStrings`, e.g. the name table of a group array); those of POINT_DATA / CELL_DATA are skipped with a
+ * warning.
  */
+import type { FieldStrings } from '../model/dataset.ts';
 import type { FieldArray, FieldRole, NumericArray } from '../model/fieldArray.ts';
 import type { ElementType } from './elementTypes.ts';
 import type { Checkpoint } from './loadOptions.ts';
 import { decodeName, quoted, type LegacyCursor } from './legacyCursor.ts';
 import { legacyType, numericType } from './legacyTypes.ts';
+import { readStrings } from './legacyStrings.ts';
 import { readColors, readValues, skipStrings, skipValues } from './legacyValues.ts';
+import { MAX_FIELD_STRINGS } from './xmlStrings.ts';
 
 /** An attribute section being read: its association, declared tuple count and arrays so far. */
 export interface AttributeSection {
@@ -131,9 +136,11 @@ export async function readAttribute(keyword: string, section: AttributeSection, 
 /**
  * Reads a `FIELD name n` block after its keyword: n arrays, each `name components tuples type` and its
  * data, or `NULL_ARRAY`. With `tuples` given (inside POINT_DATA / CELL_DATA) every array must have that
- * many tuples; dataset-level field data (`tuples` undefined) may have any.
+ * many tuples; dataset-level field data (`tuples` undefined) may have any. With `strings` given, one-component
+ * string arrays of up to `MAX_FIELD_STRINGS` strings are added to it (a later one of the same name replaces
+ * an earlier one); other string arrays are skipped with a warning.
  */
-export async function readFieldBlock(ctx: ArrayContext, label: string, association: FieldArray['association'], tuples?: number): Promise<FieldArray[]> {
+export async function readFieldBlock(ctx: ArrayContext, label: string, association: FieldArray['association'], tuples?: number, strings?: FieldStrings[]): Promise<FieldArray[]> {
   const cur = ctx.cur;
   const blockWhere = cur.where(label);
   cur.need('the field name', blockWhere);
@@ -152,9 +159,16 @@ export async function readFieldBlock(ctx: ArrayContext, label: string, associati
       throw new Error(`${where}: declares ${n} tuples, expected ${tuples} (the ${association === 'point' ? 'POINT_DATA' : 'CELL_DATA'} count)`);
     }
     if (type === 'string') {
-      await skipStrings(cur, comps * n, where);
+      if (strings && comps === 1 && n <= MAX_FIELD_STRINGS) {
+        const t: FieldStrings = { name, values: await readStrings(cur, n, where) };
+        const k = strings.findIndex((f) => f.name === name);
+        if (k >= 0) strings[k] = t; else strings.push(t);
+      } else {
+        await skipStrings(cur, comps * n, where);
+        const why = !strings ? 'fieldtally reads numeric arrays only' : comps !== 1 ? `a name table has 1 component, this one ${comps}` : `at most ${MAX_FIELD_STRINGS} strings are read`;
+        ctx.warnings.push(`${where}: string array skipped (${why})`);
+      }
       cur.skipMetadata();
-      ctx.warnings.push(`${where}: string array skipped (fieldtally reads numeric arrays only)`);
       continue;
     }
     const values = await numeric(ctx, n, comps, type, where);

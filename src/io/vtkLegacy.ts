@@ -10,7 +10,7 @@
  * keep VTK's cell order (verts, lines, polys, strips), which cell data follow. Higher-order cells are
  * read by their corner nodes (with a warning); polyhedra keep their faces.
  */
-import type { Dataset, DatasetKind } from '../model/dataset.ts';
+import type { Dataset, DatasetKind, FieldStrings } from '../model/dataset.ts';
 import type { FieldArray } from '../model/fieldArray.ts';
 import type { Piece } from '../model/piece.ts';
 import { validatePiece } from '../model/validate.ts';
@@ -71,6 +71,8 @@ interface Parts {
   pointData?: AttributeSection;
   cellData?: AttributeSection;
   fieldData: FieldArray[];
+  /** String arrays of the dataset-level FIELD block (name tables of group arrays). */
+  fieldStrings: FieldStrings[];
 }
 
 /**
@@ -122,16 +124,19 @@ async function readBody(cur: LegacyCursor, opts: LoadOptions): Promise<Dataset> 
   const warnings: string[] = [];
   if (header.version > 5.1) warnings.push(`${name}: file version ${header.version} is newer than 5.1, the newest this reader knows; read as 5.1`);
   const ctx: ArrayContext = { cur, cp: new Checkpoint(name, opts, cur.source.size), warnings };
-  const parts: Parts = { poly: [], fieldData: [] };
+  const parts: Parts = { poly: [], fieldData: [], fieldStrings: [] };
   let section: AttributeSection | undefined;
+  // whether the open section has had an item (a section of skipped string arrays holds no arrays)
+  let sectionItems = false;
 
   for (let kw = cur.word(); kw !== undefined; kw = cur.word()) {
     const key = kw.toUpperCase(), kwPos = cur.wordStart;
-    if (section && (await readAttribute(key, section, ctx))) continue;
+    if (section && (await readAttribute(key, section, ctx))) { sectionItems = true; continue; }
     if (key === 'POINT_DATA' || key === 'CELL_DATA') {
       section = openSection(cur, key, parts, header.kind);
+      sectionItems = false;
     } else if (key === 'FIELD') {
-      parts.fieldData.push(...await readFieldBlock(ctx, 'FIELD', 'dataset'));
+      parts.fieldData.push(...await readFieldBlock(ctx, 'FIELD', 'dataset', undefined, parts.fieldStrings));
     } else if (key === 'POINTS') {
       if (parts.points) throw new Error(`${cur.where('POINTS')}: a second POINTS section; expected one`);
       const where = cur.where('POINTS');
@@ -163,7 +168,7 @@ async function readBody(cur: LegacyCursor, opts: LoadOptions): Promise<Dataset> 
     }
     await ctx.cp.at('reading legacy .vtk', cur.base + cur.pos);
   }
-  if (section && section.arrays.length === 0 && section.tuples > 0) {
+  if (section && !sectionItems && section.tuples > 0) {
     throw new Error(`${name}: the file ends right after ${section.keyword} ${section.tuples}; expected its arrays (is the file truncated?)`);
   }
   const nPoints = parts.points ? parts.points.length / 3 : 0;
@@ -245,5 +250,6 @@ function assemble(name: string, kind: DatasetKind, parts: Parts, warnings: strin
     cellData: parts.cellData?.arrays ?? [],
   };
   validatePiece(piece, name);
-  return { source: name, kind, pieces: [piece], fieldData: parts.fieldData, warnings, fileCellTypes };
+  const strings = parts.fieldStrings.length ? { fieldStrings: parts.fieldStrings } : {};
+  return { source: name, kind, pieces: [piece], fieldData: parts.fieldData, warnings, fileCellTypes, ...strings };
 }

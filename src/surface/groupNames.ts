@@ -2,7 +2,8 @@
  * Labels of surface groups taken from the file's own names. What the readers can find:
  *
  *  - **A name table of a group array**: a field-data String array (XML `<FieldData>`, read by
- *    `src/io/xmlStrings.ts`) named after the group array plus "names" — for an array `zone`: `zone names`,
+ *    `src/io/xmlStrings.ts`; a legacy `.vtk` file's dataset-level `FIELD` block, read by
+ *    `src/io/legacyStrings.ts`) named after the group array plus "names" — for an array `zone`: `zone names`,
  *    `zoneNames`, `zone_names`, `ZONE-NAMES` (case, spaces, `_` and `-` ignored); failing that, one named
  *    `group names`, `zone names`, `patch names`, `region names`, `boundary names`, `marker names` or
  *    `tag names` (same spelling freedom). Which value each string names: a numeric field-data array named
@@ -14,8 +15,7 @@
  *    `.vtm`/`.vtpd`/`.vtpc` (`Dataset.pieceNames`, the innermost name unless two leaves share it). Surface
  *    cells (2D cells) of a named block that carries no group array form one group per name.
  *
- * Legacy `.vtk` files: string arrays are skipped by the reader, so only the group array's values name
- * groups there. Everything else keeps its default label (`<array> <value>`, `part <id>`), which the user can
+ * String arrays inside a legacy file's POINT_DATA / CELL_DATA are skipped by the reader. Everything else keeps its default label (`<array> <value>`, `part <id>`), which the user can
  * rename in the app or with a probe set's labels.
  */
 import { cellDimension } from '../model/cellTypes.ts';

@@ -3,7 +3,7 @@
  * "fixed" when the user set it). One description, drawn both as DOM over the view and onto exports.
  */
 import { colorMapCss, type ColorMap } from '../view/colorMaps.ts';
-import { formatNumber } from './format.ts';
+import { SIGNIFICANT_FIGURES, formatNumber } from './format.ts';
 
 export interface LegendState {
   /** e.g. `velocity (magnitude)`. */
@@ -17,8 +17,27 @@ export interface LegendState {
 /** Number of tick labels on the bar. */
 const TICKS = 5;
 
-function tickValues(lo: number, hi: number): number[] {
-  return Array.from({ length: TICKS }, (_, i) => lo + (hi - lo) * (i / (TICKS - 1)));
+/** One tick label of the bar: its text and where it sits, 0 at the top (high end) to 1 at the bottom. */
+export interface LegendTick {
+  readonly text: string;
+  readonly at: number;
+}
+
+/**
+ * Tick labels over `[lo, hi]`, high end first, always distinct: `TICKS` evenly spaced values with as many
+ * significant figures as they need to differ (4 at least, 15 at most); a range too narrow for that keeps
+ * its two ends; a constant field (lo = hi) gets one label in the middle of the bar.
+ */
+export function legendTicks(lo: number, hi: number): LegendTick[] {
+  if (!(hi > lo) || formatNumber(lo, 15) === formatNumber(hi, 15)) return [{ text: formatNumber(lo), at: 0.5 }];
+  const values = Array.from({ length: TICKS }, (_, i) => hi - (hi - lo) * (i / (TICKS - 1)));
+  for (const [vs, ats] of [[values, values.map((_, i) => i / (TICKS - 1))], [[hi, lo], [0, 1]]] as const) {
+    for (let sig = SIGNIFICANT_FIGURES; sig <= 15; sig++) {
+      const texts = vs.map((v) => formatNumber(v, sig));
+      if (new Set(texts).size === texts.length) return texts.map((text, i) => ({ text, at: ats[i]! }));
+    }
+  }
+  return [{ text: formatNumber(hi, 15), at: 0 }, { text: formatNumber(lo, 15), at: 1 }];
 }
 
 /** Heading line: `title [unit]` plus `(fixed range)` when fixed. */
@@ -41,7 +60,7 @@ export class LegendView {
     this.el.hidden = !s;
     if (!s) return;
     const stops = Array.from({ length: 17 }, (_, i) => `${colorMapCss(s.map, 1 - i / 16)} ${(i / 16 * 100).toFixed(1)}%`);
-    const ticks = tickValues(s.range[0], s.range[1]).reverse();
+    const ticks = legendTicks(s.range[0], s.range[1]);
     this.el.innerHTML = '';
     const head = document.createElement('div');
     head.className = 'legend-title';
@@ -53,9 +72,11 @@ export class LegendView {
     bar.style.background = `linear-gradient(to bottom, ${stops.join(', ')})`;
     const labels = document.createElement('div');
     labels.className = 'legend-ticks';
+    // one label sits in the middle of the bar, several spread from top to bottom
+    labels.style.justifyContent = ticks.length === 1 ? 'center' : '';
     for (const t of ticks) {
       const d = document.createElement('div');
-      d.textContent = formatNumber(t);
+      d.textContent = t.text;
       labels.append(d);
     }
     body.append(bar, labels);
@@ -74,10 +95,10 @@ export class LegendView {
 export function drawLegend(ctx: CanvasRenderingContext2D, s: LegendState, scale: number): { x: number; y: number; width: number; height: number } {
   const font = (px: number, weight = '') => `${weight}${px * scale}px system-ui, -apple-system, "Segoe UI", Roboto, Arial, sans-serif`;
   const barW = 16 * scale, barH = 180 * scale, pad = 10 * scale;
-  const ticks = tickValues(s.range[0], s.range[1]).reverse();
+  const ticks = legendTicks(s.range[0], s.range[1]);
   ctx.save();
   ctx.font = font(12);
-  const tickW = Math.max(...ticks.map((t) => ctx.measureText(formatNumber(t)).width));
+  const tickW = Math.max(...ticks.map((t) => ctx.measureText(t.text).width));
   ctx.font = font(12, '600 ');
   const headW = ctx.measureText(legendHeading(s)).width;
   const boxW = Math.max(headW, barW + 8 * scale + tickW) + 2 * pad;
@@ -100,7 +121,7 @@ export function drawLegend(ctx: CanvasRenderingContext2D, s: LegendState, scale:
   ctx.font = font(12);
   ctx.textBaseline = 'middle';
   ctx.fillStyle = '#111827';
-  ticks.forEach((t, i) => ctx.fillText(formatNumber(t), x0 + pad + barW + 8 * scale, by + barH * (i / (TICKS - 1))));
+  for (const t of ticks) ctx.fillText(t.text, x0 + pad + barW + 8 * scale, by + barH * t.at);
   if (s.fixed) {
     ctx.textBaseline = 'top';
     ctx.fillStyle = '#4b5563';

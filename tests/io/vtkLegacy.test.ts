@@ -10,7 +10,7 @@ import { basename, join, resolve } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { readLegacyVtk } from '../../src/io/vtkLegacy.ts';
 import { HIGHER_ORDER_TO_LINEAR } from '../../src/model/cellTypes.ts';
-import type { Dataset } from '../../src/model/dataset.ts';
+import type { Dataset, FieldStrings } from '../../src/model/dataset.ts';
 import { componentRange, fieldRange, tupleCount, type FieldArray } from '../../src/model/fieldArray.ts';
 import { cellCount, pointCount } from '../../src/model/piece.ts';
 
@@ -49,10 +49,13 @@ function modelNodes(type: number, vtkIds: number[]): number[] {
   return lin ? vtkIds.slice(0, lin[1]) : vtkIds;
 }
 
-function compareArrays(ours: readonly FieldArray[], vtk: VtkArray[], what: string, warnings: readonly string[]): void {
+/** `strings`: the dataset's field-data string arrays (dataset-level string arrays are read, others skipped). */
+function compareArrays(ours: readonly FieldArray[], vtk: VtkArray[], what: string, warnings: readonly string[], strings?: readonly FieldStrings[]): void {
   const numeric = vtk.filter((a) => a.class !== 'vtkStringArray');
   expect(ours.map((a) => a.name), `${what} names`).toEqual(numeric.map((a) => a.name));
+  if (strings) expect(strings.map((a) => [a.name, a.values.length]), `${what} string arrays`).toEqual(vtk.filter((a) => a.class === 'vtkStringArray').map((a) => [a.name, a.tuples]));
   for (const v of vtk) {
+    if (v.class === 'vtkStringArray' && strings) continue;
     if (v.class === 'vtkStringArray') {
       expect(warnings.some((w) => w.includes(`"${v.name}"`) && w.includes('string array skipped')), `${what} string array "${v.name}" skipped with a warning`).toBe(true);
       continue;
@@ -113,7 +116,7 @@ function compareWithVtk(d: Dataset, vtk: VtkReport): void {
 
   compareArrays(p.pointData, vtk.pointData, 'point data', d.warnings);
   compareArrays(p.cellData, vtk.cellData, 'cell data', d.warnings);
-  compareArrays(d.fieldData, vtk.fieldData, 'field data', d.warnings);
+  compareArrays(d.fieldData, vtk.fieldData, 'field data', d.warnings, d.fieldStrings ?? []);
 }
 
 const cellSizeOf = (p: Dataset['pieces'][number], c: number) => p.offsets[c + 1]! - p.offsets[c]!;

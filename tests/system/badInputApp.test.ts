@@ -4,20 +4,20 @@
  * set in local storage that nests too deeply. Each shows one clear line in the banner and leaves the
  * open field as it was (its name and its surfaces). Screenshots go to tests/.screenshots/ (git-ignored).
  */
-import { mkdirSync, mkdtempSync, rmSync, writeFileSync } from 'node:fs';
+import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import type { Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { STORE_KEY } from '../../src/app/probeSetStore.ts';
-import { REPO, openApp, waitIdle, type AppSession } from './browser.ts';
+import { waitIdle, type Browser } from './browser.ts';
+import { openAppForTests, pageTools } from './appPage.ts';
 
-const SHOTS = join(REPO, 'tests/.screenshots');
-let app: AppSession | undefined;
+let browser: Browser;
 let page: Page;
+const { shot } = pageTools(() => page);
 let dir = '';
 
-const shot = (name: string) => page.screenshot({ path: join(SHOTS, `${name}.png`) });
 const summary = () => page.locator('#file-summary').innerText();
 
 /** Chooses `path` in the file input and waits for the error banner; returns its text. */
@@ -29,14 +29,10 @@ async function openBad(path: string): Promise<string> {
 }
 
 beforeAll(async () => {
-  mkdirSync(SHOTS, { recursive: true });
   dir = mkdtempSync(join(tmpdir(), 'fieldtally-badapp-'));
-  app = await openApp();
-  ({ page } = app);
 }, 600_000);
-
+openAppForTests((app) => { ({ browser, page } = app); }, 600_000);
 afterAll(async () => {
-  await app?.close();
   if (dir) rmSync(dir, { recursive: true, force: true });
 });
 
@@ -86,7 +82,7 @@ describe('bad input in the app', () => {
   });
 
   it('made no request beyond localhost and logged no page error', () => {
-    expect(app!.browser.blocked).toEqual([]);
-    expect(app!.browser.errors.filter((e) => !/Failed to load resource/.test(e))).toEqual([]);
+    expect(browser.blocked).toEqual([]);
+    expect(browser.errors.filter((e) => !/Failed to load resource/.test(e))).toEqual([]);
   });
 });

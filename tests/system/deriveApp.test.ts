@@ -6,29 +6,22 @@
  * a reload and removed. Screenshots go to tests/.screenshots/ (git-ignored) and were looked at.
  */
 import { execFileSync } from 'node:child_process';
-import { mkdirSync, readFileSync } from 'node:fs';
+import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import type { Page } from 'playwright-core';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import { pipeExact } from '../../src/samples/pipe.ts';
-import { parseFormatted } from '../../src/ui/format.ts';
-import { REPO, openApp, waitIdle, type AppSession } from './browser.ts';
+import { REPO, waitIdle } from './browser.ts';
+import { openAppForTests, pageTools } from './appPage.ts';
 
-const SHOTS = join(REPO, 'tests/.screenshots');
 const PIPE = join(REPO, 'sample-fields/pipe-medium.vtu');
 
-let app: AppSession | undefined;
 let page: Page;
+const { shot, control, openFile: chooseFile, downloadText: downloadOf, pinNumber } = pageTools(() => page);
 
-const shot = (name: string) => page.screenshot({ path: join(SHOTS, `${name}.png`) });
 const sig4 = (x: number) => Number(x.toPrecision(4));
 const sig6 = (x: number) => Number(x.toPrecision(6));
 
-function control(label: string, folder?: string) {
-  const re = new RegExp(`^${label.replace(/[[\]()|.*+?^$]/g, '\\$&')}$`);
-  const scope = folder ? page.locator('.lil-gui', { has: page.locator(':scope > .lil-title', { hasText: folder }) }) : page;
-  return scope.locator('.lil-controller', { has: page.locator('.lil-name', { hasText: re }) }).first();
-}
 async function setText(label: string, value: string | number, folder?: string): Promise<void> {
   const input = control(label, folder).locator('input').last();
   await input.fill(String(value));
@@ -51,35 +44,17 @@ async function colourRange(): Promise<[number, number]> {
   const hi = Number(await control('range high', 'Colour').locator('input').inputValue());
   return [lo, hi];
 }
-async function pinText(id: string, quantity: string): Promise<string> {
-  return (await page.locator(`[data-pin="${id}"] [data-quantity="${quantity}"]`).innerText()).split('=').slice(1).join('=').trim();
-}
-const pinNumber = async (id: string, quantity: string) => parseFormatted((await pinText(id, quantity)).replace(/ \(≈ 0.*$/, '').replace(/ [^ ]*$/, ''));
 
 function cli(...args: string[]): Record<string, unknown> {
   return JSON.parse(execFileSync(process.execPath, [join(REPO, 'bin/fieldtally.mjs'), ...args, '--json'], { cwd: REPO, encoding: 'utf8' })) as Record<string, unknown>;
 }
 
 async function openFile(path: string, name: string): Promise<void> {
-  await page.setInputFiles('#file-input', path);
-  await page.waitForFunction((n) => document.getElementById('file-summary')!.textContent!.startsWith(n), name, { timeout: 60_000 });
+  await chooseFile(path, name);
   await settle();
 }
 
-async function downloadOf(click: () => Promise<void>): Promise<string> {
-  const [d] = await Promise.all([page.waitForEvent('download'), click()]);
-  return readFileSync((await d.path())!, 'utf8');
-}
-
-beforeAll(async () => {
-  mkdirSync(SHOTS, { recursive: true });
-  app = await openApp();
-  ({ page } = app);
-}, 240_000);
-
-afterAll(async () => {
-  await app?.close();
-});
+openAppForTests((app) => { ({ page } = app); });
 
 describe('derived fields, wall quantities and formulas in the app', () => {
   // Reference: the Hagen–Poiseuille solution (Hagen 1839, Poiseuille 1840; White, Fluid Mechanics, 7th ed., §6.9):

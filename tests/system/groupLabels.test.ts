@@ -6,18 +6,17 @@
  * and were looked at. The file is the bundled slow-flow sphere (sample-fields/README.md): its boundary
  * groups are `group 1` (the sphere) and `group 2` (the outer boundary, hidden at opening).
  */
-import { mkdirSync, readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import type { Page } from 'playwright-core';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { REPO, openApp, waitIdle, type AppSession } from './browser.ts';
+import { describe, expect, it } from 'vitest';
+import { REPO, waitIdle, type Browser } from './browser.ts';
+import { openAppForTests, pageTools } from './appPage.ts';
 
-const SHOTS = join(REPO, 'tests/.screenshots');
 const SPHERE = join(REPO, 'sample-fields/sphere-stokes.vtu');
 
-let app: AppSession | undefined;
+let browser: Browser;
 let page: Page;
-const shot = (name: string) => page.screenshot({ path: join(SHOTS, `${name}.png`) });
+const { shot, downloadText: downloadOf } = pageTools(() => page);
 
 const surfaces = () => page.locator('.lil-gui', { has: page.locator(':scope > .lil-title', { hasText: 'Surfaces' }) });
 /** The names in the Surfaces list, without their areas. */
@@ -33,18 +32,9 @@ async function rename(fileName: string, label: string): Promise<void> {
   await input.press('Enter');
   await waitIdle(page);
 }
-async function downloadOf(click: () => Promise<void>): Promise<string> {
-  const [d] = await Promise.all([page.waitForEvent('download'), click()]);
-  return readFileSync((await d.path())!, 'utf8');
-}
 const definition = (id: string) => page.locator(`table.results tr.probe-head[data-probe="${id}"] .probe-def`).innerText();
 
-beforeAll(async () => {
-  mkdirSync(SHOTS, { recursive: true });
-  app = await openApp();
-  page = app.page;
-}, 240_000);
-afterAll(async () => { await app?.close(); });
+openAppForTests((app) => { ({ browser, page } = app); });
 
 describe('surface-group labels of the user\'s', () => {
   it('a group renamed in the Surfaces list; the rename is one undo step and comes back on redo', async () => {
@@ -126,7 +116,7 @@ describe('surface-group labels of the user\'s', () => {
   });
 
   it('made no request beyond localhost and logged no error', () => {
-    expect(app!.browser.blocked).toEqual([]);
-    expect(app!.browser.errors).toEqual([]);
+    expect(browser.blocked).toEqual([]);
+    expect(browser.errors).toEqual([]);
   });
 });

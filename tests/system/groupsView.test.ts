@@ -3,33 +3,24 @@
  * the app (Debian chromium, software WebGL). Screenshots g01–g06 go to tests/.screenshots/ (git-ignored)
  * and were looked at. The named-group fixture was written by VTK 9.1 (tests/reference/group_names.py).
  */
-import { mkdirSync, readFileSync, writeFileSync } from 'node:fs';
+import { readFileSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import type { Page } from 'playwright-core';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { REPO, openApp, waitIdle, type AppSession } from './browser.ts';
+import { describe, expect, it } from 'vitest';
+import { REPO, waitIdle } from './browser.ts';
+import { SCREENSHOTS, openAppForTests, pageTools } from './appPage.ts';
 import { readPng } from './png.ts';
 
-const SHOTS = join(REPO, 'tests/.screenshots');
 const PIPE = join(REPO, 'sample-fields/pipe-medium.vtu');
 const SPHERE = join(REPO, 'sample-fields/sphere-stokes.vtu');
 const TANK = join(REPO, 'tests/fixtures/group-names/tank-names-binary.vtu');
+const TANK_LEGACY = join(REPO, 'tests/fixtures/group-names/tank-ids-binary.vtk');
 
-let app: AppSession | undefined;
 let page: Page;
-const shot = (name: string) => page.screenshot({ path: join(SHOTS, `${name}.png`) });
+const { shot, control, openFile: chooseFile } = pageTools(() => page);
 
-function control(label: string | RegExp, folder?: string) {
-  const re = typeof label === 'string' ? new RegExp(`^${label.replace(/[[\]()|.*+?^$]/g, '\\$&')}$`) : label;
-  const scope = folder ? page.locator('.lil-gui', { has: page.locator(':scope > .lil-title', { hasText: folder }) }) : page;
-  return scope.locator('.lil-controller', { has: page.locator('.lil-name', { hasText: re }) }).first();
-}
-async function openFile(path: string, name: string): Promise<void> {
-  await page.setInputFiles('#file-input', path);
-  await page.waitForFunction((n) => document.getElementById('file-summary')!.textContent!.startsWith(n), name, { timeout: 90_000 });
-  await waitIdle(page);
-}
+const openFile = (path: string, name: string) => chooseFile(path, name, 90_000);
 const opacity = async () => Number(await control('surface opacity').locator('input').last().inputValue());
 /** The triad's arms on screen: end minus start of each line, and whether it points away. */
 const arms = () => page.locator('svg.axis-triad-view g[data-axis]').evaluateAll((gs) => Object.fromEntries(gs.map((g) => {
@@ -39,12 +30,7 @@ const arms = () => page.locator('svg.axis-triad-view g[data-axis]').evaluateAll(
 const overlaps = (a: { x: number; y: number; width: number; height: number }, b: { x: number; y: number; width: number; height: number }) =>
   a.x < b.x + b.width && b.x < a.x + a.width && a.y < b.y + b.height && b.y < a.y + a.height;
 
-beforeAll(async () => {
-  mkdirSync(SHOTS, { recursive: true });
-  app = await openApp();
-  page = app.page;
-}, 240_000);
-afterAll(async () => { await app?.close(); });
+openAppForTests((app) => { ({ page } = app); });
 
 describe('groups and view hygiene in the app', () => {
   it('group labels come from the file\'s name table', async () => {
@@ -130,7 +116,7 @@ describe('groups and view hygiene in the app', () => {
 
     const [dl] = await Promise.all([page.waitForEvent('download'), page.getByText('save picture (PNG)').click()]);
     const bytes = new Uint8Array(readFileSync((await dl.path())!));
-    writeFileSync(join(SHOTS, 'g07-export-triad.png'), bytes);
+    writeFileSync(join(SCREENSHOTS, 'g07-export-triad.png'), bytes);
     const pic = readPng(bytes);
     // the triad's filled tags (amber x, teal y, violet z; an arm pointing away has a white tag) in the lower
     // right of the picture, above the footer
@@ -146,5 +132,14 @@ describe('groups and view hygiene in the app', () => {
     expect(toward.length).toBeGreaterThanOrEqual(1);
     const rgbOf: Record<string, [number, number, number]> = { x: [0xb4, 0x53, 0x09], y: [0x0f, 0x76, 0x6e], z: [0x6d, 0x28, 0xd9] };
     for (const k of toward) expect(count(rgbOf[k]!)).toBeGreaterThan(20);
+  });
+
+  it('a legacy .vtk file\'s FIELD name table labels its groups too', async () => {
+    await openFile(TANK_LEGACY, 'tank-ids-binary.vtk');
+    const names = await page.locator('.lil-gui', { has: page.locator(':scope > .lil-title', { hasText: 'Surfaces' }) }).locator('.lil-name').allInnerTexts();
+    // VTK's legacy writer wrote "zone names" = drain, Überlauf 50% with "zone ids" = 3, 7
+    // (tests/reference/legacy_group_names.py); feature parts are numbered after the largest value, 7
+    expect(names.filter((n) => /m²\)$/.test(n))).toEqual(['drain (1.000 m²)', 'Überlauf 50% (1.000 m²)', 'part 8 (1.000 m²)', 'part 9 (1.000 m²)', 'part 10 (1.000 m²)', 'part 11 (1.000 m²)']);
+    await shot('g08-legacy-group-names');
   });
 });

@@ -7,34 +7,23 @@
  * were looked at.
  */
 import { execFileSync } from 'node:child_process';
-import { mkdirSync } from 'node:fs';
 import { join } from 'node:path';
 import type { Page } from 'playwright-core';
-import { afterAll, beforeAll, expect, it } from 'vitest';
-import { parseFormatted } from '../../src/ui/format.ts';
-import { REPO, openApp, waitIdle, type AppSession } from './browser.ts';
+import { expect, it } from 'vitest';
+import { REPO, waitIdle } from './browser.ts';
+import { SCREENSHOTS, openAppForTests, pageTools } from './appPage.ts';
 
-const SHOTS = join(REPO, 'tests/.screenshots');
 const SPHERE = join(REPO, 'sample-fields/sphere-stokes.vtu');
-let app: AppSession | undefined;
 let page: Page;
+const { pinNumber } = pageTools(() => page);
 
 const sig4 = (x: number) => Number(x.toPrecision(4));
 function control(label: string, folder: string) {
   const scope = page.locator('.lil-gui', { has: page.locator(':scope > .lil-title', { hasText: folder }) });
   return scope.locator('.lil-controller', { has: page.locator('.lil-name', { hasText: new RegExp(`^${label}$`) }) }).first();
 }
-async function pinText(id: string, quantity: string): Promise<string> {
-  return (await page.locator(`[data-pin="${id}"] [data-quantity="${quantity}"]`).innerText()).split('=').slice(1).join('=').trim();
-}
-const pinNumber = async (id: string, quantity: string) => parseFormatted((await pinText(id, quantity)).replace(/ \(≈ 0.*$/, '').replace(/ [^ ]*$/, ''));
 
-beforeAll(async () => {
-  mkdirSync(SHOTS, { recursive: true });
-  app = await openApp();
-  page = app.page;
-}, 240_000);
-afterAll(async () => { await app?.close(); });
+openAppForTests((app) => { ({ page } = app); });
 
 it('an iso-surface of p coloured by |velocity|: drawn, area pinned as the CLI says, open; undo and redo', async () => {
   const cli = JSON.parse(execFileSync(process.execPath, [join(REPO, 'bin/fieldtally.mjs'), 'iso-surface', SPHERE, '--field', 'p', '--values', '0.5', '--colour-by', 'velocity', '--json'],
@@ -53,7 +42,7 @@ it('an iso-surface of p coloured by |velocity|: drawn, area pinned as the CLI sa
   expect(await page.locator('[data-pin="iso-1"] [data-quantity="tag"]').innerText()).toMatch(new RegExp(`^open: ${cli.surfaces[0]!.boundaryEdges} boundary edges; colours velocity: 0 m/s … `));
   expect(await pinNumber('iso-1', 'colour.mean')).toBe(sig4(cli.surfaces[0]!.colour.mean));
   expect(await page.locator('table.results').innerText()).toMatch(/open: \d+ boundary edges/);
-  await page.screenshot({ path: join(SHOTS, 'iso-01-pressure-surface.png') });
+  await page.screenshot({ path: join(SCREENSHOTS, 'iso-01-pressure-surface.png') });
 
   // a probe of the set: undo removes it, redo brings it back
   await page.waitForTimeout(400);
@@ -66,5 +55,5 @@ it('an iso-surface of p coloured by |velocity|: drawn, area pinned as the CLI sa
   await page.waitForSelector('[data-pin="iso-1"] [data-quantity="area"]');
   await waitIdle(page);
   expect(await pinNumber('iso-1', 'area')).toBe(sig4(cli.surfaces[0]!.area));
-  await page.screenshot({ path: join(SHOTS, 'iso-02-after-redo.png') });
+  await page.screenshot({ path: join(SCREENSHOTS, 'iso-02-after-redo.png') });
 }, 180_000);

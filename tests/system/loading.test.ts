@@ -6,17 +6,17 @@
  * tests/.screenshots/ (git-ignored).
  */
 import { execFileSync } from 'node:child_process';
-import { existsSync, mkdirSync, mkdtempSync, rmSync, statSync, writeFileSync } from 'node:fs';
+import { existsSync, mkdtempSync, rmSync, statSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import type { Page } from 'playwright-core';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { beforeAll, describe, expect, it } from 'vitest';
 import { MEMORY_PER_FILE_BYTE } from '../../src/app/fileChoice.ts';
 import { loadDatasetFile } from '../../src/io/nodeFiles.ts';
 import { writeVtu } from '../../src/io/writeVtu.ts';
-import { REPO, longTasksSince, openApp, pageNow, waitIdle, type AppSession, type Browser } from './browser.ts';
+import { REPO, longTasksSince, pageNow, waitIdle, type Browser } from './browser.ts';
+import { openAppForTests, pageTools } from './appPage.ts';
 
-const SHOTS = join(REPO, 'tests/.screenshots');
 const PIPE = join(REPO, 'sample-fields/pipe-medium.vtu');
 /** About a million hexahedra, zlib-compressed (src/samples/makeFields.ts --large writes it). */
 const LARGE = join(REPO, 'sample-fields/large/pipe-hex-1M.appended-zlib.vtu');
@@ -24,18 +24,12 @@ const LARGE_NAME = 'pipe-hex-1M.appended-zlib.vtu';
 /** The view's background (src/view/viewScene.ts BACKGROUND, #f5f6f8). */
 const BACKGROUND: [number, number, number] = [0xf5, 0xf6, 0xf8];
 
-let app: AppSession | undefined;
 let browser: Browser;
 let page: Page;
+const { shot, openFile: chooseFile } = pageTools(() => page);
+const openFile = (path: string, name: string) => chooseFile(path, name, 90_000);
 
-const shot = (name: string) => page.screenshot({ path: join(SHOTS, `${name}.png`) });
 const summary = () => page.locator('#file-summary').innerText();
-
-async function openFile(path: string, name: string): Promise<void> {
-  await page.setInputFiles('#file-input', path);
-  await page.waitForFunction((n) => document.getElementById('file-summary')!.textContent!.startsWith(n), name, { timeout: 90_000 });
-  await waitIdle(page, 90_000);
-}
 
 /** Pixels of the view that are not background: the drawn surfaces (the view is a 2D canvas in software rendering). */
 async function drawnPixels(): Promise<number> {
@@ -75,15 +69,9 @@ async function progressWithBytes(): Promise<string> {
 }
 
 beforeAll(async () => {
-  mkdirSync(SHOTS, { recursive: true });
   if (!existsSync(LARGE)) execFileSync(process.execPath, [join(REPO, 'bin/run-ts.mjs'), 'src/samples/makeFields.ts', '--large', '--missing'], { cwd: REPO, stdio: 'ignore' });
-  app = await openApp();
-  ({ browser, page } = app);
 }, 600_000);
-
-afterAll(async () => {
-  await app?.close();
-});
+openAppForTests((app) => { ({ browser, page } = app); }, 600_000);
 
 describe('loading a large file', () => {
   it('the progress bar names each stage and the bytes read, which only grow; no main-thread task over 100 ms', async () => {

@@ -8,17 +8,17 @@
  * Screenshots of each state go to tests/.screenshots/ (git-ignored).
  */
 import { execFileSync } from 'node:child_process';
-import { mkdirSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { unzipSync } from 'fflate';
 import type { Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { parseFormatted } from '../../src/ui/format.ts';
-import { REPO, openApp, waitIdle, type AppSession, type Browser } from './browser.ts';
+import { REPO, waitIdle, type Browser } from './browser.ts';
+import { SCREENSHOTS, openAppForTests, pageTools } from './appPage.ts';
 import { countColor, readPng } from './png.ts';
 
-const SHOTS = join(REPO, 'tests/.screenshots');
 const MEDIUM = join(REPO, 'sample-fields/pipe-medium.vtu');
 const FINE = join(REPO, 'sample-fields/pipe-fine.vtu');
 const FIXTURE = join(REPO, 'tests/study/fixtures/pipe-stations.v2.json');
@@ -26,11 +26,10 @@ const STORE_KEY = 'fieldtally.probe-set';
 const PIN_RGB: [number, number, number] = [0x1d, 0x4e, 0xd8];
 
 let tmp = '';
-let app: AppSession | undefined;
 let browser: Browser;
 let page: Page;
+const { shot, openFile, downloadBytes: downloadOf } = pageTools(() => page);
 
-const shot = (name: string) => page.screenshot({ path: join(SHOTS, `${name}.png`) });
 const cli = (...args: string[]) => execFileSync(process.execPath, [join(REPO, 'bin/fieldtally.mjs'), ...args], { cwd: REPO, encoding: 'utf8' });
 const sig4 = (x: number) => Number(x.toPrecision(4));
 
@@ -41,20 +40,11 @@ async function tableValue(id: string, quantity: string): Promise<number> {
   return parseFormatted((await page.locator(`table.results:not(.comparison) tr[data-probe="${id}"][data-quantity="${quantity}"] td.num`).innerText()));
 }
 const probeIds = () => page.locator('table.results:not(.comparison) tr.probe-head').evaluateAll((rows) => rows.map((r) => (r as HTMLElement).dataset['probe']!));
-async function openFile(path: string, name: string): Promise<void> {
-  await page.setInputFiles('#file-input', path);
-  await page.waitForFunction((n) => document.getElementById('file-summary')!.textContent!.startsWith(n), name, { timeout: 60_000 });
-  await waitIdle(page);
-}
 async function settle(): Promise<void> {
   await waitIdle(page);
   // the set is stored a moment after the last change
   await page.waitForTimeout(400);
   await waitIdle(page);
-}
-async function downloadOf(click: () => Promise<void>): Promise<Uint8Array> {
-  const [d] = await Promise.all([page.waitForEvent('download'), click()]);
-  return new Uint8Array(readFileSync((await d.path())!));
 }
 const button = (label: string) => page.locator('.lil-controller button', { hasText: label });
 
@@ -67,14 +57,10 @@ function cliResults(file: string): { id: string; ok: boolean; quantities: { key:
 const cliValue = (r: ReturnType<typeof cliResults>, id: string, key: string) => r.find((p) => p.id === id)!.quantities.find((q) => q.key === key)!.value;
 
 beforeAll(async () => {
-  mkdirSync(SHOTS, { recursive: true });
   tmp = mkdtempSync(join(tmpdir(), 'fieldtally-sets-'));
-  app = await openApp();
-  ({ browser, page } = app);
 }, 240_000);
-
+openAppForTests((app) => { ({ browser, page } = app); });
 afterAll(async () => {
-  await app?.close();
   if (tmp) rmSync(tmp, { recursive: true, force: true });
 });
 
@@ -196,7 +182,7 @@ describe('probe sets in the viewer', () => {
     expect(html).toMatch(/Caution:<\/strong> These numbers are only as good as the simulation/);
     const png = readPng(zip['pipe-medium-report/view-1.png']!);
     expect(countColor(png, PIN_RGB, 10)).toBeGreaterThan(400);
-    writeFileSync(join(SHOTS, '14-report-picture-from-app.png'), zip['pipe-medium-report/view-1.png']!);
+    writeFileSync(join(SCREENSHOTS, '14-report-picture-from-app.png'), zip['pipe-medium-report/view-1.png']!);
   });
 
   it('keeps the set in local storage and restores it after a reload; nothing is lost', async () => {

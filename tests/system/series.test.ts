@@ -6,11 +6,11 @@
  * the same core run in Node (src/series + src/stats), whose own checks against the exact Taylor–Green
  * solution and closed forms live in tests/series and tests/stats. Screenshots go to tests/.screenshots/.
  */
-import { mkdirSync, mkdtempSync, readdirSync, rmSync, writeFileSync } from 'node:fs';
+import { mkdtempSync, readdirSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import type { Page } from 'playwright-core';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import { writeVtu } from '../../src/io/writeVtu.ts';
 import { nodeSeriesFiles, openSeriesInput } from '../../src/cli/seriesInputs.ts';
 import { evaluateSeries } from '../../src/series/evaluateSeries.ts';
@@ -20,15 +20,15 @@ import { vortexMesh, vortexStep, VORTEX_DEFAULTS } from '../../src/samples/taylo
 import { windowStatistics } from '../../src/stats/windowStats.ts';
 import { dominantFrequency } from '../../src/stats/spectrum.ts';
 import { parseFormatted } from '../../src/ui/format.ts';
-import { REPO, openApp, waitIdle, type AppSession } from './browser.ts';
+import { REPO, waitIdle, type Browser } from './browser.ts';
+import { openAppForTests, pageTools } from './appPage.ts';
 
-const SHOTS = join(REPO, 'tests/.screenshots');
 const SERIES = join(REPO, 'sample-fields/vortex-cell');
 const PROBES = join(REPO, 'examples/vortex-cell.probes.json');
 
-let app: AppSession | undefined;
+let browser: Browser;
 let page: Page;
-const shot = (name: string) => page.screenshot({ path: join(SHOTS, `${name}.png`) });
+const { shot } = pageTools(() => page);
 
 async function waitStep(i: number): Promise<void> {
   await page.waitForFunction((s) => document.body.dataset['step'] === s && document.querySelector('.time-bar')?.getAttribute('data-busy') !== 'true', String(i), { timeout: 60_000 });
@@ -49,15 +49,7 @@ async function pinValue(id: string, key: string): Promise<number> {
   return parseFormatted(text.split('=')[1]!.trim());
 }
 
-beforeAll(async () => {
-  mkdirSync(SHOTS, { recursive: true });
-  app = await openApp();
-  page = app.page;
-}, 240_000);
-
-afterAll(async () => {
-  await app?.close();
-});
+openAppForTests((app) => { ({ browser, page } = app); });
 
 describe('series in the app', () => {
   it('opens a .pvd collection with its time bar on the first step', async () => {
@@ -219,7 +211,7 @@ describe('series in the app', () => {
   });
 
   it('asked nothing of the network and logged no error', () => {
-    expect(app!.browser.blocked).toEqual([]);
-    expect(app!.browser.errors).toEqual([]);
+    expect(browser.blocked).toEqual([]);
+    expect(browser.errors).toEqual([]);
   });
 });

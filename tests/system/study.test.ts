@@ -6,35 +6,27 @@
  * tests/.screenshots/ (git-ignored) and were looked at.
  */
 import { execFileSync } from 'node:child_process';
-import { mkdirSync, readFileSync, writeFileSync } from 'node:fs';
+import { readFileSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import type { Page } from 'playwright-core';
 import { unzipSync } from 'fflate';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import { sphereExact } from '../../src/samples/sphere.ts';
 import { pipeExact } from '../../src/samples/pipe.ts';
-import { parseFormatted } from '../../src/ui/format.ts';
-import { REPO, openApp, waitIdle, type AppSession, type Browser } from './browser.ts';
+import { REPO, waitIdle, type Browser } from './browser.ts';
+import { SCREENSHOTS, openAppForTests, pageTools } from './appPage.ts';
 import { readPng } from './png.ts';
 
-const SHOTS = join(REPO, 'tests/.screenshots');
 const PIPE = join(REPO, 'sample-fields/pipe-medium.vtu');
 const SPHERE = join(REPO, 'sample-fields/sphere-stokes.vtu');
 
-let app: AppSession | undefined;
 let browser: Browser;
 let page: Page;
+const { shot, control, openFile, downloadText: downloadOf, pinText, pinNumber } = pageTools(() => page);
 
-const shot = (name: string) => page.screenshot({ path: join(SHOTS, `${name}.png`) });
 const sig4 = (x: number) => Number(x.toPrecision(4));
 
-/** The lil-gui controller by its label (inside a folder when given). */
-function control(label: string | RegExp, folder?: string) {
-  const re = typeof label === 'string' ? new RegExp(`^${label.replace(/[[\]()|.*+?^$]/g, '\\$&')}$`) : label;
-  const scope = folder ? page.locator('.lil-gui', { has: page.locator(':scope > .lil-title', { hasText: folder }) }) : page;
-  return scope.locator('.lil-controller', { has: page.locator('.lil-name', { hasText: re }) }).first();
-}
 async function setNumber(label: string, value: number, folder?: string): Promise<void> {
   const input = control(label, folder).locator('input').last();
   await input.fill(String(value));
@@ -45,36 +37,13 @@ async function choose(label: string, option: string, folder?: string): Promise<v
   await control(label, folder).locator('select').selectOption({ label: option });
   await waitIdle(page);
 }
-async function pinText(id: string, quantity: string): Promise<string> {
-  return (await page.locator(`[data-pin="${id}"] [data-quantity="${quantity}"]`).innerText()).split('=').slice(1).join('=').trim();
-}
-const pinNumber = async (id: string, quantity: string) => parseFormatted((await pinText(id, quantity)).replace(/ \(≈ 0.*$/, '').replace(/ [^ ]*$/, ''));
 const definition = (id: string) => page.locator(`table.results tr.probe-head[data-probe="${id}"] .probe-def`).innerText();
 
 function cli(...args: string[]): Record<string, unknown> {
   return JSON.parse(execFileSync(process.execPath, [join(REPO, 'bin/fieldtally.mjs'), ...args, '--json'], { cwd: REPO, encoding: 'utf8' })) as Record<string, unknown>;
 }
 
-async function openFile(path: string, name: string): Promise<void> {
-  await page.setInputFiles('#file-input', path);
-  await page.waitForFunction((n) => document.getElementById('file-summary')!.textContent!.startsWith(n), name, { timeout: 60_000 });
-  await waitIdle(page);
-}
-
-async function downloadOf(click: () => Promise<void>): Promise<string> {
-  const [d] = await Promise.all([page.waitForEvent('download'), click()]);
-  return readFileSync((await d.path())!, 'utf8');
-}
-
-beforeAll(async () => {
-  mkdirSync(SHOTS, { recursive: true });
-  app = await openApp();
-  ({ browser, page } = app);
-}, 240_000);
-
-afterAll(async () => {
-  await app?.close();
-});
+openAppForTests((app) => { ({ browser, page } = app); });
 
 describe('a study in the app', () => {
   const e = pipeExact();
@@ -433,7 +402,7 @@ describe('a study in the app', () => {
     await setNumber('picture height [px]', 720);
     const [dl] = await Promise.all([page.waitForEvent('download'), page.getByText('save picture (PNG)').click()]);
     const bytes = new Uint8Array(readFileSync((await dl.path())!));
-    writeFileSync(join(SHOTS, 's12-export-pins-clear.png'), bytes);
+    writeFileSync(join(SCREENSHOTS, 's12-export-pins-clear.png'), bytes);
     const pic = readPng(bytes);
     const pinPixels = (x0: number, y0: number, x1: number, y1: number) => {
       let n = 0;
