@@ -102,6 +102,7 @@ export class FieldMaterial extends THREE.ShaderMaterial {
   declare uniforms: FieldUniforms;
   private flags: Uint8Array;
   private flagTexture: THREE.DataTexture;
+  private mapId: string;
 
   constructor(map: ColorMap, groupCount = 1) {
     const rows = Math.max(1, Math.ceil(groupCount / FLAG_WIDTH));
@@ -128,12 +129,16 @@ export class FieldMaterial extends THREE.ShaderMaterial {
     });
     this.flags = flags;
     this.flagTexture = flagTexture;
+    this.mapId = map.id;
   }
 
   /** Range of values mapped to the two ends of the colour map (file units). */
   setRange(lo: number, hi: number): void { this.uniforms.uRange.value.set(lo, hi); }
 
   setColorMap(map: ColorMap): void {
+    // the same map again keeps its texture (a kept picture stays valid)
+    if (map.id === this.mapId) return;
+    this.mapId = map.id;
     this.uniforms.uMap.value.dispose();
     this.uniforms.uMap.value = colorMapTexture(map);
   }

@@ -162,9 +162,7 @@ export class ViewScene {
       const { target } = shown, w = target.width, h = target.height;
       if (shown.pixels.length !== 4 * w * h) shown.pixels = new Uint8Array(4 * w * h);
       const t0 = performance.now();
-      this.renderer.setRenderTarget(target);
-      this.renderer.render(this.scene, this.camera);
-      this.renderer.setRenderTarget(null);
+      this.drawInto(target);
       const t1 = performance.now();
       await this.renderer.readRenderTargetPixelsAsync(target, 0, 0, w, h, shown.pixels);
       const t2 = performance.now();
@@ -180,6 +178,73 @@ export class ViewScene {
       this.inFlight = false;
       if (this.again) { this.again = false; this.requestRender(); }
     }
+  }
+
+  /**
+   * Keeps the picture of `object` (a child of `root`: the boundary surface) between software frames while
+   * `key()` stays the same and the camera and size do not move: a frame that only changes other objects (a
+   * dragged cut-plane, a new line probe) copies the kept colours and depths and draws just those objects on
+   * top. `key` returns undefined when the layer cannot be kept (see-through: what lies behind it would have
+   * to be blended under it). Undefined `object` stops keeping.
+   */
+  keepStill(object: THREE.Object3D | undefined, key?: () => string | undefined): void {
+    this.still = object && key ? { object, key } : undefined;
+    this.stillKey = undefined;
+  }
+  private still: { object: THREE.Object3D; key: () => string | undefined } | undefined;
+  /** Colours and depths of the kept layer alone, and what they were drawn for. */
+  private stillTarget: THREE.WebGLRenderTarget | undefined;
+  private stillKey: string | undefined;
+  /** Frames drawn with the kept layer copied instead of drawn (for tests and the benchmark). */
+  stillFrames = 0;
+
+  /**
+   * Draws the scene into `target`: at once, or (a kept layer, see `keepStill`) by copying the kept layer's
+   * colours and depths, drawn again only when its key, the camera or the size changed, and drawing the
+   * other objects over them. The result is the same picture: the kept layer is opaque, so drawing it
+   * before the other opaque objects changes no pixel; only see-through lines of both overlapping one
+   * another may blend in another order.
+   */
+  private drawInto(target: THREE.WebGLRenderTarget): void {
+    const r = this.renderer, still = this.still;
+    const layerKey = still && still.object.parent === this.root && still.object.visible ? still.key() : undefined;
+    if (!still || layerKey === undefined) {
+      this.stillKey = undefined;
+      r.setRenderTarget(target);
+      r.render(this.scene, this.camera);
+      r.setRenderTarget(null);
+      return;
+    }
+    this.camera.updateMatrixWorld();
+    const key = `${layerKey}|${target.width}x${target.height}|${this.camera.matrixWorld.elements.join(',')}|${this.camera.projectionMatrix.elements.join(',')}`;
+    const kept = this.stillTarget ??= new THREE.WebGLRenderTarget(target.width, target.height, { colorSpace: THREE.SRGBColorSpace });
+    if (kept.width !== target.width || kept.height !== target.height) kept.setSize(target.width, target.height);
+    const others = [...this.scene.children.filter((o) => o !== this.root), ...this.root.children.filter((o) => o !== still.object)];
+    const shown = others.map((o) => o.visible);
+    if (key !== this.stillKey) {
+      // the kept layer alone
+      for (const o of others) o.visible = false;
+      r.setRenderTarget(kept);
+      r.render(this.scene, this.camera);
+      others.forEach((o, i) => { o.visible = shown[i]!; });
+      this.stillKey = key;
+    } else this.stillFrames++;
+    r.setRenderTarget(target);
+    const gl = r.getContext() as WebGL2RenderingContext;
+    const into = (r.properties.get(target) as { __webglFramebuffer: WebGLFramebuffer }).__webglFramebuffer;
+    const from = (r.properties.get(kept) as { __webglFramebuffer: WebGLFramebuffer }).__webglFramebuffer;
+    gl.bindFramebuffer(gl.READ_FRAMEBUFFER, from);
+    gl.blitFramebuffer(0, 0, kept.width, kept.height, 0, 0, target.width, target.height, gl.COLOR_BUFFER_BIT | gl.DEPTH_BUFFER_BIT, gl.NEAREST);
+    // three.js believes `into` is bound for reading and drawing
+    gl.bindFramebuffer(gl.READ_FRAMEBUFFER, into);
+    still.object.visible = false;
+    const autoClear = r.autoClear;
+    r.autoClear = false;
+    try { r.render(this.scene, this.camera); } finally {
+      r.autoClear = autoClear;
+      still.object.visible = true;
+    }
+    r.setRenderTarget(null);
   }
 
   /** Size of the view in CSS pixels. */
