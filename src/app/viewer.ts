@@ -556,9 +556,11 @@ export class Viewer {
    * While a tool drags a probe (each step recomputed and drawn) over a see-through surface, a software
    * rasteriser leaves the face outlines out: they cost about as much as the surfaces, and a drag step is
    * waited for. They come back with the frame after the drag. An opaque surface keeps them: its picture is
-   * kept between the drag's frames (`ViewScene.keepStill`), outlines and all.
+   * kept between the drag's frames (`ViewScene.keepStill`), outlines and all. Software frames during the
+   * drag are drawn with a quarter of the pixels (`ViewScene.setDragging`).
    */
   private liveDrag(on: boolean): void {
+    this.view.setDragging(on);
     if (!this.view.software || !this.surface || !this.settings.edges || this.settings.opacity >= 1) return;
     this.surface.setEdgesVisible(!on);
     this.view.requestRender();

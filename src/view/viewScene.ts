@@ -23,6 +23,18 @@ function softwareRendering(): boolean {
 /** Background of the view and of exported pictures (light, for reports). */
 export const BACKGROUND = 0xf5f6f8;
 
+/**
+ * Longest wait (ms) for a new probe's first result before a frame is drawn anyway (`holdFrames`): a cut on
+ * 1M cells takes about 0.1–0.25 s, a line probe a few tens of ms.
+ */
+export const NEW_PROBE_FRAME_HOLD_MS = 300;
+
+/**
+ * Software path: scale of the picture's pixels while a probe is dragged (`setDragging`): a quarter of the
+ * pixels to rasterise, the picture a little soft until the drag ends.
+ */
+export const DRAG_PIXEL_SCALE = 0.5;
+
 /** Software frames whose costs `ViewScene.frameTimes` keeps. */
 const FRAME_TIMES_KEPT = 64;
 
@@ -46,6 +58,9 @@ export class ViewScene {
    */
   private readonly shown: { ctx: CanvasRenderingContext2D; target: THREE.WebGLRenderTarget; pixels: Uint8Array<ArrayBuffer> } | undefined;
   private inFlight = false;
+  /** Software path: a probe is being dragged (frames at `DRAG_PIXEL_SCALE`), and the target they use. */
+  private dragging = false;
+  private dragTarget: THREE.WebGLRenderTarget | undefined;
   private again = false;
   /**
    * The last software frames' costs (ms, newest last, at most `FRAME_TIMES_KEPT`): `draw` issuing the draw
@@ -132,10 +147,32 @@ export class ViewScene {
   /** Called after every rendered frame (pins follow the camera through it). */
   onFrame(listener: () => void): void { this.listeners.push(listener); }
 
+  /**
+   * Software path: frames requested in the next `ms` wait until `releaseFrames()` (or the time is up), so a
+   * new probe's marker and its first result share one frame. A frame started for the marker alone would
+   * hold the result back by a whole software frame.
+   */
+  holdFrames(ms = NEW_PROBE_FRAME_HOLD_MS): void {
+    if (!this.shown) return;
+    this.releaseFrames();
+    this.held = setTimeout(() => this.releaseFrames(), ms);
+  }
+
+  /** Ends `holdFrames` and draws what was requested meanwhile. */
+  releaseFrames(): void {
+    if (this.held === undefined) return;
+    clearTimeout(this.held);
+    this.held = undefined;
+    if (this.heldRequest) { this.heldRequest = false; this.requestRender(); }
+  }
+  private held: ReturnType<typeof setTimeout> | undefined;
+  private heldRequest = false;
+
   /** Schedules one frame; several requests in a frame render once. */
   requestRender(): void {
     // tests and the benchmark wait for the picture to settle through this attribute
     document.body.dataset['drawing'] = 'true';
+    if (this.held !== undefined) { this.heldRequest = true; return; }
     if (this.frameQueued) return;
     if (this.inFlight) { this.again = true; return; }
     this.frameQueued = true;
@@ -159,7 +196,7 @@ export class ViewScene {
   private async drawOffscreen(shown: NonNullable<ViewScene['shown']>): Promise<void> {
     this.inFlight = true;
     try {
-      const { target } = shown, w = target.width, h = target.height;
+      const target = this.dragging ? this.dragTargetFor(shown.target) : shown.target, w = target.width, h = target.height;
       if (shown.pixels.length !== 4 * w * h) shown.pixels = new Uint8Array(4 * w * h);
       const t0 = performance.now();
       this.drawInto(target);
@@ -168,8 +205,9 @@ export class ViewScene {
       const t2 = performance.now();
       const image = new ImageData(new Uint8ClampedArray(shown.pixels.buffer, 0, 4 * w * h), w, h);
       const bitmap = await createImageBitmap(image, { imageOrientation: 'flipY' });
-      if (this.canvas.width !== w || this.canvas.height !== h) { this.canvas.width = w; this.canvas.height = h; }
-      shown.ctx.drawImage(bitmap, 0, 0);
+      const full = shown.target;
+      if (this.canvas.width !== full.width || this.canvas.height !== full.height) { this.canvas.width = full.width; this.canvas.height = full.height; }
+      shown.ctx.drawImage(bitmap, 0, 0, full.width, full.height);
       bitmap.close();
       this.frameTimes.push({ draw: t1 - t0, raster: t2 - t1, show: performance.now() - t2 });
       if (this.frameTimes.length > FRAME_TIMES_KEPT) this.frameTimes.shift();
@@ -245,6 +283,23 @@ export class ViewScene {
       still.object.visible = true;
     }
     r.setRenderTarget(null);
+  }
+
+  /**
+   * Software path: while `on` (a probe is dragged, each step waited for), frames are drawn with
+   * `DRAG_PIXEL_SCALE` of the pixels and shown stretched; the frame after the drag is sharp again.
+   */
+  setDragging(on: boolean): void {
+    if (!this.shown || this.dragging === on) return;
+    this.dragging = on;
+    this.requestRender();
+  }
+
+  private dragTargetFor(full: THREE.WebGLRenderTarget): THREE.WebGLRenderTarget {
+    const w = Math.max(1, Math.round(full.width * DRAG_PIXEL_SCALE)), h = Math.max(1, Math.round(full.height * DRAG_PIXEL_SCALE));
+    const t = this.dragTarget ??= new THREE.WebGLRenderTarget(w, h, { colorSpace: THREE.SRGBColorSpace });
+    if (t.width !== w || t.height !== h) t.setSize(w, h);
+    return t;
   }
 
   /** Size of the view in CSS pixels. */
