@@ -9,7 +9,7 @@
  */
 import { existsSync, readdirSync, readFileSync } from 'node:fs';
 
-interface Sample { at: number; waited: number }
+interface Sample { at: number; ran: number; waited: number }
 
 /** Epoch ms and run-queue delay (ms) of each renderer's main thread (its pid), sampled every `everyMs`. */
 export class RunQueueWatch {
@@ -32,10 +32,10 @@ export class RunQueueWatch {
     if (now - this.lastScan > 500) { this.renderers = rendererPids(this.owner); this.lastScan = now; }
     for (const pid of this.renderers) {
       try {
-        const waited = Number(readFileSync(`/proc/${pid}/task/${pid}/schedstat`, 'utf8').split(' ')[1]) / 1e6;
+        const [ran, waited] = readFileSync(`/proc/${pid}/task/${pid}/schedstat`, 'utf8').split(' ').map((x) => Number(x) / 1e6) as [number, number];
         let list = this.samples.get(pid);
         if (!list) this.samples.set(pid, list = []);
-        list.push({ at: now, waited });
+        list.push({ at: now, ran, waited });
       } catch { /* the renderer ended */ }
     }
   }
@@ -44,19 +44,27 @@ export class RunQueueWatch {
    * Milliseconds the busiest renderer's main thread waited for a CPU between the first and last samples taken
    * within [from, to] (epoch ms); 0 with fewer than two samples there.
    */
-  waitedWithin(from: number, to: number): number {
+  waitedWithin(from: number, to: number): number { return this.within(from, to).waited; }
+
+  /** Milliseconds run and waited for a CPU between the first and last samples within [from, to] (see `waitedWithin`). */
+  private within(from: number, to: number): { ran: number; waited: number } {
     const pid = busiest([...this.samples.keys()]);
     const inside = (pid === undefined ? [] : this.samples.get(pid)!).filter((s) => s.at >= from && s.at <= to);
-    return inside.length < 2 ? 0 : inside.at(-1)!.waited - inside[0]!.waited;
+    if (inside.length < 2) return { ran: 0, waited: 0 };
+    return { ran: inside.at(-1)!.ran - inside[0]!.ran, waited: inside.at(-1)!.waited - inside[0]!.waited };
   }
 
   /**
    * Of long tasks (page clock: `start` ms after `timeOrigin`, `duration` ms), those that held the main thread
-   * for more than `limitMs` once the waiting for a CPU inside them is taken off; each with `heldMs`.
+   * for more than `limitMs` once the waiting for a CPU inside them is taken off; each with `heldMs` and, of
+   * that, `ranMs` sampled as running (the rest was blocked, e.g. waiting for the GPU process).
    */
-  heldOver<T extends { start: number; duration: number }>(tasks: T[], timeOrigin: number, limitMs: number): (T & { heldMs: number })[] {
+  heldOver<T extends { start: number; duration: number }>(tasks: T[], timeOrigin: number, limitMs: number): (T & { heldMs: number; ranMs: number })[] {
     return tasks
-      .map((t) => ({ ...t, heldMs: Math.round(t.duration - this.waitedWithin(timeOrigin + t.start, timeOrigin + t.start + t.duration)) }))
+      .map((t) => {
+        const w = this.within(timeOrigin + t.start, timeOrigin + t.start + t.duration);
+        return { ...t, heldMs: Math.round(t.duration - w.waited), ranMs: Math.round(w.ran) };
+      })
       .filter((t) => t.heldMs > limitMs);
   }
 }
