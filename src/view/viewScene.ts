@@ -6,6 +6,7 @@
 import * as THREE from 'three';
 import { OrbitControls } from 'three/examples/jsm/controls/OrbitControls.js';
 import type { Bounds } from '../model/bounds.ts';
+import { setPixelScale } from './screenSize.ts';
 
 /** Camera presets: look along an axis (from the positive or negative side) or isometric. */
 export type ViewPreset = '+x' | '-x' | '+y' | '-y' | '+z' | '-z' | 'iso';
@@ -297,7 +298,12 @@ export class ViewScene {
 
   private dragTargetFor(full: THREE.WebGLRenderTarget): THREE.WebGLRenderTarget {
     const w = Math.max(1, Math.round(full.width * DRAG_PIXEL_SCALE)), h = Math.max(1, Math.round(full.height * DRAG_PIXEL_SCALE));
-    const t = this.dragTarget ??= new THREE.WebGLRenderTarget(w, h, { colorSpace: THREE.SRGBColorSpace });
+    let t = this.dragTarget;
+    if (!t) {
+      t = this.dragTarget = new THREE.WebGLRenderTarget(w, h, { colorSpace: THREE.SRGBColorSpace });
+      // handles keep their size on screen
+      setPixelScale(t, DRAG_PIXEL_SCALE);
+    }
     if (t.width !== w || t.height !== h) t.setSize(w, h);
     return t;
   }
