@@ -53,7 +53,7 @@ export class LineTool {
     this.request = latestWinsPerKey((x: { id: string }) => x.id,
       (l: Line) => v.track(timedCall('sample', () => v.compute.sample({ from: [l.ax, l.ay, l.az], to: [l.bx, l.by, l.bz], samples: l.samples }), true, l.id)),
       (reply, l) => this.show(l, reply),
-      (e) => v.banner.error(`Line probe: ${(e as Error).message}`),
+      (e) => { v.banner.error(`Line probe: ${(e as Error).message}`); v.view.releaseFrames(); },
     );
     chart.download.onclick = () => this.downloadCsv();
     v.onDataset(() => { this.removeAll(); this.buildPanel(); });
@@ -114,6 +114,8 @@ export class LineTool {
       id: `line-${number}`, number, label: `Line ${number}`, widget: new LineProbeWidget(this.v.diagonal),
       ax: a[0], ay: a[1], az: a[2], bx: e[0], by: e[1], bz: e[2], samples: DEFAULT_SAMPLES,
     };
+    // the new line is first drawn with its samples' pin
+    this.v.view.holdFrames();
     this.lines.push(l);
     this.v.view.root.add(l.widget.group);
     this.current = l;
@@ -145,6 +147,7 @@ export class LineTool {
     this.v.setResult(lineResult(l, reply));
     if (l === this.current) this.chart.set(this.chartData(l));
     markDrawn(reply, this.v.view.nextFrame());
+    this.v.view.releaseFrames();
   }
 
   private chartData(l: Line | undefined): ChartData | undefined {

@@ -100,6 +100,13 @@ $('about-button').addEventListener('click', () => viewer.about.open());
   },
   /** The last software frames' costs (ms), for the viewer benchmark. */
   frameTimes(): { draw: number; raster: number; show: number }[] { return [...viewer.view.frameTimes]; },
+  /** Software frames drawn over the kept picture of the surface, and switching that keeping off and on (tests). */
+  keptFrames(): number { return viewer.view.stillFrames; },
+  keepSurface(on: boolean): Promise<void> {
+    const s = viewer.surface;
+    viewer.view.keepStill(on ? s?.group : undefined, s && (() => s.stillKey()));
+    return viewer.view.nextFrame();
+  },
   /** A probe's pin anchor (file length unit), or undefined. */
   anchor(id: string): [number, number, number] | undefined {
     return viewer.allResults.find((r) => r.id === id)?.anchor;

@@ -60,7 +60,7 @@ export class PlaneTool {
       (p: Plane) => v.track(timedCall('cut', () => v.compute.cut(request(p)), true, p.id)),
       (reply, p) => this.showDrawing(p, reply),
       (reply, p) => this.show(p, reply),
-      (e) => { v.banner.error(`Cut-plane: ${(e as Error).message}`); v.view.requestRender(); },
+      (e) => { v.banner.error(`Cut-plane: ${(e as Error).message}`); v.view.releaseFrames(); v.view.requestRender(); },
     );
     v.onDataset(() => this.reset());
     v.onColor(() => { for (const p of this.planes) this.request.request(p, false); });
@@ -138,6 +138,8 @@ export class PlaneTool {
     };
     this.planes.push(p);
     this.v.view.root.add(p.layer.group);
+    // the new plane is first drawn with its cut
+    this.v.view.holdFrames();
     // no see-through here: a set re-applied on a newly opened file leaves that file's fresh view alone
     this.select(p);
     this.changed();
@@ -233,6 +235,7 @@ export class PlaneTool {
     p.layer.material.setRange(...this.v.colorRange);
     p.layer.material.setColorMap(this.v.colorMap);
     markDrawn(reply, this.v.view.nextFrame());
+    this.v.view.releaseFrames();
   }
 
   private show(p: Plane, reply: CutReply): void {
@@ -244,6 +247,7 @@ export class PlaneTool {
     p.layer.material.setColorMap(this.v.colorMap);
     this.v.setResult(planeResult(p, reply, this.densityOf(p).text));
     markDrawn(reply, this.v.view.nextFrame());
+    this.v.view.releaseFrames();
   }
 
   /** Range and map follow the surface's. */

@@ -310,6 +310,9 @@ export class Viewer {
     this.surface.setEdgesVisible(this.settings.edges);
     this.surface.setOpacity(this.settings.opacity);
     this.view.root.add(this.surface.group);
+    // the surface's picture is kept between frames that change only probes (a drag, a new cut or line)
+    const surface = this.surface;
+    this.view.keepStill(surface.group, () => surface.stillKey());
     this.view.setBounds(this.bounds);
     this.fields = fieldEntries(d.report);
     this.summary.textContent = summaryLine(d);
@@ -550,12 +553,15 @@ export class Viewer {
   }
 
   /**
-   * While a tool drags a probe (each step recomputed and drawn), a software rasteriser leaves the face
-   * outlines out: they cost about as much as the surfaces, and a drag step is waited for. They come back
-   * with the frame after the drag.
+   * While a tool drags a probe (each step recomputed and drawn) over a see-through surface, a software
+   * rasteriser leaves the face outlines out: they cost about as much as the surfaces, and a drag step is
+   * waited for. They come back with the frame after the drag. An opaque surface keeps them: its picture is
+   * kept between the drag's frames (`ViewScene.keepStill`), outlines and all. Software frames during the
+   * drag are drawn with a quarter of the pixels (`ViewScene.setDragging`).
    */
   private liveDrag(on: boolean): void {
-    if (!this.view.software || !this.surface || !this.settings.edges) return;
+    this.view.setDragging(on);
+    if (!this.view.software || !this.surface || !this.settings.edges || this.settings.opacity >= 1) return;
     this.surface.setEdgesVisible(!on);
     this.view.requestRender();
   }

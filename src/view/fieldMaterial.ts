@@ -15,6 +15,12 @@ export const SELECTION_COLOR = 0xff7a00;
 /** Width of the flags texture; group g is at texel (g mod width, g div width). */
 const FLAG_WIDTH = 1024;
 
+/**
+ * Clip-space position given to the vertices of hidden groups: beyond the far plane (z > w), so every
+ * triangle or segment of the group is clipped before rasterisation.
+ */
+const HIDDEN_POSITION = 'vec4(0.0, 0.0, 2.0, 1.0)';
+
 const VERTEX = /* glsl */ `
 attribute float aValue;
 attribute float aGroup;
@@ -24,16 +30,17 @@ varying float vT;
 varying vec3 vNormal;
 varying vec3 vView;
 varying float vSelected;
-varying float vHidden;
 varying float vMissing;
 void main() {
+  int g = int(aGroup + 0.5);
+  vec4 f = texelFetch(uFlags, ivec2(g % ${FLAG_WIDTH}, g / ${FLAG_WIDTH}), 0);
+  // a hidden group's vertices go beyond the far plane: its triangles are clipped whole (all three corners
+  // carry the same group), so they cost no pixels at all instead of being shaded and thrown away
+  if (f.r < 0.5) { gl_Position = ${HIDDEN_POSITION}; return; }
   // NO_VALUE (src/surface/wallDrawing.ts) marks a face without a value: drawn grey
   vMissing = aValue >= ${NO_VALUE / 10} ? 1.0 : 0.0;
   float span = uRange.y - uRange.x;
   vT = span > 0.0 ? (aValue - uRange.x) / span : 0.5;
-  int g = int(aGroup + 0.5);
-  vec4 f = texelFetch(uFlags, ivec2(g % ${FLAG_WIDTH}, g / ${FLAG_WIDTH}), 0);
-  vHidden = f.r < 0.5 ? 1.0 : 0.0;
   vSelected = f.g;
   vNormal = normalize(normalMatrix * normal);
   vec4 viewPosition = modelViewMatrix * vec4(position, 1.0);
@@ -51,10 +58,8 @@ varying float vT;
 varying vec3 vNormal;
 varying vec3 vView;
 varying float vSelected;
-varying float vHidden;
 varying float vMissing;
 void main() {
-  if (vHidden > 0.5) discard;
   vec3 c = uSolid > 0.5 || vMissing > 0.5 ? uSolidColor : texture2D(uMap, vec2(clamp(vT, 0.0, 1.0) * 0.99609375 + 0.001953125, 0.5)).rgb;
   // selected groups: a light tint, and a rim where the surface turns away at grazing angles toward its
   // silhouette (a closed body has no outline to draw), opaque even when the surface is see-through; the
@@ -97,6 +102,7 @@ export class FieldMaterial extends THREE.ShaderMaterial {
   declare uniforms: FieldUniforms;
   private flags: Uint8Array;
   private flagTexture: THREE.DataTexture;
+  private mapId: string;
 
   constructor(map: ColorMap, groupCount = 1) {
     const rows = Math.max(1, Math.ceil(groupCount / FLAG_WIDTH));
@@ -123,12 +129,16 @@ export class FieldMaterial extends THREE.ShaderMaterial {
     });
     this.flags = flags;
     this.flagTexture = flagTexture;
+    this.mapId = map.id;
   }
 
   /** Range of values mapped to the two ends of the colour map (file units). */
   setRange(lo: number, hi: number): void { this.uniforms.uRange.value.set(lo, hi); }
 
   setColorMap(map: ColorMap): void {
+    // the same map again keeps its texture (a kept picture stays valid)
+    if (map.id === this.mapId) return;
+    this.mapId = map.id;
     this.uniforms.uMap.value.dispose();
     this.uniforms.uMap.value = colorMapTexture(map);
   }
@@ -170,21 +180,19 @@ export class OutlineMaterial extends THREE.ShaderMaterial {
         attribute float aGroup;
         attribute float aShare;
         uniform sampler2D uFlags;
-        varying float vHidden;
         varying float vAlpha;
         void main() {
           int g = int(aGroup + 0.5);
-          vHidden = texelFetch(uFlags, ivec2(g % ${FLAG_WIDTH}, g / ${FLAG_WIDTH}), 0).r < 0.5 ? 1.0 : 0.0;
+          // both ends of an outline segment carry its group: a hidden group's segments are clipped whole
+          if (texelFetch(uFlags, ivec2(g % ${FLAG_WIDTH}, g / ${FLAG_WIDTH}), 0).r < 0.5) { gl_Position = ${HIDDEN_POSITION}; return; }
           // an edge drawn once for the n faces sharing it looks like n overlaid lines of opacity ALPHA
           vAlpha = 1.0 - pow(1.0 - ${OUTLINE_ALPHA.toFixed(2)}, max(aShare, 1.0));
           gl_Position = projectionMatrix * modelViewMatrix * vec4(position, 1.0);
         }`,
       fragmentShader: /* glsl */ `
         uniform vec3 uColor;
-        varying float vHidden;
         varying float vAlpha;
         void main() {
-          if (vHidden > 0.5) discard;
           gl_FragColor = vec4(uColor, vAlpha);
           #include <colorspace_fragment>
         }`,

@@ -7,6 +7,15 @@ import * as THREE from 'three';
 
 const size = new THREE.Vector2(), pos = new THREE.Vector3();
 
+/**
+ * Targets drawn with fewer pixels than the view shows them at (the software path's drag frames): their
+ * pixels per view pixel. A handle keeps its size on screen in them.
+ */
+const pixelScales = new WeakMap<THREE.WebGLRenderTarget, number>();
+
+/** Declares that `target`'s pictures are shown stretched by 1/`scale` (0 < scale ≤ 1). */
+export function setPixelScale(target: THREE.WebGLRenderTarget, scale: number): void { pixelScales.set(target, scale); }
+
 /** World length that spans one pixel at `point` for `camera` drawing `heightPx` pixels high. */
 export function worldPerPixel(camera: THREE.Camera, point: THREE.Vector3, heightPx: number): number {
   const cam = camera as THREE.PerspectiveCamera & THREE.OrthographicCamera;
@@ -19,7 +28,7 @@ export function worldPerPixel(camera: THREE.Camera, point: THREE.Vector3, height
 export function keepScreenSize(object: THREE.Object3D, pixels: number): void {
   object.onBeforeRender = (renderer, _scene, camera) => {
     const target = renderer.getRenderTarget();
-    const h = target ? target.height : renderer.getSize(size).y;
+    const h = target ? target.height / (pixelScales.get(target as THREE.WebGLRenderTarget) ?? 1) : renderer.getSize(size).y;
     object.scale.setScalar(pixels * worldPerPixel(camera, object.getWorldPosition(new THREE.Vector3()), h));
     object.updateMatrixWorld();
     // the renderer already took the model-view matrix: refresh it for this draw

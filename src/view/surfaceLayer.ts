@@ -46,6 +46,8 @@ export class SurfaceLayer {
   private readonly hidden = new Set<number>();
   private readonly selected = new Set<number>();
   private edgesOn = true;
+  /** Counts changes to what is drawn (values, outlines, opacity, groups, parts shown): part of `stillKey`. */
+  private changes = 0;
 
   /**
    * `progressive` (software rendering): only the first parts show (the next frame uploads them), the rest
@@ -101,6 +103,7 @@ export class SurfaceLayer {
       if (budget < p.bytes && out.length > 0) break;
       budget -= p.bytes;
       p.revealed = true;
+      this.changes++;
       p.object.visible = this.meshes.includes(p) || this.edgesOn;
       out.push(p.object);
     }
@@ -112,6 +115,7 @@ export class SurfaceLayer {
 
   /** Colours by per-vertex values (from the worker, in this surface's vertex order); null: plain grey. */
   setValues(v: DrawingValues | null): void {
+    this.changes++;
     if (v) {
       for (const p of this.meshes) {
         const geo = (p.object as THREE.Mesh).geometry, n = geo.getAttribute('aGroup').count;
@@ -123,11 +127,13 @@ export class SurfaceLayer {
 
   setEdgesVisible(on: boolean): void {
     this.edgesOn = on;
+    this.changes++;
     for (const p of this.edges) p.object.visible = on && p.revealed;
   }
 
   /** Opacity of the surface (1 opaque); below 1 lets cut-planes and probes inside show through. */
   setOpacity(a: number): void {
+    this.changes++;
     this.material.uniforms.uOpacity.value = a;
     this.material.transparent = a < 1;
     this.material.depthWrite = a >= 1;
@@ -147,7 +153,18 @@ export class SurfaceLayer {
   }
 
   private updateOutline(): void {
+    this.changes++;
     this.outline.set(new Set([...this.selected].filter((g) => !this.hidden.has(g))));
+  }
+
+  /**
+   * What the surface's picture depends on besides the camera (for `ViewScene.keepStill`): changes made
+   * through this layer, the colour range, map and solid flag; undefined while it is see-through.
+   */
+  stillKey(): string | undefined {
+    if (this.material.transparent) return undefined;
+    const u = this.material.uniforms;
+    return `${this.changes}|${u.uRange.value.x},${u.uRange.value.y}|${u.uMap.value.uuid}|${u.uSolid.value}`;
   }
 
   /** Bounds of the drawn triangles of the given groups (for fitting the view to what is shown). */

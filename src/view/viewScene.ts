@@ -6,6 +6,7 @@
 import * as THREE from 'three';
 import { OrbitControls } from 'three/examples/jsm/controls/OrbitControls.js';
 import type { Bounds } from '../model/bounds.ts';
+import { setPixelScale } from './screenSize.ts';
 
 /** Camera presets: look along an axis (from the positive or negative side) or isometric. */
 export type ViewPreset = '+x' | '-x' | '+y' | '-y' | '+z' | '-z' | 'iso';
@@ -22,6 +23,18 @@ function softwareRendering(): boolean {
 
 /** Background of the view and of exported pictures (light, for reports). */
 export const BACKGROUND = 0xf5f6f8;
+
+/**
+ * Longest wait (ms) for a new probe's first result before a frame is drawn anyway (`holdFrames`): a cut on
+ * 1M cells takes about 0.1–0.25 s, a line probe a few tens of ms.
+ */
+export const NEW_PROBE_FRAME_HOLD_MS = 300;
+
+/**
+ * Software path: scale of the picture's pixels while a probe is dragged (`setDragging`): a quarter of the
+ * pixels to rasterise, the picture a little soft until the drag ends.
+ */
+export const DRAG_PIXEL_SCALE = 0.5;
 
 /** Software frames whose costs `ViewScene.frameTimes` keeps. */
 const FRAME_TIMES_KEPT = 64;
@@ -46,6 +59,9 @@ export class ViewScene {
    */
   private readonly shown: { ctx: CanvasRenderingContext2D; target: THREE.WebGLRenderTarget; pixels: Uint8Array<ArrayBuffer> } | undefined;
   private inFlight = false;
+  /** Software path: a probe is being dragged (frames at `DRAG_PIXEL_SCALE`), and the target they use. */
+  private dragging = false;
+  private dragTarget: THREE.WebGLRenderTarget | undefined;
   private again = false;
   /**
    * The last software frames' costs (ms, newest last, at most `FRAME_TIMES_KEPT`): `draw` issuing the draw
@@ -132,10 +148,32 @@ export class ViewScene {
   /** Called after every rendered frame (pins follow the camera through it). */
   onFrame(listener: () => void): void { this.listeners.push(listener); }
 
+  /**
+   * Software path: frames requested in the next `ms` wait until `releaseFrames()` (or the time is up), so a
+   * new probe's marker and its first result share one frame. A frame started for the marker alone would
+   * hold the result back by a whole software frame.
+   */
+  holdFrames(ms = NEW_PROBE_FRAME_HOLD_MS): void {
+    if (!this.shown) return;
+    this.releaseFrames();
+    this.held = setTimeout(() => this.releaseFrames(), ms);
+  }
+
+  /** Ends `holdFrames` and draws what was requested meanwhile. */
+  releaseFrames(): void {
+    if (this.held === undefined) return;
+    clearTimeout(this.held);
+    this.held = undefined;
+    if (this.heldRequest) { this.heldRequest = false; this.requestRender(); }
+  }
+  private held: ReturnType<typeof setTimeout> | undefined;
+  private heldRequest = false;
+
   /** Schedules one frame; several requests in a frame render once. */
   requestRender(): void {
     // tests and the benchmark wait for the picture to settle through this attribute
     document.body.dataset['drawing'] = 'true';
+    if (this.held !== undefined) { this.heldRequest = true; return; }
     if (this.frameQueued) return;
     if (this.inFlight) { this.again = true; return; }
     this.frameQueued = true;
@@ -159,19 +197,18 @@ export class ViewScene {
   private async drawOffscreen(shown: NonNullable<ViewScene['shown']>): Promise<void> {
     this.inFlight = true;
     try {
-      const { target } = shown, w = target.width, h = target.height;
+      const target = this.dragging ? this.dragTargetFor(shown.target) : shown.target, w = target.width, h = target.height;
       if (shown.pixels.length !== 4 * w * h) shown.pixels = new Uint8Array(4 * w * h);
       const t0 = performance.now();
-      this.renderer.setRenderTarget(target);
-      this.renderer.render(this.scene, this.camera);
-      this.renderer.setRenderTarget(null);
+      this.drawInto(target);
       const t1 = performance.now();
       await this.renderer.readRenderTargetPixelsAsync(target, 0, 0, w, h, shown.pixels);
       const t2 = performance.now();
       const image = new ImageData(new Uint8ClampedArray(shown.pixels.buffer, 0, 4 * w * h), w, h);
       const bitmap = await createImageBitmap(image, { imageOrientation: 'flipY' });
-      if (this.canvas.width !== w || this.canvas.height !== h) { this.canvas.width = w; this.canvas.height = h; }
-      shown.ctx.drawImage(bitmap, 0, 0);
+      const full = shown.target;
+      if (this.canvas.width !== full.width || this.canvas.height !== full.height) { this.canvas.width = full.width; this.canvas.height = full.height; }
+      shown.ctx.drawImage(bitmap, 0, 0, full.width, full.height);
       bitmap.close();
       this.frameTimes.push({ draw: t1 - t0, raster: t2 - t1, show: performance.now() - t2 });
       if (this.frameTimes.length > FRAME_TIMES_KEPT) this.frameTimes.shift();
@@ -180,6 +217,95 @@ export class ViewScene {
       this.inFlight = false;
       if (this.again) { this.again = false; this.requestRender(); }
     }
+  }
+
+  /**
+   * Keeps the picture of `object` (a child of `root`: the boundary surface) between software frames while
+   * `key()` stays the same and the camera and size do not move: a frame that only changes other objects (a
+   * dragged cut-plane, a new line probe) copies the kept colours and depths and draws just those objects on
+   * top. `key` returns undefined when the layer cannot be kept (see-through: what lies behind it would have
+   * to be blended under it). Undefined `object` stops keeping.
+   */
+  keepStill(object: THREE.Object3D | undefined, key?: () => string | undefined): void {
+    this.still = object && key ? { object, key } : undefined;
+    this.stillKey = undefined;
+  }
+  private still: { object: THREE.Object3D; key: () => string | undefined } | undefined;
+  /** Colours and depths of the kept layer alone, and what they were drawn for. */
+  private stillTarget: THREE.WebGLRenderTarget | undefined;
+  private stillKey: string | undefined;
+  /** Frames drawn with the kept layer copied instead of drawn (for tests and the benchmark). */
+  stillFrames = 0;
+
+  /**
+   * Draws the scene into `target`: at once, or (a kept layer, see `keepStill`) by copying the kept layer's
+   * colours and depths, drawn again only when its key, the camera or the size changed, and drawing the
+   * other objects over them. The result is the same picture: the kept layer is opaque, so drawing it
+   * before the other opaque objects changes no pixel; only see-through lines of both overlapping one
+   * another may blend in another order.
+   */
+  private drawInto(target: THREE.WebGLRenderTarget): void {
+    const r = this.renderer, still = this.still;
+    const layerKey = still && still.object.parent === this.root && still.object.visible ? still.key() : undefined;
+    if (!still || layerKey === undefined) {
+      this.stillKey = undefined;
+      r.setRenderTarget(target);
+      r.render(this.scene, this.camera);
+      r.setRenderTarget(null);
+      return;
+    }
+    this.camera.updateMatrixWorld();
+    const key = `${layerKey}|${target.width}x${target.height}|${this.camera.matrixWorld.elements.join(',')}|${this.camera.projectionMatrix.elements.join(',')}`;
+    const kept = this.stillTarget ??= new THREE.WebGLRenderTarget(target.width, target.height, { colorSpace: THREE.SRGBColorSpace });
+    if (kept.width !== target.width || kept.height !== target.height) kept.setSize(target.width, target.height);
+    const others = [...this.scene.children.filter((o) => o !== this.root), ...this.root.children.filter((o) => o !== still.object)];
+    const shown = others.map((o) => o.visible);
+    if (key !== this.stillKey) {
+      // the kept layer alone
+      for (const o of others) o.visible = false;
+      r.setRenderTarget(kept);
+      r.render(this.scene, this.camera);
+      others.forEach((o, i) => { o.visible = shown[i]!; });
+      this.stillKey = key;
+    } else this.stillFrames++;
+    r.setRenderTarget(target);
+    const gl = r.getContext() as WebGL2RenderingContext;
+    const into = (r.properties.get(target) as { __webglFramebuffer: WebGLFramebuffer }).__webglFramebuffer;
+    const from = (r.properties.get(kept) as { __webglFramebuffer: WebGLFramebuffer }).__webglFramebuffer;
+    gl.bindFramebuffer(gl.READ_FRAMEBUFFER, from);
+    gl.blitFramebuffer(0, 0, kept.width, kept.height, 0, 0, target.width, target.height, gl.COLOR_BUFFER_BIT | gl.DEPTH_BUFFER_BIT, gl.NEAREST);
+    // three.js believes `into` is bound for reading and drawing
+    gl.bindFramebuffer(gl.READ_FRAMEBUFFER, into);
+    still.object.visible = false;
+    const autoClear = r.autoClear;
+    r.autoClear = false;
+    try { r.render(this.scene, this.camera); } finally {
+      r.autoClear = autoClear;
+      still.object.visible = true;
+    }
+    r.setRenderTarget(null);
+  }
+
+  /**
+   * Software path: while `on` (a probe is dragged, each step waited for), frames are drawn with
+   * `DRAG_PIXEL_SCALE` of the pixels and shown stretched; the frame after the drag is sharp again.
+   */
+  setDragging(on: boolean): void {
+    if (!this.shown || this.dragging === on) return;
+    this.dragging = on;
+    this.requestRender();
+  }
+
+  private dragTargetFor(full: THREE.WebGLRenderTarget): THREE.WebGLRenderTarget {
+    const w = Math.max(1, Math.round(full.width * DRAG_PIXEL_SCALE)), h = Math.max(1, Math.round(full.height * DRAG_PIXEL_SCALE));
+    let t = this.dragTarget;
+    if (!t) {
+      t = this.dragTarget = new THREE.WebGLRenderTarget(w, h, { colorSpace: THREE.SRGBColorSpace });
+      // handles keep their size on screen
+      setPixelScale(t, DRAG_PIXEL_SCALE);
+    }
+    if (t.width !== w || t.height !== h) t.setSize(w, h);
+    return t;
   }
 
   /** Size of the view in CSS pixels. */

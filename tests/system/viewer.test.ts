@@ -13,6 +13,7 @@ import { parseFormatted } from '../../src/ui/format.ts';
 import { sphereExact } from '../../src/samples/sphere.ts';
 import { REPO, longTasksSince, openApp, pageNow, waitIdle, type AppSession, type Browser } from './browser.ts';
 import { countColor, readPng } from './png.ts';
+import { RunQueueWatch } from './runQueue.ts';
 
 const SHOTS = join(REPO, 'tests/.screenshots');
 const PIPE = join(REPO, 'sample-fields/pipe-medium.vtu');
@@ -27,6 +28,8 @@ let browser: Browser;
 let page: Page;
 /** Page time when measuring long tasks starts (just before the first file-input load). */
 let measureFrom = 0;
+/** The page's main thread's waiting for a CPU, so long tasks are judged by the time they held it (runQueue.ts). */
+let cpuWaits: RunQueueWatch | undefined;
 
 const shot = (name: string) => page.screenshot({ path: join(SHOTS, `${name}.png`) });
 
@@ -66,6 +69,7 @@ beforeAll(async () => {
 }, 240_000);
 
 afterAll(async () => {
+  cpuWaits?.stop();
   await app?.close();
 });
 
@@ -88,6 +92,7 @@ describe('viewer', () => {
 
   it('loads a file through the file input without long main-thread tasks', async () => {
     measureFrom = await pageNow(page);
+    cpuWaits = new RunQueueWatch();
     await openFile(PIPE, 'pipe-medium.vtu');
     expect(await page.locator('#file-summary').innerText()).toMatch(/4,320 cells, 4,825 points/);
     await shot('02-pipe-loaded');
@@ -172,7 +177,9 @@ describe('viewer', () => {
   });
 
   it('had no main-thread task over 100 ms while loading and probing', async () => {
-    const long = (await longTasksSince(page, measureFrom)).filter((t) => t.duration > 100);
+    // a task that held the main thread for over 100 ms, running or blocked; time the machine's other
+    // processes took the CPU from it inside the task is not counted
+    const long = cpuWaits!.heldOver(await longTasksSince(page, measureFrom), await page.evaluate(() => performance.timeOrigin), 100);
     expect(long).toEqual([]);
   });
 
