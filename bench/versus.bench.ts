@@ -10,8 +10,13 @@
  *   and 1 worker (`pool1`), for the speed-up from 1 to 2 workers and the memory per worker;
  * - the same stages with VTK (`bench/vtk_stages.py stages`);
  * - whole processes: `fieldtally cut <file> --origin … --normal …` against `vtk_stages.py cut` (read, cut,
- *   integrate, print), each the best of `ONE_SHOT_RUNS`; the command both from the clone (tsx compiles the
- *   sources on start) and as installed (`dist-cli/fieldtally.mjs`, built first by `bin/build-cli.mjs`).
+ *   integrate, print), each the best of `ONE_SHOT_RUNS` after one untimed run, the three commands taking turns
+ *   so a change in the machine's load touches them alike; wall and CPU time (user + system of every thread,
+ *   from GNU time when present). The command both from the clone (`bin/fieldtally.mjs`, which runs the
+ *   bundle it caches under a stamp of the sources) and as installed (the files `npm pack` ships —
+ *   package.json, bin/fieldtally.mjs, dist-cli/ built first by `bin/build-cli.mjs` — copied into a temporary
+ *   folder and run through its bin/fieldtally.mjs, as `npm install` would).
+ *   `--one-shot-only` (`npm run bench -- versus --one-shot-only`) runs only these, with `ONE_SHOT_ONLY_RUNS`.
  *
  * The table `ratios` gives fieldtally / VTK in wall time per stage (best of core and pool2; both are listed),
  * with the goal (issue 12: first cut ≤ 0.5, every other stage ≤ 1.0, the one-shot cut < 1.0) and whether it is
@@ -20,8 +25,8 @@
  * machine the figures are what they were at that moment. Alone: `node bin/run-ts.mjs bench/versus.bench.ts`.
  */
 import { execFileSync, spawnSync } from 'node:child_process';
-import { existsSync, statSync } from 'node:fs';
-import { loadavg } from 'node:os';
+import { cpSync, existsSync, mkdirSync, mkdtempSync, readFileSync, rmSync, statSync } from 'node:fs';
+import { loadavg, tmpdir } from 'node:os';
 import { dirname, join, relative, resolve } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { integratePlane } from '../src/cut/planeIntegrals.ts';
@@ -40,8 +45,11 @@ const ROOT = resolve(dirname(fileURLToPath(import.meta.url)), '..');
 const PYTHON = '/usr/bin/python3';
 const FILES = ['pipe-hex-1M.appended-raw.vtu', 'pipe-hex-1M.appended-zlib.vtu', 'sphere-tet-1M.appended-raw.vtu', 'sphere-tet-1M.appended-zlib.vtu'];
 const ONE_SHOT_RUNS = 2;
+const ONE_SHOT_ONLY_RUNS = 5;
 /** The installed command's bundle (built by the run when missing or older than this run). */
 const BUNDLE = join(ROOT, 'dist-cli', 'fieldtally.mjs');
+/** GNU time gives a child's CPU time (user + system, every thread), which the machine's load changes far less than wall time. */
+const GNU_TIME = '/usr/bin/time';
 const STAGES = ['load', 'firstCut', 'laterCut', 'firstLine', 'laterLine', 'boundary', 'force'] as const;
 type StageName = typeof STAGES[number];
 const GOALS: Record<StageName | 'oneShotCut' | 'oneShotCutInstalled', number> = {
@@ -139,23 +147,77 @@ function runVtk(mode: 'stages' | 'cut', file: string, job: Job): Record<string, 
   return JSON.parse(out) as Record<string, unknown>;
 }
 
-/** Best wall time of `runs` whole processes. */
-function wholeProcess(cmd: string, args: string[], runs: number): number {
-  let best = Infinity;
-  for (let i = 0; i < runs; i++) {
-    const t = performance.now();
-    const r = spawnSync(cmd, args, { encoding: 'utf8', maxBuffer: 16 << 20 });
-    if (r.status !== 0) throw new Error(`versus: ${cmd} ${args.join(' ')} failed: ${(r.stderr || '').trim().split('\n').pop()}`);
-    best = Math.min(best, performance.now() - t);
+/** Best wall and CPU time of whole processes. */
+interface Whole { wallMs: number; cpuMs: number | null }
+
+/**
+ * Best wall and CPU time of `runs` runs of each command, after one untimed run of each (a cached bundle is
+ * built, files are in the page cache); the commands take turns, round after round.
+ */
+function wholeProcesses(commands: Record<string, [string, string[]]>, runs: number): Record<string, Whole> {
+  const best: Record<string, Whole> = {};
+  const stats = join(mkdtempSync(join(tmpdir(), 'fieldtally-versus-')), 'time.txt');
+  try {
+    for (let i = 0; i <= runs; i++) {
+      for (const [name, [cmd, args]] of Object.entries(commands)) {
+        const viaTime = existsSync(GNU_TIME);
+        const t = performance.now();
+        const r = spawnSync(viaTime ? GNU_TIME : cmd, viaTime ? ['-f', '%U %S', '-o', stats, cmd, ...args] : args, { encoding: 'utf8', maxBuffer: 16 << 20 });
+        const ms = performance.now() - t;
+        if (r.status !== 0) throw new Error(`versus: ${cmd} ${args.join(' ')} failed: ${(r.stderr || '').trim().split('\n').pop()}`);
+        if (i === 0) continue;
+        const [u, sys] = viaTime ? readFileSync(stats, 'utf8').trim().split('\n').pop()!.split(/\s+/).map(Number) : [NaN, NaN];
+        const cpuMs = viaTime ? (u! + sys!) * 1000 : null;
+        const b = best[name] ??= { wallMs: Infinity, cpuMs: viaTime ? Infinity : null };
+        b.wallMs = Math.min(b.wallMs, r1(ms));
+        if (cpuMs !== null) b.cpuMs = Math.min(b.cpuMs!, r1(cpuMs));
+      }
+    }
+  } finally {
+    rmSync(dirname(stats), { recursive: true, force: true });
   }
-  return r1(best);
+  return best;
+}
+
+/** The files `npm pack` ships (package.json "files"), copied into a temporary folder as `npm install` lays them out. */
+function installedCopy(): { bin: string; remove(): void } {
+  const dir = mkdtempSync(join(tmpdir(), 'fieldtally-installed-'));
+  const pkg = JSON.parse(readFileSync(join(ROOT, 'package.json'), 'utf8')) as { files: string[] };
+  cpSync(join(ROOT, 'package.json'), join(dir, 'package.json'));
+  for (const f of pkg.files) {
+    mkdirSync(dirname(join(dir, f)), { recursive: true });
+    cpSync(join(ROOT, f), join(dir, f), { recursive: true });
+  }
+  return { bin: join(dir, 'bin', 'fieldtally.mjs'), remove: () => rmSync(dir, { recursive: true, force: true }) };
+}
+
+/** The one-shot rows: the whole `cut` command from the clone and as installed against the Python script. */
+function oneShot(file: string, job: Job, installedBin: string | null, runs: number): Record<string, unknown> {
+  const v = (p: V3) => `${p[0]},${p[1]},${p[2]}`;
+  const cutArgs = ['cut', file, '--origin', v(job.planes[0]!.origin), '--normal', v(job.planes[0]!.normal)];
+  const t = wholeProcesses({
+    clone: [process.execPath, [join(ROOT, 'bin', 'fieldtally.mjs'), ...cutArgs]],
+    ...(installedBin ? { installed: [process.execPath, [installedBin, ...cutArgs]] as [string, string[]] } : {}),
+    python: [PYTHON, [join(ROOT, 'bench', 'vtk_stages.py'), 'cut', file, JSON.stringify(job)]],
+  }, runs);
+  const row = (w: Whole | undefined, note: string) => {
+    const r = w ? ratio(w.wallMs, t.python!.wallMs) : NaN;
+    return {
+      ratio: r, goal: GOALS.oneShotCut, met: r < GOALS.oneShotCut, fieldtallyMs: w?.wallMs ?? NaN, vtkMs: t.python!.wallMs,
+      cpuRatio: w?.cpuMs != null && t.python!.cpuMs ? ratio(w.cpuMs, t.python!.cpuMs) : null, fieldtallyCpuMs: w?.cpuMs ?? null, vtkCpuMs: t.python!.cpuMs, runs, note,
+    };
+  };
+  return {
+    oneShotCut: row(t.clone, 'from the clone: bin/fieldtally.mjs (the bundle it caches under a stamp of the sources)'),
+    oneShotCutInstalled: row(t.installed, 'as installed: the files npm pack ships, run through their bin/fieldtally.mjs'),
+  };
 }
 
 const wall = (o: unknown, s: string): number => ((o as Record<string, Timed | undefined>)[s]?.wallMs ?? NaN);
 const cpu = (o: unknown, s: string): number => ((o as Record<string, Timed | undefined>)[s]?.cpuMs ?? NaN);
 const ratio = (a: number, b: number) => Math.round((a / b) * 100) / 100;
 
-async function oneFile(name: string): Promise<Record<string, unknown>> {
+async function oneFile(name: string, installedBin: string | null): Promise<Record<string, unknown>> {
   const file = join(ROOT, 'sample-fields', 'large', name);
   const core = runChild(file, 0);
   const pool1 = runChild(file, 1);
@@ -163,12 +225,6 @@ async function oneFile(name: string): Promise<Record<string, unknown>> {
   const probe = await loadDatasetFile(file, {});
   const job = jobFor(datasetBounds(probe));
   const vtk = runVtk('stages', file, job);
-  const v = (p: V3) => `${p[0]},${p[1]},${p[2]}`;
-  const cutArgs = ['cut', file, '--origin', v(job.planes[0]!.origin), '--normal', v(job.planes[0]!.normal)];
-  // from the clone (TypeScript compiled on start by tsx) and as installed (the bundle `npm pack` ships)
-  const cli = wholeProcess(process.execPath, [join(ROOT, 'bin', 'fieldtally.mjs'), ...cutArgs], ONE_SHOT_RUNS);
-  const installed = existsSync(BUNDLE) ? wholeProcess(process.execPath, [BUNDLE, ...cutArgs], ONE_SHOT_RUNS) : NaN;
-  const py = wholeProcess(PYTHON, [join(ROOT, 'bench', 'vtk_stages.py'), 'cut', file, JSON.stringify(job)], ONE_SHOT_RUNS);
   const table: Record<string, unknown> = {};
   for (const s of STAGES) {
     const best = Math.min(wall(core, s), wall(pool2, s));
@@ -179,12 +235,17 @@ async function oneFile(name: string): Promise<Record<string, unknown>> {
       coreCpuRatio: ratio(cpu(core, s), cpu(vtk, s)),
     };
   }
-  const r = ratio(cli, py), ri = ratio(installed, py);
-  table.oneShotCut = { ratio: r, goal: GOALS.oneShotCut, met: r < GOALS.oneShotCut, fieldtallyMs: cli, vtkMs: py, note: 'from the clone (tsx compiles the sources on start)' };
-  table.oneShotCutInstalled = { ratio: ri, goal: GOALS.oneShotCut, met: ri < GOALS.oneShotCut, fieldtallyMs: installed, vtkMs: py, note: 'the bundle dist-cli/fieldtally.mjs, as `npm pack` installs it' };
+  Object.assign(table, oneShot(file, job, installedBin, ONE_SHOT_RUNS));
   const speedUp: Record<string, number> = {};
   for (const s of STAGES) speedUp[s] = ratio(wall(pool1, s), wall(pool2, s));
   return { file: relative(ROOT, file), fileBytes: statSync(file).size, ratios: table, speedUpOneToTwoWorkers: speedUp, job, fieldtally: { core, pool1, pool2 }, vtk };
+}
+
+/** `--one-shot-only`: only the whole-process rows, best of `ONE_SHOT_ONLY_RUNS`. */
+async function oneShotFile(name: string, installedBin: string | null): Promise<Record<string, unknown>> {
+  const file = join(ROOT, 'sample-fields', 'large', name);
+  const job = jobFor(datasetBounds(await loadDatasetFile(file, {})));
+  return { file: relative(ROOT, file), fileBytes: statSync(file).size, ratios: oneShot(file, job, installedBin, ONE_SHOT_ONLY_RUNS), job };
 }
 
 /** The ratios as a text table (stage × file), for stderr beside the JSON. */
@@ -206,21 +267,29 @@ export function ratioTable(files: Record<string, unknown>): string {
 
 export async function run(): Promise<Record<string, unknown>> {
   if (!existsSync(PYTHON)) return { error: `${PYTHON} not found: install Debian's python3-vtk9` };
+  const oneShotOnly = process.argv.includes('--one-shot-only');
   // the installed form of the command, for the one-shot comparison
   execFileSync(process.execPath, [join(ROOT, 'bin', 'build-cli.mjs')], { cwd: ROOT, encoding: 'utf8' });
+  const installed = existsSync(BUNDLE) ? installedCopy() : null;
   const loadBefore = loadavg().map(r1);
   const files: Record<string, unknown> = {};
-  for (const f of FILES) {
-    if (!existsSync(join(ROOT, 'sample-fields', 'large', f))) { files[f] = { error: 'missing: run `npm run make-fields -- --size 1M`' }; continue; }
-    process.stderr.write(`versus: ${f} …\n`);
-    files[f] = await oneFile(f);
+  try {
+    for (const f of FILES) {
+      if (!existsSync(join(ROOT, 'sample-fields', 'large', f))) { files[f] = { error: 'missing: run `npm run make-fields -- --size 1M`' }; continue; }
+      process.stderr.write(`versus: ${f} …\n`);
+      files[f] = oneShotOnly ? await oneShotFile(f, installed?.bin ?? null) : await oneFile(f, installed?.bin ?? null);
+    }
+  } finally {
+    installed?.remove();
   }
   process.stderr.write(ratioTable(files));
   return {
     benchmark: 'versus',
+    ...(oneShotOnly ? { only: 'one-shot rows (--one-shot-only)' } : {}),
     note: 'fieldtally / VTK 9.1 wall time per stage, each tool in fresh processes one after the other on the same file; '
       + 'ratio = min(core, pool2) / VTK; goal: firstCut ≤ 0.5, others ≤ 1.0, oneShotCut (whole processes) < 1.0; '
       + 'coreCpuRatio = CPU time of the single-thread core / CPU time of VTK (all its threads): less sensitive to a busy machine; '
+      + 'oneShotCut cpuRatio: the same for the whole processes; '
       + 'speedUp = wall(1 worker) / wall(2 workers); cpuMs counts every thread of a process. '
       + 'Boundary: files with 2D cells are reduced to their 3D cells for VTK before the clock starts (both tools then extract the same faces)',
     loadAverageBefore: loadBefore, loadAverageAfter: loadavg().map(r1), files,

@@ -1,8 +1,11 @@
 #!/usr/bin/env node
-// Entry of the `fieldtally` command. In a clone of the repository (src/ is there) it runs the TypeScript
-// sources through tsx, so `npx fieldtally …` works right after `npm ci` with no build step and never runs a
-// stale build. In the installed package (`npm pack`, no src/) it runs the bundle dist-cli/fieldtally.mjs
-// that `bin/build-cli.mjs` wrote at pack time.
+// Entry of the `fieldtally` command. In a clone of the repository (src/ is there) it runs a bundle of the
+// sources cached in the temporary folder under a stamp of every source file (bin/cliBundle.mjs; built on
+// the first run after an edit, about a second), so `npx fieldtally …` works right after `npm ci` with no
+// build step, never runs a stale build, and does not compile TypeScript on every start; if the bundle
+// cannot be built, or with FIELDTALLY_CLI_FROM_SOURCE=1, it runs the sources through tsx. In the installed
+// package (`npm pack`, no src/) it runs the bundle dist-cli/fieldtally.mjs that `bin/build-cli.mjs` wrote
+// at pack time.
 //
 // On Linux it first re-runs itself once with glibc's `malloc.hugetlb=1` tunable: large typed arrays are
 // then backed by transparent huge pages, so first touching a freshly loaded million-cell field costs far
@@ -10,7 +13,7 @@
 // `--version` is answered before that, from package.json, so it costs a single short start.
 import { spawnSync } from 'node:child_process';
 import { existsSync, readFileSync } from 'node:fs';
-import { fileURLToPath } from 'node:url';
+import { fileURLToPath, pathToFileURL } from 'node:url';
 
 const root = new URL('../', import.meta.url);
 const args = process.argv.slice(2);
@@ -33,10 +36,24 @@ if (process.platform === 'linux' && !current.includes('glibc.malloc.hugetlb') &&
 }
 
 if (existsSync(new URL('src/cli/main.ts', root))) {
-  const { register } = await import('tsx/esm/api');
-  register();
-  const { main } = await import('../src/cli/main.ts');
-  process.exitCode = await main(args);
+  let bundle = null;
+  if (process.env.FIELDTALLY_CLI_FROM_SOURCE !== '1') {
+    try {
+      const { cachedBundle } = await import('./cliBundle.mjs');
+      bundle = await cachedBundle(fileURLToPath(root));
+    } catch (e) {
+      // a source esbuild cannot bundle is reported by tsx below, with its place in the source
+      if (process.env.FIELDTALLY_DEBUG) process.stderr.write(`fieldtally: no cached bundle (${e instanceof Error ? e.message : e}); running the sources\n`);
+    }
+  }
+  if (bundle) {
+    await import(pathToFileURL(bundle).href);
+  } else {
+    const { register } = await import('tsx/esm/api');
+    register();
+    const { main } = await import('../src/cli/main.ts');
+    process.exitCode = await main(args);
+  }
 } else {
   await import('../dist-cli/fieldtally.mjs');
 }

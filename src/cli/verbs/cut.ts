@@ -10,7 +10,8 @@ import {
   footer, integralOptions, integralsJson, integralsTable, num, regionSpecs,
 } from '../cutCommon.ts';
 import type { Verb } from '../verb.ts';
-import { loadForCompute, WORKER_HELP, WORKER_OPTIONS } from '../workerOption.ts';
+import { WORKER_OPTIONS } from '../workerOption.ts';
+import { loadForOneShot, ONE_SHOT_WORKER_HELP } from '../oneShotLoad.ts';
 import { DERIVED_HELP, DERIVED_OPTIONS, withDerivedArgs } from '../derivedArgs.ts';
 import { primeDerivedGradients } from '../../parallel/deriveShares.ts';
 
@@ -22,7 +23,7 @@ const cut: Verb = {
     '  Cuts every 3D cell with the plane through --origin with normal --normal and integrates over the cut.',
     REGION_HELP, FIELD_HELP,
     '  --fields a,b            derived fields to add: their integrals, means and ranges are reported with the file\'s fields',
-    DERIVED_HELP, FIELD_RULE, WORKER_HELP, SIGN_CONVENTION, UNITS_NOTE,
+    DERIVED_HELP, FIELD_RULE, ONE_SHOT_WORKER_HELP, SIGN_CONVENTION, UNITS_NOTE,
   ].join('\n'),
   options: { origin: 'string', normal: 'string', ...REGION_OPTIONS, ...FIELD_OPTIONS, fields: 'string', ...DERIVED_OPTIONS, ...WORKER_OPTIONS },
   async run(argv, io) {
@@ -34,7 +35,7 @@ const cut: Verb = {
     const origin = parseVec3(o, 'origin'), normal = parseDirection(n, 'normal');
     const region = regionSpecs(args);
     const extra = str(args, 'fields')?.split(',').map((x) => x.trim()).filter((x) => x !== '') ?? [];
-    const input = await loadForCompute(file, args);
+    const input = await loadForOneShot(file, args);
     let result;
     let dataset;
     try {
