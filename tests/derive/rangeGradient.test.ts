@@ -28,11 +28,21 @@ function sameBits(a: Float64Array, b: Float64Array): number {
   return differ;
 }
 
+/** The piece with its nodes renumbered by a fixed scramble (i → 11i mod n, n not a multiple of 11), so a node range's neighbours lie all over the numbering. */
+function scrambled(p: Piece): Piece {
+  const n = p.points.length / 3, to = new Int32Array(n), points = new Float64Array(3 * n);
+  expect(n % 11).not.toBe(0);
+  for (let i = 0; i < n; i++) to[i] = (11 * i) % n;
+  for (let i = 0; i < n; i++) points.set(p.points.subarray(3 * i, 3 * i + 3), 3 * to[i]!);
+  return { ...p, points, connectivity: p.connectivity.map((q) => to[q]!), pointData: [] };
+}
+
 describe('pointGradientRange', () => {
   const meshes: [string, Piece][] = [
     ['bent hexahedra 9×7×5', withVelocity(hexGrid(9, 7, 5, bent))],
     ['tetrahedra 5×4×4', withVelocity(tetGrid(5, 4, 4, bent))],
     ['one layer of hexahedra 12×10×1', withVelocity(hexGrid(12, 10, 1, (u, v, w) => [u, v, 0.02 * w]))],
+    ['scrambled node numbering, hexahedra 8×6×4', withVelocity(scrambled(hexGrid(8, 6, 4, bent)))],
   ];
   for (const [name, p] of meshes) {
     for (const field of ['velocity', 'p']) {

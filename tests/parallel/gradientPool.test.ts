@@ -1,6 +1,6 @@
 /**
  * The pool's velocity gradient (src/parallel/deriveShares.ts) equals the single-thread kernel's bit for bit
- * for 1, 2 and 3 workers, and the derived fields built on it (vorticity, Q-criterion) equal the single-thread
+ * for 1, 2, 3 and 4 workers, and the derived fields built on it (vorticity, Q-criterion) equal the single-thread
  * ones. Reference: this repository's single-thread core (fieldGradient.ts, Barth & Frederickson 1990
  * quadratic least-squares gradient, checked for second-order convergence in tests/derive).
  */
@@ -34,7 +34,7 @@ describe('velocity gradient on the worker pool', () => {
   const single = make();
   const names = ['vorticity', 'q-criterion'];
   const reference = withDerivedFields(single, names);
-  for (const workers of [1, 2, 3]) {
+  for (const workers of [1, 2, 3, 4]) {
     it(`${workers} worker(s): every piece's gradient, vorticity and Q equal the single-thread values bit for bit`, async () => {
       const pool = await openNodePool(make(), workers);
       pools.push(pool);
