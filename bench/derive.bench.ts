@@ -14,7 +14,7 @@
  *    range of nodes of a shared result; src/parallel/deriveShares.ts): `cold` on a fresh pool and mesh. Pool
  *    start-up and the copy into shared memory are not timed; CPU time there is the whole process's (workers included).
  * Every figure is wall time and CPU time (process.cpuUsage: the whole process, every thread); the machine is shared, so CPU time
- * is the steadier figure. Mesh and field building are not timed.
+ * is the steadier figure; `loadAverage` (1, 5, 15 min, from the OS) records how busy the machine was. Mesh and field building are not timed.
  */
 import { withDerivedFields } from '../src/derive/derivedFields.ts';
 import { datasetOf, hexGrid, pointFieldFrom, withFields } from '../src/model/meshBuild.ts';
@@ -24,6 +24,7 @@ import { facesOfGroups } from '../src/surface/surfaceGroups.ts';
 import { wallQuantities } from '../src/surface/wallQuantities.ts';
 import { openNodePool } from '../src/parallel/nodePool.ts';
 import { primeDerivedGradients } from '../src/parallel/deriveShares.ts';
+import { loadavg } from 'node:os';
 
 interface Timing { ms: number; cpuMs: number }
 
@@ -66,7 +67,7 @@ export async function run(): Promise<Record<string, unknown>> {
     const second = timed(() => { withDerivedFields(d2, names); });
     const d3 = step(d2, 1.5);
     const sameMesh = timed(() => { withDerivedFields(d3, names); });
-    out.vorticityAndQOn1MHexahedra = { cells: 1_000_000, nodes: 101 ** 3, goalMs: 500, threads: 1, cold, secondFreshMesh: second, newStepSameMesh: sameMesh };
+    out.vorticityAndQOn1MHexahedra = { cells: 1_000_000, nodes: 101 ** 3, goalMs: 500, threads: 1, cold, secondFreshMesh: second, newStepSameMesh: sameMesh, loadAverage: loadAverage() };
     for (const workers of [1, 2]) {
       const pool = await openNodePool(make(), workers);
       const c0 = process.cpuUsage(), t0 = performance.now();
@@ -74,7 +75,7 @@ export async function run(): Promise<Record<string, unknown>> {
       withDerivedFields(pool.dataset, names);
       const c = process.cpuUsage(c0);
       await pool.close();
-      out[`vorticityAndQOn1MHexahedraPool${workers}`] = { cells: 1_000_000, goalMs: 500, workers, cold: { ms: performance.now() - t0, cpuMsAllThreads: (c.user + c.system) / 1000 } };
+      out[`vorticityAndQOn1MHexahedraPool${workers}`] = { cells: 1_000_000, goalMs: 500, workers, cold: { ms: performance.now() - t0, cpuMsAllThreads: (c.user + c.system) / 1000 }, loadAverage: loadAverage() };
     }
   }
   {
@@ -92,6 +93,8 @@ export async function run(): Promise<Record<string, unknown>> {
   }
   return out;
 }
+
+const loadAverage = (): number[] => loadavg().map((v) => Math.round(v * 10) / 10);
 
 const isMain = import.meta.url === `file://${process.argv[1]}`;
 if (isMain) console.log(JSON.stringify(await run(), null, 2));
