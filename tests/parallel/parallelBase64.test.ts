@@ -15,9 +15,9 @@ import { decodeBase64Here } from '../../src/io/base64Windows.ts';
 import { loadDatasetFile } from '../../src/io/nodeFiles.ts';
 import { readDataset } from '../../src/io/readDataset.ts';
 import { writeVtu, type VtuEncoding } from '../../src/io/writeVtu.ts';
-import type { Dataset } from '../../src/model/dataset.ts';
 import { startTextPool, type TextPool } from '../../src/parallel/textPool.ts';
 import { externalPath } from '../helpers/external.ts';
+import { expectSameArrays } from '../helpers/sameArrays.ts';
 
 const SAMPLES = resolve(__dirname, '../../sample-fields');
 const dir = mkdtempSync(join(tmpdir(), 'fieldtally-b64-'));
@@ -59,28 +59,6 @@ const FILES: [string, () => Promise<string>][] = [
   ['vtkio inline binary', async () => externalPath('vtkio/hexahedron_inline_binary.vtu')],
   ['vtkio box', async () => externalPath('vtkio/box.vtu')],
 ];
-
-/** Every typed array of a dataset, in a fixed order, with its path. */
-function arraysOf(d: Dataset): [string, ArrayBufferView][] {
-  const out: [string, ArrayBufferView][] = [];
-  d.pieces.forEach((p, k) => {
-    out.push([`${k}.points`, p.points], [`${k}.cellTypes`, p.cellTypes], [`${k}.offsets`, p.offsets], [`${k}.connectivity`, p.connectivity]);
-    if (p.polyFaces) out.push([`${k}.faceOffsets`, p.polyFaces.faceOffsets], [`${k}.faceConnectivity`, p.polyFaces.faceConnectivity], [`${k}.cellFaceStart`, p.polyFaces.cellFaceStart]);
-    for (const f of [...p.pointData, ...p.cellData]) out.push([`${k}.${f.association}.${f.name}`, f.values]);
-  });
-  return out;
-}
-
-const bytesOf = (v: ArrayBufferView) => Buffer.from(v.buffer, v.byteOffset, v.byteLength);
-
-function expectSameArrays(many: Dataset, one: Dataset): void {
-  const a = arraysOf(one), b = arraysOf(many);
-  expect(b.map(([k]) => k)).toEqual(a.map(([k]) => k));
-  for (let i = 0; i < a.length; i++) {
-    expect(b[i]![1].constructor, a[i]![0]).toBe(a[i]![1].constructor);
-    expect(bytesOf(b[i]![1]).equals(bytesOf(a[i]![1])), a[i]![0]).toBe(true);
-  }
-}
 
 const pools: TextPool[] = [];
 afterAll(async () => {

@@ -11,28 +11,15 @@ import { afterAll, describe, expect, it } from 'vitest';
 import { bytesSource } from '../../src/io/byteSource.ts';
 import { loadDatasetFile, nodeInflate } from '../../src/io/nodeFiles.ts';
 import { readDatasetFrom } from '../../src/io/readDataset.ts';
-import type { Dataset } from '../../src/model/dataset.ts';
 import { startInflatePool, type InflatePool } from '../../src/parallel/inflatePool.ts';
 import { externalPath } from '../helpers/external.ts';
+import { expectSameArrays } from '../helpers/sameArrays.ts';
 
 const SAMPLES = resolve(__dirname, '../../sample-fields');
 const FILES = [
   `${SAMPLES}/sphere-stokes.vtu`, `${SAMPLES}/pipe-fine.vtu`, `${SAMPLES}/duct.vtu`, `${SAMPLES}/sphere-stokes-celldata.vtu`,
   externalPath('vtk-data/polyhedron2pieces.vtu'), externalPath('vtk-data/cow.vtp'), externalPath('vtu11/pyramids_3D/raw_compressed.vtu'),
 ];
-
-/** Every typed array of a dataset, in a fixed order, with its path. */
-function arraysOf(d: Dataset): [string, ArrayBufferView][] {
-  const out: [string, ArrayBufferView][] = [];
-  d.pieces.forEach((p, k) => {
-    out.push([`${k}.points`, p.points], [`${k}.cellTypes`, p.cellTypes], [`${k}.offsets`, p.offsets], [`${k}.connectivity`, p.connectivity]);
-    if (p.polyFaces) out.push([`${k}.faceOffsets`, p.polyFaces.faceOffsets], [`${k}.faceConnectivity`, p.polyFaces.faceConnectivity], [`${k}.cellFaceStart`, p.polyFaces.cellFaceStart]);
-    for (const f of [...p.pointData, ...p.cellData]) out.push([`${k}.${f.association}.${f.name}`, f.values]);
-  });
-  return out;
-}
-
-const bytesOf = (v: ArrayBufferView) => Buffer.from(v.buffer, v.byteOffset, v.byteLength);
 
 const pools: InflatePool[] = [];
 afterAll(async () => { for (const p of pools) await p.close(); });
@@ -47,12 +34,7 @@ describe.each([1, 2, 3])('loading with %i inflate worker(s)', (n) => {
     const many = await loadDatasetFile(file, { inflate: pool.inflate });
     // the sample fields have arrays of several blocks: the workers inflated them
     if (file.startsWith(SAMPLES) && file.includes('sphere')) expect(pool.done.blocks).toBeGreaterThan(before);
-    const a = arraysOf(one), b = arraysOf(many);
-    expect(b.map(([k]) => k)).toEqual(a.map(([k]) => k));
-    for (let i = 0; i < a.length; i++) {
-      expect(b[i]![1].constructor, a[i]![0]).toBe(a[i]![1].constructor);
-      expect(bytesOf(b[i]![1]).equals(bytesOf(a[i]![1])), a[i]![0]).toBe(true);
-    }
+    expectSameArrays(many, one);
   });
 });
 
