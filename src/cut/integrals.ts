@@ -152,7 +152,14 @@ export function integrateSurface(set: TriangleSet, options: Partial<IntegralOpti
   const needCh = Int32Array.from(need);
   if (e7.length < 7 * C) e7 = new Float64Array(7 * C);
   const values = fields.map((f) => f.values), perVertex = Uint8Array.from(fields, (f) => (f.association === 'point' ? 1 : 0));
-  triangleSums(set.positions, set.indices, values, perVertex, chOf, C, uCh, pCh, rCh, rho0, halfRho, needCh, magCh, magNc);
+  sums.fill(0);
+  // In short runs: the engine optimises the whole function (with feedback for every line of it, the end
+  // included) after the first few runs instead of entering a half-fed optimised loop mid-way and throwing it
+  // away at the loop's exit, which made the first two integrals of a session several times slower.
+  // The running sums go in and out through `sums`, so the order of additions is that of one pass.
+  for (let t0 = 0; t0 < nt; t0 += TRIANGLE_RUN) {
+    triangleSums(set.positions, set.indices, values, perVertex, chOf, C, uCh, pCh, rCh, rho0, halfRho, needCh, magCh, magNc, t0, Math.min(nt, t0 + TRIANGLE_RUN));
+  }
   let A = sums[S_A]!, cx = sums[S_CX]!, cy = sums[S_CY]!, cz = sums[S_CZ]!, Q = sums[S_Q]!, M = sums[S_M]!;
   let P0a = sums[S_P0A]!, P0m = sums[S_P0M]!, Nx = sums[S_NX]!, Ny = sums[S_NY]!, Nz = sums[S_NZ]!;
   let Aneg = sums[S_ANEG]!, Qneg = sums[S_QNEG]!, Mneg = sums[S_MNEG]!;
@@ -246,6 +253,8 @@ export function integrateSurface(set: TriangleSet, options: Partial<IntegralOpti
 const S_A = 0, S_CX = 1, S_CY = 2, S_CZ = 3, S_Q = 4, S_M = 5, S_P0A = 6, S_P0M = 7, S_NX = 8, S_NY = 9, S_NZ = 10;
 const S_ANEG = 11, S_QNEG = 12, S_MNEG = 13;
 const sums = new Float64Array(14);
+/** Triangles per call of `triangleSums` (see its caller). */
+const TRIANGLE_RUN = 64;
 
 /**
  * The triangle pass of `integrateSurface`, on its own so the engine optimises this small loop early and
@@ -256,13 +265,14 @@ const sums = new Float64Array(14);
  */
 function triangleSums(P: Float64Array, I: Uint32Array, values: Float64Array[], perVertex: Uint8Array, chOf: Int32Array,
   C: number, uCh: number, pCh: number, rCh: number, rho0: number, halfRho: number, needCh: Int32Array, magCh: Int32Array,
-  magNc: Int32Array): void {
-  const nt = I.length / 3, nf = values.length, nMag = magCh.length;
+  magNc: Int32Array, tBegin: number, tEnd: number): void {
+  const nf = values.length, nMag = magCh.length;
   const withP0 = pCh >= 0 && uCh >= 0;
   const wts = TRI7.weight;
-  let A = 0, cx = 0, cy = 0, cz = 0, Q = 0, M = 0, P0a = 0, P0m = 0, Nx = 0, Ny = 0, Nz = 0;
-  let Aneg = 0, Qneg = 0, Mneg = 0;
-  for (let t = 0; t < nt; t++) {
+  let A = sums[S_A]!, cx = sums[S_CX]!, cy = sums[S_CY]!, cz = sums[S_CZ]!, Q = sums[S_Q]!, M = sums[S_M]!;
+  let P0a = sums[S_P0A]!, P0m = sums[S_P0M]!, Nx = sums[S_NX]!, Ny = sums[S_NY]!, Nz = sums[S_NZ]!;
+  let Aneg = sums[S_ANEG]!, Qneg = sums[S_QNEG]!, Mneg = sums[S_MNEG]!;
+  for (let t = tBegin; t < tEnd; t++) {
     const a = 3 * I[3 * t]!, b = 3 * I[3 * t + 1]!, c = 3 * I[3 * t + 2]!;
     const ax = P[a]!, ay = P[a + 1]!, az = P[a + 2]!;
     const ux = P[b]! - ax, uy = P[b + 1]! - ay, uz = P[b + 2]! - az, wx = P[c]! - ax, wy = P[c + 1]! - ay, wz = P[c + 2]! - az;
