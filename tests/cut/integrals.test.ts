@@ -142,8 +142,8 @@ describe('many triangles (the integrator works through them in short runs)', () 
   // Reference: closed-form integrals of linear fields over the unit square (C): ∫(1 + x) dA = 1.5,
   // ∫(2 + x − y) dA = 2; every sum is exact for linear data, so only rounding separates the results.
   const p = withFields(hexGrid(24, 24, 24), [
-    pointFieldFrom(hexGrid(24, 24, 24), 'velocity', 3, (x, y, z, o) => { o[0] = 0; o[1] = 0; o[2] = 1 + x; }),
-    pointFieldFrom(hexGrid(24, 24, 24), 'p', 1, (x, y, z, o) => { o[0] = 2 + x - y; }),
+    pointFieldFrom(hexGrid(24, 24, 24), 'velocity', 3, (x, _y, _z, o) => { o[0] = 0; o[1] = 0; o[2] = 1 + x; }),
+    pointFieldFrom(hexGrid(24, 24, 24), 'p', 1, (x, y, _z, o) => { o[0] = 2 + x - y; }),
   ]);
   const cut = cutPlane(datasetOf([p]), [0, 0, 0.51], [0, 0, 1]);
   const r = integrateSurface(cut, { density: 3 });
