@@ -92,26 +92,57 @@ function pointSides(pts: Float64Array, first: number, end: number, ox: number, o
   }
 }
 
-function push(id: number, nFound: number): void {
-  if (nFound === found.length) { const g = new Int32Array(2 * found.length); g.set(found); found = g; }
-  found[nFound] = id;
+/** Makes room in `found` for `n` entries. */
+function reserveFound(n: number): void {
+  if (found.length >= n) return;
+  const g = new Int32Array(Math.max(n, 2 * found.length)); g.set(found); found = g;
 }
+
+/**
+ * Cells per block of the fixed-stride passes. Each block first makes room for all its cells, then its own
+ * small function writes every cell's id and advances the count only for a crossing one: no branch that a
+ * first pass over a file may not have taken yet when the engine optimises the loop, and no code after the
+ * loop (a late branch, or the code after the loop, threw the optimised loop away mid-pass and compiled it
+ * again, on the first cut of every file).
+ */
+const SCAN_BLOCK = 4096;
+
+/** 1 for the cell types the cut kernel cuts (3D: the fixed types and polyhedra), 0 for every other byte value. */
+const SOLID = Uint8Array.from({ length: 256 }, (_, t) => (cellDimension(t) === 3 ? 1 : 0));
 
 /** `crossingCellsOf` for a piece of hexahedra only (8 nodes a cell, back to back); same test, same order. */
 function crossingOf8(conn: Int32Array, base: number, nc: number, side: Uint8Array, g0: number, nFound: number): number {
-  for (let c = 0, q = base; c < nc; c++, q += 8) {
+  for (let c0 = 0; c0 < nc; c0 += SCAN_BLOCK) {
+    reserveFound(nFound + SCAN_BLOCK);
+    nFound = blockOf8(conn, base, c0, Math.min(nc, c0 + SCAN_BLOCK), side, g0, found, nFound);
+  }
+  return nFound;
+}
+
+function blockOf8(conn: Int32Array, base: number, c0: number, c1: number, side: Uint8Array, g0: number, out: Int32Array, nFound: number): number {
+  for (let c = c0, q = base + 8 * c0; c < c1; c++, q += 8) {
     const m = side[conn[q]!]! | side[conn[q + 1]!]! | side[conn[q + 2]!]! | side[conn[q + 3]!]!
       | side[conn[q + 4]!]! | side[conn[q + 5]!]! | side[conn[q + 6]!]! | side[conn[q + 7]!]!;
-    if (m === 3 || m >= 5) push(g0 + c, nFound++);
+    out[nFound] = g0 + c;
+    nFound += m === 3 || m >= 5 ? 1 : 0;
   }
   return nFound;
 }
 
 /** `crossingCellsOf` for a piece of tetrahedra only (4 nodes a cell, back to back); same test, same order. */
 function crossingOf4(conn: Int32Array, base: number, nc: number, side: Uint8Array, g0: number, nFound: number): number {
-  for (let c = 0, q = base; c < nc; c++, q += 4) {
+  for (let c0 = 0; c0 < nc; c0 += SCAN_BLOCK) {
+    reserveFound(nFound + SCAN_BLOCK);
+    nFound = blockOf4(conn, base, c0, Math.min(nc, c0 + SCAN_BLOCK), side, g0, found, nFound);
+  }
+  return nFound;
+}
+
+function blockOf4(conn: Int32Array, base: number, c0: number, c1: number, side: Uint8Array, g0: number, out: Int32Array, nFound: number): number {
+  for (let c = c0, q = base + 4 * c0; c < c1; c++, q += 4) {
     const m = side[conn[q]!]! | side[conn[q + 1]!]! | side[conn[q + 2]!]! | side[conn[q + 3]!]!;
-    if (m === 3 || m >= 5) push(g0 + c, nFound++);
+    out[nFound] = g0 + c;
+    nFound += m === 3 || m >= 5 ? 1 : 0;
   }
   return nFound;
 }
@@ -120,21 +151,28 @@ function crossingOf4(conn: Int32Array, base: number, nc: number, side: Uint8Arra
 function crossingCellsOf(types: Uint8Array, off: Int32Array, conn: Int32Array, faceConn: Int32Array | undefined, faceOff: Int32Array | undefined,
   cellFaceStart: Int32Array | undefined, side: Uint8Array, g0: number, nFound: number): number {
   const nc = types.length;
-  for (let c = 0; c < nc; c++) {
+  for (let c0 = 0; c0 < nc; c0 += SCAN_BLOCK) {
+    reserveFound(nFound + SCAN_BLOCK);
+    nFound = blockOfAny(types, off, conn, faceConn, faceOff, cellFaceStart, side, g0, c0, Math.min(nc, c0 + SCAN_BLOCK), found, nFound);
+  }
+  return nFound;
+}
+
+/** `crossingCellsOf` over cells c0 … c1 − 1 (room for them is made by the caller; see `SCAN_BLOCK`). */
+function blockOfAny(types: Uint8Array, off: Int32Array, conn: Int32Array, faceConn: Int32Array | undefined, faceOff: Int32Array | undefined,
+  cellFaceStart: Int32Array | undefined, side: Uint8Array, g0: number, c0: number, c1: number, out: Int32Array, nFound: number): number {
+  for (let c = c0; c < c1; c++) {
     const t = types[c]!;
     let a = off[c]!, b = off[c + 1]!, ids = conn;
-    if (t === CellType.POLYHEDRON) {
-      if (a === b && faceConn && faceOff && cellFaceStart) { ids = faceConn; a = faceOff[cellFaceStart[c]!]!; b = faceOff[cellFaceStart[c + 1]!]!; }
-    } else if (t < CellType.TETRA || t > CellType.HEXAGONAL_PRISM) {
-      if (cellDimension(t) !== 3) continue;
+    if (t === CellType.POLYHEDRON && a === b && faceConn && faceOff && cellFaceStart) {
+      ids = faceConn; a = faceOff[cellFaceStart[c]!]!; b = faceOff[cellFaceStart[c + 1]!]!;
     }
     let m = 0;
     for (let q = a; q < b; q++) m |= side[ids[q]!]!;
-    // Below with anything else (3, 5, 7), or on-plane nodes above the plane (6: a boundary face may lie in it).
-    if (m === 3 || m >= 5) {
-      if (nFound === found.length) { const g = new Int32Array(2 * found.length); g.set(found); found = g; }
-      found[nFound++] = g0 + c;
-    }
+    // A 3D cell below with anything else (3, 5, 7), or with on-plane nodes above the plane (6: a boundary
+    // face may lie in it). Lower-dimensional cells (boundary faces stored with the volume) count for nothing.
+    out[nFound] = g0 + c;
+    nFound += SOLID[t]! & (m === 3 || m >= 5 ? 1 : 0);
   }
   return nFound;
 }

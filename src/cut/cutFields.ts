@@ -63,8 +63,17 @@ export function interpolateCutFields(d: Dataset, cut: CutProvenance, spec: 'all'
 /** A point field interpolated to the cut's vertices: (1 − t)·f[a] + t·f[b] per component. */
 export function pointFieldOnCut(d: Dataset, cut: CutProvenance, name: string): SurfaceField {
   const { arrays, components: nc } = pieceArrays(d, { name, association: 'point' });
-  const e = cut.vertexEdges, tt = cut.vertexT, nv = tt.length, out = new Float64Array(nv * nc);
-  const ps = pointStarts(d), single = arrays.length === 1;
+  const out = new Float64Array(cut.vertexT.length * nc);
+  interpolateVertices(arrays, nc, pointStarts(d), cut.vertexEdges, cut.vertexT, out);
+  return { name, association: 'point', components: nc, values: out };
+}
+
+/**
+ * The loop of `pointFieldOnCut`, on its own so that nothing follows it: an optimised loop entered on the first
+ * large cut of a session is kept when the loop ends instead of being thrown away by the code after it.
+ */
+function interpolateVertices(arrays: NumericArray[], nc: number, ps: Int32Array, e: Int32Array, tt: Float64Array, out: Float64Array): void {
+  const nv = tt.length, single = arrays.length === 1;
   for (let v = 0; v < nv; v++) {
     let a = e[2 * v]!, b = e[2 * v + 1]!, vals = arrays[0]!;
     if (!single) { const k = pieceOfCell(ps, a); vals = arrays[k]!; a -= ps[k]!; b -= ps[k]!; }
@@ -72,7 +81,6 @@ export function pointFieldOnCut(d: Dataset, cut: CutProvenance, name: string): S
     if (t === 0) for (let c = 0; c < nc; c++) out[o + c] = vals[ia + c]!;
     else for (let c = 0; c < nc; c++) out[o + c] = s * vals[ia + c]! + t * vals[ib + c]!;
   }
-  return { name, association: 'point', components: nc, values: out };
 }
 
 /** A cell field copied to the cut's triangles from their source cells. */

@@ -403,6 +403,8 @@ export function cutPlane(dataset: Dataset, origin: Vec3, normal: Vec3, options: 
   // Ascending ids: the same triangle order whichever search ran, and connectivity read in memory order.
   const cells = used === 'tree' ? found.sort() : found;
   const nCand = cells.length;
+  // One allocation up front instead of repeated doubling: about four vertices and two triangles a cut cell.
+  reserve(4 * nCand, 2 * nCand);
   const starts = cellStarts(dataset), pStarts = pointStarts(dataset);
   const single = dataset.pieces.length === 1;
   let cutCells = 0, k = -1, piece: Piece | undefined;

@@ -86,6 +86,7 @@ export interface SurfaceIntegrals {
 // ---- scratch ------------------------------------------------------------------------------------------
 let vv = new Float64Array(96);   // vertex values: channel ch, vertex j at vv[3ch + j]
 let triUn = new Float64Array(0), triArea = new Float64Array(0); // per triangle: u·n at the vertices, area
+let triRho = new Float64Array(0); // per triangle: density at the vertices
 let e7 = new Float64Array(64);   // channel ch at rule point q: e7[7ch + q]
 const wmq = new Float64Array(7); // mass weight ρu_n·w at each rule point
 let pv = new Float64Array(32);   // values at one quadrature point
@@ -144,7 +145,7 @@ export function integrateSurface(set: TriangleSet, options: Partial<IntegralOpti
   const rho0 = rhoConst ?? 1, withP0 = pCh >= 0 && uCh >= 0, halfRho = kinematic ? 0 : 1;
 
   const nt = triangleCount(set);
-  if (triUn.length < 3 * nt) { triUn = new Float64Array(3 * nt); triArea = new Float64Array(nt); }
+  if (triUn.length < 3 * nt) { triUn = new Float64Array(3 * nt); triArea = new Float64Array(nt); triRho = new Float64Array(3 * nt); }
   // Channels needed at the rule's points: vector fields (magnitudes), and velocity, pressure, density for p₀.
   const need = new Set<number>();
   vecs.forEach((i) => { for (let c = 0; c < fields[i]!.components; c++) need.add(chOf[i]! + c); });
@@ -152,7 +153,15 @@ export function integrateSurface(set: TriangleSet, options: Partial<IntegralOpti
   const needCh = Int32Array.from(need);
   if (e7.length < 7 * C) e7 = new Float64Array(7 * C);
   const values = fields.map((f) => f.values), perVertex = Uint8Array.from(fields, (f) => (f.association === 'point' ? 1 : 0));
-  triangleSums(set.positions, set.indices, values, perVertex, chOf, C, uCh, pCh, rCh, rho0, halfRho, needCh, magCh, magNc);
+  sums.fill(0);
+  // In short runs: the engine optimises the whole function (with feedback for every line of it, the end
+  // included) after the first few runs instead of entering a half-fed optimised loop mid-way and throwing it
+  // away at the loop's exit, which made the first two integrals of a session several times slower.
+  // The running sums go in and out through `sums`, so the order of additions is that of one pass.
+  for (let t0 = 0; t0 < nt; t0 += TRIANGLE_RUN) {
+    triangleSums(set.positions, set.indices, values, perVertex, chOf, C, uCh, pCh, rCh, rho0, halfRho, needCh, magCh, magNc, t0, Math.min(nt, t0 + TRIANGLE_RUN));
+  }
+  if (uCh >= 0) { reverseFlowSums(nt); sums[S_ANEG] = revArea; sums[S_QNEG] = revFlow; sums[S_MNEG] = revMass; }
   let A = sums[S_A]!, cx = sums[S_CX]!, cy = sums[S_CY]!, cz = sums[S_CZ]!, Q = sums[S_Q]!, M = sums[S_M]!;
   let P0a = sums[S_P0A]!, P0m = sums[S_P0M]!, Nx = sums[S_NX]!, Ny = sums[S_NY]!, Nz = sums[S_NZ]!;
   let Aneg = sums[S_ANEG]!, Qneg = sums[S_QNEG]!, Mneg = sums[S_MNEG]!;
@@ -246,23 +255,26 @@ export function integrateSurface(set: TriangleSet, options: Partial<IntegralOpti
 const S_A = 0, S_CX = 1, S_CY = 2, S_CZ = 3, S_Q = 4, S_M = 5, S_P0A = 6, S_P0M = 7, S_NX = 8, S_NY = 9, S_NZ = 10;
 const S_ANEG = 11, S_QNEG = 12, S_MNEG = 13;
 const sums = new Float64Array(14);
+/** Triangles per call of `triangleSums` (see its caller). */
+const TRIANGLE_RUN = 64;
 
 /**
  * The triangle pass of `integrateSurface`, on its own so the engine optimises this small loop early and
  * keeps it (one large function was compiled several times over on the first cuts of a session): area,
- * centroid and normal sums, Q, ṁ, p₀ and the reverse-flow parts into `sums`, ∫φ and ∫ρu_nφ into `acc`,
- * u·n and area per triangle into `triUn`/`triArea`. Channel numbers are −1 when the role has no field;
+ * centroid and normal sums, Q, ṁ and p₀ into `sums` (running sums carried between calls over triangles
+ * tBegin … tEnd − 1), ∫φ and ∫ρu_nφ into `acc`, u·n, density and area per triangle into
+ * `triUn`/`triRho`/`triArea` (the reverse-flow parts follow from them in `reverseFlowSums`). Channel numbers are −1 when the role has no field;
  * `halfRho` is 0 for kinematic pressure; scratch arrays are sized by the caller.
  */
 function triangleSums(P: Float64Array, I: Uint32Array, values: Float64Array[], perVertex: Uint8Array, chOf: Int32Array,
   C: number, uCh: number, pCh: number, rCh: number, rho0: number, halfRho: number, needCh: Int32Array, magCh: Int32Array,
-  magNc: Int32Array): void {
-  const nt = I.length / 3, nf = values.length, nMag = magCh.length;
+  magNc: Int32Array, tBegin: number, tEnd: number): void {
+  const nf = values.length, nMag = magCh.length;
   const withP0 = pCh >= 0 && uCh >= 0;
   const wts = TRI7.weight;
-  let A = 0, cx = 0, cy = 0, cz = 0, Q = 0, M = 0, P0a = 0, P0m = 0, Nx = 0, Ny = 0, Nz = 0;
-  let Aneg = 0, Qneg = 0, Mneg = 0;
-  for (let t = 0; t < nt; t++) {
+  let A = sums[S_A]!, cx = sums[S_CX]!, cy = sums[S_CY]!, cz = sums[S_CZ]!, Q = sums[S_Q]!, M = sums[S_M]!;
+  let P0a = sums[S_P0A]!, P0m = sums[S_P0M]!, Nx = sums[S_NX]!, Ny = sums[S_NY]!, Nz = sums[S_NZ]!;
+  for (let t = tBegin; t < tEnd; t++) {
     const a = 3 * I[3 * t]!, b = 3 * I[3 * t + 1]!, c = 3 * I[3 * t + 2]!;
     const ax = P[a]!, ay = P[a + 1]!, az = P[a + 2]!;
     const ux = P[b]! - ax, uy = P[b + 1]! - ay, uz = P[b + 2]! - az, wx = P[c]! - ax, wy = P[c + 1]! - ay, wz = P[c + 2]! - az;
@@ -284,6 +296,7 @@ function triangleSums(P: Float64Array, I: Uint32Array, values: Float64Array[], p
     }
     triUn[3 * t] = g0; triUn[3 * t + 1] = g1; triUn[3 * t + 2] = g2;
     const r0 = rCh >= 0 ? vv[3 * rCh]! : rho0, r1 = rCh >= 0 ? vv[3 * rCh + 1]! : rho0, r2 = rCh >= 0 ? vv[3 * rCh + 2]! : rho0;
+    triRho[3 * t] = r0; triRho[3 * t + 1] = r1; triRho[3 * t + 2] = r2;
     // Values of the non-linear parts' inputs at the rule's 7 points (vertices, midpoints, centroid).
     for (let i = 0; i < needCh.length; i++) {
       const ch = needCh[i]!, v0 = vv[3 * ch]!, v1 = vv[3 * ch + 1]!, v2 = vv[3 * ch + 2]!, o = 7 * ch;
@@ -324,15 +337,31 @@ function triangleSums(P: Float64Array, I: Uint32Array, values: Float64Array[], p
       acc[ch] += a3 * (v0 + v1 + v2);
       acc[C + ch] += M0 * v0 + M1 * v1 + M2 * v2;
     }
-    if (uCh >= 0 && (g0 < 0 || g1 < 0 || g2 < 0)) {
-      belowPart(area, g0, g1, g2, r0, r1, r2);
-      Aneg += partArea; Qneg += partInt; Mneg += partWeighted;
-    }
   }
   sums[S_A] = A; sums[S_CX] = cx; sums[S_CY] = cy; sums[S_CZ] = cz; sums[S_Q] = Q; sums[S_M] = M;
   sums[S_P0A] = P0a; sums[S_P0M] = P0m; sums[S_NX] = Nx; sums[S_NY] = Ny; sums[S_NZ] = Nz;
-  sums[S_ANEG] = Aneg; sums[S_QNEG] = Qneg; sums[S_MNEG] = Mneg;
 }
+
+/**
+ * The reverse-flow sums (into revArea, revFlow, revMass) from the triangle pass's per-triangle u·n, density and
+ * area, in triangle order. A pass of its own: its call of `belowPart` runs only where the flow reverses, often
+ * first late in a cut, and inside the large triangle pass it made the engine throw that pass's optimised code
+ * away and compile it again.
+ */
+function reverseFlowSums(nt: number): void {
+  let Aneg = 0, Qneg = 0, Mneg = 0;
+  for (let t = 0; t < nt; t++) {
+    const area = triArea[t]!;
+    if (area === 0) continue;
+    const g0 = triUn[3 * t]!, g1 = triUn[3 * t + 1]!, g2 = triUn[3 * t + 2]!;
+    if (g0 < 0 || g1 < 0 || g2 < 0) {
+      belowPart(area, g0, g1, g2, triRho[3 * t]!, triRho[3 * t + 1]!, triRho[3 * t + 2]!);
+      Aneg += partArea; Qneg += partInt; Mneg += partWeighted;
+    }
+  }
+  revArea = Aneg; revFlow = Qneg; revMass = Mneg;
+}
+let revArea = 0, revFlow = 0, revMass = 0;
 
 /** Fills vv with the vertex values of triangle t (cell fields repeated on the three vertices). */
 function gather(values: Float64Array[], perVertex: Uint8Array, chOf: Int32Array, nf: number, I: Uint32Array, t: number): void {

@@ -21,12 +21,22 @@ export function growBounds(points: Float64Array, out: Bounds = emptyBounds()): B
   return out;
 }
 
-/** Bounds of every point of every piece of a dataset (of the whole piece set for an assembled dataset). */
+const boundsCache = new WeakMap<Dataset, Bounds>();
+
+/**
+ * Bounds of every point of every piece of a dataset (of the whole piece set for an assembled dataset).
+ * Computed once per dataset (a loaded dataset's points never change) and returned as a fresh copy, so the
+ * load report, the view and the first cut's tolerance share one pass over the points.
+ */
 export function datasetBounds(d: Dataset): Bounds {
   if (d.assembled) return [...d.assembled.bounds];
-  const b = emptyBounds();
-  for (const p of d.pieces) growBounds(p.points, b);
-  return b;
+  let b = boundsCache.get(d);
+  if (!b) {
+    b = emptyBounds();
+    for (const p of d.pieces) growBounds(p.points, b);
+    boundsCache.set(d, b);
+  }
+  return [...b];
 }
 
 /** Length of the bounds' diagonal (0 for empty bounds): the dataset's length scale for tolerances. */

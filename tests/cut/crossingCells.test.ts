@@ -77,6 +77,21 @@ describe('candidateCells scan', () => {
     expectSame(datasetOf([jitteredTet(3), mixed, jitteredHex(3)]), 5);
   });
 
+  it('selects exactly the rule\'s cells across the scan\'s blocks of 4096 cells, with surface cells among the volume cells', () => {
+    expectSame(datasetOf([hexGrid(17, 17, 17)]), 7);
+    expectSame(datasetOf([tetGrid(10, 10, 10)]), 8);
+    // General loop: hexahedra with quadrilaterals and triangles (surface cells, never candidates) between them.
+    const h = hexGrid(17, 17, 17), types: number[] = [], nodes: number[][] = [];
+    for (let c = 0; c < h.cellTypes.length; c++) {
+      const hex = Array.from(h.connectivity.subarray(8 * c, 8 * c + 8));
+      types.push(CellType.HEXAHEDRON); nodes.push(hex);
+      if (c % 5 === 0) { types.push(CellType.QUAD); nodes.push(hex.slice(0, 4)); }
+      if (c % 7 === 0) { types.push(CellType.TRIANGLE); nodes.push(hex.slice(4, 7)); }
+    }
+    expect(types.length).toBeGreaterThan(4096);
+    expectSame(datasetOf([pieceFromCells(h.points, { types, nodes })]), 9);
+  });
+
   it('selects exactly the rule\'s cells on a worker\'s share of the cells (views; only the share\'s points classified)', () => {
     for (const d of [datasetOf([jitteredHex(5)]), datasetOf([jitteredTet(4)]), datasetOf([jitteredTet(3), jitteredHex(3)])]) {
       for (const share of splitCells(d.pieces.reduce((n, p) => n + p.cellTypes.length, 0), 3)) expectSame(shareDataset(d, share), 6);
