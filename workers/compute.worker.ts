@@ -22,6 +22,7 @@ import { checkProbeSet } from '../src/study/probeSetCheck.ts';
 import { surfaceLoads } from '../src/surface/surfaceLoads.ts';
 import { surfaceQuality } from '../src/surface/surfaceQuality.ts';
 import { checkAborted, type LoadProgress } from '../src/io/loadOptions.ts';
+import { streamBatchInflate } from '../src/io/streamBatchInflate.ts';
 import { loadReport } from '../src/model/loadReport.ts';
 import type { Dataset } from '../src/model/dataset.ts';
 import { datasetBounds } from '../src/model/bounds.ts';
@@ -50,6 +51,9 @@ import { openBrowserPool } from './sharePool.ts';
 
 /** Smallest interval between two progress calls to the main thread (ms). */
 const PROGRESS_INTERVAL_MS = 100;
+
+/** zlib blocks inflate on the platform's own zlib where it has one (same bytes and messages as fflate's). */
+const streamInflate = streamBatchInflate();
 
 /** Everything derived from one loaded dataset; replaced as a whole by the next successful load. */
 interface Held {
@@ -198,6 +202,7 @@ export function createComputeApi(): ComputeApi {
         const dataset = await readDatasetFrom(main, {
           onProgress: (p) => progress.send(meter ? { stage: p.stage, bytesDone: meter.done(p), bytesTotal: total } : p),
           signal: controller.signal,
+          inflate: streamInflate,
           ...(resolveSource ? { resolveSource } : {}),
         });
         progress.now({ stage: 'finding boundary surfaces', bytesDone: total, bytesTotal: total });
