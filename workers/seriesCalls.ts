@@ -8,7 +8,6 @@
 import { blobSource } from '../src/io/blobSource.ts';
 import { bytesSource, type ByteSource } from '../src/io/byteSource.ts';
 import { readFieldDataOnly } from '../src/io/fieldDataOnly.ts';
-import { streamBatchInflate } from '../src/io/streamBatchInflate.ts';
 import { readDatasetFrom } from '../src/io/readDataset.ts';
 import type { Dataset } from '../src/model/dataset.ts';
 import { geometryOnly } from '../src/model/meshKey.ts';
@@ -33,9 +32,6 @@ export function normalisePath(p: string): string {
 
 const sourceOf = (data: Blob | Uint8Array, name: string): ByteSource => (data instanceof Uint8Array ? bytesSource(name, data) : blobSource(data, name));
 const baseName = (p: string): string => p.split('/').pop()!;
-
-/** Steps inflate on the platform's own zlib where it has one (src/io/streamBatchInflate.ts). */
-const seriesInflate = streamBatchInflate();
 
 /**
  * Series file access that counts the bytes of the files its loads open (step files and set pieces) in
@@ -66,7 +62,6 @@ export function chosenFiles(list: readonly InputFile[]): MeteredFiles {
       const f = get(path);
       const folder = path.includes('/') ? path.slice(0, path.lastIndexOf('/') + 1) : '';
       return readDatasetFrom(opened(sourceOf(f.data, baseName(path))), {
-        inflate: seriesInflate,
         ...opts,
         resolveSource: async (rel) => { const p = get(folder + rel, baseName(path)); return opened(sourceOf(p.data, baseName(rel))); },
       });
