@@ -9,20 +9,24 @@
  */
 import type { InflateBatch, InflateBlock } from '../src/io/loadOptions.ts';
 import { fflateInflate } from '../src/io/xmlBlocks.ts';
-import { splitRuns } from '../src/parallel/inflateRuns.ts';
+import { inflateRun, splitRuns } from '../src/parallel/inflateRuns.ts';
 
-interface Helper { worker: Worker; waiting: Map<number, { resolve: (g: (number | string)[]) => void; reject: (e: Error) => void }> }
+/** A run waiting for its helper, and how to inflate it on this thread instead (should the helper fail). */
+interface Waiting { resolve: (g: (number | string)[]) => void; here: () => (number | string)[] }
+interface Helper { worker: Worker; waiting: Map<number, Waiting>; failed: boolean }
 
 function startHelper(i: number): Helper {
   const worker = new Worker(new URL('./inflate.worker.ts', import.meta.url), { type: 'module', name: `fieldtally-inflate-${i + 1}` });
-  const h: Helper = { worker, waiting: new Map() };
+  const h: Helper = { worker, waiting: new Map(), failed: false };
   worker.addEventListener('message', (e: MessageEvent<{ id: number; got: (number | string)[] }>) => {
     const p = h.waiting.get(e.data.id);
     h.waiting.delete(e.data.id);
     p?.resolve(e.data.got);
   });
-  worker.addEventListener('error', (e) => {
-    for (const p of h.waiting.values()) p.reject(new Error(`an inflate helper worker failed (${e.message})`));
+  // A helper that fails (its script could not start, say) is not asked again; its runs inflate on this thread.
+  worker.addEventListener('error', () => {
+    h.failed = true;
+    for (const p of h.waiting.values()) p.resolve(p.here());
     h.waiting.clear();
   });
   return h;
@@ -63,10 +67,12 @@ export function helperInflate(helpers: number): InflateBlock {
       jobs[4 * i] = a; jobs[4 * i + 1] = blocks[i]!.length; jobs[4 * i + 2] = b; jobs[4 * i + 3] = outs[i]!.length;
       a += blocks[i]!.length; b += outs[i]!.length;
     }
-    const helped = runs.slice(1).map(([a, b], r) => new Promise<(number | string)[]>((resolve, reject) => {
-      const h = pool![r]!, id = next++;
-      h.waiting.set(id, { resolve, reject });
-      h.worker.postMessage({ id, input, output, jobs: jobs.slice(4 * a, 4 * b) });
+    const helped = runs.slice(1).map(([a, b], r) => new Promise<(number | string)[]>((resolve) => {
+      const h = pool![r]!, id = next++, part = jobs.slice(4 * a, 4 * b);
+      const here = () => inflateRun(inView, outView, part, fflateInflate);
+      if (h.failed) { resolve(here()); return; }
+      h.waiting.set(id, { resolve, here });
+      h.worker.postMessage({ id, input, output, jobs: part });
     }));
     // This thread's run, straight into place, while the helpers work.
     const got: (number | string)[] = [];
