@@ -18,6 +18,9 @@ import {
   zlibLayout, type BlockExpectation, type BlockFormat, type ZlibLayout,
 } from './xmlBlocks.ts';
 
+/** Scratch bytes for the inflated blocks of an array converted on reading when the inflater takes batches (8 MiB). */
+const BATCH_SCRATCH_BYTES = 8 << 20;
+
 /** Where the array lies and how the file is written. */
 export interface AppendedArray {
   readonly source: ByteSource;
@@ -151,9 +154,11 @@ async function inflateAll(input: PackedInput, plan: ArrayPlan, z: ZlibLayout, ou
       // Converted plans: runs of the batch's blocks inflate at once into the scratch, converted between runs.
       while (k < kEnd) {
         flush();
-        if (fill + inflatedSize(z, k) > dec.length) {
+        // A larger scratch for batches: fewer, larger hand-overs to the inflater's threads.
+        const want = Math.max(fill + inflatedSize(z, k), Math.min(BATCH_SCRATCH_BYTES, z.total + size));
+        if (want > dec.length) {
           const keep = dec.slice(0, fill);
-          dec = decoded.bytes(fill + inflatedSize(z, k));
+          dec = decoded.bytes(want);
           dec.set(keep);
         }
         const blocks: Uint8Array[] = [], outs: Uint8Array[] = [];
