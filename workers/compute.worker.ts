@@ -21,7 +21,8 @@ import type { ProbeSet } from '../src/study/probeSet.ts';
 import { checkProbeSet } from '../src/study/probeSetCheck.ts';
 import { surfaceLoads } from '../src/surface/surfaceLoads.ts';
 import { surfaceQuality } from '../src/surface/surfaceQuality.ts';
-import { checkAborted, type LoadProgress } from '../src/io/loadOptions.ts';
+import { checkAborted, type InflateBlock, type LoadProgress } from '../src/io/loadOptions.ts';
+import { helperInflate } from './inflateHelpers.ts';
 import { loadReport } from '../src/model/loadReport.ts';
 import type { Dataset } from '../src/model/dataset.ts';
 import { datasetBounds } from '../src/model/bounds.ts';
@@ -43,6 +44,7 @@ import type { HistoryTable, SeriesDescription, SeriesProgress, StepDescription }
 import type { InputFile } from './api.ts';
 import { drawFaces, drawTriangleSet, faceValues, surfaceCellFaces, type FaceList } from '../src/surface/surfaceDrawing.ts';
 import { planPool, POOL_MIN_CELLS, workersFromName, type PoolPlan } from '../src/parallel/poolPlan.ts';
+import { MAX_WORKERS } from '../src/parallel/pool.ts';
 import type { ComputePool } from '../src/parallel/pool.ts';
 import { primeDerivedGradients } from '../src/parallel/deriveShares.ts';
 import { totalCells } from '../src/model/dataset.ts';
@@ -73,6 +75,17 @@ function poolPlan(): PoolPlan {
     isolated: g.crossOriginIsolated === true && typeof SharedArrayBuffer !== 'undefined',
     cores: g.navigator?.hardwareConcurrency ?? 1, ...(requested ? { requested } : {}),
   });
+}
+
+/**
+ * The inflater of zlib blocks, made once: while a file loads the page waits, so one helper worker per core
+ * besides this one (at most the pool's limit; `?workers=N` asks for N threads in all), workers/inflateHelpers.ts.
+ */
+let inflater: InflateBlock | undefined;
+function loadInflater(): InflateBlock {
+  const g = globalThis as { navigator?: { hardwareConcurrency?: number }; name?: string };
+  const threads = workersFromName(g.name ?? '') ?? Math.min(MAX_WORKERS, Math.max(1, Math.floor(g.navigator?.hardwareConcurrency ?? 1)));
+  return (inflater ??= helperInflate(threads - 1));
 }
 
 /** A chosen file as a byte source: ranges of a Blob are read only when the reader needs them (and counted by the meter). */
@@ -198,6 +211,7 @@ export function createComputeApi(): ComputeApi {
         const dataset = await readDatasetFrom(main, {
           onProgress: (p) => progress.send(meter ? { stage: p.stage, bytesDone: meter.done(p), bytesTotal: total } : p),
           signal: controller.signal,
+          inflate: loadInflater(),
           ...(resolveSource ? { resolveSource } : {}),
         });
         progress.now({ stage: 'finding boundary surfaces', bytesDone: total, bytesTotal: total });

@@ -18,6 +18,9 @@ import {
   zlibLayout, type BlockExpectation, type BlockFormat, type ZlibLayout,
 } from './xmlBlocks.ts';
 
+/** Scratch bytes for the inflated blocks of an array converted on reading when the inflater takes batches (8 MiB). */
+const BATCH_SCRATCH_BYTES = 8 << 20;
+
 /** Where the array lies and how the file is written. */
 export interface AppendedArray {
   readonly source: ByteSource;
@@ -140,16 +143,34 @@ async function inflateAll(input: PackedInput, plan: ArrayPlan, z: ZlibLayout, ou
         blocks.push(packed.subarray(f, f + cs)); outs.push(outBytes.subarray(t, t + us));
         f += cs; t += us;
       }
-      const got = await inflate.batch(blocks, outs);
-      for (let j = 0; j < got.length; j++, k++) {
-        const g = got[j]!;
-        if (typeof g === 'string') throw new Error(`${where}: zlib block ${k} of ${z.nBlocks} is corrupt (${g})`);
-        if (g !== outs[j]!.length) throw new Error(`${where}: zlib block ${k} of ${z.nBlocks} inflates to ${g} bytes, the header says ${outs[j]!.length}`);
-        to += outs[j]!.length;
-      }
+      checkBatch(await inflate.batch(blocks, outs), outs, k, z.nBlocks, where);
+      for (const o of outs) { to += o.length; k++; }
       const done = Math.floor(to / size);
       if (done > finished) { finishDirect(plan, out, finished, done - finished); finished = done; }
       await cp.at('inflating', input.position());
+      continue;
+    }
+    if (!direct && inflate.batch && kEnd - k > 1) {
+      // Converted plans: runs of the batch's blocks inflate at once into the scratch, converted between runs.
+      while (k < kEnd) {
+        flush();
+        // A larger scratch for batches: fewer, larger hand-overs to the inflater's threads.
+        const want = Math.max(fill + inflatedSize(z, k), Math.min(BATCH_SCRATCH_BYTES, z.total + size));
+        if (want > dec.length) {
+          const keep = dec.slice(0, fill);
+          dec = decoded.bytes(want);
+          dec.set(keep);
+        }
+        const blocks: Uint8Array[] = [], outs: Uint8Array[] = [];
+        for (let t = fill; k + blocks.length < kEnd && t + inflatedSize(z, k + blocks.length) <= dec.length;) {
+          const j = k + blocks.length, cs = z.words[2 + j]!, us = inflatedSize(z, j);
+          blocks.push(packed.subarray(from, from + cs)); outs.push(dec.subarray(t, t + us));
+          from += cs; t += us;
+        }
+        checkBatch(await inflate.batch(blocks, outs), outs, k, z.nBlocks, where);
+        for (const o of outs) { fill += o.length; k++; }
+        await cp.at('inflating', input.position());
+      }
       continue;
     }
     for (; k < kEnd; k++) {
@@ -174,4 +195,14 @@ async function inflateAll(input: PackedInput, plan: ArrayPlan, z: ZlibLayout, ou
     }
   }
   if (!direct) flush();
+}
+
+/** Throws the message of the first block of a batch (block `k0` onwards) that did not inflate to its declared size, as `inflateInto` words it. */
+function checkBatch(got: readonly (number | string)[], outs: readonly Uint8Array[], k0: number, nBlocks: number, where: string): void {
+  for (let j = 0; j < got.length; j++) {
+    const g = got[j]!, n = outs[j]!.length, k = k0 + j;
+    if (typeof g === 'string') throw new Error(`${where}: zlib block ${k} of ${nBlocks} is corrupt (${g})`);
+    if (g > n) throw new Error(`${where}: zlib block ${k} of ${nBlocks} inflates past the ${n} bytes its header declares (stopped there)`);
+    if (g !== n) throw new Error(`${where}: zlib block ${k} of ${nBlocks} inflates to ${g} bytes, the header says ${n}`);
+  }
 }
