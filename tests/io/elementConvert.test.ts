@@ -93,6 +93,34 @@ describe('element conversion', () => {
     }
   });
 
+  it('64-bit ids and cell types read as 32-bit words (host order, aligned) equal the DataView path (unaligned), values and refusals alike', () => {
+    const cases: [ElementType, 'ids' | 'cellTypes', bigint[]][] = [
+      ['Int64', 'ids', [0n, 1n, 2147483647n, 42n]],
+      ['UInt64', 'ids', [0n, 7n, 2147483647n]],
+      ['Int64', 'cellTypes', [10n, 12n, 42n, 255n]],
+      ['Int64', 'ids', [0n, 1n, -1n, 3n]],                    // negative id
+      ['Int64', 'ids', [0n, 2n ** 32n + 5n, 1n]],            // low word in range, high word not
+      ['UInt64', 'ids', [0n, 2n ** 31n, 1n]],                // beyond Int32
+      ['Int64', 'cellTypes', [10n, 256n, 12n]],              // not a byte
+    ];
+    for (const [type, target, values] of cases) {
+      for (const littleEndian of [true, false]) {
+        const run = (misalign: number): string => {
+          const raw = new Uint8Array(8 * values.length + misalign), dv = new DataView(raw.buffer, misalign);
+          values.forEach((v, i) => (type === 'Int64' ? dv.setBigInt64(8 * i, v, littleEndian) : dv.setBigUint64(8 * i, v, littleEndian)));
+          const plan: ArrayPlan = { type, littleEndian, target, where: 'f: a', badCellType: (c, t) => new Error(`cell ${c} has type ${t}`) };
+          const out = allocateTarget(plan, values.length);
+          try { convertChunk(plan, raw.subarray(misalign), values.length, out, 0); } catch (e) { return `error: ${(e as Error).message}`; }
+          return Array.from(out).join(',');
+        };
+        const aligned = run(0), unaligned = run(2);
+        expect(aligned, `${type} ${target} ${values.join(' ')}`).toBe(unaligned);
+        if (values.every((v) => v >= 0n && v <= (target === 'ids' ? 2147483647n : 255n))) expect(aligned).toBe(values.join(','));
+        else expect(aligned).toMatch(/^error: /);
+      }
+    }
+  });
+
   it('out-of-range values are refused naming their index in the whole array', async () => {
     const ids = encode('Int64', [0, 1, 2, 3], true);
     new DataView(ids.buffer).setBigInt64(16, 3_000_000_000n, true);
