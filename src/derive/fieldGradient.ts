@@ -60,22 +60,42 @@ export function fieldGradient(p: Piece, f: FieldArray): Float64Array {
 
 /**
  * Gradient of a point field at chosen nodes only (`nodes` local to `p`), same layout per node: the direct fit
- * over the mesh's cached stencil, or — for a few nodes of a mesh whose stencil is not built — over the rows
- * of those nodes and their neighbours only (`pointStencilAround`, the same rows, so the same values). A wall fitted at every step of a series keeps its fit as a linear operator
+ * over the mesh's cached stencil, or — on a mesh whose stencil is not built — over the rows of those nodes
+ * and their neighbours only (`pointStencilAround`, the same rows, so the same values); or the values primed
+ * for those nodes by `primeGradientAt`. A wall fitted at every step of a series keeps its fit as a linear operator
  * instead (src/surface/wallGradientCache.ts).
  */
 export function pointGradientAt(p: Piece, f: FieldArray, nodes: Int32Array): Float64Array {
+  const primed = primedAt.get(f.values);
+  if (primed && sameNodes(primed.nodes, nodes)) return primed.g.slice();
   const out = new Float64Array(3 * f.components * nodes.length);
-  // a few nodes of a mesh without cached rows: only their rows and their neighbours' (the same rows)
+  // a mesh without cached rows: only the chosen nodes' rows and their neighbours' (the same rows); no
+  // whole-mesh structure is built for a wall request
   const cached = geometryOf(p).point;
-  const stencil = cached ? cached.stencil
-    : nodes.length * LOCAL_ROWS_BELOW < p.points.length / 3 ? pointStencilAround(p, nodes) : sitesOf(p, 'point').stencil;
+  const stencil = cached ? cached.stencil : pointStencilAround(p, nodes);
   gradientInto(out, 0, p.points, f.values, f.components, stencil, nodes, 0, nodes.length);
   return out;
 }
 
-/** `pointGradientAt` builds only the chosen nodes' rows when they are fewer than 1 / this of the piece's nodes. */
-const LOCAL_ROWS_BELOW = 8;
+/** Gradients at chosen nodes computed elsewhere (the worker pool), by values array: `primeGradientAt`. */
+const primedAt = new WeakMap<object, { nodes: Int32Array; g: Float64Array }>();
+
+function sameNodes(a: Int32Array, b: Int32Array): boolean {
+  if (a === b) return true;
+  if (a.length !== b.length) return false;
+  for (let i = 0; i < a.length; i++) if (a[i] !== b[i]) return false;
+  return true;
+}
+
+/**
+ * Hands `pointGradientAt` the gradient at `nodes` of the point field whose values array is `values`, computed
+ * elsewhere (the worker pool's shares of a wall, src/parallel/deriveShares.ts) in its layout; a later
+ * `pointGradientAt` of that field at the same nodes returns a copy of it instead of fitting again. One entry
+ * per values array (the last one primed).
+ */
+export function primeGradientAt(values: object, nodes: Int32Array, g: Float64Array): void {
+  primedAt.set(values, { nodes: nodes.slice(), g });
+}
 
 /**
  * Hands the gradient cache a gradient computed elsewhere (the worker pool's shares, src/parallel/deriveShares.ts)
@@ -84,4 +104,9 @@ const LOCAL_ROWS_BELOW = 8;
  */
 export function primeGradient(values: object, g: Float64Array): void {
   gradients.set(values, g);
+}
+
+/** True when `primeGradientAt` has handed over a gradient for the values array `values`. */
+export function hasPrimedGradient(values: object): boolean {
+  return primedAt.has(values);
 }

@@ -71,14 +71,35 @@ function walkRow(p: Piece, inc: Incidence, i: number, out: Int32Array | null, at
   return n;
 }
 
-/** The rows of every marked node, walked in node order into fresh compressed rows. */
-function rowsOfMarked(p: Piece, mark: Uint8Array, inc: Incidence): Stencil {
-  const np = mark.length, offsets = new Int32Array(np + 1);
-  for (let i = 0; i < np; i++) offsets[i + 1] = offsets[i]! + (mark[i] ? walkRow(p, inc, i, null, 0) : 0);
-  const ids = new Int32Array(offsets[np]!);
-  inc.stamp.fill(-1);
-  for (let i = 0; i < np; i++) if (mark[i]) walkRow(p, inc, i, ids, offsets[i]!);
-  return { offsets, ids };
+/**
+ * The rows of every marked node, each walked once, in node order, straight into fresh compressed rows (room
+ * for a row's most entries made before its walk, so the inner loop never checks capacity).
+ */
+function rowsOfMarked(p: Piece, mark: Uint8Array, inc: Incidence, marked: number): Stencil {
+  const np = mark.length, offsets = new Int32Array(np + 1), conn = p.connectivity, off = p.offsets, { cs, cells, stamp } = inc;
+  // a hexahedral lattice node has 26 neighbours, a tetrahedral one about 14
+  let ids = new Int32Array(Math.max(64, 27 * marked)), n = 0;
+  for (let i = 0; i < np; i++) {
+    if (mark[i]) {
+      const ca = cs[i]!, cb = cs[i + 1]!;
+      let most = 0;
+      for (let a = ca; a < cb; a++) { const c = cells[a]!; most += off[c + 1]! - off[c]!; }
+      if (n + most > ids.length) { const g = new Int32Array(Math.max(2 * ids.length, n + most)); g.set(ids.subarray(0, n)); ids = g; }
+      stamp[i] = i;
+      for (let a = ca; a < cb; a++) {
+        const c = cells[a]!, hi = off[c + 1]!;
+        for (let b = off[c]!; b < hi; b++) {
+          const q = conn[b]!;
+          if (stamp[q] === i) continue;
+          stamp[q] = i;
+          ids[n++] = q;
+        }
+      }
+    }
+    offsets[i + 1] = n;
+  }
+  // keep the buffer when little of it is unused (a copy costs more than the slack)
+  return { offsets, ids: n >= 0.8 * ids.length ? ids.subarray(0, n) : ids.slice(0, n) };
 }
 
 /** Rows of `pointStencil(p)` for `nodes` and their neighbours (see the file comment). */
@@ -86,7 +107,9 @@ export function pointStencilAround(p: Piece, nodes: Int32Array): Stencil {
   const mark = new Uint8Array(p.points.length / 3);
   for (let k = 0; k < nodes.length; k++) mark[nodes[k]!] = CHOSEN;
   markNeighbours(p, mark);
-  return rowsOfMarked(p, mark, incidenceOfMarked(p, mark));
+  let marked = 0;
+  for (let i = 0; i < mark.length; i++) if (mark[i]) marked++;
+  return rowsOfMarked(p, mark, incidenceOfMarked(p, mark), marked);
 }
 
 /**

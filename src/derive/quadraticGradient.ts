@@ -80,6 +80,7 @@ export function gradientInto(out: Float64Array, outStart: number, positions: Flo
   stencil: Stencil, targets: Int32Array | undefined, from: number, to: number, ringSizes?: Int32Array): void {
   if (B.length < 9 * nc) { B = new Float64Array(9 * nc); Y = new Float64Array(9 * nc); }
   beginSites(positions.length / 3);
+  if (nc === 1 || nc === 3) { fusedInto(out, outStart, positions, values, nc, stencil, targets, from, to, ringSizes); return; }
   for (let k = from; k < to; k++) {
     const i = targets ? targets[k]! : k;
     const ob = outStart + (k - from) * nc * 3;
@@ -89,6 +90,102 @@ export function gradientInto(out: Float64Array, outStart: number, positions: Flo
     solveSite(values, nc, i);
     for (let c = 0; c < nc; c++) { out[ob + 3 * c] = Y[9 * c]!; out[ob + 3 * c + 1] = Y[9 * c + 1]!; out[ob + 3 * c + 2] = Y[9 * c + 2]!; }
   }
+}
+
+/**
+ * `gradientInto` for 1 or 3 components: the same fit and solve as `fitSite` + `solveSite`, with the
+ * right-hand sides summed in the moments' loop (one pass over the neighbours instead of two). Every product
+ * and sum is the one the two-pass route makes, in the same order, so the results are the same to the bit.
+ */
+function fusedInto(out: Float64Array, outStart: number, positions: Float64Array, values: NumericArray, nc: number,
+  stencil: Stencil, targets: Int32Array | undefined, from: number, to: number, ringSizes: Int32Array | undefined): void {
+  const so = stencil.offsets, sid = stencil.ids, w = 3 * nc;
+  for (let k = from; k < to; k++) {
+    const i = targets ? targets[k]! : k;
+    const ob = outStart + (k - from) * w;
+    let n = so[i + 1]! - so[i]!;
+    let ok = fitSums(positions, values, nc, i, sid, so[i]!, so[i + 1]!, true);
+    if (!(ok >= WIDEN_TOLERANCE)) {
+      n = twoRing(so, sid, i, k);
+      ok = fitSums(positions, values, nc, i, ring, 0, n, false);
+    }
+    if (ringSizes) ringSizes[k] = ok < 0 ? 0 : n;
+    if (ok < 0) { for (let c = 0; c < w; c++) out[ob + c] = NaN; continue; }
+    const ih = lastSite.ih;
+    for (let c = 0; c < nc; c++) {
+      gradientNine(Lp, inv, B, Y, 9 * c);
+      out[ob + 3 * c] = Y[9 * c]! * ih; out[ob + 3 * c + 1] = Y[9 * c + 1]! * ih; out[ob + 3 * c + 2] = Y[9 * c + 2]! * ih;
+    }
+  }
+}
+
+/**
+ * `fitGeometry` that also sums the right-hand sides Σ w m_a Δf of `values` (1 or 3 components) into `B`
+ * (the ½ of the square terms applied), in the same loop as the moments. Same returns as `fitGeometry`.
+ */
+function fitSums(positions: Float64Array, values: NumericArray, nc: number, i: number, list: Int32Array, lo: number, hi: number,
+  skipOneSided: boolean): number {
+  const x0 = positions[3 * i]!, y0 = positions[3 * i + 1]!, z0 = positions[3 * i + 2]!;
+  const n = hi - lo;
+  if (X.length < n) { const m = Math.max(n, 2 * X.length); X = new Float64Array(m); Yo = new Float64Array(m); Z = new Float64Array(m); W = new Float64Array(m); }
+  let h2 = 0, used = 0, mx = 0, my = 0, mz = 0;
+  for (let s = lo, t = 0; s < hi; s++, t++) {
+    const q = 3 * list[s]!, dx = positions[q]! - x0, dy = positions[q + 1]! - y0, dz = positions[q + 2]! - z0;
+    X[t] = dx; Yo[t] = dy; Z[t] = dz;
+    const r2 = dx * dx + dy * dy + dz * dz;
+    if (r2 > 0) { h2 += r2; used++; mx += dx; my += dy; mz += dz; }
+  }
+  if (used === 0) return -1;
+  const ih = 1 / Math.sqrt(h2 / used);
+  lastSite.ih = ih;
+  if (skipOneSided && Math.hypot(mx, my, mz) / used * ih > ONE_SIDED) return SKEWED;
+  const three = nc === 3;
+  const f0 = values[i * nc]!, f1 = three ? values[i * nc + 1]! : 0, f2 = three ? values[i * nc + 2]! : 0;
+  let sxx = 0, syy = 0, szz = 0, sxy = 0, sxz = 0, syz = 0;
+  let txxx = 0, txxy = 0, txxz = 0, txyy = 0, tyyy = 0, tyyz = 0, txzz = 0, tyzz = 0, tzzz = 0, txyz = 0;
+  let qxxxx = 0, qyyyy = 0, qzzzz = 0, qxxxy = 0, qxxxz = 0, qxyyy = 0, qyyyz = 0, qxzzz = 0, qyzzz = 0;
+  let qxxyy = 0, qxxzz = 0, qyyzz = 0, qxxyz = 0, qxyyz = 0, qxyzz = 0;
+  let b0_0 = 0, b1_0 = 0, b2_0 = 0, b3_0 = 0, b4_0 = 0, b5_0 = 0, b6_0 = 0, b7_0 = 0, b8_0 = 0;
+  let b0_1 = 0, b1_1 = 0, b2_1 = 0, b3_1 = 0, b4_1 = 0, b5_1 = 0, b6_1 = 0, b7_1 = 0, b8_1 = 0;
+  let b0_2 = 0, b1_2 = 0, b2_2 = 0, b3_2 = 0, b4_2 = 0, b5_2 = 0, b6_2 = 0, b7_2 = 0, b8_2 = 0;
+  for (let t = 0, s = lo; t < n; t++, s++) {
+    const x = X[t]! * ih, y = Yo[t]! * ih, z = Z[t]! * ih;
+    const r2 = x * x + y * y + z * z;
+    if (!(r2 > 0)) continue;
+    const w = 1 / r2;
+    const wx = w * x, wy = w * y, wz = w * z;
+    const wxx = wx * x, wyy = wy * y, wzz = wz * z, wxy = wx * y, wxz = wx * z, wyz = wy * z;
+    const xx = x * x, yy = y * y, zz = z * z, xy = x * y, xz = x * z, yz = y * z;
+    sxx += wxx; syy += wyy; szz += wzz; sxy += wxy; sxz += wxz; syz += wyz;
+    txxx += wxx * x; txxy += wxx * y; txxz += wxx * z; txyy += wyy * x; tyyy += wyy * y; tyyz += wyy * z;
+    txzz += wzz * x; tyzz += wzz * y; tzzz += wzz * z; txyz += wxy * z;
+    qxxxx += wxx * xx; qyyyy += wyy * yy; qzzzz += wzz * zz; qxxxy += wxx * xy; qxxxz += wxx * xz; qxyyy += wyy * xy;
+    qyyyz += wyy * yz; qxzzz += wzz * xz; qyzzz += wzz * yz; qxxyy += wxx * yy; qxxzz += wxx * zz; qyyzz += wyy * zz;
+    qxxyz += wxx * yz; qxyyz += wyy * xz; qxyzz += wzz * xy;
+    const j = list[s]! * nc;
+    const g0 = values[j]! - f0;
+    b0_0 += wx * g0; b1_0 += wy * g0; b2_0 += wz * g0; b3_0 += wxx * g0; b4_0 += wyy * g0; b5_0 += wzz * g0; b6_0 += wxy * g0; b7_0 += wxz * g0; b8_0 += wyz * g0;
+    if (three) {
+      const g1 = values[j + 1]! - f1, g2 = values[j + 2]! - f2;
+      b0_1 += wx * g1; b1_1 += wy * g1; b2_1 += wz * g1; b3_1 += wxx * g1; b4_1 += wyy * g1; b5_1 += wzz * g1; b6_1 += wxy * g1; b7_1 += wxz * g1; b8_1 += wyz * g1;
+      b0_2 += wx * g2; b1_2 += wy * g2; b2_2 += wz * g2; b3_2 += wxx * g2; b4_2 += wyy * g2; b5_2 += wzz * g2; b6_2 += wxy * g2; b7_2 += wxz * g2; b8_2 += wyz * g2;
+    }
+  }
+  Mp[0] = sxx; Mp[1] = sxy; Mp[2] = sxz; Mp[3] = 0.5 * txxx; Mp[4] = 0.5 * txyy; Mp[5] = 0.5 * txzz; Mp[6] = txxy; Mp[7] = txxz; Mp[8] = txyz;
+  Mp[9] = syy; Mp[10] = syz; Mp[11] = 0.5 * txxy; Mp[12] = 0.5 * tyyy; Mp[13] = 0.5 * tyzz; Mp[14] = txyy; Mp[15] = txyz; Mp[16] = tyyz;
+  Mp[17] = szz; Mp[18] = 0.5 * txxz; Mp[19] = 0.5 * tyyz; Mp[20] = 0.5 * tzzz; Mp[21] = txyz; Mp[22] = txzz; Mp[23] = tyzz;
+  Mp[24] = 0.25 * qxxxx; Mp[25] = 0.25 * qxxyy; Mp[26] = 0.25 * qxxzz; Mp[27] = 0.5 * qxxxy; Mp[28] = 0.5 * qxxxz; Mp[29] = 0.5 * qxxyz;
+  Mp[30] = 0.25 * qyyyy; Mp[31] = 0.25 * qyyzz; Mp[32] = 0.5 * qxyyy; Mp[33] = 0.5 * qxyyz; Mp[34] = 0.5 * qyyyz;
+  Mp[35] = 0.25 * qzzzz; Mp[36] = 0.5 * qxyzz; Mp[37] = 0.5 * qxzzz; Mp[38] = 0.5 * qyzzz;
+  Mp[39] = qxxyy; Mp[40] = qxxyz; Mp[41] = qxyyz;
+  Mp[42] = qxxzz; Mp[43] = qxyzz;
+  Mp[44] = qyyzz;
+  B[0] = b0_0; B[1] = b1_0; B[2] = b2_0; B[3] = 0.5 * b3_0; B[4] = 0.5 * b4_0; B[5] = 0.5 * b5_0; B[6] = b6_0; B[7] = b7_0; B[8] = b8_0;
+  if (three) {
+    B[9] = b0_1; B[10] = b1_1; B[11] = b2_1; B[12] = 0.5 * b3_1; B[13] = 0.5 * b4_1; B[14] = 0.5 * b5_1; B[15] = b6_1; B[16] = b7_1; B[17] = b8_1;
+    B[18] = b0_2; B[19] = b1_2; B[20] = b2_2; B[21] = 0.5 * b3_2; B[22] = 0.5 * b4_2; B[23] = 0.5 * b5_2; B[24] = b6_2; B[25] = b7_2; B[26] = b8_2;
+  }
+  return factorNine(Mp, Lp, inv, PIVOT_TOLERANCE);
 }
 
 /** Readies the two-ring marks for a pass over sites of a set of `nSites`; call before a run of `fitSite`. */

@@ -23,8 +23,8 @@ import type { FieldArray } from '../model/fieldArray.ts';
 import type { BoundaryFaces } from './boundaryFaces.ts';
 import { vertexAverage } from './faceGeometry.ts';
 import { cellVelocityGradient } from './wallGradient.ts';
-import { wallCornerGradients } from './wallGradientCache.ts';
-import { cornerTraction } from './wallTraction.ts';
+import { wallNodeGradients } from './wallGradientCache.ts';
+import { nodeTraction } from './wallTraction.ts';
 
 /** Options of `surfaceLoads` (and of force totals). */
 export interface LoadOptions {
@@ -195,10 +195,10 @@ function secondOrderTraction(d: Dataset, faces: BoundaryFaces, selection: Int32A
   mu: number | string): Float64Array {
   if (typeof mu === 'number' && !(mu >= 0)) throw new Error(`viscosity μ must be ≥ 0, got ${mu}`);
   // the fit at each wall node is geometry: planned once per mesh and face selection (wallGradientCache.ts)
-  const G = wallCornerGradients(d, faces, selection, offsets, vel);
-  if (typeof mu === 'number') return cornerTraction(faces, selection, offsets, G, () => mu);
+  const G = wallNodeGradients(d, faces, selection, offsets, vel);
+  if (typeof mu === 'number') return nodeTraction(faces, selection, offsets, G.nodes, G.byPiece, mu);
   const arrays = d.pieces.map((p) => p.pointData.find((f) => f.name === mu && f.components === 1) ?? p.cellData.find((f) => f.name === mu && f.components === 1));
-  return cornerTraction(faces, selection, offsets, G, (s, j) => {
+  return nodeTraction(faces, selection, offsets, G.nodes, G.byPiece, (s, j) => {
     const f = selection[s]!, piece = faces.piece[f]!, arr = arrays[piece];
     if (!arr) throw new Error(`${d.source}: viscosity array "${mu}" is missing from piece ${piece}`);
     return arr.association === 'cell' ? arr.values[faces.cell[f]! - faces.cellStarts[piece]!]! : arr.values[faces.nodes[faces.offsets[f]! + j]!]!;

@@ -16,7 +16,8 @@ import type { FieldArray } from '../model/fieldArray.ts';
 import { applyGradientOperator, gradientOperator, type GradientOperator } from '../derive/gradientOperator.ts';
 import { pointStencilAround } from '../derive/localStencil.ts';
 import type { BoundaryFaces } from './boundaryFaces.ts';
-import { cornerGradients, cornersFromNodes, wallNodes, type WallNodes } from './wallTraction.ts';
+import { hasPrimedGradient, pointGradientAt } from '../derive/fieldGradient.ts';
+import { cornersFromNodes, wallNodes, type WallNodes } from './wallTraction.ts';
 
 /**
  * How large a plan may be (bytes) for one face selection: `shareOfGeometry` times the bytes of the mesh's
@@ -111,11 +112,26 @@ function planFor(d: Dataset, faces: BoundaryFaces, selection: Int32Array, offset
  */
 export function wallCornerGradients(d: Dataset, faces: BoundaryFaces, selection: Int32Array, offsets: Int32Array,
   vel: readonly (FieldArray | undefined)[]): Float64Array {
-  const plan = planFor(d, faces, selection, offsets);
-  if (!plan.cached || vel.some((v, k) => plan.pieces[k] && (!v || v.components !== 3 || v.association !== 'point'))) {
-    return cornerGradients(d, faces, selection, offsets, vel);
+  const g = wallNodeGradients(d, faces, selection, offsets, vel);
+  return cornersFromNodes(g.nodes, offsets, g.byPiece);
+}
+
+/**
+ * The velocity gradient at each wall node of the selected faces (9 per node, ∂u_i/∂x_j at `9·row + 3i + j` of
+ * `byPiece[k]` for the node `nodes.perPiece[k][row]`; velocity unit per length unit), each node once: from the
+ * mesh's cached plan when it has one, else by the kernel (`pointGradientAt`: over the wall nodes' own rows,
+ * or values primed by the worker pool). `wallCornerGradients` without the per-corner copy (`nodeTraction`
+ * reads these directly).
+ */
+export function wallNodeGradients(d: Dataset, faces: BoundaryFaces, selection: Int32Array, offsets: Int32Array,
+  vel: readonly (FieldArray | undefined)[]): { nodes: WallNodes; byPiece: (Float64Array | null)[] } {
+  const primed = vel.some((v) => v && hasPrimedGradient(v.values));
+  const plan = primed ? null : planFor(d, faces, selection, offsets);
+  if (!plan || !plan.cached || vel.some((v, k) => plan.pieces[k] && (!v || v.components !== 3 || v.association !== 'point'))) {
+    const nodes = plan ? plan.nodes : wallNodes(d, faces, selection, offsets);
+    return { nodes, byPiece: nodes.perPiece.map((n, k) => (n.length ? pointGradientAt(d.pieces[k]!, vel[k]!, n) : null)) };
   }
-  return cornersFromNodes(plan.nodes, offsets, plan.pieces.map((pp, k) => (pp ? applyGradientOperator(pp.op, vel[k]!.values, 3) : null)));
+  return { nodes: plan.nodes, byPiece: plan.pieces.map((pp, k) => (pp ? applyGradientOperator(pp.op, vel[k]!.values, 3) : null)) };
 }
 
 /** Bytes held by the plans cached for `faces` (for benchmarks and memory accounting). */

@@ -73,11 +73,16 @@ export interface WallResult {
   notes: string[];
 }
 
-function stat(v: Float64Array, w: Float64Array): WallStat {
-  let s = 0, sw = 0, lo = Infinity, hi = -Infinity;
-  for (let i = 0; i < v.length; i++) { const x = v[i]!; s += w[i]! * x; sw += w[i]!; if (x < lo) lo = x; if (x > hi) hi = x; }
-  return v.length ? { mean: s / sw, min: lo, max: hi } : { mean: NaN, min: NaN, max: NaN };
+/** Running area-weighted sum, weight, minimum and maximum of one per-face quantity. */
+interface Sums { s: number; sw: number; lo: number; hi: number }
+const newSums = (): Sums => ({ s: 0, sw: 0, lo: Infinity, hi: -Infinity });
+function add(a: Sums, x: number, w: number): void {
+  a.s += w * x; a.sw += w;
+  if (x < a.lo) a.lo = x;
+  if (x > a.hi) a.hi = x;
 }
+/** Area-weighted mean, min and max from the sums (NaN for no faces). */
+const statOf = (a: Sums, n: number): WallStat => (n ? { mean: a.s / a.sw, min: a.lo, max: a.hi } : { mean: NaN, min: NaN, max: NaN });
 
 /**
  * Wall quantities over the faces of `selection` (boundary faces of `d`). Throws when τ_w cannot be found
@@ -97,8 +102,17 @@ export function wallQuantities(d: Dataset, faces: BoundaryFaces, selection: Int3
   if (!loads.traction) throw new Error(`wall quantities: ${loads.notes.find((n) => n.startsWith('viscous force not computed')) ?? 'no wall shear'} (give --mu and a velocity, or a wall-shear array)`);
   const n = selection.length, T = loads.traction, off = loads.offsets;
   const area = new Float64Array(n), shear = new Float64Array(3 * n), mag = new Float64Array(n), dist = new Float64Array(n);
-  const muFace = new Float64Array(n);
   const muArrays = typeof o.viscosity === 'string' ? d.pieces.map((p) => p.cellData.find((f) => f.name === o.viscosity && f.components === 1) ?? p.pointData.find((f) => f.name === o.viscosity && f.components === 1)) : undefined;
+  const muConstant = typeof o.viscosity === 'number' ? o.viscosity : 0;
+  const notes = [...loads.notes.filter((x) => !x.startsWith('pressure'))];
+  const rho = o.density, haveMu = o.viscosity !== undefined;
+  const withCf = rho !== undefined && o.speed !== undefined, withYPlus = rho !== undefined && haveMu;
+  if (!withCf) notes.push('c_f not computed: give the reference density and speed');
+  if (!withYPlus) notes.push('y+ not computed: give the density and the viscosity');
+  const q = withCf ? 0.5 * rho * o.speed! * o.speed! : 1;
+  const cf = withCf ? new Float64Array(n) : null, yPlus = withYPlus ? new Float64Array(n) : null;
+  // one pass: per-face values and the area-weighted sums, minima and maxima of the statistics
+  const acc = { mag: newSums(), cf: newSums(), yPlus: newSums(), dist: newSums() };
   let total = 0;
   for (let k = 0; k < n; k++) {
     const f = selection[k]!, piece = faces.piece[f]!, p = d.pieces[piece]!, c = faces.cell[f]! - faces.cellStarts[piece]!;
@@ -113,43 +127,41 @@ export function wallQuantities(d: Dataset, faces: BoundaryFaces, selection: Int3
     const tn = tx * nx + ty * ny + tz * nz;
     tx -= tn * nx; ty -= tn * ny; tz -= tn * nz;
     shear[3 * k] = tx; shear[3 * k + 1] = ty; shear[3 * k + 2] = tz;
-    mag[k] = Math.sqrt(tx * tx + ty * ty + tz * tz);
-    dist[k] = wallDistance(p, c, faces, f, nx, ny, nz, o.wallDistance);
+    const tau = Math.sqrt(tx * tx + ty * ty + tz * tz), y = wallDistance(p, c, faces, f, nx, ny, nz, o.wallDistance);
+    mag[k] = tau; dist[k] = y;
+    add(acc.mag, tau, a); add(acc.dist, y, a);
+    if (cf) { const v = tau / q; cf[k] = v; add(acc.cf, v, a); }
+    let mu = muConstant;
     if (muArrays) {
       const arr = muArrays[piece];
       if (!arr) throw new Error(`${d.source}: viscosity array "${o.viscosity}" is missing from piece ${piece}`);
-      if (arr.association === 'cell') muFace[k] = arr.values[c]!;
-      else { let s = 0; for (let j = faces.offsets[f]!; j < faces.offsets[f + 1]!; j++) s += arr.values[faces.nodes[j]!]!; muFace[k] = s / (faces.offsets[f + 1]! - faces.offsets[f]!); }
-    } else if (typeof o.viscosity === 'number') muFace[k] = o.viscosity;
+      if (arr.association === 'cell') mu = arr.values[c]!;
+      else { let s = 0; for (let j = faces.offsets[f]!; j < faces.offsets[f + 1]!; j++) s += arr.values[faces.nodes[j]!]!; mu = s / (faces.offsets[f + 1]! - faces.offsets[f]!); }
+    }
+    if (yPlus) {
+      const v = (y * Math.sqrt(tau / rho!) * rho!) / mu;
+      yPlus[k] = v; add(acc.yPlus, v, a);
+    }
   }
-  const notes = [...loads.notes.filter((x) => !x.startsWith('pressure'))];
-  const rho = o.density, haveMu = o.viscosity !== undefined;
-  let cf: Float64Array | null = null, yPlus: Float64Array | null = null;
-  if (rho !== undefined && o.speed !== undefined) {
-    const q = 0.5 * rho * o.speed * o.speed;
-    cf = new Float64Array(n);
-    for (let k = 0; k < n; k++) cf[k] = mag[k]! / q;
-  } else notes.push('c_f not computed: give the reference density and speed');
-  if (rho !== undefined && haveMu) {
-    yPlus = new Float64Array(n);
-    for (let k = 0; k < n; k++) yPlus[k] = (dist[k]! * Math.sqrt(mag[k]! / rho) * rho) / muFace[k]!;
-  } else notes.push('y+ not computed: give the density and the viscosity');
-  const yPlusAbove = yPlus ? o.thresholds.map((t) => {
-    let s = 0;
-    for (let k = 0; k < n; k++) if (yPlus![k]! > t) s += area[k]!;
-    return { threshold: t, areaShare: total > 0 ? s / total : NaN };
-  }) : [];
+  // a second pass for what needs y+'s maximum or the total area: shares above thresholds and the histogram
+  let yPlusAbove: WallResult['yPlusAbove'] = [];
   let yPlusHistogram: WallResult['yPlusHistogram'] = null;
-  if (yPlus && n > 0) {
-    const hi = stat(yPlus, area).max, width = hi > 0 ? hi / o.bins : 1;
-    const share = new Array<number>(o.bins).fill(0);
-    for (let k = 0; k < n; k++) share[Math.min(o.bins - 1, Math.floor(yPlus[k]! / width))]! += area[k]! / total;
-    yPlusHistogram = { edges: Array.from({ length: o.bins + 1 }, (_, i) => i * width), areaShare: share };
+  if (yPlus) {
+    const th = Float64Array.from(o.thresholds), above = new Float64Array(th.length);
+    const hi = n > 0 ? acc.yPlus.hi : 0, width = hi > 0 ? hi / o.bins : 1, bins = o.bins;
+    const share = new Float64Array(bins);
+    for (let k = 0; k < n; k++) {
+      const v = yPlus[k]!, a = area[k]!;
+      for (let t = 0; t < th.length; t++) if (v > th[t]!) above[t]! += a;
+      if (n > 0) share[Math.min(bins - 1, Math.floor(v / width))]! += a / total;
+    }
+    yPlusAbove = o.thresholds.map((t, i) => ({ threshold: t, areaShare: total > 0 ? above[i]! / total : NaN }));
+    if (n > 0) yPlusHistogram = { edges: Array.from({ length: bins + 1 }, (_, i) => i * width), areaShare: Array.from(share) };
   }
   return {
     faces: n, area: total, shearSource: loads.viscous,
     perFace: { area, shear, shearMagnitude: mag, wallDistance: dist, cf, yPlus },
-    stats: { shearMagnitude: stat(mag, area), cf: cf ? stat(cf, area) : null, yPlus: yPlus ? stat(yPlus, area) : null, wallDistance: stat(dist, area) },
+    stats: { shearMagnitude: statOf(acc.mag, n), cf: cf ? statOf(acc.cf, n) : null, yPlus: yPlus ? statOf(acc.yPlus, n) : null, wallDistance: statOf(acc.dist, n) },
     yPlusAbove, yPlusHistogram,
     wallDistanceDefinition: o.wallDistance === 'cell-centroid'
       ? 'y = distance of the wall cell\'s centroid (vertex average) from the wall face\'s plane (common practice for cell-centred solvers)'

@@ -25,23 +25,26 @@ export function wallNodes(d: Dataset, faces: BoundaryFaces, selection: Int32Arra
   const fo = faces.offsets, nodes = faces.nodes, facePieceOf = faces.piece, ns = selection.length;
   const facePiece = new Int32Array(ns), cornerRow = new Int32Array(offsets[offsets.length - 1]!);
   const slots: (Int32Array | undefined)[] = d.pieces.map(() => undefined);
-  const lists = d.pieces.map(() => new Int32Array(16)), counts = new Int32Array(d.pieces.length);
+  const lists: Int32Array[] = d.pieces.map(() => EMPTY), counts = new Int32Array(d.pieces.length);
   for (let s = 0; s < ns; s++) {
     const f = selection[s]!, k = facePieceOf[f]!;
     facePiece[s] = k;
-    const slot = (slots[k] ??= new Int32Array(d.pieces[k]!.points.length / 3).fill(-1));
+    let slot = slots[k];
+    // a piece's wall nodes are at most its nodes and the selection's corners
+    if (!slot) { const np = d.pieces[k]!.points.length / 3; slots[k] = slot = new Int32Array(np).fill(-1); lists[k] = new Int32Array(Math.min(np, cornerRow.length)); }
+    const list = lists[k]!;
+    let n = counts[k]!;
     for (let j = fo[f]!, e = fo[f + 1]!, c = offsets[s]!; j < e; j++, c++) {
       const q = nodes[j]!;
-      if (slot[q] === -1) {
-        let list = lists[k]!, n = counts[k]!;
-        if (n === list.length) { const g = new Int32Array(2 * n); g.set(list); lists[k] = list = g; }
-        slot[q] = n; list[n] = q; counts[k] = n + 1;
-      }
-      cornerRow[c] = slot[q]!;
+      let r = slot[q]!;
+      if (r === -1) { r = n++; slot[q] = r; list[r] = q; }
+      cornerRow[c] = r;
     }
+    counts[k] = n;
   }
   return { perPiece: lists.map((l, k) => l.slice(0, counts[k]!)), cornerRow, facePiece };
 }
+const EMPTY = new Int32Array(0);
 
 /**
  * Per corner the 9 gradient values of its node (layout of `cornerGradients`), from `byPiece[k]`: 9 values
@@ -87,6 +90,32 @@ export function cornerTraction(faces: BoundaryFaces, selection: Int32Array, offs
       out[3 * i] = -mu * (2 * G[g]! * nx + (G[g + 1]! + G[g + 3]!) * ny + (G[g + 2]! + G[g + 6]!) * nz);
       out[3 * i + 1] = -mu * ((G[g + 3]! + G[g + 1]!) * nx + 2 * G[g + 4]! * ny + (G[g + 5]! + G[g + 7]!) * nz);
       out[3 * i + 2] = -mu * ((G[g + 6]! + G[g + 2]!) * nx + (G[g + 7]! + G[g + 5]!) * ny + 2 * G[g + 8]! * nz);
+    }
+  }
+  return out;
+}
+
+/**
+ * `cornerTraction` read straight from the wall nodes' gradients (`byPiece[k]`: 9 values per wall node of piece
+ * k in the order of `w.perPiece[k]`), without the per-corner copy of `cornersFromNodes`: the same arithmetic,
+ * so the same values. `mu` is μ (Pa·s): a constant, or per corner j of the s-th selected face.
+ */
+export function nodeTraction(faces: BoundaryFaces, selection: Int32Array, offsets: Int32Array, w: WallNodes,
+  byPiece: readonly (Float64Array | null)[], mu: number | ((s: number, j: number) => number)): Float64Array {
+  const out = new Float64Array(3 * offsets[offsets.length - 1]!), area = faces.areaVector, rows = w.cornerRow;
+  const constant = typeof mu === 'number', m0 = constant ? mu : 0;
+  for (let s = 0; s < selection.length; s++) {
+    const f = selection[s]!, G = byPiece[w.facePiece[s]!]!;
+    const ax = area[3 * f]!, ay = area[3 * f + 1]!, az = area[3 * f + 2]!;
+    const len = Math.sqrt(ax * ax + ay * ay + az * az);
+    if (len === 0) continue;
+    const nx = ax / len, ny = ay / len, nz = az / len;
+    for (let i = offsets[s]!, j = 0; i < offsets[s + 1]!; i++, j++) {
+      const g = 9 * rows[i]!, m = constant ? m0 : (mu as (s: number, j: number) => number)(s, j);
+      const g0 = G[g]!, g1 = G[g + 1]!, g2 = G[g + 2]!, g3 = G[g + 3]!, g4 = G[g + 4]!, g5 = G[g + 5]!, g6 = G[g + 6]!, g7 = G[g + 7]!, g8 = G[g + 8]!;
+      out[3 * i] = -m * (2 * g0 * nx + (g1 + g3) * ny + (g2 + g6) * nz);
+      out[3 * i + 1] = -m * ((g3 + g1) * nx + 2 * g4 * ny + (g5 + g7) * nz);
+      out[3 * i + 2] = -m * ((g6 + g2) * nx + (g7 + g5) * ny + 2 * g8 * nz);
     }
   }
   return out;

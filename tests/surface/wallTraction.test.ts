@@ -15,6 +15,8 @@ import { forceTotals } from '../../src/surface/forces.ts';
 import { getBoundaryFaces, getSurfaceGroups } from '../../src/surface/surfaceCache.ts';
 import { facesOfGroups } from '../../src/surface/surfaceGroups.ts';
 import { surfaceLoads } from '../../src/surface/surfaceLoads.ts';
+import { wallNodeGradients } from '../../src/surface/wallGradientCache.ts';
+import { cornersFromNodes, cornerTraction, nodeTraction } from '../../src/surface/wallTraction.ts';
 
 function viscous(d: Dataset, group: (g: { id: number; area: number }, i: number) => boolean, mu: number, wallGradient: 'second-order' | 'first-order') {
   const faces = getBoundaryFaces(d), groups = getSurfaceGroups(d);
@@ -55,5 +57,25 @@ describe('Hagen–Poiseuille wall: τ_w = 4μV/R', () => {
     expect(r.viscousForce![2] / (e.wallShearStress * facet * area)).toBeCloseTo(1, 9);
     const first = viscous(d, (_g, i) => i === largest, e.mu, 'first-order');
     expect(Math.abs(first.r.viscousForce![2] / (e.wallShearStress * area) - 1)).toBeGreaterThan(1e-3);
+  });
+});
+
+describe('traction read straight from the wall nodes equals the per-corner route', () => {
+  it('Hagen–Poiseuille pipe wall: nodeTraction = cornerTraction(cornersFromNodes) bit for bit, constant μ and per corner', () => {
+    const d = pipeCase(PIPE_LEVELS.coarse);
+    const faces = getBoundaryFaces(d), groups = getSurfaceGroups(d);
+    const sel = facesOfGroups(groups, groups.groups.map((_, i) => i));
+    const offsets = new Int32Array(sel.length + 1);
+    sel.forEach((f, k) => { offsets[k + 1] = offsets[k]! + faces.offsets[f + 1]! - faces.offsets[f]!; });
+    const vel = d.pieces.map((p) => p.pointData.find((f) => f.components === 3));
+    const { nodes, byPiece } = wallNodeGradients(d, faces, sel, offsets, vel);
+    const G = cornersFromNodes(nodes, offsets, byPiece);
+    const muAt = (s: number, j: number) => 1e-3 * (1 + ((s + j) % 3));
+    for (const [a, b] of [[nodeTraction(faces, sel, offsets, nodes, byPiece, 2e-3), cornerTraction(faces, sel, offsets, G, () => 2e-3)],
+      [nodeTraction(faces, sel, offsets, nodes, byPiece, muAt), cornerTraction(faces, sel, offsets, G, muAt)]] as const) {
+      expect(a.length).toBe(3 * offsets[sel.length]!);
+      expect(a.some((v) => v !== 0)).toBe(true);
+      expect(a.every((v, i) => Object.is(v, b[i]))).toBe(true);
+    }
   });
 });
