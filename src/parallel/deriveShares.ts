@@ -9,14 +9,23 @@
  */
 import type { DeriveOptions } from '../derive/derivedFields.ts';
 import { gradientFieldFor } from '../derive/derivedFields.ts';
-import { primeGradient } from '../derive/fieldGradient.ts';
+import { pointGradientAt, primeGradient, primeGradientAt } from '../derive/fieldGradient.ts';
 import { pointGradientRange } from '../derive/rangeGradient.ts';
 import type { Dataset } from '../model/dataset.ts';
 import { findField } from '../model/piece.ts';
 import type { ComputePool } from './pool.ts';
+import type { FieldArray } from '../model/fieldArray.ts';
+import type { BoundaryFaces } from '../surface/boundaryFaces.ts';
+import { findArray, SHEAR_NAME, VELOCITY_NAME } from '../surface/surfaceLoads.ts';
+import { wallNodes } from '../surface/wallTraction.ts';
+import { WALL_DEFAULTS, type WallOptions } from '../surface/wallQuantities.ts';
 
-/** A worker's part of a gradient: nodes `from .. to-1` of piece `piece`'s point field `field`, into `out`. */
-export interface GradientShare { piece: number; field: string; from: number; to: number; out: Float64Array }
+/**
+ * A worker's part of a gradient of piece `piece`'s point field `field`, into `out`: nodes `from .. to-1` of the
+ * piece (`out` in the whole piece's layout) or, with `nodes`, the entries `from .. to-1` of a chosen node list
+ * (`nodes` holding just those entries' nodes; `out` in the list's layout).
+ */
+export interface GradientShare { piece: number; field: string; from: number; to: number; out: Float64Array; nodes?: Int32Array }
 
 /**
  * Runs one share on the dataset a worker holds (the worker side of `pool.pointGradient`). Returns null when
@@ -27,8 +36,11 @@ export function gradientShare(d: Dataset, s: GradientShare): Float64Array | null
   const p = d.pieces[s.piece];
   const f = p && findField(p, s.field, 'point');
   if (!p || !f) throw new Error(`worker pool: no point field "${s.field}" on piece ${s.piece} of ${d.source}`);
-  pointGradientRange(p, f.values, f.components, s.from, s.to, s.out);
   const w = 3 * f.components;
+  if (s.nodes) {
+    if (s.nodes.length !== s.to - s.from || s.out.length < w * s.to) throw new Error(`worker pool: gradient share ${s.from}..${s.to} does not match its ${s.nodes.length} nodes`);
+    s.out.set(pointGradientAt(p, f, s.nodes), w * s.from);
+  } else pointGradientRange(p, f.values, f.components, s.from, s.to, s.out);
   return s.out.buffer instanceof ArrayBuffer ? s.out.slice(w * s.from, w * s.to) : null;
 }
 
@@ -44,6 +56,46 @@ export async function primeDerivedGradients(pool: ComputePool, names: readonly s
   for (let k = 0; k < d.pieces.length; k++) {
     const f = findField(d.pieces[k]!, info.name, 'point')!;
     primeGradient(f.values, await pool.pointGradient(k, info.name));
+    done++;
+  }
+  return done;
+}
+
+/**
+ * Fits the velocity gradient at the wall nodes of the boundary faces `selection` — the gradient `wallQuantities`
+ * (and `surfaceLoads`) will read for the second-order wall traction with these `options` — on `pool`'s workers
+ * (each a run of the wall nodes, `pool.pointGradientAt`), or on this thread when `pool` is null, and hands it to
+ * `pointGradientAt` (`primeGradientAt`), so the wall quantities then computed here do not fit again. Either way
+ * the values are the kernel's at each node, bit for bit, so results do not depend on the number of workers.
+ * Does nothing (returns 0) when the traction will not come from a point velocity's second-order gradient (a
+ * wall-shear array, the first-order route, no μ, no point velocity); errors are left to `wallQuantities`.
+ * Returns the number of pieces primed.
+ */
+export async function primeWallGradients(pool: ComputePool | null, d: Dataset, faces: BoundaryFaces, selection: Int32Array,
+  options: Partial<WallOptions> = {}): Promise<number> {
+  const o = { ...WALL_DEFAULTS, ...options }, loads = o.loads;
+  if (selection.length === 0 || o.viscosity === undefined || loads.wallGradient === 'first-order' || o.source === 'wall-shear') return 0;
+  const offsets = new Int32Array(selection.length + 1), used = new Uint8Array(d.pieces.length);
+  for (let k = 0; k < selection.length; k++) {
+    const f = selection[k]!;
+    offsets[k + 1] = offsets[k]! + faces.offsets[f + 1]! - faces.offsets[f]!;
+    used[faces.piece[f]!] = 1;
+  }
+  const pieces = [...used.keys()].filter((k) => used[k]);
+  let vel: FieldArray[] | undefined;
+  try {
+    if (o.source === 'auto' && findArray(d, pieces, loads.wallShear, SHEAR_NAME, 3)) return 0;
+    vel = findArray(d, pieces, loads.velocity, VELOCITY_NAME, 3);
+  } catch {
+    return 0;
+  }
+  if (!vel || pieces.some((k) => vel![k]!.association !== 'point')) return 0;
+  const nodes = wallNodes(d, faces, selection, offsets).perPiece;
+  let done = 0;
+  for (const k of pieces) {
+    const f = vel[k]!, list = nodes[k]!;
+    if (!list.length) continue;
+    primeGradientAt(f.values, list, pool ? await pool.pointGradientAt(k, f.name, list) : pointGradientAt(d.pieces[k]!, f, list));
     done++;
   }
   return done;

@@ -188,6 +188,23 @@ export class ComputePool {
     return out;
   }
 
+  /**
+   * The quadratic least-squares gradient of point field `field` of piece `piece` at the chosen `nodes` only
+   * (`pointGradientAt`'s layout and values, bit for bit): the list split into one contiguous run per worker, each
+   * fitting its run over its nodes' own neighbour rows into one shared array (src/parallel/deriveShares.ts).
+   */
+  async pointGradientAt(piece: number, field: string, nodes: Int32Array): Promise<Float64Array> {
+    const p = this.dataset.pieces[piece], f = p && findField(p, field, 'point');
+    if (!p || !f) throw new Error(`gradient: no point field "${field}" on piece ${piece} of ${this.dataset.source}`);
+    const n = nodes.length, bytes = 8 * 3 * f.components * n;
+    const out = typeof SharedArrayBuffer === 'undefined' ? new Float64Array(bytes / 8) : new Float64Array(new SharedArrayBuffer(bytes));
+    const bounds = nodeRanges(n, this.lanes.length), w = 3 * f.components;
+    const parts = await Promise.all(this.lanes.slice(0, bounds.length - 1).map((l, i) =>
+      l.call<Float64Array | null>({ op: 'gradient', piece, field, from: bounds[i]!, to: bounds[i + 1]!, out, nodes: nodes.slice(bounds[i]!, bounds[i + 1]!) })));
+    parts.forEach((part, i) => { if (part) out.set(part, w * bounds[i]!); });
+    return out;
+  }
+
   /** Memory each worker reports (bytes; null where the platform cannot tell). The shared dataset is not in it. */
   memory(): Promise<(WorkerMemory | null)[]> {
     return this.all<WorkerMemory | null>(() => ({ op: 'memory' }));

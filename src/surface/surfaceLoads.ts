@@ -76,10 +76,10 @@ export interface SurfaceLoads {
 const PRESSURE_NAME = /^(p|pressure|static[ _-]?pressure|p[ _-]?static|pres)$/i;
 /** Names of a wall-shear-stress array found without being named (any case; users name their own with an option). */
 export const SHEAR_NAME = /^(skin[ _-]?friction|wall[ _-]?shear[ _-]?stress(es)?|wall[ _-]?shear|wss|tau[ _-]?w(all)?)$/i;
-const VELOCITY_NAME = /^(velocity|velocities|u|vel|flow[ _-]?velocity)$/i;
+export const VELOCITY_NAME = /^(velocity|velocities|u|vel|flow[ _-]?velocity)$/i;
 
-/** A field present in every piece that owns a selected face, by name or pattern; point data first. */
-function findArray(d: Dataset, pieces: number[], name: string | undefined, pattern: RegExp, components: number): FieldArray[] | undefined {
+/** A field present in every piece that owns a selected face, by name or pattern; point data first (exported for the pool's wall gradient, src/parallel/deriveShares.ts). */
+export function findArray(d: Dataset, pieces: number[], name: string | undefined, pattern: RegExp, components: number): FieldArray[] | undefined {
   for (const assoc of ['point', 'cell'] as const) {
     const first = d.pieces[pieces[0]!]!;
     const list = assoc === 'point' ? first.pointData : first.cellData;

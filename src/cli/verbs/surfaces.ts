@@ -11,7 +11,7 @@ import { surfaceQuality } from '../../surface/surfaceQuality.ts';
 import { CAUTION } from '../../study/caution.ts';
 import { parseArgs, parseNumber, str, type OptionKind, type ParsedArgs } from '../args.ts';
 import type { Verb } from '../verb.ts';
-import { loadForCompute, WORKER_HELP, WORKER_OPTIONS } from '../workerOption.ts';
+import { loadForCompute, WORKER_HELP, WORKER_OPTIONS, type ComputeInput } from '../workerOption.ts';
 
 /** Options every surface verb takes. */
 export const GROUPING_OPTIONS: Record<string, OptionKind> = { 'feature-angle': 'string', 'group-array': 'string', 'surface-file': 'string' };
@@ -30,26 +30,36 @@ export const vec = (v: readonly number[] | null): string => (v ? `(${v.map(fmt).
 
 /** Loads the file, extracts boundary faces and groups them as the options say. */
 export async function loadSurfaces(file: string, args: ParsedArgs): Promise<{ dataset: Dataset; faces: BoundaryFaces; groups: SurfaceGroups }> {
+  const { dataset, faces, groups, close } = await openSurfaces(file, args);
+  await close();
+  return { dataset, faces, groups };
+}
+
+/**
+ * `loadSurfaces` that keeps the compute workers (`pool`, null when the file is computed in this process) for
+ * more work on the same file; the caller must `close()` it.
+ */
+export async function openSurfaces(file: string, args: ParsedArgs): Promise<{ dataset: Dataset; faces: BoundaryFaces; groups: SurfaceGroups; pool: ComputeInput['pool']; close: () => Promise<void> }> {
   // With workers, they extract the boundary faces (the pool merges their shares' faces); the rest runs here.
   const input = await loadForCompute(file, args);
   const dataset = input.dataset;
-  let pooledFaces: BoundaryFaces | undefined;
   try {
-    pooledFaces = input.pool ? await input.pool.boundary() : undefined;
-  } finally {
+    const pooledFaces = input.pool ? await input.pool.boundary() : undefined;
+    const angle = str(args, 'feature-angle'), array = str(args, 'group-array'), surfaceFile = str(args, 'surface-file');
+    const o: Partial<GroupOptions> = {};
+    if (angle !== undefined) {
+      o.featureAngle = parseNumber(angle, 'feature-angle');
+      if (!(o.featureAngle >= 0 && o.featureAngle <= 180)) throw new Error(`--feature-angle: expected degrees in 0…180, got ${angle}`);
+    }
+    if (array !== undefined) o.groupArray = array;
+    if (surfaceFile !== undefined) o.surface = await loadDatasetFile(surfaceFile);
+    const faces = pooledFaces ?? boundaryFaces(dataset);
+    if (faces.count === 0) throw new Error(`${file}: no boundary faces (the file has ${faces.cells3d} 3D cells; surfaces need a volume mesh)`);
+    return { dataset, faces, groups: surfaceGroups(dataset, faces, o), pool: input.pool, close: input.close };
+  } catch (e) {
     await input.close();
+    throw e;
   }
-  const angle = str(args, 'feature-angle'), array = str(args, 'group-array'), surfaceFile = str(args, 'surface-file');
-  const o: Partial<GroupOptions> = {};
-  if (angle !== undefined) {
-    o.featureAngle = parseNumber(angle, 'feature-angle');
-    if (!(o.featureAngle >= 0 && o.featureAngle <= 180)) throw new Error(`--feature-angle: expected degrees in 0…180, got ${angle}`);
-  }
-  if (array !== undefined) o.groupArray = array;
-  if (surfaceFile !== undefined) o.surface = await loadDatasetFile(surfaceFile);
-  const faces = pooledFaces ?? boundaryFaces(dataset);
-  if (faces.count === 0) throw new Error(`${file}: no boundary faces (the file has ${faces.cells3d} 3D cells; surfaces need a volume mesh)`);
-  return { dataset, faces, groups: surfaceGroups(dataset, faces, o) };
 }
 
 const surfaces: Verb = {

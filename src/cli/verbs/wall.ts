@@ -9,7 +9,9 @@ import { CAUTION } from '../../study/caution.ts';
 import { parseArgs, parseNumber, str } from '../args.ts';
 import type { Verb } from '../verb.ts';
 import { GROUP_SELECT_HELP, GROUP_SELECT_OPTIONS, groupRefsOf } from '../groupArgs.ts';
-import { GROUPING_HELP, GROUPING_OPTIONS, fmt, loadSurfaces } from './surfaces.ts';
+import { GROUPING_HELP, GROUPING_OPTIONS, fmt, openSurfaces } from './surfaces.ts';
+import { WORKER_OPTIONS } from '../workerOption.ts';
+import { primeWallGradients } from '../../parallel/deriveShares.ts';
 
 const SOURCES = ['auto', 'wall-shear', 'gradient'] as const;
 
@@ -35,6 +37,7 @@ const wall: Verb = {
     'fieldtally wall <file> --groups a,b [--rho ρ] [--mu μ|field] [--speed U] [--wall-distance cell-centroid|first-node]',
     '                [--thresholds 1,5,30] [--histogram-bins n] [--shear-from auto|wall-shear|gradient]',
     '                [--wall-gradient second-order|first-order] [--velocity name] [--wall-shear name] [--per-face] [--json]',
+    '                [--workers N]',
     '  --groups          surface groups by id or name (see `fieldtally surfaces`), each reported on its own',
     '  --rho, --mu       density (kg/m³) and dynamic viscosity (Pa·s, or a viscosity array): y+ = y·u_τ/ν, u_τ = √(|τ_w|/ρ)',
     '  --speed           reference speed U for c_f = |τ_w|/(½ρU²)',
@@ -45,13 +48,16 @@ const wall: Verb = {
     '                    auto: the array when there is one. The output says which was used.',
     '  --wall-gradient   second-order (default: quadratic fit at each wall node) or first-order (wall cell\'s gradient)',
     '  --per-face        JSON: add the per-face values',
+    '  --workers N       compute workers: they extract the boundary faces and fit the wall nodes\' velocity gradient,',
+    '                    a run of wall nodes each (default: FIELDTALLY_WORKERS, else one per core, for files of 8 MiB',
+    '                    or more); 1: none. The numbers are the same to the last digit for any count.',
     GROUP_SELECT_HELP,
     GROUPING_HELP,
   ].join('\n'),
   options: {
     groups: 'string', rho: 'string', mu: 'string', speed: 'string', 'wall-distance': 'string', thresholds: 'string',
     'histogram-bins': 'string', 'shear-from': 'string', 'wall-gradient': 'string', velocity: 'string', 'wall-shear': 'string',
-    'per-face': 'boolean', json: 'boolean', ...GROUPING_OPTIONS, ...GROUP_SELECT_OPTIONS,
+    'per-face': 'boolean', json: 'boolean', ...GROUPING_OPTIONS, ...GROUP_SELECT_OPTIONS, ...WORKER_OPTIONS,
   },
   async run(argv, io) {
     const args = parseArgs(argv, this.options, 'wall');
@@ -74,9 +80,18 @@ const wall: Verb = {
       ...(thresholds ? { thresholds } : {}), ...(bins !== undefined ? { bins } : {}),
       loads: { wallGradient, ...(str(args, 'velocity') ? { velocity: str(args, 'velocity') } : {}), ...(str(args, 'wall-shear') ? { wallShear: str(args, 'wall-shear') } : {}) },
     };
-    const { dataset, faces, groups } = await loadSurfaces(file, args);
-    const picked = resolveGroups(groups, refs, faces);
-    const results = picked.map((i) => ({ group: groups.groups[i]!, r: wallQuantities(dataset, faces, facesOfGroups(groups, [i]), options, groups.faceSurfaceCell) }));
+    const { dataset, faces, groups, pool, close } = await openSurfaces(file, args);
+    const results: { group: (typeof groups.groups)[number]; r: WallResult }[] = [];
+    try {
+      for (const i of resolveGroups(groups, refs, faces)) {
+        const selection = facesOfGroups(groups, [i]);
+        // the wall nodes' gradient by the workers (or here), the kernel's values either way (deriveShares.ts)
+        await primeWallGradients(pool, dataset, faces, selection, options);
+        results.push({ group: groups.groups[i]!, r: wallQuantities(dataset, faces, selection, options, groups.faceSurfaceCell) });
+      }
+    } finally {
+      await close();
+    }
     if (args.options.json) {
       io.out(JSON.stringify({
         file, groups: results.map(({ group, r }) => ({ id: group.id, name: group.name, ...wallJson(r, args.options['per-face'] === true) })),
