@@ -210,18 +210,25 @@ export function fitSite(positions: Float64Array, stencil: Stencil, i: number, ma
   return ok;
 }
 
-/** Gathers the two-ring of site `i` (without `i`) into `ring`; returns its length. `mark` is unique per call. */
+/**
+ * Gathers the two-ring of site `i` (without `i`) into `ring`; returns its length. `mark` is unique per call.
+ * Order: each one-ring neighbour j, then the new entries of j's row, j by j (room made before the walk, so
+ * the inner loop only tests and writes).
+ */
 function twoRing(so: Int32Array, sid: Int32Array, i: number, mark: number): number {
+  const a = so[i]!, b = so[i + 1]!;
+  let most = 0;
+  for (let s = a; s < b; s++) { const j = sid[s]!; most += so[j + 1]! - so[j]! + 1; }
+  if (most > ring.length) ring = new Int32Array(Math.max(most, 2 * ring.length));
+  const r = ring;
   let m = 0;
   stamp[i] = mark;
-  for (let s = so[i]!; s < so[i + 1]!; s++) {
+  for (let s = a; s < b; s++) {
     const j = sid[s]!;
-    for (let t = so[j]! - 1; t < so[j + 1]!; t++) {
-      const q = t < so[j]! ? j : sid[t]!;
-      if (stamp[q] === mark) continue;
-      stamp[q] = mark;
-      if (m === ring.length) { const g = new Int32Array(2 * m); g.set(ring); ring = g; }
-      ring[m++] = q;
+    if (stamp[j] !== mark) { stamp[j] = mark; r[m++] = j; }
+    for (let t = so[j]!, e = so[j + 1]!; t < e; t++) {
+      const q = sid[t]!;
+      if (stamp[q] !== mark) { stamp[q] = mark; r[m++] = q; }
     }
   }
   return m;
