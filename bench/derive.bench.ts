@@ -10,6 +10,9 @@
  *    `thirdRequest` (the same wall asked again), `newStepSameMesh` (best of three new velocity arrays on the
  *    same geometry). Later requests reuse the wall's fit as an operator (src/surface/wallGradientCache.ts)
  *    when its plan fits the size limit there; otherwise they fit afresh.
+ *  - the same wall quantities with the wall nodes' gradient fitted by the worker pool (1 and 2 workers, a run of
+ *    wall nodes each; src/parallel/deriveShares.ts `primeWallGradients`, as `fieldtally wall --workers N`): `cold`
+ *    on a fresh pool and mesh, boundary faces and groups not timed.
  *  - the same vorticity and Q with the gradient computed by the worker pool (1 and 2 workers, each filling a
  *    range of nodes of a shared result; src/parallel/deriveShares.ts): `cold` on a fresh pool and mesh. Pool
  *    start-up and the copy into shared memory are not timed; CPU time there is the whole process's (workers included).
@@ -23,7 +26,7 @@ import { getBoundaryFaces, getSurfaceGroups } from '../src/surface/surfaceCache.
 import { facesOfGroups } from '../src/surface/surfaceGroups.ts';
 import { wallQuantities } from '../src/surface/wallQuantities.ts';
 import { openNodePool } from '../src/parallel/nodePool.ts';
-import { primeDerivedGradients } from '../src/parallel/deriveShares.ts';
+import { primeDerivedGradients, primeWallGradients } from '../src/parallel/deriveShares.ts';
 import { loadavg } from 'node:os';
 
 interface Timing { ms: number; cpuMs: number }
@@ -89,7 +92,19 @@ export async function run(): Promise<Record<string, unknown>> {
     const third = timed(() => { wallQuantities(d, faces, sel, opts); });
     const steps = [0.5, 2, 3].map((a) => step(d, a));
     const newStep = bestOf(3, (k) => { wallQuantities(steps[k]!, faces, sel, opts); });
-    out.wallQuantitiesOn100kFaces = { faces: sel.length, goalMs: 200, threads: 1, cold, secondRequest: again, thirdRequest: third, newStepSameMesh: newStep };
+    out.wallQuantitiesOn100kFaces = { faces: sel.length, goalMs: 200, threads: 1, cold, secondRequest: again, thirdRequest: third, newStepSameMesh: newStep, loadAverage: loadAverage() };
+    for (const workers of [1, 2]) {
+      // as `fieldtally wall --workers N`: the wall nodes' gradient on the pool (a run of nodes each), then the quantities here
+      const pool = await openNodePool(datasetOf([flow(hexGrid(224, 224, 1, (u, v, w) => [u, v, 0.01 * w]))], 'slab 224×224×1'), workers);
+      const pd = pool.dataset, pf = getBoundaryFaces(pd), pg = getSurfaceGroups(pd);
+      const psel = facesOfGroups(pg, pg.groups.map((g, i) => ({ g, i })).filter(({ g }) => g.faces > 10_000).map(({ i }) => i));
+      const c0 = process.cpuUsage(), t0 = performance.now();
+      await primeWallGradients(pool, pd, pf, psel, opts);
+      wallQuantities(pd, pf, psel, opts);
+      const c = process.cpuUsage(c0);
+      await pool.close();
+      out[`wallQuantitiesOn100kFacesPool${workers}`] = { faces: psel.length, goalMs: 200, workers, cold: { ms: performance.now() - t0, cpuMsAllThreads: (c.user + c.system) / 1000 }, loadAverage: loadAverage() };
+    }
   }
   return out;
 }
