@@ -20,7 +20,16 @@ import { writeLargeFields, LARGE_DIR } from '../src/samples/makeFields.ts';
 import { buildApp, launch, serveFolder, waitIdle } from '../tests/system/browser.ts';
 
 /** The 1M-cell files timed: hexahedra and tetrahedra, raw and zlib-compressed appended data. */
-const FILES = ['pipe-hex-1M.appended-raw.vtu', 'pipe-hex-1M.appended-zlib.vtu', 'sphere-tet-1M.appended-raw.vtu', 'sphere-tet-1M.appended-zlib.vtu'];
+const ALL_FILES = ['pipe-hex-1M.appended-raw.vtu', 'pipe-hex-1M.appended-zlib.vtu', 'sphere-tet-1M.appended-raw.vtu', 'sphere-tet-1M.appended-zlib.vtu'];
+
+/** `FIELDTALLY_VIEWER_FILES=a,b` times only those of the files (names as above), e.g. while working on one of them. */
+const FILES = (() => {
+  const only = process.env['FIELDTALLY_VIEWER_FILES']?.split(',').map((s) => s.trim()).filter(Boolean);
+  if (!only?.length) return ALL_FILES;
+  const unknown = only.filter((f) => !ALL_FILES.includes(f));
+  if (unknown.length) throw new Error(`FIELDTALLY_VIEWER_FILES: unknown file(s) ${unknown.join(', ')} (known: ${ALL_FILES.join(', ')})`);
+  return only;
+})();
 
 /** Goals in seconds (issue 13, item 9). */
 const GOALS = { loadRaw: 2.0, loadZlib: 2.5, newCutPlane: 0.6, dragStep: 0.2, firstLineProbe: 0.6 };
@@ -168,7 +177,7 @@ async function stage<T extends object>(what: string, f: () => Promise<T>): Promi
 }
 
 export async function run(): Promise<Record<string, unknown>> {
-  if (FILES.some((f) => !existsSync(join(LARGE_DIR, f)))) writeLargeFields(LARGE_DIR, true);
+  if (ALL_FILES.some((f) => !existsSync(join(LARGE_DIR, f)))) writeLargeFields(LARGE_DIR, true);
   const loadBefore = loadavg();
   const dist = buildApp();
   const server = await serveFolder(dist);
