@@ -26,6 +26,8 @@ export type Vec3 = [number, number, number];
 export interface WorkerStamps {
   startedAt: number;
   finishedAt: number;
+  /** Parts of the call (ms each), for the viewer benchmark: e.g. a load's `read`, `decode`, `boundary`. */
+  phases?: Record<string, number>;
 }
 
 /** One input file: its path relative to the set file's folder (`/`-separated) and its bytes. */
