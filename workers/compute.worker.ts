@@ -32,7 +32,7 @@ import { facesOfGroups, type SurfaceGroups } from '../src/surface/surfaceGroups.
 import { withDerivedFields } from '../src/derive/derivedFields.ts';
 import { isoDrawing } from '../src/iso/isoDrawing.ts';
 import { attachFields, wallSurface } from './fieldCalls.ts';
-import type { FieldsReply, FieldsRequest, WallReply, WallRequest } from './api.ts';
+import type { FieldsReply, FieldsRequest, GroupOutline, SurfaceOptions, WallReply, WallRequest } from './api.ts';
 import type {
   ComputeApi, CutDrawingReply, CutReply, DeriveRequest, DrawingValues, TriangleDrawing, CutRequest, Description, FieldChoice, SurfaceValuesReply, ForceReply, ForceRequest, IsoReply, SetEvaluation,
   LineReply, LineRequest, LoadRequest, ProgressCallback, SurfaceReply,
@@ -251,14 +251,20 @@ export function createComputeApi(): ComputeApi {
 
     async describe(): Promise<Description> { return need().description; },
 
-    async surface(): Promise<SurfaceReply> {
+    async surface(options?: SurfaceOptions): Promise<SurfaceReply> {
       const h = need(), startedAt = epochNow(), t0 = performance.now();
       const d = drawFaces(h.dataset, facesOf(h), h.boundary?.groups.faceGroup ?? null);
       const t1 = performance.now();
-      const outline = h.boundary ? groupOutline(h.dataset, h.boundary.faces, h.boundary.groups.faceGroup) : { positions: new Float32Array(0), groups: new Int32Array(0) };
+      const outline = h.boundary && options?.groupOutline !== false ? groupOutline(h.dataset, h.boundary.faces, h.boundary.groups.faceGroup) : { positions: new Float32Array(0), groups: new Int32Array(0) };
       const phases = { triangles: t1 - t0, outline: performance.now() - t1 };
       const reply: SurfaceReply = { ...d, outline, timing: { startedAt, finishedAt: epochNow(), phases } };
       return Comlink.transfer(reply, [d.positions.buffer, d.normals.buffer, d.groups.buffer, d.edges.buffer, d.edgeGroups.buffer, d.edgeShares.buffer, outline.positions.buffer, outline.groups.buffer]);
+    },
+
+    async groupOutline(): Promise<GroupOutline> {
+      const h = need();
+      const outline = h.boundary ? groupOutline(h.dataset, h.boundary.faces, h.boundary.groups.faceGroup) : { positions: new Float32Array(0), groups: new Int32Array(0) };
+      return Comlink.transfer(outline, [outline.positions.buffer, outline.groups.buffer]);
     },
 
     async surfaceValues(field: FieldChoice): Promise<SurfaceValuesReply> {
