@@ -1,139 +1,188 @@
 /**
- * A `ByteSource` over a `File` or `Blob` that reads the whole file ahead, in slices and in file order, while
- * the reader decodes what has arrived: the platform's file read (done off the JavaScript thread) overlaps
- * with parsing, narrowing and checking instead of alternating with them. Reads the reader asks for are
- * served from the slices that hold them; a slice the sweep has not started is fetched at once, so a reader
- * that jumps (XML arrays are read in the order they are declared, not the order they lie in) never waits for
- * the sweep to get there. A slice is dropped once every byte of it has been handed out, and the sweep pauses
- * while `maxAheadBytes` wait unclaimed, so a file larger than that is never held twice over. Any byte not
- * held (dropped, or asked for again) is read from the blob directly: the bytes handed out are always the
- * file's. Uses only the Blob API (no DOM): runs in a worker and under Node.
+ * A `ByteSource` over a `File` or `Blob` that reads an XML file's appended arrays ahead, while the reader
+ * decodes what has arrived: the platform's file read (done off the JavaScript thread) overlaps with parsing,
+ * narrowing and checking instead of alternating with them.
+ *
+ * On the first read it reads the file's head (up to `HEAD_BYTES`) and, when the head holds `<AppendedData`,
+ * takes the `offset="…"` attributes before it as the arrays' places: each array (its block header and data,
+ * up to the next array) becomes one piece, fetched with one blob read, in file order, `inFlight` at a time and
+ * never more than `maxAheadBytes` unclaimed. A read inside one piece is served from it as a view — no copy and
+ * no fresh memory, which costs the engine page faults — and each byte of a piece is handed out at most once
+ * (a read of bytes already handed, or across pieces, or outside every piece, is read from the blob directly,
+ * as a fresh buffer). A piece is dropped once all of it was handed out. The plan is only a guess about what
+ * will be read: whatever the reader asks for, it gets the file's bytes. A file without appended data (legacy,
+ * inline or text arrays) is read range by range as `blobSource` does.
+ *
+ * Views may start at any byte offset of their buffer (readers check alignment before viewing, and copy
+ * otherwise). Uses only the Blob API (no DOM): runs in a worker and under Node.
  */
 import { BLOB_CHUNK_BYTES } from './blobSource.ts';
 import type { ByteSource } from './byteSource.ts';
 
 /** Options of `readAheadSource`; every default is here. */
 export interface ReadAheadOptions {
-  /** Bytes per slice (default `BLOB_CHUNK_BYTES`, 16 MiB: each blob read carries a fixed cost). */
-  sliceBytes?: number;
-  /** Slices the sweep keeps in flight at once (default 2). */
+  /** Pieces fetched at once (default 2). */
   inFlight?: number;
-  /** Unclaimed bytes held before the sweep pauses (default 256 MiB). */
+  /** Unclaimed bytes held before fetching pauses (default 256 MiB). */
   maxAheadBytes?: number;
+  /** Bytes read first to find the appended arrays (default `HEAD_BYTES`). */
+  headBytes?: number;
 }
+
+/** Bytes read first to find the appended arrays' places (1 MiB: a head with thousands of arrays). */
+export const HEAD_BYTES = 1 << 20;
 
 /** What a read-ahead source measured, for the viewer benchmark's phases (ms of `performance.now()`). */
 export interface ReadAheadStats {
-  /** When the first read was asked for, and when the last slice of the sweep (or the last direct read) arrived. */
-  firstAskedAt: number;
+  /** Arrays planned from the head (0: no appended data found, read range by range). */
+  planned: number;
+  /** When the last planned piece (or the last direct read) arrived. */
   lastArrivedAt: number;
   /** Time the reader spent waiting for bytes that had not arrived yet (ms, summed over its reads). */
   waitedMs: number;
-  /** Bytes fetched from the blob: by the sweep, and directly (slices dropped or asked for again). */
-  sweptBytes: number;
+  /** Bytes fetched from the blob: as planned pieces, and directly. */
+  aheadBytes: number;
   directBytes: number;
 }
 
 /** A read-ahead source and its measurements. */
 export interface ReadAheadSource extends ByteSource {
   readonly stats: ReadAheadStats;
-  /** Stops the sweep (a cancelled load): slices in flight are dropped when they arrive. */
+  /** Stops fetching ahead and drops what is held (reads still work, directly). */
   close(): Promise<void>;
 }
 
-interface Slice {
-  /** The slice's bytes once arrived. */
+interface Piece {
+  start: number;
+  end: number;
   bytes?: Uint8Array;
-  arrived: Promise<Uint8Array>;
-  /** Bytes of it handed out so far (a byte asked for twice counts twice: then it is dropped early, and read directly). */
-  handed: number;
+  arrived?: Promise<Uint8Array>;
+  /** Bytes handed out so far, as sorted disjoint [from, to) ranges of file positions. */
+  handed: number[];
 }
 
 /** A read-ahead source over `blob`; `name` defaults to the File's name. */
 export function readAheadSource(blob: Blob, name: string = (blob as Partial<File>).name ?? 'blob', opts: ReadAheadOptions = {}): ReadAheadSource {
   const size = blob.size;
-  const sliceBytes = Math.max(1, Math.floor(opts.sliceBytes ?? BLOB_CHUNK_BYTES));
   const inFlight = Math.max(1, Math.floor(opts.inFlight ?? 2));
-  const maxAhead = Math.max(sliceBytes, opts.maxAheadBytes ?? 256 << 20);
-  const count = Math.ceil(size / sliceBytes);
-  const slices = new Map<number, Slice>();
-  /** Slices started (by the sweep or on demand): never fetched twice by the sweep. */
-  const started = new Uint8Array(count);
-  const stats: ReadAheadStats = { firstAskedAt: NaN, lastArrivedAt: NaN, waitedMs: 0, sweptBytes: 0, directBytes: 0 };
-  let next = 0, running = 0, held = 0, closed = false;
+  const maxAhead = Math.max(1, opts.maxAheadBytes ?? 256 << 20);
+  const stats: ReadAheadStats = { planned: 0, lastArrivedAt: NaN, waitedMs: 0, aheadBytes: 0, directBytes: 0 };
+  let pieces: Piece[] = [];
+  let planning: Promise<void> | undefined;
+  let running = 0, held = 0, closed = false;
 
-  const sliceEnd = (i: number) => Math.min(size, (i + 1) * sliceBytes);
-  const start = (i: number): Slice => {
-    started[i] = 1;
-    const s: Slice = {
-      handed: 0,
-      arrived: blob.slice(i * sliceBytes, sliceEnd(i)).arrayBuffer().then((b) => {
-        const bytes = new Uint8Array(b);
-        stats.sweptBytes += bytes.length;
-        stats.lastArrivedAt = performance.now();
-        if (!closed && slices.get(i) === s) { s.bytes = bytes; held += bytes.length; }
-        return bytes;
-      }),
-    };
-    slices.set(i, s);
-    return s;
-  };
-  // The sweep: file order, `inFlight` at a time, paused while `maxAhead` bytes wait unclaimed.
-  const sweep = (): void => {
-    while (!closed && running < inFlight && next < count && held < maxAhead) {
-      const i = next++;
-      if (started[i]) continue;
-      running++;
-      start(i).arrived.then(() => { running--; sweep(); }, () => { running--; });
-    }
-  };
-  const release = (i: number, s: Slice, n: number): void => {
-    s.handed += n;
-    if (s.handed >= sliceEnd(i) - i * sliceBytes && slices.get(i) === s) {
-      slices.delete(i);
-      if (s.bytes) held -= s.bytes.length;
-      sweep();
-    }
-  };
   const direct = async (offset: number, end: number): Promise<Uint8Array> => {
     const b = new Uint8Array(await blob.slice(offset, end).arrayBuffer());
     stats.directBytes += b.length;
     stats.lastArrivedAt = performance.now();
     return b;
   };
+  /** Starts fetching a piece (in turn, or at once when the reader asks for it first). */
+  const start = (p: Piece): void => {
+    running++;
+    held += p.end - p.start;
+    p.arrived = blob.slice(p.start, p.end).arrayBuffer().then((b) => {
+      running--;
+      const bytes = new Uint8Array(b);
+      stats.aheadBytes += bytes.length;
+      stats.lastArrivedAt = performance.now();
+      if (!closed && pieces.includes(p)) p.bytes = bytes;
+      fetchAhead();
+      return bytes;
+    }, (e: unknown) => {
+      // a piece that failed is read directly when asked for
+      running--;
+      if (pieces.includes(p)) drop(p);
+      throw e;
+    });
+    p.arrived.catch(() => undefined);
+  };
+  /** Pieces in file order, `inFlight` at a time, while less than `maxAhead` bytes are held. */
+  const fetchAhead = (): void => {
+    while (!closed && running < inFlight && held < maxAhead) {
+      const p = pieces.find((x) => !x.arrived);
+      if (!p) return;
+      start(p);
+    }
+  };
+  const plan = async (): Promise<void> => {
+    const head = await direct(0, Math.min(size, opts.headBytes ?? HEAD_BYTES));
+    pieces = appendedPieces(head, size).map(([from, to]) => ({ start: from, end: to, handed: [] }));
+    stats.planned = pieces.length;
+    fetchAhead();
+  };
+  const drop = (p: Piece): void => {
+    pieces = pieces.filter((x) => x !== p);
+    if (p.arrived) held -= p.end - p.start;
+    fetchAhead();
+  };
 
   const read = async (offset: number, length: number): Promise<Uint8Array> => {
     const end = Math.min(size, offset + length);
     if (offset >= end) return new Uint8Array(0);
-    if (Number.isNaN(stats.firstAskedAt)) stats.firstAskedAt = performance.now();
-    const first = Math.floor(offset / sliceBytes), last = Math.floor((end - 1) / sliceBytes);
-    const parts: { i: number; s: Slice | undefined; from: number; to: number }[] = [];
-    for (let i = first; i <= last; i++) {
-      const from = Math.max(offset, i * sliceBytes), to = Math.min(end, sliceEnd(i));
-      // a slice not started is fetched now; one already handed out whole (dropped) is read directly
-      const s = slices.get(i) ?? (started[i] || closed ? undefined : start(i));
-      parts.push({ i, s, from, to });
-    }
-    sweep();
+    await (planning ??= plan());
+    const p = pieces.find((x) => x.start <= offset && end <= x.end);
+    if (!p || overlaps(p.handed, offset, end)) return direct(offset, end);
+    if (!p.arrived) start(p);
     const t0 = performance.now();
-    const got = await Promise.all(parts.map((p) => (p.s ? p.s.arrived : direct(p.from, p.to))));
+    const bytes = p.bytes ?? await p.arrived!.catch(() => undefined);
     const waited = performance.now() - t0;
     if (waited > 0.5) stats.waitedMs += waited;
-    const out = new Uint8Array(end - offset);
-    parts.forEach((p, k) => {
-      const b = got[k]!;
-      out.set(p.s ? b.subarray(p.from - p.i * sliceBytes, p.to - p.i * sliceBytes) : b, p.from - offset);
-      if (p.s) release(p.i, p.s, p.to - p.from);
-    });
-    return out;
+    // dropped meanwhile (closed, failed), or another read took these bytes while this one waited
+    if (!bytes || !pieces.includes(p) || overlaps(p.handed, offset, end)) return direct(offset, end);
+    addRange(p.handed, offset, end);
+    if (covered(p.handed, p.start, p.end)) drop(p);
+    return bytes.subarray(offset - p.start, end - p.start);
   };
 
   return {
-    name, size, read, stats, chunkBytes: sliceBytes,
+    name, size, read, stats, chunkBytes: BLOB_CHUNK_BYTES,
     async close() {
       closed = true;
-      slices.clear();
+      pieces = [];
       held = 0;
     },
   };
+}
+
+/**
+ * Byte ranges [start, end) of the appended arrays of an XML file whose first bytes are `head`: from each
+ * distinct `offset` attribute before `<AppendedData`, relative to the byte after its `_` marker, to the next
+ * one (the last to the end of the file). Empty when the head holds no appended data (or ends first).
+ */
+export function appendedPieces(head: Uint8Array, size: number): [number, number][] {
+  const text = new TextDecoder('latin1').decode(head);
+  const at = text.indexOf('<AppendedData');
+  if (at < 0) return [];
+  const marker = text.indexOf('_', text.indexOf('>', at));
+  if (marker < 0) return [];
+  const base = marker + 1;
+  const offsets = new Set<number>();
+  for (const m of text.slice(0, at).matchAll(/\soffset\s*=\s*["'](\d+)["']/g)) {
+    const o = base + Number(m[1]);
+    if (Number.isSafeInteger(o) && o < size) offsets.add(o);
+  }
+  const sorted = [...offsets].sort((a, b) => a - b);
+  return sorted.map((o, i) => [o, sorted[i + 1] ?? size]);
+}
+
+/** True when [a, b) meets any of the sorted disjoint ranges `r` (flat [from, to, from, to, …]). */
+function overlaps(r: number[], a: number, b: number): boolean {
+  for (let i = 0; i < r.length; i += 2) if (r[i]! < b && a < r[i + 1]!) return true;
+  return false;
+}
+
+/** Adds [a, b) (disjoint from every range of `r`) to the sorted ranges, merging neighbours. */
+function addRange(r: number[], a: number, b: number): void {
+  let i = 0;
+  while (i < r.length && r[i]! < a) i += 2;
+  r.splice(i, 0, a, b);
+  for (let k = Math.max(0, i - 2); k + 2 < r.length;) {
+    if (r[k + 1] === r[k + 2]) r.splice(k + 1, 2); else k += 2;
+  }
+}
+
+/** True when the ranges cover [a, b) whole. */
+function covered(r: number[], a: number, b: number): boolean {
+  return r.length === 2 && r[0]! <= a && r[1]! >= b;
 }
