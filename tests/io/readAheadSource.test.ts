@@ -43,6 +43,9 @@ describe('readAheadSource: the plan and the ranges', () => {
     // no appended data, or a head that ends before its marker: no plan
     expect(appendedPieces(new TextEncoder().encode('<VTKFile><Piece/></VTKFile>'), 30)).toEqual([]);
     expect(appendedPieces(f.subarray(0, f.indexOf(95)), f.length)).toEqual([]);
+    // compressed arrays are read range by range
+    const zipped = new TextEncoder().encode(new TextDecoder('latin1').decode(f).replace('<VTKFile ', '<VTKFile compressor="vtkZLibDataCompressor" '));
+    expect(appendedPieces(zipped, zipped.length)).toEqual([]);
   });
 
   it('hands out each planned byte once as a view of its piece, anything else directly: always the file\'s bytes', async () => {
