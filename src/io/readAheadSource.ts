@@ -6,7 +6,7 @@
  * On the first read it reads the file's head (up to `HEAD_BYTES`) and, when the head holds `<AppendedData`,
  * takes the `offset="…"` attributes before it as the arrays' places: each array (its block header and data,
  * up to the next array) becomes one piece, fetched with one blob read, in file order, `inFlight` at a time and
- * never more than `maxAheadBytes` unclaimed. A read inside one piece is served from it as a view — no copy and
+ * never more than `maxAheadBytes` unclaimed (an array larger than that is read range by range). A read inside one piece is served from it as a view — no copy and
  * no fresh memory, which costs the engine page faults — and each byte of a piece is handed out at most once
  * (a read of bytes already handed, or across pieces, or outside every piece, is read from the blob directly,
  * as a fresh buffer). A piece is dropped once all of it was handed out. The plan is only a guess about what
@@ -111,7 +111,9 @@ export function readAheadSource(blob: Blob, name: string = (blob as Partial<File
   };
   const plan = async (): Promise<void> => {
     const head = await direct(0, Math.min(size, opts.headBytes ?? HEAD_BYTES));
-    pieces = appendedPieces(head, size).map(([from, to]) => ({ start: from, end: to, handed: [] }));
+    // an array larger than the read-ahead allowance is read range by range (a 10M-cell file's connectivity
+    // would otherwise be held whole beside its narrowed copy)
+    pieces = appendedPieces(head, size).filter(([from, to]) => to - from <= maxAhead).map(([from, to]) => ({ start: from, end: to, handed: [] }));
     stats.planned = pieces.length;
     fetchAhead();
   };

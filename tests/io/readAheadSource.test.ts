@@ -92,6 +92,16 @@ describe('readAheadSource: the plan and the ranges', () => {
     for (let o = 1000; o < 8000; o += 1000) expect([...(await s.read(base + o, 1000))]).toEqual([...f.subarray(base + o, base + o + 1000)]);
     expect(s.stats.directBytes).toBe(4096);
   });
+
+  it('reads an array larger than maxAheadBytes range by range', async () => {
+    const f = appendedFile([0, 1000, 5000], 6000);
+    const base = f.indexOf(95) + 1;
+    const s = readAheadSource(blobOf(f), 'a.vtu', { headBytes: 4096, maxAheadBytes: 2000 });
+    expect([...(await s.read(base + 1000, 4000))]).toEqual([...f.subarray(base + 1000, base + 5000)]);
+    expect([...(await s.read(base, 1000))]).toEqual([...f.subarray(base, base + 1000)]);
+    expect(s.stats.planned).toBe(2);
+    expect(s.stats.directBytes).toBe(4096 + 4000);
+  });
 });
 
 describe('readAheadSource: datasets as from the whole bytes', () => {
