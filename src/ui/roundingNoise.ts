@@ -116,7 +116,9 @@ export function rangeMagnitude(min: number, max: number): number {
 /** The scale of a mean over samples whose extremes are `min` and `max`: `max |p| on the line`. */
 export function sampleScale(min: number, max: number, what: string, where: string): NoiseScale | undefined {
   const value = rangeMagnitude(min, max);
-  return Number.isFinite(value) && value > 0 ? { value, label: `max |${what}| ${where}` } : undefined;
+  // a magnitude's label already carries its bars (`|velocity|`)
+  const abs = /^\|.*\|$/.test(what) ? what : `|${what}|`;
+  return Number.isFinite(value) && value > 0 ? { value, label: `max ${abs} ${where}` } : undefined;
 }
 
 /**

@@ -30,6 +30,8 @@ describe('scales of means over samples, points and cut-planes', () => {
     // 10⁻⁹ × 4.2 is the edge: just above it is a number
     expect(quantityText({ ...r[1]!, value: 4.2e-9 * 1.01 })).toBe('4.242×10⁻⁹ Pa');
     expect(sampleScale(0, 0, 'p', 'on the line')).toBeUndefined();
+    // a magnitude keeps its own bars
+    expect(sampleScale(0, 2, '|velocity|', 'on the line')).toEqual({ value: 2, label: 'max |velocity| on the line' });
     // a wall group's mean has only a maximum beside it (c_f)
     const w = assignNoiseScales('wall', [q('cf.mean', 'c_f mean', 3e-19), q('cf.max', 'c_f max', 0.01)]);
     expect(quantityText(w[0]!)).toBe('3.000×10⁻¹⁹ (≈ 0 relative to max |c_f| on the group)');
