@@ -27,7 +27,7 @@ import type { ByteSource } from './byteSource.ts';
 export interface ReadAheadOptions {
   /** Pieces fetched at once (default 2). */
   inFlight?: number;
-  /** Unclaimed bytes held before fetching pauses (default 256 MiB). */
+  /** Unclaimed bytes held before fetching pauses, and the largest array read ahead (default 128 MiB: every array of the 1M-cell files; at 10M the largest are read range by range). */
   maxAheadBytes?: number;
   /** Bytes read first to find the appended arrays (default `HEAD_BYTES`). */
   headBytes?: number;
@@ -69,7 +69,7 @@ interface Piece {
 export function readAheadSource(blob: Blob, name: string = (blob as Partial<File>).name ?? 'blob', opts: ReadAheadOptions = {}): ReadAheadSource {
   const size = blob.size;
   const inFlight = Math.max(1, Math.floor(opts.inFlight ?? 2));
-  const maxAhead = Math.max(1, opts.maxAheadBytes ?? 256 << 20);
+  const maxAhead = Math.max(1, opts.maxAheadBytes ?? 128 << 20);
   const stats: ReadAheadStats = { planned: 0, lastArrivedAt: NaN, waitedMs: 0, aheadBytes: 0, directBytes: 0 };
   let pieces: Piece[] = [];
   let planning: Promise<void> | undefined;
