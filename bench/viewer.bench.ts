@@ -20,7 +20,16 @@ import { writeLargeFields, LARGE_DIR } from '../src/samples/makeFields.ts';
 import { buildApp, launch, serveFolder, waitIdle } from '../tests/system/browser.ts';
 
 /** The 1M-cell files timed: hexahedra and tetrahedra, raw and zlib-compressed appended data. */
-const FILES = ['pipe-hex-1M.appended-raw.vtu', 'pipe-hex-1M.appended-zlib.vtu', 'sphere-tet-1M.appended-raw.vtu', 'sphere-tet-1M.appended-zlib.vtu'];
+const ALL_FILES = ['pipe-hex-1M.appended-raw.vtu', 'pipe-hex-1M.appended-zlib.vtu', 'sphere-tet-1M.appended-raw.vtu', 'sphere-tet-1M.appended-zlib.vtu'];
+
+/** `FIELDTALLY_VIEWER_FILES=a,b` times only those of the files (names as above), e.g. while working on one of them. */
+const FILES = (() => {
+  const only = process.env['FIELDTALLY_VIEWER_FILES']?.split(',').map((s) => s.trim()).filter(Boolean);
+  if (!only?.length) return ALL_FILES;
+  const unknown = only.filter((f) => !ALL_FILES.includes(f));
+  if (unknown.length) throw new Error(`FIELDTALLY_VIEWER_FILES: unknown file(s) ${unknown.join(', ')} (known: ${ALL_FILES.join(', ')})`);
+  return only;
+})();
 
 /** Goals in seconds (issue 13, item 9). */
 const GOALS = { loadRaw: 2.0, loadZlib: 2.5, newCutPlane: 0.6, dragStep: 0.2, firstLineProbe: 0.6 };
@@ -65,7 +74,7 @@ async function timeLoad(page: Page, path: string): Promise<Record<string, unknow
   // (no named functions inside page.evaluate: the bundler's name helper does not exist in the page)
   const r = await page.evaluate(() => ({
     marks: ['fieldtally:files-chosen', 'fieldtally:coloured', 'fieldtally:surface-uploaded'].map((n) => performance.getEntriesByName(n)[0]?.startTime),
-    summary: document.getElementById('file-summary')!.textContent,
+    summary: document.getElementById('file-summary')!.textContent, origin: performance.timeOrigin,
   }));
   const [chosenMs, colouredMs, uploadedMs] = r.marks as [number, number, number | undefined];
   const all = await calls(page);
@@ -74,9 +83,33 @@ async function timeLoad(page: Page, path: string): Promise<Record<string, unknow
   for (const w of ['load', 'surface', 'surfaceValues']) { const c = byName(w); if (c) parts[w] = split(c); }
   return {
     seconds: s3(colouredMs - chosenMs), calls: parts,
+    phases: loadPhases(byName('load'), byName('surface'), byName('surfaceValues'), { chosen: r.origin + chosenMs, coloured: r.origin + colouredMs, ...(uploadedMs !== undefined ? { uploaded: r.origin + uploadedMs } : {}) }),
     ...(uploadedMs !== undefined ? { surfaceUploadedAfterSeconds: s3(uploadedMs - chosenMs) } : {}),
     longestMainThreadTaskMs: await longestTask(page), summary: r.summary,
   };
+}
+
+/**
+ * The load's phases in seconds, from the worker's own split (`WorkerStamps.phases`) and the page's marks (ms
+ * since the epoch): until the load call starts; in the worker: reading and decoding the file (with when its
+ * last byte arrived and how long the reader waited for bytes), load report, boundary faces, surface groups;
+ * the surface's triangles and outline; the values to colour them; uploading the surface to the GPU after
+ * its reply; and the first frame after both.
+ */
+function loadPhases(load: CallTiming | undefined, surface: CallTiming | undefined, values: CallTiming | undefined,
+  page: { chosen: number; coloured: number; uploaded?: number }): Record<string, number> {
+  const out: Record<string, number> = {};
+  const ms = (k: string, v: number | undefined) => { if (v !== undefined && Number.isFinite(v)) out[k] = s3(v); };
+  if (load) {
+    ms('beforeLoadCall', (load.startedAt ?? load.sentAt) - page.chosen);
+    for (const [k, v] of Object.entries(load.phases ?? {})) ms(`load.${k}`, v);
+  }
+  if (surface) for (const [k, v] of Object.entries(surface.phases ?? {})) ms(`surface.${k}`, v);
+  if (values?.startedAt !== undefined && values.finishedAt !== undefined) ms('surfaceValues', values.finishedAt - values.startedAt);
+  if (surface && page.uploaded !== undefined) ms('upload', page.uploaded - surface.receivedAt);
+  const ready = Math.max(page.uploaded ?? -Infinity, values?.receivedAt ?? -Infinity);
+  if (Number.isFinite(ready)) ms('firstFrame', page.coloured - ready);
+  return out;
 }
 
 /** Clicks a panel button and times the probe's first computation until the frame showing it. */
@@ -168,7 +201,7 @@ async function stage<T extends object>(what: string, f: () => Promise<T>): Promi
 }
 
 export async function run(): Promise<Record<string, unknown>> {
-  if (FILES.some((f) => !existsSync(join(LARGE_DIR, f)))) writeLargeFields(LARGE_DIR, true);
+  if (ALL_FILES.some((f) => !existsSync(join(LARGE_DIR, f)))) writeLargeFields(LARGE_DIR, true);
   const loadBefore = loadavg();
   const dist = buildApp();
   const server = await serveFolder(dist);

@@ -26,6 +26,8 @@ export type Vec3 = [number, number, number];
 export interface WorkerStamps {
   startedAt: number;
   finishedAt: number;
+  /** Parts of the call (ms each), for the viewer benchmark: e.g. a load's `read`, `decode`, `boundary`. */
+  phases?: Record<string, number>;
 }
 
 /** One input file: its path relative to the set file's folder (`/`-separated) and its bytes. */
@@ -87,6 +89,12 @@ export type { DrawingValues, FieldChoice, SurfaceDrawing, TriangleDrawing };
 export interface IsoReply {
   evaluation: SetEvaluation;
   drawing: (TriangleDrawing & DrawingValues) | null;
+}
+
+/** Options of `surface()`. */
+export interface SurfaceOptions {
+  /** Compute the groups' outline with the surface (default true). */
+  groupOutline?: boolean;
 }
 
 export interface SurfaceReply extends SurfaceDrawing {
@@ -326,8 +334,13 @@ export interface ComputeApi {
   cancelLoad(): void;
   /** The held dataset's description; rejects when nothing is loaded. */
   describe(): Promise<Description>;
-  /** The boundary surface for drawing, with the groups' outlines. */
-  surface(): Promise<SurfaceReply>;
+  /**
+   * The boundary surface for drawing, with the groups' outlines; with `{ groupOutline: false }` the outline is
+   * left empty (a first picture does not show it: it is drawn around selected groups) and comes from `groupOutline()`.
+   */
+  surface(options?: SurfaceOptions): Promise<SurfaceReply>;
+  /** The held surface's group outline (segments where a group ends), for a surface drawn without it. */
+  groupOutline(): Promise<GroupOutline>;
   /** A field's values on the boundary surface, in `surface()`'s vertex order. */
   surfaceValues(field: FieldChoice): Promise<SurfaceValuesReply>;
   /** Cuts the dataset by a plane: triangles coloured by `request.color`, and integrals. */

@@ -11,7 +11,7 @@ import { warmUpCutKernels } from '../src/cut/warmUp.ts';
 import { getCellTree, hasCellTree } from '../src/locate/cellTree.ts';
 import type { RegionSpec } from '../src/cut/region.ts';
 import { readDatasetFrom } from '../src/io/readDataset.ts';
-import { blobSource } from '../src/io/blobSource.ts';
+import { readAheadSource, type ReadAheadSource } from '../src/io/readAheadSource.ts';
 import { bytesSource, type ByteSource } from '../src/io/byteSource.ts';
 import { probeLine } from '../src/locate/lineProbe.ts';
 import { lineStats } from '../src/locate/lineStats.ts';
@@ -32,7 +32,7 @@ import { facesOfGroups, type SurfaceGroups } from '../src/surface/surfaceGroups.
 import { withDerivedFields } from '../src/derive/derivedFields.ts';
 import { isoDrawing } from '../src/iso/isoDrawing.ts';
 import { attachFields, wallSurface } from './fieldCalls.ts';
-import type { FieldsReply, FieldsRequest, WallReply, WallRequest } from './api.ts';
+import type { FieldsReply, FieldsRequest, GroupOutline, SurfaceOptions, WallReply, WallRequest } from './api.ts';
 import type {
   ComputeApi, CutDrawingReply, CutReply, DeriveRequest, DrawingValues, TriangleDrawing, CutRequest, Description, FieldChoice, SurfaceValuesReply, ForceReply, ForceRequest, IsoReply, SetEvaluation,
   LineReply, LineRequest, LoadRequest, ProgressCallback, SurfaceReply,
@@ -88,10 +88,15 @@ function loadInflater(): InflateBlock {
   return (inflater ??= helperInflate(threads - 1));
 }
 
-/** A chosen file as a byte source: ranges of a Blob are read only when the reader needs them (and counted by the meter). */
-function sourceOf(data: Blob | Uint8Array, name: string, meter: ReadMeter | undefined): ByteSource {
+/**
+ * A chosen file as a byte source: a Blob is read ahead in file order while the reader decodes what has
+ * arrived (src/io/readAheadSource.ts; its source is added to `opened`, to be closed after the load), and
+ * counted by the meter.
+ */
+function sourceOf(data: Blob | Uint8Array, name: string, meter: ReadMeter | undefined, opened: ReadAheadSource[]): ByteSource {
   if (data instanceof Uint8Array) return bytesSource(name, data);
-  const src = blobSource(data, name);
+  const src = readAheadSource(data, name);
+  opened.push(src);
   return meter ? meter.wrap(src) : src;
 }
 
@@ -176,6 +181,8 @@ export function createComputeApi(): ComputeApi {
       loading = controller;
       const progress = throttle(onProgress);
       const t0 = performance.now(), startedAt = epochNow();
+      const opened: ReadAheadSource[] = [];
+      const phases: Record<string, number> = {};
       try {
         let name: string, main: ByteSource, fileBytes: number;
         let resolveSource: ((rel: string) => Promise<ByteSource>) | undefined;
@@ -191,7 +198,7 @@ export function createComputeApi(): ComputeApi {
           // in-memory bytes are not counted as read (readers view them whole): their positions are reported as given
           if (files.every((f) => !(f.data instanceof Uint8Array))) meter = new ReadMeter(files.reduce((n, f) => n + (f.data as Blob).size, 0));
           const m = meter;
-          main = sourceOf(request.main.data, name, m);
+          main = sourceOf(request.main.data, name, m, opened);
           fileBytes = main.size;
           const folder = request.main.path.includes('/') ? request.main.path.slice(0, request.main.path.lastIndexOf('/') + 1) : '';
           const byPath = new Map(request.others.map((f) => [normalisePath(f.path), f]));
@@ -202,7 +209,7 @@ export function createComputeApi(): ComputeApi {
             const sameName = [...byPath.entries()].filter(([p]) => p.split('/').pop() === base);
             const f = byPath.get(want) ?? byPath.get(normalisePath(rel)) ?? (sameName.length === 1 ? sameName[0]![1] : undefined);
             if (!f) throw new Error(`${name}: piece "${rel}" is missing: choose it together with the set file (or open the folder)`);
-            const src = sourceOf(f.data, base, m);
+            const src = sourceOf(f.data, base, m, opened);
             fileBytes += src.size;
             return src;
           };
@@ -214,6 +221,7 @@ export function createComputeApi(): ComputeApi {
           inflate: loadInflater(),
           ...(resolveSource ? { resolveSource } : {}),
         });
+        readPhases(phases, t0, opened);
         progress.now({ stage: 'finding boundary surfaces', bytesDone: total, bytesTotal: total });
         // Large files go to share workers; they extract the boundary faces (priming the dataset's cache).
         const plan = poolPlan();
@@ -221,7 +229,7 @@ export function createComputeApi(): ComputeApi {
         let found: Held;
         try {
           if (pool) await pool.boundary();
-          found = { ...describe(pool ? pool.dataset : dataset, fileBytes, t0), ...(pool ? { pool } : {}) };
+          found = { ...describe(pool ? pool.dataset : dataset, fileBytes, t0, phases), ...(pool ? { pool } : {}) };
           // a cancel that arrived while the surfaces were found still wins: the previous dataset stays
           await yieldToMessages();
           checkAborted(controller.signal, name);
@@ -232,8 +240,9 @@ export function createComputeApi(): ComputeApi {
         const old = held?.pool;
         held = found;
         await old?.close();
-        return { ...held.description, timing: { startedAt, finishedAt: epochNow() } };
+        return { ...held.description, timing: { startedAt, finishedAt: epochNow(), phases } };
       } finally {
+        for (const s of opened) void s.close();
         if (loading === controller) loading = undefined;
       }
     },
@@ -242,12 +251,20 @@ export function createComputeApi(): ComputeApi {
 
     async describe(): Promise<Description> { return need().description; },
 
-    async surface(): Promise<SurfaceReply> {
-      const h = need(), startedAt = epochNow();
+    async surface(options?: SurfaceOptions): Promise<SurfaceReply> {
+      const h = need(), startedAt = epochNow(), t0 = performance.now();
       const d = drawFaces(h.dataset, facesOf(h), h.boundary?.groups.faceGroup ?? null);
-      const outline = h.boundary ? groupOutline(h.dataset, h.boundary.faces, h.boundary.groups.faceGroup) : { positions: new Float32Array(0), groups: new Int32Array(0) };
-      const reply: SurfaceReply = { ...d, outline, timing: { startedAt, finishedAt: epochNow() } };
+      const t1 = performance.now();
+      const outline = h.boundary && options?.groupOutline !== false ? groupOutline(h.dataset, h.boundary.faces, h.boundary.groups.faceGroup) : { positions: new Float32Array(0), groups: new Int32Array(0) };
+      const phases = { triangles: t1 - t0, outline: performance.now() - t1 };
+      const reply: SurfaceReply = { ...d, outline, timing: { startedAt, finishedAt: epochNow(), phases } };
       return Comlink.transfer(reply, [d.positions.buffer, d.normals.buffer, d.groups.buffer, d.edges.buffer, d.edgeGroups.buffer, d.edgeShares.buffer, outline.positions.buffer, outline.groups.buffer]);
+    },
+
+    async groupOutline(): Promise<GroupOutline> {
+      const h = need();
+      const outline = h.boundary ? groupOutline(h.dataset, h.boundary.faces, h.boundary.groups.faceGroup) : { positions: new Float32Array(0), groups: new Int32Array(0) };
+      return Comlink.transfer(outline, [outline.positions.buffer, outline.groups.buffer]);
     },
 
     async surfaceValues(field: FieldChoice): Promise<SurfaceValuesReply> {
@@ -438,12 +455,29 @@ export function createComputeApi(): ComputeApi {
   };
 }
 
-/** Boundary faces, their groups and the description of a freshly read dataset. */
-function describe(dataset: Dataset, fileBytes: number, t0: number): Held {
+/**
+ * The load's read phases (ms) from its read-ahead sources: `decode` from the start to the dataset being
+ * read, `bytesArrived` from the start to the last byte arriving, `waitedForBytes` the reader's time waiting
+ * for bytes not yet arrived (the rest of `decode` is the reader's own work).
+ */
+function readPhases(phases: Record<string, number>, t0: number, opened: readonly ReadAheadSource[]): void {
+  phases['decode'] = performance.now() - t0;
+  if (opened.length === 0) return;
+  phases['bytesArrived'] = Math.max(...opened.map((s) => s.stats.lastArrivedAt)) - t0;
+  phases['waitedForBytes'] = opened.reduce((n, s) => n + s.stats.waitedMs, 0);
+}
+
+/** Boundary faces, their groups and the description of a freshly read dataset; `phases` (ms) gets the time of each step. */
+function describe(dataset: Dataset, fileBytes: number, t0: number, phases: Record<string, number> = {}): Held {
+  let t = performance.now();
+  const lap = (k: string) => { const now = performance.now(); phases[k] = now - t; t = now; };
   const report = loadReport(dataset);
+  lap('report');
   const faces = getBoundaryFaces(dataset);
+  lap('boundary');
   if (faces.count > 0) {
     const groups = getSurfaceGroups(dataset);
+    lap('groups');
     return {
       dataset, faces, boundary: { faces, groups },
       description: {

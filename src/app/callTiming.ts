@@ -17,6 +17,8 @@ export interface CallTiming {
   /** From the worker's reply; absent when the worker did not say. */
   startedAt?: number;
   finishedAt?: number;
+  /** The worker's split of its part (`WorkerStamps.phases`), when it gave one. */
+  phases?: Record<string, number>;
   receivedAt: number;
   /** The first frame showing the reply; absent for a call that draws nothing by itself. */
   drawnAt?: number;
@@ -40,6 +42,7 @@ export async function timedCall<R extends { timing?: WorkerStamps }>(what: strin
   const t: CallTiming = {
     what, ...(id !== undefined ? { id } : {}), sentAt, receivedAt: epochNow(),
     ...(reply.timing ? { startedAt: reply.timing.startedAt, finishedAt: reply.timing.finishedAt } : {}),
+    ...(reply.timing?.phases ? { phases: reply.timing.phases } : {}),
   };
   if (drawn) waiting.set(reply, t); else leaveMark(t);
   return reply;

@@ -16,6 +16,7 @@ import { LineChart, type ChartData } from '../ui/lineChart.ts';
 import { classifyNotes } from '../ui/notes.ts';
 import type { ProbeResult, Quantity } from '../ui/results.ts';
 import { UNITS, fieldUnit } from '../ui/units.ts';
+import { assignNoiseScales, sampleScale } from '../ui/roundingNoise.ts';
 import { LineProbeWidget } from '../view/lineProbeWidget.ts';
 import { markDrawn, timedCall } from './callTiming.ts';
 import { latestWinsPerKey } from './latestWins.ts';
@@ -281,7 +282,9 @@ function lineResult(l: Line, r: LineReply): ProbeResult {
   let pinnedMeans = 0;
   for (const s of r.stats.series) {
     if (s.component >= 0 && r.fields.find((f) => f.name === s.field)!.components > 1) {
-      q.push({ key: `${s.label}.mean`, label: `${s.label} mean`, value: s.stats.mean, unit: fieldUnit(s.field), pinned: false });
+      // a component's mean has no extremes in the table: its scale comes from its samples here
+      const scale = sampleScale(s.stats.min, s.stats.max, s.label, 'on the line');
+      q.push({ key: `${s.label}.mean`, label: `${s.label} mean`, value: s.stats.mean, unit: fieldUnit(s.field), pinned: false, ...(scale ? { scale } : {}) });
       continue;
     }
     const unit = fieldUnit(s.field);
@@ -290,5 +293,5 @@ function lineResult(l: Line, r: LineReply): ProbeResult {
     q.push({ key: `${s.label}.max`, label: `${s.label} max`, value: s.stats.max, unit, pinned: false });
   }
   const gaps = r.stats.gaps.length ? `; ${r.stats.gaps.length} stretch(es) outside the mesh left out` : '';
-  return { ...base, quantities: q, ...(gaps ? { notes: classifyNotes([`${r.validCount} of ${r.count} samples inside the mesh${gaps}`]) } : {}) };
+  return { ...base, quantities: assignNoiseScales('line', q), ...(gaps ? { notes: classifyNotes([`${r.validCount} of ${r.count} samples inside the mesh${gaps}`]) } : {}) };
 }

@@ -8,7 +8,7 @@ import { headline } from '../study/resultTables.ts';
 import { unitLabel } from '../study/units.ts';
 import { classifyNotes, type ResultNote } from '../ui/notes.ts';
 import type { ProbeKind, ProbeResult } from '../ui/results.ts';
-import { assignNoiseScales } from '../ui/roundingNoise.ts';
+import { assignNoiseScales, type NoiseContext } from '../ui/roundingNoise.ts';
 
 /** The table's kind of each probe-set kind. */
 export const KIND: Record<Probe['kind'], ProbeKind> = {
@@ -26,6 +26,8 @@ export interface OutcomeResultOptions {
   notes?: readonly ResultNote[];
   /** A short line the pin shows under its numbers (see `ProbeResult.tag`). */
   tag?: string;
+  /** The mesh's field magnitudes and density for the rounding-noise scales of points and cut-planes (`roundingNoise.ts`). */
+  noise?: NoiseContext;
 }
 
 /** The outcome as a result; `fallbackAnchor` (file length unit) when it has no anchor of its own. */
@@ -40,7 +42,7 @@ export function outcomeResult(o: ProbeOutcome, fallbackAnchor: [number, number, 
   return {
     id: o.id, kind: KIND[o.kind], label: o.label, anchor: o.anchor ?? fallbackAnchor,
     definition: `${o.definition}${opts.origin ?? ' — evaluated from the probe set'}`, pinVisible: true,
-    quantities: assignNoiseScales(KIND[o.kind], quantities),
+    quantities: assignNoiseScales(KIND[o.kind], quantities, opts.noise),
     ...(notes.length || opts.notes?.length ? { notes: [...(opts.notes ?? []), ...classifyNotes(notes)] } : {}),
     ...(opts.tag ? { tag: opts.tag } : {}),
   };

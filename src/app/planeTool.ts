@@ -3,6 +3,7 @@
  * or the cut in the view) with live recomputation, optionally restricted to one passage by a seed
  * point picked on the plane. Each plane's numbers go to the pins and the table.
  */
+import { assignNoiseScales, meshMagnitudes, type NoiseContext } from '../ui/roundingNoise.ts';
 import type GUI from 'lil-gui';
 import type * as THREE from 'three';
 import type { CutDrawingReply, CutReply, CutRequest, Vec3 } from '../../workers/api.ts';
@@ -245,7 +246,9 @@ export class PlaneTool {
     p.layer.setTriangles(reply.drawing, colored);
     p.layer.material.setRange(...this.v.colorRange);
     p.layer.material.setColorMap(this.v.colorMap);
-    this.v.setResult(planeResult(p, reply, this.densityOf(p).text));
+    const density = this.densityOf(p);
+    const noise: NoiseContext = { density: density.rho, ...(this.v.description ? { fields: meshMagnitudes(this.v.description.report) } : {}) };
+    this.v.setResult(planeResult(p, reply, density.text, noise));
     markDrawn(reply, this.v.view.nextFrame());
     this.v.view.releaseFrames();
   }
@@ -360,7 +363,7 @@ function planeDoc(p: Plane): PlaneDoc {
 }
 
 /** The numbers of a plane for pins, table and exports. */
-function planeResult(p: Plane, r: CutReply, densityText: string): ProbeResult {
+function planeResult(p: Plane, r: CutReply, densityText: string, noise: NoiseContext): ProbeResult {
   const s = r.integrals;
   const n = r.normal;
   const definition = `origin ${formatVec([p.ox, p.oy, p.oz])} m, normal ${formatVec(n)}` +
@@ -391,5 +394,5 @@ function planeResult(p: Plane, r: CutReply, densityText: string): ProbeResult {
   add('uniformityIndex', 'uniformity γ', s.uniformityIndex, '');
   if (s.reverseFlow) add('reverseFlowAreaShare', 'reverse-flow area share', s.reverseFlow.areaShare, '');
   const notes = [...s.notes, ...(r.region.length ? [`region: ${r.region.join('; ')}`] : [])];
-  return { ...base, quantities: q, ...(notes.length ? { notes: classifyNotes(notes) } : {}) };
+  return { ...base, quantities: assignNoiseScales('plane', q, { ...noise, roles: { velocity: vel, pressure: pres } }), ...(notes.length ? { notes: classifyNotes(notes) } : {}) };
 }

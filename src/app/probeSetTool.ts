@@ -16,6 +16,7 @@ import { readProbeSet, writeProbeSet } from '../study/probeSetFile.ts';
 import { siFactors } from '../study/siDataset.ts';
 import { ComparisonTable } from '../ui/comparisonTable.ts';
 import { download } from '../ui/download.ts';
+import { meshMagnitudes } from '../ui/roundingNoise.ts';
 import type { ForceTool } from './forceTool.ts';
 import type { IsoTool } from './isoTool.ts';
 import type { FormulaTool } from './formulaTool.ts';
@@ -209,7 +210,9 @@ export class ProbeSetTool {
       const ev = await this.v.track(this.v.compute.evaluateProbeSet(set));
       if (gen !== this.generation) return;
       const b = this.v.bounds, centre: [number, number, number] = [(b[0] + b[1]) / 2, (b[2] + b[3]) / 2, (b[4] + b[5]) / 2];
-      for (const o of ev.probes) this.v.setResult(outcomeResult(o, centre));
+      // the probe set reports in SI: the mesh's field magnitudes are converted by the set's units
+      const noise = { fields: meshMagnitudes(this.v.description.report, siFactors(this.meta.units).fields), density: this.tools.refs.density };
+      for (const o of ev.probes) this.v.setResult(outcomeResult(o, centre, { noise }));
     } catch (e) {
       this.v.banner.error(`Probe set: ${(e as Error).message}`);
     }

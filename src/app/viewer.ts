@@ -79,6 +79,8 @@ export class Viewer {
   private pending = 0;
   /** Counts loads started, so a superseded load neither reports nor hides the newer one's progress. */
   private loadGeneration = 0;
+  /** Resolves when the last installed surface's first coloured picture is on screen. */
+  private coloured: Promise<void> = Promise.resolve();
   private colorFolder: GUI;
   private groupFolder: GUI | undefined;
   /** Colour and display settings, edited by the panel. */
@@ -247,10 +249,12 @@ export class Viewer {
       if (!current()) return false;
       // the worker now holds the new file: a cancel could no longer bring the previous one back
       this.progress.show('drawing the surfaces', bytes, bytes, false);
-      const drawing = await this.track(timedCall('surface', () => this.compute.surface(), false));
+      // the groups' outline (drawn only around selected groups) follows the first picture
+      const drawing = await this.track(timedCall('surface', () => this.compute.surface({ groupOutline: false }), false));
       if (!current()) return false;
       this.openRequest = request;
       this.install(d, drawing, this.settings.keepView);
+      this.outlineAfterPicture(this.surface!);
       document.body.dataset['state'] = 'ready';
       return true;
     } catch (e) {
@@ -291,6 +295,13 @@ export class Viewer {
     }
   }
 
+  /** Asks the worker for the groups' outline once the surface's first coloured picture is on screen. */
+  private outlineAfterPicture(s: SurfaceLayer): void {
+    void this.coloured.then(() => (this.surface === s ? this.track(this.compute.groupOutline()) : undefined))
+      .then((o) => { if (o && this.surface === s) { s.setGroupOutline(o); this.view.requestRender(); } })
+      .catch((e: unknown) => { if (this.surface === s) this.banner.error(`Could not outline the surface groups: ${(e as Error).message}`); });
+  }
+
   private install(d: Description, drawing: SurfaceReply, keepView = false): void {
     const keepField = keepView ? this.settings.field : '';
     for (const l of this.beforeDatasetListeners) l();
@@ -329,7 +340,7 @@ export class Viewer {
     }
     // the benchmark times "files chosen" → this mark (first coloured picture on screen, every part shown)
     const uploaded = this.uploadSurface(this.surface).then(() => { performance.mark('fieldtally:surface-uploaded'); });
-    void Promise.all([uploaded, this.recolor()]).then(() => this.view.nextFrame()).then(() => performance.mark('fieldtally:coloured'));
+    this.coloured = Promise.all([uploaded, this.recolor()]).then(() => this.view.nextFrame()).then(() => { performance.mark('fieldtally:coloured'); });
     if (d.report.warnings.length) this.banner.notice(`Opened with warnings: ${d.report.warnings.slice(0, 3).join('; ')}`);
   }
 

@@ -9,7 +9,7 @@
  * (`nextParts`, at most `UPLOAD_BYTES_PER_TASK` each) for uploading in separate tasks.
  */
 import * as THREE from 'three';
-import type { DrawingValues, SurfaceReply } from '../../workers/api.ts';
+import type { DrawingValues, GroupOutline, SurfaceReply } from '../../workers/api.ts';
 import type { ColorMap } from './colorMaps.ts';
 import { FieldMaterial, OutlineMaterial } from './fieldMaterial.ts';
 import { SelectionOutline } from './selectionOutline.ts';
@@ -40,7 +40,7 @@ export class SurfaceLayer {
   readonly material: FieldMaterial;
   private readonly meshes: Part[] = [];
   private readonly edges: Part[] = [];
-  private readonly outline: SelectionOutline;
+  private outline: SelectionOutline;
   private readonly lines: OutlineMaterial;
   private readonly groupIds: Float32Array;
   private readonly hidden = new Set<number>();
@@ -149,6 +149,15 @@ export class SurfaceLayer {
   setGroupSelected(id: number, selected: boolean): void {
     if (selected) this.selected.add(id); else this.selected.delete(id);
     this.material.setGroupSelected(id, selected);
+    this.updateOutline();
+  }
+
+  /** Replaces the groups' outline (a surface drawn before its outline arrived); the selection is outlined anew. */
+  setGroupOutline(o: GroupOutline): void {
+    this.group.remove(this.outline.group);
+    this.outline.dispose();
+    this.outline = new SelectionOutline(o);
+    this.group.add(this.outline.group);
     this.updateOutline();
   }
 

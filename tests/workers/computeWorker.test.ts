@@ -84,6 +84,19 @@ describe('compute worker contract', () => {
     expect(v.range[1]).toBeCloseTo(0.40064, 10);
   });
 
+  it('draws the surface without the groups\' outline when asked, and gives the same outline after it', async () => {
+    const whole = await api.surface();
+    const first = await api.surface({ groupOutline: false });
+    expect(first.outline.positions.length).toBe(0);
+    expect(first.outline.groups.length).toBe(0);
+    expect([...first.positions]).toEqual([...whole.positions]);
+    expect([...first.edges]).toEqual([...whole.edges]);
+    const later = await api.groupOutline();
+    expect([...later.positions]).toEqual([...whole.outline.positions]);
+    expect([...later.groups]).toEqual([...whole.outline.groups]);
+    expect(later.groups.length).toBeGreaterThan(0);
+  });
+
   it('cuts a plane: integrals equal integratePlane on the same file, drawing arrives by transfer, twice', async () => {
     const ds = await readDataset('pipe-medium.vtu', new Uint8Array(readFileSync(PIPE)));
     const want = integratePlane(ds, { origin: [0, 0, 0.03], normal: [0, 0, 1], integral: { density: 998.207 } }).integrals;

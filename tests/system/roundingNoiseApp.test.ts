@@ -1,0 +1,42 @@
+/**
+ * Rounding noise on the app's pins (Debian chromium, software WebGL): the first line probe on the bundled
+ * slow-flow sphere runs along x through the bead's centre, where Stokes' pressure p = −(3/2)μa(U·x)/r³ is odd
+ * in x (Batchelor 1967, An Introduction to Fluid Dynamics, §4.9), so its mean over the samples cancels to
+ * ~10⁻¹⁶ Pa while p on the line reaches the wall's ±3μU/(2a) = ±4.5 Pa. The pin and the results table mark
+ * the mean "≈ 0 relative to max |p| on the line" (src/ui/roundingNoise.ts); the CSV keeps its value. The
+ * screenshot n01 goes to tests/.screenshots/ (git-ignored) and was looked at.
+ */
+import { join } from 'node:path';
+import type { Page } from 'playwright-core';
+import { describe, expect, it } from 'vitest';
+import { REPO, waitIdle } from './browser.ts';
+import { openAppForTests, pageTools } from './appPage.ts';
+
+const SPHERE = join(REPO, 'sample-fields/sphere-stokes.vtu');
+
+let page: Page;
+const { shot, openFile, downloadText, pinText } = pageTools(() => page);
+
+openAppForTests((app) => { ({ page } = app); });
+
+describe('rounding noise on a line probe\'s pin', () => {
+  it('the Stokes sphere\'s line through the bead: p mean ≈ 0 against max |p| = 4.5 Pa on the line; the CSV keeps the value', async () => {
+    await openFile(SPHERE, 'sphere-stokes.vtu');
+    await page.getByText('+ new line probe').click();
+    await page.waitForSelector('[data-pin="line-1"] [data-quantity="p.mean"]');
+    await waitIdle(page);
+    const text = await pinText('line-1', 'p.mean');
+    expect(text).toMatch(/^-?\d\.\d{3}×10⁻¹[0-9⁰¹²³⁴⁵⁶⁷⁸⁹]* Pa \(≈ 0 relative to max \|p\| on the line\)$/);
+    // the same mark in the results table, after the value
+    const row = page.locator('table.results tr[data-probe="line-1"][data-quantity="p.mean"]');
+    expect(await row.locator('.noise-mark').innerText()).toBe('(≈ 0 relative to max |p| on the line)');
+    // p's extremes on the line are the wall's ±4.5 Pa and carry no mark
+    expect(await row.locator('xpath=following-sibling::tr[@data-quantity="p.max"]').innerText()).toMatch(/4\.500 Pa$/);
+    await shot('n01-sphere-line-p-mean-noise');
+    const csv = await downloadText(() => page.getByText('save results (CSV)').click());
+    const cells = csv.split('\n').find((l) => l.includes(',p.mean,'))!.split(',');
+    const value = Number(cells.at(-2));
+    expect(value).not.toBe(0);
+    expect(Math.abs(value)).toBeLessThan(4.5e-9);
+  });
+});
