@@ -22,6 +22,7 @@ import { cellDimension, CellType } from '../model/cellTypes.ts';
 import { cellStarts, type Dataset } from '../model/dataset.ts';
 import { cellsCrossingPlane, getCellTree, hasCellTree } from '../locate/cellTree.ts';
 import { cellLayout } from '../model/uniformCells.ts';
+import { blockBoxes, boxMayCross, CELL_BLOCK } from './blockBoxes.ts';
 
 export type CandidateSource = 'auto' | 'tree' | 'scan';
 
@@ -30,7 +31,6 @@ export const AUTO_SCANS = 12;
 
 const scansDone = new WeakMap<Dataset, number>();
 
-let side = new Uint8Array(0);
 let found = new Int32Array(1024);
 
 /** Whether `auto` would use the tree for this dataset now. */
@@ -60,36 +60,39 @@ export function candidateCells(d: Dataset, ox: number, oy: number, oz: number, n
 
 /** Computes now what the first scan of `d` would (each piece's `cellLayout`), e.g. while a worker takes on its share. */
 export function prepareScan(d: Dataset): void {
-  for (const p of d.pieces) cellLayout(p);
+  for (const p of d.pieces) { cellLayout(p); blockBoxes(p); }
 }
 
 function scan(d: Dataset, ox: number, oy: number, oz: number, nx: number, ny: number, nz: number, tol: number): Int32Array {
   const starts = cellStarts(d);
   let nFound = 0;
   for (let k = 0; k < d.pieces.length; k++) {
-    const p = d.pieces[k]!, np = p.points.length / 3;
-    if (side.length < np) side = new Uint8Array(Math.max(np, 2 * side.length));
-    // Only the points this piece's cells use (a worker's share of the cells reaches part of the points).
-    const lay = cellLayout(p);
-    pointSides(p.points, lay.firstPoint, lay.endPoint, ox, oy, oz, nx, ny, nz, tol, side);
-    const m = lay.size;
-    if (m === 8) { nFound = crossingOf8(p.connectivity, lay.base, p.cellTypes.length, side, starts[k]!, nFound); continue; }
-    if (m === 4) { nFound = crossingOf4(p.connectivity, lay.base, p.cellTypes.length, side, starts[k]!, nFound); continue; }
+    const p = d.pieces[k]!, lay = cellLayout(p), boxes = blockBoxes(p), nc = p.cellTypes.length, g0 = starts[k]!;
     const pf = p.polyFaces;
-    nFound = crossingCellsOf(p.cellTypes, p.offsets, p.connectivity, pf?.faceConnectivity, pf?.faceOffsets, pf?.cellFaceStart, side, starts[k]!, nFound);
+    for (let b = 0, c0 = 0; c0 < nc; b++, c0 += CELL_BLOCK) {
+      // A block wholly on one side of the plane holds no candidate (see blockBoxes.ts): its cells are never read.
+      if (!boxMayCross(boxes, 6 * b, ox, oy, oz, nx, ny, nz, tol)) continue;
+      const c1 = Math.min(nc, c0 + CELL_BLOCK);
+      reserveFound(nFound + CELL_BLOCK);
+      if (lay.size === 8) nFound = blockOf8(p.points, p.connectivity, lay.base, c0, c1, ox, oy, oz, nx, ny, nz, tol, g0, found, nFound);
+      else if (lay.size === 4) nFound = blockOf4(p.points, p.connectivity, lay.base, c0, c1, ox, oy, oz, nx, ny, nz, tol, g0, found, nFound);
+      else {
+        nFound = blockOfAny(p.points, p.cellTypes, p.offsets, p.connectivity, pf?.faceConnectivity, pf?.faceOffsets, pf?.cellFaceStart,
+          ox, oy, oz, nx, ny, nz, tol, g0, c0, c1, found, nFound);
+      }
+    }
   }
   return found.subarray(0, nFound);
 }
 
 /**
- * One byte per point (1 below, 2 on, 4 above), so the per-cell pass ORs bytes instead of comparing doubles.
- * Each pass is its own small function so the engine optimises its loop on the first large file.
+ * Side code of point id `i` (1 below, 2 on, 4 above): the kernel's snapped signed distance, the same
+ * expression, so scan and kernel agree bit for bit. Cells OR their nodes' codes: 3, 5, 6, 7 mean a possible cut.
  */
-function pointSides(pts: Float64Array, first: number, end: number, ox: number, oy: number, oz: number, nx: number, ny: number, nz: number, tol: number, out: Uint8Array): void {
-  for (let i = first, j = 3 * first; i < end; i++, j += 3) {
-    const s = nx * (pts[j]! - ox) + ny * (pts[j + 1]! - oy) + nz * (pts[j + 2]! - oz);
-    out[i] = s <= tol && s >= -tol ? 2 : s < 0 ? 1 : 4;
-  }
+function sideOf(pts: Float64Array, i: number, ox: number, oy: number, oz: number, nx: number, ny: number, nz: number, tol: number): number {
+  const j = 3 * i;
+  const s = nx * (pts[j]! - ox) + ny * (pts[j + 1]! - oy) + nz * (pts[j + 2]! - oz);
+  return s <= tol && s >= -tol ? 2 : s < 0 ? 1 : 4;
 }
 
 /** Makes room in `found` for `n` entries. */
@@ -98,69 +101,45 @@ function reserveFound(n: number): void {
   const g = new Int32Array(Math.max(n, 2 * found.length)); g.set(found); found = g;
 }
 
-/**
- * Cells per block of the fixed-stride passes. Each block first makes room for all its cells, then its own
- * small function writes every cell's id and advances the count only for a crossing one: no branch that a
- * first pass over a file may not have taken yet when the engine optimises the loop, and no code after the
- * loop (a late branch, or the code after the loop, threw the optimised loop away mid-pass and compiled it
- * again, on the first cut of every file).
- */
-const SCAN_BLOCK = 4096;
-
 /** 1 for the cell types the cut kernel cuts (3D: the fixed types and polyhedra), 0 for every other byte value. */
 const SOLID = Uint8Array.from({ length: 256 }, (_, t) => (cellDimension(t) === 3 ? 1 : 0));
 
-/** `crossingCellsOf` for a piece of hexahedra only (8 nodes a cell, back to back); same test, same order. */
-function crossingOf8(conn: Int32Array, base: number, nc: number, side: Uint8Array, g0: number, nFound: number): number {
-  for (let c0 = 0; c0 < nc; c0 += SCAN_BLOCK) {
-    reserveFound(nFound + SCAN_BLOCK);
-    nFound = blockOf8(conn, base, c0, Math.min(nc, c0 + SCAN_BLOCK), side, g0, found, nFound);
-  }
-  return nFound;
-}
+/*
+ * The per-block passes write every cell's id and advance the count only for a crossing one (room is made
+ * before the call): no branch that a first pass over a file may not have taken yet when the engine optimises
+ * the loop, and no code after the loop (either threw the optimised loop away mid-pass on a file's first cut).
+ */
 
-function blockOf8(conn: Int32Array, base: number, c0: number, c1: number, side: Uint8Array, g0: number, out: Int32Array, nFound: number): number {
+/** Cells c0 … c1 − 1 of a piece of hexahedra only (8 nodes a cell, back to back from `base`). */
+function blockOf8(pts: Float64Array, conn: Int32Array, base: number, c0: number, c1: number, ox: number, oy: number, oz: number,
+  nx: number, ny: number, nz: number, tol: number, g0: number, out: Int32Array, nFound: number): number {
   for (let c = c0, q = base + 8 * c0; c < c1; c++, q += 8) {
-    const m = side[conn[q]!]! | side[conn[q + 1]!]! | side[conn[q + 2]!]! | side[conn[q + 3]!]!
-      | side[conn[q + 4]!]! | side[conn[q + 5]!]! | side[conn[q + 6]!]! | side[conn[q + 7]!]!;
+    const m = sideOf(pts, conn[q]!, ox, oy, oz, nx, ny, nz, tol) | sideOf(pts, conn[q + 1]!, ox, oy, oz, nx, ny, nz, tol)
+      | sideOf(pts, conn[q + 2]!, ox, oy, oz, nx, ny, nz, tol) | sideOf(pts, conn[q + 3]!, ox, oy, oz, nx, ny, nz, tol)
+      | sideOf(pts, conn[q + 4]!, ox, oy, oz, nx, ny, nz, tol) | sideOf(pts, conn[q + 5]!, ox, oy, oz, nx, ny, nz, tol)
+      | sideOf(pts, conn[q + 6]!, ox, oy, oz, nx, ny, nz, tol) | sideOf(pts, conn[q + 7]!, ox, oy, oz, nx, ny, nz, tol);
     out[nFound] = g0 + c;
     nFound += m === 3 || m >= 5 ? 1 : 0;
   }
   return nFound;
 }
 
-/** `crossingCellsOf` for a piece of tetrahedra only (4 nodes a cell, back to back); same test, same order. */
-function crossingOf4(conn: Int32Array, base: number, nc: number, side: Uint8Array, g0: number, nFound: number): number {
-  for (let c0 = 0; c0 < nc; c0 += SCAN_BLOCK) {
-    reserveFound(nFound + SCAN_BLOCK);
-    nFound = blockOf4(conn, base, c0, Math.min(nc, c0 + SCAN_BLOCK), side, g0, found, nFound);
-  }
-  return nFound;
-}
-
-function blockOf4(conn: Int32Array, base: number, c0: number, c1: number, side: Uint8Array, g0: number, out: Int32Array, nFound: number): number {
+/** Cells c0 … c1 − 1 of a piece of tetrahedra only (4 nodes a cell, back to back from `base`). */
+function blockOf4(pts: Float64Array, conn: Int32Array, base: number, c0: number, c1: number, ox: number, oy: number, oz: number,
+  nx: number, ny: number, nz: number, tol: number, g0: number, out: Int32Array, nFound: number): number {
   for (let c = c0, q = base + 4 * c0; c < c1; c++, q += 4) {
-    const m = side[conn[q]!]! | side[conn[q + 1]!]! | side[conn[q + 2]!]! | side[conn[q + 3]!]!;
+    const m = sideOf(pts, conn[q]!, ox, oy, oz, nx, ny, nz, tol) | sideOf(pts, conn[q + 1]!, ox, oy, oz, nx, ny, nz, tol)
+      | sideOf(pts, conn[q + 2]!, ox, oy, oz, nx, ny, nz, tol) | sideOf(pts, conn[q + 3]!, ox, oy, oz, nx, ny, nz, tol);
     out[nFound] = g0 + c;
     nFound += m === 3 || m >= 5 ? 1 : 0;
   }
   return nFound;
 }
 
-/** Appends to `found` (from `nFound`) the global ids (`g0` + local) of the 3D cells with nodes on both sides; returns the new count. */
-function crossingCellsOf(types: Uint8Array, off: Int32Array, conn: Int32Array, faceConn: Int32Array | undefined, faceOff: Int32Array | undefined,
-  cellFaceStart: Int32Array | undefined, side: Uint8Array, g0: number, nFound: number): number {
-  const nc = types.length;
-  for (let c0 = 0; c0 < nc; c0 += SCAN_BLOCK) {
-    reserveFound(nFound + SCAN_BLOCK);
-    nFound = blockOfAny(types, off, conn, faceConn, faceOff, cellFaceStart, side, g0, c0, Math.min(nc, c0 + SCAN_BLOCK), found, nFound);
-  }
-  return nFound;
-}
-
-/** `crossingCellsOf` over cells c0 … c1 − 1 (room for them is made by the caller; see `SCAN_BLOCK`). */
-function blockOfAny(types: Uint8Array, off: Int32Array, conn: Int32Array, faceConn: Int32Array | undefined, faceOff: Int32Array | undefined,
-  cellFaceStart: Int32Array | undefined, side: Uint8Array, g0: number, c0: number, c1: number, out: Int32Array, nFound: number): number {
+/** Cells c0 … c1 − 1 of any piece: the 3D cells with nodes on both sides (polyhedra by their face stream when their connectivity is empty). */
+function blockOfAny(pts: Float64Array, types: Uint8Array, off: Int32Array, conn: Int32Array, faceConn: Int32Array | undefined,
+  faceOff: Int32Array | undefined, cellFaceStart: Int32Array | undefined, ox: number, oy: number, oz: number,
+  nx: number, ny: number, nz: number, tol: number, g0: number, c0: number, c1: number, out: Int32Array, nFound: number): number {
   for (let c = c0; c < c1; c++) {
     const t = types[c]!;
     let a = off[c]!, b = off[c + 1]!, ids = conn;
@@ -168,7 +147,7 @@ function blockOfAny(types: Uint8Array, off: Int32Array, conn: Int32Array, faceCo
       ids = faceConn; a = faceOff[cellFaceStart[c]!]!; b = faceOff[cellFaceStart[c + 1]!]!;
     }
     let m = 0;
-    for (let q = a; q < b; q++) m |= side[ids[q]!]!;
+    for (let q = a; q < b; q++) m |= sideOf(pts, ids[q]!, ox, oy, oz, nx, ny, nz, tol);
     // A 3D cell below with anything else (3, 5, 7), or with on-plane nodes above the plane (6: a boundary
     // face may lie in it). Lower-dimensional cells (boundary faces stored with the volume) count for nothing.
     out[nFound] = g0 + c;

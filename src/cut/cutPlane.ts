@@ -30,7 +30,7 @@ import type { Piece } from '../model/piece.ts';
 import { candidateCells, prepareScan, type CandidateSource } from './crossingCells.ts';
 import { interpolateCutFields, type FieldRef } from './cutFields.ts';
 import { claimedFaceKeys, facePositionKey, forEachUnclaimedFace, recordPlaneFace, resetPlaneFaces } from './planeFaces.ts';
-import { fillPolygon } from './polygonFill.ts';
+import { resetOutput, takeOutput, triangleTotal, writePolygon } from './cutOutput.ts';
 import { unitVector, type TriangleSet, type Vec3 } from './triangleSet.ts';
 
 /** Options of `cutPlane`; every field optional. */
@@ -89,25 +89,6 @@ export interface CutStats {
   ms: number;
 }
 
-// ---- output buffers (grow, never shrink) ---------------------------------------------------------------
-let oPos = new Float64Array(3 * 4096), oEdge = new Int32Array(2 * 4096), oT = new Float64Array(4096);
-let oIdx = new Uint32Array(3 * 4096), oCell = new Int32Array(4096);
-let nV = 0, nT = 0;
-
-function reserve(verts: number, tris: number): void {
-  if (nV + verts > oT.length) {
-    const n = Math.max(2 * oT.length, nV + verts);
-    const p = new Float64Array(3 * n); p.set(oPos); oPos = p;
-    const e = new Int32Array(2 * n); e.set(oEdge); oEdge = e;
-    const t = new Float64Array(n); t.set(oT); oT = t;
-  }
-  if (nT + tris > oCell.length) {
-    const n = Math.max(2 * oCell.length, nT + tris);
-    const i = new Uint32Array(3 * n); i.set(oIdx); oIdx = i;
-    const c = new Int32Array(n); c.set(oCell); oCell = c;
-  }
-}
-
 // ---- per-cell scratch ----------------------------------------------------------------------------------
 let cP = new Int32Array(64), cD = new Float64Array(64);          // local node → piece point id, distance
 let fP = new Int32Array(64), fD = new Float64Array(64);          // one face: point ids, distances
@@ -115,7 +96,7 @@ let vA = new Int32Array(64), vB = new Int32Array(64), vT = new Float64Array(64);
 let vX = new Float64Array(64), vY = new Float64Array(64), vZ = new Float64Array(64);
 let sU = new Int32Array(64), sV = new Int32Array(64), sUsed = new Uint8Array(64);
 let fX = new Int32Array(64), fS = new Float64Array(64), fE = new Uint8Array(64);                   // one face's crossings, their sort keys
-let loop = new Int32Array(64), tri = new Int32Array(192), work = new Int32Array(64);
+let loop = new Int32Array(64);
 let nCv = 0, nSeg = 0;
 
 function ensureCell(n: number): void {
@@ -125,7 +106,7 @@ function ensureCell(n: number): void {
   vA = new Int32Array(m); vB = new Int32Array(m); vT = new Float64Array(m);
   vX = new Float64Array(m); vY = new Float64Array(m); vZ = new Float64Array(m);
   sU = new Int32Array(m); sV = new Int32Array(m); sUsed = new Uint8Array(m); fX = new Int32Array(m); fS = new Float64Array(m); fE = new Uint8Array(m);
-  loop = new Int32Array(m); tri = new Int32Array(3 * m); work = new Int32Array(m);
+  loop = new Int32Array(m);
 }
 
 /** Bit mask of the local nodes of each face of FACE_TABLE (fixed types have at most 12 nodes). */
@@ -248,30 +229,7 @@ function emitLoops(cell: number): boolean {
 
 /** Orients loop[0..m-1] (indices of cell crossings) about n, triangulates and writes it out. */
 function emitLoop(m: number, cell: number): boolean {
-  if (m < 3) return false;
-  const x0 = vX[loop[0]!]!, y0 = vY[loop[0]!]!, z0 = vZ[loop[0]!]!;
-  let area2 = 0;
-  for (let i = 1; i < m - 1; i++) {
-    const a = loop[i]!, b = loop[i + 1]!;
-    const ax = vX[a]! - x0, ay = vY[a]! - y0, az = vZ[a]! - z0, bx = vX[b]! - x0, by = vY[b]! - y0, bz = vZ[b]! - z0;
-    area2 += NX * (ay * bz - az * by) + NY * (az * bx - ax * bz) + NZ * (ax * by - ay * bx);
-  }
-  if (area2 === 0) return false;
-  if (area2 < 0) for (let i = 0, j = m - 1; i < j; i++, j--) { const s = loop[i]!; loop[i] = loop[j]!; loop[j] = s; }
-  const nt = fillPolygon(vX, vY, vZ, loop, m, NX, NY, NZ, tri, work);
-  reserve(m, nt);
-  const base = nV;
-  for (let i = 0; i < m; i++) {
-    const v = loop[i]!, o = nV++;
-    oPos[3 * o] = vX[v]!; oPos[3 * o + 1] = vY[v]!; oPos[3 * o + 2] = vZ[v]!;
-    oEdge[2 * o] = pointBase + vA[v]!; oEdge[2 * o + 1] = pointBase + vB[v]!; oT[o] = vT[v]!;
-  }
-  for (let t = 0; t < nt; t++) {
-    const o = nT++;
-    oIdx[3 * o] = base + tri[3 * t]!; oIdx[3 * o + 1] = base + tri[3 * t + 1]!; oIdx[3 * o + 2] = base + tri[3 * t + 2]!;
-    oCell[o] = cell;
-  }
-  return true;
+  return writePolygon(vX, vY, vZ, vA, vB, vT, loop, m, NX, NY, NZ, cell, pointBase);
 }
 
 /** Cuts cell c of the current piece (global id g); returns whether it produced triangles. */
@@ -397,14 +355,14 @@ export function cutPlane(dataset: Dataset, origin: Vec3, normal: Vec3, options: 
   OX = origin[0]; OY = origin[1]; OZ = origin[2]; NX = n[0]; NY = n[1]; NZ = n[2];
   const tol = opts.tolerance * datasetScale(dataset);
   TOL = tol;
-  nV = 0; nT = 0; openChains = 0;
+  openChains = 0;
   resetPlaneFaces();
   const { cells: found, used } = candidateCells(dataset, OX, OY, OZ, NX, NY, NZ, tol, opts.candidates);
   // Ascending ids: the same triangle order whichever search ran, and connectivity read in memory order.
   const cells = used === 'tree' ? found.sort() : found;
   const nCand = cells.length;
   // One allocation up front instead of repeated doubling: about four vertices and two triangles a cut cell.
-  reserve(4 * nCand, 2 * nCand);
+  resetOutput(4 * nCand, 2 * nCand);
   const starts = cellStarts(dataset), pStarts = pointStarts(dataset);
   const single = dataset.pieces.length === 1;
   let cutCells = 0, k = -1, piece: Piece | undefined;
@@ -417,19 +375,17 @@ export function cutPlane(dataset: Dataset, origin: Vec3, normal: Vec3, options: 
   const emitted: string[] = [], triStarts: number[] = [];
   const boundaryFaces = forEachUnclaimedFace(dataset.pieces, (kk, cell, ids, start, m) => {
     pts = dataset.pieces[kk]!.points; pointBase = pStarts[kk]!;
-    if (opts.planeFaceKeys) { emitted.push(facePositionKey(pts, ids, start, m)); triStarts.push(nT); }
+    if (opts.planeFaceKeys) { emitted.push(facePositionKey(pts, ids, start, m)); triStarts.push(triangleTotal()); }
     if (emitPlaneFace(ids, start, m, cell)) cutCells++;
   });
-  triStarts.push(nT);
+  triStarts.push(triangleTotal());
   const planeFaces = opts.planeFaceKeys
     ? { planeFaces: { emitted, triStart: Int32Array.from(triStarts), claimed: claimedFaceKeys(dataset.pieces) } } : {};
-  const positions = oPos.slice(0, 3 * nV), indices = oIdx.slice(0, 3 * nT), sourceCell = oCell.slice(0, nT);
-  const vertexEdges = oEdge.slice(0, 2 * nV), vertexT = oT.slice(0, nV);
   pts = new Float64Array(0);
-  const geometry = { positions, indices, sourceCell, vertexEdges, vertexT };
+  const geometry = takeOutput();
   const fields = interpolateCutFields(dataset, geometry, opts.fields);
   return {
-    ...geometry, fields, origin: [origin[0], origin[1], origin[2]], normal: n, empty: nT === 0,
+    ...geometry, fields, origin: [origin[0], origin[1], origin[2]], normal: n, empty: geometry.indices.length === 0,
     stats: { candidateCells: nCand, candidateSource: used, cutCells, boundaryFaces, openChains, tolerance: tol, ms: performance.now() - t0 },
     ...planeFaces,
   };
