@@ -20,6 +20,10 @@
  * cells below). Faces in the plane with no cell below — the mesh boundary — are added from the cell above
  * (`planeFaces.ts`). So a unit cube cut at any height, its two end faces included, has area 1.
  *
+ * Fast path: tetrahedra, voxels, hexahedra, wedges and pyramids with no node on the plane and no repeated
+ * node go through their case tables (`tableCut.ts`, `caseTables.ts`), which give this builder's loops vertex
+ * for vertex; every other cell comes here. Option `caseTables: false` sends every cell here.
+ *
  * Fields are not interpolated here: each vertex keeps its provenance (edge end points and parameter), and
  * `cutFields.ts` materialises only the fields asked for.
  */
@@ -31,6 +35,7 @@ import { candidateCells, prepareScan, type CandidateSource } from './crossingCel
 import { interpolateCutFields, type FieldRef } from './cutFields.ts';
 import { claimedFaceKeys, facePositionKey, forEachUnclaimedFace, recordPlaneFace, resetPlaneFaces } from './planeFaces.ts';
 import { resetOutput, takeOutput, triangleTotal, writePolygon } from './cutOutput.ts';
+import { cutByTable, setTablePlane, setTablePoints } from './tableCut.ts';
 import { unitVector, type TriangleSet, type Vec3 } from './triangleSet.ts';
 
 /** Options of `cutPlane`; every field optional. */
@@ -43,9 +48,15 @@ export interface CutOptions {
   candidates: CandidateSource;
   /** Keep the position keys of in-plane faces (`PlaneCut.planeFaces`), for the worker pool's merge of cell shares. Default false. */
   planeFaceKeys: boolean;
+  /**
+   * Cut the tetrahedra, voxels, hexahedra, wedges and pyramids with no node on the plane through their case
+   * tables (`caseTables.ts`, same triangles bit for bit); false sends every cell through the general polygon
+   * builder (for comparisons). Default true.
+   */
+  caseTables: boolean;
 }
 
-export const CUT_DEFAULTS: Readonly<CutOptions> = { fields: 'all', tolerance: 1e-10, candidates: 'auto', planeFaceKeys: false };
+export const CUT_DEFAULTS: Readonly<CutOptions> = { fields: 'all', tolerance: 1e-10, candidates: 'auto', planeFaceKeys: false, caseTables: true };
 
 /**
  * In-plane faces of a cut (only with `planeFaceKeys`): the faces this cut added from the cell above
@@ -80,6 +91,8 @@ export interface CutStats {
   candidateSource: 'tree' | 'scan';
   /** Cells that contributed triangles. */
   cutCells: number;
+  /** Of the candidate cells, those cut through the case tables (the rest went through the general builder). Absent from merged pool cuts. */
+  tableCells?: number;
   /** Boundary faces lying in the plane that were added from the cell above. */
   boundaryFaces: number;
   /** Chains of crossing segments that did not close (broken polyhedron face streams); dropped. */
@@ -355,6 +368,7 @@ export function cutPlane(dataset: Dataset, origin: Vec3, normal: Vec3, options: 
   OX = origin[0]; OY = origin[1]; OZ = origin[2]; NX = n[0]; NY = n[1]; NZ = n[2];
   const tol = opts.tolerance * datasetScale(dataset);
   TOL = tol;
+  setTablePlane(OX, OY, OZ, NX, NY, NZ, tol);
   openChains = 0;
   resetPlaneFaces();
   const { cells: found, used } = candidateCells(dataset, OX, OY, OZ, NX, NY, NZ, tol, opts.candidates);
@@ -366,11 +380,16 @@ export function cutPlane(dataset: Dataset, origin: Vec3, normal: Vec3, options: 
   const starts = cellStarts(dataset), pStarts = pointStarts(dataset);
   const single = dataset.pieces.length === 1;
   let cutCells = 0, k = -1, piece: Piece | undefined;
+  const tables = opts.caseTables;
+  let tableCells = 0;
   for (let i = 0; i < nCand; i++) {
     const g = cells[i]!;
     const kk = single ? 0 : pieceOfCell(starts, g);
-    if (kk !== k) { k = kk; piece = dataset.pieces[k]!; pts = piece.points; pointBase = pStarts[k]!; }
-    if (cutCell(piece!, k, g - starts[k]!, g)) cutCells++;
+    if (kk !== k) { k = kk; piece = dataset.pieces[k]!; pts = piece.points; pointBase = pStarts[k]!; setTablePoints(pts); }
+    const c = g - starts[k]!;
+    const r = tables ? cutByTable(piece!.cellTypes, piece!.offsets, piece!.connectivity, c, g, pointBase) : -1;
+    tableCells += r < 0 ? 0 : 1;
+    if (r < 0 ? cutCell(piece!, k, c, g) : r === 1) cutCells++;
   }
   const emitted: string[] = [], triStarts: number[] = [];
   const boundaryFaces = forEachUnclaimedFace(dataset.pieces, (kk, cell, ids, start, m) => {
@@ -382,11 +401,12 @@ export function cutPlane(dataset: Dataset, origin: Vec3, normal: Vec3, options: 
   const planeFaces = opts.planeFaceKeys
     ? { planeFaces: { emitted, triStart: Int32Array.from(triStarts), claimed: claimedFaceKeys(dataset.pieces) } } : {};
   pts = new Float64Array(0);
+  setTablePoints(pts);
   const geometry = takeOutput();
   const fields = interpolateCutFields(dataset, geometry, opts.fields);
   return {
     ...geometry, fields, origin: [origin[0], origin[1], origin[2]], normal: n, empty: geometry.indices.length === 0,
-    stats: { candidateCells: nCand, candidateSource: used, cutCells, boundaryFaces, openChains, tolerance: tol, ms: performance.now() - t0 },
+    stats: { candidateCells: nCand, candidateSource: used, cutCells, tableCells, boundaryFaces, openChains, tolerance: tol, ms: performance.now() - t0 },
     ...planeFaces,
   };
 }
