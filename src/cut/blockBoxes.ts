@@ -7,7 +7,8 @@
  *
  * Layout: `Float64Array` of 6 numbers per block — min x, min y, min z, max x, max y, max z (file's length
  * unit) — over the point ids the scan reads for the block's cells (a polyhedron stored with empty
- * connectivity: its face stream). A block of cells with no nodes keeps +∞/−∞ and is never a candidate.
+ * connectivity: its face stream). A block of cells with no nodes keeps +∞/−∞ (its test is NaN, so it is
+ * scanned, and yields nothing).
  */
 import { CellType } from '../model/cellTypes.ts';
 import type { Piece } from '../model/piece.ts';
@@ -22,6 +23,14 @@ const cache = new WeakMap<Int32Array, { types: Uint8Array; conn: Int32Array; poi
 export function hasBlockBoxes(p: Piece): boolean {
   const hit = cache.get(p.offsets);
   return !!hit && hit.types === p.cellTypes && hit.conn === p.connectivity && hit.points === p.points;
+}
+
+/**
+ * Keeps `boxes` as the block boxes of `p` (for a scan that computed them on its way, see `crossingCells.ts`);
+ * they must be what `blockBoxes` would compute.
+ */
+export function keepBlockBoxes(p: Piece, boxes: Float64Array): void {
+  cache.set(p.offsets, { types: p.cellTypes, conn: p.connectivity, points: p.points, boxes });
 }
 
 /** The block boxes of piece `p` (see the file comment), computed on the first call for these arrays. */

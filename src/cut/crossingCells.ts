@@ -22,7 +22,8 @@ import { cellDimension, CellType } from '../model/cellTypes.ts';
 import { cellStarts, type Dataset } from '../model/dataset.ts';
 import { cellsCrossingPlane, getCellTree, hasCellTree } from '../locate/cellTree.ts';
 import { cellLayout } from '../model/uniformCells.ts';
-import { blockBoxes, boxMayCross, CELL_BLOCK } from './blockBoxes.ts';
+import { blockBoxes, boxMayCross, CELL_BLOCK, hasBlockBoxes, keepBlockBoxes } from './blockBoxes.ts';
+import type { Piece } from '../model/piece.ts';
 
 export type CandidateSource = 'auto' | 'tree' | 'scan';
 
@@ -67,8 +68,13 @@ function scan(d: Dataset, ox: number, oy: number, oz: number, nx: number, ny: nu
   const starts = cellStarts(d);
   let nFound = 0;
   for (let k = 0; k < d.pieces.length; k++) {
-    const p = d.pieces[k]!, lay = cellLayout(p), boxes = blockBoxes(p), nc = p.cellTypes.length, g0 = starts[k]!;
-    const pf = p.polyFaces;
+    const p = d.pieces[k]!, lay = cellLayout(p), nc = p.cellTypes.length, g0 = starts[k]!;
+    if (lay.size > 0 && !hasBlockBoxes(p)) {
+      // First scan of a single-type piece: its block boxes come from the same reads of the nodes.
+      nFound = firstScan(p, lay.base, lay.size, ox, oy, oz, nx, ny, nz, tol, g0, nFound);
+      continue;
+    }
+    const boxes = blockBoxes(p), pf = p.polyFaces;
     for (let b = 0, c0 = 0; c0 < nc; b++, c0 += CELL_BLOCK) {
       // A block wholly on one side of the plane holds no candidate (see blockBoxes.ts): its cells are never read.
       if (!boxMayCross(boxes, 6 * b, ox, oy, oz, nx, ny, nz, tol)) continue;
@@ -83,6 +89,42 @@ function scan(d: Dataset, ox: number, oy: number, oz: number, nx: number, ny: nu
     }
   }
   return found.subarray(0, nFound);
+}
+
+/** Every block of a single-type piece (`size` nodes a cell): its candidates and its box, kept for later scans. */
+function firstScan(p: Piece, base: number, size: number, ox: number, oy: number, oz: number, nx: number, ny: number, nz: number,
+  tol: number, g0: number, nFound: number): number {
+  const nc = p.cellTypes.length, boxes = new Float64Array(6 * Math.ceil(nc / CELL_BLOCK));
+  for (let b = 0, c0 = 0; c0 < nc; b++, c0 += CELL_BLOCK) {
+    reserveFound(nFound + CELL_BLOCK);
+    nFound = boxAndScan(p.points, p.connectivity, size, base, c0, Math.min(nc, c0 + CELL_BLOCK), ox, oy, oz, nx, ny, nz, tol, g0, found, nFound, boxes, 6 * b);
+  }
+  keepBlockBoxes(p, boxes);
+  return nFound;
+}
+
+/**
+ * Cells c0 … c1 − 1 of a single-type piece: appends the candidates as `blockOf8` does and writes the box of
+ * their nodes at `boxes[o … o + 5]` as `blockBoxes` does — one read of each node for both.
+ */
+function boxAndScan(pts: Float64Array, conn: Int32Array, size: number, base: number, c0: number, c1: number, ox: number, oy: number, oz: number,
+  nx: number, ny: number, nz: number, tol: number, g0: number, out: Int32Array, nFound: number, boxes: Float64Array, o: number): number {
+  let x0 = Infinity, y0 = Infinity, z0 = Infinity, x1 = -Infinity, y1 = -Infinity, z1 = -Infinity;
+  for (let c = c0, q = base + size * c0; c < c1; c++) {
+    let m = 0;
+    for (const qe = q + size; q < qe; q++) {
+      const j = 3 * conn[q]!, x = pts[j]!, y = pts[j + 1]!, z = pts[j + 2]!;
+      x0 = x < x0 ? x : x0; x1 = x > x1 ? x : x1;
+      y0 = y < y0 ? y : y0; y1 = y > y1 ? y : y1;
+      z0 = z < z0 ? z : z0; z1 = z > z1 ? z : z1;
+      const s = nx * (x - ox) + ny * (y - oy) + nz * (z - oz);
+      m |= s <= tol && s >= -tol ? 2 : s < 0 ? 1 : 4;
+    }
+    out[nFound] = g0 + c;
+    nFound += m === 3 || m >= 5 ? 1 : 0;
+  }
+  boxes[o] = x0; boxes[o + 1] = y0; boxes[o + 2] = z0; boxes[o + 3] = x1; boxes[o + 4] = y1; boxes[o + 5] = z1;
+  return nFound;
 }
 
 /**
