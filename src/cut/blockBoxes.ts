@@ -27,7 +27,7 @@ export function hasBlockBoxes(p: Piece): boolean {
 
 /**
  * Keeps `boxes` as the block boxes of `p` (for a scan that computed them on its way, see `crossingCells.ts`);
- * they must be what `blockBoxes` would compute.
+ * each must hold every node of its block's cells (it may be larger than `blockBoxes` would make it).
  */
 export function keepBlockBoxes(p: Piece, boxes: Float64Array): void {
   cache.set(p.offsets, { types: p.cellTypes, conn: p.connectivity, points: p.points, boxes });

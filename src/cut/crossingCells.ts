@@ -91,34 +91,78 @@ function scan(d: Dataset, ox: number, oy: number, oz: number, nx: number, ny: nu
   return found.subarray(0, nFound);
 }
 
-/** Every block of a single-type piece (`size` nodes a cell): its candidates and its box, kept for later scans. */
+/** Points per point block of the first scan: the blocks whose boxes make up a cell block's box. */
+const POINT_BLOCK_SHIFT = 5;
+let side = new Uint8Array(0), pointBox = new Float64Array(0), stamp = new Int32Array(0);
+
+/**
+ * The first scan of a single-type piece (`size` nodes a cell), which also leaves the piece's block boxes for
+ * later scans at little extra cost. One pass over the points: a side byte per point (1 below, 2 on, 4 above)
+ * and the box of each run of 2^POINT_BLOCK_SHIFT consecutive points. Then per block of cells: the OR of
+ * its nodes' side bytes per cell (the candidates, exactly as the later scans select them) and, on the first
+ * node of each point run the block touches, that run's box joined into the block's box. A block's box then
+ * holds every node of its cells (it may be larger than their own box, never smaller), so a later scan that
+ * skips it on this box skips no candidate.
+ */
 function firstScan(p: Piece, base: number, size: number, ox: number, oy: number, oz: number, nx: number, ny: number, nz: number,
   tol: number, g0: number, nFound: number): number {
-  const nc = p.cellTypes.length, boxes = new Float64Array(6 * Math.ceil(nc / CELL_BLOCK));
+  const nc = p.cellTypes.length, np = p.points.length / 3, nRuns = (np >> POINT_BLOCK_SHIFT) + 1;
+  const lay = cellLayout(p);
+  if (side.length < np) side = new Uint8Array(Math.max(np, 2 * side.length));
+  if (pointBox.length < 6 * nRuns) pointBox = new Float64Array(Math.max(6 * nRuns, 2 * pointBox.length));
+  if (stamp.length < nRuns) stamp = new Int32Array(Math.max(nRuns, 2 * stamp.length));
+  stamp.fill(0, 0, nRuns);
+  pointSidesAndRuns(p.points, lay.firstPoint, lay.endPoint, ox, oy, oz, nx, ny, nz, tol, side, pointBox);
+  const boxes = new Float64Array(6 * Math.ceil(nc / CELL_BLOCK));
   for (let b = 0, c0 = 0; c0 < nc; b++, c0 += CELL_BLOCK) {
     reserveFound(nFound + CELL_BLOCK);
-    nFound = boxAndScan(p.points, p.connectivity, size, base, c0, Math.min(nc, c0 + CELL_BLOCK), ox, oy, oz, nx, ny, nz, tol, g0, found, nFound, boxes, 6 * b);
+    nFound = sidesAndBox(p.connectivity, size, base, c0, Math.min(nc, c0 + CELL_BLOCK), side, g0, found, nFound, b + 1, stamp, pointBox, boxes, 6 * b);
   }
   keepBlockBoxes(p, boxes);
   return nFound;
 }
 
+/** Side byte of points first … end − 1 into `out`, and the box of each run of points (`runs`, 6 numbers a run; runs partly outside the range cover their part inside). */
+function pointSidesAndRuns(pts: Float64Array, first: number, end: number, ox: number, oy: number, oz: number, nx: number, ny: number, nz: number,
+  tol: number, out: Uint8Array, runs: Float64Array): void {
+  for (let r0 = first; r0 < end; r0 = ((r0 >> POINT_BLOCK_SHIFT) + 1) << POINT_BLOCK_SHIFT) {
+    sidesOfRun(pts, r0, Math.min(end, ((r0 >> POINT_BLOCK_SHIFT) + 1) << POINT_BLOCK_SHIFT), ox, oy, oz, nx, ny, nz, tol, out, runs, 6 * (r0 >> POINT_BLOCK_SHIFT));
+  }
+}
+
+function sidesOfRun(pts: Float64Array, i0: number, i1: number, ox: number, oy: number, oz: number, nx: number, ny: number, nz: number,
+  tol: number, out: Uint8Array, runs: Float64Array, o: number): void {
+  let x0 = Infinity, y0 = Infinity, z0 = Infinity, x1 = -Infinity, y1 = -Infinity, z1 = -Infinity;
+  for (let i = i0, j = 3 * i0; i < i1; i++, j += 3) {
+    const x = pts[j]!, y = pts[j + 1]!, z = pts[j + 2]!;
+    x0 = x < x0 ? x : x0; x1 = x > x1 ? x : x1;
+    y0 = y < y0 ? y : y0; y1 = y > y1 ? y : y1;
+    z0 = z < z0 ? z : z0; z1 = z > z1 ? z : z1;
+    const s = nx * (x - ox) + ny * (y - oy) + nz * (z - oz);
+    out[i] = s <= tol && s >= -tol ? 2 : s < 0 ? 1 : 4;
+  }
+  runs[o] = x0; runs[o + 1] = y0; runs[o + 2] = z0; runs[o + 3] = x1; runs[o + 4] = y1; runs[o + 5] = z1;
+}
+
 /**
- * Cells c0 … c1 − 1 of a single-type piece: appends the candidates as `blockOf8` does and writes the box of
- * their nodes at `boxes[o … o + 5]` as `blockBoxes` does — one read of each node for both.
+ * Cells c0 … c1 − 1 of a single-type piece: appends the candidates (as `blockOf8`/`blockOf4` select them)
+ * and writes at `boxes[o … o + 5]` the join of the boxes of the point runs their nodes lie in (each run once,
+ * marked with `mark` in `stamp`).
  */
-function boxAndScan(pts: Float64Array, conn: Int32Array, size: number, base: number, c0: number, c1: number, ox: number, oy: number, oz: number,
-  nx: number, ny: number, nz: number, tol: number, g0: number, out: Int32Array, nFound: number, boxes: Float64Array, o: number): number {
+function sidesAndBox(conn: Int32Array, size: number, base: number, c0: number, c1: number, side: Uint8Array, g0: number, out: Int32Array,
+  nFound: number, mark: number, stamp: Int32Array, runs: Float64Array, boxes: Float64Array, o: number): number {
   let x0 = Infinity, y0 = Infinity, z0 = Infinity, x1 = -Infinity, y1 = -Infinity, z1 = -Infinity;
   for (let c = c0, q = base + size * c0; c < c1; c++) {
     let m = 0;
     for (const qe = q + size; q < qe; q++) {
-      const j = 3 * conn[q]!, x = pts[j]!, y = pts[j + 1]!, z = pts[j + 2]!;
-      x0 = x < x0 ? x : x0; x1 = x > x1 ? x : x1;
-      y0 = y < y0 ? y : y0; y1 = y > y1 ? y : y1;
-      z0 = z < z0 ? z : z0; z1 = z > z1 ? z : z1;
-      const s = nx * (x - ox) + ny * (y - oy) + nz * (z - oz);
-      m |= s <= tol && s >= -tol ? 2 : s < 0 ? 1 : 4;
+      const id = conn[q]!, r = id >> POINT_BLOCK_SHIFT;
+      m |= side[id]!;
+      if (stamp[r] !== mark) {
+        stamp[r] = mark;
+        const k = 6 * r;
+        x0 = Math.min(x0, runs[k]!); y0 = Math.min(y0, runs[k + 1]!); z0 = Math.min(z0, runs[k + 2]!);
+        x1 = Math.max(x1, runs[k + 3]!); y1 = Math.max(y1, runs[k + 4]!); z1 = Math.max(z1, runs[k + 5]!);
+      }
     }
     out[nFound] = g0 + c;
     nFound += m === 3 || m >= 5 ? 1 : 0;

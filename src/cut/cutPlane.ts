@@ -298,6 +298,28 @@ function cutCell(p: Piece, k: number, c: number, g: number): boolean {
   return emitLoops(g);
 }
 
+let runCut = 0, runTable = 0;
+
+/**
+ * Cuts the candidates cells[i0 …] of piece k (global ids g0 … gEnd − 1) up to the first of another piece, whose
+ * index it returns; counts cells with triangles in `runCut` and cells cut by table in `runTable`. A function
+ * of its own, with nothing after its loop but the counts, so the engine optimises the loop once and keeps it.
+ */
+function cutRun(piece: Piece, k: number, cells: Int32Array, i0: number, nCand: number, g0: number, gEnd: number, tables: boolean): number {
+  const types = piece.cellTypes, off = piece.offsets, conn = piece.connectivity, base = pointBase;
+  let i = i0, cut = 0, viaTable = 0;
+  for (; i < nCand; i++) {
+    const g = cells[i]!;
+    if (g >= gEnd) break;
+    const c = g - g0;
+    const r = tables ? cutByTable(types, off, conn, c, g, base) : -1;
+    viaTable += r < 0 ? 0 : 1;
+    cut += (r < 0 ? cutCell(piece, k, c, g) : r === 1) ? 1 : 0;
+  }
+  runCut = cut; runTable = viaTable;
+  return i;
+}
+
 /** Records the in-plane faces of an above-plane cell as candidates. */
 function planeFacesOf(p: Piece, k: number, c: number, g: number, t: number): void {
   if (t === CellType.POLYHEDRON) {
@@ -378,18 +400,15 @@ export function cutPlane(dataset: Dataset, origin: Vec3, normal: Vec3, options: 
   // One allocation up front instead of repeated doubling: about four vertices and two triangles a cut cell.
   resetOutput(4 * nCand, 2 * nCand);
   const starts = cellStarts(dataset), pStarts = pointStarts(dataset);
-  const single = dataset.pieces.length === 1;
-  let cutCells = 0, k = -1, piece: Piece | undefined;
   const tables = opts.caseTables;
-  let tableCells = 0;
-  for (let i = 0; i < nCand; i++) {
-    const g = cells[i]!;
-    const kk = single ? 0 : pieceOfCell(starts, g);
-    if (kk !== k) { k = kk; piece = dataset.pieces[k]!; pts = piece.points; pointBase = pStarts[k]!; setTablePoints(pts); }
-    const c = g - starts[k]!;
-    const r = tables ? cutByTable(piece!.cellTypes, piece!.offsets, piece!.connectivity, c, g, pointBase) : -1;
-    tableCells += r < 0 ? 0 : 1;
-    if (r < 0 ? cutCell(piece!, k, c, g) : r === 1) cutCells++;
+  let cutCells = 0, tableCells = 0;
+  // Candidates ascend, so each piece's come as one run.
+  for (let i = 0; i < nCand;) {
+    const k = dataset.pieces.length === 1 ? 0 : pieceOfCell(starts, cells[i]!), piece = dataset.pieces[k]!;
+    pts = piece.points; pointBase = pStarts[k]!; setTablePoints(pts);
+    const end = cutRun(piece, k, cells, i, nCand, starts[k]!, starts[k]! + piece.cellTypes.length, tables);
+    cutCells += runCut; tableCells += runTable;
+    i = end;
   }
   const emitted: string[] = [], triStarts: number[] = [];
   const boundaryFaces = forEachUnclaimedFace(dataset.pieces, (kk, cell, ids, start, m) => {
