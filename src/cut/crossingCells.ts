@@ -4,19 +4,24 @@
  * Two sources, same answer up to extra candidates (the kernel decides exactly):
  *  - `tree`: the flat bounding-box tree of `src/locate/cellTree.ts` (built once per dataset, then each query
  *    visits only the boxes the plane touches);
- *  - `scan`: signed distances of every point, then a sign test per cell — no set-up cost, a full pass per cut.
+ *  - `scan`: a sign test per cell (side code of each node: below, on or above the plane, OR-ed), over the
+ *    blocks of `CELL_BLOCK` consecutive cells whose box the plane may meet (`blockBoxes.ts`). The first scan
+ *    of a single-type piece reads every cell and leaves the block boxes behind at little extra cost (boxes of
+ *    32-point runs joined per block); a later scan tests the boxes first and reads only the crossed blocks —
+ *    by coordinates per node when they are few, by a side byte per point when they hold more node
+ *    references than the piece has points. Pool workers compute the boxes of their share as they take it on.
+ *    The scan returns exactly the cells the rule selects, in ascending order, whichever way it went.
  * `auto` uses the tree when it is already built for this dataset (by a probe, or by an earlier cut), and
  * otherwise scans, building the tree only on the cut that follows `AUTO_SCANS` scans of the same dataset.
  *
- * Why `AUTO_SCANS` is 12 (measured on the 1M-cell benchmark files, pipe-hex-1M appended raw, CPU time of
- * one process, warm kernels, machine under load): the tree build costs about 335 ms; a cut whose
- * candidates come from the scan costs 34 ms (near cross-section) to 65 ms (oblique plane through the
- * axis), from the tree 6 to 47 ms — the tree saves 18–28 ms a cut. Building it on the second cut (the
- * old setting) made that cut six times slower than a scan. Renting the scan until the rent paid reaches
- * about the purchase price (twelve cuts × ~25 ms ≈ the build) never costs more than twice the better of
- * the two choices made in hindsight (the classic rent-or-buy bound), and a session that drags a plane
- * through a large file still gets the tree after a dozen frames. A line or point probe builds the tree
- * anyway; every cut after that uses it.
+ * Why `AUTO_SCANS` is 12 (measured before the block boxes, on pipe-hex-1M appended raw, CPU time of one
+ * process, warm kernels, machine under load): the tree build costs about 335 ms; a cut whose candidates
+ * came from the full scan cost 34 ms (near cross-section) to 65 ms (oblique plane through the axis), from
+ * the tree 6 to 47 ms. Renting the scan until the rent paid reaches about the purchase price never costs
+ * more than twice the better of the two choices made in hindsight (the classic rent-or-buy bound). With the
+ * block boxes a later scan costs 0.4 ms (near cross-section) to 11 ms (oblique) on that file, so the bound
+ * now favours scanning longer; the number is kept so a session's first dozen cuts behave as before, and a
+ * line or point probe builds the tree anyway.
  */
 import { cellDimension, CellType } from '../model/cellTypes.ts';
 import { cellStarts, type Dataset } from '../model/dataset.ts';
@@ -74,13 +79,21 @@ function scan(d: Dataset, ox: number, oy: number, oz: number, nx: number, ny: nu
       nFound = firstScan(p, lay.base, lay.size, ox, oy, oz, nx, ny, nz, tol, g0, nFound);
       continue;
     }
-    const boxes = blockBoxes(p), pf = p.polyFaces;
-    for (let b = 0, c0 = 0; c0 < nc; b++, c0 += CELL_BLOCK) {
-      // A block wholly on one side of the plane holds no candidate (see blockBoxes.ts): its cells are never read.
-      if (!boxMayCross(boxes, 6 * b, ox, oy, oz, nx, ny, nz, tol)) continue;
-      const c1 = Math.min(nc, c0 + CELL_BLOCK);
+    const boxes = blockBoxes(p), pf = p.polyFaces, nb = boxes.length / 6;
+    // The blocks the plane may cross (see blockBoxes.ts); the others hold no candidate and are never read.
+    if (crossing.length < nb) crossing = new Int32Array(Math.max(nb, 2 * crossing.length));
+    const nCross = blocksMayCross(boxes, nb, ox, oy, oz, nx, ny, nz, tol, crossing);
+    // Many crossed blocks: side bytes of every point once, then bytes per node (cheaper than coordinates per node).
+    const bytes = lay.size > 0 && nCross * CELL_BLOCK * lay.size > lay.endPoint - lay.firstPoint;
+    if (bytes) {
+      if (side.length < lay.endPoint) side = new Uint8Array(Math.max(lay.endPoint, 2 * side.length));
+      pointSides(p.points, lay.firstPoint, lay.endPoint, ox, oy, oz, nx, ny, nz, tol, side);
+    }
+    for (let i = 0; i < nCross; i++) {
+      const c0 = crossing[i]! * CELL_BLOCK, c1 = Math.min(nc, c0 + CELL_BLOCK);
       reserveFound(nFound + CELL_BLOCK);
-      if (lay.size === 8) nFound = blockOf8(p.points, p.connectivity, lay.base, c0, c1, ox, oy, oz, nx, ny, nz, tol, g0, found, nFound);
+      if (bytes) nFound = sideBytesOf(p.connectivity, lay.size, lay.base, c0, c1, side, g0, found, nFound);
+      else if (lay.size === 8) nFound = blockOf8(p.points, p.connectivity, lay.base, c0, c1, ox, oy, oz, nx, ny, nz, tol, g0, found, nFound);
       else if (lay.size === 4) nFound = blockOf4(p.points, p.connectivity, lay.base, c0, c1, ox, oy, oz, nx, ny, nz, tol, g0, found, nFound);
       else {
         nFound = blockOfAny(p.points, p.cellTypes, p.offsets, p.connectivity, pf?.faceConnectivity, pf?.faceOffsets, pf?.cellFaceStart,
@@ -91,8 +104,38 @@ function scan(d: Dataset, ox: number, oy: number, oz: number, nx: number, ny: nu
   return found.subarray(0, nFound);
 }
 
+/** Writes the indices of the blocks whose box may meet the plane into `out`; returns their count. */
+function blocksMayCross(boxes: Float64Array, nb: number, ox: number, oy: number, oz: number, nx: number, ny: number, nz: number, tol: number, out: Int32Array): number {
+  let n = 0;
+  for (let b = 0; b < nb; b++) {
+    out[n] = b;
+    n += boxMayCross(boxes, 6 * b, ox, oy, oz, nx, ny, nz, tol) ? 1 : 0;
+  }
+  return n;
+}
+
+/** Side byte (1 below, 2 on, 4 above) of points first … end − 1 into `out`. */
+function pointSides(pts: Float64Array, first: number, end: number, ox: number, oy: number, oz: number, nx: number, ny: number, nz: number, tol: number, out: Uint8Array): void {
+  for (let i = first, j = 3 * first; i < end; i++, j += 3) {
+    const s = nx * (pts[j]! - ox) + ny * (pts[j + 1]! - oy) + nz * (pts[j + 2]! - oz);
+    out[i] = s <= tol && s >= -tol ? 2 : s < 0 ? 1 : 4;
+  }
+}
+
+/** Cells c0 … c1 − 1 of a single-type piece (`size` nodes a cell) by their nodes' side bytes; same test as `blockOf8`. */
+function sideBytesOf(conn: Int32Array, size: number, base: number, c0: number, c1: number, side: Uint8Array, g0: number, out: Int32Array, nFound: number): number {
+  for (let c = c0, q = base + size * c0; c < c1; c++) {
+    let m = 0;
+    for (const qe = q + size; q < qe; q++) m |= side[conn[q]!]!;
+    out[nFound] = g0 + c;
+    nFound += m === 3 || m >= 5 ? 1 : 0;
+  }
+  return nFound;
+}
+
 /** Points per point block of the first scan: the blocks whose boxes make up a cell block's box. */
 const POINT_BLOCK_SHIFT = 5;
+let crossing = new Int32Array(0);
 let side = new Uint8Array(0), pointBox = new Float64Array(0), stamp = new Int32Array(0);
 
 /**
