@@ -76,7 +76,9 @@ function scan(d: Dataset, ox: number, oy: number, oz: number, nx: number, ny: nu
     const p = d.pieces[k]!, lay = cellLayout(p), nc = p.cellTypes.length, g0 = starts[k]!;
     if (lay.size > 0 && !hasBlockBoxes(p)) {
       // First scan of a single-type piece: its block boxes come from the same reads of the nodes.
-      nFound = firstScan(p, lay.base, lay.size, ox, oy, oz, nx, ny, nz, tol, g0, nFound);
+      const boxes = new Float64Array(6 * Math.ceil(nc / CELL_BLOCK));
+      nFound = firstScan(p, lay.base, lay.size, ox, oy, oz, nx, ny, nz, tol, g0, nFound, boxes);
+      keepBlockBoxes(p, boxes);
       continue;
     }
     const boxes = blockBoxes(p), pf = p.polyFaces, nb = boxes.length / 6;
@@ -145,10 +147,10 @@ let side = new Uint8Array(0), pointBox = new Float64Array(0), stamp = new Int32A
  * its nodes' side bytes per cell (the candidates, exactly as the later scans select them) and, on the first
  * node of each point run the block touches, that run's box joined into the block's box. A block's box then
  * holds every node of its cells (it may be larger than their own box, never smaller), so a later scan that
- * skips it on this box skips no candidate.
+ * skips it on this box skips no candidate. Writes the boxes into `boxes` (6 numbers a block).
  */
 function firstScan(p: Piece, base: number, size: number, ox: number, oy: number, oz: number, nx: number, ny: number, nz: number,
-  tol: number, g0: number, nFound: number): number {
+  tol: number, g0: number, nFound: number, boxes: Float64Array): number {
   const nc = p.cellTypes.length, np = p.points.length / 3, nRuns = (np >> POINT_BLOCK_SHIFT) + 1;
   const lay = cellLayout(p);
   if (side.length < np) side = new Uint8Array(Math.max(np, 2 * side.length));
@@ -156,12 +158,10 @@ function firstScan(p: Piece, base: number, size: number, ox: number, oy: number,
   if (stamp.length < nRuns) stamp = new Int32Array(Math.max(nRuns, 2 * stamp.length));
   stamp.fill(0, 0, nRuns);
   pointSidesAndRuns(p.points, lay.firstPoint, lay.endPoint, ox, oy, oz, nx, ny, nz, tol, side, pointBox);
-  const boxes = new Float64Array(6 * Math.ceil(nc / CELL_BLOCK));
   for (let b = 0, c0 = 0; c0 < nc; b++, c0 += CELL_BLOCK) {
     reserveFound(nFound + CELL_BLOCK);
     nFound = sidesAndBox(p.connectivity, size, base, c0, Math.min(nc, c0 + CELL_BLOCK), side, g0, found, nFound, b + 1, stamp, pointBox, boxes, 6 * b);
   }
-  keepBlockBoxes(p, boxes);
   return nFound;
 }
 
