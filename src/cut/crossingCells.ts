@@ -64,7 +64,7 @@ export function candidateCells(d: Dataset, ox: number, oy: number, oz: number, n
   return { cells: scan(d, ox, oy, oz, nx, ny, nz, tol), used: 'scan' };
 }
 
-/** Computes now what the first scan of `d` would (each piece's `cellLayout`), e.g. while a worker takes on its share. */
+/** Computes now what the first scan of `d` would (each piece's `cellLayout` and block boxes), e.g. while a worker takes on its share. */
 export function prepareScan(d: Dataset): void {
   for (const p of d.pieces) { cellLayout(p); blockBoxes(p); }
 }
@@ -75,7 +75,7 @@ function scan(d: Dataset, ox: number, oy: number, oz: number, nx: number, ny: nu
   for (let k = 0; k < d.pieces.length; k++) {
     const p = d.pieces[k]!, lay = cellLayout(p), nc = p.cellTypes.length, g0 = starts[k]!;
     if (lay.size > 0 && !hasBlockBoxes(p)) {
-      // First scan of a single-type piece: its block boxes come from the same reads of the nodes.
+      // First scan of a single-type piece: every cell is read, and the block boxes come out of the same pass.
       const boxes = new Float64Array(6 * Math.ceil(nc / CELL_BLOCK));
       nFound = firstScan(p, lay.base, lay.size, ox, oy, oz, nx, ny, nz, tol, g0, nFound, boxes);
       keepBlockBoxes(p, boxes);
