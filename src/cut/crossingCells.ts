@@ -4,24 +4,31 @@
  * Two sources, same answer up to extra candidates (the kernel decides exactly):
  *  - `tree`: the flat bounding-box tree of `src/locate/cellTree.ts` (built once per dataset, then each query
  *    visits only the boxes the plane touches);
- *  - `scan`: signed distances of every point, then a sign test per cell — no set-up cost, a full pass per cut.
+ *  - `scan`: a sign test per cell (side code of each node: below, on or above the plane, OR-ed), over the
+ *    blocks of `CELL_BLOCK` consecutive cells whose box the plane may meet (`blockBoxes.ts`). The first scan
+ *    of a single-type piece reads every cell and leaves the block boxes behind at little extra cost (boxes of
+ *    32-point runs joined per block); a later scan tests the boxes first and reads only the crossed blocks —
+ *    by coordinates per node when they are few, by a side byte per point when they hold more node
+ *    references than the piece has points. Pool workers compute the boxes of their share as they take it on.
+ *    The scan returns exactly the cells the rule selects, in ascending order, whichever way it went.
  * `auto` uses the tree when it is already built for this dataset (by a probe, or by an earlier cut), and
  * otherwise scans, building the tree only on the cut that follows `AUTO_SCANS` scans of the same dataset.
  *
- * Why `AUTO_SCANS` is 12 (measured on the 1M-cell benchmark files, pipe-hex-1M appended raw, CPU time of
- * one process, warm kernels, machine under load): the tree build costs about 335 ms; a cut whose
- * candidates come from the scan costs 34 ms (near cross-section) to 65 ms (oblique plane through the
- * axis), from the tree 6 to 47 ms — the tree saves 18–28 ms a cut. Building it on the second cut (the
- * old setting) made that cut six times slower than a scan. Renting the scan until the rent paid reaches
- * about the purchase price (twelve cuts × ~25 ms ≈ the build) never costs more than twice the better of
- * the two choices made in hindsight (the classic rent-or-buy bound), and a session that drags a plane
- * through a large file still gets the tree after a dozen frames. A line or point probe builds the tree
- * anyway; every cut after that uses it.
+ * Why `AUTO_SCANS` is 12 (measured before the block boxes, on pipe-hex-1M appended raw, CPU time of one
+ * process, warm kernels, machine under load): the tree build costs about 335 ms; a cut whose candidates
+ * came from the full scan cost 34 ms (near cross-section) to 65 ms (oblique plane through the axis), from
+ * the tree 6 to 47 ms. Renting the scan until the rent paid reaches about the purchase price never costs
+ * more than twice the better of the two choices made in hindsight (the classic rent-or-buy bound). With the
+ * block boxes a later scan costs 0.4 ms (near cross-section) to 11 ms (oblique) on that file, so the bound
+ * now favours scanning longer; the number is kept so a session's first dozen cuts behave as before, and a
+ * line or point probe builds the tree anyway.
  */
 import { cellDimension, CellType } from '../model/cellTypes.ts';
 import { cellStarts, type Dataset } from '../model/dataset.ts';
 import { cellsCrossingPlane, getCellTree, hasCellTree } from '../locate/cellTree.ts';
 import { cellLayout } from '../model/uniformCells.ts';
+import { blockBoxes, boxMayCross, CELL_BLOCK, hasBlockBoxes, keepBlockBoxes } from './blockBoxes.ts';
+import type { Piece } from '../model/piece.ts';
 
 export type CandidateSource = 'auto' | 'tree' | 'scan';
 
@@ -30,7 +37,6 @@ export const AUTO_SCANS = 12;
 
 const scansDone = new WeakMap<Dataset, number>();
 
-let side = new Uint8Array(0);
 let found = new Int32Array(1024);
 
 /** Whether `auto` would use the tree for this dataset now. */
@@ -58,38 +64,164 @@ export function candidateCells(d: Dataset, ox: number, oy: number, oz: number, n
   return { cells: scan(d, ox, oy, oz, nx, ny, nz, tol), used: 'scan' };
 }
 
-/** Computes now what the first scan of `d` would (each piece's `cellLayout`), e.g. while a worker takes on its share. */
+/** Computes now what the first scan of `d` would (each piece's `cellLayout` and block boxes), e.g. while a worker takes on its share. */
 export function prepareScan(d: Dataset): void {
-  for (const p of d.pieces) cellLayout(p);
+  for (const p of d.pieces) { cellLayout(p); blockBoxes(p); }
 }
 
 function scan(d: Dataset, ox: number, oy: number, oz: number, nx: number, ny: number, nz: number, tol: number): Int32Array {
   const starts = cellStarts(d);
   let nFound = 0;
   for (let k = 0; k < d.pieces.length; k++) {
-    const p = d.pieces[k]!, np = p.points.length / 3;
-    if (side.length < np) side = new Uint8Array(Math.max(np, 2 * side.length));
-    // Only the points this piece's cells use (a worker's share of the cells reaches part of the points).
-    const lay = cellLayout(p);
-    pointSides(p.points, lay.firstPoint, lay.endPoint, ox, oy, oz, nx, ny, nz, tol, side);
-    const m = lay.size;
-    if (m === 8) { nFound = crossingOf8(p.connectivity, lay.base, p.cellTypes.length, side, starts[k]!, nFound); continue; }
-    if (m === 4) { nFound = crossingOf4(p.connectivity, lay.base, p.cellTypes.length, side, starts[k]!, nFound); continue; }
-    const pf = p.polyFaces;
-    nFound = crossingCellsOf(p.cellTypes, p.offsets, p.connectivity, pf?.faceConnectivity, pf?.faceOffsets, pf?.cellFaceStart, side, starts[k]!, nFound);
+    const p = d.pieces[k]!, lay = cellLayout(p), nc = p.cellTypes.length, g0 = starts[k]!;
+    if (lay.size > 0 && !hasBlockBoxes(p)) {
+      // First scan of a single-type piece: every cell is read, and the block boxes come out of the same pass.
+      const boxes = new Float64Array(6 * Math.ceil(nc / CELL_BLOCK));
+      nFound = firstScan(p, lay.base, lay.size, ox, oy, oz, nx, ny, nz, tol, g0, nFound, boxes);
+      keepBlockBoxes(p, boxes);
+      continue;
+    }
+    const boxes = blockBoxes(p), pf = p.polyFaces, nb = boxes.length / 6;
+    // The blocks the plane may cross (see blockBoxes.ts); the others hold no candidate and are never read.
+    if (crossing.length < nb) crossing = new Int32Array(Math.max(nb, 2 * crossing.length));
+    const nCross = blocksMayCross(boxes, nb, ox, oy, oz, nx, ny, nz, tol, crossing);
+    // Many crossed blocks: side bytes of every point once, then bytes per node (cheaper than coordinates per node).
+    const bytes = lay.size > 0 && nCross * CELL_BLOCK * lay.size > lay.endPoint - lay.firstPoint;
+    if (bytes) {
+      if (side.length < lay.endPoint) side = new Uint8Array(Math.max(lay.endPoint, 2 * side.length));
+      pointSides(p.points, lay.firstPoint, lay.endPoint, ox, oy, oz, nx, ny, nz, tol, side);
+    }
+    for (let i = 0; i < nCross; i++) {
+      const c0 = crossing[i]! * CELL_BLOCK, c1 = Math.min(nc, c0 + CELL_BLOCK);
+      reserveFound(nFound + CELL_BLOCK);
+      if (bytes) nFound = sideBytesOf(p.connectivity, lay.size, lay.base, c0, c1, side, g0, found, nFound);
+      else if (lay.size === 8) nFound = blockOf8(p.points, p.connectivity, lay.base, c0, c1, ox, oy, oz, nx, ny, nz, tol, g0, found, nFound);
+      else if (lay.size === 4) nFound = blockOf4(p.points, p.connectivity, lay.base, c0, c1, ox, oy, oz, nx, ny, nz, tol, g0, found, nFound);
+      else {
+        nFound = blockOfAny(p.points, p.cellTypes, p.offsets, p.connectivity, pf?.faceConnectivity, pf?.faceOffsets, pf?.cellFaceStart,
+          ox, oy, oz, nx, ny, nz, tol, g0, c0, c1, found, nFound);
+      }
+    }
   }
   return found.subarray(0, nFound);
 }
 
-/**
- * One byte per point (1 below, 2 on, 4 above), so the per-cell pass ORs bytes instead of comparing doubles.
- * Each pass is its own small function so the engine optimises its loop on the first large file.
- */
+/** Writes the indices of the blocks whose box may meet the plane into `out`; returns their count. */
+function blocksMayCross(boxes: Float64Array, nb: number, ox: number, oy: number, oz: number, nx: number, ny: number, nz: number, tol: number, out: Int32Array): number {
+  let n = 0;
+  for (let b = 0; b < nb; b++) {
+    out[n] = b;
+    n += boxMayCross(boxes, 6 * b, ox, oy, oz, nx, ny, nz, tol) ? 1 : 0;
+  }
+  return n;
+}
+
+/** Side byte (1 below, 2 on, 4 above) of points first … end − 1 into `out`. */
 function pointSides(pts: Float64Array, first: number, end: number, ox: number, oy: number, oz: number, nx: number, ny: number, nz: number, tol: number, out: Uint8Array): void {
   for (let i = first, j = 3 * first; i < end; i++, j += 3) {
     const s = nx * (pts[j]! - ox) + ny * (pts[j + 1]! - oy) + nz * (pts[j + 2]! - oz);
     out[i] = s <= tol && s >= -tol ? 2 : s < 0 ? 1 : 4;
   }
+}
+
+/** Cells c0 … c1 − 1 of a single-type piece (`size` nodes a cell) by their nodes' side bytes; same test as `blockOf8`. */
+function sideBytesOf(conn: Int32Array, size: number, base: number, c0: number, c1: number, side: Uint8Array, g0: number, out: Int32Array, nFound: number): number {
+  for (let c = c0, q = base + size * c0; c < c1; c++) {
+    let m = 0;
+    for (const qe = q + size; q < qe; q++) m |= side[conn[q]!]!;
+    out[nFound] = g0 + c;
+    nFound += m === 3 || m >= 5 ? 1 : 0;
+  }
+  return nFound;
+}
+
+/** Points per point block of the first scan: the blocks whose boxes make up a cell block's box. */
+const POINT_BLOCK_SHIFT = 5;
+let crossing = new Int32Array(0);
+let side = new Uint8Array(0), pointBox = new Float64Array(0), stamp = new Int32Array(0);
+
+/**
+ * The first scan of a single-type piece (`size` nodes a cell), which also leaves the piece's block boxes for
+ * later scans at little extra cost. One pass over the points: a side byte per point (1 below, 2 on, 4 above)
+ * and the box of each run of 2^POINT_BLOCK_SHIFT consecutive points. Then per block of cells: the OR of
+ * its nodes' side bytes per cell (the candidates, exactly as the later scans select them) and, on the first
+ * node of each point run the block touches, that run's box joined into the block's box. A block's box then
+ * holds every node of its cells (it may be larger than their own box, never smaller), so a later scan that
+ * skips it on this box skips no candidate. Writes the boxes into `boxes` (6 numbers a block).
+ */
+function firstScan(p: Piece, base: number, size: number, ox: number, oy: number, oz: number, nx: number, ny: number, nz: number,
+  tol: number, g0: number, nFound: number, boxes: Float64Array): number {
+  const nc = p.cellTypes.length, np = p.points.length / 3, nRuns = (np >> POINT_BLOCK_SHIFT) + 1;
+  const lay = cellLayout(p);
+  if (side.length < np) side = new Uint8Array(Math.max(np, 2 * side.length));
+  if (pointBox.length < 6 * nRuns) pointBox = new Float64Array(Math.max(6 * nRuns, 2 * pointBox.length));
+  if (stamp.length < nRuns) stamp = new Int32Array(Math.max(nRuns, 2 * stamp.length));
+  stamp.fill(0, 0, nRuns);
+  pointSidesAndRuns(p.points, lay.firstPoint, lay.endPoint, ox, oy, oz, nx, ny, nz, tol, side, pointBox);
+  for (let b = 0, c0 = 0; c0 < nc; b++, c0 += CELL_BLOCK) {
+    reserveFound(nFound + CELL_BLOCK);
+    nFound = sidesAndBox(p.connectivity, size, base, c0, Math.min(nc, c0 + CELL_BLOCK), side, g0, found, nFound, b + 1, stamp, pointBox, boxes, 6 * b);
+  }
+  return nFound;
+}
+
+/** Side byte of points first … end − 1 into `out`, and the box of each run of points (`runs`, 6 numbers a run; runs partly outside the range cover their part inside). */
+function pointSidesAndRuns(pts: Float64Array, first: number, end: number, ox: number, oy: number, oz: number, nx: number, ny: number, nz: number,
+  tol: number, out: Uint8Array, runs: Float64Array): void {
+  for (let r0 = first; r0 < end; r0 = ((r0 >> POINT_BLOCK_SHIFT) + 1) << POINT_BLOCK_SHIFT) {
+    sidesOfRun(pts, r0, Math.min(end, ((r0 >> POINT_BLOCK_SHIFT) + 1) << POINT_BLOCK_SHIFT), ox, oy, oz, nx, ny, nz, tol, out, runs, 6 * (r0 >> POINT_BLOCK_SHIFT));
+  }
+}
+
+function sidesOfRun(pts: Float64Array, i0: number, i1: number, ox: number, oy: number, oz: number, nx: number, ny: number, nz: number,
+  tol: number, out: Uint8Array, runs: Float64Array, o: number): void {
+  let x0 = Infinity, y0 = Infinity, z0 = Infinity, x1 = -Infinity, y1 = -Infinity, z1 = -Infinity;
+  for (let i = i0, j = 3 * i0; i < i1; i++, j += 3) {
+    const x = pts[j]!, y = pts[j + 1]!, z = pts[j + 2]!;
+    x0 = x < x0 ? x : x0; x1 = x > x1 ? x : x1;
+    y0 = y < y0 ? y : y0; y1 = y > y1 ? y : y1;
+    z0 = z < z0 ? z : z0; z1 = z > z1 ? z : z1;
+    const s = nx * (x - ox) + ny * (y - oy) + nz * (z - oz);
+    out[i] = s <= tol && s >= -tol ? 2 : s < 0 ? 1 : 4;
+  }
+  runs[o] = x0; runs[o + 1] = y0; runs[o + 2] = z0; runs[o + 3] = x1; runs[o + 4] = y1; runs[o + 5] = z1;
+}
+
+/**
+ * Cells c0 … c1 − 1 of a single-type piece: appends the candidates (as `blockOf8`/`blockOf4` select them)
+ * and writes at `boxes[o … o + 5]` the join of the boxes of the point runs their nodes lie in (each run once,
+ * marked with `mark` in `stamp`).
+ */
+function sidesAndBox(conn: Int32Array, size: number, base: number, c0: number, c1: number, side: Uint8Array, g0: number, out: Int32Array,
+  nFound: number, mark: number, stamp: Int32Array, runs: Float64Array, boxes: Float64Array, o: number): number {
+  let x0 = Infinity, y0 = Infinity, z0 = Infinity, x1 = -Infinity, y1 = -Infinity, z1 = -Infinity;
+  for (let c = c0, q = base + size * c0; c < c1; c++) {
+    let m = 0;
+    for (const qe = q + size; q < qe; q++) {
+      const id = conn[q]!, r = id >> POINT_BLOCK_SHIFT;
+      m |= side[id]!;
+      if (stamp[r] !== mark) {
+        stamp[r] = mark;
+        const k = 6 * r;
+        x0 = Math.min(x0, runs[k]!); y0 = Math.min(y0, runs[k + 1]!); z0 = Math.min(z0, runs[k + 2]!);
+        x1 = Math.max(x1, runs[k + 3]!); y1 = Math.max(y1, runs[k + 4]!); z1 = Math.max(z1, runs[k + 5]!);
+      }
+    }
+    out[nFound] = g0 + c;
+    nFound += m === 3 || m >= 5 ? 1 : 0;
+  }
+  boxes[o] = x0; boxes[o + 1] = y0; boxes[o + 2] = z0; boxes[o + 3] = x1; boxes[o + 4] = y1; boxes[o + 5] = z1;
+  return nFound;
+}
+
+/**
+ * Side code of point id `i` (1 below, 2 on, 4 above): the kernel's snapped signed distance, the same
+ * expression, so scan and kernel agree bit for bit. Cells OR their nodes' codes: 3, 5, 6, 7 mean a possible cut.
+ */
+function sideOf(pts: Float64Array, i: number, ox: number, oy: number, oz: number, nx: number, ny: number, nz: number, tol: number): number {
+  const j = 3 * i;
+  const s = nx * (pts[j]! - ox) + ny * (pts[j + 1]! - oy) + nz * (pts[j + 2]! - oz);
+  return s <= tol && s >= -tol ? 2 : s < 0 ? 1 : 4;
 }
 
 /** Makes room in `found` for `n` entries. */
@@ -98,69 +230,45 @@ function reserveFound(n: number): void {
   const g = new Int32Array(Math.max(n, 2 * found.length)); g.set(found); found = g;
 }
 
-/**
- * Cells per block of the fixed-stride passes. Each block first makes room for all its cells, then its own
- * small function writes every cell's id and advances the count only for a crossing one: no branch that a
- * first pass over a file may not have taken yet when the engine optimises the loop, and no code after the
- * loop (a late branch, or the code after the loop, threw the optimised loop away mid-pass and compiled it
- * again, on the first cut of every file).
- */
-const SCAN_BLOCK = 4096;
-
 /** 1 for the cell types the cut kernel cuts (3D: the fixed types and polyhedra), 0 for every other byte value. */
 const SOLID = Uint8Array.from({ length: 256 }, (_, t) => (cellDimension(t) === 3 ? 1 : 0));
 
-/** `crossingCellsOf` for a piece of hexahedra only (8 nodes a cell, back to back); same test, same order. */
-function crossingOf8(conn: Int32Array, base: number, nc: number, side: Uint8Array, g0: number, nFound: number): number {
-  for (let c0 = 0; c0 < nc; c0 += SCAN_BLOCK) {
-    reserveFound(nFound + SCAN_BLOCK);
-    nFound = blockOf8(conn, base, c0, Math.min(nc, c0 + SCAN_BLOCK), side, g0, found, nFound);
-  }
-  return nFound;
-}
+/*
+ * The per-block passes write every cell's id and advance the count only for a crossing one (room is made
+ * before the call): no branch that a first pass over a file may not have taken yet when the engine optimises
+ * the loop, and no code after the loop (either threw the optimised loop away mid-pass on a file's first cut).
+ */
 
-function blockOf8(conn: Int32Array, base: number, c0: number, c1: number, side: Uint8Array, g0: number, out: Int32Array, nFound: number): number {
+/** Cells c0 … c1 − 1 of a piece of hexahedra only (8 nodes a cell, back to back from `base`). */
+function blockOf8(pts: Float64Array, conn: Int32Array, base: number, c0: number, c1: number, ox: number, oy: number, oz: number,
+  nx: number, ny: number, nz: number, tol: number, g0: number, out: Int32Array, nFound: number): number {
   for (let c = c0, q = base + 8 * c0; c < c1; c++, q += 8) {
-    const m = side[conn[q]!]! | side[conn[q + 1]!]! | side[conn[q + 2]!]! | side[conn[q + 3]!]!
-      | side[conn[q + 4]!]! | side[conn[q + 5]!]! | side[conn[q + 6]!]! | side[conn[q + 7]!]!;
+    const m = sideOf(pts, conn[q]!, ox, oy, oz, nx, ny, nz, tol) | sideOf(pts, conn[q + 1]!, ox, oy, oz, nx, ny, nz, tol)
+      | sideOf(pts, conn[q + 2]!, ox, oy, oz, nx, ny, nz, tol) | sideOf(pts, conn[q + 3]!, ox, oy, oz, nx, ny, nz, tol)
+      | sideOf(pts, conn[q + 4]!, ox, oy, oz, nx, ny, nz, tol) | sideOf(pts, conn[q + 5]!, ox, oy, oz, nx, ny, nz, tol)
+      | sideOf(pts, conn[q + 6]!, ox, oy, oz, nx, ny, nz, tol) | sideOf(pts, conn[q + 7]!, ox, oy, oz, nx, ny, nz, tol);
     out[nFound] = g0 + c;
     nFound += m === 3 || m >= 5 ? 1 : 0;
   }
   return nFound;
 }
 
-/** `crossingCellsOf` for a piece of tetrahedra only (4 nodes a cell, back to back); same test, same order. */
-function crossingOf4(conn: Int32Array, base: number, nc: number, side: Uint8Array, g0: number, nFound: number): number {
-  for (let c0 = 0; c0 < nc; c0 += SCAN_BLOCK) {
-    reserveFound(nFound + SCAN_BLOCK);
-    nFound = blockOf4(conn, base, c0, Math.min(nc, c0 + SCAN_BLOCK), side, g0, found, nFound);
-  }
-  return nFound;
-}
-
-function blockOf4(conn: Int32Array, base: number, c0: number, c1: number, side: Uint8Array, g0: number, out: Int32Array, nFound: number): number {
+/** Cells c0 … c1 − 1 of a piece of tetrahedra only (4 nodes a cell, back to back from `base`). */
+function blockOf4(pts: Float64Array, conn: Int32Array, base: number, c0: number, c1: number, ox: number, oy: number, oz: number,
+  nx: number, ny: number, nz: number, tol: number, g0: number, out: Int32Array, nFound: number): number {
   for (let c = c0, q = base + 4 * c0; c < c1; c++, q += 4) {
-    const m = side[conn[q]!]! | side[conn[q + 1]!]! | side[conn[q + 2]!]! | side[conn[q + 3]!]!;
+    const m = sideOf(pts, conn[q]!, ox, oy, oz, nx, ny, nz, tol) | sideOf(pts, conn[q + 1]!, ox, oy, oz, nx, ny, nz, tol)
+      | sideOf(pts, conn[q + 2]!, ox, oy, oz, nx, ny, nz, tol) | sideOf(pts, conn[q + 3]!, ox, oy, oz, nx, ny, nz, tol);
     out[nFound] = g0 + c;
     nFound += m === 3 || m >= 5 ? 1 : 0;
   }
   return nFound;
 }
 
-/** Appends to `found` (from `nFound`) the global ids (`g0` + local) of the 3D cells with nodes on both sides; returns the new count. */
-function crossingCellsOf(types: Uint8Array, off: Int32Array, conn: Int32Array, faceConn: Int32Array | undefined, faceOff: Int32Array | undefined,
-  cellFaceStart: Int32Array | undefined, side: Uint8Array, g0: number, nFound: number): number {
-  const nc = types.length;
-  for (let c0 = 0; c0 < nc; c0 += SCAN_BLOCK) {
-    reserveFound(nFound + SCAN_BLOCK);
-    nFound = blockOfAny(types, off, conn, faceConn, faceOff, cellFaceStart, side, g0, c0, Math.min(nc, c0 + SCAN_BLOCK), found, nFound);
-  }
-  return nFound;
-}
-
-/** `crossingCellsOf` over cells c0 … c1 − 1 (room for them is made by the caller; see `SCAN_BLOCK`). */
-function blockOfAny(types: Uint8Array, off: Int32Array, conn: Int32Array, faceConn: Int32Array | undefined, faceOff: Int32Array | undefined,
-  cellFaceStart: Int32Array | undefined, side: Uint8Array, g0: number, c0: number, c1: number, out: Int32Array, nFound: number): number {
+/** Cells c0 … c1 − 1 of any piece: the 3D cells with nodes on both sides (polyhedra by their face stream when their connectivity is empty). */
+function blockOfAny(pts: Float64Array, types: Uint8Array, off: Int32Array, conn: Int32Array, faceConn: Int32Array | undefined,
+  faceOff: Int32Array | undefined, cellFaceStart: Int32Array | undefined, ox: number, oy: number, oz: number,
+  nx: number, ny: number, nz: number, tol: number, g0: number, c0: number, c1: number, out: Int32Array, nFound: number): number {
   for (let c = c0; c < c1; c++) {
     const t = types[c]!;
     let a = off[c]!, b = off[c + 1]!, ids = conn;
@@ -168,7 +276,7 @@ function blockOfAny(types: Uint8Array, off: Int32Array, conn: Int32Array, faceCo
       ids = faceConn; a = faceOff[cellFaceStart[c]!]!; b = faceOff[cellFaceStart[c + 1]!]!;
     }
     let m = 0;
-    for (let q = a; q < b; q++) m |= side[ids[q]!]!;
+    for (let q = a; q < b; q++) m |= sideOf(pts, ids[q]!, ox, oy, oz, nx, ny, nz, tol);
     // A 3D cell below with anything else (3, 5, 7), or with on-plane nodes above the plane (6: a boundary
     // face may lie in it). Lower-dimensional cells (boundary faces stored with the volume) count for nothing.
     out[nFound] = g0 + c;

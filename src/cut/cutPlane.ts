@@ -20,6 +20,10 @@
  * cells below). Faces in the plane with no cell below — the mesh boundary — are added from the cell above
  * (`planeFaces.ts`). So a unit cube cut at any height, its two end faces included, has area 1.
  *
+ * Fast path: tetrahedra, voxels, hexahedra, wedges and pyramids with no node on the plane and no repeated
+ * node go through their case tables (`tableCut.ts`, `caseTables.ts`), which give this builder's loops vertex
+ * for vertex; every other cell comes here. Option `caseTables: false` sends every cell here.
+ *
  * Fields are not interpolated here: each vertex keeps its provenance (edge end points and parameter), and
  * `cutFields.ts` materialises only the fields asked for.
  */
@@ -30,7 +34,8 @@ import type { Piece } from '../model/piece.ts';
 import { candidateCells, prepareScan, type CandidateSource } from './crossingCells.ts';
 import { interpolateCutFields, type FieldRef } from './cutFields.ts';
 import { claimedFaceKeys, facePositionKey, forEachUnclaimedFace, recordPlaneFace, resetPlaneFaces } from './planeFaces.ts';
-import { fillPolygon } from './polygonFill.ts';
+import { resetOutput, takeOutput, triangleTotal, writePolygon } from './cutOutput.ts';
+import { cutByTable, setTablePlane, setTablePoints } from './tableCut.ts';
 import { unitVector, type TriangleSet, type Vec3 } from './triangleSet.ts';
 
 /** Options of `cutPlane`; every field optional. */
@@ -43,9 +48,15 @@ export interface CutOptions {
   candidates: CandidateSource;
   /** Keep the position keys of in-plane faces (`PlaneCut.planeFaces`), for the worker pool's merge of cell shares. Default false. */
   planeFaceKeys: boolean;
+  /**
+   * Cut the tetrahedra, voxels, hexahedra, wedges and pyramids with no node on the plane through their case
+   * tables (`caseTables.ts`, same triangles bit for bit); false sends every cell through the general polygon
+   * builder (for comparisons). Default true.
+   */
+  caseTables: boolean;
 }
 
-export const CUT_DEFAULTS: Readonly<CutOptions> = { fields: 'all', tolerance: 1e-10, candidates: 'auto', planeFaceKeys: false };
+export const CUT_DEFAULTS: Readonly<CutOptions> = { fields: 'all', tolerance: 1e-10, candidates: 'auto', planeFaceKeys: false, caseTables: true };
 
 /**
  * In-plane faces of a cut (only with `planeFaceKeys`): the faces this cut added from the cell above
@@ -80,6 +91,8 @@ export interface CutStats {
   candidateSource: 'tree' | 'scan';
   /** Cells that contributed triangles. */
   cutCells: number;
+  /** Of the candidate cells, those cut through the case tables (the rest went through the general builder). Absent from merged pool cuts. */
+  tableCells?: number;
   /** Boundary faces lying in the plane that were added from the cell above. */
   boundaryFaces: number;
   /** Chains of crossing segments that did not close (broken polyhedron face streams); dropped. */
@@ -89,25 +102,6 @@ export interface CutStats {
   ms: number;
 }
 
-// ---- output buffers (grow, never shrink) ---------------------------------------------------------------
-let oPos = new Float64Array(3 * 4096), oEdge = new Int32Array(2 * 4096), oT = new Float64Array(4096);
-let oIdx = new Uint32Array(3 * 4096), oCell = new Int32Array(4096);
-let nV = 0, nT = 0;
-
-function reserve(verts: number, tris: number): void {
-  if (nV + verts > oT.length) {
-    const n = Math.max(2 * oT.length, nV + verts);
-    const p = new Float64Array(3 * n); p.set(oPos); oPos = p;
-    const e = new Int32Array(2 * n); e.set(oEdge); oEdge = e;
-    const t = new Float64Array(n); t.set(oT); oT = t;
-  }
-  if (nT + tris > oCell.length) {
-    const n = Math.max(2 * oCell.length, nT + tris);
-    const i = new Uint32Array(3 * n); i.set(oIdx); oIdx = i;
-    const c = new Int32Array(n); c.set(oCell); oCell = c;
-  }
-}
-
 // ---- per-cell scratch ----------------------------------------------------------------------------------
 let cP = new Int32Array(64), cD = new Float64Array(64);          // local node → piece point id, distance
 let fP = new Int32Array(64), fD = new Float64Array(64);          // one face: point ids, distances
@@ -115,7 +109,7 @@ let vA = new Int32Array(64), vB = new Int32Array(64), vT = new Float64Array(64);
 let vX = new Float64Array(64), vY = new Float64Array(64), vZ = new Float64Array(64);
 let sU = new Int32Array(64), sV = new Int32Array(64), sUsed = new Uint8Array(64);
 let fX = new Int32Array(64), fS = new Float64Array(64), fE = new Uint8Array(64);                   // one face's crossings, their sort keys
-let loop = new Int32Array(64), tri = new Int32Array(192), work = new Int32Array(64);
+let loop = new Int32Array(64);
 let nCv = 0, nSeg = 0;
 
 function ensureCell(n: number): void {
@@ -125,7 +119,7 @@ function ensureCell(n: number): void {
   vA = new Int32Array(m); vB = new Int32Array(m); vT = new Float64Array(m);
   vX = new Float64Array(m); vY = new Float64Array(m); vZ = new Float64Array(m);
   sU = new Int32Array(m); sV = new Int32Array(m); sUsed = new Uint8Array(m); fX = new Int32Array(m); fS = new Float64Array(m); fE = new Uint8Array(m);
-  loop = new Int32Array(m); tri = new Int32Array(3 * m); work = new Int32Array(m);
+  loop = new Int32Array(m);
 }
 
 /** Bit mask of the local nodes of each face of FACE_TABLE (fixed types have at most 12 nodes). */
@@ -248,30 +242,7 @@ function emitLoops(cell: number): boolean {
 
 /** Orients loop[0..m-1] (indices of cell crossings) about n, triangulates and writes it out. */
 function emitLoop(m: number, cell: number): boolean {
-  if (m < 3) return false;
-  const x0 = vX[loop[0]!]!, y0 = vY[loop[0]!]!, z0 = vZ[loop[0]!]!;
-  let area2 = 0;
-  for (let i = 1; i < m - 1; i++) {
-    const a = loop[i]!, b = loop[i + 1]!;
-    const ax = vX[a]! - x0, ay = vY[a]! - y0, az = vZ[a]! - z0, bx = vX[b]! - x0, by = vY[b]! - y0, bz = vZ[b]! - z0;
-    area2 += NX * (ay * bz - az * by) + NY * (az * bx - ax * bz) + NZ * (ax * by - ay * bx);
-  }
-  if (area2 === 0) return false;
-  if (area2 < 0) for (let i = 0, j = m - 1; i < j; i++, j--) { const s = loop[i]!; loop[i] = loop[j]!; loop[j] = s; }
-  const nt = fillPolygon(vX, vY, vZ, loop, m, NX, NY, NZ, tri, work);
-  reserve(m, nt);
-  const base = nV;
-  for (let i = 0; i < m; i++) {
-    const v = loop[i]!, o = nV++;
-    oPos[3 * o] = vX[v]!; oPos[3 * o + 1] = vY[v]!; oPos[3 * o + 2] = vZ[v]!;
-    oEdge[2 * o] = pointBase + vA[v]!; oEdge[2 * o + 1] = pointBase + vB[v]!; oT[o] = vT[v]!;
-  }
-  for (let t = 0; t < nt; t++) {
-    const o = nT++;
-    oIdx[3 * o] = base + tri[3 * t]!; oIdx[3 * o + 1] = base + tri[3 * t + 1]!; oIdx[3 * o + 2] = base + tri[3 * t + 2]!;
-    oCell[o] = cell;
-  }
-  return true;
+  return writePolygon(vX, vY, vZ, vA, vB, vT, loop, m, NX, NY, NZ, cell, pointBase);
 }
 
 /** Cuts cell c of the current piece (global id g); returns whether it produced triangles. */
@@ -325,6 +296,28 @@ function cutCell(p: Piece, k: number, c: number, g: number): boolean {
     }
   }
   return emitLoops(g);
+}
+
+let runCut = 0, runTable = 0;
+
+/**
+ * Cuts the candidates cells[i0 …] of piece k (global ids g0 … gEnd − 1) up to the first of another piece, whose
+ * index it returns; counts cells with triangles in `runCut` and cells cut by table in `runTable`. A function
+ * of its own, with nothing after its loop but the counts, so the engine optimises the loop once and keeps it.
+ */
+function cutRun(piece: Piece, k: number, cells: Int32Array, i0: number, nCand: number, g0: number, gEnd: number, tables: boolean): number {
+  const types = piece.cellTypes, off = piece.offsets, conn = piece.connectivity, base = pointBase;
+  let i = i0, cut = 0, viaTable = 0;
+  for (; i < nCand; i++) {
+    const g = cells[i]!;
+    if (g >= gEnd) break;
+    const c = g - g0;
+    const r = tables ? cutByTable(types, off, conn, c, g, base) : -1;
+    viaTable += r < 0 ? 0 : 1;
+    cut += (r < 0 ? cutCell(piece, k, c, g) : r === 1) ? 1 : 0;
+  }
+  runCut = cut; runTable = viaTable;
+  return i;
 }
 
 /** Records the in-plane faces of an above-plane cell as candidates. */
@@ -397,40 +390,42 @@ export function cutPlane(dataset: Dataset, origin: Vec3, normal: Vec3, options: 
   OX = origin[0]; OY = origin[1]; OZ = origin[2]; NX = n[0]; NY = n[1]; NZ = n[2];
   const tol = opts.tolerance * datasetScale(dataset);
   TOL = tol;
-  nV = 0; nT = 0; openChains = 0;
+  setTablePlane(OX, OY, OZ, NX, NY, NZ, tol);
+  openChains = 0;
   resetPlaneFaces();
   const { cells: found, used } = candidateCells(dataset, OX, OY, OZ, NX, NY, NZ, tol, opts.candidates);
   // Ascending ids: the same triangle order whichever search ran, and connectivity read in memory order.
   const cells = used === 'tree' ? found.sort() : found;
   const nCand = cells.length;
   // One allocation up front instead of repeated doubling: about four vertices and two triangles a cut cell.
-  reserve(4 * nCand, 2 * nCand);
+  resetOutput(4 * nCand, 2 * nCand);
   const starts = cellStarts(dataset), pStarts = pointStarts(dataset);
-  const single = dataset.pieces.length === 1;
-  let cutCells = 0, k = -1, piece: Piece | undefined;
-  for (let i = 0; i < nCand; i++) {
-    const g = cells[i]!;
-    const kk = single ? 0 : pieceOfCell(starts, g);
-    if (kk !== k) { k = kk; piece = dataset.pieces[k]!; pts = piece.points; pointBase = pStarts[k]!; }
-    if (cutCell(piece!, k, g - starts[k]!, g)) cutCells++;
+  const tables = opts.caseTables;
+  let cutCells = 0, tableCells = 0;
+  // Candidates ascend, so each piece's come as one run.
+  for (let i = 0; i < nCand;) {
+    const k = dataset.pieces.length === 1 ? 0 : pieceOfCell(starts, cells[i]!), piece = dataset.pieces[k]!;
+    pts = piece.points; pointBase = pStarts[k]!; setTablePoints(pts);
+    const end = cutRun(piece, k, cells, i, nCand, starts[k]!, starts[k]! + piece.cellTypes.length, tables);
+    cutCells += runCut; tableCells += runTable;
+    i = end;
   }
   const emitted: string[] = [], triStarts: number[] = [];
   const boundaryFaces = forEachUnclaimedFace(dataset.pieces, (kk, cell, ids, start, m) => {
     pts = dataset.pieces[kk]!.points; pointBase = pStarts[kk]!;
-    if (opts.planeFaceKeys) { emitted.push(facePositionKey(pts, ids, start, m)); triStarts.push(nT); }
+    if (opts.planeFaceKeys) { emitted.push(facePositionKey(pts, ids, start, m)); triStarts.push(triangleTotal()); }
     if (emitPlaneFace(ids, start, m, cell)) cutCells++;
   });
-  triStarts.push(nT);
+  triStarts.push(triangleTotal());
   const planeFaces = opts.planeFaceKeys
     ? { planeFaces: { emitted, triStart: Int32Array.from(triStarts), claimed: claimedFaceKeys(dataset.pieces) } } : {};
-  const positions = oPos.slice(0, 3 * nV), indices = oIdx.slice(0, 3 * nT), sourceCell = oCell.slice(0, nT);
-  const vertexEdges = oEdge.slice(0, 2 * nV), vertexT = oT.slice(0, nV);
   pts = new Float64Array(0);
-  const geometry = { positions, indices, sourceCell, vertexEdges, vertexT };
+  setTablePoints(pts);
+  const geometry = takeOutput();
   const fields = interpolateCutFields(dataset, geometry, opts.fields);
   return {
-    ...geometry, fields, origin: [origin[0], origin[1], origin[2]], normal: n, empty: nT === 0,
-    stats: { candidateCells: nCand, candidateSource: used, cutCells, boundaryFaces, openChains, tolerance: tol, ms: performance.now() - t0 },
+    ...geometry, fields, origin: [origin[0], origin[1], origin[2]], normal: n, empty: geometry.indices.length === 0,
+    stats: { candidateCells: nCand, candidateSource: used, cutCells, tableCells, boundaryFaces, openChains, tolerance: tol, ms: performance.now() - t0 },
     ...planeFaces,
   };
 }

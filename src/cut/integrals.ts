@@ -440,24 +440,36 @@ function absDeviation(nt: number, un: number, fields: readonly SurfaceField[], c
 function ranges(fields: readonly SurfaceField[], chOf: Int32Array, magCh: Int32Array, magNc: Int32Array): { lo: Float64Array; hi: Float64Array } {
   const C = chOf[fields.length]!, nMag = magCh.length;
   const lo = new Float64Array(C + nMag).fill(Infinity), hi = new Float64Array(C + nMag).fill(-Infinity);
-  fields.forEach((f, i) => {
-    const nc = f.components, v = f.values, o = chOf[i]!, n = v.length / nc;
-    for (let c = 0; c < nc; c++) {
-      let l = Infinity, h = -Infinity;
-      for (let k = c; k < v.length; k += nc) { const x = v[k]!; if (x < l) l = x; if (x > h) h = x; }
-      lo[o + c] = l; hi[o + c] = h;
-    }
+  for (let i = 0; i < fields.length; i++) {
+    const f = fields[i]!, nc = f.components, v = f.values, o = chOf[i]!;
+    for (let c = 0; c < nc; c++) { strideRange(v, c, nc); lo[o + c] = rangeLo; hi[o + c] = rangeHi; }
     const q = magCh.indexOf(o);
-    if (q >= 0 && magNc[q] === nc) {
-      let l = Infinity, h = -Infinity;
-      for (let k = 0; k < n; k++) {
-        let s2 = 0;
-        for (let c = 0; c < nc; c++) { const x = v[k * nc + c]!; s2 += x * x; }
-        const m = Math.sqrt(s2);
-        if (m < l) l = m; if (m > h) h = m;
-      }
-      lo[C + q] = l; hi[C + q] = h;
-    }
-  });
+    if (q >= 0 && magNc[q] === nc) { magnitudeRange(v, nc); lo[C + q] = rangeLo; hi[C + q] = rangeHi; }
+  }
   return { lo, hi };
+}
+
+let rangeLo = Infinity, rangeHi = -Infinity;
+
+/**
+ * Min and max (into rangeLo, rangeHi) of v[c], v[c + nc], v[c + 2nc] …. Each loop is a small function of its
+ * own so the engine optimises it on a file's first cuts instead of running it unoptimised inside a larger one.
+ */
+function strideRange(v: Float64Array, c: number, nc: number): void {
+  let l = Infinity, h = -Infinity;
+  for (let k = c; k < v.length; k += nc) { const x = v[k]!; if (x < l) l = x; if (x > h) h = x; }
+  rangeLo = l; rangeHi = h;
+}
+
+/** Min and max (into rangeLo, rangeHi) of the magnitudes of the nc-component tuples of v. */
+function magnitudeRange(v: Float64Array, nc: number): void {
+  const n = v.length / nc;
+  let l = Infinity, h = -Infinity;
+  for (let k = 0; k < n; k++) {
+    let s2 = 0;
+    for (let c = 0; c < nc; c++) { const x = v[k * nc + c]!; s2 += x * x; }
+    const m = Math.sqrt(s2);
+    if (m < l) l = m; if (m > h) h = m;
+  }
+  rangeLo = l; rangeHi = h;
 }

@@ -32,7 +32,7 @@ function turn(xs: Float64Array, ys: Float64Array, zs: Float64Array, a: number, b
 
 function isConvex(xs: Float64Array, ys: Float64Array, zs: Float64Array, loop: Int32Array, m: number, nx: number, ny: number, nz: number): boolean {
   for (let i = 0; i < m; i++) {
-    const a = loop[(i + m - 1) % m]!, b = loop[i]!, c = loop[(i + 1) % m]!;
+    const a = loop[i === 0 ? m - 1 : i - 1]!, b = loop[i]!, c = loop[i + 1 === m ? 0 : i + 1]!;
     const t = turn(xs, ys, zs, a, b, c, nx, ny, nz);
     if (t < 0) {
       const la = Math.hypot(xs[b]! - xs[a]!, ys[b]! - ys[a]!, zs[b]! - zs[a]!);

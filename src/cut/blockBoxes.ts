@@ -1,0 +1,96 @@
+/**
+ * Bounding boxes of runs of consecutive cells ("blocks" of `CELL_BLOCK` cells), computed once per piece and
+ * reused by every later scan for a cut: a block whose box lies wholly on one side of the plane (beyond the
+ * node-on-plane tolerance and a rounding margin) holds no candidate, so the scan never reads its cells.
+ * Mesh generators and solvers write cells in a spatially coherent order (layers, sweeps, space-filling
+ * curves), so a plane meets a small share of the blocks.
+ *
+ * Layout: `Float64Array` of 6 numbers per block — min x, min y, min z, max x, max y, max z (file's length
+ * unit) — over the point ids the scan reads for the block's cells (a polyhedron stored with empty
+ * connectivity: its face stream). A block of cells with no nodes keeps +∞/−∞ (its test is NaN, so it is
+ * scanned, and yields nothing).
+ */
+import { CellType } from '../model/cellTypes.ts';
+import type { Piece } from '../model/piece.ts';
+import { cellLayout } from '../model/uniformCells.ts';
+
+/** Cells per block: small enough that a plane's blocks hold few cells it misses, large enough that the box test is cheap per cell. */
+export const CELL_BLOCK = 128;
+
+const cache = new WeakMap<Int32Array, { types: Uint8Array; conn: Int32Array; points: Float64Array; boxes: Float64Array }>();
+
+/** Whether the boxes of `p` are already computed. */
+export function hasBlockBoxes(p: Piece): boolean {
+  const hit = cache.get(p.offsets);
+  return !!hit && hit.types === p.cellTypes && hit.conn === p.connectivity && hit.points === p.points;
+}
+
+/**
+ * Keeps `boxes` as the block boxes of `p` (for a scan that computed them on its way, see `crossingCells.ts`);
+ * each must hold every node of its block's cells (it may be larger than `blockBoxes` would make it).
+ */
+export function keepBlockBoxes(p: Piece, boxes: Float64Array): void {
+  cache.set(p.offsets, { types: p.cellTypes, conn: p.connectivity, points: p.points, boxes });
+}
+
+/** The block boxes of piece `p` (see the file comment), computed on the first call for these arrays. */
+export function blockBoxes(p: Piece): Float64Array {
+  const hit = cache.get(p.offsets);
+  if (hit && hit.types === p.cellTypes && hit.conn === p.connectivity && hit.points === p.points) return hit.boxes;
+  const nc = p.cellTypes.length, nb = Math.ceil(nc / CELL_BLOCK);
+  const boxes = new Float64Array(6 * nb);
+  const lay = cellLayout(p);
+  for (let b = 0; b < nb; b++) {
+    const c0 = b * CELL_BLOCK, c1 = Math.min(nc, c0 + CELL_BLOCK);
+    if (lay.size > 0) boxOfRun(p.points, p.connectivity, lay.base + lay.size * c0, lay.base + lay.size * c1, boxes, 6 * b);
+    else boxOfCells(p, c0, c1, boxes, 6 * b);
+  }
+  cache.set(p.offsets, { types: p.cellTypes, conn: p.connectivity, points: p.points, boxes });
+  return boxes;
+}
+
+/** Box of the points `ids[q0 … q1 − 1]` into `out[o … o + 5]`. */
+function boxOfRun(pts: Float64Array, ids: Int32Array, q0: number, q1: number, out: Float64Array, o: number): void {
+  let x0 = Infinity, y0 = Infinity, z0 = Infinity, x1 = -Infinity, y1 = -Infinity, z1 = -Infinity;
+  for (let q = q0; q < q1; q++) {
+    const j = 3 * ids[q]!, x = pts[j]!, y = pts[j + 1]!, z = pts[j + 2]!;
+    x0 = x < x0 ? x : x0; x1 = x > x1 ? x : x1;
+    y0 = y < y0 ? y : y0; y1 = y > y1 ? y : y1;
+    z0 = z < z0 ? z : z0; z1 = z > z1 ? z : z1;
+  }
+  out[o] = x0; out[o + 1] = y0; out[o + 2] = z0; out[o + 3] = x1; out[o + 4] = y1; out[o + 5] = z1;
+}
+
+/** Box of cells c0 … c1 − 1 of a piece with mixed cells (polyhedra by their face stream when their connectivity is empty). */
+function boxOfCells(p: Piece, c0: number, c1: number, out: Float64Array, o: number): void {
+  const off = p.offsets, pf = p.polyFaces;
+  let x0 = Infinity, y0 = Infinity, z0 = Infinity, x1 = -Infinity, y1 = -Infinity, z1 = -Infinity;
+  for (let c = c0; c < c1; c++) {
+    let a = off[c]!, b = off[c + 1]!, ids = p.connectivity;
+    if (p.cellTypes[c] === CellType.POLYHEDRON && a === b && pf) {
+      ids = pf.faceConnectivity; a = pf.faceOffsets[pf.cellFaceStart[c]!]!; b = pf.faceOffsets[pf.cellFaceStart[c + 1]!]!;
+    }
+    boxOfRun(p.points, ids, a, b, out, o);
+    x0 = Math.min(x0, out[o]!); y0 = Math.min(y0, out[o + 1]!); z0 = Math.min(z0, out[o + 2]!);
+    x1 = Math.max(x1, out[o + 3]!); y1 = Math.max(y1, out[o + 4]!); z1 = Math.max(z1, out[o + 5]!);
+  }
+  out[o] = x0; out[o + 1] = y0; out[o + 2] = z0; out[o + 3] = x1; out[o + 4] = y1; out[o + 5] = z1;
+}
+
+/**
+ * Whether the box at `boxes[o … o + 5]` may hold a node within `tol` of the plane n·(x − o) = 0 or nodes on
+ * both sides of it. False only when every point of the box is farther than `tol` on one side, with a margin
+ * far above the rounding of the per-node distance, so a block skipped here holds no candidate of the scan.
+ * A box with a NaN coordinate is never skipped.
+ */
+export function boxMayCross(boxes: Float64Array, o: number, ox: number, oy: number, oz: number, nx: number, ny: number, nz: number, tol: number): boolean {
+  const hx = 0.5 * (boxes[o + 3]! - boxes[o]!), hy = 0.5 * (boxes[o + 4]! - boxes[o + 1]!), hz = 0.5 * (boxes[o + 5]! - boxes[o + 2]!);
+  const cx = boxes[o]! + hx, cy = boxes[o + 1]! + hy, cz = boxes[o + 2]! + hz;
+  const dc = nx * (cx - ox) + ny * (cy - oy) + nz * (cz - oz);
+  const r = Math.abs(nx) * hx + Math.abs(ny) * hy + Math.abs(nz) * hz;
+  // Rounding of n·(x − o) at a node is a few ulps of Σ|n_i|(|x_i| + |o_i|); 1e-12 of it is far more.
+  const slack = 1e-12 * (Math.abs(nx) * (Math.abs(cx) + hx + Math.abs(ox)) + Math.abs(ny) * (Math.abs(cy) + hy + Math.abs(oy))
+    + Math.abs(nz) * (Math.abs(cz) + hz + Math.abs(oz)));
+  const reach = r + tol + slack;
+  return !(dc > reach || dc < -reach);
+}

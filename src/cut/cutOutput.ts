@@ -1,0 +1,80 @@
+/**
+ * The output of one cut while it is being made: vertices (position, provenance edge as two global point ids,
+ * parameter t) and triangles (three vertex indices, source cell), in module-level buffers that grow and never
+ * shrink. Both per-cell paths of the cut — the case tables (`tableCut.ts`) and the general polygon builder
+ * (`cutPlane.ts`) — write their polygons through `writePolygon`, so a polygon is oriented, triangulated and
+ * stored by the same arithmetic whichever path found it.
+ */
+import { fillPolygon } from './polygonFill.ts';
+
+let oPos = new Float64Array(3 * 4096), oEdge = new Int32Array(2 * 4096), oT = new Float64Array(4096);
+let oIdx = new Uint32Array(3 * 4096), oCell = new Int32Array(4096);
+let nV = 0, nT = 0;
+let tri = new Int32Array(192), work = new Int32Array(64);
+
+/** Starts a new cut's output, with room for about `verts` vertices and `tris` triangles. */
+export function resetOutput(verts: number, tris: number): void {
+  nV = 0; nT = 0;
+  reserveOutput(verts, tris);
+}
+
+/** Makes room for `verts` more vertices and `tris` more triangles. */
+export function reserveOutput(verts: number, tris: number): void {
+  if (nV + verts > oT.length) {
+    const n = Math.max(2 * oT.length, nV + verts);
+    const p = new Float64Array(3 * n); p.set(oPos.subarray(0, 3 * nV)); oPos = p;
+    const e = new Int32Array(2 * n); e.set(oEdge.subarray(0, 2 * nV)); oEdge = e;
+    const t = new Float64Array(n); t.set(oT.subarray(0, nV)); oT = t;
+  }
+  if (nT + tris > oCell.length) {
+    const n = Math.max(2 * oCell.length, nT + tris);
+    const i = new Uint32Array(3 * n); i.set(oIdx.subarray(0, 3 * nT)); oIdx = i;
+    const c = new Int32Array(n); c.set(oCell.subarray(0, nT)); oCell = c;
+  }
+}
+
+/** Triangles written so far in this cut. */
+export function triangleTotal(): number { return nT; }
+
+/** Copies of the cut's arrays (see `PlaneCut` for their layout). */
+export function takeOutput(): { positions: Float64Array; indices: Uint32Array; sourceCell: Int32Array; vertexEdges: Int32Array; vertexT: Float64Array } {
+  return {
+    positions: oPos.slice(0, 3 * nV), indices: oIdx.slice(0, 3 * nT), sourceCell: oCell.slice(0, nT),
+    vertexEdges: oEdge.slice(0, 2 * nV), vertexT: oT.slice(0, nV),
+  };
+}
+
+/**
+ * Orients the polygon `loop[0 … m−1]` (indices into the vertex arrays xs, ys, zs; edge ends `va`, `vb` as
+ * piece point ids, parameter `vt`) counter-clockwise about the unit normal n (in place), triangulates it and
+ * writes it out for `cell`, adding `pointBase` to the point ids. Returns false for a polygon of zero area
+ * (nothing written). `loop` must hold room for m entries.
+ */
+export function writePolygon(xs: Float64Array, ys: Float64Array, zs: Float64Array, va: Int32Array, vb: Int32Array, vt: Float64Array,
+  loop: Int32Array, m: number, nx: number, ny: number, nz: number, cell: number, pointBase: number): boolean {
+  if (m < 3) return false;
+  const x0 = xs[loop[0]!]!, y0 = ys[loop[0]!]!, z0 = zs[loop[0]!]!;
+  let area2 = 0;
+  for (let i = 1; i < m - 1; i++) {
+    const a = loop[i]!, b = loop[i + 1]!;
+    const ax = xs[a]! - x0, ay = ys[a]! - y0, az = zs[a]! - z0, bx = xs[b]! - x0, by = ys[b]! - y0, bz = zs[b]! - z0;
+    area2 += nx * (ay * bz - az * by) + ny * (az * bx - ax * bz) + nz * (ax * by - ay * bx);
+  }
+  if (area2 === 0) return false;
+  if (area2 < 0) for (let i = 0, j = m - 1; i < j; i++, j--) { const s = loop[i]!; loop[i] = loop[j]!; loop[j] = s; }
+  if (tri.length < 3 * m) { tri = new Int32Array(6 * m); work = new Int32Array(2 * m); }
+  const nt = fillPolygon(xs, ys, zs, loop, m, nx, ny, nz, tri, work);
+  reserveOutput(m, nt);
+  const base = nV;
+  for (let i = 0; i < m; i++) {
+    const v = loop[i]!, o = nV++;
+    oPos[3 * o] = xs[v]!; oPos[3 * o + 1] = ys[v]!; oPos[3 * o + 2] = zs[v]!;
+    oEdge[2 * o] = pointBase + va[v]!; oEdge[2 * o + 1] = pointBase + vb[v]!; oT[o] = vt[v]!;
+  }
+  for (let t = 0; t < nt; t++) {
+    const o = nT++;
+    oIdx[3 * o] = base + tri[3 * t]!; oIdx[3 * o + 1] = base + tri[3 * t + 1]!; oIdx[3 * o + 2] = base + tri[3 * t + 2]!;
+    oCell[o] = cell;
+  }
+  return true;
+}

@@ -1,0 +1,82 @@
+/**
+ * The cut of one linear cell through its case table (`caseTables.ts`): signed distances of its nodes, the
+ * below/above pattern as a bit mask, the pattern's loops of crossed edges, their crossing points, then the
+ * shared polygon writer (`cutOutput.ts`). No per-cell allocation; module-level scratch only.
+ *
+ * The result is the general path's (`cutPlane.ts`) bit for bit: the same snapped distance expression, the
+ * same crossing formula with the below node first, the same loops in the same vertex order, the same
+ * orientation and triangulation. Cells the tables do not cover answer −1 and go to the general path: types
+ * without a table, a node on the plane (|d| ≤ tolerance), or a node repeated in the cell (collapsed cells,
+ * whose crossings the general path merges by point id).
+ */
+import { CASE_DATA, CASE_START, SLOT_NODES, TABLE_SLOT } from './caseTables.ts';
+import { writePolygon } from './cutOutput.ts';
+
+let OX = 0, OY = 0, OZ = 0, NX = 0, NY = 0, NZ = 1, TOL = 0;
+let P: Float64Array = new Float64Array(0);
+
+const nodeId = new Int32Array(8), nodeD = new Float64Array(8);
+const xA = new Int32Array(16), xB = new Int32Array(16), xT = new Float64Array(16);
+const xX = new Float64Array(16), xY = new Float64Array(16), xZ = new Float64Array(16);
+const ring = new Int32Array(16);
+
+/** Sets the plane (origin o, unit normal n; `tol` the absolute node-on-plane tolerance, file's length unit) for the following cells. */
+export function setTablePlane(ox: number, oy: number, oz: number, nx: number, ny: number, nz: number, tol: number): void {
+  OX = ox; OY = oy; OZ = oz; NX = nx; NY = ny; NZ = nz; TOL = tol;
+}
+
+/** Sets the points (xyz interleaved) of the piece whose cells follow; pass an empty array to let go of them. */
+export function setTablePoints(points: Float64Array): void { P = points; }
+
+/**
+ * Cuts cell `c` (types, offsets, connectivity of its piece) as global cell `g`, writing point ids plus
+ * `pointBase`. Returns 1 when it wrote triangles, 0 when the plane gives it none, −1 when the cell is not
+ * covered by the tables (the caller then cuts it by the general path).
+ */
+export function cutByTable(types: Uint8Array, off: Int32Array, conn: Int32Array, c: number, g: number, pointBase: number): number {
+  const s = TABLE_SLOT[types[c]!]!;
+  if (s < 0) return -1;
+  const n = SLOT_NODES[s]!, q0 = off[c]!;
+  if (off[c + 1]! - q0 !== n) return -1;
+  let below = 0, zero = 0;
+  for (let i = 0; i < n; i++) {
+    const id = conn[q0 + i]!, j = 3 * id;
+    const d = NX * (P[j]! - OX) + NY * (P[j + 1]! - OY) + NZ * (P[j + 2]! - OZ);
+    const on = d <= TOL && d >= -TOL;
+    nodeId[i] = id; nodeD[i] = d;
+    below |= (d < 0 && !on ? 1 : 0) << i;
+    zero |= on ? 1 : 0;
+  }
+  if (zero !== 0) return -1;
+  if (below === 0 || below === (1 << n) - 1) return 0;
+  if (repeatsNode(n)) return -1;
+  let p = CASE_START[256 * s + below]!;
+  const loops = CASE_DATA[p++]!;
+  let any = 0;
+  for (let l = 0; l < loops; l++) {
+    const m = CASE_DATA[p++]!;
+    for (let i = 0; i < m; i++, p += 2) crossingAt(i, CASE_DATA[p]!, CASE_DATA[p + 1]!);
+    if (writePolygon(xX, xY, xZ, xA, xB, xT, ring, m, NX, NY, NZ, g, pointBase)) any = 1;
+  }
+  return any;
+}
+
+/** Whether a point id appears twice among the cell's n nodes. */
+function repeatsNode(n: number): boolean {
+  for (let i = 1; i < n; i++) {
+    const id = nodeId[i]!;
+    for (let j = 0; j < i; j++) if (nodeId[j] === id) return true;
+  }
+  return false;
+}
+
+/** Crossing i of the current loop on the edge from local node `lb` (below) to `la` (above); provenance from the lower point id. */
+function crossingAt(i: number, lb: number, la: number): void {
+  const a = nodeId[lb]!, b = nodeId[la]!, da = nodeD[lb]!, db = nodeD[la]!;
+  const ja = 3 * a, jb = 3 * b, den = db - da;
+  xX[i] = (db * P[ja]! - da * P[jb]!) / den;
+  xY[i] = (db * P[ja + 1]! - da * P[jb + 1]!) / den;
+  xZ[i] = (db * P[ja + 2]! - da * P[jb + 2]!) / den;
+  if (a < b) { xA[i] = a; xB[i] = b; xT[i] = -da / den; } else { xA[i] = b; xB[i] = a; xT[i] = db / den; }
+  ring[i] = i;
+}
