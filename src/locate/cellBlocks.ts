@@ -14,7 +14,9 @@
  *    padded outward by PAD × the box's largest extent, so it holds every padded cell box of the block
  *    (cellTree.ts pads a cell's box by PAD × the cell's own extent). A block without points has an
  *    inverted box that nothing meets;
- *  - `groupBoxes`: Float64Array(6 · groups), the union of GROUP consecutive block boxes (a first test).
+ *  - `groupBoxes`: Float64Array(6 · groups), the union of GROUP consecutive block boxes, and
+ *    `superBoxes` the union of GROUP consecutive group boxes: a walk tests super-groups, then the groups of
+ *    those met, then their blocks.
  */
 import { cellDimension, CellType } from '../model/cellTypes.ts';
 import { cellStarts, type Dataset } from '../model/dataset.ts';
@@ -23,9 +25,9 @@ import type { Piece } from '../model/piece.ts';
 import { PAD } from './cellTree.ts';
 
 /** Cells per block. */
-export const BLOCK = 32;
-/** Blocks per group (the first test of a walk). */
-export const GROUP = 32;
+export const BLOCK = 8;
+/** Blocks per group, and groups per super-group (the first test of a walk). */
+export const GROUP = 16;
 
 export interface CellBlocks {
   readonly dataset: Dataset;
@@ -39,6 +41,7 @@ export interface CellBlocks {
   readonly pieceBlocks: Int32Array;
   readonly boxes: Float64Array;
   readonly groupBoxes: Float64Array;
+  readonly superBoxes: Float64Array;
   /** Bytes of the arrays kept. */
   readonly bytes: number;
   /** Wall time of the build, milliseconds. */
@@ -72,12 +75,13 @@ export function buildCellBlocks(dataset: Dataset): CellBlocks {
     volume += volumeCells(p.cellTypes);
   }
   padBoxes(boxes, nb);
-  const ng = Math.ceil(nb / GROUP);
-  const groupBoxes = new Float64Array(6 * ng);
+  const ng = Math.ceil(nb / GROUP), ns = Math.ceil(ng / GROUP);
+  const groupBoxes = new Float64Array(6 * ng), superBoxes = new Float64Array(6 * ns);
   unionGroups(boxes, nb, groupBoxes);
+  unionGroups(groupBoxes, ng, superBoxes);
   return {
-    dataset, cellCount: starts[starts.length - 1]!, volumeCellCount: volume, starts, pieceBlocks, boxes, groupBoxes,
-    bytes: starts.byteLength + pieceBlocks.byteLength + boxes.byteLength + groupBoxes.byteLength,
+    dataset, cellCount: starts[starts.length - 1]!, volumeCellCount: volume, starts, pieceBlocks, boxes, groupBoxes, superBoxes,
+    bytes: starts.byteLength + pieceBlocks.byteLength + boxes.byteLength + groupBoxes.byteLength + superBoxes.byteLength,
     buildMs: performance.now() - t0,
   };
 }

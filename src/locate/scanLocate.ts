@@ -38,22 +38,28 @@ export interface ScannedSamples {
 
 let hitBlocks = new Int32Array(1024);
 
-/** Blocks whose padded box the segment meets, into the module buffer; returns their count. */
+/** Blocks whose padded box the segment meets (super-groups, then groups, then blocks), into the module buffer; returns their count. */
 function blocksMet(b: CellBlocks, from: Vec3, to: Vec3): number {
-  const gb = b.groupBoxes, bb = b.boxes, nb = b.boxes.length / 6, ng = gb.length / 6;
+  const sb = b.superBoxes, gb = b.groupBoxes, bb = b.boxes, nb = bb.length / 6, ng = gb.length / 6, ns = sb.length / 6;
   const px = from[0], py = from[1], pz = from[2], dx = to[0] - px, dy = to[1] - py, dz = to[2] - pz;
   let found = 0;
-  for (let g = 0; g < ng; g++) {
-    const o = 6 * g;
-    if (!segmentMeetsBox(gb[o]!, gb[o + 1]!, gb[o + 2]!, gb[o + 3]!, gb[o + 4]!, gb[o + 5]!, px, py, pz, dx, dy, dz)) continue;
-    for (let j = g * GROUP, je = Math.min(nb, j + GROUP); j < je; j++) {
-      const q = 6 * j;
-      if (!segmentMeetsBox(bb[q]!, bb[q + 1]!, bb[q + 2]!, bb[q + 3]!, bb[q + 4]!, bb[q + 5]!, px, py, pz, dx, dy, dz)) continue;
-      if (found === hitBlocks.length) { const h = new Int32Array(2 * found); h.set(hitBlocks); hitBlocks = h; }
-      hitBlocks[found++] = j;
+  for (let s = 0; s < ns; s++) {
+    if (!meets(sb, s, px, py, pz, dx, dy, dz)) continue;
+    for (let g = s * GROUP, ge = Math.min(ng, g + GROUP); g < ge; g++) {
+      if (!meets(gb, g, px, py, pz, dx, dy, dz)) continue;
+      for (let j = g * GROUP, je = Math.min(nb, j + GROUP); j < je; j++) {
+        if (!meets(bb, j, px, py, pz, dx, dy, dz)) continue;
+        if (found === hitBlocks.length) { const h = new Int32Array(2 * found); h.set(hitBlocks); hitBlocks = h; }
+        hitBlocks[found++] = j;
+      }
     }
   }
   return found;
+}
+
+function meets(boxes: Float64Array, i: number, px: number, py: number, pz: number, dx: number, dy: number, dz: number): boolean {
+  const o = 6 * i;
+  return segmentMeetsBox(boxes[o]!, boxes[o + 1]!, boxes[o + 2]!, boxes[o + 3]!, boxes[o + 4]!, boxes[o + 5]!, px, py, pz, dx, dy, dz);
 }
 
 /**
