@@ -36,22 +36,34 @@ export interface ScannedSamples {
   readonly visited: number;
 }
 
-let hitBlocks = new Int32Array(1024);
+let hitBlocks = new Int32Array(0);
 
-/** Blocks whose padded box the segment meets (super-groups, then groups, then blocks), into the module buffer; returns their count. */
+/**
+ * Blocks whose padded box the segment meets (super-groups, then groups, then blocks), into the module buffer;
+ * returns their count. The walk below a super-group is a function of its own, called for each one met, so it
+ * is optimised with feedback for all of it (code run once, before a loop, has none).
+ */
 function blocksMet(b: CellBlocks, from: Vec3, to: Vec3): number {
-  const sb = b.superBoxes, gb = b.groupBoxes, bb = b.boxes, nb = bb.length / 6, ng = gb.length / 6, ns = sb.length / 6;
+  const sb = b.superBoxes, ns = sb.length / 6;
   const px = from[0], py = from[1], pz = from[2], dx = to[0] - px, dy = to[1] - py, dz = to[2] - pz;
+  // Room for every block before the walk: a branch first taken late would throw the optimised walk away.
+  if (hitBlocks.length < b.boxes.length / 6) hitBlocks = new Int32Array(b.boxes.length / 6);
   let found = 0;
   for (let s = 0; s < ns; s++) {
-    if (!meets(sb, s, px, py, pz, dx, dy, dz)) continue;
-    for (let g = s * GROUP, ge = Math.min(ng, g + GROUP); g < ge; g++) {
-      if (!meets(gb, g, px, py, pz, dx, dy, dz)) continue;
-      for (let j = g * GROUP, je = Math.min(nb, j + GROUP); j < je; j++) {
-        if (!meets(bb, j, px, py, pz, dx, dy, dz)) continue;
-        if (found === hitBlocks.length) { const h = new Int32Array(2 * found); h.set(hitBlocks); hitBlocks = h; }
-        hitBlocks[found++] = j;
-      }
+    if (meets(sb, s, px, py, pz, dx, dy, dz)) found = blocksUnder(b.groupBoxes, b.boxes, s, px, py, pz, dx, dy, dz, hitBlocks, found);
+  }
+  return found;
+}
+
+/** Appends to `hit` (from `found`) the blocks of super-group s that the segment meets; returns the new count. */
+function blocksUnder(gb: Float64Array, bb: Float64Array, s: number, px: number, py: number, pz: number, dx: number, dy: number, dz: number,
+  hit: Int32Array, found: number): number {
+  const nb = bb.length / 6, ng = gb.length / 6;
+  for (let g = s * GROUP, ge = Math.min(ng, g + GROUP); g < ge; g++) {
+    if (!meets(gb, g, px, py, pz, dx, dy, dz)) continue;
+    for (let j = g * GROUP, je = Math.min(nb, j + GROUP); j < je; j++) {
+      if (!meets(bb, j, px, py, pz, dx, dy, dz)) continue;
+      hit[found++] = j;
     }
   }
   return found;
@@ -126,7 +138,10 @@ function scanBlock(p: Piece, c0: number, c1: number, g0: number, from: Vec3, to:
       const score = v > 0 ? v : 0;
       if (!(score <= tolerance)) continue;
       if (v <= 0) { const f = flags[i]!; flags[i] = (f & 4) | Math.min((f & 3) + 1, 2) | (v < -tolerance ? 4 : 0); }
-      if (score < rank[i]! || (score === rank[i] && g < cell[i]!)) { rank[i] = score; cell[i] = g; }
+      // Both read every time: a tie (a sample on a shared face) first met on a later line would otherwise
+      // meet code without type feedback and throw the optimised loop away.
+      const r = rank[i]!, held = cell[i]!, less = score < r, equal = score === r, lower = g < held;
+      if (less || (equal && lower)) { rank[i] = score; cell[i] = g; }
     }
   }
 }
