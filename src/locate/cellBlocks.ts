@@ -11,7 +11,7 @@
  *  - block j of piece k covers that piece's cells `BLOCK·(j − pieceBlocks[k]) …` (BLOCK of them, fewer in
  *    the piece's last block); blocks never straddle two pieces;
  *  - `boxes`: Float64Array(6 · blocks), the box of every point the block's cells use (2D cells included),
- *    padded outward by PAD × the box's largest extent, so it holds every padded cell box of the block
+ *    padded outward by 2·PAD × the box's largest extent, so it holds every padded cell box of the block
  *    (cellTree.ts pads a cell's box by PAD × the cell's own extent). A block without points has an
  *    inverted box that nothing meets;
  *  - `groupBoxes`: Float64Array(6 · groups), the union of GROUP consecutive block boxes, and
@@ -22,6 +22,7 @@ import { cellDimension, CellType } from '../model/cellTypes.ts';
 import { cellStarts, type Dataset } from '../model/dataset.ts';
 import { geometryOnly, meshKey, type MeshKey } from '../model/meshKey.ts';
 import type { Piece } from '../model/piece.ts';
+import { uniformSize } from '../model/uniformCells.ts';
 import { PAD } from './cellTree.ts';
 
 /** Cells per block. */
@@ -72,9 +73,8 @@ export function buildCellBlocks(dataset: Dataset): CellBlocks {
     const p = pieces[k]!;
     if (p.polyFaces) polyBlockBoxes(p, boxes, pieceBlocks[k]!);
     else blockBoxes(p.points, p.connectivity, p.offsets, p.cellTypes.length, boxes, pieceBlocks[k]!);
-    volume += volumeCells(p.cellTypes);
+    volume += uniformSize(p.cellTypes, p.offsets) > 0 ? p.cellTypes.length : volumeCells(p.cellTypes);
   }
-  padBoxes(boxes, nb);
   const ng = Math.ceil(nb / GROUP), ns = Math.ceil(ng / GROUP);
   const groupBoxes = new Float64Array(6 * ng), superBoxes = new Float64Array(6 * ns);
   unionGroups(boxes, nb, groupBoxes);
@@ -113,8 +113,7 @@ function blockBoxes(pts: Float64Array, conn: Int32Array, off: Int32Array, nc: nu
       if (y < y0) y0 = y; if (y > y1) y1 = y;
       if (z < z0) z0 = z; if (z > z1) z1 = z;
     }
-    const o = 6 * j;
-    out[o] = x0; out[o + 1] = x1; out[o + 2] = y0; out[o + 3] = y1; out[o + 4] = z0; out[o + 5] = z1;
+    writePadded(out, 6 * j, x0, x1, y0, y1, z0, z1);
   }
 }
 
@@ -135,21 +134,22 @@ function polyBlockBoxes(p: Piece, out: Float64Array, b0: number): void {
         if (z < z0) z0 = z; if (z > z1) z1 = z;
       }
     }
-    const o = 6 * j;
-    out[o] = x0; out[o + 1] = x1; out[o + 2] = y0; out[o + 3] = y1; out[o + 4] = z0; out[o + 5] = z1;
+    writePadded(out, 6 * j, x0, x1, y0, y1, z0, z1);
   }
 }
 
-/** Pads each (non-empty) box by PAD × its largest extent, and a little more for rounding of the padded cell boxes. */
-function padBoxes(b: Float64Array, nb: number): void {
-  for (let j = 0; j < nb; j++) {
-    const o = 6 * j;
-    if (!(b[o]! <= b[o + 1]!)) continue;
-    const ext = Math.max(b[o + 1]! - b[o]!, b[o + 3]! - b[o + 2]!, b[o + 5]! - b[o + 4]!);
-    const big = Math.max(Math.abs(b[o]!), Math.abs(b[o + 1]!), Math.abs(b[o + 2]!), Math.abs(b[o + 3]!), Math.abs(b[o + 4]!), Math.abs(b[o + 5]!));
-    const pad = 2 * PAD * ext + 1e-15 * big;
-    b[o] -= pad; b[o + 1] += pad; b[o + 2] -= pad; b[o + 3] += pad; b[o + 4] -= pad; b[o + 5] += pad;
+/**
+ * Writes a block's box padded by PAD × its largest extent (twice over), and a little more for rounding of the
+ * padded cell boxes; a block without points keeps its inverted box.
+ */
+function writePadded(out: Float64Array, o: number, x0: number, x1: number, y0: number, y1: number, z0: number, z1: number): void {
+  let pad = 0;
+  if (x0 <= x1) {
+    const ext = Math.max(x1 - x0, y1 - y0, z1 - z0);
+    const big = Math.max(Math.abs(x0), Math.abs(x1), Math.abs(y0), Math.abs(y1), Math.abs(z0), Math.abs(z1));
+    pad = 2 * PAD * ext + 1e-15 * big;
   }
+  out[o] = x0 - pad; out[o + 1] = x1 + pad; out[o + 2] = y0 - pad; out[o + 3] = y1 + pad; out[o + 4] = z0 - pad; out[o + 5] = z1 + pad;
 }
 
 function unionGroups(b: Float64Array, nb: number, out: Float64Array): void {
