@@ -6,9 +6,9 @@
  * top-down over that order at the highest Morton bit that differs in a range (so children are spatially
  * separated), falling back to the middle of the range when that split would leave a side with fewer than
  * max(LEAF/2, n/8) cells — which bounds the depth by O(log n) and the node count by 4n/LEAF. Ranges of
- * at most LEAF cells become leaves. The build allocates nothing besides what the tree keeps (first touch
- * of fresh memory is a large part of the cost): the radix sort runs in the node-box array before it holds
- * boxes, and the boxes pass computes each cell's box from its points, in tree order.
+ * at most LEAF cells become leaves. Besides what the tree keeps, the build allocates only the cells' padded
+ * boxes (24 bytes a cell, dropped after the build; first touch of fresh memory is a large part of the
+ * cost): the radix sort runs in the node-box array before it holds boxes.
  *
  * Layout (everything the tree keeps, all typed arrays; boxes are `[xmin, xmax, ymin, ymax, zmin, zmax]`):
  *  - `order`: Int32Array(n), tree slot → global cell id. The cells of a leaf occupy consecutive slots.
@@ -27,7 +27,7 @@
  */
 import { cellDimension, CellType } from '../model/cellTypes.ts';
 import { datasetBounds, isEmptyBounds } from '../model/bounds.ts';
-import { cellStarts, pieceOfCell, type Dataset } from '../model/dataset.ts';
+import { cellStarts, type Dataset } from '../model/dataset.ts';
 import { geometryOnly, meshKey, type MeshKey } from '../model/meshKey.ts';
 import type { Piece } from '../model/piece.ts';
 import { uniformSize } from '../model/uniformCells.ts';
@@ -102,9 +102,12 @@ export function buildCellTree(dataset: Dataset): CellTree {
   const codes = new Uint32Array(buf, 0, n), keyB = new Uint32Array(buf, 4 * n, n), valB = new Int32Array(buf, 8 * n, n);
   // Each phase is its own function: V8 optimises a hot loop by on-stack replacement, and a phase sharing
   // a function with loops that have not run yet would drop back to the interpreter when it reached them.
+  // Padded cell boxes (Float32, relative to the origin), by global id: computed in the sequential pass, so
+  // the boxes pass, which visits cells in Morton order, reads 24 bytes per cell instead of its points.
+  const boxes = new Float32Array(6 * n);
   let volumeCells = 0;
   for (let k = 0; k < dataset.pieces.length; k++) {
-    volumeCells += mortonCodes(dataset.pieces[k]!, starts[k]!, ox, oy, oz, 511.5 / half, codes);
+    volumeCells += mortonCodes(dataset.pieces[k]!, starts[k]!, ox, oy, oz, 511.5 / half, roundPad, codes, boxes);
   }
   iota(order);
   const t1 = performance.now();
@@ -116,7 +119,7 @@ export function buildCellTree(dataset: Dataset): CellTree {
   const t3 = performance.now();
   // From here the node-box array holds boxes; the sorted codes are no longer needed.
   const cellBoxes = new Uint8Array(6 * n);
-  boxesBottomUp({ pieces: dataset.pieces, starts, ox, oy, oz, roundPad }, order, nodeRef, nodeCount, nodeBounds, cellBoxes);
+  boxesBottomUp(boxes, order, nodeRef, nodeCount, nodeBounds, cellBoxes);
   const t4 = performance.now();
   const origin = Float64Array.of(ox, oy, oz);
   const bytes = order.byteLength + nodeRef.byteLength + nodeBounds.byteLength + cellBoxes.byteLength + starts.byteLength + origin.byteLength;
@@ -153,10 +156,11 @@ const RANGE = new Int32Array(2);
 
 /**
  * Morton code of each cell's box centre (piece `p`, global ids from `g0`): a 1024³ lattice over ±half
- * around (ox, oy, oz), `scale` = 511.5/half (code 0 for a cell without points). Returns the piece's count of
- * volume cells.
+ * around (ox, oy, oz), `scale` = 511.5/half; and the cell's padded box relative to the origin into `boxes`
+ * (6 per global id; an inverted box for a cell without points, which gets code 0). Returns the piece's
+ * count of volume cells.
  */
-function mortonCodes(p: Piece, g0: number, ox: number, oy: number, oz: number, scale: number, codes: Uint32Array): number {
+function mortonCodes(p: Piece, g0: number, ox: number, oy: number, oz: number, scale: number, roundPad: number, codes: Uint32Array, boxes: Float32Array): number {
   const pts = p.points, types = p.cellTypes, off = p.offsets, conn = p.connectivity, nc = types.length;
   // Pieces of only tetrahedra or only hexahedra: fixed stride through connectivity, no type or offset reads.
   const m = uniformSize(types, off), base = off[0] ?? 0;
@@ -176,49 +180,23 @@ function mortonCodes(p: Piece, g0: number, ox: number, oy: number, oz: number, s
       if (y < y0) y0 = y; if (y > y1) y1 = y;
       if (z < z0) z0 = z; if (z > z1) z1 = z;
     }
-    codes[g0 + c] = x0 > x1 ? 0 : MORTON[lattice(((x0 + x1) * 0.5 - ox) * scale)]!
+    const g = g0 + c, o = 6 * g;
+    if (x0 > x1) {
+      codes[g] = 0;
+      boxes[o] = Infinity; boxes[o + 1] = -Infinity; boxes[o + 2] = Infinity; boxes[o + 3] = -Infinity; boxes[o + 4] = Infinity; boxes[o + 5] = -Infinity;
+      continue;
+    }
+    codes[g] = MORTON[lattice(((x0 + x1) * 0.5 - ox) * scale)]!
       | (MORTON[lattice(((y0 + y1) * 0.5 - oy) * scale)]! << 1) | (MORTON[lattice(((z0 + z1) * 0.5 - oz) * scale)]! << 2);
+    let ext = x1 - x0;
+    if (y1 - y0 > ext) ext = y1 - y0;
+    if (z1 - z0 > ext) ext = z1 - z0;
+    ext = ext * PAD + roundPad;
+    boxes[o] = x0 - ox - ext; boxes[o + 1] = x1 - ox + ext;
+    boxes[o + 2] = y0 - oy - ext; boxes[o + 3] = y1 - oy + ext;
+    boxes[o + 4] = z0 - oz - ext; boxes[o + 5] = z1 - oz + ext;
   }
   return volume;
-}
-
-/** What the boxes pass needs to compute a cell's padded box: the pieces, `cellStarts`, the origin and the rounding pad. */
-interface BoxSource {
-  readonly pieces: readonly Piece[];
-  readonly starts: Int32Array;
-  readonly ox: number;
-  readonly oy: number;
-  readonly oz: number;
-  readonly roundPad: number;
-}
-
-/**
- * The padded box of global cell g relative to the origin, as Float32, into `out[o … o + 5]`; an inverted box
- * for a cell without points. Every cell box is padded by PAD × its largest extent plus `roundPad`.
- */
-function cellBox(src: BoxSource, g: number, out: Float32Array, o: number): void {
-  const pieces = src.pieces, k = pieces.length === 1 ? 0 : pieceOfCell(src.starts, g);
-  const p = pieces[k]!, c = g - src.starts[k]!, pts = p.points;
-  let ids = p.connectivity, a = p.offsets[c]!, b = p.offsets[c + 1]!;
-  if (a === b && p.cellTypes[c] === CellType.POLYHEDRON) { ids = idsOf(p, c, RANGE); a = RANGE[0]!; b = RANGE[1]!; }
-  let x0 = Infinity, x1 = -Infinity, y0 = Infinity, y1 = -Infinity, z0 = Infinity, z1 = -Infinity;
-  for (let q = a; q < b; q++) {
-    const i = 3 * ids[q]!, x = pts[i]!, y = pts[i + 1]!, z = pts[i + 2]!;
-    if (x < x0) x0 = x; if (x > x1) x1 = x;
-    if (y < y0) y0 = y; if (y > y1) y1 = y;
-    if (z < z0) z0 = z; if (z > z1) z1 = z;
-  }
-  if (x0 > x1) {
-    out[o] = Infinity; out[o + 1] = -Infinity; out[o + 2] = Infinity; out[o + 3] = -Infinity; out[o + 4] = Infinity; out[o + 5] = -Infinity;
-    return;
-  }
-  let ext = x1 - x0;
-  if (y1 - y0 > ext) ext = y1 - y0;
-  if (z1 - z0 > ext) ext = z1 - z0;
-  ext = ext * PAD + src.roundPad;
-  out[o] = x0 - src.ox - ext; out[o + 1] = x1 - src.ox + ext;
-  out[o + 2] = y0 - src.oy - ext; out[o + 3] = y1 - src.oy + ext;
-  out[o + 4] = z0 - src.oz - ext; out[o + 5] = z1 - src.oz + ext;
 }
 
 /**
@@ -258,18 +236,13 @@ function splitRanges(codes: Uint32Array, ref: Int32Array | null): { count: numbe
   return { count: nodes, maxDepth };
 }
 
-/** The padded boxes of one leaf's cells (6 per cell, slot order). */
-const LEAF_BOXES = new Float32Array(6 * LEAF);
-
 /**
  * Node boxes bottom-up (pre-order walked backwards meets children before parents). A leaf's box is the
- * union of its cells' padded boxes, computed here from their points in tree order (no per-cell box array:
- * its fresh memory cost more than reading the points again); then each cell box is quantised within it.
+ * union of its cells' padded boxes (`boxes`, by global id); then each cell box is quantised within it.
  * Storing a cell box as Float32 rounds it by at most 2^-24 of its coordinate, which the padding covers
  * (`roundPad`); the union and the outward quantisation add no rounding.
  */
-function boxesBottomUp(src: BoxSource, order: Int32Array, nodeRef: Int32Array, nodeCount: number, nb: Float32Array, cellBoxes: Uint8Array): void {
-  const boxes = LEAF_BOXES;
+function boxesBottomUp(boxes: Float32Array, order: Int32Array, nodeRef: Int32Array, nodeCount: number, nb: Float32Array, cellBoxes: Uint8Array): void {
   for (let i = nodeCount - 1; i >= 0; i--) {
     const cnt = nodeRef[2 * i + 1]!, o = 6 * i;
     if (cnt < 0) {
@@ -282,8 +255,7 @@ function boxesBottomUp(src: BoxSource, order: Int32Array, nodeRef: Int32Array, n
     const first = nodeRef[2 * i]!;
     let x0 = Infinity, x1 = -Infinity, y0 = Infinity, y1 = -Infinity, z0 = Infinity, z1 = -Infinity;
     for (let j = 0; j < cnt; j++) {
-      const b = 6 * j;
-      cellBox(src, order[first + j]!, boxes, b);
+      const b = 6 * order[first + j]!;
       if (boxes[b]! < x0) x0 = boxes[b]!; if (boxes[b + 1]! > x1) x1 = boxes[b + 1]!;
       if (boxes[b + 2]! < y0) y0 = boxes[b + 2]!; if (boxes[b + 3]! > y1) y1 = boxes[b + 3]!;
       if (boxes[b + 4]! < z0) z0 = boxes[b + 4]!; if (boxes[b + 5]! > z1) z1 = boxes[b + 5]!;
@@ -291,7 +263,7 @@ function boxesBottomUp(src: BoxSource, order: Int32Array, nodeRef: Int32Array, n
     nb[o] = x0; nb[o + 1] = x1; nb[o + 2] = y0; nb[o + 3] = y1; nb[o + 4] = z0; nb[o + 5] = z1;
     const sx = 255 / (x1 - x0), sy = 255 / (y1 - y0), sz = 255 / (z1 - z0);
     for (let j = 0; j < cnt; j++) {
-      const q = 6 * (first + j), b = 6 * j;
+      const q = 6 * (first + j), b = 6 * order[first + j]!;
       if (boxes[b]! > boxes[b + 1]!) {
         // A cell without points: an inverted box that nothing meets.
         cellBoxes[q] = 255; cellBoxes[q + 1] = 0; cellBoxes[q + 2] = 255; cellBoxes[q + 3] = 0; cellBoxes[q + 4] = 255; cellBoxes[q + 5] = 0;
