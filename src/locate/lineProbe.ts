@@ -14,8 +14,9 @@
  */
 import type { Dataset } from '../model/dataset.ts';
 import { getCellTree } from './cellTree.ts';
+import { lineLocator, locateLineSamples } from './lineSamples.ts';
 import { assertLocatable, checkTolerance, createLocation, DEFAULT_TOLERANCE, locatePoint } from './locatePoint.ts';
-import { allocateColumns, resolveProbeFields, writeSample, type SampledField } from './probeFields.ts';
+import { allocateColumns, resolveProbeFields, writeSample, type ProbeField, type SampledField } from './probeFields.ts';
 import { segmentCrossings } from './segmentCrossings.ts';
 
 export type Vec3 = readonly [number, number, number];
@@ -72,16 +73,12 @@ export function probeLine(dataset: Dataset, from: Vec3, to: Vec3, options: Parti
     throw new Error(`line probe: samples must be an integer from 2 to 10000000, got ${o.samples}`);
   }
   checkTolerance(o.tolerance, 'line probe');
-  const tree = getCellTree(dataset);
-  assertLocatable(tree);
+  assertLocatable(lineLocator(dataset));
   const fields = resolveProbeFields(dataset, o.fields);
+  if (o.mode === 'samples') return evenSamples(dataset, from, to, length, o.samples, o.tolerance, fields);
 
-  let taus: Float64Array;
-  if (o.mode === 'crossings') taus = segmentCrossings(tree, from[0], from[1], from[2], to[0], to[1], to[2]).slice();
-  else {
-    taus = new Float64Array(o.samples);
-    for (let i = 0; i < o.samples; i++) taus[i] = i / (o.samples - 1);
-  }
+  const tree = getCellTree(dataset);
+  const taus = segmentCrossings(tree, from[0], from[1], from[2], to[0], to[1], to[2]).slice();
   const n = taus.length;
   const s = new Float64Array(n), x = new Float64Array(n), y = new Float64Array(n), z = new Float64Array(n);
   const valid = new Uint8Array(n), cell = new Int32Array(n);
@@ -101,11 +98,29 @@ export function probeLine(dataset: Dataset, from: Vec3, to: Vec3, options: Parti
   if (validCount === 0) return emptyResult(from, to, length, o.mode, fields.length ? allocateColumns(fields, 0) : []);
   const intervalInside = new Uint8Array(n - 1);
   for (let i = 0; i + 1 < n; i++) {
-    if (o.mode === 'samples') { intervalInside[i] = valid[i]! & valid[i + 1]!; continue; }
     const t = 0.5 * (taus[i]! + taus[i + 1]!);
     intervalInside[i] = locatePoint(tree, from[0] + t * dx, from[1] + t * dy, from[2] + t * dz, loc, o.tolerance, cell[i]!) ? 1 : 0;
   }
   return { from, to, length, mode: o.mode, count: n, validCount, outside: false, s, x, y, z, valid, cell, intervalInside, fields: columns };
+}
+
+/** Evenly spaced samples (lineSamples.ts locates them: by the tree when built, else by a scan of the blocks the line meets). */
+function evenSamples(dataset: Dataset, from: Vec3, to: Vec3, length: number, n: number, tolerance: number, fields: ProbeField[]): LineProbeResult {
+  const dx = to[0] - from[0], dy = to[1] - from[1], dz = to[2] - from[2];
+  const columns = allocateColumns(fields, n);
+  const { cell } = locateLineSamples(dataset, from, to, n, tolerance, fields, columns);
+  const s = new Float64Array(n), x = new Float64Array(n), y = new Float64Array(n), z = new Float64Array(n), valid = new Uint8Array(n);
+  let validCount = 0;
+  for (let i = 0; i < n; i++) {
+    const t = i / (n - 1);
+    s[i] = t * length;
+    x[i] = t === 1 ? to[0] : from[0] + t * dx; y[i] = t === 1 ? to[1] : from[1] + t * dy; z[i] = t === 1 ? to[2] : from[2] + t * dz;
+    if (cell[i]! >= 0) { valid[i] = 1; validCount++; }
+  }
+  if (validCount === 0) return emptyResult(from, to, length, 'samples', fields.length ? allocateColumns(fields, 0) : []);
+  const intervalInside = new Uint8Array(n - 1);
+  for (let i = 0; i + 1 < n; i++) intervalInside[i] = valid[i]! & valid[i + 1]!;
+  return { from, to, length, mode: 'samples', count: n, validCount, outside: false, s, x, y, z, valid, cell, intervalInside, fields: columns };
 }
 
 function emptyResult(from: Vec3, to: Vec3, length: number, mode: LineProbeOptions['mode'], fields: SampledField[]): LineProbeResult {

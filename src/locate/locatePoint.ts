@@ -60,7 +60,7 @@ export function createLocation(): Location {
 }
 
 /** Throws unless the dataset has volume cells (point location is undefined on surfaces). */
-export function assertLocatable(tree: CellTree): void {
+export function assertLocatable(tree: Pick<CellTree, 'dataset' | 'cellCount' | 'volumeCellCount'>): void {
   if (tree.volumeCellCount === 0) {
     throw new Error(`locate: "${tree.dataset.source}" holds no volume cells (${tree.cellCount} surface/line/vertex cells); point location is defined only inside 3D cells`);
   }
@@ -113,7 +113,7 @@ export function locatePoint(tree: CellTree, x: number, y: number, z: number, loc
  * then extrapolate outside the cell). Returns the parametric violation (Infinity for non-volume or
  * degenerate cells, which leave `loc.cell` at −1).
  */
-export function locateInCell(tree: CellTree, g: number, x: number, y: number, z: number, loc: Location): number {
+export function locateInCell(tree: Pick<CellTree, 'dataset' | 'starts'>, g: number, x: number, y: number, z: number, loc: Location): number {
   const k = tree.dataset.pieces.length === 1 ? 0 : pieceOfCell(tree.starts, g);
   const c = g - tree.starts[k]!;
   const v = evaluateCell(tree.dataset.pieces[k]!, c, x, y, z);

@@ -8,8 +8,8 @@
 import { cutPlane, type CutOptions, type PlaneFaceKeys } from '../cut/cutPlane.ts';
 import type { SurfaceField, Vec3 } from '../cut/triangleSet.ts';
 import type { Dataset } from '../model/dataset.ts';
-import { getCellTree } from '../locate/cellTree.ts';
-import { checkTolerance, createLocation, DEFAULT_TOLERANCE, locatePoint } from '../locate/locatePoint.ts';
+import { lineLocator, locateLineSamples } from '../locate/lineSamples.ts';
+import { checkTolerance, createLocation, DEFAULT_TOLERANCE } from '../locate/locatePoint.ts';
 import { allocateColumns, resolveProbeFields, writeSample, type SampledField } from '../locate/probeFields.ts';
 import { boundaryFaces } from '../surface/boundaryFaces.ts';
 import type { PointMerge } from '../surface/pointMerge.ts';
@@ -62,30 +62,25 @@ export interface LineShareOptions {
   tolerance?: number;
 }
 
-const loc = createLocation();
-
 /**
- * Locates the evenly spaced samples of A→B in the share's cells and writes their values: the loop of
- * `probeLine` (lineProbe.ts) with the same sample positions, hint and tolerance, keeping each holder's rank.
+ * Locates the evenly spaced samples of A→B in the share's cells and writes their values: what `probeLine`
+ * (lineProbe.ts) does, through the same `locateLineSamples` (the share's tree when built, else a scan of
+ * its blocks), keeping each holder's rank.
  */
 export function lineShare(share: Dataset, range: CellShare, from: Vec3, to: Vec3, o: LineShareOptions): LinePart {
   const n = o.samples, tol = o.tolerance ?? DEFAULT_TOLERANCE;
   checkTolerance(tol, 'line probe');
   const fields = resolveProbeFields(share, o.fields);
   const columns = allocateColumns(fields, n);
-  const cell = new Int32Array(n).fill(-1), rank = new Float64Array(n).fill(Infinity);
-  const tree = getCellTree(share);
-  const dx = to[0] - from[0], dy = to[1] - from[1], dz = to[2] - from[2];
-  let hint = -1;
-  for (let i = 0; i < n; i++) {
-    if (tree.volumeCellCount === 0) { loc.cell = -1; writeSample(fields, columns, i, loc); continue; }
-    const t = i / (n - 1);
-    const px = t === 1 ? to[0] : from[0] + t * dx, py = t === 1 ? to[1] : from[1] + t * dy, pz = t === 1 ? to[2] : from[2] + t * dz;
-    const ok = locatePoint(tree, px, py, pz, loc, tol, hint);
-    writeSample(fields, columns, i, loc);
-    if (ok) { cell[i] = loc.cell + range.start; rank[i] = Math.max(loc.violation, 0); hint = loc.cell; }
+  const volumeCells = lineLocator(share).volumeCellCount;
+  if (volumeCells === 0) {
+    const none = createLocation();
+    for (let i = 0; i < n; i++) writeSample(fields, columns, i, none);
+    return { cell: new Int32Array(n).fill(-1), rank: new Float64Array(n).fill(Infinity), fields: columns, volumeCells };
   }
-  return { cell, rank, fields: columns, volumeCells: tree.volumeCellCount };
+  const { cell, rank } = locateLineSamples(share, from, to, n, tol, fields, columns);
+  for (let i = 0; i < n; i++) if (cell[i]! >= 0) cell[i] = cell[i]! + range.start;
+  return { cell, rank, fields: columns, volumeCells };
 }
 
 /** A share's boundary faces (faces used once by the share's 3D cells), cell ids global. */

@@ -111,12 +111,8 @@ export function surfaceLoads(d: Dataset, faces: BoundaryFaces, selection: Int32A
   const n = selection.length, notes: string[] = [];
   if (o.kinematic && !(o.rho !== undefined && o.rho > 0)) throw new Error('kinematic pressure needs the density: give rho > 0');
   const scale = o.kinematic ? o.rho! : 1;
-  const offsets = new Int32Array(n + 1), used = new Uint8Array(d.pieces.length), fo = faces.offsets;
-  for (let k = 0; k < n; k++) {
-    const f = selection[k]!;
-    offsets[k + 1] = offsets[k]! + fo[f + 1]! - fo[f]!;
-    used[faces.piece[f]!] = 1;
-  }
+  const offsets = new Int32Array(n + 1), used = new Uint8Array(d.pieces.length);
+  cornerOffsets(faces.offsets, faces.piece, selection, offsets, used);
   const pieces: number[] = [];
   for (let k = 0; k < used.length; k++) if (used[k]) pieces.push(k);
   if (n === 0) {
@@ -154,6 +150,17 @@ export function surfaceLoads(d: Dataset, faces: BoundaryFaces, selection: Int32A
     }
   } else notes.push('viscous force not computed (viscous: none)');
   return { selection, offsets, pressure, traction, pressureArray: pName, pressureAssociation: pAssoc, viscous, notes };
+}
+
+/** Corner offsets of the selected faces (prefix sums of their node counts) and which pieces hold them. */
+function cornerOffsets(fo: Int32Array, facePiece: Int32Array, selection: Int32Array, offsets: Int32Array, used: Uint8Array): void {
+  let corners = 0;
+  for (let k = 0, n = selection.length; k < n; k++) {
+    const f = selection[k]!;
+    corners += fo[f + 1]! - fo[f]!;
+    offsets[k + 1] = corners;
+    used[facePiece[f]!] = 1;
+  }
 }
 
 /**

@@ -247,3 +247,35 @@ function resolveTop(d: Dataset): number {
   const faces = boundaryFaces(d), groups = surfaceGroups(d, faces);
   return groups.groups.find((g) => Math.abs(g.centroid[2] - 1) < 1e-12)!.id;
 }
+
+describe('force totals over many faces', () => {
+  // Reference: exactness of the sum's order. Every boundary face of a tetrahedral mesh is one triangle, so the
+  // total over all faces is the per-face totals added in face order; the integration (in calls of a few dozen
+  // faces carrying running sums) must give those very bits, for the pressure and viscous force, both moments
+  // and the wetted area.
+  it('equal, bit for bit, the per-face totals added in order (pressure, traction, moments, area)', () => {
+    const p = tetGrid(7, 6, 5, (u, v, w) => [u + 0.1 * v * w, v + 0.05 * u, w * (1 + 0.2 * u)]);
+    const d = datasetOf([withFields(p, [
+      pointFieldFrom(p, 'p', 1, (x, y, z, o) => { o[0] = 3 + x * y - 2 * z * z; }),
+      pointFieldFrom(p, 'wss', 3, (x, y, z, o) => { o[0] = y; o[1] = x * z; o[2] = 0.5 - x; }),
+    ])]);
+    const faces = boundaryFaces(d);
+    expect(faces.count).toBeGreaterThan(400);
+    const all = Int32Array.from({ length: faces.count }, (_, i) => i);
+    const opts = { momentPoint: [0.3, -0.2, 0.1] as Vec3 };
+    const total = forceTotals(d, faces, surfaceLoads(d, faces, all, { pressure: 'p', wallShear: 'wss' }), opts);
+    const sum = { fp: [0, 0, 0], fv: [0, 0, 0], mp: [0, 0, 0], mv: [0, 0, 0], area: 0 };
+    for (let f = 0; f < faces.count; f++) {
+      const one = forceTotals(d, faces, surfaceLoads(d, faces, Int32Array.of(f), { pressure: 'p', wallShear: 'wss' }), opts);
+      for (let a = 0; a < 3; a++) {
+        sum.fp[a] += one.pressureForce[a]; sum.fv[a] += one.viscousForce![a]; sum.mp[a] += one.pressureMoment[a]; sum.mv[a] += one.viscousMoment![a];
+      }
+      sum.area += one.area;
+    }
+    expect(total.pressureForce).toEqual(sum.fp);
+    expect(total.viscousForce).toEqual(sum.fv);
+    expect(total.pressureMoment).toEqual(sum.mp);
+    expect(total.viscousMoment).toEqual(sum.mv);
+    expect(total.area).toBe(sum.area);
+  });
+});

@@ -1,6 +1,6 @@
 /**
  * Bench stage `locate`: the cell tree (build time, bytes per cell), line probes of 1000 samples (the first
- * one with the tree build included, then later ones on the built tree), a line at every cell crossing,
+ * one without a tree unless an earlier stage built it, then later ones on the built tree), a line at every cell crossing,
  * and raw point location (points per second). Lines run corner to corner through the dataset's bounds
  * and between seeded random points inside them; every point and cell field common to all pieces is
  * sampled. Skipped (with a note) for datasets without volume cells.
@@ -76,7 +76,7 @@ export async function benchLocate(d: Dataset, options: Partial<LocateBenchOption
     },
     firstLine: {
       ms: r2(firstLineMs), samples: o.samples, valid: first.validCount, treeBuiltBefore: treeBefore,
-      note: treeBefore ? 'the tree of this mesh was already built by an earlier stage (not included)' : 'tree build included',
+      note: treeBefore ? 'the tree of this mesh was already built by an earlier stage (not included)' : 'no tree yet: samples located by a scan of the cell blocks the line meets (their build included)',
     },
     laterLines: { ms: stats(lineMs), lines: o.lines, samples: o.samples, validFraction: r2(valid / Math.max(1, total)) },
     crossingsLine: { ms: r2(crossingsMs), samples: cross.count },

@@ -1,0 +1,168 @@
+/**
+ * Boxes of runs of consecutive cells ("blocks"), the cheap alternative to the cell tree for a dataset's
+ * first line probes: one sequential pass over the connectivity, no sort, no per-cell output.
+ *
+ * Mesh generators write cells in an order that keeps neighbours near each other (an advancing front, a
+ * sweep, a lattice), so the box of BLOCK consecutive cells is small and a line meets few of them; a line
+ * then visits only the cells of those blocks (scanLocate.ts). A file whose cells are scattered gives large
+ * boxes, the line meets most blocks, and the caller builds the tree instead (`blockScanCost`).
+ *
+ * Layout (all typed arrays; boxes are `[xmin, xmax, ymin, ymax, zmin, zmax]` in the file's length unit):
+ *  - block j of piece k covers that piece's cells `BLOCK·(j − pieceBlocks[k]) …` (BLOCK of them, fewer in
+ *    the piece's last block); blocks never straddle two pieces;
+ *  - `boxes`: Float64Array(6 · blocks), the box of every point the block's cells use (2D cells included),
+ *    padded outward by 2·PAD × the box's largest extent, so it holds every padded cell box of the block
+ *    (cellTree.ts pads a cell's box by PAD × the cell's own extent). A block without points has an
+ *    inverted box that nothing meets;
+ *  - `groupBoxes`: Float64Array(6 · groups), the union of GROUP consecutive block boxes, and
+ *    `superBoxes` the union of GROUP consecutive group boxes: a walk tests super-groups, then the groups of
+ *    those met, then their blocks.
+ */
+import { cellDimension, CellType } from '../model/cellTypes.ts';
+import { cellStarts, type Dataset } from '../model/dataset.ts';
+import { geometryOnly, meshKey, type MeshKey } from '../model/meshKey.ts';
+import type { Piece } from '../model/piece.ts';
+import { uniformSize } from '../model/uniformCells.ts';
+import { PAD } from './cellTree.ts';
+
+/** Cells per block. */
+export const BLOCK = 8;
+/** Blocks per group, and groups per super-group (the first test of a walk). */
+export const GROUP = 16;
+
+export interface CellBlocks {
+  readonly dataset: Dataset;
+  /** Cells of every piece. */
+  readonly cellCount: number;
+  /** Cells of dimension 3 (the ones point location can return). */
+  readonly volumeCellCount: number;
+  /** `cellStarts(dataset)`: global id → piece. */
+  readonly starts: Int32Array;
+  /** First block of each piece; the last entry is the block count. */
+  readonly pieceBlocks: Int32Array;
+  readonly boxes: Float64Array;
+  readonly groupBoxes: Float64Array;
+  readonly superBoxes: Float64Array;
+  /** Bytes of the arrays kept. */
+  readonly bytes: number;
+  /** Wall time of the build, milliseconds. */
+  readonly buildMs: number;
+}
+
+const cache = new WeakMap<MeshKey, CellBlocks>();
+
+/** The blocks of a dataset, built on first call and cached by its mesh (`meshKey`), geometry only. */
+export function getCellBlocks(dataset: Dataset): CellBlocks {
+  const key = meshKey(dataset);
+  let b = cache.get(key);
+  if (!b) { b = buildCellBlocks(geometryOnly(dataset)); cache.set(key, b); }
+  return b;
+}
+
+/** Builds the blocks without touching the cache. */
+export function buildCellBlocks(dataset: Dataset): CellBlocks {
+  const t0 = performance.now();
+  const starts = cellStarts(dataset);
+  const pieces = dataset.pieces;
+  const pieceBlocks = new Int32Array(pieces.length + 1);
+  for (let k = 0; k < pieces.length; k++) pieceBlocks[k + 1] = pieceBlocks[k]! + Math.ceil(pieces[k]!.cellTypes.length / BLOCK);
+  const nb = pieceBlocks[pieces.length]!;
+  const boxes = new Float64Array(6 * nb);
+  let volume = 0;
+  for (let k = 0; k < pieces.length; k++) {
+    const p = pieces[k]!;
+    if (p.polyFaces) polyBlockBoxes(p, boxes, pieceBlocks[k]!);
+    else blockBoxes(p.points, p.connectivity, p.offsets, p.cellTypes.length, boxes, pieceBlocks[k]!);
+    volume += uniformSize(p.cellTypes, p.offsets) > 0 ? p.cellTypes.length : volumeCells(p.cellTypes);
+  }
+  const ng = Math.ceil(nb / GROUP), ns = Math.ceil(ng / GROUP);
+  const groupBoxes = new Float64Array(6 * ng), superBoxes = new Float64Array(6 * ns);
+  unionGroups(boxes, nb, groupBoxes);
+  unionGroups(groupBoxes, ng, superBoxes);
+  return {
+    dataset, cellCount: starts[starts.length - 1]!, volumeCellCount: volume, starts, pieceBlocks, boxes, groupBoxes, superBoxes,
+    bytes: starts.byteLength + pieceBlocks.byteLength + boxes.byteLength + groupBoxes.byteLength + superBoxes.byteLength,
+    buildMs: performance.now() - t0,
+  };
+}
+
+/** 1 for volume cell types, by type number. */
+const DIM3 = (() => {
+  const t = new Uint8Array(256);
+  for (let i = 0; i < 256; i++) t[i] = cellDimension(i) === 3 ? 1 : 0;
+  return t;
+})();
+
+function volumeCells(types: Uint8Array): number {
+  let n = 0;
+  for (let c = 0; c < types.length; c++) n += DIM3[types[c]!]!;
+  return n;
+}
+
+/**
+ * Box of the points each block's connectivity range names (the cells of a block are consecutive, so are
+ * their ids): one sequential read of the connectivity, whatever the cell types.
+ */
+function blockBoxes(pts: Float64Array, conn: Int32Array, off: Int32Array, nc: number, out: Float64Array, b0: number): void {
+  for (let c0 = 0, j = b0; c0 < nc; c0 += BLOCK, j++) {
+    const a = off[c0]!, e = off[Math.min(nc, c0 + BLOCK)]!;
+    let x0 = Infinity, x1 = -Infinity, y0 = Infinity, y1 = -Infinity, z0 = Infinity, z1 = -Infinity;
+    for (let q = a; q < e; q++) {
+      const i = 3 * conn[q]!, x = pts[i]!, y = pts[i + 1]!, z = pts[i + 2]!;
+      if (x < x0) x0 = x; if (x > x1) x1 = x;
+      if (y < y0) y0 = y; if (y > y1) y1 = y;
+      if (z < z0) z0 = z; if (z > z1) z1 = z;
+    }
+    writePadded(out, 6 * j, x0, x1, y0, y1, z0, z1);
+  }
+}
+
+/** As `blockBoxes` for a piece with polyhedra: each cell's connectivity, or its face stream when it has none. */
+function polyBlockBoxes(p: Piece, out: Float64Array, b0: number): void {
+  const pts = p.points, nc = p.cellTypes.length, pf = p.polyFaces!;
+  for (let c0 = 0, j = b0; c0 < nc; c0 += BLOCK, j++) {
+    let x0 = Infinity, x1 = -Infinity, y0 = Infinity, y1 = -Infinity, z0 = Infinity, z1 = -Infinity;
+    for (let c = c0, ce = Math.min(nc, c0 + BLOCK); c < ce; c++) {
+      let ids = p.connectivity, a = p.offsets[c]!, e = p.offsets[c + 1]!;
+      if (a === e && p.cellTypes[c] === CellType.POLYHEDRON) {
+        ids = pf.faceConnectivity; a = pf.faceOffsets[pf.cellFaceStart[c]!]!; e = pf.faceOffsets[pf.cellFaceStart[c + 1]!]!;
+      }
+      for (let q = a; q < e; q++) {
+        const i = 3 * ids[q]!, x = pts[i]!, y = pts[i + 1]!, z = pts[i + 2]!;
+        if (x < x0) x0 = x; if (x > x1) x1 = x;
+        if (y < y0) y0 = y; if (y > y1) y1 = y;
+        if (z < z0) z0 = z; if (z > z1) z1 = z;
+      }
+    }
+    writePadded(out, 6 * j, x0, x1, y0, y1, z0, z1);
+  }
+}
+
+/**
+ * Writes a block's box padded by PAD × its largest extent (twice over), and a little more for rounding of the
+ * padded cell boxes; a block without points keeps its inverted box.
+ */
+function writePadded(out: Float64Array, o: number, x0: number, x1: number, y0: number, y1: number, z0: number, z1: number): void {
+  let pad = 0;
+  if (x0 <= x1) {
+    const ext = Math.max(x1 - x0, y1 - y0, z1 - z0);
+    const big = Math.max(Math.abs(x0), Math.abs(x1), Math.abs(y0), Math.abs(y1), Math.abs(z0), Math.abs(z1));
+    pad = 2 * PAD * ext + 1e-15 * big;
+  }
+  out[o] = x0 - pad; out[o + 1] = x1 + pad; out[o + 2] = y0 - pad; out[o + 3] = y1 + pad; out[o + 4] = z0 - pad; out[o + 5] = z1 + pad;
+}
+
+function unionGroups(b: Float64Array, nb: number, out: Float64Array): void {
+  for (let g = 0, j0 = 0; j0 < nb; g++, j0 += GROUP) {
+    let x0 = Infinity, x1 = -Infinity, y0 = Infinity, y1 = -Infinity, z0 = Infinity, z1 = -Infinity;
+    for (let j = j0, je = Math.min(nb, j0 + GROUP); j < je; j++) {
+      const o = 6 * j;
+      if (!(b[o]! <= b[o + 1]!)) continue;
+      if (b[o]! < x0) x0 = b[o]!; if (b[o + 1]! > x1) x1 = b[o + 1]!;
+      if (b[o + 2]! < y0) y0 = b[o + 2]!; if (b[o + 3]! > y1) y1 = b[o + 3]!;
+      if (b[o + 4]! < z0) z0 = b[o + 4]!; if (b[o + 5]! > z1) z1 = b[o + 5]!;
+    }
+    const o = 6 * g;
+    out[o] = x0; out[o + 1] = x1; out[o + 2] = y0; out[o + 3] = y1; out[o + 4] = z0; out[o + 5] = z1;
+  }
+}
