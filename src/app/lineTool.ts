@@ -282,8 +282,10 @@ function lineResult(l: Line, r: LineReply): ProbeResult {
   let pinnedMeans = 0;
   for (const s of r.stats.series) {
     if (s.component >= 0 && r.fields.find((f) => f.name === s.field)!.components > 1) {
-      // a component's mean has no extremes in the table: its scale comes from its samples here
-      const scale = sampleScale(s.stats.min, s.stats.max, s.label, 'on the line');
+      // a component's mean has no extremes in the table: its scale is the vector's largest magnitude on the
+      // line (a cross-flow component that is zero by symmetry is noise beside the flow, not beside itself)
+      const magnitude = r.stats.series.find((m) => m.field === s.field && m.component === -1);
+      const scale = magnitude ? sampleScale(0, magnitude.stats.max, magnitude.label, 'on the line') : sampleScale(s.stats.min, s.stats.max, s.label, 'on the line');
       q.push({ key: `${s.label}.mean`, label: `${s.label} mean`, value: s.stats.mean, unit: fieldUnit(s.field), pinned: false, ...(scale ? { scale } : {}) });
       continue;
     }

@@ -3,7 +3,8 @@
  * slow-flow sphere runs along x through the bead's centre, where Stokes' pressure p = −(3/2)μa(U·x)/r³ is odd
  * in x (Batchelor 1967, An Introduction to Fluid Dynamics, §4.9), so its mean over the samples cancels to
  * ~10⁻¹⁶ Pa while p on the line reaches the wall's ±3μU/(2a) = ±4.5 Pa. The pin and the results table mark
- * the mean "≈ 0 relative to max |p| on the line" (src/ui/roundingNoise.ts); the CSV keeps its value. The
+ * the mean "≈ 0 relative to max |p| on the line" (src/ui/roundingNoise.ts); the CSV keeps its value. A vector
+ * component's mean (velocity_y, zero on the axis by symmetry) is judged against the vector's magnitude. The
  * screenshot n01 goes to tests/.screenshots/ (git-ignored) and was looked at.
  */
 import { join } from 'node:path';
@@ -32,6 +33,12 @@ describe('rounding noise on a line probe\'s pin', () => {
     expect(await row.locator('.noise-mark').innerText()).toBe('(≈ 0 relative to max |p| on the line)');
     // p's extremes on the line are the wall's ±4.5 Pa and carry no mark
     expect(await row.locator('xpath=following-sibling::tr[@data-quantity="p.max"]').innerText()).toMatch(/4\.500 Pa$/);
+    // the cross-flow component velocity_y is zero on the axis by symmetry: its mean is judged against the
+    // velocity's magnitude on the line, not against its own noise-level extremes
+    const vy = page.locator('table.results tr[data-probe="line-1"][data-quantity="velocity_y.mean"]');
+    expect(await vy.locator('.noise-mark').innerText()).toBe('(≈ 0 relative to max |velocity| on the line)');
+    const vx = page.locator('table.results tr[data-probe="line-1"][data-quantity="velocity_x.mean"]');
+    expect(await vx.locator('.noise-mark').count()).toBe(0);
     await shot('n01-sphere-line-p-mean-noise');
     const csv = await downloadText(() => page.getByText('save results (CSV)').click());
     const cells = csv.split('\n').find((l) => l.includes(',p.mean,'))!.split(',');
