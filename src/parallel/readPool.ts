@@ -1,0 +1,61 @@
+/**
+ * Reading large uncompressed arrays of files on disk on several threads (Node only, like inflatePool.ts): the
+ * reader allocates the final array in shared memory (`LoadOptions.readParts`, src/io/sourceArrays.ts), and each
+ * worker (workers/readWorkerBody.ts) reads one contiguous part of it from the file by positional reads of the
+ * descriptor this process opened, converting, swapping and checking its elements in place (src/io/partReads.ts).
+ *
+ * Why: on a virtual machine the first write to fresh memory is the larger part of loading a large file (the
+ * hypervisor backs each page on first touch), and those faults run on whichever thread touches the page; each
+ * thread touches its own part. The arrays come out in shared memory, so a compute pool over them
+ * (`toSharedDataset`) takes them without a copy. Same code per chunk as the one-thread read, parts start on its
+ * chunk boundaries: the values and messages are those of a one-thread load (tests/parallel/readParts.test.ts).
+ */
+import { Worker } from 'node:worker_threads';
+import type { ReadParts } from '../io/loadOptions.ts';
+import { partRanges } from '../io/partReads.ts';
+import { checkWorkerCount } from './pool.ts';
+import { workerEntry } from './workerEntry.ts';
+
+/** A `ReadParts` whose parts are read on worker threads; `close` ends them. */
+export interface ReadPool {
+  readonly readParts: ReadParts;
+  readonly workers: number;
+  /** Arrays and parts read by the workers so far. */
+  readonly done: { arrays: number; parts: number };
+  close(): Promise<void>;
+}
+
+/**
+ * Starts `n` read workers (1 … 256) at once, so they are ready by the first large array. `minBytes` (tests)
+ * overrides the size below which arrays are read on the calling thread.
+ */
+export function startReadPool(n: number, minBytes?: number): ReadPool {
+  checkWorkerCount(n, 'read workers');
+  const workers = Array.from({ length: n }, () => new Worker(workerEntry('read')));
+  const waiting = new Map<number, { resolve: (error: string | null) => void; reject: (e: Error) => void }>();
+  let next = 1;
+  for (const w of workers) {
+    w.on('message', (m: { id: number; error: string | null }) => { const p = waiting.get(m.id); waiting.delete(m.id); p?.resolve(m.error); });
+    w.on('error', (e) => { for (const p of waiting.values()) p.reject(new Error(`read worker failed (${e.message})`)); waiting.clear(); });
+  }
+  const done = { arrays: 0, parts: 0 };
+  const read = async (job: Parameters<ReadParts>[0]): Promise<void> => {
+    const { out } = job;
+    if (!(out.buffer instanceof SharedArrayBuffer)) throw new Error(`${job.plan.where}: read workers need the array in a SharedArrayBuffer`);
+    const ranges = partRanges(job.count, job.step, workers.length);
+    const errors = await Promise.all(ranges.map(([from, to], r) => new Promise<string | null>((resolve, reject) => {
+      const id = next++;
+      waiting.set(id, { resolve, reject });
+      workers[r]!.postMessage({
+        id, descriptor: job.descriptor, name: job.name, size: job.size, offset: job.offset, plan: job.plan,
+        buffer: out.buffer, byteOffset: out.byteOffset, length: out.length, from, to, step: job.step,
+      });
+    })));
+    done.arrays++; done.parts += ranges.length;
+    // The lowest part that failed holds the array's first bad element: the one-thread read stops there too.
+    const first = errors.find((e) => e !== null);
+    if (first) throw new Error(first);
+  };
+  const readParts: ReadParts = Object.assign(read, { workers: n, ...(minBytes !== undefined ? { minBytes } : {}) });
+  return { readParts, workers: n, done, close: async () => { await Promise.all(workers.map((w) => w.terminate())); } };
+}
