@@ -10,6 +10,7 @@ import type { Dataset } from '../model/dataset.ts';
 import { openNodePool, poolSize, startNodeWorkers } from '../parallel/nodePool.ts';
 import type { ComputePool } from '../parallel/pool.ts';
 import { startInflatePool } from '../parallel/inflatePool.ts';
+import { startReadPool } from '../parallel/readPool.ts';
 import { startTextPool } from '../parallel/textPool.ts';
 import { str, type ParsedArgs } from './args.ts';
 import type { OptionKind } from './args.ts';
@@ -47,14 +48,16 @@ export async function loadForCompute(file: string, args: ParsedArgs): Promise<Co
   const inflaters = startInflatePool(n);
   // ASCII and base64 arrays are decoded by as many threads (started at the first such array only).
   const parsers = startTextPool(n);
+  // Large raw arrays are read in parts by as many threads, straight into the shared memory the pool then uses.
+  const readers = startReadPool(n);
   let dataset: Dataset;
   try {
-    dataset = await loadDatasetFile(file, { inflate: inflaters.inflate, parseText: parsers.parseText, decodeBase64: parsers.decodeBase64 });
+    dataset = await loadDatasetFile(file, { inflate: inflaters.inflate, parseText: parsers.parseText, decodeBase64: parsers.decodeBase64, readParts: readers.readParts });
   } catch (e) {
     await Promise.all(ports.map((p) => p.terminate()));
     throw e;
   } finally {
-    await Promise.all([inflaters.close(), parsers.close()]);
+    await Promise.all([inflaters.close(), parsers.close(), readers.close()]);
   }
   const pool = await openNodePool(dataset, n, ports);
   return { dataset: pool.dataset, pool, close: () => pool.close() };
