@@ -29,9 +29,9 @@ port.on('message', (m: PartMessage) => {
         done += got;
       }
     };
-    readPartSync(m.plan, targetView(m.plan, m.buffer, m.byteOffset, m.length), m.offset, m.from, m.to, m.step, fill, scratch);
-    port.postMessage({ id: m.id, error: null });
+    const scan = readPartSync(m.plan, targetView(m.plan, m.buffer, m.byteOffset, m.length), m.offset, m.from, m.to, m.step, fill, scratch);
+    port.postMessage({ id: m.id, error: null, scan });
   } catch (e) {
-    port.postMessage({ id: m.id, error: e instanceof Error ? e.message : String(e) });
+    port.postMessage({ id: m.id, error: e instanceof Error ? e.message : String(e), scan: {} });
   }
 });

@@ -2,6 +2,7 @@
  * What every reader takes besides the bytes: progress reporting, cancellation, a way to fetch the other
  * files of a multi-file set (pieces of a `.pvtu`, blocks of a `.vtm`), and an optional faster inflater.
  */
+import type { ArrayScan } from '../model/arrayScans.ts';
 import type { Dataset } from '../model/dataset.ts';
 import type { NumericArray } from '../model/fieldArray.ts';
 import type { ByteSource } from './byteSource.ts';
@@ -89,10 +90,11 @@ export interface PartsJob {
 
 /**
  * Optional (Node, src/parallel/readPool.ts): reads an uncompressed array of a file on disk in contiguous parts on
- * several threads, each part converted, swapped and checked in place as the one-thread read does it. Rejects
+ * several threads, each part converted, swapped and checked in place as the one-thread read does it. Resolves to
+ * the array's scan (first non-finite value of floats, range of ids: `joinScans` in src/io/partReads.ts); rejects
  * with the message the one-thread read gives for the first bad element (the lowest part that failed).
  */
-export type ReadParts = ((job: PartsJob) => Promise<void>) & {
+export type ReadParts = ((job: PartsJob) => Promise<ArrayScan>) & {
   /** Parts read at once (the thread count). */
   readonly workers: number;
   /** Arrays of fewer file bytes are read on the calling thread; default `PARTS_MIN_BYTES`. */

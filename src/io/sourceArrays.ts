@@ -9,6 +9,7 @@
  *    bytes are the model's bytes (viewed, swapped and checked in place), otherwise chunks to convert;
  *  - in-memory files are viewed (when allowed) or copied.
  */
+import { noteScan } from '../model/arrayScans.ts';
 import type { NumericArray } from '../model/fieldArray.ts';
 import { inMemoryBytes, readExactly, readInto, type ByteSource } from './byteSource.ts';
 import { ELEMENT_SIZE } from './elementTypes.ts';
@@ -111,7 +112,9 @@ async function readInParts(src: ByteSource, descriptor: number, offset: number, 
   // Only what can cross to a thread: the plan's data, not its functions.
   const { type, littleEndian, target, min, max, lead, where } = plan;
   const clean: ArrayPlan = { type, littleEndian, target, where, ...(min !== undefined ? { min } : {}), ...(max !== undefined ? { max } : {}), ...(lead !== undefined ? { lead } : {}) };
-  await parts({ descriptor, name: src.name, size: src.size, offset, count, plan: clean, out, step: chunkElements(ELEMENT_SIZE[plan.type], src.chunkBytes) });
+  const scan = await parts({ descriptor, name: src.name, size: src.size, offset, count, plan: clean, out, step: chunkElements(ELEMENT_SIZE[plan.type], src.chunkBytes) });
+  // The piece checks take the scan instead of reading the array again.
+  noteScan(out, scan);
   if (progress) await progress.cp.at(progress.stage, offset + count * ELEMENT_SIZE[plan.type]);
   return out;
 }

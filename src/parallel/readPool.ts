@@ -12,9 +12,13 @@
  */
 import { Worker } from 'node:worker_threads';
 import type { ReadParts } from '../io/loadOptions.ts';
-import { partRanges } from '../io/partReads.ts';
+import { joinScans, partRanges } from '../io/partReads.ts';
+import type { ArrayScan } from '../model/arrayScans.ts';
 import { checkWorkerCount } from './pool.ts';
 import { workerEntry } from './workerEntry.ts';
+
+/** A worker's answer for one part: the one-thread message of its first bad element, or its scan. */
+interface PartReply { id: number; error: string | null; scan: ArrayScan }
 
 /** A `ReadParts` whose parts are read on worker threads; `close` ends them. */
 export interface ReadPool {
@@ -32,18 +36,18 @@ export interface ReadPool {
 export function startReadPool(n: number, minBytes?: number): ReadPool {
   checkWorkerCount(n, 'read workers');
   const workers = Array.from({ length: n }, () => new Worker(workerEntry('read')));
-  const waiting = new Map<number, { resolve: (error: string | null) => void; reject: (e: Error) => void }>();
+  const waiting = new Map<number, { resolve: (r: PartReply) => void; reject: (e: Error) => void }>();
   let next = 1;
   for (const w of workers) {
-    w.on('message', (m: { id: number; error: string | null }) => { const p = waiting.get(m.id); waiting.delete(m.id); p?.resolve(m.error); });
+    w.on('message', (m: PartReply) => { const p = waiting.get(m.id); waiting.delete(m.id); p?.resolve(m); });
     w.on('error', (e) => { for (const p of waiting.values()) p.reject(new Error(`read worker failed (${e.message})`)); waiting.clear(); });
   }
   const done = { arrays: 0, parts: 0 };
-  const read = async (job: Parameters<ReadParts>[0]): Promise<void> => {
+  const read = async (job: Parameters<ReadParts>[0]): Promise<ArrayScan> => {
     const { out } = job;
     if (!(out.buffer instanceof SharedArrayBuffer)) throw new Error(`${job.plan.where}: read workers need the array in a SharedArrayBuffer`);
     const ranges = partRanges(job.count, job.step, workers.length);
-    const errors = await Promise.all(ranges.map(([from, to], r) => new Promise<string | null>((resolve, reject) => {
+    const replies = await Promise.all(ranges.map(([from, to], r) => new Promise<PartReply>((resolve, reject) => {
       const id = next++;
       waiting.set(id, { resolve, reject });
       workers[r]!.postMessage({
@@ -53,8 +57,9 @@ export function startReadPool(n: number, minBytes?: number): ReadPool {
     })));
     done.arrays++; done.parts += ranges.length;
     // The lowest part that failed holds the array's first bad element: the one-thread read stops there too.
-    const first = errors.find((e) => e !== null);
-    if (first) throw new Error(first);
+    const failed = replies.find((m) => m.error !== null);
+    if (failed) throw new Error(failed.error!);
+    return joinScans(replies.map((m) => m.scan));
   };
   const readParts: ReadParts = Object.assign(read, { workers: n, ...(minBytes !== undefined ? { minBytes } : {}) });
   return { readParts, workers: n, done, close: async () => { await Promise.all(workers.map((w) => w.terminate())); } };

@@ -14,6 +14,7 @@ import type { ByteSource } from '../../src/io/byteSource.ts';
 import type { LoadOptions } from '../../src/io/loadOptions.ts';
 import { loadDatasetFile, nodeInflate, openFileSource } from '../../src/io/nodeFiles.ts';
 import { readDatasetFrom } from '../../src/io/readDataset.ts';
+import { notedFirstNonFinite, notedWithin } from '../../src/model/arrayScans.ts';
 import { hexGrid } from '../../src/model/meshBuild.ts';
 import { startReadPool, type ReadPool } from '../../src/parallel/readPool.ts';
 import { buildXml, type BuildOptions, type PieceSpec, type XmlType } from '../helpers/vtkXmlFixtures.ts';
@@ -98,6 +99,12 @@ describe.each([1, 2, 3])('reading in parts on %i worker(s)', (n) => {
       // every large array came in shared memory, in more parts than one when there are workers for them
       for (const a of [piece.points, piece.connectivity, piece.offsets, piece.pointData[0]!.values]) expect(a.buffer).toBeInstanceOf(SharedArrayBuffer);
       expect(pool.done.parts - before).toBeGreaterThanOrEqual(n === 1 ? 6 : 12);
+      // what the parts found while in cache, as a scan of the whole array finds it
+      expect(notedWithin(piece.connectivity, 0, 119)).toBe(true);
+      expect(notedWithin(piece.connectivity, 0, 118)).toBe(false);
+      expect(notedWithin(piece.connectivity, 1, 119)).toBe(false);
+      expect(notedFirstNonFinite(piece.points)).toBe(-1);
+      expect(notedFirstNonFinite(piece.pointData[1]!.values)).toBe(-1);
     }
   });
 
