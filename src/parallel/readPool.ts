@@ -1,8 +1,10 @@
 /**
  * Reading large uncompressed arrays of files on disk on several threads (Node only, like inflatePool.ts): the
  * reader allocates the final array in shared memory (`LoadOptions.readParts`, src/io/sourceArrays.ts), and each
- * worker (workers/readWorkerBody.ts) reads one contiguous part of it from the file by positional reads of the
- * descriptor this process opened, converting, swapping and checking its elements in place (src/io/partReads.ts).
+ * worker (workers/readWorkerBody.ts) reads contiguous parts of it from the file by positional reads of the
+ * descriptor this process opened, converting, swapping and checking its elements in place (src/io/partReads.ts);
+ * an array is cut into a few parts per worker, handed out as workers finish, so a thread the machine holds back
+ * (others' work on a shared machine) delays it little.
  *
  * Why: on a virtual machine the first write to fresh memory is the larger part of loading a large file (the
  * hypervisor backs each page on first touch), and those faults run on whichever thread touches the page; each
@@ -16,6 +18,9 @@ import { joinScans, partRanges } from '../io/partReads.ts';
 import type { ArrayScan } from '../model/arrayScans.ts';
 import { checkWorkerCount } from './pool.ts';
 import { workerEntry } from './workerEntry.ts';
+
+/** Parts per worker and array: small enough that a thread held back by the machine delays the array little. */
+const PARTS_PER_WORKER = 4;
 
 /** A worker's answer for one part: the one-thread message of its first bad element, or its scan. */
 interface PartReply { id: number; error: string | null; scan: ArrayScan }
@@ -46,19 +51,33 @@ export function startReadPool(n: number, minBytes?: number): ReadPool {
   const read = async (job: Parameters<ReadParts>[0]): Promise<ArrayScan> => {
     const { out } = job;
     if (!(out.buffer instanceof SharedArrayBuffer)) throw new Error(`${job.plan.where}: read workers need the array in a SharedArrayBuffer`);
-    const ranges = partRanges(job.count, job.step, workers.length);
-    const replies = await Promise.all(ranges.map(([from, to], r) => new Promise<PartReply>((resolve, reject) => {
+    const ranges = partRanges(job.count, job.step, workers.length * PARTS_PER_WORKER);
+    const replies: PartReply[] = new Array(ranges.length);
+    let nextPart = 0, firstFailed = ranges.length;
+    const send = (w: Worker, r: number) => new Promise<PartReply>((resolve, reject) => {
       const id = next++;
       waiting.set(id, { resolve, reject });
-      workers[r]!.postMessage({
+      const [from, to] = ranges[r]!;
+      w.postMessage({
         id, descriptor: job.descriptor, name: job.name, size: job.size, offset: job.offset, plan: job.plan,
         buffer: out.buffer, byteOffset: out.byteOffset, length: out.length, from, to, step: job.step,
       });
-    })));
-    done.arrays++; done.parts += ranges.length;
-    // The lowest part that failed holds the array's first bad element: the one-thread read stops there too.
-    const failed = replies.find((m) => m.error !== null);
-    if (failed) throw new Error(failed.error!);
+    });
+    // Each worker takes the next part when it is done with one, so a thread the machine holds back takes fewer.
+    // Parts after one that failed are not started: the lowest part that failed holds the array's first bad
+    // element, where the one-thread read stops too.
+    const serve = async (w: Worker): Promise<void> => {
+      while (nextPart < Math.min(ranges.length, firstFailed)) {
+        const r = nextPart++;
+        const m = await send(w, r);
+        replies[r] = m;
+        done.parts++;
+        if (m.error !== null && r < firstFailed) firstFailed = r;
+      }
+    };
+    await Promise.all(workers.map(serve));
+    done.arrays++;
+    if (firstFailed < ranges.length) throw new Error(replies[firstFailed]!.error!);
     return joinScans(replies.map((m) => m.scan));
   };
   const readParts: ReadParts = Object.assign(read, { workers: n, ...(minBytes !== undefined ? { minBytes } : {}) });
