@@ -6,11 +6,12 @@
  * an array is cut into a few parts per worker, handed out as workers finish, so a thread the machine holds back
  * (others' work on a shared machine) delays it little.
  *
- * Why: on a virtual machine the first write to fresh memory is the larger part of loading a large file (the
- * hypervisor backs each page on first touch), and those faults run on whichever thread touches the page; each
- * thread touches its own part. The arrays come out in shared memory, so a compute pool over them
- * (`toSharedDataset`) takes them without a copy. Same code per chunk as the one-thread read, parts start on its
- * chunk boundaries: the values and messages are those of a one-thread load (tests/parallel/readParts.test.ts).
+ * Why: the arrays come out in shared memory, so a compute pool over them (`toSharedDataset`) takes them without
+ * a copy (a second write of as many fresh bytes: on the 10M-cell file the peak fell from 2.05× to 1.14× the
+ * decoded arrays); and the page faults of first writing each part, its conversion and its scans run on the thread
+ * that writes it (on this virtual machine first-touch faults did not run faster on two threads; DEVELOPERS.md,
+ * "Loading at scale"). Same code per chunk as the one-thread read, parts start on its chunk boundaries: the
+ * values and messages are those of a one-thread load (tests/parallel/readParts.test.ts).
  */
 import { Worker } from 'node:worker_threads';
 import type { ReadParts } from '../io/loadOptions.ts';
