@@ -35,7 +35,6 @@ import { probeLine } from '../src/locate/lineProbe.ts';
 import { datasetBounds } from '../src/model/bounds.ts';
 import type { Dataset } from '../src/model/dataset.ts';
 import { openNodePool, startNodeWorkers } from '../src/parallel/nodePool.ts';
-import { startReadPool } from '../src/parallel/readPool.ts';
 import { startInflatePool } from '../src/parallel/inflatePool.ts';
 import type { ComputePool } from '../src/parallel/pool.ts';
 import { forceTotals } from '../src/surface/forces.ts';
@@ -99,9 +98,9 @@ async function childStages(file: string, workers: number): Promise<Record<string
   } else {
     const c0 = process.cpuUsage(), t0 = performance.now();
     const ports = startNodeWorkers(workers);
-    const inflaters = startInflatePool(workers), readers = startReadPool(workers);
+    const inflaters = startInflatePool(workers);
     let loaded: Dataset;
-    try { loaded = await loadDatasetFile(file, { inflate: inflaters.inflate, readParts: readers.readParts }); } finally { await Promise.all([inflaters.close(), readers.close()]); }
+    try { loaded = await loadDatasetFile(file, { inflate: inflaters.inflate }); } finally { await inflaters.close(); }
     const loadDone = performance.now();
     pool = await openNodePool(loaded, workers, ports);
     const c = process.cpuUsage(c0);

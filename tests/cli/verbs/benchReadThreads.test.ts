@@ -1,16 +1,17 @@
 /**
  * Loading a large raw file on read threads from the command line: `bench --read-threads N` says how it loaded and
- * loads the same arrays, and the `--workers` verbs (`loadForCompute`) load into shared memory the pool then uses
- * without a copy, the arrays byte for byte those of a one-thread load. The file: a 50³ hexahedron lattice written
+ * loads the same arrays; the `--workers` verbs (`loadForCompute`) read files under `READ_PARTS_MIN_FILE_BYTES` on
+ * one thread, the pool's shared arrays byte for byte those of a one-thread load (files above it take the parts
+ * path that tests/parallel/readParts.test.ts checks). The file: a 50³ hexahedron lattice written
  * as appended raw with 64-bit ids (its 1M connectivity ids, 8 MB, are read in parts).
  */
-import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
+import { mkdtempSync, rmSync, statSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { parseArgs } from '../../../src/cli/args.ts';
 import { main } from '../../../src/cli/main.ts';
-import { loadForCompute, WORKER_OPTIONS } from '../../../src/cli/workerOption.ts';
+import { loadForCompute, READ_PARTS_MIN_FILE_BYTES, WORKER_OPTIONS } from '../../../src/cli/workerOption.ts';
 import { loadDatasetFile } from '../../../src/io/nodeFiles.ts';
 import { writeVtu } from '../../../src/io/writeVtu.ts';
 import { datasetOf, hexGrid, pointFieldFrom, withFields } from '../../../src/model/meshBuild.ts';
@@ -56,7 +57,8 @@ describe('bench --read-threads', () => {
 });
 
 describe('the --workers load path', () => {
-  it('loads into shared memory the pool keeps, the bytes of a one-thread load', async () => {
+  it('loads a file under READ_PARTS_MIN_FILE_BYTES on one thread into the pool\'s shared memory, the bytes of a one-thread load', async () => {
+    expect(statSync(file).size).toBeLessThan(READ_PARTS_MIN_FILE_BYTES);
     const input = await loadForCompute(file, parseArgs([file, '--workers', '2'], WORKER_OPTIONS, 'test'));
     try {
       expect(input.pool).not.toBeNull();
