@@ -8,8 +8,9 @@
  *  - `--stages cut,locate,surface`: first cut with integrals (scan), cell-tree build, later cuts (median),
  *    first line (tree build included), later lines (median), boundary extraction, force total, and the peak
  *    of the whole run.
- * Loads run on one thread (the bench verb's default), repeated twice (`loadRepeats`), then twice with the large
- * raw arrays read in parts on two threads (`loadInPartsOnTwoThreads`, `--read-threads 2`); `freshMemoryTouch` times one thread first touching as many fresh bytes as the
+ * Loads run as the bench verb's default (1M: one thread; 10M: large raw arrays read in parts on one thread per
+ * core, `readThreads`), repeated twice (`loadRepeats`), then twice with `--read-threads 1` (`loadOnOneThread`) and
+ * twice with `--read-threads 2` (`loadInPartsOnTwoThreads`); `freshMemoryTouch` times one thread first touching as many fresh bytes as the
  * decoded arrays, which on a virtual machine is most of a load's cost (see DEVELOPERS.md, "Loading at scale").
  * Goals (issue 12) at 10M: load ≤ 1.5 s, first cut ≤ 0.3 s, peak of loading ≤ 1.3× the decoded arrays, and
  * every stage ≤ 12× its 1M cost (linear growth). Times are wall ms of one run each (`loadCpu`: the load's
@@ -76,7 +77,8 @@ function measure(file: string): Record<string, unknown> {
   // Two more loads: the first runs on memory the host may have taken back, these mostly on memory just freed.
   const figures = (r: Json) => ({ ms: num(r, 'load', 'ms'), cpuMs: num(r, 'load', 'cpuMs'), peakOverDecoded: num(r, 'memory', 'peakOverDecoded') });
   const repeats = [bench(file, 'load'), bench(file, 'load')].map(figures);
-  // Large raw arrays read in parts on two threads (as the --workers verbs load), twice.
+  // One thread, then large raw arrays read in parts on two threads (as the --workers verbs load), twice each.
+  const oneThread = [bench(file, 'load', ['--read-threads', '1']), bench(file, 'load', ['--read-threads', '1'])].map(figures);
   const inParts = [bench(file, 'load', ['--read-threads', '2']), bench(file, 'load', ['--read-threads', '2'])].map(figures);
   const all = bench(file, 'cut,locate,surface');
   const tree = num(all, 'cut', 'treeBytes'), boundary = num(all, 'surface', 'boundaryBytes');
@@ -86,7 +88,7 @@ function measure(file: string): Record<string, unknown> {
   const touch = { bytes: decoded, justFreed, afterFourIdleSeconds: freshTouch(decoded) };
   return {
     fileBytes: statSync(file).size, cells: all.cells, decodedBytes: decoded,
-    readThreads: num(load, 'load', 'readThreads'), loadAverageAtLoad, freshMemoryTouch: touch, loadRepeats: repeats, loadInPartsOnTwoThreads: inParts,
+    readThreads: num(load, 'load', 'readThreads'), loadAverageAtLoad, freshMemoryTouch: touch, loadRepeats: repeats, loadOnOneThread: oneThread, loadInPartsOnTwoThreads: inParts,
     stagesMs: {
       load: num(load, 'load', 'ms'),
       loadCpu: num(load, 'load', 'cpuMs'),
@@ -129,7 +131,7 @@ export async function run(): Promise<Record<string, unknown>> {
     return {
       benchmark: 'scale',
       note: 'wall ms of one fresh `fieldtally bench` process per figure; growth = 10M / 1M per stage; the loading peak is (peak RSS − RSS before load) / decoded array bytes; '
-        + 'firstLine runs after the cut stage built the cell tree (its build is treeBuild); load: one thread (the bench verb\'s default); loadInPartsOnTwoThreads: --read-threads 2, as the --workers verbs load; '
+        + 'firstLine runs after the cut stage built the cell tree (its build is treeBuild); load: the bench verb\'s default (in parts on readThreads threads for files of 256 MiB or more, as the --workers verbs load); loadOnOneThread: --read-threads 1; loadInPartsOnTwoThreads: --read-threads 2; '
         + 'freshMemoryTouch: one thread first touching as many fresh bytes as the decoded arrays, in a fresh process, right after a process freed memory and after 4 idle seconds (on a virtual machine whose host takes back freed memory it is most of a load\'s cost and swings widely)',
       goals: GOALS,
       met: {

@@ -8,11 +8,13 @@ import { dirname, join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { loadDatasetFile } from '../../io/nodeFiles.ts';
 import { checkWorkerCount } from '../../parallel/pool.ts';
+import { poolSize } from '../../parallel/nodePool.ts';
 import { startReadPool } from '../../parallel/readPool.ts';
 import { totalCells, totalPoints, type Dataset } from '../../model/dataset.ts';
 import { parseArgs, str } from '../args.ts';
 import type { BenchStage } from '../benchStages/stage.ts';
 import type { Verb } from '../verb.ts';
+import { READ_PARTS_MIN_FILE_BYTES } from '../workerOption.ts';
 
 const STAGE_DIR = join(dirname(fileURLToPath(import.meta.url)), '..', 'benchStages');
 
@@ -40,7 +42,7 @@ export function decodedBytes(d: Dataset): number {
 const bench: Verb = {
   summary: 'time each stage of the tool on a file and report peak memory (JSON)',
   usage: 'fieldtally bench <file> [--json] [--stages load,cut,…] [--read-threads N]\n  Times load and every compute stage; prints JSON (always) with times in ms, sizes in bytes, rates in MB/s (10^6 bytes).\n'
-    + '  --read-threads N      threads reading the large raw arrays of the file in parts, as the --workers verbs load it (default 1: read on this thread, the single-thread core\'s load)',
+    + '  --read-threads N      threads reading the large raw arrays of the file in parts, as the --workers verbs load it (default: FIELDTALLY_WORKERS, else one per core, for files of 256 MiB or more; else 1: read on this thread)',
   options: { json: 'boolean', stages: 'string', 'read-threads': 'string' },
   async run(argv, io) {
     const args = parseArgs(argv, this.options, 'bench');
@@ -49,8 +51,8 @@ const bench: Verb = {
     const only = str(args, 'stages')?.split(',').map((s) => s.trim());
     const fileBytes = (await stat(file)).size;
     const asked = str(args, 'read-threads');
-    // One thread unless asked: on this 2-core virtual machine reading in parts measured no faster (DEVELOPERS.md, "Loading at scale").
-    const threads = asked !== undefined ? checkWorkerCount(asked, '--read-threads') : 1;
+    // As loadForCompute: parts for large files only (DEVELOPERS.md, "Loading at scale").
+    const threads = asked !== undefined ? checkWorkerCount(asked, '--read-threads') : fileBytes >= READ_PARTS_MIN_FILE_BYTES ? poolSize() : 1;
     const rssBefore = process.memoryUsage().rss;
     const c0 = process.cpuUsage(), t0 = performance.now();
     // Started with the clock running: starting them is part of loading this way.
