@@ -8,6 +8,10 @@
  *  - `--stages cut,locate,surface`: first cut with integrals (scan), cell-tree build, later cuts (median),
  *    first line (tree build included), later lines (median), boundary extraction, force total, and the peak
  *    of the whole run.
+ * Loads run as the bench verb's default (1M: one thread; 10M: large raw arrays read in parts on one thread per
+ * core, `readThreads`), repeated twice (`loadRepeats`), then twice with `--read-threads 1` (`loadOnOneThread`) and
+ * twice with `--read-threads 2` (`loadInPartsOnTwoThreads`); `freshMemoryTouch` times one thread first touching as many fresh bytes as the
+ * decoded arrays, which on a virtual machine is most of a load's cost (see DEVELOPERS.md, "Loading at scale").
  * Goals (issue 12) at 10M: load ≤ 1.5 s, first cut ≤ 0.3 s, peak of loading ≤ 1.3× the decoded arrays, and
  * every stage ≤ 12× its 1M cost (linear growth). Times are wall ms of one run each (`loadCpu`: the load's
  * process CPU ms, steadier on a busy machine), and `loadAverage` records how busy the machine was. Alone: `node bin/run-ts.mjs bench/scale.bench.ts` (needs about 4 GB of memory).
@@ -38,8 +42,22 @@ function writeLattice(nz: number): string {
 
 type Json = Record<string, Record<string, unknown> | undefined>;
 
-function bench(file: string, stages: string): Json {
-  const out = execFileSync(process.execPath, ['--max-old-space-size=8000', join(ROOT, 'bin', 'fieldtally.mjs'), 'bench', file, '--json', '--stages', stages], {
+const loadNow = () => Math.round(loadavg()[0]! * 100) / 100;
+
+/**
+ * What first touching `bytes` of fresh memory costs a fresh process on one thread (wall and CPU ms): the floor
+ * under a one-thread load of arrays that size. On a virtual machine whose host takes back freed memory, this
+ * swings by an order of magnitude with the state of the machine, so it is measured beside each load.
+ */
+function freshTouch(bytes: number): Record<string, number> {
+  const code = `const n=${bytes};const c0=process.cpuUsage(),t0=performance.now();const a=new Uint8Array(n);for(let i=0;i<n;i+=4096)a[i]=1;`
+    + 'const c=process.cpuUsage(c0);process.stdout.write(JSON.stringify({ms:performance.now()-t0,cpuMs:(c.user+c.system)/1000}))';
+  const out = JSON.parse(execFileSync(process.execPath, ['-e', code], { encoding: 'utf8', env: { ...process.env, GLIBC_TUNABLES: 'glibc.malloc.hugetlb=1' } })) as Record<string, number>;
+  return { ms: Math.round(out.ms!), cpuMs: Math.round(out.cpuMs!) };
+}
+
+function bench(file: string, stages: string, more: string[] = []): Json {
+  const out = execFileSync(process.execPath, ['--max-old-space-size=8000', join(ROOT, 'bin', 'fieldtally.mjs'), 'bench', file, '--json', '--stages', stages, ...more], {
     cwd: ROOT, encoding: 'utf8', maxBuffer: 16 << 20,
   });
   return JSON.parse(out) as Json;
@@ -53,10 +71,24 @@ const num = (o: unknown, ...path: string[]): number => {
 
 /** The stage figures of one file (wall ms) and its memory. */
 function measure(file: string): Record<string, unknown> {
+  const loadAverageAtLoad = loadNow();
   const load = bench(file, 'load');
+  const decoded = num(load, 'load', 'decodedBytes');
+  // Two more loads: the first runs on memory the host may have taken back, these mostly on memory just freed.
+  const figures = (r: Json) => ({ ms: num(r, 'load', 'ms'), cpuMs: num(r, 'load', 'cpuMs'), peakOverDecoded: num(r, 'memory', 'peakOverDecoded') });
+  const repeats = [bench(file, 'load'), bench(file, 'load')].map(figures);
+  // One thread, then large raw arrays read in parts on two threads (as the --workers verbs load), twice each.
+  const oneThread = [bench(file, 'load', ['--read-threads', '1']), bench(file, 'load', ['--read-threads', '1'])].map(figures);
+  const inParts = [bench(file, 'load', ['--read-threads', '2']), bench(file, 'load', ['--read-threads', '2'])].map(figures);
   const all = bench(file, 'cut,locate,surface');
+  const tree = num(all, 'cut', 'treeBytes'), boundary = num(all, 'surface', 'boundaryBytes');
+  // Right after the all-stages process freed its memory, then after a few idle seconds (when this machine's host may have taken it back).
+  const justFreed = freshTouch(decoded);
+  execFileSync('sleep', ['4']);
+  const touch = { bytes: decoded, justFreed, afterFourIdleSeconds: freshTouch(decoded) };
   return {
-    fileBytes: statSync(file).size, cells: all.cells, decodedBytes: num(load, 'load', 'decodedBytes'),
+    fileBytes: statSync(file).size, cells: all.cells, decodedBytes: decoded,
+    readThreads: num(load, 'load', 'readThreads'), loadAverageAtLoad, freshMemoryTouch: touch, loadRepeats: repeats, loadOnOneThread: oneThread, loadInPartsOnTwoThreads: inParts,
     stagesMs: {
       load: num(load, 'load', 'ms'),
       loadCpu: num(load, 'load', 'cpuMs'),
@@ -71,6 +103,11 @@ function measure(file: string): Record<string, unknown> {
     memory: {
       loadPeakOverDecoded: num(load, 'memory', 'peakOverDecoded'), loadPeakRssBytes: num(load, 'memory', 'peakRssBytes'),
       allStagesPeakOverDecoded: num(all, 'memory', 'peakOverDecoded'), allStagesPeakRssBytes: num(all, 'memory', 'peakRssBytes'),
+      allStagesHeld: {
+        cellTreeBytes: tree, boundaryBytes: boundary,
+        overDecoded: Math.round(((decoded + tree + boundary) / decoded) * 100) / 100,
+        note: 'besides the decoded arrays the all-stages run holds the cell tree (built by the cut and line stages) and the boundary faces with their point merge; overDecoded = (decoded + tree + boundary) / decoded, the rest of its peak is the stages\' temporaries',
+      },
     },
   };
 }
@@ -94,7 +131,8 @@ export async function run(): Promise<Record<string, unknown>> {
     return {
       benchmark: 'scale',
       note: 'wall ms of one fresh `fieldtally bench` process per figure; growth = 10M / 1M per stage; the loading peak is (peak RSS − RSS before load) / decoded array bytes; '
-        + 'firstLine runs after the cut stage built the cell tree (its build is treeBuild)',
+        + 'firstLine runs after the cut stage built the cell tree (its build is treeBuild); load: the bench verb\'s default (in parts on readThreads threads for files of 256 MiB or more, as the --workers verbs load); loadOnOneThread: --read-threads 1; loadInPartsOnTwoThreads: --read-threads 2; '
+        + 'freshMemoryTouch: one thread first touching as many fresh bytes as the decoded arrays, in a fresh process, right after a process freed memory and after 4 idle seconds (on a virtual machine whose host takes back freed memory it is most of a load\'s cost and swings widely)',
       goals: GOALS,
       met: {
         load: l.load! <= GOALS.loadMs, firstCut: l.firstCut! <= GOALS.firstCutMs,

@@ -26,6 +26,11 @@ export interface ByteSource {
    * `SCRATCH_BYTES` (1 MiB). Blob reads carry a fixed cost each, so blob sources ask for larger chunks.
    */
   readonly chunkBytes?: number;
+  /**
+   * The open file's descriptor (Node file sources only): worker threads of this process may read ranges of it
+   * at the same time (`LoadOptions.readParts`). Absent for bytes in memory and blobs.
+   */
+  readonly descriptor?: number;
   /** Releases what the source holds open (a file handle); readers call it on sources they were handed by a resolver. */
   close?(): Promise<void>;
 }

@@ -81,11 +81,31 @@ export function chunkElements(size: number, chunkBytes: number = SCRATCH_BYTES):
   return Math.max(1, Math.floor(chunkBytes / size));
 }
 
-/** Allocates the final array for `count` file elements (plus `lead` zero slots), with a clear error when memory runs out. */
-export function allocateTarget(plan: ArrayPlan, count: number): NumericArray {
+type TargetCtor = new (buffer: ArrayBufferLike, byteOffset: number, length: number) => NumericArray;
+
+/** The typed-array class of a plan's final array. */
+function targetClass(plan: ArrayPlan): TargetCtor {
+  switch (plan.target) {
+    case 'values': return allocateFor(plan.type, 0).constructor as TargetCtor;
+    case 'float64': return Float64Array as TargetCtor;
+    case 'ids': return Int32Array as TargetCtor;
+    case 'cellTypes': return Uint8Array as TargetCtor;
+  }
+}
+
+/**
+ * Allocates the final array for `count` file elements (plus `lead` zero slots), with a clear error when memory
+ * runs out; in a fresh `SharedArrayBuffer` when `shared` (arrays read in parts by several threads).
+ */
+export function allocateTarget(plan: ArrayPlan, count: number, shared = false): NumericArray {
   const n = (plan.lead ?? 0) + count;
   claimMemory(n * (plan.target === 'values' ? ELEMENT_SIZE[plan.type] : plan.target === 'float64' ? 8 : plan.target === 'ids' ? 4 : 1), plan.where);
   try {
+    if (shared) {
+      const Ctor = targetClass(plan);
+      const bytes = n * (Ctor as unknown as { BYTES_PER_ELEMENT: number }).BYTES_PER_ELEMENT;
+      return new Ctor(new SharedArrayBuffer(bytes), 0, n);
+    }
     switch (plan.target) {
       case 'values': return allocateFor(plan.type, n);
       case 'float64': return new Float64Array(n);
@@ -95,6 +115,11 @@ export function allocateTarget(plan: ArrayPlan, count: number): NumericArray {
   } catch {
     throw new Error(`${plan.where}: cannot allocate ${n} values for the array (not enough memory)`);
   }
+}
+
+/** The final array of a plan viewing `length` elements (lead included) of `buffer` at `byteOffset` (a worker's view of a shared target). */
+export function targetView(plan: ArrayPlan, buffer: ArrayBufferLike, byteOffset: number, length: number): NumericArray {
+  return new (targetClass(plan))(buffer, byteOffset, length);
 }
 
 /** Whether the file's bytes are the final array's bytes (up to byte order and a range check). */

@@ -2,8 +2,11 @@
  * What every reader takes besides the bytes: progress reporting, cancellation, a way to fetch the other
  * files of a multi-file set (pieces of a `.pvtu`, blocks of a `.vtm`), and an optional faster inflater.
  */
+import type { ArrayScan } from '../model/arrayScans.ts';
 import type { Dataset } from '../model/dataset.ts';
+import type { NumericArray } from '../model/fieldArray.ts';
 import type { ByteSource } from './byteSource.ts';
+import type { ArrayPlan } from './elementConvert.ts';
 
 /** One progress report: the current stage and how many bytes of the input it has consumed. */
 export interface LoadProgress {
@@ -64,6 +67,43 @@ export type Base64Batch = ((text: Uint8Array, windows: readonly (readonly [numbe
   readonly windowBytes?: number;
 };
 
+/**
+ * One uncompressed array of a file on disk, to be read in parts on several threads (`LoadOptions.readParts`).
+ * Offsets are bytes from the start of the file; `count` counts file elements (after `plan.lead` zero slots).
+ */
+export interface PartsJob {
+  /** The open file's descriptor (`ByteSource.descriptor`; threads of this process share it). */
+  readonly descriptor: number;
+  /** File name and size in bytes, for messages. */
+  readonly name: string;
+  readonly size: number;
+  /** Byte offset of element 0. */
+  readonly offset: number;
+  readonly count: number;
+  /** How the elements become the final array (`badCellType` is not used: cell-type plans are not read in parts). */
+  readonly plan: ArrayPlan;
+  /** The final array, in a SharedArrayBuffer, allocated by the reader; parts write into it in place. */
+  readonly out: NumericArray;
+  /** Elements per part boundary: every part but the last holds a multiple of it (the one-thread read's chunk). */
+  readonly step: number;
+}
+
+/**
+ * Optional (Node, src/parallel/readPool.ts): reads an uncompressed array of a file on disk in contiguous parts on
+ * several threads, each part converted, swapped and checked in place as the one-thread read does it. Resolves to
+ * the array's scan (first non-finite value of floats, range of ids: `joinScans` in src/io/partReads.ts); rejects
+ * with the message the one-thread read gives for the first bad element (the lowest part that failed).
+ */
+export type ReadParts = ((job: PartsJob) => Promise<ArrayScan>) & {
+  /** Parts read at once (the thread count). */
+  readonly workers: number;
+  /** Arrays of fewer file bytes are read on the calling thread; default `PARTS_MIN_BYTES`. */
+  readonly minBytes?: number;
+};
+
+/** File bytes below which an array is read on the calling thread even when `readParts` is given (4 MiB). */
+export const PARTS_MIN_BYTES = 4 << 20;
+
 export interface LoadOptions {
   /** Called now and then (throttled by the reader) with the stage and bytes consumed. */
   onProgress?: (p: LoadProgress) => void;
@@ -89,6 +129,12 @@ export interface LoadOptions {
   parseText?: ParseTextBatch;
   /** Optional: uncompressed base64 arrays of XML files are decoded window by window with it (same bytes). */
   decodeBase64?: Base64Batch;
+  /**
+   * Optional: uncompressed raw appended arrays of XML files on disk (sources with a `descriptor`) of at least
+   * `minBytes` are read in parts on several threads, straight into arrays in shared memory (same values, same
+   * messages). Default: read on this thread.
+   */
+  readParts?: ReadParts;
   /**
    * Most bytes the decoded arrays of this load may take (a set's pieces together); an array that would pass it
    * is refused before it is allocated (see `memoryBudget.ts`). Default: no limit.

@@ -101,6 +101,7 @@ export async function openFileSource(path: string, name: string = basename(path)
   return {
     name,
     size,
+    descriptor: h.fd,
     async read(offset, length) {
       const n = Math.max(0, Math.min(length, size - offset));
       const out = new Uint8Array(n);

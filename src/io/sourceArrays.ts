@@ -9,11 +9,12 @@
  *    bytes are the model's bytes (viewed, swapped and checked in place), otherwise chunks to convert;
  *  - in-memory files are viewed (when allowed) or copied.
  */
+import { noteScan } from '../model/arrayScans.ts';
 import type { NumericArray } from '../model/fieldArray.ts';
 import { inMemoryBytes, readExactly, readInto, type ByteSource } from './byteSource.ts';
 import { ELEMENT_SIZE } from './elementTypes.ts';
 import { HOST_LITTLE, Scratch, allocateTarget, chunkElements, convertChunk, finishDirect, isDirect, type ArrayPlan } from './elementConvert.ts';
-import type { Checkpoint } from './loadOptions.ts';
+import { PARTS_MIN_BYTES, type Checkpoint, type ReadParts } from './loadOptions.ts';
 
 /** Where progress of a read is reported. */
 export interface ReadProgress {
@@ -30,6 +31,11 @@ export interface ReadArrayOptions {
    */
   view?: boolean;
   progress?: ReadProgress;
+  /**
+   * Reads large arrays of files on disk in parts on several threads, into shared memory (`LoadOptions.readParts`);
+   * cell-type plans and arrays under its `minBytes` are read here.
+   */
+  parts?: ReadParts | undefined;
 }
 
 /**
@@ -51,6 +57,10 @@ export async function readArray(src: ByteSource, offset: number, count: number, 
       finishDirect(plan, out, 0, count);
       return out;
     }
+  }
+  const parts = opts.parts;
+  if (parts && !mem && src.descriptor !== undefined && plan.target !== 'cellTypes' && count * size >= (parts.minBytes ?? PARTS_MIN_BYTES)) {
+    return readInParts(src, src.descriptor, offset, count, plan, parts, opts.progress);
   }
   const out = allocateTarget(plan, count);
   const outBytes = direct ? new Uint8Array(out.buffer, out.byteOffset + (plan.lead ?? 0) * size, count * size) : undefined;
@@ -93,6 +103,19 @@ export async function readArray(src: ByteSource, offset: number, count: number, 
     sc[0].release();
     sc[1].release();
   }
+  return out;
+}
+
+/** `readArray` through `parts`: the final array in shared memory, its parts filled on other threads. */
+async function readInParts(src: ByteSource, descriptor: number, offset: number, count: number, plan: ArrayPlan, parts: ReadParts, progress: ReadProgress | undefined): Promise<NumericArray> {
+  const out = allocateTarget(plan, count, true);
+  // Only what can cross to a thread: the plan's data, not its functions.
+  const { type, littleEndian, target, min, max, lead, where } = plan;
+  const clean: ArrayPlan = { type, littleEndian, target, where, ...(min !== undefined ? { min } : {}), ...(max !== undefined ? { max } : {}), ...(lead !== undefined ? { lead } : {}) };
+  const scan = await parts({ descriptor, name: src.name, size: src.size, offset, count, plan: clean, out, step: chunkElements(ELEMENT_SIZE[plan.type], src.chunkBytes) });
+  // The piece checks take the scan instead of reading the array again.
+  noteScan(out, scan);
+  if (progress) await progress.cp.at(progress.stage, offset + count * ELEMENT_SIZE[plan.type]);
   return out;
 }
 

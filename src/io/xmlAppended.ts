@@ -11,7 +11,7 @@ import type { NumericArray } from '../model/fieldArray.ts';
 import { inMemoryBytes, readExactly, readInto, type ByteSource } from './byteSource.ts';
 import { ELEMENT_SIZE } from './elementTypes.ts';
 import { SCRATCH_BYTES, Scratch, allocateTarget, convertChunk, finishDirect, isDirect, type ArrayPlan } from './elementConvert.ts';
-import type { Checkpoint, InflateBlock } from './loadOptions.ts';
+import type { Checkpoint, InflateBlock, ReadParts } from './loadOptions.ts';
 import { readArray } from './sourceArrays.ts';
 import {
   blockCountShort, blocksShort, checkDecodedSize, decodeHeaderWords, headerShort, headerSize, inflateInto, inflatedSize,
@@ -30,6 +30,8 @@ export interface AppendedArray {
   readonly fmt: BlockFormat;
   readonly inflate: InflateBlock;
   readonly cp: Checkpoint;
+  /** Reads large uncompressed arrays in parts on several threads (`LoadOptions.readParts`); absent: on this thread. */
+  readonly parts?: ReadParts | undefined;
 }
 
 /** The decoded values and the file position just after the array. */
@@ -57,7 +59,7 @@ export async function readAppendedArray(a: AppendedArray, plan: ArrayPlan, expec
     pos += hs;
     checkDecodedSize(n!, exp, 'block holds');
     if (n! > a.end - pos) throw new Error(`${where}: block header says ${n} bytes, only ${a.end - pos} are left in the file`);
-    const values = await readArray(a.source, pos, n! / size, plan, { view: true, progress: { cp: a.cp, stage: 'arrays' } });
+    const values = await readArray(a.source, pos, n! / size, plan, { view: true, progress: { cp: a.cp, stage: 'arrays' }, parts: a.parts });
     return { values, reached: pos + n! };
   }
   const [nBlocks] = await words(a, pos, 1, 'the compression header', where);

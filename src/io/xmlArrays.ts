@@ -12,7 +12,7 @@ import { readInto, type ByteSource } from './byteSource.ts';
 import { SCRATCH_BYTES, type ArrayPlan } from './elementConvert.ts';
 import { ELEMENT_SIZE, allocateFor, isElementType, type ElementType } from './elementTypes.ts';
 import { claimMemory } from './memoryBudget.ts';
-import type { Base64Batch, Checkpoint, InflateBlock, ParseTextBatch } from './loadOptions.ts';
+import type { Base64Batch, Checkpoint, InflateBlock, ParseTextBatch, ReadParts } from './loadOptions.ts';
 import { readAppendedArray } from './xmlAppended.ts';
 import { memoryBase64, readBase64Array, sourceBase64, type Base64Input } from './xmlBase64Arrays.ts';
 import type { BlockFormat } from './xmlBlocks.ts';
@@ -45,6 +45,8 @@ export interface XmlFileContext {
   readonly parseText?: ParseTextBatch | undefined;
   /** Decodes uncompressed base64 arrays on several threads (`LoadOptions.decodeBase64`); absent: on this thread. */
   readonly decodeBase64?: Base64Batch | undefined;
+  /** Reads large raw appended arrays in parts on several threads (`LoadOptions.readParts`); absent: on this thread. */
+  readonly readParts?: ReadParts | undefined;
 }
 
 /** A decoded array: values (model type), its file type and components. */
@@ -365,7 +367,7 @@ async function decode(ctx: XmlFileContext, el: XmlElement, where: string, expect
     if (format === 'appended' && ctx.appended?.encoding === 'raw') {
       const { app, off } = appendedOffset(ctx, el, where);
       const plan = planOf(type, ctx, want, where);
-      const r = await readAppendedArray({ source: ctx.source, start: app.start + off, end: app.end, fmt, inflate: ctx.inflate, cp: ctx.cp }, plan, expectedValues);
+      const r = await readAppendedArray({ source: ctx.source, start: app.start + off, end: app.end, fmt, inflate: ctx.inflate, cp: ctx.cp, parts: ctx.readParts }, plan, expectedValues);
       values = r.values;
       reached = r.reached;
     } else {

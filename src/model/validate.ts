@@ -5,6 +5,7 @@
 import { cellDimension, fixedNodeCount, CELL_TYPE_NAMES } from './cellTypes.ts';
 import { tupleCount } from './fieldArray.ts';
 import type { Piece } from './piece.ts';
+import { notedFirstNonFinite, notedWithin } from './arrayScans.ts';
 
 /** Per cell-type byte: its fixed node count (> 0), −1 for a supported variable-size type or 0 (empty), −2 unsupported. */
 const TYPE_RULE = (() => {
@@ -13,8 +14,10 @@ const TYPE_RULE = (() => {
   return t;
 })();
 
-/** Index of the first non-finite value of `a`, or −1 (x − x is 0 exactly for finite x). */
-function firstNonFinite(a: ArrayLike<number>): number {
+/** Index of the first non-finite value of `a`, or −1 (x − x is 0 exactly for finite x); what the reader noted, when it did. */
+function firstNonFinite(a: Float64Array | Float32Array): number {
+  const noted = notedFirstNonFinite(a);
+  if (noted !== undefined) return noted;
   for (let i = 0; i < a.length; i++) { const x = a[i]!; if (x - x !== 0) return i; }
   return -1;
 }
@@ -42,7 +45,8 @@ export function validatePiece(p: Piece, where: string): void {
     if (n < 0 || r === -2 || (r > 0 && n !== r)) cellError(p, c, where);
   }
   const conn = p.connectivity;
-  for (let i = 0; i < conn.length; i++) {
+  // A reader that noted the ids' range leaves nothing to find; otherwise (or when it is off) the scan names the entry.
+  if (!notedWithin(conn, 0, nPts - 1)) for (let i = 0; i < conn.length; i++) {
     const id = conn[i]!;
     if (id < 0 || id >= nPts) {
       throw new Error(`${where}: connectivity entry ${i} is point ${id}, but the piece has ${nPts} points (expected 0..${nPts - 1})`);

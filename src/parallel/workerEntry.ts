@@ -19,12 +19,12 @@ declare const FIELDTALLY_BUNDLED: boolean | undefined;
 
 /**
  * The worker kinds: compute shares (`nodePool.ts`), series runs (`seriesPool.ts`), zlib blocks (`inflatePool.ts`),
- * ASCII text (`textPool.ts`).
+ * ASCII text (`textPool.ts`), parts of raw arrays (`readPool.ts`).
  */
-export type WorkerKind = 'share' | 'series' | 'inflate' | 'text';
+export type WorkerKind = 'share' | 'series' | 'inflate' | 'text' | 'read';
 
 /** The body each TypeScript worker runs (inflate workers are plain JavaScript already). */
-const BODIES: Partial<Record<WorkerKind, string>> = { share: 'workers/shareWorkerBody.ts', series: 'workers/seriesWorkerBody.ts', text: 'workers/textWorkerBody.ts' };
+const BODIES: Partial<Record<WorkerKind, string>> = { share: 'workers/shareWorkerBody.ts', series: 'workers/seriesWorkerBody.ts', text: 'workers/textWorkerBody.ts', read: 'workers/readWorkerBody.ts' };
 
 const built = new Map<WorkerKind, URL | null>();
 

@@ -8,11 +8,13 @@
  * G·L/2 exactly on any mesh: 8 · 1.0016e-3 · 0.05 / 0.01² · 0.05 = 0.20032 Pa for the bundled pipe.
  */
 import { execFileSync } from 'node:child_process';
-import { mkdtempSync, readdirSync, readFileSync, rmSync } from 'node:fs';
+import { mkdtempSync, readdirSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
 import { afterAll, describe, expect, it } from 'vitest';
 import { main } from '../../src/cli/main.ts';
+import { writeVtu } from '../../src/io/writeVtu.ts';
+import { datasetOf, hexGrid } from '../../src/model/meshBuild.ts';
 
 const REPO = resolve(__dirname, '../..');
 const work = mkdtempSync(join(tmpdir(), 'fieldtally-pack-'));
@@ -38,7 +40,7 @@ describe('npm pack → npm install -g → fieldtally', () => {
     const listed = execFileSync('tar', ['-tzf', tarball], { encoding: 'utf8' }).trim().split('\n').sort();
     expect(listed).toEqual([
       'package/README.md', 'package/bin/fieldtally.mjs', 'package/dist-cli/THIRD-PARTY-NOTICES.txt',
-      'package/dist-cli/fieldtally.mjs', 'package/dist-cli/inflateWorker.mjs', 'package/dist-cli/seriesWorker.mjs',
+      'package/dist-cli/fieldtally.mjs', 'package/dist-cli/inflateWorker.mjs', 'package/dist-cli/readWorker.mjs', 'package/dist-cli/seriesWorker.mjs',
       'package/dist-cli/shareWorker.mjs', 'package/dist-cli/textWorker.mjs', 'package/package.json', 'package/src/study/probeSet.schema.json',
     ]);
     const shipped = JSON.parse(execFileSync('tar', ['-xzOf', tarball, 'package/package.json'], { encoding: 'utf8' })) as Record<string, unknown>;
@@ -67,6 +69,12 @@ describe('npm pack → npm install -g → fieldtally', () => {
       { cwd: outside, encoding: 'utf8' }).split('\n').filter((l) => !/created \d|built \d time/.test(l)).join('\n');
     // the same history with the steps run by two threads (apart from the creation time and the mesh-build count)
     expect(history('2')).toBe(history('1'));
+    // the installed read workers read a raw file's large arrays (8 MB of 64-bit connectivity) in parts
+    const lattice = join(work, 'lattice.vtu');
+    writeFileSync(lattice, writeVtu(datasetOf([hexGrid(50, 50, 50)]), { encoding: 'appended-raw', idType: 'Int64' }));
+    const bench = (t: string) => JSON.parse(execFileSync(bin, ['bench', lattice, '--json', '--stages', 'load', '--read-threads', t], { cwd: outside, encoding: 'utf8' })) as { cells: number; load: { arraysReadInParts: number } };
+    const [two, one] = [bench('2'), bench('1')];
+    expect([two.cells, two.load.arraysReadInParts > 0, one.load.arraysReadInParts]).toEqual([125000, true, 0]);
 
     const help = execFileSync(bin, ['--help'], { cwd: outside, encoding: 'utf8' });
     expect(help).toMatch(/check-probes +check a probe-set file/);

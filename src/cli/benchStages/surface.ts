@@ -13,6 +13,16 @@ import type { BenchStage } from './stage.ts';
 
 const r2 = (v: number) => Math.round(v * 100) / 100;
 
+/** Bytes of the typed arrays an object holds, itself and one level down (a boundary and its point merge). */
+function heldBytes(o: object, depth = 1): number {
+  let n = 0;
+  for (const v of Object.values(o)) {
+    if (ArrayBuffer.isView(v)) n += v.byteLength;
+    else if (v && typeof v === 'object' && depth > 0) n += heldBytes(v as object, depth - 1);
+  }
+  return n;
+}
+
 /** Times the surface pipeline on a dataset; `repeats` extraction runs after the first. */
 export async function benchSurface(d: Dataset, repeats = 2): Promise<Record<string, unknown>> {
   let t = performance.now();
@@ -28,7 +38,7 @@ export async function benchSurface(d: Dataset, repeats = 2): Promise<Record<stri
   const groups = surfaceGroups(d, faces);
   const groupMs = performance.now() - t;
   const out: Record<string, unknown> = {
-    boundaryFaces: faces.count, cells3d: faces.cells3d, pointMatching: faces.merge.method,
+    boundaryFaces: faces.count, cells3d: faces.cells3d, pointMatching: faces.merge.method, boundaryBytes: heldBytes(faces),
     extraction: { firstMs: r2(firstMs), bestMs: r2(Math.min(firstMs, ...again)), runs: 1 + repeats },
     grouping: { ms: r2(groupMs), groups: groups.groups.length, source: groups.groupArray ? `cell array "${groups.groupArray}"` : `feature angle ${groups.featureAngle}°` },
   };

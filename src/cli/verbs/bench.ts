@@ -7,10 +7,14 @@ import { stat } from 'node:fs/promises';
 import { dirname, join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { loadDatasetFile } from '../../io/nodeFiles.ts';
+import { checkWorkerCount } from '../../parallel/pool.ts';
+import { poolSize } from '../../parallel/nodePool.ts';
+import { startReadPool } from '../../parallel/readPool.ts';
 import { totalCells, totalPoints, type Dataset } from '../../model/dataset.ts';
 import { parseArgs, str } from '../args.ts';
 import type { BenchStage } from '../benchStages/stage.ts';
 import type { Verb } from '../verb.ts';
+import { READ_PARTS_MIN_FILE_BYTES } from '../workerOption.ts';
 
 const STAGE_DIR = join(dirname(fileURLToPath(import.meta.url)), '..', 'benchStages');
 
@@ -37,24 +41,35 @@ export function decodedBytes(d: Dataset): number {
 
 const bench: Verb = {
   summary: 'time each stage of the tool on a file and report peak memory (JSON)',
-  usage: 'fieldtally bench <file> [--json] [--stages load,cut,…]\n  Times load and every compute stage; prints JSON (always) with times in ms, sizes in bytes, rates in MB/s (10^6 bytes).',
-  options: { json: 'boolean', stages: 'string' },
+  usage: 'fieldtally bench <file> [--json] [--stages load,cut,…] [--read-threads N]\n  Times load and every compute stage; prints JSON (always) with times in ms, sizes in bytes, rates in MB/s (10^6 bytes).\n'
+    + '  --read-threads N      threads reading the large raw arrays of the file in parts, as the --workers verbs load it (default: FIELDTALLY_WORKERS, else one per core, for files of 256 MiB or more; else 1: read on this thread)',
+  options: { json: 'boolean', stages: 'string', 'read-threads': 'string' },
   async run(argv, io) {
     const args = parseArgs(argv, this.options, 'bench');
     const file = args.positional[0];
     if (!file || args.positional.length > 1) throw new Error('expected one result file: fieldtally bench <file> [--json]');
     const only = str(args, 'stages')?.split(',').map((s) => s.trim());
     const fileBytes = (await stat(file)).size;
+    const asked = str(args, 'read-threads');
+    // As loadForCompute: parts for large files only (DEVELOPERS.md, "Loading at scale").
+    const threads = asked !== undefined ? checkWorkerCount(asked, '--read-threads') : fileBytes >= READ_PARTS_MIN_FILE_BYTES ? poolSize() : 1;
     const rssBefore = process.memoryUsage().rss;
     const c0 = process.cpuUsage(), t0 = performance.now();
-    const dataset = await loadDatasetFile(file);
-    const loadMs = performance.now() - t0, loadCpu = process.cpuUsage(c0);
+    // Started with the clock running: starting them is part of loading this way.
+    const readers = threads > 1 ? startReadPool(threads) : undefined;
+    let dataset: Dataset, loadMs: number, loadCpu: NodeJS.CpuUsage;
+    try {
+      dataset = await loadDatasetFile(file, readers ? { readParts: readers.readParts } : {});
+      loadMs = performance.now() - t0; loadCpu = process.cpuUsage(c0);
+    } finally {
+      await readers?.close();
+    }
     const decoded = decodedBytes(dataset);
     const out: Record<string, unknown> = {
       file, fileBytes, points: totalPoints(dataset), cells: totalCells(dataset),
       load: {
         ms: round(loadMs), cpuMs: round((loadCpu.user + loadCpu.system) / 1000), fileMBps: round(fileBytes / 1e3 / loadMs), decodedBytes: decoded,
-        decodedMBps: round(decoded / 1e3 / loadMs),
+        decodedMBps: round(decoded / 1e3 / loadMs), readThreads: threads, arraysReadInParts: readers?.done.arrays ?? 0,
       },
     };
     for (const s of await stages()) {

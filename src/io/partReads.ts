@@ -1,0 +1,91 @@
+/**
+ * One part of an uncompressed array read on a thread of its own (`LoadOptions.readParts`): the elements
+ * `[from, to)` are read chunk by chunk into the thread's scratch and copied or converted into the shared final
+ * array exactly as the one-thread read (`readArray` in sourceArrays.ts) does it, with the same chunk boundaries
+ * when parts start on multiples of its chunk, so values and messages are the same.
+ *
+ * Each chunk is scanned while in cache for what the piece checks would read the whole array again for (the
+ * first non-finite value of floats, the range of ids), so the reader can note it (src/model/arrayScans.ts).
+ *
+ * Pure: the caller hands in a synchronous `fill` (a positional read of the file on a worker thread).
+ */
+import type { ArrayScan } from '../model/arrayScans.ts';
+import type { NumericArray } from '../model/fieldArray.ts';
+import { ELEMENT_SIZE } from './elementTypes.ts';
+import { convertChunk, finishDirect, isDirect, type ArrayPlan } from './elementConvert.ts';
+
+/** Fills all of `target` with the file's bytes from byte `offset` (throws when the file ends first). */
+export type FillSync = (offset: number, target: Uint8Array) => void;
+
+/**
+ * Reads file elements `[from, to)` of an array whose element 0 lies at byte `offset` into `out` (the plan's final
+ * array, `lead` slots included), `step` elements at a time through `scratch` (at least `step` elements, at byte 0
+ * of its own buffer so it is aligned). Throws the one-thread read's message for the part's first bad element.
+ * Returns the part's scan: the first non-finite value's index in the array (−1: none) for floating-point arrays,
+ * the least and greatest value for ids, nothing for other arrays.
+ */
+export function readPartSync(plan: ArrayPlan, out: NumericArray, offset: number, from: number, to: number, step: number,
+  fill: FillSync, scratch: Uint8Array): ArrayScan {
+  const size = ELEMENT_SIZE[plan.type], lead = plan.lead ?? 0;
+  const outBytes = isDirect(plan) ? new Uint8Array(out.buffer, out.byteOffset + lead * size, (out.length - lead) * size) : undefined;
+  const floats = out instanceof Float64Array || out instanceof Float32Array, ids = plan.target === 'ids';
+  let firstNonFinite = -1, min = Infinity, max = -Infinity;
+  for (let i = from; i < to; i += step) {
+    const k = Math.min(step, to - i), buf = scratch.subarray(0, k * size);
+    fill(offset + i * size, buf);
+    if (outBytes) {
+      outBytes.set(buf, i * size);
+      finishDirect(plan, out, i, k);
+    } else {
+      convertChunk(plan, buf, k, out, i);
+    }
+    if (floats && firstNonFinite < 0) firstNonFinite = nonFiniteIn(out as Float64Array | Float32Array, lead + i, lead + i + k);
+    if (ids && k > 0) {
+      const r = rangeOf(out as Int32Array, lead + i, lead + i + k);
+      if (r[0]! < min) min = r[0]!;
+      if (r[1]! > max) max = r[1]!;
+    }
+  }
+  if (floats) return { firstNonFinite: firstNonFinite < 0 ? -1 : firstNonFinite - lead };
+  return ids && to > from ? { min, max } : {};
+}
+
+/** Index of the first non-finite value of `a[a0, a1)`, or −1 (x − x is 0 exactly for finite x). */
+function nonFiniteIn(a: Float64Array | Float32Array, a0: number, a1: number): number {
+  for (let j = a0; j < a1; j++) { const x = a[j]!; if (x - x !== 0) return j; }
+  return -1;
+}
+
+const range = new Int32Array(2);
+
+/** Least and greatest value of `a[a0, a1)` (non-empty), in a module pair. */
+function rangeOf(a: Int32Array, a0: number, a1: number): Int32Array {
+  let lo = a[a0]!, hi = lo;
+  for (let j = a0 + 1; j < a1; j++) { const v = a[j]!; if (v < lo) lo = v; else if (v > hi) hi = v; }
+  range[0] = lo; range[1] = hi;
+  return range;
+}
+
+/** The scan of a whole array from its parts' scans, in order (see `readPartSync`). */
+export function joinScans(parts: readonly ArrayScan[]): ArrayScan {
+  if (parts.length === 0) return {};
+  if (parts[0]!.firstNonFinite !== undefined) {
+    const hit = parts.find((s) => (s.firstNonFinite ?? -1) >= 0);
+    return { firstNonFinite: hit ? hit.firstNonFinite! : -1 };
+  }
+  if (parts.every((s) => s.min !== undefined && s.max !== undefined)) {
+    return { min: Math.min(...parts.map((s) => s.min!)), max: Math.max(...parts.map((s) => s.max!)) };
+  }
+  return {};
+}
+
+/**
+ * Contiguous parts of `count` elements for `workers` threads: `[from, to)` pairs, each but the last a whole
+ * number of `step`-element chunks, as equal as that allows (fewer parts than threads for small arrays).
+ */
+export function partRanges(count: number, step: number, workers: number): [number, number][] {
+  const chunks = Math.ceil(count / step), parts = Math.max(1, Math.min(workers, chunks));
+  const per = Math.ceil(chunks / parts), out: [number, number][] = [];
+  for (let c = 0; c < chunks; c += per) out.push([c * step, Math.min(count, (c + per) * step)]);
+  return out;
+}
