@@ -20,6 +20,7 @@ import { cellDimension, CellType } from '../model/cellTypes.ts';
 import { BLOCK, GROUP, type CellBlocks } from './cellBlocks.ts';
 import { PAD } from './cellTree.ts';
 import { evaluateCell } from './locatePoint.ts';
+import { segmentMeetsBox } from './segmentBox.ts';
 import type { Piece } from '../model/piece.ts';
 
 export type Vec3 = readonly [number, number, number];
@@ -144,30 +145,4 @@ function scanBlock(p: Piece, c0: number, c1: number, g0: number, from: Vec3, to:
       if (less || (equal && lower)) { rank[i] = score; cell[i] = g; }
     }
   }
-}
-
-/** Whether p + τd, τ in [0, 1], meets the box (slab test; a zero direction component tests containment). */
-function segmentMeetsBox(x0: number, x1: number, y0: number, y1: number, z0: number, z1: number,
-  px: number, py: number, pz: number, dx: number, dy: number, dz: number): boolean {
-  if (!(x0 <= x1 && y0 <= y1 && z0 <= z1)) return false;
-  let t0 = 0, t1 = 1;
-  if (dx === 0) { if (px < x0 || px > x1) return false; } else {
-    let a = (x0 - px) / dx, c = (x1 - px) / dx;
-    if (a > c) { const s = a; a = c; c = s; }
-    if (a > t0) t0 = a; if (c < t1) t1 = c;
-    if (t0 > t1) return false;
-  }
-  if (dy === 0) { if (py < y0 || py > y1) return false; } else {
-    let a = (y0 - py) / dy, c = (y1 - py) / dy;
-    if (a > c) { const s = a; a = c; c = s; }
-    if (a > t0) t0 = a; if (c < t1) t1 = c;
-    if (t0 > t1) return false;
-  }
-  if (dz === 0) { if (pz < z0 || pz > z1) return false; } else {
-    let a = (z0 - pz) / dz, c = (z1 - pz) / dz;
-    if (a > c) { const s = a; a = c; c = s; }
-    if (a > t0) t0 = a; if (c < t1) t1 = c;
-    if (t0 > t1) return false;
-  }
-  return true;
 }

@@ -10,6 +10,7 @@
  */
 import type { Bounds } from '../model/bounds.ts';
 import type { CellTree } from './cellTree.ts';
+import { segmentMeetsBox } from './segmentBox.ts';
 
 let walkStack: Int32Array = new Int32Array(512);
 function stackFor(tree: CellTree): Int32Array {
@@ -139,45 +140,19 @@ export function cellsAlongSegment(tree: CellTree, ax: number, ay: number, az: nu
   while (sp > 0) {
     const i = stack[--sp]!, o = 6 * i;
     const lx = nb[o]!, ly = nb[o + 2]!, lz = nb[o + 4]!;
-    if (!slab(lx, nb[o + 1]!, ly, nb[o + 3]!, lz, nb[o + 5]!, px, py, pz, dx, dy, dz)) continue;
+    if (!segmentMeetsBox(lx, nb[o + 1]!, ly, nb[o + 3]!, lz, nb[o + 5]!, px, py, pz, dx, dy, dz)) continue;
     const cnt = nr[2 * i + 1]!;
     if (cnt < 0) { stack[sp++] = nr[2 * i]!; stack[sp++] = i + 1; continue; }
     const wx = (nb[o + 1]! - lx) / 255, wy = (nb[o + 3]! - ly) / 255, wz = (nb[o + 5]! - lz) / 255;
     for (let slot = nr[2 * i]!, end = slot + cnt; slot < end; slot++) {
       const q = 6 * slot;
-      if (!slab(lx + cb[q]! * wx, lx + cb[q + 1]! * wx, ly + cb[q + 2]! * wy, ly + cb[q + 3]! * wy,
+      if (!segmentMeetsBox(lx + cb[q]! * wx, lx + cb[q + 1]! * wx, ly + cb[q + 2]! * wy, ly + cb[q + 3]! * wy,
         lz + cb[q + 4]! * wz, lz + cb[q + 5]! * wz, px, py, pz, dx, dy, dz)) continue;
       if (found === buf.length) { buf = grow(buf, found + 1); if (!out) segScratch = buf; }
       buf[found++] = order[slot]!;
     }
   }
   return buf.subarray(0, found);
-}
-
-/** Whether p + τd, τ in [0, 1], meets the box (slab test; a zero direction component tests containment). */
-function slab(x0: number, x1: number, y0: number, y1: number, z0: number, z1: number,
-  px: number, py: number, pz: number, dx: number, dy: number, dz: number): boolean {
-  if (x0 > x1 || y0 > y1 || z0 > z1) return false;
-  let t0 = 0, t1 = 1;
-  if (dx === 0) { if (px < x0 || px > x1) return false; } else {
-    let a = (x0 - px) / dx, c = (x1 - px) / dx;
-    if (a > c) { const s = a; a = c; c = s; }
-    if (a > t0) t0 = a; if (c < t1) t1 = c;
-    if (t0 > t1) return false;
-  }
-  if (dy === 0) { if (py < y0 || py > y1) return false; } else {
-    let a = (y0 - py) / dy, c = (y1 - py) / dy;
-    if (a > c) { const s = a; a = c; c = s; }
-    if (a > t0) t0 = a; if (c < t1) t1 = c;
-    if (t0 > t1) return false;
-  }
-  if (dz === 0) { if (pz < z0 || pz > z1) return false; } else {
-    let a = (z0 - pz) / dz, c = (z1 - pz) / dz;
-    if (a > c) { const s = a; a = c; c = s; }
-    if (a > t0) t0 = a; if (c < t1) t1 = c;
-    if (t0 > t1) return false;
-  }
-  return true;
 }
 
 /**
