@@ -21,41 +21,29 @@
 import type { NumericArray } from '../model/fieldArray.ts';
 import { factorNine, gradientNine } from './solveNine.ts';
 import type { Stencil } from './stencils.ts';
+import { beginSites, ringIds, twoRing } from './neighbourRing.ts';
+import { ONE_SIDED, PIVOT_TOLERANCE, SKEWED, WIDEN_TOLERANCE } from './fitTolerances.ts';
+import { momentKernel } from './momentKernel.ts';
+import { pairedInto } from './pairedFit.ts';
 
-/** Relative pivot below which an unknown is dropped from the fit. */
-const PIVOT_TOLERANCE = 1e-9;
-/**
- * Relative pivot below which the one-ring is refitted over the two-ring: a node on a boundary face sees
- * only two layers of nodes across it, too few to tell a curvature across the face from a slope.
- */
-const WIDEN_TOLERANCE = 1e-3;
-/**
- * Offset of a one-ring's mean from its site, relative to the ring's RMS distance, above which the ring
- * counts as one-sided (a node on the boundary) and the two-ring is used: its curvature across the
- * boundary is otherwise resolved from the small scatter of one layer of nodes.
- */
-const ONE_SIDED = 0.2;
-/** What `fit` returns for a one-sided ring it was told to skip (below WIDEN_TOLERANCE, so the caller widens). */
-const SKEWED = -2;
+export { beginSites };
 
 const Mp = new Float64Array(45);
 const Lp = new Float64Array(45);
 const inv = new Float64Array(9);
 let B = new Float64Array(27);
 let Y = new Float64Array(27);
-let ring = new Int32Array(256);
 /** The last fit's scaled neighbour offsets and weights (0 for a coincident neighbour), in list order. */
 let X = new Float64Array(256);
 let Yo = new Float64Array(256);
 let Z = new Float64Array(256);
 let W = new Float64Array(256);
-let stamp = new Int32Array(0);
 
 /**
  * The neighbours and scale of the last `fitSite`: the site's fit runs over `list[lo .. hi-1]` with offsets
  * scaled by `ih` (1 / RMS neighbour distance); its normal matrix is factorised in the module's scratch.
  */
-export const lastSite: { list: Int32Array; lo: number; hi: number; ih: number } = { list: ring, lo: 0, hi: 0, ih: 0.5 };
+export const lastSite: { list: Int32Array; lo: number; hi: number; ih: number } = { list: ringIds(), lo: 0, hi: 0, ih: 0.5 };
 
 /**
  * Gradients at the `targets` sites (default: every site). `positions` holds one xyz per site, `values`
@@ -80,7 +68,12 @@ export function gradientInto(out: Float64Array, outStart: number, positions: Flo
   stencil: Stencil, targets: Int32Array | undefined, from: number, to: number, ringSizes?: Int32Array): void {
   if (B.length < 9 * nc) { B = new Float64Array(9 * nc); Y = new Float64Array(9 * nc); }
   beginSites(positions.length / 3);
-  if (nc === 1 || nc === 3) { fusedInto(out, outStart, positions, values, nc, stencil, targets, from, to, ringSizes); return; }
+  if (nc === 1 || nc === 3) {
+    const kernel = momentKernel();
+    if (kernel) pairedInto(kernel, out, outStart, positions, values, nc, stencil, targets, from, to, ringSizes);
+    else fusedInto(out, outStart, positions, values, nc, stencil, targets, from, to, ringSizes);
+    return;
+  }
   for (let k = from; k < to; k++) {
     const i = targets ? targets[k]! : k;
     const ob = outStart + (k - from) * nc * 3;
@@ -107,7 +100,7 @@ function fusedInto(out: Float64Array, outStart: number, positions: Float64Array,
     let ok = fitSums(positions, values, nc, i, sid, so[i]!, so[i + 1]!, true);
     if (!(ok >= WIDEN_TOLERANCE)) {
       n = twoRing(so, sid, i, k);
-      ok = fitSums(positions, values, nc, i, ring, 0, n, false);
+      ok = fitSums(positions, values, nc, i, ringIds(), 0, n, false);
     }
     if (ringSizes) ringSizes[k] = ok < 0 ? 0 : n;
     if (ok < 0) { for (let c = 0; c < w; c++) out[ob + c] = NaN; continue; }
@@ -188,12 +181,6 @@ function fitSums(positions: Float64Array, values: NumericArray, nc: number, i: n
   return factorNine(Mp, Lp, inv, PIVOT_TOLERANCE);
 }
 
-/** Readies the two-ring marks for a pass over sites of a set of `nSites`; call before a run of `fitSite`. */
-export function beginSites(nSites: number): void {
-  if (stamp.length < nSites) stamp = new Int32Array(nSites);
-  stamp.fill(-1, 0, nSites);
-}
-
 /**
  * Chooses site `i`'s neighbours (its one-ring, or the two-ring when the one-ring is one-sided or
  * ill-conditioned), leaves them in `lastSite` and the factorised normal matrix in the module's scratch.
@@ -205,33 +192,9 @@ export function fitSite(positions: Float64Array, stencil: Stencil, i: number, ma
   let ok = fitGeometry(positions, i, sid, so[i]!, so[i + 1]!, true);
   if (ok >= WIDEN_TOLERANCE) { lastSite.list = sid; lastSite.lo = so[i]!; lastSite.hi = so[i + 1]!; return ok; }
   const m = twoRing(so, sid, i, mark);
-  ok = fitGeometry(positions, i, ring, 0, m, false);
-  lastSite.list = ring; lastSite.lo = 0; lastSite.hi = m;
+  ok = fitGeometry(positions, i, ringIds(), 0, m, false);
+  lastSite.list = ringIds(); lastSite.lo = 0; lastSite.hi = m;
   return ok;
-}
-
-/**
- * Gathers the two-ring of site `i` (without `i`) into `ring`; returns its length. `mark` is unique per call.
- * Order: each one-ring neighbour j, then the new entries of j's row, j by j (room made before the walk, so
- * the inner loop only tests and writes).
- */
-function twoRing(so: Int32Array, sid: Int32Array, i: number, mark: number): number {
-  const a = so[i]!, b = so[i + 1]!;
-  let most = 0;
-  for (let s = a; s < b; s++) { const j = sid[s]!; most += so[j + 1]! - so[j]! + 1; }
-  if (most > ring.length) ring = new Int32Array(Math.max(most, 2 * ring.length));
-  const r = ring;
-  let m = 0;
-  stamp[i] = mark;
-  for (let s = a; s < b; s++) {
-    const j = sid[s]!;
-    if (stamp[j] !== mark) { stamp[j] = mark; r[m++] = j; }
-    for (let t = so[j]!, e = so[j + 1]!; t < e; t++) {
-      const q = sid[t]!;
-      if (stamp[q] !== mark) { stamp[q] = mark; r[m++] = q; }
-    }
-  }
-  return m;
 }
 
 /**

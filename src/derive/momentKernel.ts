@@ -1,0 +1,70 @@
+/**
+ * The WebAssembly SIMD moment kernel of the quadratic gradient fit (bytes in momentKernelWasm.ts, written by
+ * bin/write-moment-kernel.mjs): it sums the 31 weighted moments and the right-hand sides of two sites at once,
+ * one per f64x2 lane, each lane's sums the scalar code's to the bit (same products, same order, no fused
+ * multiply-add). pairedFit.ts feeds it.
+ *
+ * Where WebAssembly SIMD is missing the kernel is absent and the fit runs in JavaScript, with the same
+ * results. `FIELDTALLY_SCALAR_FIT=1` in the environment, or `useMomentKernel(false)`, forces the JavaScript path.
+ */
+import { KERNEL_LAYOUT, MOMENT_KERNEL_BASE64 } from './momentKernelWasm.ts';
+
+/** The instantiated kernel and views of its memory (renewed when the memory grows). */
+export interface MomentKernel {
+  sums1(n: number): void;
+  sums3(n: number): void;
+  /** The memory as doubles: scales at `scaleAt / 8`, sums at `sumsAt / 8`, slots at `slotsAt / 8` (lane-interleaved). */
+  f64: Float64Array;
+  memory: WebAssembly.Memory;
+}
+
+let kernel: MomentKernel | null | undefined;
+let wanted = !scalarFitAsked();
+
+function scalarFitAsked(): boolean {
+  const env = (globalThis as { process?: { env?: Record<string, string | undefined> } }).process?.env;
+  return env?.FIELDTALLY_SCALAR_FIT === '1';
+}
+
+function decode(b64: string): Uint8Array<ArrayBuffer> {
+  const s = atob(b64), out = new Uint8Array(s.length);
+  for (let i = 0; i < s.length; i++) out[i] = s.charCodeAt(i);
+  return out;
+}
+
+function instantiate(): MomentKernel | null {
+  try {
+    const bytes = decode(MOMENT_KERNEL_BASE64);
+    if (!WebAssembly.validate(bytes)) return null;
+    const e = new WebAssembly.Instance(new WebAssembly.Module(bytes)).exports as unknown as
+      { memory: WebAssembly.Memory; sums1(n: number): void; sums3(n: number): void };
+    return { sums1: e.sums1, sums3: e.sums3, memory: e.memory, f64: new Float64Array(e.memory.buffer) };
+  } catch {
+    return null;
+  }
+}
+
+/** The kernel, or null when it is switched off or this platform has no WebAssembly SIMD. */
+export function momentKernel(): MomentKernel | null {
+  if (!wanted) return null;
+  if (kernel === undefined) kernel = instantiate();
+  return kernel;
+}
+
+/** Switches the kernel on (when the platform has it) or off (every fit in JavaScript); returns whether it is now used. */
+export function useMomentKernel(on: boolean): boolean {
+  wanted = on;
+  return momentKernel() !== null;
+}
+
+/** Makes room for `n` neighbour slots of `nc` components; returns the double index of slot 0. */
+export function kernelSlots(k: MomentKernel, n: number, nc: number): number {
+  const need = KERNEL_LAYOUT.slotsAt + n * 16 * (3 + nc);
+  if (k.memory.buffer.byteLength < need) {
+    k.memory.grow(Math.ceil((need - k.memory.buffer.byteLength) / 65536));
+    k.f64 = new Float64Array(k.memory.buffer);
+  }
+  return KERNEL_LAYOUT.slotsAt / 8;
+}
+
+export { KERNEL_LAYOUT };

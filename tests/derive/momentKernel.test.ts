@@ -1,0 +1,95 @@
+/**
+ * The WebAssembly SIMD moment kernel (src/derive/momentKernel.ts, pairedFit.ts) against the JavaScript fit
+ * (`useMomentKernel(false)`): every gradient the same to the bit — on every cell type including polyhedra,
+ * boundary nodes refitted over the two-ring, chosen node lists of odd length, rings larger than the kernel's
+ * first memory, neighbours coincident with the site (carrying NaN, which the fit must skip) and sites with no
+ * neighbour. The generated module must be what bin/write-moment-kernel.mjs writes now. The method itself
+ * (Barth & Frederickson 1990 quadratic least-squares fit) is checked for second order in quadraticGradient.test.ts.
+ */
+import { readFileSync } from 'node:fs';
+import { afterEach, describe, expect, it } from 'vitest';
+import { gradientInto, quadraticGradient } from '../../src/derive/quadraticGradient.ts';
+import { momentKernel, useMomentKernel } from '../../src/derive/momentKernel.ts';
+import { pointStencil, type Stencil } from '../../src/derive/stencils.ts';
+import { pointStencilAround } from '../../src/derive/localStencil.ts';
+import { boxMesh, rng, type BoxKind } from '../cut/meshes.ts';
+
+afterEach(() => { useMomentKernel(true); });
+
+/** Gradient with the kernel and without it; also the ring sizes each fit used. */
+function both(positions: Float64Array, values: Float64Array, nc: number, st: Stencil, targets?: Int32Array) {
+  const count = targets ? targets.length : positions.length / 3;
+  const run = (on: boolean) => {
+    expect(useMomentKernel(on)).toBe(on);
+    const out = new Float64Array(3 * nc * count), sizes = new Int32Array(count);
+    gradientInto(out, 0, positions, values, nc, st, targets, 0, count, sizes);
+    return { out, sizes };
+  };
+  return { wasm: run(true), js: run(false) };
+}
+
+function differing(a: Float64Array, b: Float64Array): number {
+  let bad = 0;
+  for (let i = 0; i < a.length; i++) if (!Object.is(a[i], b[i])) bad++;
+  return bad;
+}
+
+describe('WebAssembly moment kernel', () => {
+  it('is present in Node and is what the generator writes', async () => {
+    expect(momentKernel()).not.toBeNull();
+    const gen = (await import('../../bin/write-moment-kernel.mjs' as string)) as { momentKernelSource(): string };
+    expect(readFileSync(new URL('../../src/derive/momentKernelWasm.ts', import.meta.url), 'utf8')).toBe(gen.momentKernelSource());
+  });
+
+  for (const kind of ['tet', 'hex', 'wedge', 'pyramid', 'polyhedron', 'voxel'] as BoxKind[]) {
+    it(`${kind}: every node, 3 and 1 components, bit for bit`, () => {
+      const p = boxMesh(kind, 5, 4, 4, 0.3);
+      const np = p.points.length / 3, st = pointStencil(p);
+      const u = new Float64Array(3 * np), s = new Float64Array(np);
+      for (let i = 0; i < np; i++) {
+        const x = p.points[3 * i]!, y = p.points[3 * i + 1]!, z = p.points[3 * i + 2]!;
+        u[3 * i] = Math.sin(3 * y) * z; u[3 * i + 1] = Math.cos(2 * x) + y * y; u[3 * i + 2] = x * y * z;
+        s[i] = Math.exp(x) * y + z * z * z;
+      }
+      for (const [values, nc] of [[u, 3], [s, 1]] as const) {
+        const { wasm, js } = both(p.points, values, nc, st);
+        expect(js.out.some((v) => v !== 0 && Number.isFinite(v))).toBe(true);
+        expect(differing(wasm.out, js.out)).toBe(0);
+        expect(Array.from(wasm.sizes)).toEqual(Array.from(js.sizes));
+      }
+      // a chosen node list of odd length over the local rows (the wall's path)
+      const nodes = Int32Array.from({ length: Math.min(37, np) }, (_, k) => (k * 7) % np);
+      const local = pointStencilAround(p, nodes);
+      const { wasm, js } = both(p.points, u, 3, local, nodes);
+      expect(differing(wasm.out, js.out)).toBe(0);
+      expect(differing(wasm.out, quadraticGradient(p.points, u, 3, st, nodes))).toBe(0);
+    });
+  }
+
+  it('skips coincident neighbours (even with NaN values), grows for large rings, gives NaN without neighbours', () => {
+    const r = rng(3), n = 3000;
+    const pos = new Float64Array(3 * (n + 2)), val = new Float64Array(3 * (n + 2));
+    for (let i = 0; i < n; i++) {
+      for (let c = 0; c < 3; c++) pos[3 * i + c] = r() - 0.5;
+      const x = pos[3 * i]!, y = pos[3 * i + 1]!, z = pos[3 * i + 2]!;
+      val[3 * i] = x * x - y; val[3 * i + 1] = Math.sin(z + x); val[3 * i + 2] = x * y * z;
+    }
+    // node n sits on node 0 with a NaN value; node n+1 is alone
+    pos[3 * n] = pos[0]!; pos[3 * n + 1] = pos[1]!; pos[3 * n + 2] = pos[2]!;
+    val[3 * n] = NaN; val[3 * n + 1] = NaN; val[3 * n + 2] = NaN;
+    pos[3 * n + 3] = 9;
+    // rows: node 0 sees every other node (a ring of n, far beyond the first 64 kB of slots) and its twin;
+    // nodes 1…20 see 30 nodes each; the twin and the lone node see nothing
+    const rows: number[][] = [[...Array.from({ length: n - 1 }, (_, k) => k + 1), n]];
+    for (let i = 1; i <= 20; i++) rows.push([0, n, ...Array.from({ length: 28 }, (_, k) => ((i * 31 + k * 17) % (n - 1)) + 1).filter((j) => j !== i)]);
+    const offsets = new Int32Array(n + 3), ids: number[] = [];
+    for (let i = 0; i < n + 2; i++) { ids.push(...(rows[i] ?? [])); offsets[i + 1] = ids.length; }
+    const st = { offsets, ids: Int32Array.from(ids) };
+    const targets = Int32Array.from([0, ...Array.from({ length: 20 }, (_, k) => k + 1), n + 1]);
+    const { wasm, js } = both(pos, val, 3, st, targets);
+    expect(Number.isFinite(js.out[0])).toBe(true);
+    expect(Number.isNaN(js.out[js.out.length - 1])).toBe(true);
+    expect(differing(wasm.out, js.out)).toBe(0);
+    expect(Array.from(wasm.sizes)).toEqual(Array.from(js.sizes));
+  });
+});
