@@ -1,8 +1,9 @@
 /**
- * The WebAssembly SIMD moment kernel of the quadratic gradient fit (bytes in momentKernelWasm.ts, written by
- * bin/write-moment-kernel.mjs): it sums the 31 weighted moments and the right-hand sides of two sites at once,
- * one per f64x2 lane, each lane's sums the scalar code's to the bit (same products, same order, no fused
- * multiply-add). pairedFit.ts feeds it.
+ * The WebAssembly SIMD kernel of the quadratic gradient fit (bytes in momentKernelWasm.ts, written by
+ * bin/write-moment-kernel.mjs): for two sites at once, one per f64x2 lane, it sums the 31 weighted moments and
+ * the right-hand sides, factorises the 9×9 normal matrix (pivots dropped per lane) and solves for the gradient,
+ * each lane's arithmetic the scalar code's to the bit (same products, same order, no fused multiply-add).
+ * pairedFit.ts feeds it.
  *
  * Where WebAssembly SIMD is missing the kernel is absent and the fit runs in JavaScript, with the same
  * results. `FIELDTALLY_SCALAR_FIT=1` in the environment, or `useMomentKernel(false)`, forces the JavaScript path.
@@ -11,9 +12,9 @@ import { KERNEL_LAYOUT, MOMENT_KERNEL_BASE64 } from './momentKernelWasm.ts';
 
 /** The instantiated kernel and views of its memory (renewed when the memory grows). */
 export interface MomentKernel {
-  sums1(n: number): void;
-  sums3(n: number): void;
-  /** The memory as doubles: scales at `scaleAt / 8`, sums at `sumsAt / 8`, slots at `slotsAt / 8` (lane-interleaved). */
+  fit1(n: number): void;
+  fit3(n: number): void;
+  /** The memory as doubles, lane-interleaved, laid out as `KERNEL_LAYOUT` says (byte offsets). */
   f64: Float64Array;
   memory: WebAssembly.Memory;
 }
@@ -37,8 +38,8 @@ function instantiate(): MomentKernel | null {
     const bytes = decode(MOMENT_KERNEL_BASE64);
     if (!WebAssembly.validate(bytes)) return null;
     const e = new WebAssembly.Instance(new WebAssembly.Module(bytes)).exports as unknown as
-      { memory: WebAssembly.Memory; sums1(n: number): void; sums3(n: number): void };
-    return { sums1: e.sums1, sums3: e.sums3, memory: e.memory, f64: new Float64Array(e.memory.buffer) };
+      { memory: WebAssembly.Memory; fit1(n: number): void; fit3(n: number): void };
+    return { fit1: e.fit1, fit3: e.fit3, memory: e.memory, f64: new Float64Array(e.memory.buffer) };
   } catch {
     return null;
   }

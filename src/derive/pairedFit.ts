@@ -1,27 +1,19 @@
 /**
- * The quadratic gradient fit of quadraticGradient.ts (`fusedInto`, 1 or 3 components) with the moments and
- * right-hand sides summed by the WebAssembly SIMD kernel (momentKernel.ts), two sites at a time, one per lane.
- * This file gathers each site's neighbour offsets and value differences into the kernel's slots (the shorter
- * ring padded with empty slots, which add nothing), runs the kernel, then assembles, factorises and solves
- * each lane's system as the scalar code does. Site choice (one-ring, two-ring when one-sided or
- * ill-conditioned), every product and every sum are the scalar code's, so each site's gradient is the same to
- * the bit (tests/derive/momentKernel.test.ts).
+ * The quadratic gradient fit of quadraticGradient.ts (`fusedInto`, 1 or 3 components) on the WebAssembly SIMD
+ * kernel (momentKernel.ts), two sites at a time, one per lane. This file gathers each site's neighbour offsets
+ * and value differences into the kernel's slots (the shorter ring padded with empty slots, which add nothing)
+ * and its scale; the kernel sums, factorises and solves; this file reads each lane's gradient back. Site
+ * choice (one-ring, two-ring when one-sided or ill-conditioned), every product and every sum are the scalar
+ * code's, so each site's gradient is the same to the bit (tests/derive/momentKernel.test.ts).
  */
 import type { NumericArray } from '../model/fieldArray.ts';
 import { ONE_SIDED, PIVOT_TOLERANCE, SKEWED, WIDEN_TOLERANCE } from './fitTolerances.ts';
 import { KERNEL_LAYOUT, kernelSlots, type MomentKernel } from './momentKernel.ts';
 import { ringIds, twoRing } from './neighbourRing.ts';
-import { factorNine, gradientNine } from './solveNine.ts';
 import type { Stencil } from './stencils.ts';
 
-const Mp = new Float64Array(45);
-const Lp = new Float64Array(45);
-const inv = new Float64Array(9);
-const B = new Float64Array(27);
-const Y = new Float64Array(27);
-/** Per lane: target index, slot count, scale 1/h, 1 when the lane holds a one-ring (it may still widen). */
+/** Per lane: target index, slot count, 1 when the lane holds a one-ring (it may still widen). */
 const laneK = new Int32Array(2), laneN = new Int32Array(2), laneOne = new Uint8Array(2);
-const laneIh = new Float64Array(2);
 
 /** What one call of `pairedInto` works on (module scratch, so the helpers take no long argument lists). */
 const job = {
@@ -37,7 +29,8 @@ const job = {
 export function pairedInto(K: MomentKernel, out: Float64Array, outStart: number, positions: Float64Array, values: NumericArray,
   nc: number, stencil: Stencil, targets: Int32Array | undefined, from: number, to: number, ringSizes: Int32Array | undefined): void {
   Object.assign(job, { K, out, outStart, positions, values, nc, so: stencil.offsets, sid: stencil.ids, targets, from, ringSizes });
-  const run = nc === 3 ? K.sums3 : K.sums1;
+  const run = nc === 3 ? K.fit3 : K.fit1, t = KERNEL_LAYOUT.toleranceAt / 8;
+  K.f64[t] = PIVOT_TOLERANCE; K.f64[t + 1] = PIVOT_TOLERANCE;
   let k = from;
   while (k < to) {
     let lanes = 0;
@@ -118,7 +111,6 @@ function gather(i: number, list: Int32Array, lo: number, hi: number, lane: numbe
   const ih = 1 / Math.sqrt(h2 / used);
   if (skipOneSided && Math.hypot(mx, my, mz) / used * ih > ONE_SIDED) return SKEWED;
   F[KERNEL_LAYOUT.scaleAt / 8 + lane] = ih;
-  laneIh[lane] = ih;
   return n;
 }
 
@@ -129,36 +121,15 @@ function clearLane(lane: number, a: number, b: number): void {
 }
 
 /**
- * Assembles and factorises lane `lane`'s normal equations from the kernel's sums and, unless a one-ring turns
- * out ill-conditioned (returns false: the caller widens it), solves them and writes the site's gradient.
+ * Reads lane `lane`'s fit from the kernel: unless a one-ring turns out ill-conditioned (returns false: the caller
+ * widens it), writes the site's gradient and ring size.
  */
 function finish(lane: number): boolean {
-  const { K, nc } = job, S = K.f64, b = KERNEL_LAYOUT.sumsAt / 8 + lane;
-  const sxx = S[b]!, syy = S[b + 2]!, szz = S[b + 4]!, sxy = S[b + 6]!, sxz = S[b + 8]!, syz = S[b + 10]!;
-  const txxx = S[b + 12]!, txxy = S[b + 14]!, txxz = S[b + 16]!, txyy = S[b + 18]!, tyyy = S[b + 20]!, tyyz = S[b + 22]!;
-  const txzz = S[b + 24]!, tyzz = S[b + 26]!, tzzz = S[b + 28]!, txyz = S[b + 30]!;
-  const qxxxx = S[b + 32]!, qyyyy = S[b + 34]!, qzzzz = S[b + 36]!, qxxxy = S[b + 38]!, qxxxz = S[b + 40]!, qxyyy = S[b + 42]!;
-  const qyyyz = S[b + 44]!, qxzzz = S[b + 46]!, qyzzz = S[b + 48]!, qxxyy = S[b + 50]!, qxxzz = S[b + 52]!, qyyzz = S[b + 54]!;
-  const qxxyz = S[b + 56]!, qxyyz = S[b + 58]!, qxyzz = S[b + 60]!;
-  Mp[0] = sxx; Mp[1] = sxy; Mp[2] = sxz; Mp[3] = 0.5 * txxx; Mp[4] = 0.5 * txyy; Mp[5] = 0.5 * txzz; Mp[6] = txxy; Mp[7] = txxz; Mp[8] = txyz;
-  Mp[9] = syy; Mp[10] = syz; Mp[11] = 0.5 * txxy; Mp[12] = 0.5 * tyyy; Mp[13] = 0.5 * tyzz; Mp[14] = txyy; Mp[15] = txyz; Mp[16] = tyyz;
-  Mp[17] = szz; Mp[18] = 0.5 * txxz; Mp[19] = 0.5 * tyyz; Mp[20] = 0.5 * tzzz; Mp[21] = txyz; Mp[22] = txzz; Mp[23] = tyzz;
-  Mp[24] = 0.25 * qxxxx; Mp[25] = 0.25 * qxxyy; Mp[26] = 0.25 * qxxzz; Mp[27] = 0.5 * qxxxy; Mp[28] = 0.5 * qxxxz; Mp[29] = 0.5 * qxxyz;
-  Mp[30] = 0.25 * qyyyy; Mp[31] = 0.25 * qyyzz; Mp[32] = 0.5 * qxyyy; Mp[33] = 0.5 * qxyyz; Mp[34] = 0.5 * qyyyz;
-  Mp[35] = 0.25 * qzzzz; Mp[36] = 0.5 * qxyzz; Mp[37] = 0.5 * qxzzz; Mp[38] = 0.5 * qyzzz;
-  Mp[39] = qxxyy; Mp[40] = qxxyz; Mp[41] = qxyyz;
-  Mp[42] = qxxzz; Mp[43] = qxyzz;
-  Mp[44] = qyyzz;
-  const ok = factorNine(Mp, Lp, inv, PIVOT_TOLERANCE);
+  const { K, nc } = job, F = K.f64, r = KERNEL_LAYOUT.resultAt / 8 + lane;
+  const ok = F[r]!;
   if (laneOne[lane] && !(ok >= WIDEN_TOLERANCE)) return false;
-  const k = laneK[lane]!, w = 3 * nc, ob = job.outStart + (k - job.from) * w, ih = laneIh[lane]!, out = job.out;
-  if (job.ringSizes) job.ringSizes[k] = ok < 0 ? 0 : laneN[lane]!;
-  for (let c = 0, r = b + 62; c < nc; c++, r += 18) {
-    const o = 9 * c;
-    B[o] = S[r]!; B[o + 1] = S[r + 2]!; B[o + 2] = S[r + 4]!; B[o + 3] = 0.5 * S[r + 6]!; B[o + 4] = 0.5 * S[r + 8]!;
-    B[o + 5] = 0.5 * S[r + 10]!; B[o + 6] = S[r + 12]!; B[o + 7] = S[r + 14]!; B[o + 8] = S[r + 16]!;
-    gradientNine(Lp, inv, B, Y, o);
-    out[ob + 3 * c] = Y[o]! * ih; out[ob + 3 * c + 1] = Y[o + 1]! * ih; out[ob + 3 * c + 2] = Y[o + 2]! * ih;
-  }
+  const k = laneK[lane]!, w = 3 * nc, ob = job.outStart + (k - job.from) * w, out = job.out;
+  if (job.ringSizes) job.ringSizes[k] = laneN[lane]!;
+  for (let c = 0; c < w; c++) out[ob + c] = F[r + 2 + 2 * c]!;
   return true;
 }
