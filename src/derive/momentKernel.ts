@@ -17,6 +17,8 @@ export interface MomentKernel {
   /** The memory as doubles, lane-interleaved, laid out as `KERNEL_LAYOUT` says (byte offsets). */
   f64: Float64Array;
   memory: WebAssembly.Memory;
+  /** The memory's size in bytes (reading `memory.buffer` costs a call into the engine). */
+  bytes: number;
 }
 
 let kernel: MomentKernel | null | undefined;
@@ -39,7 +41,7 @@ function instantiate(): MomentKernel | null {
     if (!WebAssembly.validate(bytes)) return null;
     const e = new WebAssembly.Instance(new WebAssembly.Module(bytes)).exports as unknown as
       { memory: WebAssembly.Memory; fit1(n: number): void; fit3(n: number): void };
-    return { fit1: e.fit1, fit3: e.fit3, memory: e.memory, f64: new Float64Array(e.memory.buffer) };
+    return { fit1: e.fit1, fit3: e.fit3, memory: e.memory, f64: new Float64Array(e.memory.buffer), bytes: e.memory.buffer.byteLength };
   } catch {
     return null;
   }
@@ -61,9 +63,10 @@ export function useMomentKernel(on: boolean): boolean {
 /** Makes room for `n` neighbour slots of `nc` components; returns the double index of slot 0. */
 export function kernelSlots(k: MomentKernel, n: number, nc: number): number {
   const need = KERNEL_LAYOUT.slotsAt + n * 16 * (3 + nc);
-  if (k.memory.buffer.byteLength < need) {
-    k.memory.grow(Math.ceil((need - k.memory.buffer.byteLength) / 65536));
+  if (k.bytes < need) {
+    k.memory.grow(Math.ceil((need - k.bytes) / 65536));
     k.f64 = new Float64Array(k.memory.buffer);
+    k.bytes = k.memory.buffer.byteLength;
   }
   return KERNEL_LAYOUT.slotsAt / 8;
 }
