@@ -402,16 +402,19 @@ export function createComputeApi(): ComputeApi {
       seriesRun?.abort();
       const controller = new AbortController();
       seriesRun = controller;
-      let last = 0;
+      let last = 0, delivered: unknown;
       try {
         const table = await s.history(checked, {
           ...(window?.from !== undefined ? { from: window.from } : {}), ...(window?.to !== undefined ? { to: window.to } : {}),
           signal: controller.signal,
           onStep: (done, total, time) => {
             const now = performance.now();
-            if (done === total || now - last >= PROGRESS_INTERVAL_MS) { last = now; onProgress?.({ done, total, time }); }
+            if (done === total || now - last >= PROGRESS_INTERVAL_MS) { last = now; delivered = onProgress?.({ done, total, time }); }
           },
         });
+        // the callback is a proxy with a port of its own, unordered with the reply's: wait until its last call
+        // has run, so the caller sees the final progress before the table (a failing callback stays ignored)
+        await Promise.resolve(delivered).catch(() => undefined);
         return Comlink.transfer(table, [table.time.buffer as ArrayBuffer, ...table.columns.map((c) => c.values.buffer as ArrayBuffer)]);
       } finally {
         if (seriesRun === controller) seriesRun = undefined;

@@ -65,6 +65,18 @@ describe('series calls of the compute worker', () => {
     expect(Array.from(w.time)).toEqual([0.15, 0.3, 0.5, 0.8]);
   });
 
+  it('delivers the last progress before the table, however long the caller takes over it', async () => {
+    // the progress callback's port is not ordered with the reply's: the worker waits for the last call
+    await api.openSeries(chosen(PVD_DIR, 'vortex-cell'));
+    const seen: number[] = [];
+    const table = api.evaluateSeries(SET, undefined, Comlink.proxy(async (p: SeriesProgress) => {
+      await new Promise((r) => setTimeout(r, 50));
+      seen.push(p.done);
+    }));
+    await table;
+    expect(seen.at(-1)).toBe(8);
+  });
+
   it('opens numbered files with their TimeValue, and cancels an evaluation', async () => {
     const d = await api.openSeries(chosen(NUM_DIR, 'run'));
     expect(d.timeSource).toBe('field-data');
