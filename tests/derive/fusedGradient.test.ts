@@ -8,6 +8,7 @@
 import { describe, expect, it } from 'vitest';
 import { quadraticGradient } from '../../src/derive/quadraticGradient.ts';
 import { pointStencil } from '../../src/derive/stencils.ts';
+import { smoothFields } from './smoothFields.ts';
 import { boxMesh, type BoxKind } from '../cut/meshes.ts';
 
 /** `values` (nc per node) with a zero component appended to each node. */
@@ -28,13 +29,8 @@ describe('one-pass fit equals the two-pass fit bit for bit', () => {
   for (const kind of ['tet', 'hex', 'wedge', 'pyramid', 'polyhedron'] as BoxKind[]) {
     it(`${kind}: 3-component and 1-component fields`, () => {
       const p = boxMesh(kind, 5, 4, 4, 0.3);
-      const np = p.points.length / 3, st = pointStencil(p);
-      const u = new Float64Array(3 * np), s = new Float64Array(np);
-      for (let i = 0; i < np; i++) {
-        const x = p.points[3 * i]!, y = p.points[3 * i + 1]!, z = p.points[3 * i + 2]!;
-        u[3 * i] = Math.sin(3 * y) * z; u[3 * i + 1] = Math.cos(2 * x) + y * y; u[3 * i + 2] = x * y * z;
-        s[i] = Math.exp(x) * y + z * z * z;
-      }
+      const st = pointStencil(p);
+      const { u, s } = smoothFields(p);
       const g3 = quadraticGradient(p.points, u, 3, st), g4 = quadraticGradient(p.points, padded(u, 3), 4, st);
       const g1 = quadraticGradient(p.points, s, 1, st), g2 = quadraticGradient(p.points, padded(s, 1), 2, st);
       expect(g3.some((v) => v !== 0 && Number.isFinite(v))).toBe(true);

@@ -12,6 +12,7 @@ import { gradientInto, quadraticGradient } from '../../src/derive/quadraticGradi
 import { momentKernel, useMomentKernel } from '../../src/derive/momentKernel.ts';
 import { pointStencil, type Stencil } from '../../src/derive/stencils.ts';
 import { pointStencilAround } from '../../src/derive/localStencil.ts';
+import { smoothFields } from './smoothFields.ts';
 import { boxMesh, rng, type BoxKind } from '../cut/meshes.ts';
 
 afterEach(() => { useMomentKernel(true); });
@@ -45,12 +46,7 @@ describe('WebAssembly moment kernel', () => {
     it(`${kind}: every node, 3 and 1 components, bit for bit`, () => {
       const p = boxMesh(kind, 5, 4, 4, 0.3);
       const np = p.points.length / 3, st = pointStencil(p);
-      const u = new Float64Array(3 * np), s = new Float64Array(np);
-      for (let i = 0; i < np; i++) {
-        const x = p.points[3 * i]!, y = p.points[3 * i + 1]!, z = p.points[3 * i + 2]!;
-        u[3 * i] = Math.sin(3 * y) * z; u[3 * i + 1] = Math.cos(2 * x) + y * y; u[3 * i + 2] = x * y * z;
-        s[i] = Math.exp(x) * y + z * z * z;
-      }
+      const { u, s } = smoothFields(p);
       for (const [values, nc] of [[u, 3], [s, 1]] as const) {
         const { wasm, js } = both(p.points, values, nc, st);
         expect(js.out.some((v) => v !== 0 && Number.isFinite(v))).toBe(true);
