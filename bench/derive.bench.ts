@@ -3,7 +3,9 @@
  *  - vorticity and Q-criterion on 1M hexahedra (100³ lattice, 1,030,301 nodes) with a smooth point velocity:
  *    the quadratic least-squares gradient at every node, then ω and Q. Goal 0.5 s. Three figures: `cold`
  *    (first field on a new mesh: neighbour rows built), `secondFreshMesh` (the same on another new mesh), and
- *    `newStepSameMesh` (a new velocity array on the same geometry arrays — a series step: the rows are reused).
+ *    `newStepSameMesh` (a new velocity array on the same geometry arrays — a series step: the rows are reused),
+ *    and that step again with the fit in JavaScript (`newStepSameMeshJavaScriptFit`; `kernel` says whether the
+ *    WebAssembly SIMD kernel of src/derive/momentKernel.ts ran the others).
  *  - wall quantities on a ~100k-face wall (a 224 × 224 × 1 slab of hexahedra, the bottom face's 50,176 faces
  *    plus the top's: both 0.01-thick slab faces as one group) with the second-order wall gradient. Goal 0.2 s.
  *    Figures: `cold` (first request on the mesh: rows built, direct fit), `secondRequest` and
@@ -27,6 +29,7 @@ import { facesOfGroups } from '../src/surface/surfaceGroups.ts';
 import { wallQuantities } from '../src/surface/wallQuantities.ts';
 import { openNodePool } from '../src/parallel/nodePool.ts';
 import { primeDerivedGradients, primeWallGradients } from '../src/parallel/deriveShares.ts';
+import { useMomentKernel } from '../src/derive/momentKernel.ts';
 import { loadavg } from 'node:os';
 
 interface Timing { ms: number; cpuMs: number }
@@ -70,7 +73,14 @@ export async function run(): Promise<Record<string, unknown>> {
     const second = timed(() => { withDerivedFields(d2, names); });
     const d3 = step(d2, 1.5);
     const sameMesh = timed(() => { withDerivedFields(d3, names); });
-    out.vorticityAndQOn1MHexahedra = { cells: 1_000_000, nodes: 101 ** 3, goalMs: 500, threads: 1, cold, secondFreshMesh: second, newStepSameMesh: sameMesh, loadAverage: loadAverage() };
+    // the same step with the fit in JavaScript (the WebAssembly kernel switched off)
+    const d4 = step(d2, 2), kernel = useMomentKernel(false);
+    const jsFit = timed(() => { withDerivedFields(d4, names); });
+    useMomentKernel(true);
+    out.vorticityAndQOn1MHexahedra = {
+      cells: 1_000_000, nodes: 101 ** 3, goalMs: 500, threads: 1, kernel, cold, secondFreshMesh: second, newStepSameMesh: sameMesh,
+      newStepSameMeshJavaScriptFit: jsFit, loadAverage: loadAverage(),
+    };
     for (const workers of [1, 2]) {
       const pool = await openNodePool(make(), workers);
       const c0 = process.cpuUsage(), t0 = performance.now();
