@@ -319,8 +319,19 @@ describe('a study in the app', () => {
     await page.locator('#chart-pane select.chart-field').selectOption('velocity_z');
     expect(await chart.getAttribute('data-series')).toBe('3');
     expect(await chart.getAttribute('data-y-titles')).toBe('|velocity|, velocity_z [m/s] | p [Pa]');
+    // the y titles are level page text in a row above the plot, whole (not turned along the axis and cut at its height)
+    const titles = page.locator('#chart-pane .chart-y-title');
+    expect(await titles.allInnerTexts()).toEqual(['left axis: |velocity|, velocity_z [m/s]', 'right axis: p [Pa]']);
+    const plotTop = (await chart.boundingBox())!.y;
+    for (const t of await titles.all()) {
+      const b = (await t.boundingBox())!;
+      expect(b.y + b.height).toBeLessThanOrEqual(plotTop + 1);
+      expect(await t.evaluate((e) => [getComputedStyle(e).transform, e.scrollWidth <= e.clientWidth + 1])).toEqual(['none', true]);
+    }
+    await shot('s09a-chart-y-titles');
     await page.locator('#chart-pane .chart-chip', { hasText: /^p×$/ }).locator('button').click();
     expect(await chart.getAttribute('data-y-titles')).toBe('|velocity|, velocity_z [m/s]');
+    expect(await titles.allInnerTexts()).toEqual(['|velocity|, velocity_z [m/s]', '']);
     await page.locator('#chart-pane select.chart-field').selectOption('p');
     // measured points: the Hagen–Poiseuille profile u = 2V(1 − (r/R)²) (Hagen 1839, Poiseuille 1840) with ±2 mm/s bars
     const csv = join(tmpdir(), `fieldtally-measured-${process.pid}.csv`);
