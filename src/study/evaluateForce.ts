@@ -8,6 +8,7 @@
  */
 import { datasetBounds } from '../model/bounds.ts';
 import { forceTotals, type ForceReference } from '../surface/forces.ts';
+import { refText } from '../surface/groupSelect.ts';
 import { facesOfGroups, resolveGroups } from '../surface/surfaceGroups.ts';
 import { surfaceLoads, type LoadOptions } from '../surface/surfaceLoads.ts';
 import type { SurfaceGroups } from '../surface/surfaceGroups.ts';
@@ -37,7 +38,7 @@ function selectionQuality(groups: SurfaceGroups, faces: Parameters<typeof surfac
 export function evaluateForce(ctx: EvalContext, p: ForceProbe, out: ProbeOutcome): void {
   const o = p.options ?? {}, f = p.fields ?? {};
   const ref = o.reference ? resolveReference(ctx.reference, o.reference) : ctx.reference;
-  out.definition = `force on the surfaces ${p.geometry.surfaces.join(' + ')}`;
+  out.definition = `force on the surfaces ${p.geometry.surfaces.map(refText).join(' + ')}`;
   const { faces, groups } = ctx.surfaces(o);
   const picked = resolveGroups(groups, p.geometry.surfaces, faces);
   const selection = facesOfGroups(groups, picked);

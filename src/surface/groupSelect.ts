@@ -40,6 +40,11 @@ export function describeSelector(s: GroupSelector): string {
   return parts.length ? parts.join(', ') : 'any group';
 }
 
+/** A group reference in words: an id or name as written, a selector described (`within x … , area …`). */
+export function refText(r: GroupRef): string {
+  return typeof r === 'object' ? `(${describeSelector(r)})` : String(r);
+}
+
 /** Relative slack on box and area limits, so a group lying exactly on the box or at the limit area is in. */
 const SLACK = 1e-9;
 

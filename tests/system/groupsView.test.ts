@@ -8,6 +8,8 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import type { Page } from 'playwright-core';
 import { describe, expect, it } from 'vitest';
+import { datasetOf, hexGrid, pointFieldFrom, withFields } from '../../src/model/meshBuild.ts';
+import { writeVtu } from '../../src/io/writeVtu.ts';
 import { REPO, waitIdle } from './browser.ts';
 import { SCREENSHOTS, openAppForTests, pageTools } from './appPage.ts';
 import { readPng } from './png.ts';
@@ -178,5 +180,19 @@ describe('groups and view hygiene in the app', () => {
     await openFile(join(REPO, 'sample-fields/pipe-fine.vtu'), 'pipe-fine.vtu');
     await page.waitForSelector('[data-pin="force-1"] [data-quantity="CD"]');
     expect(await chosen()).toBe('part 2 (within x -1 … 1, y -1 … 1, z 0.09 … 0.11)');
+  });
+
+  it('face outlines start off for a boundary of over 200 000 faces, and on again for a small one', async () => {
+    // a 320 × 320 × 1 slab of hexahedra: 2·320² + 4·320 = 206 080 boundary faces (a pipe of a thousand faces keeps them on)
+    const slab = hexGrid(320, 320, 1, (u, v, w) => [u, v, 0.002 * w]);
+    const path = join(tmpdir(), `fieldtally-slab-${process.pid}.vtu`);
+    writeFileSync(path, writeVtu(datasetOf([withFields(slab, [pointFieldFrom(slab, 'p', 1, (x, y, _z, o) => { o[0] = x * y; })])])));
+    await openFile(path, `fieldtally-slab-${process.pid}.vtu`);
+    const outlines = () => control('face outlines').locator('input').isChecked();
+    expect(await page.locator('#file-summary').innerText()).toMatch(/102,400 cells/);
+    expect(await outlines()).toBe(false);
+    await shot('g10-outlines-off-large');
+    await openFile(PIPE, 'pipe-medium.vtu');
+    expect(await outlines()).toBe(true);
   });
 });

@@ -363,6 +363,10 @@ describe('a study in the app', () => {
     expect(names).toEqual(expect.arrayContaining(['line-1-samples.csv', 'line-1-velocity.svg', 'line-1-p.svg']));
     const file = (n: string) => new TextDecoder().decode(Object.entries(zip).find(([k]) => k.endsWith(`/${n}`))![1]);
     expect(file('line-1-samples.csv').split('\n')[2]).toBe('s [m],x [m],y [m],z [m],valid,velocity_x [m/s],velocity_y [m/s],velocity_z [m/s],p [Pa]');
+    // every number in its shortest round-trip form: reading it back gives the same double, and no shorter text does (0.05, not 0.050000000000000003)
+    const cells = file('line-1-samples.csv').split('\n').slice(3).flatMap((l) => l.split(',')).filter((c) => c !== '' && Number.isFinite(Number(c)));
+    expect(cells.length).toBeGreaterThan(1000);
+    for (const c of cells) expect(String(Number(c))).toBe(c);
     const svg = file('line-1-velocity.svg');
     expect(svg).toContain('>arc length s [m]</text>');
     expect(svg).toContain('>|velocity|, velocity_x, velocity_y, velocity_z [m/s]</text>');
