@@ -191,17 +191,16 @@ export class LineChart {
   }
 
   private renderChips(): void {
-    this.chips.replaceChildren(...this.shown.map((label, i) => {
+    // one series needs no key: the y title above the plot names it (the row is left to the plot)
+    this.chips.replaceChildren(...(this.shown.length > 1 ? this.shown : []).map((label, i) => {
       const c = el('span', 'chart-chip');
       c.style.borderColor = PALETTE[i % PALETTE.length]!;
       c.append(label);
-      if (this.shown.length > 1) {
-        const x = el('button', undefined, '×');
-        x.type = 'button';
-        x.title = `take ${label} off the chart`;
-        x.onclick = () => { this.shown = this.shown.filter((l) => l !== label); this.draw(); };
-        c.append(x);
-      }
+      const x = el('button', undefined, '×');
+      x.type = 'button';
+      x.title = `take ${label} off the chart`;
+      x.onclick = () => { this.shown = this.shown.filter((l) => l !== label); this.draw(); };
+      c.append(x);
       return c;
     }));
     const m = this.measuredPoints;

@@ -305,6 +305,9 @@ describe('a study in the app', () => {
     // a 2 mm line: its arc length reads 0 … 2 with ×10⁻³ m once in the title, not 0, 0, 0.001, 0.001, 0.002
     for (const [k, v] of [['start x [m]', 0], ['start y [m]', 0], ['start z [m]', 0.07], ['end x [m]', 0.002], ['end y [m]', 0], ['end z [m]', 0.07]] as const) await setNumber(k, v, 'Line probe');
     expect(await chart.getAttribute('data-x-title')).toBe('arc length s [×10⁻³ m]');
+    // one series: its y title names it, no key row takes room from the plot
+    expect(await page.locator('#chart-pane .chart-chip').count()).toBe(0);
+    expect(await page.locator('#chart-pane .chart-y-title.left').innerText()).toMatch(/^\|velocity\| \[(×10[⁻⁰¹²³⁴⁵⁶⁷⁸⁹]+ )?m\/s\]$/);
     // across the diameter, plotted against r/R from the axis (R = 10 mm)
     await setNumber('start x [m]', -0.0099, 'Line probe');
     await setNumber('end x [m]', 0.0099, 'Line probe');
