@@ -149,8 +149,11 @@ let warmUpTimer: ReturnType<typeof setTimeout> | undefined;
  * cut kernels' compiled code (once per worker) and the dataset's cell tree (once per mesh; `crossingCells.ts`
  * uses it for cuts once built, `lineProbe.ts` always). With share workers, they hold their own.
  */
-async function warmUp(h: Held | undefined): Promise<void> {
+async function warmUp(h: Held | undefined, superseded: () => boolean): Promise<void> {
   await warmUpCutKernels();
+  // a file chosen meanwhile is read first: this dataset's tree would only delay it
+  await yieldToMessages();
+  if (superseded()) return;
   if (h && !h.pool && h.boundary && !hasCellTree(h.dataset)) getCellTree(h.dataset);
 }
 
@@ -272,7 +275,7 @@ export function createComputeApi(): ComputeApi {
       const v: SurfaceValuesReply = { ...faceValues(h.dataset, facesOf(h), field), timing: { startedAt, finishedAt: 0 } };
       // the picture is about to show: ready the first cut and probe while the user looks at it
       clearTimeout(warmUpTimer);
-      warmUpTimer = setTimeout(() => void warmUp(held).catch((e: unknown) => console.warn('fieldtally: warm-up failed (cuts and probes stay correct, the first is slower)', e)), WARM_UP_DELAY_MS);
+      warmUpTimer = setTimeout(() => { const now = held; void warmUp(now, () => held !== now || loading !== undefined).catch((e: unknown) => console.warn('fieldtally: warm-up failed (cuts and probes stay correct, the first is slower)', e)); }, WARM_UP_DELAY_MS);
       v.timing!.finishedAt = epochNow();
       return Comlink.transfer(v, [v.values.buffer]);
     },

@@ -4,13 +4,17 @@
  * the study layer's force evaluator in the worker (the command line's path, so the numbers are the
  * `force` verb's). The viscous part is an explicit choice — the file's wall-shear array, the velocity
  * gradient with μ of the reference conditions, or none — and the pin says which; the lift direction is
- * the reference conditions' (set, or derived by the stated rule, which the result then states).
+ * the reference conditions' (set, or derived by the stated rule, which the result then states). Surfaces
+ * can also be chosen by what they are (name, a box holding them, an area range: `groupChoice.ts`); the probe
+ * set then keeps that selector rather than the groups' names or ids.
  */
 import { SHEAR_NAME } from '../surface/surfaceLoads.ts';
 import type GUI from 'lil-gui';
 import type * as THREE from 'three';
 import { PROBE_SET_FORMAT, PROBE_SET_VERSION, type ForceProbe, type Probe, type ReferenceDoc, type SurfaceRef } from '../study/probeSet.ts';
 import type { ResultNote } from '../ui/notes.ts';
+import { describeSelector, type GroupSelector } from '../surface/groupSelect.ts';
+import { EMPTY_CHOICE, groupsChosen, selectorFromText } from './groupChoice.ts';
 import { latestWins } from './latestWins.ts';
 import { outcomeResult } from './outcomeResult.ts';
 import type { ReferenceTool } from './referenceTool.ts';
@@ -38,6 +42,8 @@ export class ForceTool {
   private id = ID;
   private label = 'Force total';
   private readonly viscous = { method: 'none' as ViscousChoice };
+  /** The "by what they are" fields. */
+  private readonly choice = { ...EMPTY_CHOICE };
   /** Reference values this force total overrides (from a loaded probe set's `options.reference`). */
   private override: ReferenceDoc | undefined;
   /** The surfaces as a loaded set named them, written back while the selection is still theirs. */
@@ -122,12 +128,16 @@ export class ForceTool {
     return this.resolve(p.geometry.surfaces) !== undefined;
   }
 
-  /** Group ids of references by name or id; undefined when one is unknown or a selector (the worker evaluates those). */
+  /** Group ids of references by name, id or selector; undefined when one is unknown, matches nothing or needs the faces (`nearest`: the worker evaluates those). */
   private resolve(refs: readonly SurfaceRef[]): number[] | undefined {
     const groups = this.v.description?.groups ?? [];
     const out: number[] = [];
     for (const r of refs) {
-      if (typeof r === 'object') return undefined;
+      if (typeof r === 'object') {
+        if ((r as GroupSelector).nearest) return undefined;
+        try { out.push(...groupsChosen(groups, r as GroupSelector)); } catch { return undefined; }
+        continue;
+      }
       const byName = groups.filter((g) => g.name === String(r));
       const g = byName.length === 1 ? byName[0] : byName.length === 0 && /^-?\d+$/.test(String(r)) ? groups.find((x) => x.fileId === Number(r)) : undefined;
       if (!g) return undefined;
@@ -169,6 +179,23 @@ export class ForceTool {
     this.request.request(p);
   }
 
+  /** Chooses the surfaces the "by what they are" fields describe (replacing the chosen ones); the set keeps the selector. */
+  chooseByTraits(): void {
+    let selector: GroupSelector, ids: number[];
+    try {
+      selector = selectorFromText(this.choice);
+      ids = groupsChosen(this.v.description?.groups ?? [], selector);
+    } catch (e) {
+      this.v.banner.error(`Force total: ${(e as Error).message}`);
+      return;
+    }
+    const { id, label, override } = this;
+    this.clear();
+    this.id = id; this.label = label; this.override = override;
+    this.loadedRefs = { refs: [selector], groups: ids.join(',') };
+    for (const g of ids) this.toggle(g);
+  }
+
   private click(ray: THREE.Raycaster): boolean {
     const hit = this.v.surface?.pick(ray);
     if (!hit) return false;
@@ -178,12 +205,16 @@ export class ForceTool {
 
   private updateChosen(): void {
     const names = (this.v.description?.groups ?? []).filter((g) => this.selected.has(g.id)).map((g) => this.v.groupLabel(g));
-    this.chosenText.surfaces = names.length ? names.join(', ') : '(click surfaces in the view)';
+    // surfaces chosen by what they are say so: the set keeps that, not these names
+    const selectors = this.loadedRefs && this.loadedRefs.groups === [...this.selected].sort((a, b) => a - b).join(',')
+      ? this.loadedRefs.refs.filter((r): r is GroupSelector => typeof r === 'object') : [];
+    this.chosenText.surfaces = names.length ? names.join(', ') + selectors.map((r) => ` (${describeSelector(r)})`).join('') : '(click surfaces in the view)';
     this.chosen?.updateDisplay();
   }
 
   private buildPanel(): void {
     for (const c of [...this.folder.controllers]) c.destroy();
+    for (const f of [...this.folder.folders]) f.destroy();
     this.folder.domElement.querySelectorAll('.panel-note').forEach((n) => n.remove());
     this.chosen = this.folder.add(this.chosenText, 'surfaces').name('surfaces').disable();
     const groups = this.v.description?.groups ?? [];
@@ -199,6 +230,12 @@ export class ForceTool {
     methods['velocity gradient with μ (reference)'] = 'gradient';
     methods['none (pressure force only)'] = 'none';
     this.folder.add(this.viscous, 'method', methods).name('viscous part').onChange(() => this.recompute());
+    const by = this.folder.addFolder('choose surfaces by what they are').close();
+    by.add(this.choice, 'name').name('name is');
+    by.add(this.choice, 'box').name('inside box [m]').domElement.title = 'xmin, xmax, ymin, ymax, zmin, zmax: surfaces lying wholly inside';
+    by.add(this.choice, 'areaFrom').name('area from [m²]');
+    by.add(this.choice, 'areaTo').name('area to [m²]');
+    by.add({ choose: () => this.chooseByTraits() }, 'choose').name('choose matching surfaces');
     const note = document.createElement('div');
     note.className = 'panel-note';
     note.textContent = 'ρ, U, A, L, μ, p_ref, drag and lift directions and the moment point come from Reference conditions.';

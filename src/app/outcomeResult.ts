@@ -36,7 +36,7 @@ export function outcomeResult(o: ProbeOutcome, fallbackAnchor: [number, number, 
   const notes = [...(o.ok ? [] : [`FAILED: ${o.error}`]), ...o.notes];
   const order = opts.pinned ? (k: string) => { const i = opts.pinned!.indexOf(k); return i < 0 ? opts.pinned!.length : i; } : () => 0;
   const quantities = o.quantities
-    .map((q) => ({ key: q.key, label: opts.labels?.[q.key] ?? q.label, value: q.value, unit: unitLabel(q.unit), pinned: pinned.has(q.key) }))
+    .map((q) => ({ key: q.key, label: opts.labels?.[q.key] ?? q.label, value: q.value, unit: unitLabel(q.unit), pinned: pinned.has(q.key), ...(o.scales?.[q.key] ? { scale: { ...o.scales[q.key]! } } : {}) }))
     // pinned ones in the asked order, the rest as the evaluator gave them (a stable sort)
     .sort((a, b) => (a.pinned && b.pinned ? order(a.key) - order(b.key) : 0));
   return {

@@ -8,6 +8,7 @@
  */
 import { datasetBounds } from '../model/bounds.ts';
 import { forceTotals, type ForceReference } from '../surface/forces.ts';
+import { refText } from '../surface/groupSelect.ts';
 import { facesOfGroups, resolveGroups } from '../surface/surfaceGroups.ts';
 import { surfaceLoads, type LoadOptions } from '../surface/surfaceLoads.ts';
 import type { SurfaceGroups } from '../surface/surfaceGroups.ts';
@@ -37,7 +38,7 @@ function selectionQuality(groups: SurfaceGroups, faces: Parameters<typeof surfac
 export function evaluateForce(ctx: EvalContext, p: ForceProbe, out: ProbeOutcome): void {
   const o = p.options ?? {}, f = p.fields ?? {};
   const ref = o.reference ? resolveReference(ctx.reference, o.reference) : ctx.reference;
-  out.definition = `force on the surfaces ${p.geometry.surfaces.join(' + ')}`;
+  out.definition = `force on the surfaces ${p.geometry.surfaces.map(refText).join(' + ')}`;
   const { faces, groups } = ctx.surfaces(o);
   const picked = resolveGroups(groups, p.geometry.surfaces, faces);
   const selection = facesOfGroups(groups, picked);
@@ -87,9 +88,21 @@ export function evaluateForce(ctx: EvalContext, p: ForceProbe, out: ProbeOutcome
     addQuantity(out, 'CM.lift', 'C_M about lift axis', c.moment.aboutLift, SI.dimensionless);
   }
   addQuantity(out, 'wettedArea', 'wetted area', r.area, SI.area);
+  grossScales(out, r.grossForce, c ? c.dynamicPressure * c.reference.area : undefined);
   if (derived) out.notes.push(derived.text);
   if (!reference) out.notes.push('coefficients need the reference density, speed and area (reference.density or a preset, reference.speed, reference.area)');
   out.notes.push(...r.notes.filter((n) => !/^coefficients not computed/.test(n)));
   const open = openSurfaceNote(selectionQuality(groups, faces, picked, selection));
   if (open) out.notes.push(open);
+}
+
+/** Gives the force components the size Σ|dF| (N) and the coefficients Σ|dF|/(q·A), as rounding-noise scales. */
+function grossScales(out: ProbeOutcome, gross: number, qa: number | undefined): void {
+  if (!(gross > 0)) return;
+  const scales: NonNullable<ProbeOutcome['scales']> = {};
+  for (const q of out.quantities) {
+    if (q.key.startsWith('force.') || q.key.endsWith('Force.drag')) scales[q.key] = { value: gross, label: 'Σ|dF|' };
+    else if (qa !== undefined && /^(CD|CL$|CS$)/.test(q.key)) scales[q.key] = { value: gross / qa, label: 'Σ|dF|/(q·A)' };
+  }
+  out.scales = scales;
 }

@@ -19,6 +19,7 @@ import type { PlaneResult } from '../cut/planeIntegrals.ts';
 import type { RegionSpec } from '../cut/region.ts';
 import type { TriangleSet } from '../cut/triangleSet.ts';
 import { findField } from '../model/piece.ts';
+import { refText } from '../surface/groupSelect.ts';
 import { facesOfGroups, resolveGroups } from '../surface/surfaceGroups.ts';
 import { addQuantity, fail, fmt6, vecText, type EvalContext, type ProbeOutcome } from './outcome.ts';
 import type { CutPlaneProbe, FlowFields, FlowOptions, MassBalanceProbe, PlaneDoc, PressureLossProbe } from './probeSet.ts';
@@ -154,7 +155,7 @@ export function evaluateLoss(ctx: EvalContext, p: PressureLossProbe, out: ProbeO
 export function evaluateBalance(ctx: EvalContext, p: MassBalanceProbe, out: ProbeOutcome): void {
   const g = p.geometry;
   const integral = flowIntegralOptions(ctx, p.fields, undefined);
-  out.definition = `mass balance over ${g.planes.length} plane(s)${g.surfaces?.length ? ` and the surfaces ${g.surfaces.join(', ')}` : ''} (normals out of the control volume)`;
+  out.definition = `mass balance over ${g.planes.length} plane(s)${g.surfaces?.length ? ` and the surfaces ${g.surfaces.map(refText).join(', ')}` : ''} (normals out of the control volume)`;
   const items: BalanceItem[] = [];
   const shapes: TriangleSet[] = [];
   let cx = 0, cy = 0, cz = 0, n = 0;

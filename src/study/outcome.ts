@@ -42,6 +42,12 @@ export interface ProbeOutcome {
   definition: string;
   /** Only with `keepShapes`. */
   shapes?: ProbeShape[];
+  /**
+   * Sizes some quantities are made of, by quantity key (same unit as the quantity; `label` names it): a value
+   * at most 10⁻⁹ of its size is rounding noise (the app marks it "≈ 0"). A force total's components and
+   * coefficients carry Σ|dF|, so a force made only of cancelling parts is marked as such.
+   */
+  scales?: Record<string, { value: number; label: string }>;
 }
 
 /** Reference values with the preset applied (SI). */

@@ -4,9 +4,10 @@
  * (surface groups read them separately).
  *
  * Matching: every face of every 3D cell is keyed by its sorted node ids in the merged point numbering
- * (`pointMerge.ts`: faces between pieces meet through global ids or coordinates) and toggled in a typed-array
- * hash table (`faceTable.ts`): a face met a second time is interior and leaves the table. A face shared by
- * three or more cells (an invalid mesh) is therefore decided by parity.
+ * (`pointMerge.ts`: faces between pieces meet through global ids or coordinates; keys as `faceKey` in
+ * `faceTable.ts`) and toggled in lists under each face's smallest node (`faceLists.ts`): a face met a second
+ * time is interior and leaves its list. A face shared by three or more cells (an invalid mesh) is therefore
+ * decided by parity.
  *
  * Orientation: faces come from the cell-type face tables, outward for cells with the standard VTK
  * orientation, and polyhedron faces in stream order. Each boundary face is then checked against its owning
@@ -26,8 +27,8 @@ import { CellType, FACE_TABLE } from '../model/cellTypes.ts';
 import { cellStarts, pieceOfCell, type Dataset } from '../model/dataset.ts';
 import { cellCount } from '../model/piece.ts';
 import { faceAreaCentroid, vertexAverage } from './faceGeometry.ts';
-import { FaceTable, faceKey } from './faceTable.ts';
-import { lastCellOfPoints, retireFinal, RetiredFaces } from './faceRetire.ts';
+import { FaceLists } from './faceLists.ts';
+import { faceKey } from './faceTable.ts';
 import { mergePiecePoints, type MergeOptions, type PointMerge } from './pointMerge.ts';
 
 export interface BoundaryFaces {
@@ -55,12 +56,8 @@ export interface BoundaryFaces {
   readonly cells3d: number;
 }
 
-/**
- * Options of `boundaryFaces`: how points of different pieces are matched (see `pointMerge.ts`), and how many
- * faces the table holds before the final ones retire from it (`faceRetire.ts`; default 65536; only the speed
- * depends on it).
- */
-export type BoundaryOptions = Partial<MergeOptions> & { retireAbove?: number };
+/** Options of `boundaryFaces`: how points of different pieces are matched (see `pointMerge.ts`). */
+export type BoundaryOptions = Partial<MergeOptions>;
 
 /** Largest number of faces a cell may have in the (cell, face) sort key `cell × FACE_SLOTS + face`. */
 export const FACE_SLOTS = 65536;
@@ -69,13 +66,8 @@ export const FACE_SLOTS = 65536;
 export function boundaryFaces(d: Dataset, options: BoundaryOptions = {}): BoundaryFaces {
   const merge = mergePiecePoints(d, options);
   const starts = cellStarts(d);
-  // The table only holds the unmatched front (about the boundary, ~4 n^(2/3) faces); it doubles when needed,
-  // and faces that no later cell can meet leave it for `retired` when it has grown (faceRetire.ts).
-  let table = new FaceTable(Math.max(1024, Math.ceil(4 * Math.cbrt(starts[starts.length - 1]!) ** 2)));
-  const lastUse = lastCellOfPoints(d, merge, starts);
-  const retired = new RetiredFaces();
-  const retireMin = options.retireAbove ?? RETIRE_MIN;
-  let retireAt = Math.max(retireMin, 2 * table.live);
+  // Entries in use: the unmatched front and the boundary found so far (~4 n^(2/3) faces each); they double when needed.
+  const table = new FaceLists(merge.starts[merge.starts.length - 1]!, Math.ceil(8 * Math.cbrt(starts[starts.length - 1]!) ** 2));
   const key = new Int32Array(4);
   const fStart = FACE_TABLE.start, fSize = FACE_TABLE.size, fFirst = FACE_TABLE.first, fNodes = FACE_TABLE.nodes;
   const map = merge.map;
@@ -87,10 +79,6 @@ export function boundaryFaces(d: Dataset, options: BoundaryOptions = {}): Bounda
     const s0 = merge.starts[k]!, g0 = starts[k]!, n = cellCount(p);
     const pf = p.polyFaces;
     for (let c = 0; c < n; c++) {
-      if (table.live > retireAt) {
-        table = retireFinal(table, lastUse, g0 + c, FACE_SLOTS, retired);
-        retireAt = Math.max(retireMin, 2 * table.live);
-      }
       const t = types[c]!;
       if (t < TETRA || t > LAST_FIXED) {
         if (t === POLYHEDRON && pf) {
@@ -134,11 +122,8 @@ export function boundaryFaces(d: Dataset, options: BoundaryOptions = {}): Bounda
       }
     }
   }
-  return assemble(d, table, retired, merge, starts, cells3d);
+  return assemble(d, table, merge, starts, cells3d);
 }
-
-/** Faces in the table before retiring final ones is worth a pass over it. */
-const RETIRE_MIN = 1 << 16;
 
 let gatherBuf = new Int32Array(64);
 
@@ -149,16 +134,11 @@ function faceKeyFixed(conn: Int32Array, o: number, fNodes: Int32Array, q: number
   faceKey(gatherBuf, 0, m, map, s0, out);
 }
 
-/** Collects the faces left in the table, orders them by (cell, face), and computes nodes and geometry. */
-function assemble(d: Dataset, table: FaceTable, retired: RetiredFaces, merge: PointMerge, starts: Int32Array, cells3d: number): BoundaryFaces {
-  const count = table.live + retired.count;
+/** Collects the faces left in the lists, orders them by (cell, face), and computes nodes and geometry. */
+function assemble(d: Dataset, table: FaceLists, merge: PointMerge, starts: Int32Array, cells3d: number): BoundaryFaces {
+  const count = table.live;
   const order = new Float64Array(count);
-  order.set(retired.keys.subarray(0, retired.count));
-  const tk = table.keys, tv = table.vals;
-  for (let s = 0, i = retired.count; s <= table.mask; s++) {
-    if (tk[4 * s] === -1) continue;
-    order[i++] = tv[2 * s]! * FACE_SLOTS + tv[2 * s + 1]!;
-  }
+  table.valueKeys(FACE_SLOTS, order, 0);
   order.sort();
   const cell = new Int32Array(count), localFace = new Int32Array(count), piece = new Int32Array(count);
   const offsets = new Int32Array(count + 1);

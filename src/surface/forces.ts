@@ -68,6 +68,12 @@ export interface ForceResult {
   momentPoint: Vec3;
   directions: { drag: Vec3; lift: Vec3; side: Vec3 };
   /** Force components along the directions (force unit). */
+  /**
+   * Σ|dF| over the faces (pressure unit × length unit²): the force's size with nothing cancelling. A net
+   * component far below it (≤ 10⁻⁹ of it) is rounding noise of the sum, e.g. any component of a closed
+   * body's force in a uniform pressure.
+   */
+  grossForce: number;
   components: { total: AxisParts; pressure: AxisParts; viscous: AxisParts | null };
   coefficients: null | {
     drag: number; lift: number; side: number;
@@ -106,17 +112,17 @@ export function forceDirections(drag: Vec3, lift: Vec3): { drag: Vec3; lift: Vec
 }
 
 /**
- * Running sums of the integration: pressure F, M (0..5), viscous F, M (6..11) and the wetted area (12), carried
- * from one chunk of faces to the next.
+ * Running sums of the integration: pressure F, M (0..5), viscous F, M (6..11), the wetted area (12) and
+ * Σ|dF| (13), carried from one chunk of faces to the next.
  */
-const acc = new Float64Array(13);
+const acc = new Float64Array(14);
 
 /** Faces per call of `integrateFaces`. */
 const CHUNK = 64;
 
 /**
  * Integrates pressure (and traction when present) over the selected faces into `acc[0..5]` (pressure F, M),
- * `acc[6..11]` (viscous F, M) and `acc[12]` (Σ|A_f|). The faces go in calls of CHUNK carrying the running
+ * `acc[6..11]` (viscous F, M), `acc[12]` (Σ|A_f|) and `acc[13]` (Σ|dF| over the fan triangles). The faces go in calls of CHUNK carrying the running
  * sums, so the engine optimises the face loop as a whole function with feedback for every line of it (a
  * single loop over every face ran its first call half unoptimised: the optimised loop was thrown away at
  * the stores after it); the additions are the same, in the same order.
@@ -132,7 +138,7 @@ function integrateFaces(d: Dataset, faces: BoundaryFaces, loads: SurfaceLoads, r
   const sel = loads.selection, off = loads.offsets, P = loads.pressure, T = loads.traction;
   const rx = ref[0], ry = ref[1], rz = ref[2];
   let fpx = acc[0]!, fpy = acc[1]!, fpz = acc[2]!, mpx = acc[3]!, mpy = acc[4]!, mpz = acc[5]!;
-  let fvx = acc[6]!, fvy = acc[7]!, fvz = acc[8]!, mvx = acc[9]!, mvy = acc[10]!, mvz = acc[11]!, wetted = acc[12]!;
+  let fvx = acc[6]!, fvy = acc[7]!, fvz = acc[8]!, mvx = acc[9]!, mvy = acc[10]!, mvz = acc[11]!, wetted = acc[12]!, gross = acc[13]!;
   const fo = faces.offsets, nodes = faces.nodes, fp = faces.piece, pieces = d.pieces, av = faces.areaVector;
   for (let k = k0; k < k1; k++) {
     const f = sel[k]!, a = fo[f]!, m = fo[f + 1]! - a, o = off[k]!;
@@ -168,6 +174,8 @@ function integrateFaces(d: Dataset, faces: BoundaryFaces, loads: SurfaceLoads, r
       const sx = 0.5 * (uy * vz - uz * vy), sy = 0.5 * (uz * vx - ux * vz), sz = 0.5 * (ux * vy - uy * vx);
       const pm = (p0 + p1 + p2) / 3;
       fpx += pm * sx; fpy += pm * sy; fpz += pm * sz;
+      const area = Math.sqrt(sx * sx + sy * sy + sz * sz);
+      gross += Math.abs(pm) * area;
       // Edge midpoints (relative to the moment point) and their pressures: exact for the quadratic x·p.
       const m0x = 0.5 * (x0 + x1) - rx, m0y = 0.5 * (y0 + y1) - ry, m0z = 0.5 * (z0 + z1) - rz, pa = 0.5 * (p0 + p1);
       const m1x = 0.5 * (x1 + x2) - rx, m1y = 0.5 * (y1 + y2) - ry, m1z = 0.5 * (z1 + z2) - rz, pb = 0.5 * (p1 + p2);
@@ -176,10 +184,11 @@ function integrateFaces(d: Dataset, faces: BoundaryFaces, loads: SurfaceLoads, r
       const wx = (m0x * pa + m1x * pb + m2x * pc) / 3, wy = (m0y * pa + m1y * pb + m2y * pc) / 3, wz = (m0z * pa + m1z * pb + m2z * pc) / 3;
       mpx += wy * sz - wz * sy; mpy += wz * sx - wx * sz; mpz += wx * sy - wy * sx;
       if (T) {
-        const area = Math.sqrt(sx * sx + sy * sy + sz * sz);
         const j1 = 3 * (o + i1), j2 = 3 * (o + i2);
         const t1x = T[j1]!, t1y = T[j1 + 1]!, t1z = T[j1 + 2]!, t2x = T[j2]!, t2y = T[j2 + 1]!, t2z = T[j2 + 2]!;
-        fvx += area * (t0x + t1x + t2x) / 3; fvy += area * (t0y + t1y + t2y) / 3; fvz += area * (t0z + t1z + t2z) / 3;
+        const tx = t0x + t1x + t2x, ty = t0y + t1y + t2y, tz = t0z + t1z + t2z;
+        fvx += area * tx / 3; fvy += area * ty / 3; fvz += area * tz / 3;
+        gross += area * Math.sqrt(tx * tx + ty * ty + tz * tz) / 3;
         // Moment of the traction: Σ over midpoints of m_i × t_i, times area / 3.
         const ax = 0.5 * (t0x + t1x), ay = 0.5 * (t0y + t1y), az = 0.5 * (t0z + t1z);
         const bx = 0.5 * (t1x + t2x), by = 0.5 * (t1y + t2y), bz = 0.5 * (t1z + t2z);
@@ -192,7 +201,7 @@ function integrateFaces(d: Dataset, faces: BoundaryFaces, loads: SurfaceLoads, r
     }
   }
   acc[0] = fpx; acc[1] = fpy; acc[2] = fpz; acc[3] = mpx; acc[4] = mpy; acc[5] = mpz;
-  acc[6] = fvx; acc[7] = fvy; acc[8] = fvz; acc[9] = mvx; acc[10] = mvy; acc[11] = mvz; acc[12] = wetted;
+  acc[6] = fvx; acc[7] = fvy; acc[8] = fvz; acc[9] = mvx; acc[10] = mvy; acc[11] = mvz; acc[12] = wetted; acc[13] = gross;
 }
 
 const along = (v: Vec3, dirs: { drag: Vec3; lift: Vec3; side: Vec3 }): AxisParts => ({ drag: dot(v, dirs.drag), lift: dot(v, dirs.lift), side: dot(v, dirs.side) });
@@ -241,7 +250,7 @@ export function forceTotals(d: Dataset, faces: BoundaryFaces, loads: SurfaceLoad
   return {
     faces: loads.selection.length, area, pressureForce: Fp, viscousForce: Fv, force: F, pressureMoment: Mp, viscousMoment: Mv,
     moment: M, momentPoint: [...o.momentPoint], directions: { drag: dirs.drag, lift: dirs.lift, side: dirs.side },
-    components, coefficients, centreOfPressure, pressureArray: loads.pressureArray, viscous: loads.viscous,
+    grossForce: acc[13]!, components, coefficients, centreOfPressure, pressureArray: loads.pressureArray, viscous: loads.viscous,
     signConvention: SIGN_CONVENTION, units: UNITS_NOTE, notes,
   };
 }

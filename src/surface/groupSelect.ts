@@ -40,25 +40,53 @@ export function describeSelector(s: GroupSelector): string {
   return parts.length ? parts.join(', ') : 'any group';
 }
 
+/** A group reference in words: an id or name as written, a selector described (`within x … , area …`). */
+export function refText(r: GroupRef): string {
+  return typeof r === 'object' ? `(${describeSelector(r)})` : String(r);
+}
+
 /** Relative slack on box and area limits, so a group lying exactly on the box or at the limit area is in. */
 const SLACK = 1e-9;
+
+/** What a selector reads of a group besides its faces: id, name, area (length unit²), bounds (length unit). */
+export interface GroupTraits {
+  readonly id: number;
+  readonly name: string;
+  readonly area: number;
+  readonly bounds: readonly number[];
+}
+
+/**
+ * Indices (into `list`) of the groups whose name, bounds and area meet a selector's `name`, `within`,
+ * `areaFrom` and `areaTo` (`nearest` needs the faces: see `selectGroups`). May be empty.
+ */
+export function selectByTraits(list: readonly GroupTraits[], s: GroupSelector): number[] {
+  let keep = list.map((_, i) => i);
+  if (s.name !== undefined) keep = keep.filter((i) => list[i]!.name === s.name);
+  if (s.within) {
+    const w = s.within, tol = SLACK * Math.hypot(w[1] - w[0], w[3] - w[2], w[5] - w[4]);
+    keep = keep.filter((i) => {
+      const b = list[i]!.bounds;
+      return b[0]! >= w[0] - tol && b[1]! <= w[1] + tol && b[2]! >= w[2] - tol && b[3]! <= w[3] + tol && b[4]! >= w[4] - tol && b[5]! <= w[5] + tol;
+    });
+  }
+  if (s.areaFrom !== undefined) keep = keep.filter((i) => list[i]!.area >= s.areaFrom! * (1 - SLACK));
+  if (s.areaTo !== undefined) keep = keep.filter((i) => list[i]!.area <= s.areaTo! * (1 + SLACK));
+  return keep;
+}
+
+/** The error for a selector that matched no group, naming it and the known groups. */
+export function noGroupError(list: readonly GroupTraits[], s: GroupSelector): Error {
+  const known = list.map((g) => `${g.id} "${g.name}" (area ${num(g.area)})`).join(', ');
+  return new Error(`no surface group ${describeSelector(s)} (known: ${known || 'none'})`);
+}
 
 /**
  * Indices (into `groups.groups`, ascending by id) of the groups a selector picks.
  * @throws Error naming the selector and the known groups when none matches.
  */
 export function selectGroups(groups: SurfaceGroups, faces: BoundaryFaces, s: GroupSelector): number[] {
-  let keep = groups.groups.map((_, i) => i);
-  if (s.name !== undefined) keep = keep.filter((i) => groups.groups[i]!.name === s.name);
-  if (s.within) {
-    const w = s.within, tol = SLACK * Math.hypot(w[1] - w[0], w[3] - w[2], w[5] - w[4]);
-    keep = keep.filter((i) => {
-      const b = groups.groups[i]!.bounds;
-      return b[0] >= w[0] - tol && b[1] <= w[1] + tol && b[2] >= w[2] - tol && b[3] <= w[3] + tol && b[4] >= w[4] - tol && b[5] <= w[5] + tol;
-    });
-  }
-  if (s.areaFrom !== undefined) keep = keep.filter((i) => groups.groups[i]!.area >= s.areaFrom! * (1 - SLACK));
-  if (s.areaTo !== undefined) keep = keep.filter((i) => groups.groups[i]!.area <= s.areaTo! * (1 + SLACK));
+  let keep = selectByTraits(groups.groups, s);
   if (s.nearest && keep.length > 0) {
     const want = new Uint8Array(groups.groups.length);
     for (const i of keep) want[i] = 1;
@@ -72,9 +100,6 @@ export function selectGroups(groups: SurfaceGroups, faces: BoundaryFaces, s: Gro
     }
     keep = best >= 0 ? [best] : [];
   }
-  if (keep.length === 0) {
-    const known = groups.groups.map((g) => `${g.id} "${g.name}" (area ${num(g.area)})`).join(', ');
-    throw new Error(`no surface group ${describeSelector(s)} (known: ${known || 'none'})`);
-  }
+  if (keep.length === 0) throw noGroupError(groups.groups, s);
   return keep.sort((a, b) => groups.groups[a]!.id - groups.groups[b]!.id);
 }

@@ -2,7 +2,9 @@
  * The line-probe chart (uPlot): one or more fields or components against the arc length, a coordinate or
  * r/L from a chosen point; samples outside the mesh as gaps; the baseline result's same line dashed;
  * measured points from a CSV with their ± bars (on the first series' axis); tick labels distinct at any scale (`axisTicks.ts`), the
- * unit and any shared ×10ⁿ in each axis title; at most two units at once (left and right axes). The
+ * unit and any shared ×10ⁿ in each axis title; at most two units at once (left and right axes). The y axes'
+ * titles are page text in a row above the plot (left axis at the left, right axis at the right), read
+ * level and wrapped rather than turned on their side and cut at the plot's height. The
  * pane can be enlarged to half the screen. A CSV download of every sampled column is the line tool's.
  */
 import uPlot from 'uplot';
@@ -65,6 +67,8 @@ export class LineChart {
   private readonly measuredInput: HTMLInputElement;
   private readonly message: HTMLDivElement;
   private readonly plotHost: HTMLDivElement;
+  /** The y axes' titles above the plot: left axis, right axis. */
+  private readonly yTitles: [HTMLSpanElement, HTMLSpanElement];
   readonly download: HTMLButtonElement;
   readonly enlarge: HTMLButtonElement;
 
@@ -111,7 +115,10 @@ export class LineChart {
     this.chips = el('div', 'chart-chips');
     this.message = el('div', 'chart-message');
     this.plotHost = el('div', 'chart');
-    host.append(head, this.chips, this.message, this.plotHost);
+    this.yTitles = [el('span', 'chart-y-title left'), el('span', 'chart-y-title right')];
+    const titles = el('div', 'chart-y-titles');
+    titles.append(...this.yTitles);
+    host.append(head, this.chips, this.message, titles, this.plotHost);
     addCautionLine(host);
     new ResizeObserver(() => this.resize()).observe(this.plotHost);
     this.syncX();
@@ -184,17 +191,16 @@ export class LineChart {
   }
 
   private renderChips(): void {
-    this.chips.replaceChildren(...this.shown.map((label, i) => {
+    // one series needs no key: the y title above the plot names it (the row is left to the plot)
+    this.chips.replaceChildren(...(this.shown.length > 1 ? this.shown : []).map((label, i) => {
       const c = el('span', 'chart-chip');
       c.style.borderColor = PALETTE[i % PALETTE.length]!;
       c.append(label);
-      if (this.shown.length > 1) {
-        const x = el('button', undefined, '×');
-        x.type = 'button';
-        x.title = `take ${label} off the chart`;
-        x.onclick = () => { this.shown = this.shown.filter((l) => l !== label); this.draw(); };
-        c.append(x);
-      }
+      const x = el('button', undefined, '×');
+      x.type = 'button';
+      x.title = `take ${label} off the chart`;
+      x.onclick = () => { this.shown = this.shown.filter((l) => l !== label); this.draw(); };
+      c.append(x);
       return c;
     }));
     const m = this.measuredPoints;
@@ -212,6 +218,7 @@ export class LineChart {
   private draw(): void {
     this.plot?.destroy();
     this.plot = undefined;
+    for (const t of this.yTitles) t.textContent = '';
     this.renderChips();
     const d = this.data;
     if (!d || this.shown.length === 0) return;
@@ -246,8 +253,9 @@ export class LineChart {
     if (d.baseline && !base) this.note(`The baseline's line has ${d.baseline.s.length} samples, this one ${d.s.length}: the baseline is not drawn.`);
     else if (!this.message.textContent?.startsWith('Measured') && !this.message.textContent?.startsWith('x axis')) this.note('');
     const axisFor = (unit: string, side: 0 | 1): uPlot.Axis => ({
-      scale: scaleKey(unit), side: side === 0 ? 3 : 1, label: axisTitle(yName(unit), unit, yExp[units.indexOf(unit)]!), stroke: '#374151',
-      grid: { show: side === 0, stroke: '#e5e7eb' }, size: 64, values: (_u, splits) => tickLabels(splits, yExp[units.indexOf(unit)]!),
+      // the title is the row above the plot (`yTitles`), not a label turned along the axis
+      scale: scaleKey(unit), side: side === 0 ? 3 : 1, stroke: '#374151',
+      grid: { show: side === 0, stroke: '#e5e7eb' }, size: 56, values: (_u, splits) => tickLabels(splits, yExp[units.indexOf(unit)]!),
     });
     const scales: uPlot.Scales = { x: { time: false } };
     for (const u of units) {
@@ -284,7 +292,9 @@ export class LineChart {
     // what the canvas shows, for tests and assistive reading
     this.plotHost.dataset['series'] = String(picked.length);
     this.plotHost.dataset['xTitle'] = axisTitle(xn.name, xn.unit, xExp);
-    this.plotHost.dataset['yTitles'] = units.map((u, i) => axisTitle(yName(u), u, yExp[i]!)).join(' | ');
+    const titles = units.map((u, i) => axisTitle(yName(u), u, yExp[i]!));
+    titles.forEach((t, i) => { this.yTitles[i]!.textContent = (titles.length > 1 ? ['left axis: ', 'right axis: '][i]! : '') + t; });
+    this.plotHost.dataset['yTitles'] = titles.join(' | ');
     this.plotHost.setAttribute('aria-label', `chart of ${this.plotHost.dataset['yTitles']} against ${this.plotHost.dataset['xTitle']}`);
   }
 }

@@ -16,7 +16,9 @@
  *    p₀ means against max |p| + ½ρ·max |u|²; integrals against the field's largest magnitude × the plane's
  *    area: Q against max |u|·A, ṁ against ρ·max |u|·A (ρ the reference density, or the density field's
  *    largest value);
- *  - a force total's parts against the force's magnitude (coefficients against the largest coefficient);
+ *  - a force total's parts against the force's magnitude (coefficients against the largest coefficient), or,
+ *    when the evaluation gives it, against Σ|dF| (coefficients Σ|dF|/(q·A)): the force with nothing cancelling,
+ *    so a force whose every part is noise (a closed body in a uniform pressure) is marked too;
  *  - a balance's net flux and imbalance share against its inflow.
  * Other quantities (lengths, areas, shares, coefficients of uniformity, extremes) get no scale and are never
  * marked. A mean of n terms carries a rounding error of about n·1.1×10⁻¹⁶ of the largest term, ~10⁻¹⁰ for
@@ -83,8 +85,11 @@ export function assignNoiseScales(kind: ProbeKind, quantities: Quantity[], conte
     const axes = TOTAL_ALONG_AXES.map((keys) => keys.map((k) => byKey.get(k)?.value)).find((v) => v.every((x) => x !== undefined)) as number[] | undefined;
     const magnitude = axes ? Math.hypot(...axes) : NaN;
     for (const q of quantities) {
-      if (top && COEFFICIENTS.includes(q.key)) q.scale = { value: Math.abs(top.value), label: top.label };
-      else if (FORCES.includes(q.key) && Number.isFinite(magnitude)) q.scale = { value: magnitude, label: '|F|' };
+      // the net force's own size marks a part small beside it; a size given with the outcome (Σ|dF|) marks a
+      // force whose parts all cancel, which its own size cannot
+      const own = top && COEFFICIENTS.includes(q.key) ? { value: Math.abs(top.value), label: top.label }
+        : FORCES.includes(q.key) && Number.isFinite(magnitude) ? { value: magnitude, label: '|F|' } : undefined;
+      if (own && (!q.scale || isRoundingNoise(q.value, own))) q.scale = own;
     }
   } else if (kind === 'mass-balance') {
     const inflow = byKey.get('inflow');

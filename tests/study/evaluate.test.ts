@@ -102,16 +102,20 @@ describe('evaluateProbeSet on the laminar pipe', () => {
       { id: 'far', kind: 'line', geometry: { from: [1, 1, 1], to: [2, 2, 2] } },
       { id: 'nofield', kind: 'point', geometry: { at: [0, 0, 0.05] }, fields: { sample: ['temperature'] } },
       { id: 'nosurface', kind: 'force', geometry: { surfaces: ['hull'] } },
+      { id: 'nobox', kind: 'force', geometry: { surfaces: [{ within: [1, 2, 1, 2, 1, 2] }] } },
       { id: 'ok', kind: 'point', geometry: { at: [0, 0, 0.05] } },
     ]));
-    expect(ev.failed).toBe(5);
+    expect(ev.failed).toBe(6);
     const byId = Object.fromEntries(ev.probes.map((p) => [p.id, p]));
     expect(byId['miss']!.error).toBe('cut-plane: the plane misses every 3D cell of the mesh');
     expect(byId['out']!.error).toBe('the point lies outside the mesh: no values');
     expect(byId['far']!.error).toBe('the line lies wholly outside the mesh: no samples');
     expect(byId['nofield']!.error).toMatch(/no field "temperature"/);
     expect(byId['nosurface']!.error).toMatch(/^no surface group "hull" \(known: 0 "part 0", 1 "part 1", 2 "part 2"\)$/);
-    for (const id of ['miss', 'out', 'far', 'nofield', 'nosurface']) expect(byId[id]!.quantities).toEqual([]);
+    // a selector is described in words, in the error and in the definition
+    expect(byId['nobox']!.error).toMatch(/^no surface group within x 1 … 2, y 1 … 2, z 1 … 2 \(known: /);
+    expect(byId['nobox']!.definition).toBe('force on the surfaces (within x 1 … 2, y 1 … 2, z 1 … 2)');
+    for (const id of ['miss', 'out', 'far', 'nofield', 'nosurface', 'nobox']) expect(byId[id]!.quantities).toEqual([]);
     expect(byId['ok']!.ok).toBe(true);
   });
 

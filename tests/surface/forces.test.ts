@@ -183,6 +183,8 @@ describe('moments, centre of pressure, coefficients and options', () => {
     expect(r.moment[1]).toBeCloseTo(-5 / 6, 13);
     expect(r.centreOfPressure!.offset).toBeCloseTo(5 / 9, 13);
     expect(r.centreOfPressure!.position[0]).toBeCloseTo(5 / 9, 13);
+    // nothing cancels on a flat panel loaded one way: Σ|dF| is the force itself
+    expect(r.grossForce).toBeCloseTo(1.5, 13);
   });
 
   it('coefficients on ½ρU²A (and L for moments) along drag, lift and side = lift × drag', () => {
@@ -230,6 +232,9 @@ describe('moments, centre of pressure, coefficients and options', () => {
     const uniform = datasetOf([{ ...d.pieces[0]!, pointData: [field('p', 'point', 1, new Float64Array(125).fill(7))] }]);
     const r = forceTotals(uniform, faces, surfaceLoads(uniform, faces, all, { viscous: 'none' }));
     for (const v of r.force) expect(Math.abs(v)).toBeLessThan(1e-13);
+    // Σ|dF| = 7 Pa × area 6 of the unit cube: every component is rounding noise beside it (≤ 10⁻⁹ of it)
+    expect(r.grossForce).toBeCloseTo(42, 12);
+    for (const v of r.force) expect(Math.abs(v)).toBeLessThanOrEqual(1e-9 * r.grossForce);
     const top = forceOn(uniform, [resolveTop(uniform)], { viscous: 'none', pRef: 7 }).result;
     expect(top.pressureForce[2]).toBe(0);
   });

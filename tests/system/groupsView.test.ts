@@ -1,13 +1,15 @@
 /**
- * Surface-group labels from the file, the axis triad, per-file view state and pins clear of the banner, in
- * the app (Debian chromium, software WebGL). Screenshots g01–g06 go to tests/.screenshots/ (git-ignored)
- * and were looked at. The named-group fixture was written by VTK 9.1 (tests/reference/group_names.py).
+ * Surface-group labels from the file, surfaces chosen by what they are (name, box, area), the axis triad,
+ * per-file view state and pins clear of the banner, in the app (Debian chromium, software WebGL).
+ * Screenshots g01–g09 go to tests/.screenshots/ (git-ignored) and were looked at. The named-group fixture was written by VTK 9.1 (tests/reference/group_names.py).
  */
 import { readFileSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import type { Page } from 'playwright-core';
 import { describe, expect, it } from 'vitest';
+import { datasetOf, hexGrid, pointFieldFrom, withFields } from '../../src/model/meshBuild.ts';
+import { writeVtu } from '../../src/io/writeVtu.ts';
 import { REPO, waitIdle } from './browser.ts';
 import { SCREENSHOTS, openAppForTests, pageTools } from './appPage.ts';
 import { readPng } from './png.ts';
@@ -18,7 +20,7 @@ const TANK = join(REPO, 'tests/fixtures/group-names/tank-names-binary.vtu');
 const TANK_LEGACY = join(REPO, 'tests/fixtures/group-names/tank-ids-binary.vtk');
 
 let page: Page;
-const { shot, control, openFile: chooseFile } = pageTools(() => page);
+const { shot, control, openFile: chooseFile, downloadText } = pageTools(() => page);
 
 const openFile = (path: string, name: string) => chooseFile(path, name, 90_000);
 const opacity = async () => Number(await control('surface opacity').locator('input').last().inputValue());
@@ -141,5 +143,56 @@ describe('groups and view hygiene in the app', () => {
     // (tests/reference/legacy_group_names.py); feature parts are numbered after the largest value, 7
     expect(names.filter((n) => /m²\)$/.test(n))).toEqual(['drain (1.000 m²)', 'Überlauf 50% (1.000 m²)', 'part 8 (1.000 m²)', 'part 9 (1.000 m²)', 'part 10 (1.000 m²)', 'part 11 (1.000 m²)']);
     await shot('g08-legacy-group-names');
+  });
+
+  it('surfaces chosen by what they are: the force total takes them, the set keeps the selector, another mesh finds the same wall', async () => {
+    // the pipe sample's parts (`fieldtally surfaces`): 0 the inlet end (z = 0), 1 the wall (6.27×10⁻³ m²), 2 the outlet end (z = 0.1 m)
+    await openFile(PIPE, 'pipe-medium.vtu');
+    await page.locator('.lil-title', { hasText: /^choose surfaces by what they are$/ }).click();
+    const field = (label: string) => control(label, 'choose surfaces by what they are').locator('input');
+    const choose = async () => { await page.locator('.lil-name', { hasText: /^choose matching surfaces$/ }).click(); await waitIdle(page); };
+    const chosen = () => control('surfaces', 'Force total').locator('input').inputValue();
+    await field('area from [m²]').fill('0.005');
+    await choose();
+    await page.waitForSelector('[data-pin="force-1"] [data-quantity="CD"]');
+    expect(await chosen()).toBe('part 1 (area 0.005 … ∞)');
+    await page.waitForTimeout(400);
+    const set = JSON.parse(await downloadText(() => page.getByText('save probe set (JSON)').click())) as { probes: { id: string; geometry: { surfaces: unknown[] } }[] };
+    expect(set.probes.find((p) => p.id === 'force-1')!.geometry.surfaces).toEqual([{ areaFrom: 0.005 }]);
+    await page.locator('.lil-name', { hasText: /^choose matching surfaces$/ }).scrollIntoViewIfNeeded();
+    await shot('g09-surfaces-by-area');
+    // the outlet end by a box around it, replacing the wall
+    await field('area from [m²]').fill('');
+    await field('inside box [m]').fill('-1, 1, -1, 1, 0.09, 0.11');
+    await choose();
+    expect(await chosen()).toBe('part 2 (within x -1 … 1, y -1 … 1, z 0.09 … 0.11)');
+    // what cannot be read, or matches nothing, is said and changes nothing
+    await field('inside box [m]').fill('0, 1, 0, 1');
+    await choose();
+    expect(await page.locator('.banner .banner-text').innerText()).toBe('Force total: box: expected six numbers xmin, xmax, ymin, ymax, zmin, zmax, got "0, 1, 0, 1"');
+    await field('inside box [m]').fill('');
+    await field('name is').fill('outlet');
+    await choose();
+    expect(await page.locator('.banner .banner-text').innerText()).toMatch(/^Force total: no surface group named "outlet" \(known: 0 "part 0" \(area 0\.000310582854123\), 1 "part 1"/);
+    expect(await chosen()).toBe('part 2 (within x -1 … 1, y -1 … 1, z 0.09 … 0.11)');
+    await page.locator('.banner .banner-close').click();
+    // the finer mesh of the same pipe: the kept set's selector finds its outlet end again
+    await openFile(join(REPO, 'sample-fields/pipe-fine.vtu'), 'pipe-fine.vtu');
+    await page.waitForSelector('[data-pin="force-1"] [data-quantity="CD"]');
+    expect(await chosen()).toBe('part 2 (within x -1 … 1, y -1 … 1, z 0.09 … 0.11)');
+  });
+
+  it('face outlines start off for a boundary of over 200 000 faces, and on again for a small one', async () => {
+    // a 320 × 320 × 1 slab of hexahedra: 2·320² + 4·320 = 206 080 boundary faces (a pipe of a thousand faces keeps them on)
+    const slab = hexGrid(320, 320, 1, (u, v, w) => [u, v, 0.002 * w]);
+    const path = join(tmpdir(), `fieldtally-slab-${process.pid}.vtu`);
+    writeFileSync(path, writeVtu(datasetOf([withFields(slab, [pointFieldFrom(slab, 'p', 1, (x, y, _z, o) => { o[0] = x * y; })])])));
+    await openFile(path, `fieldtally-slab-${process.pid}.vtu`);
+    const outlines = () => control('face outlines').locator('input').isChecked();
+    expect(await page.locator('#file-summary').innerText()).toMatch(/102,400 cells/);
+    expect(await outlines()).toBe(false);
+    await shot('g10-outlines-off-large');
+    await openFile(PIPE, 'pipe-medium.vtu');
+    expect(await outlines()).toBe(true);
   });
 });

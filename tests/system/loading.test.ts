@@ -130,11 +130,14 @@ describe('loading a large file', () => {
 
   it('Cancel while the boundary surfaces are being found still keeps the open file', async () => {
     await page.setInputFiles('#file-input', LARGE);
+    // Cancel is pressed in the page the moment the stage shows: the stage lasts a few tenths of a second at 1M
+    // cells, shorter than a click from outside takes to find the button steady
     await page.waitForFunction(() => {
       const bar = document.querySelector('.progress') as HTMLElement | null;
-      return !!bar && !bar.hidden && /^finding boundary surfaces/.test(bar.querySelector('.progress-label')!.textContent!);
-    }, undefined, { timeout: 60_000, polling: 10 });
-    await page.locator('.progress-cancel').click();
+      if (!bar || bar.hidden || !/^finding boundary surfaces/.test(bar.querySelector('.progress-label')!.textContent!)) return false;
+      (bar.querySelector('.progress-cancel') as HTMLButtonElement).click();
+      return true;
+    }, undefined, { timeout: 60_000, polling: 5 });
     await page.waitForSelector('.banner[data-kind=notice]', { timeout: 20_000 });
     await waitIdle(page);
     expect(await page.locator('.banner-text').innerText()).toBe('Loading cancelled; the previous file stays open.');

@@ -305,6 +305,9 @@ describe('a study in the app', () => {
     // a 2 mm line: its arc length reads 0 … 2 with ×10⁻³ m once in the title, not 0, 0, 0.001, 0.001, 0.002
     for (const [k, v] of [['start x [m]', 0], ['start y [m]', 0], ['start z [m]', 0.07], ['end x [m]', 0.002], ['end y [m]', 0], ['end z [m]', 0.07]] as const) await setNumber(k, v, 'Line probe');
     expect(await chart.getAttribute('data-x-title')).toBe('arc length s [×10⁻³ m]');
+    // one series: its y title names it, no key row takes room from the plot
+    expect(await page.locator('#chart-pane .chart-chip').count()).toBe(0);
+    expect(await page.locator('#chart-pane .chart-y-title.left').innerText()).toMatch(/^\|velocity\| \[(×10[⁻⁰¹²³⁴⁵⁶⁷⁸⁹]+ )?m\/s\]$/);
     // across the diameter, plotted against r/R from the axis (R = 10 mm)
     await setNumber('start x [m]', -0.0099, 'Line probe');
     await setNumber('end x [m]', 0.0099, 'Line probe');
@@ -319,8 +322,19 @@ describe('a study in the app', () => {
     await page.locator('#chart-pane select.chart-field').selectOption('velocity_z');
     expect(await chart.getAttribute('data-series')).toBe('3');
     expect(await chart.getAttribute('data-y-titles')).toBe('|velocity|, velocity_z [m/s] | p [Pa]');
+    // the y titles are level page text in a row above the plot, whole (not turned along the axis and cut at its height)
+    const titles = page.locator('#chart-pane .chart-y-title');
+    expect(await titles.allInnerTexts()).toEqual(['left axis: |velocity|, velocity_z [m/s]', 'right axis: p [Pa]']);
+    const plotTop = (await chart.boundingBox())!.y;
+    for (const t of await titles.all()) {
+      const b = (await t.boundingBox())!;
+      expect(b.y + b.height).toBeLessThanOrEqual(plotTop + 1);
+      expect(await t.evaluate((e) => [getComputedStyle(e).transform, e.scrollWidth <= e.clientWidth + 1])).toEqual(['none', true]);
+    }
+    await shot('s09a-chart-y-titles');
     await page.locator('#chart-pane .chart-chip', { hasText: /^p×$/ }).locator('button').click();
     expect(await chart.getAttribute('data-y-titles')).toBe('|velocity|, velocity_z [m/s]');
+    expect(await titles.allInnerTexts()).toEqual(['|velocity|, velocity_z [m/s]', '']);
     await page.locator('#chart-pane select.chart-field').selectOption('p');
     // measured points: the Hagen–Poiseuille profile u = 2V(1 − (r/R)²) (Hagen 1839, Poiseuille 1840) with ±2 mm/s bars
     const csv = join(tmpdir(), `fieldtally-measured-${process.pid}.csv`);
@@ -352,6 +366,10 @@ describe('a study in the app', () => {
     expect(names).toEqual(expect.arrayContaining(['line-1-samples.csv', 'line-1-velocity.svg', 'line-1-p.svg']));
     const file = (n: string) => new TextDecoder().decode(Object.entries(zip).find(([k]) => k.endsWith(`/${n}`))![1]);
     expect(file('line-1-samples.csv').split('\n')[2]).toBe('s [m],x [m],y [m],z [m],valid,velocity_x [m/s],velocity_y [m/s],velocity_z [m/s],p [Pa]');
+    // every number in its shortest round-trip form: reading it back gives the same double, and no shorter text does (0.05, not 0.050000000000000003)
+    const cells = file('line-1-samples.csv').split('\n').slice(3).flatMap((l) => l.split(',')).filter((c) => c !== '' && Number.isFinite(Number(c)));
+    expect(cells.length).toBeGreaterThan(1000);
+    for (const c of cells) expect(String(Number(c))).toBe(c);
     const svg = file('line-1-velocity.svg');
     expect(svg).toContain('>arc length s [m]</text>');
     expect(svg).toContain('>|velocity|, velocity_x, velocity_y, velocity_z [m/s]</text>');

@@ -53,6 +53,20 @@ describe('assignNoiseScales', () => {
       q('force.lift', 'F_lift', 2e-5, 'N'), q('force.side', 'F_side', 3e-9, 'N')]);
     expect(r.map((x) => quantityText(x))).toEqual(['0.5000', '1.000×10⁻⁶', '0', '10.00 N', '2.000×10⁻⁵ N', '3.000×10⁻⁹ N (≈ 0 relative to |F|)']);
   });
+  it('a force whose parts all cancel: marked against Σ|dF| given with the outcome; a part small beside the net force keeps its own scale', () => {
+    // a closed wall in a uniform 7 Pa with no reference pressure (tests/surface/forces.test.ts): Σ|dF| = 42 N, q·A = 0.5
+    const gross = { value: 42, label: 'Σ|dF|' }, grossC = { value: 84, label: 'Σ|dF|/(q·A)' };
+    const r = assignNoiseScales('force', [
+      { ...q('CD', 'C_D', 3.1e-15), scale: grossC }, { ...q('CL', 'C_L', -1.2e-15), scale: grossC }, q('CS', 'C_S', 0),
+      { ...q('force.drag', 'F_drag', 1.5e-15, 'N'), scale: gross }, { ...q('force.lift', 'F_lift', -6e-16, 'N'), scale: gross },
+      { ...q('force.side', 'F_side', 0, 'N'), scale: gross },
+    ]);
+    expect(r.map((x) => quantityText(x))).toEqual(['3.100×10⁻¹⁵ (≈ 0 relative to Σ|dF|/(q·A))', '-1.200×10⁻¹⁵ (≈ 0 relative to Σ|dF|/(q·A))', '0',
+      '1.500×10⁻¹⁵ N (≈ 0 relative to Σ|dF|)', '-6.000×10⁻¹⁶ N (≈ 0 relative to Σ|dF|)', '0 N']);
+    // the Stokes sphere's lift with Σ|dF| given too: still "relative to C_D", as before
+    const s = assignNoiseScales('force', [q('CD', 'C_D', 27620), { ...q('CL', 'C_L', -5.565e-14), scale: { value: 41000, label: 'Σ|dF|/(q·A)' } }]);
+    expect(quantityText(s[1]!)).toBe('-5.565×10⁻¹⁴ (≈ 0 relative to C_D)');
+  });
   it('mass balance: net flux and imbalance share against the inflow; a cut-plane has no scale', () => {
     // the pipe-stations probe set on sample-fields/pipe-medium.vtu (tests/study/fixtures/pipe-stations.v2.json)
     const r = assignNoiseScales('mass-balance', [q('net', 'net ṁ (Σ outward)', 6.939e-18, 'kg/s'), q('inflow', 'ṁ in', 0.01543, 'kg/s'),
