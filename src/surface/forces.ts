@@ -18,6 +18,7 @@
  */
 import type { Dataset } from '../model/dataset.ts';
 import type { BoundaryFaces } from './boundaryFaces.ts';
+import { integratePressureOnly } from './pressureForceLoop.ts';
 import type { SurfaceLoads } from './surfaceLoads.ts';
 
 export type Vec3 = [number, number, number];
@@ -122,6 +123,8 @@ const CHUNK = 64;
  * the stores after it); the additions are the same, in the same order.
  */
 function integrate(d: Dataset, faces: BoundaryFaces, loads: SurfaceLoads, ref: Vec3): void {
+  // No viscous part on point pressure: the loop of pressureForceLoop.ts, same bits with no traction work.
+  if (!loads.traction && loads.pointPressure) { integratePressureOnly(d, faces, loads.selection, loads.offsets[loads.selection.length]!, loads.pointPressure, ref, acc); return; }
   acc.fill(0);
   const n = loads.selection.length;
   for (let k = 0; k < n; k += CHUNK) integrateFaces(d, faces, loads, ref, k, Math.min(n, k + CHUNK));
