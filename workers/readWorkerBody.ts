@@ -35,3 +35,5 @@ port.on('message', (m: PartMessage) => {
     port.postMessage({ id: m.id, error: e instanceof Error ? e.message : String(e), scan: {} });
   }
 });
+// Started: from now on the loading thread leaves the parts to this thread (src/parallel/readPool.ts).
+port.postMessage({ ready: true });

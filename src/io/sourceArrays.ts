@@ -46,7 +46,8 @@ export async function readArray(src: ByteSource, offset: number, count: number, 
   const size = ELEMENT_SIZE[plan.type];
   const mem = inMemoryBytes(src);
   const direct = isDirect(plan);
-  if (direct && !plan.lead) {
+  // A view of the file's bytes is not shared memory: `plan.shared` reads into a fresh shared array.
+  if (direct && !plan.lead && !plan.shared) {
     const hostOrder = plan.littleEndian === HOST_LITTLE || size === 1;
     if (mem && opts.view && hostOrder && (mem.byteOffset + offset) % size === 0) return finishedView(plan, mem, offset, count);
     if (!mem && !src.readInto) {
