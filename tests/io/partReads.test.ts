@@ -68,16 +68,16 @@ describe('readPartSync', () => {
   });
 });
 
-describe('one-thread reads note their scans too (readArray)', () => {
+describe('one-thread reads note their scans too (raw, zlib and base64 arrays)', () => {
   // The piece checks then take the noted scan instead of reading the points, fields and connectivity again.
-  it('a file on disk read on one thread notes the ids range and the first non-finite value, as parts do', async () => {
+  it('a file read on one thread notes the ids range and the first non-finite value, as parts do', async () => {
     const q = hexGrid(5, 4, 3);
     const d = datasetOf([withFields(q, [pointFieldFrom(q, 'p', 1, (x, y, z, o) => { o[0] = x - y * z; })])]);
     const dir = mkdtempSync(join(tmpdir(), 'fieldtally-scans-'));
     try {
-      for (const idType of ['Int32', 'Int64'] as const) {
-        const file = join(dir, `lattice-${idType}.vtu`);
-        writeFileSync(file, writeVtu(d, { encoding: 'appended-raw', idType }));
+      for (const [idType, encoding] of [['Int32', 'appended-raw'], ['Int64', 'appended-raw'], ['Int64', 'zlib'], ['Int32', 'zlib'], ['Int64', 'base64']] as const) {
+        const file = join(dir, `lattice-${idType}-${encoding}.vtu`);
+        writeFileSync(file, writeVtu(d, { encoding, idType, blockSize: 256 }));
         const piece = (await loadDatasetFile(file)).pieces[0]!;
         expect(notedWithin(piece.connectivity, 0, 119)).toBe(true);
         expect(notedWithin(piece.connectivity, 1, 119)).toBe(false);
