@@ -16,13 +16,11 @@
  * when another process holds a core; DEVELOPERS.md, "Loading at scale"). Same code per chunk as the one-thread read, parts start on its chunk boundaries: the
  * values and messages are those of a one-thread load (tests/parallel/readParts.test.ts).
  */
-import { readSync } from 'node:fs';
 import { Worker } from 'node:worker_threads';
-import { pastEnd } from '../io/byteSource.ts';
-import { ELEMENT_SIZE } from '../io/elementTypes.ts';
 import type { PartsJob, ReadParts } from '../io/loadOptions.ts';
-import { joinScans, partRanges, readPartSync } from '../io/partReads.ts';
+import { joinScans, partRanges } from '../io/partReads.ts';
 import type { ArrayScan } from '../model/arrayScans.ts';
+import { readPartFromFile } from './partFromFile.ts';
 import { checkWorkerCount } from './pool.ts';
 import { workerEntry } from './workerEntry.ts';
 
@@ -41,22 +39,10 @@ export interface ReadPool {
   close(): Promise<void>;
 }
 
-/** The calling thread's chunk buffer (grown when a larger chunk is asked for). */
-let scratch = new Uint8Array(0);
-
 /** Reads part `[from, to)` of `job` on this thread, as a read worker does (workers/readWorkerBody.ts). */
 function readHere(job: PartsJob, from: number, to: number): PartReply {
   try {
-    const bytes = job.step * ELEMENT_SIZE[job.plan.type];
-    if (scratch.length < bytes) scratch = new Uint8Array(bytes);
-    const fill = (at: number, target: Uint8Array): void => {
-      for (let done = 0; done < target.length;) {
-        const got = readSync(job.descriptor, target, done, target.length - done, at + done);
-        if (got === 0) throw pastEnd(job.name, at, target.length, job.size);
-        done += got;
-      }
-    };
-    return { id: 0, error: null, scan: readPartSync(job.plan, job.out, job.offset, from, to, job.step, fill, scratch) };
+    return { id: 0, error: null, scan: readPartFromFile(job, job.out, from, to) };
   } catch (e) {
     return { id: 0, error: e instanceof Error ? e.message : String(e), scan: {} };
   }

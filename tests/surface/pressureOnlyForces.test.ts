@@ -23,12 +23,13 @@ function twoBodies(): Piece[] {
   return [tets, hexes].map((q) => withFields(q, [pointFieldFrom(q, 'p', 1, p), pointFieldFrom(q, 'wss', 3, s)]));
 }
 
-describe('pressure-only force totals (no viscous part: no traction work, point pressure read in place)', () => {
+describe('pressure-only force totals (no viscous part: triangles without traction work, point pressure read in place)', () => {
   // Reference: the general face loop of forces.ts, which integrates the same pressure beside a traction. The
-  // pressure-only loop must give its very bits for the pressure force, the pressure moment and the area.
+  // pressure-only loop (surfaces of triangles) must give its very bits for the pressure force, the pressure
+  // moment and the area; other surfaces take the general loop with the corner pressures gathered when read.
   it('equal, bit for bit, the pressure parts of the general loop: triangles, quads, two pieces, p_ref and ρ', () => {
-    const d = datasetOf(twoBodies());
-    for (const extra of [{}, { pRef: 1.75 }, { kinematic: true, rho: 998.2 }] as Partial<LoadOptions>[]) {
+    const [tets, hexes] = twoBodies();
+    for (const d of [datasetOf([tets!]), datasetOf([hexes!]), datasetOf([tets!, hexes!])]) for (const extra of [{}, { pRef: 1.75 }, { kinematic: true, rho: 998.2 }] as Partial<LoadOptions>[]) {
       const r: Vec3 = [0.3, -0.2, 0.1];
       const general = totalOver(d, { pressure: 'p', wallShear: 'wss', ...extra }, r);
       const only = totalOver(d, { pressure: 'p', viscous: 'none', ...extra }, r);
