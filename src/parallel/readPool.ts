@@ -61,15 +61,15 @@ export function startReadPool(n: number, minBytes?: number, holdWorkers = false)
   const workers = Array.from({ length: n }, () => new Worker(workerEntry('read')));
   const waiting = new Map<number, { resolve: (r: PartReply) => void; reject: (e: Error) => void }>();
   const started: Worker[] = [];
-  /** The array being read, told of each worker as it starts. */
-  let onStart: ((w: Worker) => void) | null = null;
+  /** The arrays being read (one at a time, as readers read them, or more), each told of every worker as it starts. */
+  const onStart = new Set<(w: Worker) => void>();
   let next = 1;
   for (const w of workers) {
     w.on('message', (m: PartReply | { ready: true }) => {
       if ('ready' in m) {
         if (holdWorkers) return;
         started.push(w);
-        onStart?.(w);
+        for (const serve of onStart) serve(w);
         return;
       }
       const p = waiting.get(m.id);
@@ -94,8 +94,10 @@ export function startReadPool(n: number, minBytes?: number, holdWorkers = false)
       done.parts++;
       if (m.error !== null && r < firstFailed) firstFailed = r;
     };
-    await new Promise<void>((resolve, reject) => {
+    await new Promise<void>((resolveAll, rejectAll) => {
       let ownDone = false;
+      const resolve = (): void => { onStart.delete(serve); resolveAll(); };
+      const reject = (e: Error): void => { onStart.delete(serve); rejectAll(e); };
       const finish = (): void => { if (ownDone && inFlight === 0 && !left()) resolve(); };
       const send = (w: Worker, r: number): void => {
         const id = next++;
@@ -117,7 +119,7 @@ export function startReadPool(n: number, minBytes?: number, holdWorkers = false)
         if (r >= 0) send(w, r);
         else finish();
       };
-      onStart = serve;
+      onStart.add(serve);
       for (const w of started) serve(w);
       // This thread reads parts while some worker is still starting.
       void (async () => {
@@ -132,7 +134,7 @@ export function startReadPool(n: number, minBytes?: number, holdWorkers = false)
         ownDone = true;
         finish();
       })().catch(reject);
-    }).finally(() => { onStart = null; });
+    });
     done.arrays++;
     if (firstFailed < ranges.length) throw new Error(replies[firstFailed]!.error!);
     return joinScans(replies.map((m) => m.scan));

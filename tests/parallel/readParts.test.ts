@@ -161,3 +161,18 @@ describe('the committed sample fields', () => {
     }
   });
 });
+
+describe('two loads at once on one read pool', () => {
+  it('both finish with the one-thread bytes, whether the workers start before, during or after them', async () => {
+    const files = (['Int32', 'Int64'] as const).map((id) => write(buildXml('UnstructuredGrid', [latticeSpec(id, 'Float64')], { encoding: 'appended-raw' })));
+    const one = await Promise.all(files.map((f) => load(f, {})));
+    for (const wait of [false, true]) {
+      const pool = startReadPool(2, 0);
+      pools.push(pool);
+      // A pool just started (workers still starting) or one whose workers have started.
+      if (wait) await new Promise((r) => setTimeout(r, 1500));
+      const both = await Promise.all(files.map((f) => load(f, { readParts: pool.readParts })));
+      both.forEach((d, i) => expectSameArrays(d, one[i]!));
+    }
+  });
+});
