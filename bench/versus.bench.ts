@@ -100,7 +100,7 @@ async function childStages(file: string, workers: number): Promise<Record<string
     const ports = startNodeWorkers(workers);
     const inflaters = startInflatePool(workers);
     let loaded: Dataset;
-    try { loaded = await loadDatasetFile(file, { inflate: inflaters.inflate }); } finally { await inflaters.close(); }
+    try { loaded = await loadDatasetFile(file, { inflate: inflaters.inflate, sharedArrays: true }); } finally { await inflaters.close(); }
     const loadDone = performance.now();
     pool = await openNodePool(loaded, workers, ports);
     const c = process.cpuUsage(c0);

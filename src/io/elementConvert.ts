@@ -32,6 +32,8 @@ export interface ArrayPlan {
   readonly lead?: number;
   /** Message prefix, e.g. `box.vtu: piece 0: DataArray "connectivity"`. */
   readonly where: string;
+  /** Allocate the final array in a `SharedArrayBuffer` (`LoadOptions.sharedArrays`). Default false. */
+  readonly shared?: boolean;
   /** Builds the error for a cell type outside 0..255 (`cellTypes` only); index and value as in the file. */
   readonly badCellType?: (index: number, value: number) => Error;
 }
@@ -101,7 +103,7 @@ export function allocateTarget(plan: ArrayPlan, count: number, shared = false): 
   const n = (plan.lead ?? 0) + count;
   claimMemory(n * (plan.target === 'values' ? ELEMENT_SIZE[plan.type] : plan.target === 'float64' ? 8 : plan.target === 'ids' ? 4 : 1), plan.where);
   try {
-    if (shared) {
+    if (shared || plan.shared) {
       const Ctor = targetClass(plan);
       const bytes = n * (Ctor as unknown as { BYTES_PER_ELEMENT: number }).BYTES_PER_ELEMENT;
       return new Ctor(new SharedArrayBuffer(bytes), 0, n);

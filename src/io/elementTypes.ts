@@ -23,8 +23,20 @@ export function isElementType(s: string): s is ElementType {
   return Object.prototype.hasOwnProperty.call(ELEMENT_SIZE, s);
 }
 
-/** Allocates the model array for `count` elements of `type` (empty, for ASCII parsing into). */
-export function allocateFor(type: ElementType, count: number): NumericArray {
+/** A typed-array class (Int32Array, Float64Array, …) of the model. */
+export type TypedClass<T extends NumericArray> = (new (n: number) => T) & (new (b: ArrayBufferLike, o: number, n: number) => T) & { readonly BYTES_PER_ELEMENT: number };
+
+/**
+ * A fresh array of `n` zeros of class `C`, in its own `SharedArrayBuffer` when `shared` (`LoadOptions.sharedArrays`:
+ * decoded straight into the memory a worker pool shares, so handing the dataset over copies nothing).
+ */
+export function freshArray<T extends NumericArray>(C: TypedClass<T>, n: number, shared: boolean): T {
+  return shared ? new C(new SharedArrayBuffer(n * C.BYTES_PER_ELEMENT), 0, n) : new C(n);
+}
+
+/** Allocates the model array for `count` elements of `type` (empty, for ASCII parsing into); in a fresh `SharedArrayBuffer` when `shared`. */
+export function allocateFor(type: ElementType, count: number, shared = false): NumericArray {
+  if (shared) return freshArray(allocateFor(type, 0).constructor as TypedClass<NumericArray>, count, true);
   switch (type) {
     case 'Int8': return new Int8Array(count);
     case 'UInt8': return new Uint8Array(count);

@@ -8,6 +8,7 @@
  */
 import type { Checkpoint } from './loadOptions.ts';
 import { quoted, type LegacyCursor } from './legacyCursor.ts';
+import { freshArray } from './elementTypes.ts';
 import { numericType } from './legacyTypes.ts';
 import { readIds } from './legacyValues.ts';
 
@@ -61,7 +62,7 @@ async function readPackedLayout(cur: LegacyCursor, nCells: number, size: number,
   }
   const packed = await readIds(cur, size, 'Int32', where, cp);
   cur.skipMetadata();
-  const offsets = new Int32Array(nCells + 1), connectivity = new Int32Array(size - nCells);
+  const offsets = freshArray(Int32Array, nCells + 1, cur.shared), connectivity = freshArray(Int32Array, size - nCells, cur.shared);
   let p = 0, q = 0;
   for (let c = 0; c < nCells; c++) {
     const k = packed[p]!;

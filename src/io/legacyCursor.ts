@@ -65,6 +65,8 @@ export class LegacyCursor {
   wordStart = 0;
   /** Whether data blocks are big-endian binary (set once the header is read). */
   binary = false;
+  /** Whether arrays are decoded into SharedArrayBuffers (`LoadOptions.sharedArrays`). */
+  shared = false;
   /** The window: bytes `[base, base + bytes.length)` of the file. */
   bytes: Uint8Array;
   /** File offset of `bytes[0]`. */
@@ -157,7 +159,7 @@ export class LegacyCursor {
    * the source, and moves past them. The caller has checked that they fit in the file.
    */
   async binaryArray(count: number, plan: ArrayPlan, cp: Checkpoint, stage: string): Promise<NumericArray> {
-    const values = await readArray(this.source, this.base + this.pos, count, plan, { progress: { cp, stage } });
+    const values = await readArray(this.source, this.base + this.pos, count, this.shared ? { ...plan, shared: true } : plan, { progress: { cp, stage } });
     await this.advance(count * ELEMENT_SIZE[plan.type]);
     return values;
   }

@@ -7,7 +7,7 @@
  */
 import { parseNumbers, parseSomeNumbers, parsedCount, type NumberSink } from './asciiNumbers.ts';
 import type { ArrayPlan } from './elementConvert.ts';
-import { ELEMENT_SIZE, allocateFor, type ElementType } from './elementTypes.ts';
+import { ELEMENT_SIZE, allocateFor, freshArray, type ElementType } from './elementTypes.ts';
 import { claimMemory } from './memoryBudget.ts';
 import type { Checkpoint } from './loadOptions.ts';
 import { quoted, type LegacyCursor } from './legacyCursor.ts';
@@ -149,10 +149,13 @@ export async function readValues(cur: LegacyCursor, count: number, type: Element
   }
   checkRoom(cur, count, 1, where);
   claimMemory(count * ELEMENT_SIZE[type], where);
-  const out = allocateFor(type, count);
+  const out = allocateFor(type, count, cur.shared);
   const range = integerRange(type);
   await readAscii(cur, out, range, `an integer (${type})`, where, cp);
-  return float64 && !(out instanceof Float64Array) ? Float64Array.from(out) : out;
+  if (!float64 || out instanceof Float64Array) return out;
+  const doubles = freshArray(Float64Array, count, cur.shared);
+  doubles.set(out);
+  return doubles;
 }
 
 /**
@@ -173,7 +176,7 @@ export async function readIds(cur: LegacyCursor, count: number, type: ElementTyp
     return ids as Int32Array;
   }
   checkRoom(cur, count, 1, where);
-  const out = new Int32Array(count);
+  const out = freshArray(Int32Array, count, cur.shared);
   await readAscii(cur, out, [min, max], 'an integer id', where, cp);
   return out;
 }
@@ -185,7 +188,7 @@ export async function readIds(cur: LegacyCursor, count: number, type: ElementTyp
 export async function readColors(cur: LegacyCursor, count: number, where: string, cp: Checkpoint): Promise<Uint8Array> {
   if (cur.binary) return (await readValues(cur, count, 'UInt8', where, cp)) as Uint8Array;
   checkRoom(cur, count, 1, where);
-  const out = new Uint8Array(count);
+  const out = freshArray(Uint8Array, count, cur.shared);
   await eachTextPiece(cur, count, where, cp, (_, k) => scratchOf(k), (i, n) => {
     const s = scratchOf(n);
     for (let j = 0; j < n; j++) {

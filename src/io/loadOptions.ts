@@ -136,6 +136,12 @@ export interface LoadOptions {
    */
   readParts?: ReadParts;
   /**
+   * Optional: every mesh and field array is decoded straight into a `SharedArrayBuffer` (zlib, base64, ASCII,
+   * raw appended and legacy files alike), so handing the dataset to a worker pool (`toSharedDataset`) copies
+   * nothing. Same values and messages. Default false (plain ArrayBuffers, which a page can transfer).
+   */
+  sharedArrays?: boolean;
+  /**
    * Most bytes the decoded arrays of this load may take (a set's pieces together); an array that would pass it
    * is refused before it is allocated (see `memoryBudget.ts`). Default: no limit.
    */

@@ -28,8 +28,7 @@ export function readPartSync(plan: ArrayPlan, out: NumericArray, offset: number,
   fill: FillSync, scratch: Uint8Array): ArrayScan {
   const size = ELEMENT_SIZE[plan.type], lead = plan.lead ?? 0;
   const outBytes = isDirect(plan) ? new Uint8Array(out.buffer, out.byteOffset + lead * size, (out.length - lead) * size) : undefined;
-  const floats = out instanceof Float64Array || out instanceof Float32Array, ids = plan.target === 'ids';
-  let firstNonFinite = -1, min = Infinity, max = -Infinity;
+  const scan = new ChunkScan(plan, out);
   for (let i = from; i < to; i += step) {
     const k = Math.min(step, to - i), buf = scratch.subarray(0, k * size);
     fill(offset + i * size, buf);
@@ -39,15 +38,46 @@ export function readPartSync(plan: ArrayPlan, out: NumericArray, offset: number,
     } else {
       convertChunk(plan, buf, k, out, i);
     }
-    if (floats && firstNonFinite < 0) firstNonFinite = nonFiniteIn(out as Float64Array | Float32Array, lead + i, lead + i + k);
-    if (ids && k > 0) {
-      const r = rangeOf(out as Int32Array, lead + i, lead + i + k);
-      if (r[0]! < min) min = r[0]!;
-      if (r[1]! > max) max = r[1]!;
+    scan.add(i, k);
+  }
+  return scan.result();
+}
+
+/**
+ * The scan of an array built chunk by chunk while each chunk is in cache: the first non-finite value of a
+ * floating-point array, the least and greatest id of an ids array, nothing for other arrays. `add(i, k)` takes
+ * file elements `[i, i + k)` just written (in order); `result()` is what `noteScan` records.
+ */
+export class ChunkScan {
+  private readonly floats: boolean;
+  private readonly ids: boolean;
+  private readonly lead: number;
+  private firstNonFinite = -1;
+  private min = Infinity;
+  private max = -Infinity;
+  private any = false;
+
+  constructor(plan: ArrayPlan, private readonly out: NumericArray) {
+    this.floats = out instanceof Float64Array || out instanceof Float32Array;
+    this.ids = plan.target === 'ids';
+    this.lead = plan.lead ?? 0;
+  }
+
+  add(i: number, k: number): void {
+    const a0 = this.lead + i;
+    if (this.floats && this.firstNonFinite < 0) this.firstNonFinite = nonFiniteIn(this.out as Float64Array | Float32Array, a0, a0 + k);
+    if (this.ids && k > 0) {
+      const r = rangeOf(this.out as Int32Array, a0, a0 + k);
+      if (r[0]! < this.min) this.min = r[0]!;
+      if (r[1]! > this.max) this.max = r[1]!;
+      this.any = true;
     }
   }
-  if (floats) return { firstNonFinite: firstNonFinite < 0 ? -1 : firstNonFinite - lead };
-  return ids && to > from ? { min, max } : {};
+
+  result(): ArrayScan {
+    if (this.floats) return { firstNonFinite: this.firstNonFinite < 0 ? -1 : this.firstNonFinite - this.lead };
+    return this.ids && this.any ? { min: this.min, max: this.max } : {};
+  }
 }
 
 /** Index of the first non-finite value of `a[a0, a1)`, or −1 (x − x is 0 exactly for finite x). */

@@ -13,6 +13,7 @@ import { noteScan } from '../model/arrayScans.ts';
 import type { NumericArray } from '../model/fieldArray.ts';
 import { inMemoryBytes, readExactly, readInto, type ByteSource } from './byteSource.ts';
 import { ELEMENT_SIZE } from './elementTypes.ts';
+import { ChunkScan } from './partReads.ts';
 import { HOST_LITTLE, Scratch, allocateTarget, chunkElements, convertChunk, finishDirect, isDirect, type ArrayPlan } from './elementConvert.ts';
 import { PARTS_MIN_BYTES, type Checkpoint, type ReadParts } from './loadOptions.ts';
 
@@ -46,7 +47,8 @@ export async function readArray(src: ByteSource, offset: number, count: number, 
   const size = ELEMENT_SIZE[plan.type];
   const mem = inMemoryBytes(src);
   const direct = isDirect(plan);
-  if (direct && !plan.lead) {
+  // A view of the file's bytes is not shared memory: `plan.shared` reads into a fresh shared array.
+  if (direct && !plan.lead && !plan.shared) {
     const hostOrder = plan.littleEndian === HOST_LITTLE || size === 1;
     if (mem && opts.view && hostOrder && (mem.byteOffset + offset) % size === 0) return finishedView(plan, mem, offset, count);
     if (!mem && !src.readInto) {
@@ -65,6 +67,8 @@ export async function readArray(src: ByteSource, offset: number, count: number, 
   const out = allocateTarget(plan, count);
   const outBytes = direct ? new Uint8Array(out.buffer, out.byteOffset + (plan.lead ?? 0) * size, count * size) : undefined;
   const step = chunkElements(size, src.chunkBytes);
+  // Each chunk is scanned while in cache, so the piece checks need not read the array again (as parts do).
+  const scan = new ChunkScan(plan, out);
   // Two scratch buffers: the next chunk is read while this one is copied or converted.
   const sc = [new Scratch(0), new Scratch(1)] as const;
   const fetch = (i: number): Promise<Uint8Array> | undefined => {
@@ -92,6 +96,7 @@ export async function readArray(src: ByteSource, offset: number, count: number, 
         else convertChunk(plan, buf, k, out, i);
       }
       if (outBytes) finishDirect(plan, out, i, k);
+      scan.add(i, k);
       if (opts.progress) await opts.progress.cp.at(opts.progress.stage, e);
     }
     await next;
@@ -103,6 +108,7 @@ export async function readArray(src: ByteSource, offset: number, count: number, 
     sc[0].release();
     sc[1].release();
   }
+  noteScan(out, scan.result());
   return out;
 }
 

@@ -121,6 +121,7 @@ async function readBody(cur: LegacyCursor, opts: LoadOptions): Promise<Dataset> 
   const header = readHeader(cur);
   // Binary arrays are read one by one from the source; text is parsed from a window that moves forward.
   cur.binary = header.binary;
+  cur.shared = opts.sharedArrays === true;
   const warnings: string[] = [];
   if (header.version > 5.1) warnings.push(`${name}: file version ${header.version} is newer than 5.1, the newest this reader knows; read as 5.1`);
   const ctx: ArrayContext = { cur, cp: new Checkpoint(name, opts, cur.source.size), warnings };

@@ -156,6 +156,7 @@ async function collect(setName: string, bytes: Uint8Array, resolve: ResolveSourc
       const leafOpts: LoadOptions = {
         ...(opts.signal ? { signal: opts.signal } : {}),
         ...(opts.inflate ? { inflate: opts.inflate } : {}),
+        ...(opts.sharedArrays ? { sharedArrays: true } : {}),
         ...(progress ? { onProgress: (p) => progress({ ...p, stage: `piece ${i + 1} of ${leaves.length}: ${p.stage}` }) } : {}),
       };
       const input = await scanXmlSource(leaf, leafName, new Checkpoint(leafName, leafOpts, leaf.size));

@@ -61,7 +61,7 @@ export async function readVtkXmlInput(name: string, input: XmlInput, opts: LoadO
     name, bytes, wholeFile: whole, source, inflate: opts.inflate ?? fflateInflate,
     appendedOffsets: whole ? [] : appendedOffsets(doc.root).sort((a, b) => a - b),
     littleEndian: s.littleEndian, headerType: s.headerType, compressor: s.compressor,
-    appended: doc.appended, cp: new Checkpoint(name, opts, source.size), warnings, parseText: opts.parseText, decodeBase64: opts.decodeBase64, readParts: opts.readParts,
+    appended: doc.appended, cp: new Checkpoint(name, opts, source.size), warnings, parseText: opts.parseText, decodeBase64: opts.decodeBase64, readParts: opts.readParts, sharedArrays: opts.sharedArrays,
   };
   const fieldData = await readFieldData(ctx, child(dataEl, 'FieldData'), name);
   const fieldStrings = await readFieldStrings(ctx, child(dataEl, 'FieldData'), name);

@@ -7,11 +7,13 @@
  *    buffer, or into scratch and converted chunk by chunk. Blocks may end inside an element.
  * Messages are those of `xmlBlocks.ts`, which reads inline and base64 data.
  */
+import { noteScan } from '../model/arrayScans.ts';
 import type { NumericArray } from '../model/fieldArray.ts';
 import { inMemoryBytes, readExactly, readInto, type ByteSource } from './byteSource.ts';
 import { ELEMENT_SIZE } from './elementTypes.ts';
 import { SCRATCH_BYTES, Scratch, allocateTarget, convertChunk, finishDirect, isDirect, type ArrayPlan } from './elementConvert.ts';
 import type { Checkpoint, InflateBlock, ReadParts } from './loadOptions.ts';
+import { ChunkScan } from './partReads.ts';
 import { readArray } from './sourceArrays.ts';
 import {
   blockCountShort, blocksShort, checkDecodedSize, decodeHeaderWords, headerShort, headerSize, inflateInto, inflatedSize,
@@ -104,16 +106,20 @@ export async function inflateBlocks(packed: PackedInput, plan: ArrayPlan, z: Zli
   const size = ELEMENT_SIZE[plan.type], count = z.total / size;
   const out = allocateTarget(plan, count);
   const decoded = new Scratch(0), packedScratch = new Scratch(1);
+  // Each run of finished elements is scanned while in cache, so the piece checks need not read the array again.
+  const scan = new ChunkScan(plan, out);
   try {
-    await inflateAll(packed, plan, z, out, decoded, packedScratch, inflate, cp);
+    await inflateAll(packed, plan, z, out, decoded, packedScratch, inflate, cp, scan);
   } finally {
     decoded.release();
     packedScratch.release();
   }
+  noteScan(out, scan.result());
   return out;
 }
 
-async function inflateAll(input: PackedInput, plan: ArrayPlan, z: ZlibLayout, out: NumericArray, decoded: Scratch, packedScratch: Scratch, inflate: InflateBlock, cp: Checkpoint): Promise<void> {
+async function inflateAll(input: PackedInput, plan: ArrayPlan, z: ZlibLayout, out: NumericArray, decoded: Scratch, packedScratch: Scratch, inflate: InflateBlock, cp: Checkpoint,
+  scan: ChunkScan): Promise<void> {
   const size = ELEMENT_SIZE[plan.type], where = plan.where;
   const direct = isDirect(plan);
   // Direct plans: the final array's element size is the file's.
@@ -126,6 +132,7 @@ async function inflateAll(input: PackedInput, plan: ArrayPlan, z: ZlibLayout, ou
     const k = Math.floor(fill / size);
     if (k === 0) return;
     convertChunk(plan, dec.subarray(0, k * size), k, out, converted);
+    scan.add(converted, k);
     converted += k;
     dec.copyWithin(0, k * size, fill);
     fill -= k * size;
@@ -148,7 +155,7 @@ async function inflateAll(input: PackedInput, plan: ArrayPlan, z: ZlibLayout, ou
       checkBatch(await inflate.batch(blocks, outs), outs, k, z.nBlocks, where);
       for (const o of outs) { to += o.length; k++; }
       const done = Math.floor(to / size);
-      if (done > finished) { finishDirect(plan, out, finished, done - finished); finished = done; }
+      if (done > finished) { finishDirect(plan, out, finished, done - finished); scan.add(finished, done - finished); finished = done; }
       await cp.at('inflating', input.position());
       continue;
     }
@@ -181,7 +188,7 @@ async function inflateAll(input: PackedInput, plan: ArrayPlan, z: ZlibLayout, ou
         inflateInto(packed.subarray(from, from + cs), outBytes.subarray(to, to + us), k, z.nBlocks, where, inflate);
         to += us;
         const done = Math.floor(to / size);
-        if (done > finished) { finishDirect(plan, out, finished, done - finished); finished = done; }
+        if (done > finished) { finishDirect(plan, out, finished, done - finished); scan.add(finished, done - finished); finished = done; }
       } else {
         if (fill + us > dec.length) flush();
         if (fill + us > dec.length) {

@@ -10,7 +10,7 @@ import { parseNumbers, skipSpace } from './asciiNumbers.ts';
 import { parseTextInWindows, type FetchText } from './asciiWindows.ts';
 import { readInto, type ByteSource } from './byteSource.ts';
 import { SCRATCH_BYTES, type ArrayPlan } from './elementConvert.ts';
-import { ELEMENT_SIZE, allocateFor, isElementType, type ElementType } from './elementTypes.ts';
+import { ELEMENT_SIZE, allocateFor, freshArray, isElementType, type ElementType } from './elementTypes.ts';
 import { claimMemory } from './memoryBudget.ts';
 import type { Base64Batch, Checkpoint, InflateBlock, ParseTextBatch, ReadParts } from './loadOptions.ts';
 import { readAppendedArray } from './xmlAppended.ts';
@@ -47,6 +47,8 @@ export interface XmlFileContext {
   readonly decodeBase64?: Base64Batch | undefined;
   /** Reads large raw appended arrays in parts on several threads (`LoadOptions.readParts`); absent: on this thread. */
   readonly readParts?: ReadParts | undefined;
+  /** Decode into SharedArrayBuffers (`LoadOptions.sharedArrays`). */
+  readonly sharedArrays?: boolean | undefined;
 }
 
 /** A decoded array: values (model type), its file type and components. */
@@ -118,10 +120,11 @@ interface AsciiTarget {
   readonly inPlace: boolean;
 }
 
-function asciiTarget(type: ElementType, count: number, want: Want, where: string): AsciiTarget {
+function asciiTarget(type: ElementType, count: number, want: Want, where: string, shared: boolean): AsciiTarget {
   const lead = want.target === 'ids' ? want.lead : 0;
   claimMemory((lead + count) * (want.target === 'ids' ? 4 : want.target === 'float64' ? 8 : ELEMENT_SIZE[type]), where);
-  const out = want.target === 'ids' ? new Int32Array(lead + count) : want.target === 'float64' ? new Float64Array(count) : allocateFor(type, count);
+  const out = want.target === 'ids' ? freshArray(Int32Array, lead + count, shared)
+    : want.target === 'float64' ? freshArray(Float64Array, count, shared) : allocateFor(type, count, shared);
   const range = INT_RANGE[type];
   // Straight into the target when it holds doubles (or the file's own floats); through the scratch otherwise.
   const inPlace = want.target !== 'ids' && (!range || out instanceof Float64Array);
@@ -165,7 +168,7 @@ async function readAscii(ctx: XmlFileContext, el: XmlElement, type: ElementType,
   else if (count > Math.ceil((end - start) / 2)) {
     throw new Error(`${where}: declares ${count} values, the text holds ${countTokens(bytes, start, end)}`);
   }
-  const t = asciiTarget(type, count, want, where);
+  const t = asciiTarget(type, count, want, where, ctx.sharedArrays === true);
   if (ctx.parseText && await asciiInParallel(ctx.parseText, ctx.cp, t, type, want, where, start, end, count,
     (at, w) => { w.set(bytes.subarray(at, at + w.length)); })) return t.out;
   let pos = start;
@@ -218,7 +221,7 @@ async function readAsciiFromSource(ctx: XmlFileContext, el: XmlElement, type: El
   let count = expected;
   if (count === undefined) count = await holds();
   else if (count > Math.ceil((end - start) / 2)) throw new Error(`${where}: declares ${count} values, the text holds ${await holds()}`);
-  const t = asciiTarget(type, count, want, where), n = count;
+  const t = asciiTarget(type, count, want, where, ctx.sharedArrays === true), n = count;
   if (ctx.parseText && await asciiInParallel(ctx.parseText, ctx.cp, t, type, want, where, start, end, n, (at, w) => readInto(src, at, w))) return t.out;
   let i = 0, tooMany = false;
   await textWindows(src, start, end, where, async (w, at) => {
@@ -343,9 +346,10 @@ export function appendedOffsets(el: XmlElement, out: number[] = []): number[] {
 
 /** How a binary array of `type` becomes the form `want` asks for. */
 function planOf(type: ElementType, ctx: XmlFileContext, want: Want, where: string): ArrayPlan {
+  const shared = ctx.sharedArrays ? { shared: true } : {};
   return want.target === 'ids'
-    ? { type, littleEndian: ctx.littleEndian, target: 'ids', min: want.min, lead: want.lead, where }
-    : { type, littleEndian: ctx.littleEndian, target: want.target, where };
+    ? { type, littleEndian: ctx.littleEndian, target: 'ids', min: want.min, lead: want.lead, where, ...shared }
+    : { type, littleEndian: ctx.littleEndian, target: want.target, where, ...shared };
 }
 
 /** Decodes the numbers of a DataArray into the form `want` asks for. */

@@ -8,6 +8,7 @@
  * The text comes from the file's bytes in memory, or from its source in windows that end on whole
  * 4-character groups (so appended base64 data are never read whole).
  */
+import { noteScan } from '../model/arrayScans.ts';
 import type { NumericArray } from '../model/fieldArray.ts';
 import { Base64Reader } from './base64.ts';
 import type { ByteSource } from './byteSource.ts';
@@ -16,6 +17,7 @@ import { SCRATCH_BYTES, Scratch, allocateTarget, chunkElements, convertChunk, fi
 import type { FetchText } from './asciiWindows.ts';
 import { decodeBase64InWindows } from './base64Windows.ts';
 import type { Base64Batch, Checkpoint, InflateBlock } from './loadOptions.ts';
+import { ChunkScan } from './partReads.ts';
 import { inflateBlocks } from './xmlAppended.ts';
 import {
   blockCountShort, blocksShort, checkDecodedSize, decodeHeaderWords, headerShort, headerSize, zlibLayout,
@@ -155,6 +157,8 @@ export async function readBase64Array(input: Base64Input, fmt: BlockFormat, plan
   const rest = decode && n! > 0 ? input.rest?.() : undefined;
   if (rest && await inWindows(decode!, rest, n!, plan, out, outBytes, cp)) return out;
   const sc = new Scratch(0);
+  // Each chunk is scanned while in cache, so the piece checks need not read the array again.
+  const scan = new ChunkScan(plan, out);
   try {
     for (let i = 0; i < count; i += step) {
       const k = Math.min(step, count - i);
@@ -166,11 +170,13 @@ export async function readBase64Array(input: Base64Input, fmt: BlockFormat, plan
         await fill(input, buf, 0, k * size, i * size, n!, where);
         convertChunk(plan, buf, k, out, i);
       }
+      scan.add(i, k);
       await cp.at('decoding base64', input.position());
     }
   } finally {
     sc.release();
   }
+  noteScan(out, scan.result());
   return out;
 }
 

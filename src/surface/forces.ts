@@ -18,6 +18,7 @@
  */
 import type { Dataset } from '../model/dataset.ts';
 import type { BoundaryFaces } from './boundaryFaces.ts';
+import { integratePressureTriangles } from './pressureForceLoop.ts';
 import type { SurfaceLoads } from './surfaceLoads.ts';
 
 export type Vec3 = [number, number, number];
@@ -128,8 +129,10 @@ const CHUNK = 64;
  * the stores after it); the additions are the same, in the same order.
  */
 function integrate(d: Dataset, faces: BoundaryFaces, loads: SurfaceLoads, ref: Vec3): void {
-  acc.fill(0);
+  // No viscous part, point pressure, triangles only: the loop of pressureForceLoop.ts, same bits with no traction work.
   const n = loads.selection.length;
+  if (!loads.traction && loads.pointPressure && loads.offsets[n] === 3 * n) { integratePressureTriangles(d, faces, loads.selection, loads.pointPressure, ref, acc); return; }
+  acc.fill(0);
   for (let k = 0; k < n; k += CHUNK) integrateFaces(d, faces, loads, ref, k, Math.min(n, k + CHUNK));
 }
 

@@ -19,7 +19,7 @@
  *        owning-cell value).
  */
 import { pieceOfCell, type Dataset } from '../model/dataset.ts';
-import type { FieldArray } from '../model/fieldArray.ts';
+import type { FieldArray, NumericArray } from '../model/fieldArray.ts';
 import type { BoundaryFaces } from './boundaryFaces.ts';
 import { vertexAverage } from './faceGeometry.ts';
 import { cellVelocityGradient } from './wallGradient.ts';
@@ -60,10 +60,26 @@ export const LOAD_DEFAULTS: LoadOptions = {
 
 export type ViscousMethod = 'wall-shear-array' | 'velocity-gradient' | 'none';
 
+/**
+ * Point pressure as stored: the corner value of node `j` of piece `k` is `scale × (byPiece[k][j] − shift)`, the
+ * very expression `SurfaceLoads.pressure` holds, so a loop reading it gives the same bits without the gather.
+ */
+export interface PointPressure {
+  /** The pressure array of each piece (undefined for a piece holding no selected face and no array). */
+  readonly byPiece: readonly (NumericArray | undefined)[];
+  /** ρ for kinematic files, else 1. */
+  readonly scale: number;
+  /** p_ref in the stored array's unit. */
+  readonly shift: number;
+}
+
 export interface SurfaceLoads {
   readonly selection: Int32Array;
   readonly offsets: Int32Array;
+  /** Gathered on first read (a pressure-only force total of point data reads `pointPressure` instead). */
   readonly pressure: Float64Array;
+  /** Point data: where `pressure` comes from, for loops that read the nodes' values in place; null for cell data. */
+  readonly pointPressure: PointPressure | null;
   /** Null when the viscous part is not computed (`viscous.method` 'none'). */
   readonly traction: Float64Array | null;
   readonly pressureArray: string;
@@ -116,14 +132,18 @@ export function surfaceLoads(d: Dataset, faces: BoundaryFaces, selection: Int32A
   const pieces: number[] = [];
   for (let k = 0; k < used.length; k++) if (used[k]) pieces.push(k);
   if (n === 0) {
-    return { selection, offsets, pressure: new Float64Array(0), traction: null, pressureArray: o.pressure ?? '', pressureAssociation: 'point', viscous: { method: 'none' }, notes: ['no faces selected'] };
+    return { selection, offsets, pressure: new Float64Array(0), pointPressure: null, traction: null, pressureArray: o.pressure ?? '', pressureAssociation: 'point', viscous: { method: 'none' }, notes: ['no faces selected'] };
   }
   const pArr = findArray(d, pieces, o.pressure, PRESSURE_NAME, 1);
   if (!pArr) {
     throw new Error(`${d.source}: no pressure array ${o.pressure !== undefined ? `"${o.pressure}"` : '(looked for p, pressure, static pressure)'}; arrays: ${arrayList(d)}`);
   }
   const pName = pArr[pieces[0]!]!.name, pAssoc = pArr[pieces[0]!]!.association as 'point' | 'cell';
-  const pressure = gather(d, faces, selection, offsets, pName, pAssoc, 1, scale, o.pRef, surfaceCell);
+  // Point pressure is gathered per corner only when something reads it: a pressure-only force total does not.
+  let pressure: Float64Array | undefined;
+  const corners = (): Float64Array => pressure ??= gather(d, faces, selection, offsets, pName, pAssoc, 1, scale, o.pRef, surfaceCell);
+  if (pAssoc === 'cell') corners();
+  const pointPressure: PointPressure | null = pAssoc === 'point' ? { byPiece: pArr.map((a) => a?.values), scale, shift: o.pRef } : null;
   if (pAssoc === 'cell') notes.push(`pressure "${pName}" is cell data: one value per face (wall 2D cell where present, else the owning cell's centre value)`);
   if (o.kinematic) notes.push(`pressure "${pName}" read as kinematic (p/ρ) and multiplied by ρ = ${o.rho}`);
 
@@ -149,7 +169,9 @@ export function surfaceLoads(d: Dataset, faces: BoundaryFaces, selection: Int32A
       viscous = { method: 'velocity-gradient', array: vel[pieces[0]!]!.name, association: assoc, mu: o.mu, gradient: second ? 'second-order' : 'first-order' };
     }
   } else notes.push('viscous force not computed (viscous: none)');
-  return { selection, offsets, pressure, traction, pressureArray: pName, pressureAssociation: pAssoc, viscous, notes };
+  return {
+    selection, offsets, get pressure() { return corners(); }, pointPressure, traction, pressureArray: pName, pressureAssociation: pAssoc, viscous, notes,
+  };
 }
 
 /** Corner offsets of the selected faces (prefix sums of their node counts) and which pieces hold them. */

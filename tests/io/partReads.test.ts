@@ -1,11 +1,19 @@
 /**
  * One part of an array read on its own (src/io/partReads.ts): parts laid end to end give the bytes of one read of
  * the whole array, whatever the part boundaries, and their joined scans equal a scan of the whole array (first
- * non-finite value, least and greatest id). Part ranges cover the array once, on chunk boundaries.
+ * non-finite value, least and greatest id). Part ranges cover the array once, on chunk boundaries. A one-thread
+ * read notes the same scans.
  */
+import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import type { ArrayPlan } from '../../src/io/elementConvert.ts';
+import { loadDatasetFile } from '../../src/io/nodeFiles.ts';
 import { joinScans, partRanges, readPartSync } from '../../src/io/partReads.ts';
+import { writeVtu } from '../../src/io/writeVtu.ts';
+import { notedFirstNonFinite, notedWithin } from '../../src/model/arrayScans.ts';
+import { datasetOf, hexGrid, pointFieldFrom, withFields } from '../../src/model/meshBuild.ts';
 
 /** A `fill` over bytes in memory. */
 const fillFrom = (file: Uint8Array) => (at: number, t: Uint8Array) => { t.set(file.subarray(at, at + t.length)); };
@@ -57,5 +65,28 @@ describe('readPartSync', () => {
     const plan: ArrayPlan = { type: 'Int32', littleEndian: true, target: 'ids', min: 0, where: 'f: DataArray "connectivity"' };
     expect(() => readPartSync(plan, new Int32Array(n), 0, 64, 100, 16, fillFrom(file), new Uint8Array(64)))
       .toThrow('f: DataArray "connectivity": value -3 at index 77 is not an id in 0..2147483647');
+  });
+});
+
+describe('one-thread reads note their scans too (raw, zlib and base64 arrays)', () => {
+  // The piece checks then take the noted scan instead of reading the points, fields and connectivity again.
+  it('a file read on one thread notes the ids range and the first non-finite value, as parts do', async () => {
+    const q = hexGrid(5, 4, 3);
+    const d = datasetOf([withFields(q, [pointFieldFrom(q, 'p', 1, (x, y, z, o) => { o[0] = x - y * z; })])]);
+    const dir = mkdtempSync(join(tmpdir(), 'fieldtally-scans-'));
+    try {
+      for (const [idType, encoding] of [['Int32', 'appended-raw'], ['Int64', 'appended-raw'], ['Int64', 'zlib'], ['Int32', 'zlib'], ['Int64', 'base64']] as const) {
+        const file = join(dir, `lattice-${idType}-${encoding}.vtu`);
+        writeFileSync(file, writeVtu(d, { encoding, idType, blockSize: 256 }));
+        const piece = (await loadDatasetFile(file)).pieces[0]!;
+        expect(notedWithin(piece.connectivity, 0, 119)).toBe(true);
+        expect(notedWithin(piece.connectivity, 1, 119)).toBe(false);
+        expect(notedWithin(piece.connectivity, 0, 118)).toBe(false);
+        expect(notedFirstNonFinite(piece.points)).toBe(-1);
+        expect(notedFirstNonFinite(piece.pointData[0]!.values)).toBe(-1);
+      }
+    } finally {
+      rmSync(dir, { recursive: true, force: true });
+    }
   });
 });

@@ -4,7 +4,8 @@
  * ids, Float32 and Float64 points and fields, cell data; zlib files are untouched by it. Bad values, truncated files
  * and bad offsets are refused with the one-thread read's message (file, array, index), also when two parts hold a
  * bad value. Files are hand-built from the format description (tests/helpers/vtkXmlFixtures.ts); a small chunk
- * size (`ByteSource.chunkBytes`) makes each array span several parts.
+ * size (`ByteSource.chunkBytes`) makes each array span several parts. Parts read by the loading thread while the
+ * workers start (here: all of them, workers held back) give the same arrays and messages.
  */
 import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
@@ -81,8 +82,8 @@ const CASES: [string, XmlType, 'Float32' | 'Float64', BuildOptions][] = [
   ['zlib (not read in parts)', 'Int64', 'Float64', { encoding: 'appended-raw', zlibBlockSize: 200, headerType: 'UInt64' }],
 ];
 
-describe.each([1, 2, 3])('reading in parts on %i worker(s)', (n) => {
-  const pool = startReadPool(n, 0);
+describe.each([[1, false], [2, false], [3, false], [2, true]] as const)('reading in parts on %i worker(s), workers held back: %s', (n, held) => {
+  const pool = startReadPool(n, 0, held);
   pools.push(pool);
 
   it.each(CASES)('%s: every array byte for byte as the one-thread read', async (_, idType, pointType, opts) => {
@@ -99,6 +100,8 @@ describe.each([1, 2, 3])('reading in parts on %i worker(s)', (n) => {
       // every large array came in shared memory, in more parts than one when there are workers for them
       for (const a of [piece.points, piece.connectivity, piece.offsets, piece.pointData[0]!.values]) expect(a.buffer).toBeInstanceOf(SharedArrayBuffer);
       expect(pool.done.parts - before).toBeGreaterThanOrEqual(n === 1 ? 6 : 12);
+      // held back, the workers never count as started and the loading thread reads every part
+      if (held) expect(pool.done.partsHere).toBe(pool.done.parts);
       // what the parts found while in cache, as a scan of the whole array finds it
       expect(notedWithin(piece.connectivity, 0, 119)).toBe(true);
       expect(notedWithin(piece.connectivity, 0, 118)).toBe(false);
@@ -155,6 +158,21 @@ describe('the committed sample fields', () => {
       expectSameArrays(await loadDatasetFile(`${SAMPLES}/${name}`, { readParts: pool.readParts }), await loadDatasetFile(`${SAMPLES}/${name}`));
     } finally {
       await pool.close();
+    }
+  });
+});
+
+describe('two loads at once on one read pool', () => {
+  it('both finish with the one-thread bytes, whether the workers start before, during or after them', async () => {
+    const files = (['Int32', 'Int64'] as const).map((id) => write(buildXml('UnstructuredGrid', [latticeSpec(id, 'Float64')], { encoding: 'appended-raw' })));
+    const one = await Promise.all(files.map((f) => load(f, {})));
+    for (const wait of [false, true]) {
+      const pool = startReadPool(2, 0);
+      pools.push(pool);
+      // A pool just started (workers still starting) or one whose workers have started.
+      if (wait) await new Promise((r) => setTimeout(r, 1500));
+      const both = await Promise.all(files.map((f) => load(f, { readParts: pool.readParts })));
+      both.forEach((d, i) => expectSameArrays(d, one[i]!));
     }
   });
 });

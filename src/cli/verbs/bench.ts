@@ -70,6 +70,7 @@ const bench: Verb = {
       load: {
         ms: round(loadMs), cpuMs: round((loadCpu.user + loadCpu.system) / 1000), fileMBps: round(fileBytes / 1e3 / loadMs), decodedBytes: decoded,
         decodedMBps: round(decoded / 1e3 / loadMs), readThreads: threads, arraysReadInParts: readers?.done.arrays ?? 0,
+        partsReadOnLoadingThread: readers?.done.partsHere ?? 0, partsRead: readers?.done.parts ?? 0,
       },
     };
     for (const s of await stages()) {
