@@ -17,6 +17,7 @@ import type { CutOptions } from '../cut/cutPlane.ts';
 import { integrateSurface } from '../cut/integrals.ts';
 import type { PlaneQuery, PlaneResult } from '../cut/planeIntegrals.ts';
 import { selectRegion } from '../cut/region.ts';
+import { warmUpCutKernels } from '../cut/warmUp.ts';
 import type { Vec3 } from '../cut/triangleSet.ts';
 import { totalCells, type Dataset } from '../model/dataset.ts';
 import { findField } from '../model/piece.ts';
@@ -98,7 +99,8 @@ export class ComputePool {
     for (const p of ports.slice(shares.length)) await p.terminate();
     const lanes = ports.slice(0, shares.length).map((p) => new Lane(p));
     const pool = new ComputePool(dataset, shares, lanes);
-    await Promise.all(lanes.map((l, i) => l.call({ op: 'hold', dataset, share: shares[i]! })));
+    // This thread selects and integrates every merged cut: its kernels warm up while the workers take on their shares.
+    await Promise.all([...lanes.map((l, i) => l.call({ op: 'hold', dataset, share: shares[i]! })), warmUpCutKernels()]);
     return pool;
   }
 
