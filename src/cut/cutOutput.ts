@@ -36,6 +36,9 @@ export function reserveOutput(verts: number, tris: number): void {
 /** Triangles written so far in this cut. */
 export function triangleTotal(): number { return nT; }
 
+/** Vertices written so far in this cut. */
+export function vertexTotal(): number { return nV; }
+
 /** Below this many vertices a cut's arrays are copied out of the buffers, which stay for the next cut. */
 const HAND_OVER_MIN = 1 << 15;
 

@@ -26,11 +26,12 @@ import type { BoundaryFaces } from '../surface/boundaryFaces.ts';
 import { primeBoundaryFaces } from '../surface/surfaceCache.ts';
 import type { EvaluateOptions, SetEvaluation } from '../study/evaluate.ts';
 import type { ProbeSet } from '../study/probeSet.ts';
-import { mergeBoundary, mergeCuts, mergeLines } from './mergeParts.ts';
+import { mergeBoundary, mergeLines } from './mergeParts.ts';
+import { cutInPlace } from './placeCuts.ts';
 import { dealProbes, joinEvaluations, subSet } from './probeSetShares.ts';
 import { nodeRanges } from '../derive/rangeGradient.ts';
 import type { ShareMessage, ShareReply, ShareRequest, WorkerMemory } from './shareHost.ts';
-import type { BoundaryPart, CutPart, LinePart } from './shareTasks.ts';
+import type { BoundaryPart, LinePart } from './shareTasks.ts';
 import { splitCells, type CellShare } from './shares.ts';
 
 /** The pool's end of one worker. */
@@ -114,9 +115,7 @@ export class ComputePool {
   /** The cut, as `cutPlane` gives it on the whole dataset (units: the file's). */
   async cutPlane(origin: Vec3, normal: Vec3, options: Partial<CutOptions> = {}) {
     if (!origin.every(Number.isFinite)) throw new Error(`cutPlane: origin must be three finite numbers, got (${origin.join(', ')})`);
-    const t0 = performance.now();
-    const parts = await this.all<CutPart>(() => ({ op: 'cut', origin, normal, options }));
-    return mergeCuts(parts, origin, normal, performance.now() - t0);
+    return cutInPlace((req) => this.all(req), origin, normal, options);
   }
 
   /** Cuts, selects the region and integrates: `integratePlane` (planeIntegrals.ts) with the cut done by the workers. */
