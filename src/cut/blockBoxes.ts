@@ -33,10 +33,35 @@ export function hasBlockBoxes(p: Piece): boolean {
  * nodes' own box, never smaller).
  */
 export function keepPointRunBoxes(p: Piece, runs: Float64Array, shift: number): void {
-  pending.set(p.offsets, { types: p.cellTypes, conn: p.connectivity, points: p.points, runs, shift });
+  pending.set(p.offsets, { types: p.cellTypes, conn: p.connectivity, points: p.points, runs, shift, rents: 0 });
 }
 
-const pending = new WeakMap<Int32Array, { types: Uint8Array; conn: Int32Array; points: Float64Array; runs: Float64Array; shift: number }>();
+/**
+ * Full scans a piece's later scans make before its block boxes are joined from the kept point-run boxes
+ * (rent or buy, as `AUTO_SCANS` in crossingCells.ts): the join costs about one full scan (1M hexahedra: 16
+ * against 19 ms of CPU, 1M tetrahedra with boundary triangles: about twice), so one scan is rented first and
+ * the boxes are bought on the next; a session that cuts twice never pays for them.
+ */
+export const RENTED_SCANS = 1;
+
+const pending = new WeakMap<Int32Array, { types: Uint8Array; conn: Int32Array; points: Float64Array; runs: Float64Array; shift: number; rents: number }>();
+
+/**
+ * Whether a later scan of `p` should read every cell instead of joining the block boxes now (see
+ * `RENTED_SCANS`); counts the scan when it should.
+ */
+export function rentFullScan(p: Piece): boolean {
+  if (hasBlockBoxesComputed(p)) return false;
+  const left = pending.get(p.offsets);
+  if (!left || left.types !== p.cellTypes || left.conn !== p.connectivity || left.points !== p.points || left.rents >= RENTED_SCANS) return false;
+  left.rents++;
+  return true;
+}
+
+function hasBlockBoxesComputed(p: Piece): boolean {
+  const hit = cache.get(p.offsets);
+  return !!hit && hit.types === p.cellTypes && hit.conn === p.connectivity && hit.points === p.points;
+}
 let stamp = new Int32Array(0);
 
 /** The block boxes of piece `p` (see the file comment), computed on the first call for these arrays. */
@@ -47,14 +72,15 @@ export function blockBoxes(p: Piece): Float64Array {
   const boxes = new Float64Array(6 * nb);
   const lay = cellLayout(p);
   const left = pending.get(p.offsets);
-  if (lay.size > 0 && left && left.types === p.cellTypes && left.conn === p.connectivity && left.points === p.points) {
+  if (!p.polyFaces && left && left.types === p.cellTypes && left.conn === p.connectivity && left.points === p.points) {
     pending.delete(p.offsets);
     const nRuns = left.runs.length / 6;
     if (stamp.length < nRuns) stamp = new Int32Array(Math.max(nRuns, 2 * stamp.length));
     stamp.fill(0, 0, nRuns);
     for (let b = 0; b < nb; b++) {
       const c0 = b * CELL_BLOCK, c1 = Math.min(nc, c0 + CELL_BLOCK);
-      joinRuns(p.connectivity, lay.base + lay.size * c0, lay.base + lay.size * c1, left.shift, b + 1, left.runs, boxes, 6 * b);
+      // without polyhedra a block's nodes are one stretch of the connectivity
+      joinRuns(p.connectivity, p.offsets[c0]!, p.offsets[c1]!, left.shift, b + 1, left.runs, boxes, 6 * b);
     }
     cache.set(p.offsets, { types: p.cellTypes, conn: p.connectivity, points: p.points, boxes });
     return boxes;

@@ -6,8 +6,9 @@
  *    visits only the boxes the plane touches);
  *  - `scan`: a sign test per cell (side code of each node: below, on or above the plane, OR-ed), over the
  *    blocks of `CELL_BLOCK` consecutive cells whose box the plane may meet (`blockBoxes.ts`). The first scan
- *    of a single-type piece reads every cell and leaves the boxes of 32-point runs behind (made in its point
- *    pass), from which the first later scan joins the block boxes; a later scan tests the boxes first and reads only the crossed blocks —
+ *    of a piece with no polyhedra reads every cell by side bytes and leaves the boxes of 32-point runs behind
+ *    (made in its point pass); the next scan reads every cell again (`RENTED_SCANS`), the one after joins the
+ *    block boxes from the runs. A scan with block boxes tests them first and reads only the crossed blocks —
  *    by coordinates per node when they are few, by a side byte per point when they hold more node
  *    references than the piece has points. Pool workers compute the boxes of their share as they take it on.
  *    The scan returns exactly the cells the rule selects, in ascending order, whichever way it went.
@@ -27,7 +28,7 @@ import { cellDimension, CellType } from '../model/cellTypes.ts';
 import { cellStarts, type Dataset } from '../model/dataset.ts';
 import { cellsCrossingPlane, getCellTree, hasCellTree } from '../locate/cellTree.ts';
 import { cellLayout } from '../model/uniformCells.ts';
-import { blockBoxes, boxMayCross, CELL_BLOCK, hasBlockBoxes, keepPointRunBoxes } from './blockBoxes.ts';
+import { blockBoxes, boxMayCross, CELL_BLOCK, hasBlockBoxes, keepPointRunBoxes, rentFullScan } from './blockBoxes.ts';
 import type { Piece } from '../model/piece.ts';
 
 export type CandidateSource = 'auto' | 'tree' | 'scan';
@@ -74,9 +75,11 @@ function scan(d: Dataset, ox: number, oy: number, oz: number, nx: number, ny: nu
   let nFound = 0;
   for (let k = 0; k < d.pieces.length; k++) {
     const p = d.pieces[k]!, lay = cellLayout(p), nc = p.cellTypes.length, g0 = starts[k]!;
-    if (lay.size > 0 && !hasBlockBoxes(p)) {
-      // First scan of a single-type piece: every cell is read; the point pass leaves the boxes the block boxes are joined from.
-      nFound = firstScan(p, lay.base, lay.size, ox, oy, oz, nx, ny, nz, tol, g0, nFound);
+    const first = !p.polyFaces && !hasBlockBoxes(p);
+    if (first || (!p.polyFaces && rentFullScan(p))) {
+      // A piece with no polyhedra, first scanned (the point pass leaves the boxes the block boxes are joined
+      // from) or scanned whole while those wait (blockBoxes.ts, RENTED_SCANS): every cell is read.
+      nFound = fullScan(p, lay.base, lay.size, ox, oy, oz, nx, ny, nz, tol, g0, nFound, first);
       continue;
     }
     const boxes = blockBoxes(p), pf = p.polyFaces, nb = boxes.length / 6;
@@ -141,24 +144,41 @@ let crossing = new Int32Array(0);
 let side = new Uint8Array(0);
 
 /**
- * The first scan of a single-type piece (`size` nodes a cell). One pass over the points: a side byte per
- * point (1 below, 2 on, 4 above) and the box of each run of 2^POINT_BLOCK_SHIFT consecutive points, kept for
- * the piece (`keepPointRunBoxes`: a later scan joins its block boxes from them, one pass over the
- * connectivity that this first cut does not wait for). Then per cell the OR of its nodes' side bytes: the
- * candidates, exactly as the later scans select them.
+ * A scan of every cell of a piece with no polyhedra (`size` nodes a cell, 0 for mixed cells). One pass over
+ * the points: a side byte per point (1 below, 2 on, 4 above) and, on the `first` scan, the box of each run of
+ * 2^POINT_BLOCK_SHIFT consecutive points, kept for the piece (`keepPointRunBoxes`: a later scan joins its
+ * block boxes from them, one pass over the connectivity that this first cut does not wait for). Then per cell
+ * the OR of its nodes' side bytes: the candidates, exactly as the scans over block boxes select them.
  */
-function firstScan(p: Piece, base: number, size: number, ox: number, oy: number, oz: number, nx: number, ny: number, nz: number,
-  tol: number, g0: number, nFound: number): number {
+function fullScan(p: Piece, base: number, size: number, ox: number, oy: number, oz: number, nx: number, ny: number, nz: number,
+  tol: number, g0: number, nFound: number, first: boolean): number {
   const nc = p.cellTypes.length, np = p.points.length / 3, nRuns = (np >> POINT_BLOCK_SHIFT) + 1;
   const lay = cellLayout(p);
   if (side.length < np) side = new Uint8Array(Math.max(np, 2 * side.length));
-  const runs = new Float64Array(6 * nRuns);
-  pointSidesAndRuns(p.points, lay.firstPoint, lay.endPoint, ox, oy, oz, nx, ny, nz, tol, side, runs);
-  keepPointRunBoxes(p, runs, POINT_BLOCK_SHIFT);
+  if (first) {
+    const runs = new Float64Array(6 * nRuns);
+    pointSidesAndRuns(p.points, lay.firstPoint, lay.endPoint, ox, oy, oz, nx, ny, nz, tol, side, runs);
+    keepPointRunBoxes(p, runs, POINT_BLOCK_SHIFT);
+  } else {
+    pointSides(p.points, lay.firstPoint, lay.endPoint, ox, oy, oz, nx, ny, nz, tol, side);
+  }
   reserveFound(nFound + nc);
   if (size === 8) return sideBytesOf8(p.connectivity, base, 0, nc, side, g0, found, nFound);
   if (size === 4) return sideBytesOf4(p.connectivity, base, 0, nc, side, g0, found, nFound);
-  return sideBytesOf(p.connectivity, size, base, 0, nc, side, g0, found, nFound);
+  if (size > 0) return sideBytesOf(p.connectivity, size, base, 0, nc, side, g0, found, nFound);
+  return sideBytesOfAny(p.cellTypes, p.offsets, p.connectivity, 0, nc, side, g0, found, nFound);
+}
+
+/** Cells c0 … c1 − 1 of a piece of any cells but polyhedra, by their nodes' side bytes; same test as `blockOfAny`. */
+function sideBytesOfAny(types: Uint8Array, off: Int32Array, conn: Int32Array, c0: number, c1: number, side: Uint8Array, g0: number,
+  out: Int32Array, nFound: number): number {
+  for (let c = c0; c < c1; c++) {
+    let m = 0;
+    for (let q = off[c]!, qe = off[c + 1]!; q < qe; q++) m |= side[conn[q]!]!;
+    out[nFound] = g0 + c;
+    nFound += SOLID[types[c]!]! & (m === 3 || m >= 5 ? 1 : 0);
+  }
+  return nFound;
 }
 
 /** Side byte of points first … end − 1 into `out`, and the box of each run of points (`runs`, 6 numbers a run; runs partly outside the range cover their part inside). */
