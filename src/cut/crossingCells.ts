@@ -162,12 +162,21 @@ function fullScan(p: Piece, base: number, size: number, ox: number, oy: number, 
   } else {
     pointSides(p.points, lay.firstPoint, lay.endPoint, ox, oy, oz, nx, ny, nz, tol, side);
   }
-  reserveFound(nFound + nc);
-  if (size === 8) return sideBytesOf8(p.connectivity, base, 0, nc, side, g0, found, nFound);
-  if (size === 4) return sideBytesOf4(p.connectivity, base, 0, nc, side, g0, found, nFound);
-  if (size > 0) return sideBytesOf(p.connectivity, size, base, 0, nc, side, g0, found, nFound);
-  return sideBytesOfAny(p.cellTypes, p.offsets, p.connectivity, 0, nc, side, g0, found, nFound);
+  // Room for a chunk at a time: every cell's id is written, so room for all of them would be as many fresh
+  // bytes as the piece has cells (40 MB at 10M cells), where the candidates are a small share.
+  for (let c0 = 0; c0 < nc; c0 += SCAN_CHUNK) {
+    const c1 = Math.min(nc, c0 + SCAN_CHUNK);
+    reserveFound(nFound + (c1 - c0));
+    if (size === 8) nFound = sideBytesOf8(p.connectivity, base, c0, c1, side, g0, found, nFound);
+    else if (size === 4) nFound = sideBytesOf4(p.connectivity, base, c0, c1, side, g0, found, nFound);
+    else if (size > 0) nFound = sideBytesOf(p.connectivity, size, base, c0, c1, side, g0, found, nFound);
+    else nFound = sideBytesOfAny(p.cellTypes, p.offsets, p.connectivity, c0, c1, side, g0, found, nFound);
+  }
+  return nFound;
 }
+
+/** Cells a full scan reads between two checks of the room for candidates. */
+const SCAN_CHUNK = 1 << 14;
 
 /** Cells c0 … c1 − 1 of a piece of any cells but polyhedra, by their nodes' side bytes; same test as `blockOfAny`. */
 function sideBytesOfAny(types: Uint8Array, off: Int32Array, conn: Int32Array, c0: number, c1: number, side: Uint8Array, g0: number,
