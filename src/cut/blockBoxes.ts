@@ -19,19 +19,50 @@ export const CELL_BLOCK = 128;
 
 const cache = new WeakMap<Int32Array, { types: Uint8Array; conn: Int32Array; points: Float64Array; boxes: Float64Array }>();
 
-/** Whether the boxes of `p` are already computed. */
+/** Whether the boxes of `p` are already computed, or can be joined from point-run boxes a first scan kept. */
 export function hasBlockBoxes(p: Piece): boolean {
-  const hit = cache.get(p.offsets);
+  const hit = cache.get(p.offsets) ?? pending.get(p.offsets);
   return !!hit && hit.types === p.cellTypes && hit.conn === p.connectivity && hit.points === p.points;
 }
 
 /**
- * Keeps `boxes` as the block boxes of `p` (for a scan that computed them on its way, see `crossingCells.ts`);
- * each must hold every node of its block's cells (it may be larger than `blockBoxes` would make it).
+ * Keeps the boxes of the piece's runs of 2^`shift` consecutive points (`runs`, 6 numbers a run, each holding
+ * at least the run's points the cells use), left by a first scan (see `crossingCells.ts`): the block boxes are
+ * then joined from them when a later scan first asks, one pass over the connectivity instead of reading every
+ * node's coordinates. The joined box of a block holds every node of its cells (it may be larger than the
+ * nodes' own box, never smaller).
  */
-export function keepBlockBoxes(p: Piece, boxes: Float64Array): void {
-  cache.set(p.offsets, { types: p.cellTypes, conn: p.connectivity, points: p.points, boxes });
+export function keepPointRunBoxes(p: Piece, runs: Float64Array, shift: number): void {
+  pending.set(p.offsets, { types: p.cellTypes, conn: p.connectivity, points: p.points, runs, shift, rents: 0 });
 }
+
+/**
+ * Full scans a piece's later scans make before its block boxes are joined from the kept point-run boxes
+ * (rent or buy, as `AUTO_SCANS` in crossingCells.ts): the join costs about one full scan (1M hexahedra: 16
+ * against 19 ms of CPU, 1M tetrahedra with boundary triangles: about twice), so one scan is rented first and
+ * the boxes are bought on the next; a session that cuts twice never pays for them.
+ */
+export const RENTED_SCANS = 1;
+
+const pending = new WeakMap<Int32Array, { types: Uint8Array; conn: Int32Array; points: Float64Array; runs: Float64Array; shift: number; rents: number }>();
+
+/**
+ * Whether a later scan of `p` should read every cell instead of joining the block boxes now (see
+ * `RENTED_SCANS`); counts the scan when it should.
+ */
+export function rentFullScan(p: Piece): boolean {
+  if (hasBlockBoxesComputed(p)) return false;
+  const left = pending.get(p.offsets);
+  if (!left || left.types !== p.cellTypes || left.conn !== p.connectivity || left.points !== p.points || left.rents >= RENTED_SCANS) return false;
+  left.rents++;
+  return true;
+}
+
+function hasBlockBoxesComputed(p: Piece): boolean {
+  const hit = cache.get(p.offsets);
+  return !!hit && hit.types === p.cellTypes && hit.conn === p.connectivity && hit.points === p.points;
+}
+let stamp = new Int32Array(0);
 
 /** The block boxes of piece `p` (see the file comment), computed on the first call for these arrays. */
 export function blockBoxes(p: Piece): Float64Array {
@@ -40,6 +71,20 @@ export function blockBoxes(p: Piece): Float64Array {
   const nc = p.cellTypes.length, nb = Math.ceil(nc / CELL_BLOCK);
   const boxes = new Float64Array(6 * nb);
   const lay = cellLayout(p);
+  const left = pending.get(p.offsets);
+  if (!p.polyFaces && left && left.types === p.cellTypes && left.conn === p.connectivity && left.points === p.points) {
+    pending.delete(p.offsets);
+    const nRuns = left.runs.length / 6;
+    if (stamp.length < nRuns) stamp = new Int32Array(Math.max(nRuns, 2 * stamp.length));
+    stamp.fill(0, 0, nRuns);
+    for (let b = 0; b < nb; b++) {
+      const c0 = b * CELL_BLOCK, c1 = Math.min(nc, c0 + CELL_BLOCK);
+      // without polyhedra a block's nodes are one stretch of the connectivity
+      joinRuns(p.connectivity, p.offsets[c0]!, p.offsets[c1]!, left.shift, b + 1, left.runs, boxes, 6 * b);
+    }
+    cache.set(p.offsets, { types: p.cellTypes, conn: p.connectivity, points: p.points, boxes });
+    return boxes;
+  }
   for (let b = 0; b < nb; b++) {
     const c0 = b * CELL_BLOCK, c1 = Math.min(nc, c0 + CELL_BLOCK);
     if (lay.size > 0) boxOfRun(p.points, p.connectivity, lay.base + lay.size * c0, lay.base + lay.size * c1, boxes, 6 * b);
@@ -47,6 +92,21 @@ export function blockBoxes(p: Piece): Float64Array {
   }
   cache.set(p.offsets, { types: p.cellTypes, conn: p.connectivity, points: p.points, boxes });
   return boxes;
+}
+
+/** Join of the boxes of the point runs (`runs`) that `ids[q0 … q1 − 1]` lie in, each run once (marked with `mark` in `stamp`), into `out[o … o + 5]`. */
+function joinRuns(ids: Int32Array, q0: number, q1: number, shift: number, mark: number, runs: Float64Array, out: Float64Array, o: number): void {
+  let x0 = Infinity, y0 = Infinity, z0 = Infinity, x1 = -Infinity, y1 = -Infinity, z1 = -Infinity;
+  for (let q = q0; q < q1; q++) {
+    const r = ids[q]! >> shift;
+    if (stamp[r] !== mark) {
+      stamp[r] = mark;
+      const k = 6 * r;
+      x0 = Math.min(x0, runs[k]!); y0 = Math.min(y0, runs[k + 1]!); z0 = Math.min(z0, runs[k + 2]!);
+      x1 = Math.max(x1, runs[k + 3]!); y1 = Math.max(y1, runs[k + 4]!); z1 = Math.max(z1, runs[k + 5]!);
+    }
+  }
+  out[o] = x0; out[o + 1] = y0; out[o + 2] = z0; out[o + 3] = x1; out[o + 4] = y1; out[o + 5] = z1;
 }
 
 /** Box of the points `ids[q0 … q1 − 1]` into `out[o … o + 5]`. */

@@ -6,8 +6,9 @@
  *    visits only the boxes the plane touches);
  *  - `scan`: a sign test per cell (side code of each node: below, on or above the plane, OR-ed), over the
  *    blocks of `CELL_BLOCK` consecutive cells whose box the plane may meet (`blockBoxes.ts`). The first scan
- *    of a single-type piece reads every cell and leaves the block boxes behind at little extra cost (boxes of
- *    32-point runs joined per block); a later scan tests the boxes first and reads only the crossed blocks —
+ *    of a piece with no polyhedra reads every cell by side bytes and leaves the boxes of 32-point runs behind
+ *    (made in its point pass); the next scan reads every cell again (`RENTED_SCANS`), the one after joins the
+ *    block boxes from the runs. A scan with block boxes tests them first and reads only the crossed blocks —
  *    by coordinates per node when they are few, by a side byte per point when they hold more node
  *    references than the piece has points. Pool workers compute the boxes of their share as they take it on.
  *    The scan returns exactly the cells the rule selects, in ascending order, whichever way it went.
@@ -27,7 +28,7 @@ import { cellDimension, CellType } from '../model/cellTypes.ts';
 import { cellStarts, type Dataset } from '../model/dataset.ts';
 import { cellsCrossingPlane, getCellTree, hasCellTree } from '../locate/cellTree.ts';
 import { cellLayout } from '../model/uniformCells.ts';
-import { blockBoxes, boxMayCross, CELL_BLOCK, hasBlockBoxes, keepBlockBoxes } from './blockBoxes.ts';
+import { blockBoxes, boxMayCross, CELL_BLOCK, hasBlockBoxes, keepPointRunBoxes, rentFullScan } from './blockBoxes.ts';
 import type { Piece } from '../model/piece.ts';
 
 export type CandidateSource = 'auto' | 'tree' | 'scan';
@@ -74,11 +75,11 @@ function scan(d: Dataset, ox: number, oy: number, oz: number, nx: number, ny: nu
   let nFound = 0;
   for (let k = 0; k < d.pieces.length; k++) {
     const p = d.pieces[k]!, lay = cellLayout(p), nc = p.cellTypes.length, g0 = starts[k]!;
-    if (lay.size > 0 && !hasBlockBoxes(p)) {
-      // First scan of a single-type piece: every cell is read, and the block boxes come out of the same pass.
-      const boxes = new Float64Array(6 * Math.ceil(nc / CELL_BLOCK));
-      nFound = firstScan(p, lay.base, lay.size, ox, oy, oz, nx, ny, nz, tol, g0, nFound, boxes);
-      keepBlockBoxes(p, boxes);
+    const first = !p.polyFaces && !hasBlockBoxes(p);
+    if (first || (!p.polyFaces && rentFullScan(p))) {
+      // A piece with no polyhedra, first scanned (the point pass leaves the boxes the block boxes are joined
+      // from) or scanned whole while those wait (blockBoxes.ts, RENTED_SCANS): every cell is read.
+      nFound = fullScan(p, lay.base, lay.size, ox, oy, oz, nx, ny, nz, tol, g0, nFound, first);
       continue;
     }
     const boxes = blockBoxes(p), pf = p.polyFaces, nb = boxes.length / 6;
@@ -94,7 +95,9 @@ function scan(d: Dataset, ox: number, oy: number, oz: number, nx: number, ny: nu
     for (let i = 0; i < nCross; i++) {
       const c0 = crossing[i]! * CELL_BLOCK, c1 = Math.min(nc, c0 + CELL_BLOCK);
       reserveFound(nFound + CELL_BLOCK);
-      if (bytes) nFound = sideBytesOf(p.connectivity, lay.size, lay.base, c0, c1, side, g0, found, nFound);
+      if (bytes && lay.size === 8) nFound = sideBytesOf8(p.connectivity, lay.base, c0, c1, side, g0, found, nFound);
+      else if (bytes && lay.size === 4) nFound = sideBytesOf4(p.connectivity, lay.base, c0, c1, side, g0, found, nFound);
+      else if (bytes) nFound = sideBytesOf(p.connectivity, lay.size, lay.base, c0, c1, side, g0, found, nFound);
       else if (lay.size === 8) nFound = blockOf8(p.points, p.connectivity, lay.base, c0, c1, ox, oy, oz, nx, ny, nz, tol, g0, found, nFound);
       else if (lay.size === 4) nFound = blockOf4(p.points, p.connectivity, lay.base, c0, c1, ox, oy, oz, nx, ny, nz, tol, g0, found, nFound);
       else {
@@ -135,32 +138,54 @@ function sideBytesOf(conn: Int32Array, size: number, base: number, c0: number, c
   return nFound;
 }
 
-/** Points per point block of the first scan: the blocks whose boxes make up a cell block's box. */
+/** Points per point run of the first scan: the runs whose boxes the block boxes are joined from. */
 const POINT_BLOCK_SHIFT = 5;
 let crossing = new Int32Array(0);
-let side = new Uint8Array(0), pointBox = new Float64Array(0), stamp = new Int32Array(0);
+let side = new Uint8Array(0);
 
 /**
- * The first scan of a single-type piece (`size` nodes a cell), which also leaves the piece's block boxes for
- * later scans at little extra cost. One pass over the points: a side byte per point (1 below, 2 on, 4 above)
- * and the box of each run of 2^POINT_BLOCK_SHIFT consecutive points. Then per block of cells: the OR of
- * its nodes' side bytes per cell (the candidates, exactly as the later scans select them) and, on the first
- * node of each point run the block touches, that run's box joined into the block's box. A block's box then
- * holds every node of its cells (it may be larger than their own box, never smaller), so a later scan that
- * skips it on this box skips no candidate. Writes the boxes into `boxes` (6 numbers a block).
+ * A scan of every cell of a piece with no polyhedra (`size` nodes a cell, 0 for mixed cells). One pass over
+ * the points: a side byte per point (1 below, 2 on, 4 above) and, on the `first` scan, the box of each run of
+ * 2^POINT_BLOCK_SHIFT consecutive points, kept for the piece (`keepPointRunBoxes`: a later scan joins its
+ * block boxes from them, one pass over the connectivity that this first cut does not wait for). Then per cell
+ * the OR of its nodes' side bytes: the candidates, exactly as the scans over block boxes select them.
  */
-function firstScan(p: Piece, base: number, size: number, ox: number, oy: number, oz: number, nx: number, ny: number, nz: number,
-  tol: number, g0: number, nFound: number, boxes: Float64Array): number {
+function fullScan(p: Piece, base: number, size: number, ox: number, oy: number, oz: number, nx: number, ny: number, nz: number,
+  tol: number, g0: number, nFound: number, first: boolean): number {
   const nc = p.cellTypes.length, np = p.points.length / 3, nRuns = (np >> POINT_BLOCK_SHIFT) + 1;
   const lay = cellLayout(p);
   if (side.length < np) side = new Uint8Array(Math.max(np, 2 * side.length));
-  if (pointBox.length < 6 * nRuns) pointBox = new Float64Array(Math.max(6 * nRuns, 2 * pointBox.length));
-  if (stamp.length < nRuns) stamp = new Int32Array(Math.max(nRuns, 2 * stamp.length));
-  stamp.fill(0, 0, nRuns);
-  pointSidesAndRuns(p.points, lay.firstPoint, lay.endPoint, ox, oy, oz, nx, ny, nz, tol, side, pointBox);
-  for (let b = 0, c0 = 0; c0 < nc; b++, c0 += CELL_BLOCK) {
-    reserveFound(nFound + CELL_BLOCK);
-    nFound = sidesAndBox(p.connectivity, size, base, c0, Math.min(nc, c0 + CELL_BLOCK), side, g0, found, nFound, b + 1, stamp, pointBox, boxes, 6 * b);
+  if (first) {
+    const runs = new Float64Array(6 * nRuns);
+    pointSidesAndRuns(p.points, lay.firstPoint, lay.endPoint, ox, oy, oz, nx, ny, nz, tol, side, runs);
+    keepPointRunBoxes(p, runs, POINT_BLOCK_SHIFT);
+  } else {
+    pointSides(p.points, lay.firstPoint, lay.endPoint, ox, oy, oz, nx, ny, nz, tol, side);
+  }
+  // Room for a chunk at a time: every cell's id is written, so room for all of them would be as many fresh
+  // bytes as the piece has cells (40 MB at 10M cells), where the candidates are a small share.
+  for (let c0 = 0; c0 < nc; c0 += SCAN_CHUNK) {
+    const c1 = Math.min(nc, c0 + SCAN_CHUNK);
+    reserveFound(nFound + (c1 - c0));
+    if (size === 8) nFound = sideBytesOf8(p.connectivity, base, c0, c1, side, g0, found, nFound);
+    else if (size === 4) nFound = sideBytesOf4(p.connectivity, base, c0, c1, side, g0, found, nFound);
+    else if (size > 0) nFound = sideBytesOf(p.connectivity, size, base, c0, c1, side, g0, found, nFound);
+    else nFound = sideBytesOfAny(p.cellTypes, p.offsets, p.connectivity, c0, c1, side, g0, found, nFound);
+  }
+  return nFound;
+}
+
+/** Cells a full scan reads between two checks of the room for candidates. */
+const SCAN_CHUNK = 1 << 14;
+
+/** Cells c0 … c1 − 1 of a piece of any cells but polyhedra, by their nodes' side bytes; same test as `blockOfAny`. */
+function sideBytesOfAny(types: Uint8Array, off: Int32Array, conn: Int32Array, c0: number, c1: number, side: Uint8Array, g0: number,
+  out: Int32Array, nFound: number): number {
+  for (let c = c0; c < c1; c++) {
+    let m = 0;
+    for (let q = off[c]!, qe = off[c + 1]!; q < qe; q++) m |= side[conn[q]!]!;
+    out[nFound] = g0 + c;
+    nFound += SOLID[types[c]!]! & (m === 3 || m >= 5 ? 1 : 0);
   }
   return nFound;
 }
@@ -187,30 +212,24 @@ function sidesOfRun(pts: Float64Array, i0: number, i1: number, ox: number, oy: n
   runs[o] = x0; runs[o + 1] = y0; runs[o + 2] = z0; runs[o + 3] = x1; runs[o + 4] = y1; runs[o + 5] = z1;
 }
 
-/**
- * Cells c0 … c1 − 1 of a single-type piece: appends the candidates (as `blockOf8`/`blockOf4` select them)
- * and writes at `boxes[o … o + 5]` the join of the boxes of the point runs their nodes lie in (each run once,
- * marked with `mark` in `stamp`).
- */
-function sidesAndBox(conn: Int32Array, size: number, base: number, c0: number, c1: number, side: Uint8Array, g0: number, out: Int32Array,
-  nFound: number, mark: number, stamp: Int32Array, runs: Float64Array, boxes: Float64Array, o: number): number {
-  let x0 = Infinity, y0 = Infinity, z0 = Infinity, x1 = -Infinity, y1 = -Infinity, z1 = -Infinity;
-  for (let c = c0, q = base + size * c0; c < c1; c++) {
-    let m = 0;
-    for (const qe = q + size; q < qe; q++) {
-      const id = conn[q]!, r = id >> POINT_BLOCK_SHIFT;
-      m |= side[id]!;
-      if (stamp[r] !== mark) {
-        stamp[r] = mark;
-        const k = 6 * r;
-        x0 = Math.min(x0, runs[k]!); y0 = Math.min(y0, runs[k + 1]!); z0 = Math.min(z0, runs[k + 2]!);
-        x1 = Math.max(x1, runs[k + 3]!); y1 = Math.max(y1, runs[k + 4]!); z1 = Math.max(z1, runs[k + 5]!);
-      }
-    }
+/** `sideBytesOf` for hexahedra (8 nodes a cell), unrolled. */
+function sideBytesOf8(conn: Int32Array, base: number, c0: number, c1: number, side: Uint8Array, g0: number, out: Int32Array, nFound: number): number {
+  for (let c = c0, q = base + 8 * c0; c < c1; c++, q += 8) {
+    const m = side[conn[q]!]! | side[conn[q + 1]!]! | side[conn[q + 2]!]! | side[conn[q + 3]!]!
+      | side[conn[q + 4]!]! | side[conn[q + 5]!]! | side[conn[q + 6]!]! | side[conn[q + 7]!]!;
     out[nFound] = g0 + c;
     nFound += m === 3 || m >= 5 ? 1 : 0;
   }
-  boxes[o] = x0; boxes[o + 1] = y0; boxes[o + 2] = z0; boxes[o + 3] = x1; boxes[o + 4] = y1; boxes[o + 5] = z1;
+  return nFound;
+}
+
+/** `sideBytesOf` for tetrahedra (4 nodes a cell), unrolled. */
+function sideBytesOf4(conn: Int32Array, base: number, c0: number, c1: number, side: Uint8Array, g0: number, out: Int32Array, nFound: number): number {
+  for (let c = c0, q = base + 4 * c0; c < c1; c++, q += 4) {
+    const m = side[conn[q]!]! | side[conn[q + 1]!]! | side[conn[q + 2]!]! | side[conn[q + 3]!]!;
+    out[nFound] = g0 + c;
+    nFound += m === 3 || m >= 5 ? 1 : 0;
+  }
   return nFound;
 }
 

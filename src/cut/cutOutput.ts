@@ -36,8 +36,29 @@ export function reserveOutput(verts: number, tris: number): void {
 /** Triangles written so far in this cut. */
 export function triangleTotal(): number { return nT; }
 
-/** Copies of the cut's arrays (see `PlaneCut` for their layout). */
+/** Vertices written so far in this cut. */
+export function vertexTotal(): number { return nV; }
+
+/** Below this many vertices a cut's arrays are copied out of the buffers, which stay for the next cut. */
+const HAND_OVER_MIN = 1 << 15;
+
+/**
+ * The cut's arrays (see `PlaneCut` for their layout). A large cut that fills at least half of the buffers
+ * gets the buffers themselves (views of their used part; the next cut makes new ones): copying them would
+ * write as many fresh bytes again, which on a first cut of millions of cells cost more than the cut itself
+ * (fresh pages are slow to touch on a virtual machine). A small cut gets copies and the buffers stay.
+ */
 export function takeOutput(): { positions: Float64Array; indices: Uint32Array; sourceCell: Int32Array; vertexEdges: Int32Array; vertexT: Float64Array } {
+  if (nV >= HAND_OVER_MIN && 2 * nV >= oT.length && 2 * nT >= oCell.length) {
+    const out = {
+      positions: oPos.subarray(0, 3 * nV), indices: oIdx.subarray(0, 3 * nT), sourceCell: oCell.subarray(0, nT),
+      vertexEdges: oEdge.subarray(0, 2 * nV), vertexT: oT.subarray(0, nV),
+    };
+    oPos = new Float64Array(3 * 4096); oEdge = new Int32Array(2 * 4096); oT = new Float64Array(4096);
+    oIdx = new Uint32Array(3 * 4096); oCell = new Int32Array(4096);
+    nV = 0; nT = 0;
+    return out;
+  }
   return {
     positions: oPos.slice(0, 3 * nV), indices: oIdx.slice(0, 3 * nT), sourceCell: oCell.slice(0, nT),
     vertexEdges: oEdge.slice(0, 2 * nV), vertexT: oT.slice(0, nV),

@@ -34,7 +34,7 @@ import type { Piece } from '../model/piece.ts';
 import { candidateCells, prepareScan, type CandidateSource } from './crossingCells.ts';
 import { interpolateCutFields, type FieldRef } from './cutFields.ts';
 import { claimedFaceKeys, facePositionKey, forEachUnclaimedFace, recordPlaneFace, resetPlaneFaces } from './planeFaces.ts';
-import { resetOutput, takeOutput, triangleTotal, writePolygon } from './cutOutput.ts';
+import { resetOutput, takeOutput, triangleTotal, vertexTotal, writePolygon } from './cutOutput.ts';
 import { cutByTable, setTablePlane, setTablePoints } from './tableCut.ts';
 import { unitVector, type TriangleSet, type Vec3 } from './triangleSet.ts';
 
@@ -60,12 +60,14 @@ export const CUT_DEFAULTS: Readonly<CutOptions> = { fields: 'all', tolerance: 1e
 
 /**
  * In-plane faces of a cut (only with `planeFaceKeys`): the faces this cut added from the cell above
- * (`emitted[i]`, its triangles from `triStart[i]` to `triStart[i + 1]`) and the faces cut by the cell below
+ * (`emitted[i]`, its triangles from `triStart[i]` to `triStart[i + 1]`, its vertices from `vertStart[i]` to
+ * `vertStart[i + 1]`; the cells' triangles and vertices come before the first) and the faces cut by the cell below
  * (`claimed`), as `facePositionKey`s. A face emitted by one cell share and claimed by another is interior.
  */
 export interface PlaneFaceKeys {
   readonly emitted: readonly string[];
   readonly triStart: Int32Array;
+  readonly vertStart: Int32Array;
   readonly claimed: readonly string[];
 }
 
@@ -410,15 +412,15 @@ export function cutPlane(dataset: Dataset, origin: Vec3, normal: Vec3, options: 
     cutCells += runCut; tableCells += runTable;
     i = end;
   }
-  const emitted: string[] = [], triStarts: number[] = [];
+  const emitted: string[] = [], triStarts: number[] = [], vertStarts: number[] = [];
   const boundaryFaces = forEachUnclaimedFace(dataset.pieces, (kk, cell, ids, start, m) => {
     pts = dataset.pieces[kk]!.points; pointBase = pStarts[kk]!;
-    if (opts.planeFaceKeys) { emitted.push(facePositionKey(pts, ids, start, m)); triStarts.push(triangleTotal()); }
+    if (opts.planeFaceKeys) { emitted.push(facePositionKey(pts, ids, start, m)); triStarts.push(triangleTotal()); vertStarts.push(vertexTotal()); }
     if (emitPlaneFace(ids, start, m, cell)) cutCells++;
   });
-  triStarts.push(triangleTotal());
+  triStarts.push(triangleTotal()); vertStarts.push(vertexTotal());
   const planeFaces = opts.planeFaceKeys
-    ? { planeFaces: { emitted, triStart: Int32Array.from(triStarts), claimed: claimedFaceKeys(dataset.pieces) } } : {};
+    ? { planeFaces: { emitted, triStart: Int32Array.from(triStarts), vertStart: Int32Array.from(vertStarts), claimed: claimedFaceKeys(dataset.pieces) } } : {};
   pts = new Float64Array(0);
   setTablePoints(pts);
   const geometry = takeOutput();

@@ -9,7 +9,10 @@
  * writer and reader so its pieces have the same shape as a loaded file's.
  *
  * The app's compute worker runs this once, when it is otherwise idle; the pool's share workers run it as they
- * start (`src/parallel/shareHost.ts`), while the file is still being read. The result is thrown away.
+ * start (`src/parallel/shareHost.ts`), while the file is still being read; the pool's host thread while the
+ * workers take on their shares (it integrates every merged cut); the bench verb while the file loads. It
+ * gives way to other tasks between cuts (each a few ms), so a load it runs beside is held up little. The
+ * result is thrown away.
  */
 import { readDataset } from '../io/readDataset.ts';
 import { writeVtu } from '../io/writeVtu.ts';
@@ -36,6 +39,7 @@ export function warmUpCutKernels(): Promise<void> {
       const origin: [number, number, number] = [0.31 + 0.03 * i, 0.47, 0.2 + 0.13 * i];
       const normal: [number, number, number] = i % 3 === 0 ? [1, 0, 0] : i % 3 === 1 ? [0, 0.2, 1] : [1, 1, 1];
       integratePlane(d, { origin, normal, cut: { candidates: i < 6 ? 'scan' : 'tree' }, integral: { density: 1000 } });
+      await new Promise<void>((resolve) => setTimeout(resolve, 0));
     }
   })();
   return warmed;

@@ -1,97 +1,21 @@
 /**
  * Combining the partial results of the cell shares (`shareTasks.ts`) into exactly what the single-thread
  * kernels give on the whole dataset:
- *  - cut: the shares' triangles are concatenated in share order — cell triangles of every share first, then the
- *    in-plane faces — which is the single-thread order (candidate cells ascending, then in-plane faces by cell).
- *    An in-plane face one share added from the cell above and another share cut from the cell below is an
- *    interior face across the share border: its triangles are dropped. The merged cut is then selected and
- *    integrated once, by the single-thread code, so every integral is the same sum in the same order.
+ *  - cut: merged in place in shared memory by `placeCuts.ts`; the merged cut is then selected and integrated
+ *    once, by the single-thread code, so every integral is the same sum in the same order.
  *  - line: each sample goes to the holder the single-thread tie rule picks (smallest max(violation, 0), then the
  *    lowest global cell id), and takes that share's values.
  *  - boundary: a face met once by each of two shares is interior and cancels (the face table's toggle, over
  *    the shares' faces); the rest keep share order, which is the single-thread (cell, face) order.
  */
-import type { PlaneCut } from '../cut/cutPlane.ts';
-import { unitVector, type SurfaceField, type Vec3 } from '../cut/triangleSet.ts';
+import type { Vec3 } from '../cut/triangleSet.ts';
 import { FACE_TABLE } from '../model/cellTypes.ts';
 import { cellStarts, type Dataset } from '../model/dataset.ts';
 import type { LineProbeResult } from '../locate/lineProbe.ts';
 import type { SampledField } from '../locate/probeFields.ts';
 import type { BoundaryFaces } from '../surface/boundaryFaces.ts';
 import { FaceTable, faceKey } from '../surface/faceTable.ts';
-import type { BoundaryPart, CutPart, LinePart } from './shareTasks.ts';
-
-/** A run of triangles `[t0, t1)` of part `p`. */
-interface Run { p: number; t0: number; t1: number }
-
-/** Merges the shares' cuts (in share order) into one `PlaneCut`; `ms` is the wall time the caller measured. */
-export function mergeCuts(parts: readonly CutPart[], origin: Vec3, normal: Vec3, ms: number): PlaneCut {
-  // In-plane faces claimed (cut from below) by each share.
-  const claimedBy = new Map<string, number>();
-  parts.forEach((c, p) => { for (const k of c.planeFaces.claimed) if (!claimedBy.has(k)) claimedBy.set(k, p); });
-  const cellRuns: Run[] = [], faceRuns: Run[] = [];
-  let dropped = 0, kept = 0;
-  parts.forEach((c, p) => {
-    const pf = c.planeFaces, nt = c.indices.length / 3;
-    const first = pf.emitted.length ? pf.triStart[0]! : nt;
-    cellRuns.push({ p, t0: 0, t1: first });
-    for (let i = 0; i < pf.emitted.length; i++) {
-      const owner = claimedBy.get(pf.emitted[i]!);
-      if (owner !== undefined && owner !== p) { dropped++; continue; }
-      kept++;
-      faceRuns.push({ p, t0: pf.triStart[i]!, t1: pf.triStart[i + 1]! });
-    }
-  });
-  const runs = [...cellRuns, ...faceRuns];
-  // Runs share no vertices (triangles of different cells never do): each run keeps the span of vertices
-  // its triangles use, in their emission order, as the single-thread cut numbers them; spans and triangle
-  // ranges are copied as blocks.
-  let nT = 0, nV = 0;
-  const lo = new Int32Array(runs.length), hi = new Int32Array(runs.length);
-  runs.forEach((r, k) => {
-    const idx = parts[r.p]!.indices;
-    let a = 0x7fffffff, b = -1;
-    for (let i = 3 * r.t0; i < 3 * r.t1; i++) { const v = idx[i]!; if (v < a) a = v; if (v > b) b = v; }
-    lo[k] = a; hi[k] = b;
-    if (b >= a) nV += b - a + 1;
-    nT += r.t1 - r.t0;
-  });
-  const positions = new Float64Array(3 * nV), vertexEdges = new Int32Array(2 * nV), vertexT = new Float64Array(nV);
-  const indices = new Uint32Array(3 * nT), sourceCell = new Int32Array(nT);
-  const template = parts[0]?.fields ?? [];
-  const fields: SurfaceField[] = template.map((f) => ({
-    name: f.name, association: f.association, components: f.components,
-    values: new Float64Array((f.association === 'point' ? nV : nT) * f.components),
-  }));
-  let t = 0, w = 0;
-  runs.forEach((r, k) => {
-    const c = parts[r.p]!, a = lo[k]!, b = hi[k]! + 1, nt = r.t1 - r.t0;
-    if (nt === 0) return;
-    positions.set(c.positions.subarray(3 * a, 3 * b), 3 * w);
-    vertexEdges.set(c.vertexEdges.subarray(2 * a, 2 * b), 2 * w);
-    vertexT.set(c.vertexT.subarray(a, b), w);
-    const shift = w - a;
-    for (let i = 3 * r.t0, o = 3 * t; i < 3 * r.t1; i++, o++) indices[o] = c.indices[i]! + shift;
-    sourceCell.set(c.sourceCell.subarray(r.t0, r.t1), t);
-    for (let j = 0; j < fields.length; j++) {
-      const f = fields[j]!, nc = f.components, src = c.fields[j]!.values;
-      if (f.association === 'point') f.values.set(src.subarray(nc * a, nc * b), nc * w);
-      else f.values.set(src.subarray(nc * r.t0, nc * r.t1), nc * t);
-    }
-    t += nt; w += b - a;
-  });
-  const sum = (g: (c: CutPart) => number) => parts.reduce((s, c) => s + g(c), 0);
-  return {
-    positions, indices, sourceCell, vertexEdges, vertexT, fields,
-    origin: [origin[0], origin[1], origin[2]], normal: unitVector(normal, 'cutPlane: normal'), empty: nT === 0,
-    stats: {
-      candidateCells: sum((c) => c.candidateCells),
-      candidateSource: parts.every((c) => c.candidateSource === 'scan') ? 'scan' : 'tree',
-      cutCells: sum((c) => c.cutCells) - dropped, boundaryFaces: kept, openChains: sum((c) => c.openChains),
-      tolerance: parts[0]?.tolerance ?? 0, ms,
-    },
-  };
-}
+import type { BoundaryPart, LinePart } from './shareTasks.ts';
 
 /**
  * Merges the shares' samples of A→B (evenly spaced, `count` of them) into the result `probeLine` gives:

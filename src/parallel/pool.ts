@@ -17,6 +17,7 @@ import type { CutOptions } from '../cut/cutPlane.ts';
 import { integrateSurface } from '../cut/integrals.ts';
 import type { PlaneQuery, PlaneResult } from '../cut/planeIntegrals.ts';
 import { selectRegion } from '../cut/region.ts';
+import { warmUpCutKernels } from '../cut/warmUp.ts';
 import type { Vec3 } from '../cut/triangleSet.ts';
 import { totalCells, type Dataset } from '../model/dataset.ts';
 import { findField } from '../model/piece.ts';
@@ -25,11 +26,12 @@ import type { BoundaryFaces } from '../surface/boundaryFaces.ts';
 import { primeBoundaryFaces } from '../surface/surfaceCache.ts';
 import type { EvaluateOptions, SetEvaluation } from '../study/evaluate.ts';
 import type { ProbeSet } from '../study/probeSet.ts';
-import { mergeBoundary, mergeCuts, mergeLines } from './mergeParts.ts';
+import { mergeBoundary, mergeLines } from './mergeParts.ts';
+import { cutInPlace } from './placeCuts.ts';
 import { dealProbes, joinEvaluations, subSet } from './probeSetShares.ts';
 import { nodeRanges } from '../derive/rangeGradient.ts';
 import type { ShareMessage, ShareReply, ShareRequest, WorkerMemory } from './shareHost.ts';
-import type { BoundaryPart, CutPart, LinePart } from './shareTasks.ts';
+import type { BoundaryPart, LinePart } from './shareTasks.ts';
 import { splitCells, type CellShare } from './shares.ts';
 
 /** The pool's end of one worker. */
@@ -98,7 +100,8 @@ export class ComputePool {
     for (const p of ports.slice(shares.length)) await p.terminate();
     const lanes = ports.slice(0, shares.length).map((p) => new Lane(p));
     const pool = new ComputePool(dataset, shares, lanes);
-    await Promise.all(lanes.map((l, i) => l.call({ op: 'hold', dataset, share: shares[i]! })));
+    // This thread selects and integrates every merged cut: its kernels warm up while the workers take on their shares.
+    await Promise.all([...lanes.map((l, i) => l.call({ op: 'hold', dataset, share: shares[i]! })), warmUpCutKernels()]);
     return pool;
   }
 
@@ -112,9 +115,7 @@ export class ComputePool {
   /** The cut, as `cutPlane` gives it on the whole dataset (units: the file's). */
   async cutPlane(origin: Vec3, normal: Vec3, options: Partial<CutOptions> = {}) {
     if (!origin.every(Number.isFinite)) throw new Error(`cutPlane: origin must be three finite numbers, got (${origin.join(', ')})`);
-    const t0 = performance.now();
-    const parts = await this.all<CutPart>(() => ({ op: 'cut', origin, normal, options }));
-    return mergeCuts(parts, origin, normal, performance.now() - t0);
+    return cutInPlace((req) => this.all(req), origin, normal, options);
   }
 
   /** Cuts, selects the region and integrates: `integratePlane` (planeIntegrals.ts) with the cut done by the workers. */

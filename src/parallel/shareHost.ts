@@ -4,13 +4,15 @@
  * (workers/shareWorker.node.mjs) and the browser entry (workers/share.worker.ts) hand it their port.
  *
  * Messages: `{ id, op, args }` in, `{ id, ok: true, result }` or `{ id, ok: false, error }` out. Result arrays
- * are fresh and go back by transfer; the shared dataset is never transferred.
+ * are fresh and go back by transfer; the shared dataset is never transferred. A cut is kept here until the
+ * host says where to write it in the merged cut's shared arrays (`placeCuts.ts`).
  */
 import type { Dataset } from '../model/dataset.ts';
-import { boundaryShare, cutShare, lineShare, type LineShareOptions } from './shareTasks.ts';
+import { boundaryShare, cutShare, lineShare, placeCutShare, type LineShareOptions } from './shareTasks.ts';
+import type { CutRequest } from './placeCuts.ts';
 import { gradientShare, type GradientShare } from './deriveShares.ts';
 import { shareDataset, type CellShare } from './shares.ts';
-import { prepareCut, type CutOptions } from '../cut/cutPlane.ts';
+import { prepareCut } from '../cut/cutPlane.ts';
 import { warmUpCutKernels } from '../cut/warmUp.ts';
 import type { Vec3 } from '../cut/triangleSet.ts';
 import { evaluateProbeSet, type EvaluateOptions } from '../study/evaluate.ts';
@@ -19,7 +21,7 @@ import type { ProbeSet } from '../study/probeSet.ts';
 /** The operations a share worker answers, with their arguments. */
 export type ShareRequest =
   | { op: 'hold'; dataset: Dataset; share: CellShare }
-  | { op: 'cut'; origin: Vec3; normal: Vec3; options: Partial<CutOptions> }
+  | CutRequest
   | { op: 'line'; from: Vec3; to: Vec3; options: LineShareOptions }
   | { op: 'boundary'; withMerge: boolean }
   | { op: 'evaluate'; set: ProbeSet; options: Partial<EvaluateOptions> }
@@ -65,7 +67,8 @@ export function serveShares(port: SharePort, memory: () => WorkerMemory | null =
     if (m.op === 'evaluate') { if (!whole) throw new Error('worker pool: no dataset is held by this worker'); return evaluateProbeSet(whole, m.set, m.options); }
     if (m.op === 'gradient') { if (!whole) throw new Error('worker pool: no dataset is held by this worker'); return gradientShare(whole, m); }
     if (!share || !range) throw new Error('worker pool: no dataset is held by this worker');
-    if (m.op === 'cut') return cutShare(share, range, m.origin, m.normal, m.options);
+    if (m.op === 'cut') return cutShare(share, m.key, m.origin, m.normal, m.options);
+    if (m.op === 'place') return placeCutShare(m.key, range, m.runs, m.into);
     if (m.op === 'line') return lineShare(share, range, m.from, m.to, m.options);
     return boundaryShare(share, range, m.withMerge);
   };

@@ -3,10 +3,11 @@
  * on the share dataset, and each result comes back as a partial result that `merge*.ts` combine.
  *
  * Every partial result is made of fresh typed arrays (transferable) and plain numbers; cell ids are already
- * global (share cell + `share.start`).
+ * global (share cell + `share.start`). A cut is the exception: it is counted first and then written by each
+ * share straight into its place in the merged cut's shared arrays (`placeCuts.ts`).
  */
-import { cutPlane, type CutOptions, type PlaneFaceKeys } from '../cut/cutPlane.ts';
-import type { SurfaceField, Vec3 } from '../cut/triangleSet.ts';
+import { cutPlane, type CutOptions, type PlaneCut, type PlaneFaceKeys } from '../cut/cutPlane.ts';
+import type { Vec3 } from '../cut/triangleSet.ts';
 import type { Dataset } from '../model/dataset.ts';
 import { lineLocator, locateLineSamples } from '../locate/lineSamples.ts';
 import { checkTolerance, createLocation, DEFAULT_TOLERANCE } from '../locate/locatePoint.ts';
@@ -15,14 +16,14 @@ import { boundaryFaces } from '../surface/boundaryFaces.ts';
 import type { PointMerge } from '../surface/pointMerge.ts';
 import type { CellShare } from './shares.ts';
 
-/** A share's cut: its triangles (cell triangles first, then in-plane faces), cell ids global. */
-export interface CutPart {
-  positions: Float64Array;
-  indices: Uint32Array;
-  sourceCell: Int32Array;
-  vertexEdges: Int32Array;
-  vertexT: Float64Array;
-  fields: SurfaceField[];
+/**
+ * What a share reports of its cut; its arrays stay in the worker until the host has placed every share's
+ * triangles in the merged cut (`placeCutShare`, src/parallel/placeCuts.ts).
+ */
+export interface CutCounts {
+  vertices: number;
+  triangles: number;
+  fields: { name: string; association: 'point' | 'cell'; components: number }[];
   candidateCells: number;
   candidateSource: 'tree' | 'scan';
   cutCells: number;
@@ -31,17 +32,66 @@ export interface CutPart {
   planeFaces: PlaneFaceKeys;
 }
 
-/** Cuts the share's cells (`cutPlane` with the in-plane face keys kept for the merge). */
-export function cutShare(share: Dataset, range: CellShare, origin: Vec3, normal: Vec3, options: Partial<CutOptions>): CutPart {
+/** The merged cut's arrays (layout of `PlaneCut`), in shared memory; each share writes its runs into them. */
+export interface SharedCutArrays {
+  positions: Float64Array;
+  indices: Uint32Array;
+  sourceCell: Int32Array;
+  vertexEdges: Int32Array;
+  vertexT: Float64Array;
+  /** Values of each field of `CutCounts.fields`, in that order. */
+  fields: Float64Array[];
+}
+
+/** Cuts held until placed, by the host's key (a few at most: a cut whose placement never came is let go). */
+const held = new Map<number, PlaneCut>();
+const HELD_MAX = 4;
+
+/** Cuts the share's cells (`cutPlane` with the in-plane face keys kept for the merge) and keeps the result under `key`. */
+export function cutShare(share: Dataset, key: number, origin: Vec3, normal: Vec3, options: Partial<CutOptions>): CutCounts {
   const c = cutPlane(share, origin, normal, { ...options, planeFaceKeys: true });
-  const sourceCell = c.sourceCell;
-  for (let i = 0; i < sourceCell.length; i++) if (sourceCell[i]! >= 0) sourceCell[i] = sourceCell[i]! + range.start;
+  held.set(key, c);
+  for (const k of held.keys()) if (held.size > HELD_MAX) held.delete(k);
   return {
-    positions: c.positions, indices: c.indices, sourceCell, vertexEdges: c.vertexEdges, vertexT: c.vertexT,
-    fields: c.fields.map((f) => ({ name: f.name, association: f.association, components: f.components, values: f.values })),
+    vertices: c.vertexT.length, triangles: c.sourceCell.length,
+    fields: c.fields.map((f) => ({ name: f.name, association: f.association, components: f.components })),
     candidateCells: c.stats.candidateCells, candidateSource: c.stats.candidateSource, cutCells: c.stats.cutCells,
     openChains: c.stats.openChains, tolerance: c.stats.tolerance, planeFaces: c.planeFaces!,
   };
+}
+
+/**
+ * Writes the runs of the cut held under `key` into the merged arrays and lets it go. `runs` holds 6 numbers a
+ * run: source triangles t0 … t1 − 1 with their vertices v0 … v1 − 1, to triangle `dt` and vertex `dv` of the
+ * merged cut; vertex numbers are moved by dv − v0 and cell ids by the share's first cell. `into` null: only let go.
+ */
+export function placeCutShare(key: number, range: CellShare, runs: Int32Array, into: SharedCutArrays | null): null {
+  const c = held.get(key);
+  held.delete(key);
+  if (!into) return null;
+  if (!c) throw new Error('worker pool: no cut is held for this placement');
+  for (let r = 0; r < runs.length; r += 6) {
+    const t0 = runs[r]!, t1 = runs[r + 1]!, v0 = runs[r + 2]!, v1 = runs[r + 3]!, dt = runs[r + 4]!, dv = runs[r + 5]!;
+    into.positions.set(c.positions.subarray(3 * v0, 3 * v1), 3 * dv);
+    into.vertexEdges.set(c.vertexEdges.subarray(2 * v0, 2 * v1), 2 * dv);
+    into.vertexT.set(c.vertexT.subarray(v0, v1), dv);
+    shiftInto(c.indices, 3 * t0, 3 * t1, dv - v0, into.indices, 3 * dt);
+    cellsInto(c.sourceCell, t0, t1, range.start, into.sourceCell, dt);
+    for (let j = 0; j < into.fields.length; j++) {
+      const f = c.fields[j]!, nc = f.components;
+      if (f.association === 'point') into.fields[j]!.set(f.values.subarray(nc * v0, nc * v1), nc * dv);
+      else into.fields[j]!.set(f.values.subarray(nc * t0, nc * t1), nc * dt);
+    }
+  }
+  return null;
+}
+
+function shiftInto(src: Uint32Array, a: number, b: number, shift: number, out: Uint32Array, o: number): void {
+  for (let i = a; i < b; i++, o++) out[o] = src[i]! + shift;
+}
+
+function cellsInto(src: Int32Array, a: number, b: number, start: number, out: Int32Array, o: number): void {
+  for (let i = a; i < b; i++, o++) { const g = src[i]!; out[o] = g >= 0 ? g + start : g; }
 }
 
 /** Evenly spaced line samples on one share: which share cell holds each sample, how well, and the values there. */

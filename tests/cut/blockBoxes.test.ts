@@ -64,8 +64,8 @@ describe('block boxes', () => {
     for (const p of [hexGrid(7, 6, 9), tetGrid(5, 5, 5), jitteredWedge(6), jitteredPolyhedron(6)]) expectBoxesHoldNodes(p, blockBoxes(p), true);
   });
 
-  it('left by a first scan (joined point runs) hold every node of their block', () => {
-    for (const p of [hexGrid(20, 20, 20), tetGrid(8, 8, 8)]) {
+  it('left by a first scan (joined point runs) hold every node of their block, on fixed-stride and general pieces', () => {
+    for (const p of [hexGrid(20, 20, 20), tetGrid(8, 8, 8), jitteredWedge(6)]) {
       const d = datasetOf([p]);
       candidateCells(d, 0.37, 0.41, 0.53, 0, 0.6, 0.8, 1e-10, 'scan');
       expectBoxesHoldNodes(p, blockBoxes(p), false);

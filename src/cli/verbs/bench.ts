@@ -7,6 +7,7 @@ import { stat } from 'node:fs/promises';
 import { dirname, join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { loadDatasetFile } from '../../io/nodeFiles.ts';
+import { warmUpCutKernels } from '../../cut/warmUp.ts';
 import { checkWorkerCount } from '../../parallel/pool.ts';
 import { poolSize } from '../../parallel/nodePool.ts';
 import { startReadPool } from '../../parallel/readPool.ts';
@@ -59,7 +60,8 @@ const bench: Verb = {
     const readers = threads > 1 ? startReadPool(threads) : undefined;
     let dataset: Dataset, loadMs: number, loadCpu: NodeJS.CpuUsage;
     try {
-      dataset = await loadDatasetFile(file, readers ? { readParts: readers.readParts } : {});
+      // The cut kernels warm up beside the load (counted in it), as the app's and the pool's threads do.
+      [dataset] = await Promise.all([loadDatasetFile(file, readers ? { readParts: readers.readParts } : {}), warmUpCutKernels()]);
       loadMs = performance.now() - t0; loadCpu = process.cpuUsage(c0);
     } finally {
       await readers?.close();
