@@ -125,6 +125,7 @@ export abstract class CompositeTool<T extends CompositeItem> {
   /** Rebuilds the folder: the add button, the item choice, the current item's rows. */
   protected buildPanel(): void {
     for (const c of [...this.folder.controllers]) c.destroy();
+    for (const f of [...this.folder.folders]) f.destroy();
     this.folder.domElement.querySelectorAll('.panel-note').forEach((n) => n.remove());
     this.planeCount = this.planes.list().length;
     this.folder.add({ add: () => this.add() }, 'add').name(`+ new ${this.labelPrefix.toLowerCase()}`);

@@ -14,7 +14,8 @@ import type * as THREE from 'three';
 import { PROBE_SET_FORMAT, PROBE_SET_VERSION, type ForceProbe, type Probe, type ReferenceDoc, type SurfaceRef } from '../study/probeSet.ts';
 import type { ResultNote } from '../ui/notes.ts';
 import { describeSelector, type GroupSelector } from '../surface/groupSelect.ts';
-import { EMPTY_CHOICE, groupsChosen, selectorFromText } from './groupChoice.ts';
+import { groupsChosen } from './groupChoice.ts';
+import { addGroupChoice, emptyChoice } from './groupChoiceFolder.ts';
 import { latestWins } from './latestWins.ts';
 import { outcomeResult } from './outcomeResult.ts';
 import type { ReferenceTool } from './referenceTool.ts';
@@ -43,7 +44,7 @@ export class ForceTool {
   private label = 'Force total';
   private readonly viscous = { method: 'none' as ViscousChoice };
   /** The "by what they are" fields. */
-  private readonly choice = { ...EMPTY_CHOICE };
+  private readonly choice = emptyChoice();
   /** Reference values this force total overrides (from a loaded probe set's `options.reference`). */
   private override: ReferenceDoc | undefined;
   /** The surfaces as a loaded set named them, written back while the selection is still theirs. */
@@ -179,16 +180,8 @@ export class ForceTool {
     this.request.request(p);
   }
 
-  /** Chooses the surfaces the "by what they are" fields describe (replacing the chosen ones); the set keeps the selector. */
-  chooseByTraits(): void {
-    let selector: GroupSelector, ids: number[];
-    try {
-      selector = selectorFromText(this.choice);
-      ids = groupsChosen(this.v.description?.groups ?? [], selector);
-    } catch (e) {
-      this.v.banner.error(`Force total: ${(e as Error).message}`);
-      return;
-    }
+  /** Chooses the surfaces a selector picked (replacing the chosen ones); the set keeps the selector. */
+  private chooseBy(selector: GroupSelector, ids: number[]): void {
     const { id, label, override } = this;
     this.clear();
     this.id = id; this.label = label; this.override = override;
@@ -230,12 +223,8 @@ export class ForceTool {
     methods['velocity gradient with μ (reference)'] = 'gradient';
     methods['none (pressure force only)'] = 'none';
     this.folder.add(this.viscous, 'method', methods).name('viscous part').onChange(() => this.recompute());
-    const by = this.folder.addFolder('choose surfaces by what they are').close();
-    by.add(this.choice, 'name').name('name is');
-    by.add(this.choice, 'box').name('inside box [m]').domElement.title = 'xmin, xmax, ymin, ymax, zmin, zmax: surfaces lying wholly inside';
-    by.add(this.choice, 'areaFrom').name('area from [m²]');
-    by.add(this.choice, 'areaTo').name('area to [m²]');
-    by.add({ choose: () => this.chooseByTraits() }, 'choose').name('choose matching surfaces');
+    addGroupChoice(this.folder, this.choice, 'choose matching surfaces', () => this.v.description?.groups ?? [],
+      (sel, ids) => this.chooseBy(sel, ids), (m) => this.v.banner.error(`Force total: ${m}`));
     const note = document.createElement('div');
     note.className = 'panel-note';
     note.textContent = 'ρ, U, A, L, μ, p_ref, drag and lift directions and the moment point come from Reference conditions.';

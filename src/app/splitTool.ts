@@ -3,13 +3,15 @@
  * each part's flux (outward positive), the net, the imbalance as a share of the inflow, and each outlet's
  * share of the inflow. Evaluated by the study layer's `evaluateBalance` (the `balance` verb's path). Each
  * cut-plane takes part with its normal pointing out of the volume or into it (then reversed for the
- * balance, which wants outward normals); surface groups are oriented out of the fluid already.
+ * balance, which wants outward normals); surface groups are oriented out of the fluid already. Groups are
+ * ticked in a list, or added by what they are (name, box, area: `groupChoiceFolder.ts`), which the set keeps.
  */
 import { describeSelector } from '../surface/groupSelect.ts';
 import type { ProbeOutcome } from '../study/evaluate.ts';
 import type { MassBalanceProbe, Probe, SurfaceRef } from '../study/probeSet.ts';
 import type { ProbeResult } from '../ui/results.ts';
 import { CompositeTool, type CompositeItem } from './compositeTool.ts';
+import { addGroupChoice, emptyChoice } from './groupChoiceFolder.ts';
 import { outcomeResult } from './outcomeResult.ts';
 import { linkFor, refreshLink, reversed, type PlaneLink } from './planeLinks.ts';
 import type { PlaneTool } from './planeTool.ts';
@@ -35,6 +37,9 @@ interface Split extends CompositeItem {
 const MAX_GROUP_ROWS = 12;
 
 export class SplitTool extends CompositeTool<Split> {
+  /** The "by what they are" fields. */
+  private readonly choice = emptyChoice();
+
   constructor(v: Viewer, planes: PlaneTool, refs: ReferenceTool) {
     super(v, planes, refs, 'Flow split / balance', 'split', 'Flow split');
     // the group rows and the parts' names in the result show the groups' labels
@@ -139,6 +144,22 @@ export class SplitTool extends CompositeTool<Split> {
         if (on) x.surfaces.push(ref);
         this.evaluate();
       });
+    }
+    // surfaces added by what they are: unticking one takes it out
+    for (const s of x.surfaces) {
+      if (typeof s !== 'object') continue;
+      this.folder.add({ on: true }, 'on').name(`surfaces ${describeSelector(s)}`).onChange(() => {
+        x.surfaces = x.surfaces.filter((r) => r !== s);
+        this.buildPanel();
+        this.evaluate();
+      });
+    }
+    if (!x.options) {
+      addGroupChoice(this.folder, this.choice, 'add matching surfaces', () => this.v.description?.groups ?? [], (sel) => {
+        if (!x.surfaces.some((r) => JSON.stringify(r) === JSON.stringify(sel))) x.surfaces.push(sel);
+        this.buildPanel();
+        this.evaluate();
+      }, (m) => this.v.banner.error(`Flow split: ${m}`));
     }
     this.folder.add(x, 'label').name('label').onFinishChange(() => { this.buildPanel(); this.evaluate(); });
     this.note(`Fluxes are outward from the volume: inflow negative. Imbalance = net / inflow; an outlet's share = its outflow / the inflow.${own ? ` ${own} plane(s) of the loaded set keep their own position.` : ''}${groups.length > MAX_GROUP_ROWS ? ` Only the first ${MAX_GROUP_ROWS} surface groups are listed.` : ''}`);

@@ -134,6 +134,16 @@ describe('a study in the app', () => {
     const outlet = (await page.locator('.lil-gui', { has: page.locator(':scope > .lil-title', { hasText: 'Flow split / balance' }) })
       .locator('.lil-name', { hasText: /^surface / }).allInnerTexts());
     expect(outlet.length).toBeGreaterThan(1);
+    // the outlet end added by what it is (a box around z = 0.1 m), not by its number: it carries the whole inflow
+    // (conservation of mass, identity; the wall between carries nothing, u = 0 on it)
+    const split = page.locator('.lil-gui', { has: page.locator(':scope > .lil-title', { hasText: 'Flow split / balance' }) });
+    await split.locator('.lil-title', { hasText: /^choose surfaces by what they are$/ }).click();
+    await split.locator('.lil-controller', { has: page.locator('.lil-name', { hasText: /^inside box \[m\]$/ }) }).locator('input').fill('-1, 1, -1, 1, 0.09, 0.11');
+    await split.locator('.lil-name', { hasText: /^add matching surfaces$/ }).click();
+    await waitIdle(page);
+    await page.waitForFunction(() => /^within x -1 … 1, y -1 … 1, z 0\.09 … 0\.11 share of inflow = /.test(document.querySelector('[data-pin="split-1"] [data-quantity="item2.outflowShare"]')?.textContent ?? ''));
+    expect(Math.abs(await pinNumber('split-1', 'item2.outflowShare') - 1)).toBeLessThan(1e-3);
+    expect(await split.locator('.lil-name', { hasText: /^surfaces within x -1 … 1/ }).count()).toBe(1);
     await shot('s03-split');
   });
 
@@ -145,7 +155,7 @@ describe('a study in the app', () => {
     expect(saved.reference).toMatchObject({ preset: 'water-20c', density: 998.207, viscosity: 0.0010016 });
     const loss = saved.probes.find((p) => p.id === 'loss-1')!;
     expect(loss).toMatchObject({ kind: 'pressure-loss', options: { dynamicPressureFrom: 'downstream' }, geometry: { upstream: { origin: [0, 0, 0.03] }, downstream: { origin: [0, 0, 0.09] } } });
-    expect(saved.probes.find((p) => p.id === 'split-1')).toMatchObject({ kind: 'mass-balance', geometry: { planes: [{ origin: [0, 0, 0.03], normal: [0, 0, -1] }] } });
+    expect(saved.probes.find((p) => p.id === 'split-1')).toMatchObject({ kind: 'mass-balance', geometry: { planes: [{ origin: [0, 0, 0.03], normal: [0, 0, -1] }], surfaces: [{ within: [-1, 1, -1, 1, 0.09, 0.11] }] } });
     await page.reload();
     await waitIdle(page, 90_000);
     await openFile(PIPE, 'pipe-medium.vtu');
