@@ -6,7 +6,8 @@
  * - fieldtally's stages (this file with `--child`): load, first cut with integrals, later cut, first
  *   1000-sample line, later line, boundary extraction, pressure force total over the whole boundary — once on
  *   the single-thread core in one process (`core`) and once with a pool of 2 compute workers (`pool2`:
- *   workers started while the file loads, zlib blocks inflated by 2 threads, as the CLI's `--workers 2`);
+ *   workers started while the file loads, zlib blocks inflated by 2 threads, arrays decoded straight into shared
+ *   memory (`sharedArrays`), as the CLI's `--workers 2`);
  *   and 1 worker (`pool1`), for the speed-up from 1 to 2 workers and the memory per worker;
  * - the same stages with VTK (`bench/vtk_stages.py stages`);
  * - whole processes: `fieldtally cut <file> --origin … --normal …` against `vtk_stages.py cut` (read, cut,

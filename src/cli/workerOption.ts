@@ -22,8 +22,9 @@ export const POOL_MIN_FILE_BYTES = 8 * 1024 * 1024;
  * Files of at least this many bytes have their large raw arrays read in parts on threads (src/parallel/readPool.ts),
  * straight into the pool's shared memory. Measured on 2 cores (machine loaded): on the 10M-hexahedron file (1.3 GB)
  * it saves the copy into shared memory — 3.7–4.7 s of CPU and a 1.07 GB peak against 6.9 s and 1.93 GB; on the 1M
- * files (55–114 MB) the copy is small and the read threads, starting beside the compute workers, made the load
- * 0.2–0.6 s slower, so those read on one thread and are copied as before.
+ * files (55–114 MB) the read threads, starting beside the compute workers, made the load 0.2–0.6 s slower, so
+ * those read on one thread — like every file here, straight into shared memory (`sharedArrays`), so the pool
+ * copies nothing.
  */
 export const READ_PARTS_MIN_FILE_BYTES = 256 * 1024 * 1024;
 
