@@ -37,7 +37,9 @@ export function warmUpCutKernels(): Promise<void> {
     const d = await readDataset('warm-up mesh', writeVtu(built, { encoding: 'appended-raw' }));
     for (let i = 0; i < 12; i++) {
       const origin: [number, number, number] = [0.31 + 0.03 * i, 0.47, 0.2 + 0.13 * i];
-      const normal: [number, number, number] = i % 3 === 0 ? [1, 0, 0] : i % 3 === 1 ? [0, 0.2, 1] : [1, 1, 1];
+      // Normals of both signs: on a lattice numbered along +x, +y, +z a positive normal always finds the node
+      // below with the lower id, and the branches for the other order would first run on a real file.
+      const normal: [number, number, number] = i % 4 === 0 ? [1, 0, 0] : i % 4 === 1 ? [0, 0.2, 1] : i % 4 === 2 ? [1, 1, 1] : [-0.4, 1, -0.7];
       integratePlane(d, { origin, normal, cut: { candidates: i < 6 ? 'scan' : 'tree' }, integral: { density: 1000 } });
       await new Promise<void>((resolve) => setTimeout(resolve, 0));
     }
