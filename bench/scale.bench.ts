@@ -13,7 +13,7 @@
  * twice with `--read-threads 2` (`loadInPartsOnTwoThreads`); `freshMemoryTouch` times one thread first touching as many fresh bytes as the
  * decoded arrays, which on a virtual machine is most of a load's cost (see DEVELOPERS.md, "Loading at scale").
  * Goals (issue 12) at 10M: load ≤ 1.5 s, first cut ≤ 0.3 s, peak of loading ≤ 1.3× the decoded arrays, and
- * every stage ≤ 12× its 1M cost (linear growth). Times are wall ms of one run each (`loadCpu`: the load's
+ * every stage ≤ 12× its 1M cost (linear growth). Times are wall ms of one run each (`loadCpu`, `firstCutCpu`:
  * process CPU ms, steadier on a busy machine), and `loadAverage` records how busy the machine was. Alone: `node bin/run-ts.mjs bench/scale.bench.ts` (needs about 4 GB of memory).
  */
 import { execFileSync } from 'node:child_process';
@@ -93,6 +93,7 @@ function measure(file: string): Record<string, unknown> {
       load: num(load, 'load', 'ms'),
       loadCpu: num(load, 'load', 'cpuMs'),
       firstCut: num(all, 'cut', 'firstCut', 'ms'),
+      firstCutCpu: num(all, 'cut', 'firstCut', 'cpuMs'),
       treeBuild: num(all, 'cut', 'treeBuildMs'),
       laterCut: num(all, 'cut', 'laterCuts', 'cutAndIntegralsMs', 'median'),
       firstLine: num(all, 'locate', 'firstLine', 'ms'),

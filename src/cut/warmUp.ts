@@ -16,7 +16,8 @@
  */
 import { readDataset } from '../io/readDataset.ts';
 import { writeVtu } from '../io/writeVtu.ts';
-import { field, datasetOf, hexGrid, pointFieldFrom, tetGrid, withFields } from '../model/meshBuild.ts';
+import { CellType } from '../model/cellTypes.ts';
+import { field, datasetOf, hexGrid, pieceFromCells, pointFieldFrom, tetGrid, withFields } from '../model/meshBuild.ts';
 import type { Piece } from '../model/piece.ts';
 import { integratePlane } from './planeIntegrals.ts';
 
@@ -28,16 +29,27 @@ function withFlow(p: Piece): Piece {
   ], [field('group', 'cell', 1, new Int32Array(cells).fill(1))]);
 }
 
+/** Tetrahedra followed by triangles on some of their faces, as files store boundary faces with the volume (the scans' general loops). */
+function tetsWithFaces(): Piece {
+  const t = tetGrid(4, 4, 4, (u, v, w) => [u, v, 2 + w]);
+  const nt = t.cellTypes.length, types: number[] = [], nodes: number[][] = [];
+  for (let c = 0; c < nt; c++) { types.push(CellType.TETRA); nodes.push(Array.from(t.connectivity.subarray(4 * c, 4 * c + 4))); }
+  for (let c = 0; c < nt; c += 3) { types.push(CellType.TRIANGLE); nodes.push(Array.from(t.connectivity.subarray(4 * c, 4 * c + 3))); }
+  return pieceFromCells(t.points, { types, nodes });
+}
+
 let warmed: Promise<void> | undefined;
 
 /** Cuts and integrates a small mesh twelve times; resolves when done. Runs once per thread (later calls share it). */
 export function warmUpCutKernels(): Promise<void> {
   warmed ??= (async () => {
-    const built = datasetOf([withFlow(hexGrid(10, 10, 10)), withFlow(tetGrid(5, 5, 5, (u, v, w) => [u, v, 1 + w]))], 'warm-up mesh');
+    const built = datasetOf([withFlow(hexGrid(10, 10, 10)), withFlow(tetGrid(5, 5, 5, (u, v, w) => [u, v, 1 + w])), withFlow(tetsWithFaces())], 'warm-up mesh');
     const d = await readDataset('warm-up mesh', writeVtu(built, { encoding: 'appended-raw' }));
     for (let i = 0; i < 12; i++) {
-      const origin: [number, number, number] = [0.31 + 0.03 * i, 0.47, 0.2 + 0.13 * i];
-      const normal: [number, number, number] = i % 3 === 0 ? [1, 0, 0] : i % 3 === 1 ? [0, 0.2, 1] : [1, 1, 1];
+      const origin: [number, number, number] = [0.31 + 0.03 * i, 0.47, 0.2 + 0.23 * i];
+      // Normals of both signs: on a lattice numbered along +x, +y, +z a positive normal always finds the node
+      // below with the lower id, and the branches for the other order would first run on a real file.
+      const normal: [number, number, number] = i % 4 === 0 ? [1, 0, 0] : i % 4 === 1 ? [0, 0.2, 1] : i % 4 === 2 ? [1, 1, 1] : [-0.4, 1, -0.7];
       integratePlane(d, { origin, normal, cut: { candidates: i < 6 ? 'scan' : 'tree' }, integral: { density: 1000 } });
       await new Promise<void>((resolve) => setTimeout(resolve, 0));
     }

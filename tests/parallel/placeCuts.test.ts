@@ -84,6 +84,13 @@ for (const workers of [1, 2]) {
       both.forEach((c, i) => expectSameCut(c, cutPlane(d, ...PLANES[i]!)));
     });
 
+    it('gives an empty cut for a plane that misses the mesh', async () => {
+      const c = await pool.cutPlane([0.5, 0.5, 3], [0, 0, 1]);
+      expect(c.empty).toBe(true);
+      expect(c.indices.length).toBe(0);
+      expectSameCut(c, cutPlane(d, [0.5, 0.5, 3], [0, 0, 1]));
+    });
+
     it('reports a failed cut with the worker\'s message, and cuts again after it', async () => {
       await expect(pool.cutPlane([0.5, 0.5, 0.5], [0, 0, 0])).rejects.toThrow(/cutPlane: normal/);
       expectSameCut(await pool.cutPlane(...PLANES[1]!), cutPlane(d, ...PLANES[1]!));
