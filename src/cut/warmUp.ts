@@ -23,9 +23,11 @@ import { integratePlane } from './planeIntegrals.ts';
 
 function withFlow(p: Piece): Piece {
   const cells = p.cellTypes.length;
+  const p64 = pointFieldFrom(p, 'p', 1, (x, y, z, o) => { o[0] = 100 * (1 - z) + x * y; });
+  // Files store fields as Float32 or Float64: the interpolation meets both kinds here, not first on a real file.
   return withFields(p, [
     pointFieldFrom(p, 'velocity', 3, (x, y, z, o) => { o[0] = 0.1 * y; o[1] = -0.1 * x; o[2] = 1 + x * (1 - x) + 0.01 * z; }),
-    pointFieldFrom(p, 'p', 1, (x, y, z, o) => { o[0] = 100 * (1 - z) + x * y; }),
+    p64, field('p32', 'point', 1, Float32Array.from(p64.values)),
   ], [field('group', 'cell', 1, new Int32Array(cells).fill(1))]);
 }
 
