@@ -10,9 +10,9 @@
  *
  * The app's compute worker runs this once, when it is otherwise idle; the pool's share workers run it as they
  * start (`src/parallel/shareHost.ts`), while the file is still being read; the pool's host thread while the
- * workers take on their shares (it integrates every merged cut); the bench verb while the file loads. It
- * gives way to other tasks between cuts (each a few ms), so a load it runs beside is held up little. The
- * result is thrown away.
+ * workers take on their shares (it integrates every merged cut); the bench verb before it loads the file
+ * (reported apart). It gives way to other tasks between cuts (each a few ms), so work it runs beside is held up
+ * little. The result is thrown away.
  */
 import { readDataset } from '../io/readDataset.ts';
 import { writeVtu } from '../io/writeVtu.ts';
