@@ -9,6 +9,7 @@ import type { Vec3 } from '../../cut/triangleSet.ts';
 import { getCellTree } from '../../locate/cellTree.ts';
 import { datasetBounds } from '../../model/bounds.ts';
 import type { Dataset } from '../../model/dataset.ts';
+import type { ComputePool } from '../../parallel/pool.ts';
 import type { BenchStage } from './stage.ts';
 
 /**
@@ -88,9 +89,49 @@ export async function benchCuts(d: Dataset): Promise<Record<string, unknown>> {
   };
 }
 
+/**
+ * The cut benchmark on the worker pool: the same planes, each worker cutting its share of the cells and the
+ * merged cut integrated on this thread (ComputePool.integratePlane). The first cut scans the cells; the first
+ * tree cut includes every worker building the cell tree of its share (`treeBuildAndCutMs`), there being no
+ * separate build step on the pool.
+ */
+export async function benchPoolCuts(pool: ComputePool): Promise<Record<string, unknown>> {
+  const d = pool.dataset, planes = benchPlanes(d);
+  datasetScale(d);
+  let t = performance.now();
+  const c0 = process.cpuUsage();
+  const first = await pool.integratePlane({ ...planes[0]!, cut: { candidates: 'scan' } });
+  const firstMs = performance.now() - t, cpu = process.cpuUsage(c0);
+  const firstCut = {
+    ms: r2(firstMs), cpuMs: r2((cpu.user + cpu.system) / 1000), cutOnlyMs: r2(first.cut.stats.ms), source: 'scan',
+    triangles: first.cut.indices.length / 3, candidates: first.cut.stats.candidateCells, workers: pool.size,
+  };
+  t = performance.now();
+  await pool.integratePlane({ ...planes[0]!, cut: { candidates: 'tree' } });
+  const treeMs = performance.now() - t;
+  const cutMs: number[] = [], totalMs: number[] = [], tris: number[] = [], cells: number[] = [];
+  for (let pass = 0; pass < 2; pass++) {
+    for (const p of planes) {
+      t = performance.now();
+      const r = await pool.integratePlane({ ...p, cut: { candidates: 'tree' } });
+      const ms = performance.now() - t;
+      if (pass === 0) continue; // warm-up pass, as on one thread
+      totalMs.push(ms); cutMs.push(r.cut.stats.ms);
+      tris.push(r.cut.indices.length / 3); cells.push(r.cut.stats.cutCells);
+    }
+  }
+  return {
+    planes: planes.length, workers: pool.size,
+    fields: first.cut.fields.map((f) => `${f.name} (${f.association})`), firstCut,
+    treeBuildAndCutMs: r2(treeMs),
+    laterCuts: { cutAndIntegralsMs: stats(totalMs), cutOnlyMs: stats(cutMs), source: 'tree', triangles: stats(tris), cellsCut: stats(cells) },
+  };
+}
+
 const stage: BenchStage = {
   name: 'cut',
   order: 30,
   run: (d) => benchCuts(d),
+  runOnPool: (pool) => benchPoolCuts(pool),
 };
 export default stage;

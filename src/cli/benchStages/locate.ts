@@ -11,6 +11,7 @@ import { createLocation, locatePoint } from '../../locate/locatePoint.ts';
 import { datasetBounds } from '../../model/bounds.ts';
 import { cellDimension } from '../../model/cellTypes.ts';
 import type { Dataset } from '../../model/dataset.ts';
+import type { ComputePool } from '../../parallel/pool.ts';
 import type { BenchStage } from './stage.ts';
 import { seededRandom as seeded } from '../../model/seededRandom.ts';
 
@@ -84,9 +85,41 @@ export async function benchLocate(d: Dataset, options: Partial<LocateBenchOption
   };
 }
 
+/**
+ * The line figures on the worker pool (`ComputePool.probeLine`: each worker locating every sample in its share,
+ * over its share's cell tree — built by an earlier cut stage, else by this first line): the same first line
+ * and seeded random lines as `benchLocate`. Tree and raw point-location figures have no pool form and are left out.
+ */
+export async function benchPoolLocate(pool: ComputePool, options: Partial<LocateBenchOptions> = {}): Promise<Record<string, unknown>> {
+  const o: LocateBenchOptions = { samples: 1000, lines: 20, points: 100_000, ...options };
+  const d = pool.dataset;
+  if (!d.pieces.some((p) => p.cellTypes.some((t) => cellDimension(t) === 3))) return { skipped: 'no volume cells: point location is defined only inside 3D cells' };
+  const b = datasetBounds(d);
+  const at = (fx: number, fy: number, fz: number): Vec3 => [b[0] + fx * (b[1] - b[0]), b[2] + fy * (b[3] - b[2]), b[4] + fz * (b[5] - b[4])];
+  let t = performance.now();
+  const first = await pool.probeLine(at(0.02, 0.03, 0.01), at(0.97, 0.98, 0.99), { samples: o.samples });
+  const firstLineMs = performance.now() - t;
+  const rnd = seeded(7);
+  const lineMs: number[] = [];
+  let valid = 0, total = 0;
+  for (let i = 0; i < o.lines; i++) {
+    const a = at(rnd(), rnd(), rnd()), c = at(rnd(), rnd(), rnd());
+    t = performance.now();
+    const r = await pool.probeLine(a, c, { samples: o.samples });
+    lineMs.push(performance.now() - t);
+    valid += r.validCount; total += o.samples;
+  }
+  return {
+    fields: first.fields.map((f) => `${f.name} (${f.association})`), workers: pool.size,
+    firstLine: { ms: r2(firstLineMs), samples: o.samples, valid: first.validCount, note: 'on the pool: each worker over its share (its share tree, if a cut built it)' },
+    laterLines: { ms: stats(lineMs), lines: o.lines, samples: o.samples, validFraction: r2(valid / Math.max(1, total)) },
+  };
+}
+
 const stage: BenchStage = {
   name: 'locate',
   order: 40,
   run: (d) => benchLocate(d),
+  runOnPool: (pool) => benchPoolLocate(pool),
 };
 export default stage;

@@ -5,7 +5,8 @@
  * velocity gradient when it has a velocity array.
  */
 import type { Dataset } from '../../model/dataset.ts';
-import { boundaryFaces } from '../../surface/boundaryFaces.ts';
+import type { ComputePool } from '../../parallel/pool.ts';
+import { boundaryFaces, type BoundaryFaces } from '../../surface/boundaryFaces.ts';
 import { forceTotals } from '../../surface/forces.ts';
 import { surfaceGroups } from '../../surface/surfaceGroups.ts';
 import { surfaceLoads } from '../../surface/surfaceLoads.ts';
@@ -34,14 +35,32 @@ export async function benchSurface(d: Dataset, repeats = 2): Promise<Record<stri
     faces = boundaryFaces(d);
     again.push(performance.now() - t);
   }
-  t = performance.now();
-  const groups = surfaceGroups(d, faces);
-  const groupMs = performance.now() - t;
-  const out: Record<string, unknown> = {
+  return groupsAndForce(d, faces, {
     boundaryFaces: faces.count, cells3d: faces.cells3d, pointMatching: faces.merge.method, boundaryBytes: heldBytes(faces),
     extraction: { firstMs: r2(firstMs), bestMs: r2(Math.min(firstMs, ...again)), runs: 1 + repeats },
-    grouping: { ms: r2(groupMs), groups: groups.groups.length, source: groups.groupArray ? `cell array "${groups.groupArray}"` : `feature angle ${groups.featureAngle}°` },
-  };
+  });
+}
+
+/**
+ * The surface benchmark with the boundary extracted by the worker pool (`ComputePool.boundary`: each worker its
+ * share's faces, merged here; once — the pool keeps it), then grouping and force totals on this thread as above.
+ */
+export async function benchPoolSurface(pool: ComputePool): Promise<Record<string, unknown>> {
+  const t = performance.now();
+  const faces = await pool.boundary();
+  const firstMs = performance.now() - t;
+  return groupsAndForce(pool.dataset, faces, {
+    boundaryFaces: faces.count, cells3d: faces.cells3d, pointMatching: faces.merge.method, boundaryBytes: heldBytes(faces),
+    extraction: { firstMs: r2(firstMs), bestMs: r2(firstMs), runs: 1, workers: pool.size },
+  });
+}
+
+/** Grouping and the force totals over every boundary face, added to `out`. */
+function groupsAndForce(d: Dataset, faces: BoundaryFaces, out: Record<string, unknown>): Record<string, unknown> {
+  let t = performance.now();
+  const groups = surfaceGroups(d, faces);
+  const groupMs = performance.now() - t;
+  out.grouping = { ms: r2(groupMs), groups: groups.groups.length, source: groups.groupArray ? `cell array "${groups.groupArray}"` : `feature angle ${groups.featureAngle}°` };
   const all = Int32Array.from({ length: faces.count }, (_, i) => i);
   const pressureName = d.pieces[0]?.pointData.find((f) => /^(p|pressure)$/i.test(f.name) && f.components === 1)?.name;
   if (!pressureName || faces.count === 0) {
@@ -75,5 +94,6 @@ const stage: BenchStage = {
   name: 'surface',
   order: 40,
   run: (d) => benchSurface(d),
+  runOnPool: (pool) => benchPoolSurface(pool),
 };
 export default stage;

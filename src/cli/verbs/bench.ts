@@ -9,7 +9,8 @@ import { fileURLToPath } from 'node:url';
 import { loadDatasetFile } from '../../io/nodeFiles.ts';
 import { warmUpCutKernels } from '../../cut/warmUp.ts';
 import { checkWorkerCount } from '../../parallel/pool.ts';
-import { poolSize } from '../../parallel/nodePool.ts';
+import { openNodePool, poolSize, startNodeWorkers } from '../../parallel/nodePool.ts';
+import type { ComputePool } from '../../parallel/pool.ts';
 import { startReadPool } from '../../parallel/readPool.ts';
 import { totalCells, totalPoints, type Dataset } from '../../model/dataset.ts';
 import { parseArgs, str } from '../args.ts';
@@ -42,15 +43,20 @@ export function decodedBytes(d: Dataset): number {
 
 const bench: Verb = {
   summary: 'time each stage of the tool on a file and report peak memory (JSON)',
-  usage: 'fieldtally bench <file> [--json] [--stages load,cut,…] [--read-threads N]\n  Times load and every compute stage; prints JSON (always) with times in ms, sizes in bytes, rates in MB/s (10^6 bytes).\n'
-    + '  --read-threads N      threads reading the large raw arrays of the file in parts, as the --workers verbs load it (default: FIELDTALLY_WORKERS, else one per core, for files of 256 MiB or more; else 1: read on this thread)',
-  options: { json: 'boolean', stages: 'string', 'read-threads': 'string' },
+  usage: 'fieldtally bench <file> [--json] [--stages load,cut,…] [--read-threads N] [--workers N]\n  Times load and every compute stage; prints JSON (always) with times in ms, sizes in bytes, rates in MB/s (10^6 bytes).\n'
+    + '  --read-threads N      threads reading the large raw arrays of the file in parts, as the --workers verbs load it (default: FIELDTALLY_WORKERS, else one per core, for files of 256 MiB or more; else 1: read on this thread)\n'
+    + '  --workers N           run the cut, line and boundary stages on N compute workers sharing the cells, as the cut/line/force verbs\' --workers; '
+    + 'starting them and handing them the loaded file is timed as its own stage, poolSetup (default: 1, every stage on this thread)',
+  options: { json: 'boolean', stages: 'string', 'read-threads': 'string', workers: 'string' },
   async run(argv, io) {
     const args = parseArgs(argv, this.options, 'bench');
     const file = args.positional[0];
     if (!file || args.positional.length > 1) throw new Error('expected one result file: fieldtally bench <file> [--json]');
     const only = str(args, 'stages')?.split(',').map((s) => s.trim());
     const fileBytes = (await stat(file)).size;
+    const askedWorkers = str(args, 'workers');
+    // Checked as the other verbs' --workers; unlike them the bench stays on one thread unless asked, so its figures keep their meaning.
+    const workers = askedWorkers === undefined ? 1 : poolSize(askedWorkers);
     const asked = str(args, 'read-threads');
     // As loadForCompute: parts for large files only (DEVELOPERS.md, "Loading at scale").
     const threads = asked !== undefined ? checkWorkerCount(asked, '--read-threads') : fileBytes >= READ_PARTS_MIN_FILE_BYTES ? poolSize() : 1;
@@ -65,7 +71,8 @@ const bench: Verb = {
     const readers = threads > 1 ? startReadPool(threads) : undefined;
     let dataset: Dataset, loadMs: number, loadCpu: NodeJS.CpuUsage;
     try {
-      dataset = await loadDatasetFile(file, readers ? { readParts: readers.readParts } : {});
+      // For a pool, every array is decoded straight into shared memory (as loadForCompute), so the pool copies nothing.
+      dataset = await loadDatasetFile(file, { ...(readers ? { readParts: readers.readParts } : {}), ...(workers > 1 ? { sharedArrays: true } : {}) });
       loadMs = performance.now() - t0; loadCpu = process.cpuUsage(c0);
     } finally {
       await readers?.close();
@@ -80,9 +87,24 @@ const bench: Verb = {
         partsReadOnLoadingThread: readers?.done.partsHere ?? 0, partsRead: readers?.done.parts ?? 0,
       },
     };
-    for (const s of await stages()) {
-      if (only && !only.includes(s.name)) continue;
-      out[s.name] = await s.run(dataset);
+    let pool: ComputePool | null = null;
+    try {
+      if (workers > 1) {
+        // Starting the workers and handing them the shared dataset: its own stage, after the load (the verbs start
+        // the workers while the file loads; here the cost is shown apart, never hidden in another stage).
+        const p0 = process.cpuUsage(), pt = performance.now();
+        pool = await openNodePool(dataset, workers, startNodeWorkers(workers));
+        const pCpu = process.cpuUsage(p0);
+        out.poolSetup = { ms: round(performance.now() - pt), cpuMs: round((pCpu.user + pCpu.system) / 1000), workers: pool.size };
+      }
+      for (const s of await stages()) {
+        if (only && !only.includes(s.name)) continue;
+        if (!pool) out[s.name] = await s.run(dataset);
+        else if (s.runOnPool) out[s.name] = await s.runOnPool(pool);
+        else out[s.name] = { ...(await s.run(pool.dataset)), onThisThread: 'this stage has no pool form: run on this thread' };
+      }
+    } finally {
+      await pool?.close();
     }
     const peak = process.resourceUsage().maxRSS * 1024;
     out.memory = {
