@@ -6,7 +6,7 @@
  * sampled. Skipped (with a note) for datasets without volume cells.
  */
 import { buildCellTree, hasCellTree } from '../../locate/cellTree.ts';
-import { probeLine, type Vec3 } from '../../locate/lineProbe.ts';
+import { probeLine, type LineProbeResult, type Vec3 } from '../../locate/lineProbe.ts';
 import { createLocation, locatePoint } from '../../locate/locatePoint.ts';
 import { datasetBounds } from '../../model/bounds.ts';
 import { cellDimension } from '../../model/cellTypes.ts';
@@ -31,6 +31,21 @@ export interface LocateBenchOptions {
   points: number;
 }
 
+/** `o.lines` lines between random points of the bounds (`rnd`: the seeded generator; `at`: fractions → point), each timed (ms). */
+async function randomLines(rnd: () => number, at: (fx: number, fy: number, fz: number) => Vec3, o: LocateBenchOptions,
+  probe: (a: Vec3, c: Vec3) => LineProbeResult | Promise<LineProbeResult>): Promise<{ lineMs: number[]; valid: number; total: number }> {
+  const lineMs: number[] = [];
+  let valid = 0, total = 0;
+  for (let i = 0; i < o.lines; i++) {
+    const a = at(rnd(), rnd(), rnd()), c = at(rnd(), rnd(), rnd());
+    const t = performance.now();
+    const r = await probe(a, c);
+    lineMs.push(performance.now() - t);
+    valid += r.validCount; total += o.samples;
+  }
+  return { lineMs, valid, total };
+}
+
 /** Runs the locate benchmark on a dataset; the tree is built fresh (not taken from the cache). */
 export async function benchLocate(d: Dataset, options: Partial<LocateBenchOptions> = {}): Promise<Record<string, unknown>> {
   const o: LocateBenchOptions = { samples: 1000, lines: 20, points: 100_000, ...options };
@@ -47,15 +62,7 @@ export async function benchLocate(d: Dataset, options: Partial<LocateBenchOption
 
   const tree = buildCellTree(d);
   const rnd = seeded(7);
-  const lineMs: number[] = [];
-  let valid = 0, total = 0;
-  for (let i = 0; i < o.lines; i++) {
-    const a = at(rnd(), rnd(), rnd()), c = at(rnd(), rnd(), rnd());
-    t = performance.now();
-    const r = probeLine(fresh, a, c, { samples: o.samples });
-    lineMs.push(performance.now() - t);
-    valid += r.validCount; total += o.samples;
-  }
+  const { lineMs, valid, total } = await randomLines(rnd, at, o, (a, c) => probeLine(fresh, a, c, { samples: o.samples }));
   t = performance.now();
   const cross = probeLine(fresh, at(0.02, 0.03, 0.01), at(0.97, 0.98, 0.99), { mode: 'crossings' });
   const crossingsMs = performance.now() - t;
@@ -96,19 +103,10 @@ export async function benchPoolLocate(pool: ComputePool, options: Partial<Locate
   if (!d.pieces.some((p) => p.cellTypes.some((t) => cellDimension(t) === 3))) return { skipped: 'no volume cells: point location is defined only inside 3D cells' };
   const b = datasetBounds(d);
   const at = (fx: number, fy: number, fz: number): Vec3 => [b[0] + fx * (b[1] - b[0]), b[2] + fy * (b[3] - b[2]), b[4] + fz * (b[5] - b[4])];
-  let t = performance.now();
+  const t = performance.now();
   const first = await pool.probeLine(at(0.02, 0.03, 0.01), at(0.97, 0.98, 0.99), { samples: o.samples });
   const firstLineMs = performance.now() - t;
-  const rnd = seeded(7);
-  const lineMs: number[] = [];
-  let valid = 0, total = 0;
-  for (let i = 0; i < o.lines; i++) {
-    const a = at(rnd(), rnd(), rnd()), c = at(rnd(), rnd(), rnd());
-    t = performance.now();
-    const r = await pool.probeLine(a, c, { samples: o.samples });
-    lineMs.push(performance.now() - t);
-    valid += r.validCount; total += o.samples;
-  }
+  const { lineMs, valid, total } = await randomLines(seeded(7), at, o, (a, c) => pool.probeLine(a, c, { samples: o.samples }));
   return {
     fields: first.fields.map((f) => `${f.name} (${f.association})`), workers: pool.size,
     firstLine: { ms: r2(firstLineMs), samples: o.samples, valid: first.validCount, note: 'on the pool: each worker over its share (its share tree, if a cut built it)' },
