@@ -42,6 +42,7 @@ import type { ComputePool } from '../src/parallel/pool.ts';
 import { forceTotals } from '../src/surface/forces.ts';
 import { getBoundaryFaces } from '../src/surface/surfaceCache.ts';
 import { surfaceLoads } from '../src/surface/surfaceLoads.ts';
+import { warmUpSurfaceKernels } from '../src/surface/warmUp.ts';
 
 const ROOT = resolve(dirname(fileURLToPath(import.meta.url)), '..');
 const PYTHON = '/usr/bin/python3';
@@ -97,7 +98,7 @@ async function childStages(file: string, workers: number): Promise<Record<string
   let d: Dataset;
   if (workers === 0) {
     // The kernels warm up beside the load (counted in it), as the bench verb, the app's worker and the pool's threads do.
-    [d, out.load] = await timed(async () => (await Promise.all([loadDatasetFile(file), warmUpCutKernels()]))[0]);
+    [d, out.load] = await timed(async () => (await Promise.all([loadDatasetFile(file), warmUpCutKernels(), warmUpSurfaceKernels()]))[0]);
   } else {
     const c0 = process.cpuUsage(), t0 = performance.now();
     const ports = startNodeWorkers(workers);
