@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { join } from 'node:path';
 import { loadDatasetFile } from '../../src/io/nodeFiles.ts';
+import { toSharedDataset } from '../../src/parallel/sharedDataset.ts';
 import type { Dataset } from '../../src/model/dataset.ts';
 import { forceTotals, type ForceResult } from '../../src/surface/forces.ts';
 import { getBoundaryFaces } from '../../src/surface/surfaceCache.ts';
@@ -42,10 +43,16 @@ describe('warming the surface kernels', () => {
     const a = warmUpSurfaceKernels(), b = warmUpSurfaceKernels();
     expect(a).toBe(b);
     await a;
+    // the pool's host warms on shared-memory copies too (a warm-up of its own)
+    const shared = warmUpSurfaceKernels(toSharedDataset);
+    expect(shared).not.toBe(a);
+    expect(warmUpSurfaceKernels(toSharedDataset)).toBe(shared);
+    await shared;
     const again = await Promise.all(files.map(([f]) => loadDatasetFile(join(FIELDS, f))));
     for (let i = 0; i < files.length; i++) {
       expect(totals(loaded[i]!, files[i]![1])).toEqual(before[i]);
       expect(totals(again[i]!, files[i]![1])).toEqual(before[i]);
+      expect(totals(toSharedDataset(again[i]!), files[i]![1])).toEqual(before[i]);
     }
     // The totals are real ones: the sphere's wetted area is positive.
     const sphere = totals(loaded[0]!, [{ pressure: 'p', viscous: 'none' }])[0]!;
