@@ -11,7 +11,7 @@
  * - a hexahedral lattice (quadrilateral faces: the general loop of `forces.ts`), a lattice of tetrahedra with
  *   triangles on some of their faces (the 2D cells boundary extraction skips; the triangle loop of
  *   `pressureForceLoop.ts`), and both in one piece (a surface of triangles and quadrilaterals). Datasets of
- *   several pieces (points matched between pieces) are left cold: warming the matching cost about 45 ms of CPU;
+ *   several pieces (points matched between pieces) are left cold;
  * - point pressure stored as Float32 (as the benchmark files store it) and as Float64 (the sample fields), and cell
  *   pressure;
  * - with no viscous part and with a wall-shear array (the traction lines of the general loop); with and
