@@ -23,7 +23,12 @@ interface GeometryEntry {
   offsets: Int32Array;
   point?: Sites;
   cell?: Sites;
+  /** The rows `pointGradientAt` built for its last node list (a wall asked again, or at the next step). */
+  around?: { nodes: Int32Array; stencil: Stencil };
 }
+
+/** Rows built for a node list are kept with the mesh when their ids and offsets number at most this (4 bytes each). */
+const KEPT_AROUND_ENTRIES = 8 * 1024 * 1024;
 
 /** Entries by connectivity array (several when meshes share it but differ in points or offsets). */
 const byConnectivity = new WeakMap<Int32Array, GeometryEntry[]>();
@@ -61,7 +66,8 @@ export function fieldGradient(p: Piece, f: FieldArray): Float64Array {
 /**
  * Gradient of a point field at chosen nodes only (`nodes` local to `p`), same layout per node: the direct fit
  * over the mesh's cached stencil, or — on a mesh whose stencil is not built — over the rows of those nodes
- * and their neighbours only (`pointStencilAround`, the same rows, so the same values); or the values primed
+ * and their neighbours only (`pointStencilAround`, the same rows, so the same values; kept with the mesh for
+ * the same node list next time, when not larger than KEPT_AROUND_ENTRIES); or the values primed
  * for those nodes by `primeGradientAt`. A wall fitted at every step of a series keeps its fit as a linear operator
  * instead (src/surface/wallGradientCache.ts).
  */
@@ -71,8 +77,15 @@ export function pointGradientAt(p: Piece, f: FieldArray, nodes: Int32Array): Flo
   const out = new Float64Array(3 * f.components * nodes.length);
   // a mesh without cached rows: only the chosen nodes' rows and their neighbours' (the same rows); no
   // whole-mesh structure is built for a wall request
-  const cached = geometryOf(p).point;
-  const stencil = cached ? cached.stencil : pointStencilAround(p, nodes);
+  const e = geometryOf(p);
+  let stencil = e.point?.stencil;
+  if (!stencil) {
+    if (e.around && sameNodes(e.around.nodes, nodes)) stencil = e.around.stencil;
+    else {
+      stencil = pointStencilAround(p, nodes);
+      e.around = stencil.ids.length + stencil.offsets.length <= KEPT_AROUND_ENTRIES ? { nodes: nodes.slice(), stencil } : undefined;
+    }
+  }
   gradientInto(out, 0, p.points, f.values, f.components, stencil, nodes, 0, nodes.length);
   return out;
 }

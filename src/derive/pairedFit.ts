@@ -17,8 +17,8 @@ const laneK = new Int32Array(2), laneN = new Int32Array(2), laneOne = new Uint8A
 
 /** What one call of `pairedInto` works on (module scratch, so the helpers take no long argument lists). */
 const job = {
-  K: null as unknown as MomentKernel, out: new Float64Array(0), outStart: 0, positions: new Float64Array(0),
-  values: new Float64Array(0) as NumericArray, nc: 1, so: new Int32Array(0), sid: new Int32Array(0),
+  K: null as unknown as MomentKernel, out: new Float64Array(0) as Float64Array, outStart: 0, positions: new Float64Array(0) as Float64Array,
+  values: new Float64Array(0) as NumericArray, nc: 1, so: new Int32Array(0) as Int32Array, sid: new Int32Array(0) as Int32Array,
   targets: undefined as Int32Array | undefined, from: 0, ringSizes: undefined as Int32Array | undefined,
 };
 
@@ -31,21 +31,28 @@ export function pairedInto(K: MomentKernel, out: Float64Array, outStart: number,
   Object.assign(job, { K, out, outStart, positions, values, nc, so: stencil.offsets, sid: stencil.ids, targets, from, ringSizes });
   const run = nc === 3 ? K.fit3 : K.fit1, t = KERNEL_LAYOUT.toleranceAt / 8;
   K.f64[t] = PIVOT_TOLERANCE; K.f64[t + 1] = PIVOT_TOLERANCE;
-  let k = from;
-  while (k < to) {
-    let lanes = 0;
-    while (lanes < 2 && k < to) { if (prepare(lanes, k)) lanes++; k++; }
-    if (lanes === 0) break;
-    let n = laneN[0]!;
-    if (lanes === 1) clearLane(1, 0, n);
-    else if (laneN[1]! < n) clearLane(1, laneN[1]!, n);
-    else if (laneN[1]! > n) { clearLane(0, n, laneN[1]!); n = laneN[1]!; }
-    run(n);
-    const redo0 = !finish(0), redo1 = lanes === 2 && !finish(1);
-    if (redo0) widen(laneK[0]!, run);
-    if (redo1) widen(laneK[1]!, run);
+  try {
+    let k = from;
+    while (k < to) {
+      let lanes = 0;
+      while (lanes < 2 && k < to) { if (prepare(lanes, k)) lanes++; k++; }
+      if (lanes === 0) break;
+      let n = laneN[0]!;
+      if (lanes === 1) clearLane(1, 0, n);
+      else if (laneN[1]! < n) clearLane(1, laneN[1]!, n);
+      else if (laneN[1]! > n) { clearLane(0, n, laneN[1]!); n = laneN[1]!; }
+      run(n);
+      const redo0 = !finish(0), redo1 = lanes === 2 && !finish(1);
+      if (redo0) widen(laneK[0]!, run);
+      if (redo1) widen(laneK[1]!, run);
+    }
+  } finally {
+    // let go of the caller's arrays, so the module does not keep the last mesh alive
+    Object.assign(job, { out: NO_VALUES, positions: NO_VALUES, values: NO_VALUES, so: NO_IDS, sid: NO_IDS, targets: undefined, ringSizes: undefined });
   }
 }
+
+const NO_VALUES = new Float64Array(0), NO_IDS = new Int32Array(0);
 
 /** Site `i` of target `k`. */
 const siteOf = (k: number): number => (job.targets ? job.targets[k]! : k);

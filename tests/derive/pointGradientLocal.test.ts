@@ -28,4 +28,20 @@ describe('pointGradientAt on a few nodes of a fresh mesh', () => {
       expect(differ).toBe(0);
     });
   }
+
+  it('a node list asked again, alternating with another of the same length, gets its own values each time', () => {
+    const fresh = flow(hexGrid(16, 12, 10)), reference = flow(hexGrid(16, 12, 10));
+    const np = fresh.points.length / 3, u = fresh.pointData[0]!, whole = fieldGradient(reference, reference.pointData[0]!);
+    // the rows built for a list are kept with the mesh for that list; two lists of one length must not share them
+    const bottom = Int32Array.from({ length: np }, (_, i) => i).filter((i) => fresh.points[3 * i + 2] === 0);
+    const zTop = Math.max(...Array.from({ length: np }, (_, i) => fresh.points[3 * i + 2]!));
+    const top = Int32Array.from({ length: np }, (_, i) => i).filter((i) => fresh.points[3 * i + 2] === zTop);
+    expect(top.length).toBe(bottom.length);
+    for (const nodes of [bottom, bottom, top, bottom.slice(), top]) {
+      const g = pointGradientAt(fresh, u, nodes);
+      let differ = 0;
+      nodes.forEach((n, k) => { for (let c = 0; c < 9; c++) if (!Object.is(g[9 * k + c], whole[9 * n + c])) differ++; });
+      expect(differ).toBe(0);
+    }
+  });
 });

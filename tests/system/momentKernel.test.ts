@@ -2,7 +2,9 @@
  * The WebAssembly SIMD moment kernel of the quadratic gradient fit in Debian's chromium: in a Web Worker (where
  * the app computes) the kernel compiles and runs, and its gradients equal, bit for bit, the JavaScript fit's in
  * the same worker and Node's JavaScript fit (the arithmetic is IEEE double in both engines, with no fused
- * multiply-add). Node's own comparison is tests/derive/momentKernel.test.ts.
+ * multiply-add). In the built app's compute worker — under the page's Content-Security-Policy — the kernel's
+ * module compiles and fits a neighbour set to the same bits as in Node. Node's own comparison is
+ * tests/derive/momentKernel.test.ts.
  */
 import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
@@ -12,6 +14,10 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { gradientInto } from '../../src/derive/quadraticGradient.ts';
 import { useMomentKernel } from '../../src/derive/momentKernel.ts';
 import { REPO, launch, serveFolder, type Browser } from './browser.ts';
+import { openAppForTests } from './appPage.ts';
+import { KERNEL_LAYOUT, MOMENT_KERNEL_BASE64 } from '../../src/derive/momentKernelWasm.ts';
+import { momentKernel } from '../../src/derive/momentKernel.ts';
+import type { Page } from 'playwright-core';
 import { kernelCases } from './momentKernelCases.ts';
 
 let browser: Browser;
@@ -58,5 +64,36 @@ describe('moment kernel in chromium', () => {
     });
     useMomentKernel(true);
     expect(browser.errors).toEqual([]);
+  }, 120_000);
+});
+
+/**
+ * One neighbour set of two sites fitted by the kernel's `fit3` in whatever realm runs this (stringified into the
+ * app's worker): 30 slots of offsets and value differences from a fixed recipe, scales 2 and 0.5.
+ */
+function fitOnce(b64: string, layout: typeof KERNEL_LAYOUT): number[] {
+  const s = atob(b64), bytes = new Uint8Array(s.length);
+  for (let i = 0; i < s.length; i++) bytes[i] = s.charCodeAt(i);
+  const e = new WebAssembly.Instance(new WebAssembly.Module(bytes)).exports as unknown as { memory: WebAssembly.Memory; fit3(n: number): void };
+  const F = new Float64Array(e.memory.buffer), n = 30;
+  F[layout.scaleAt / 8] = 2; F[layout.scaleAt / 8 + 1] = 0.5;
+  F[layout.toleranceAt / 8] = 1e-9; F[layout.toleranceAt / 8 + 1] = 1e-9;
+  for (let t = 0; t < n; t++) for (let e2 = 0; e2 < 12; e2++) F[layout.slotsAt / 8 + 12 * t + e2] = Math.sin(1.7 * t + 0.9 * e2 + 0.3) * (1 + (e2 % 3));
+  e.fit3(n);
+  return Array.from(F.subarray(layout.resultAt / 8, layout.resultAt / 8 + 20));
+}
+
+describe('moment kernel in the app', () => {
+  let page: Page;
+  openAppForTests((app) => { ({ page } = app); });
+
+  it('compiles and fits in the compute worker under the page\'s security policy', async () => {
+    expect(momentKernel()).not.toBeNull();
+    const worker = page.workers().find((w) => /compute/.test(w.url()));
+    expect(worker, page.workers().map((w) => w.url()).join(', ')).toBeDefined();
+    const got = await worker!.evaluate(`(${fitOnce.toString()})(${JSON.stringify(MOMENT_KERNEL_BASE64)}, ${JSON.stringify(KERNEL_LAYOUT)})`) as number[];
+    const here = fitOnce(MOMENT_KERNEL_BASE64, KERNEL_LAYOUT);
+    expect(here.every((v) => Number.isFinite(v))).toBe(true);
+    expect(got.map((v, i) => Object.is(v, here[i]))).toEqual(here.map(() => true));
   }, 120_000);
 });
