@@ -14,7 +14,7 @@ import type * as THREE from 'three';
 import { PROBE_SET_FORMAT, PROBE_SET_VERSION, type ForceProbe, type Probe, type ReferenceDoc, type SurfaceRef } from '../study/probeSet.ts';
 import type { ResultNote } from '../ui/notes.ts';
 import { describeSelector, type GroupSelector } from '../surface/groupSelect.ts';
-import { groupsChosen } from './groupChoice.ts';
+import { groupIdsOf, groupRef } from './groupChoice.ts';
 import { addGroupChoice, emptyChoice } from './groupChoiceFolder.ts';
 import { latestWins } from './latestWins.ts';
 import { outcomeResult } from './outcomeResult.ts';
@@ -129,22 +129,9 @@ export class ForceTool {
     return this.resolve(p.geometry.surfaces) !== undefined;
   }
 
-  /** Group ids of references by name, id or selector; undefined when one is unknown, matches nothing or needs the faces (`nearest`: the worker evaluates those). */
+  /** Group ids of references by name, id or selector (`groupIdsOf`). */
   private resolve(refs: readonly SurfaceRef[]): number[] | undefined {
-    const groups = this.v.description?.groups ?? [];
-    const out: number[] = [];
-    for (const r of refs) {
-      if (typeof r === 'object') {
-        if ((r as GroupSelector).nearest) return undefined;
-        try { out.push(...groupsChosen(groups, r as GroupSelector)); } catch { return undefined; }
-        continue;
-      }
-      const byName = groups.filter((g) => g.name === String(r));
-      const g = byName.length === 1 ? byName[0] : byName.length === 0 && /^-?\d+$/.test(String(r)) ? groups.find((x) => x.fileId === Number(r)) : undefined;
-      if (!g) return undefined;
-      out.push(g.id);
-    }
-    return out;
+    return groupIdsOf(this.v.description?.groups ?? [], refs);
   }
 
   /** The force total as a probe-set probe (surfaces by name, or by id where names repeat), or null when no surface is chosen. */
@@ -153,7 +140,7 @@ export class ForceTool {
     const groups = this.v.description?.groups ?? [];
     const same = this.loadedRefs && this.loadedRefs.groups === [...this.selected].sort((a, b) => a - b).join(',');
     const surfaces = same ? [...this.loadedRefs!.refs] : groups.filter((g) => this.selected.has(g.id))
-      .map((g) => (groups.filter((x) => x.name === g.name).length === 1 ? g.name : g.fileId));
+      .map((g) => groupRef(groups, g));
     return {
       id: this.id, kind: 'force', label: this.label, geometry: { surfaces },
       options: { viscous: this.viscous.method, ...(this.override ? { reference: { ...this.override } } : {}) },

@@ -5,7 +5,7 @@
  * file whatever its group numbers there. Pure: no DOM.
  */
 import type { GroupInfo } from '../../workers/api.ts';
-import { noGroupError, selectByTraits, type GroupSelector } from '../surface/groupSelect.ts';
+import { noGroupError, selectByTraits, type GroupRef, type GroupSelector } from '../surface/groupSelect.ts';
 
 /** The fields as typed: any may be empty (then it does not restrict). */
 export interface GroupChoiceText {
@@ -56,4 +56,30 @@ export function groupsChosen(groups: readonly GroupInfo[], s: GroupSelector): nu
   const picked = selectByTraits(traits, s);
   if (picked.length === 0) throw noGroupError(traits, s);
   return picked.map((i) => groups[i]!.id).sort((a, b) => a - b);
+}
+
+/**
+ * Ids (`GroupInfo.id`, in the references' order, a selector's ascending) of the open file's groups that probe-set
+ * references name: a name used once, else an id in the file (`fileId`), or a selector. Undefined when one is
+ * unknown or matches nothing, or is a selector with `nearest` (it needs the faces: the worker evaluates those).
+ */
+export function groupIdsOf(groups: readonly GroupInfo[], refs: readonly GroupRef[]): number[] | undefined {
+  const out: number[] = [];
+  for (const r of refs) {
+    if (typeof r === 'object') {
+      if (r.nearest) return undefined;
+      try { out.push(...groupsChosen(groups, r)); } catch { return undefined; }
+      continue;
+    }
+    const byName = groups.filter((g) => g.name === String(r));
+    const g = byName.length === 1 ? byName[0] : byName.length === 0 && /^-?\d+$/.test(String(r)) ? groups.find((x) => x.fileId === Number(r)) : undefined;
+    if (!g) return undefined;
+    out.push(g.id);
+  }
+  return out;
+}
+
+/** How a probe set refers to one group of the open file: by its name when no other group has it, else by its id in the file. */
+export function groupRef(groups: readonly GroupInfo[], g: GroupInfo): string | number {
+  return groups.filter((x) => x.name === g.name).length === 1 ? g.name : g.fileId;
 }

@@ -5,12 +5,18 @@
  * gradient with μ of the reference conditions (the panel and the pin say which, as the core reports it);
  * ρ, U and μ are the reference conditions'. A pinned group is a `wall` probe of the probe set, evaluated
  * by the study layer (the `wall` verb's numbers), so it is saved, restored and undone with the set.
+ * Surfaces can also be chosen by what they are (name, a box holding them, an area range: `groupChoice.ts`,
+ * the force tool's folder); the probe set then keeps that selector, so the same wall is found in another file
+ * whatever its group numbers there.
  */
 import type GUI from 'lil-gui';
 import type { WallReply, WallRequest } from '../../workers/api.ts';
-import { PROBE_SET_FORMAT, PROBE_SET_VERSION, type Probe, type WallProbe } from '../study/probeSet.ts';
+import { PROBE_SET_FORMAT, PROBE_SET_VERSION, type Probe, type SurfaceRef, type WallProbe } from '../study/probeSet.ts';
+import { describeSelector, type GroupSelector } from '../surface/groupSelect.ts';
 import { histogramSvg } from '../ui/wallHistogram.ts';
 import type { FieldSource, ResolvedColour, SourceEntry } from './fieldSource.ts';
+import { groupIdsOf, groupRef } from './groupChoice.ts';
+import { addGroupChoice, emptyChoice } from './groupChoiceFolder.ts';
 import { latestWinsPerKey } from './latestWins.ts';
 import { outcomeResult } from './outcomeResult.ts';
 import type { ReferenceTool } from './referenceTool.ts';
@@ -32,7 +38,7 @@ const QUANTITIES: Record<Quantity, { label: string; title: string; unit: string 
 export const WALL_PANEL_DEFAULTS = { thresholds: [1, 5], bins: 10, wallDistance: 'cell-centroid', shearFrom: 'auto' } as const;
 
 /** A pinned group's probe as the tool keeps it. */
-interface WallPin { id: string; label: string; surfaces: (string | number)[]; thresholds: number[]; wallDistance: WallRequest['wallDistance']; shearFrom: WallRequest['shearFrom'] }
+interface WallPin { id: string; label: string; surfaces: SurfaceRef[]; thresholds: number[]; wallDistance: WallRequest['wallDistance']; shearFrom: WallRequest['shearFrom'] }
 
 /** Parses "1, 5, 30" into thresholds; throws one line naming what was expected. */
 export function parseThresholds(text: string): number[] {
@@ -51,6 +57,11 @@ export class WallTool implements FieldSource {
     shearFrom: WALL_PANEL_DEFAULTS.shearFrom as WallRequest['shearFrom'], thresholds: WALL_PANEL_DEFAULTS.thresholds.join(', '),
   };
   private pins: WallPin[] = [];
+  /** The fields of "choose surfaces by what they are", kept across rebuilds of the panel. */
+  private readonly choice = emptyChoice();
+  /** Surfaces chosen by a selector (they replace the list's group until a group is chosen from the list). */
+  private chosenBy: { selector: GroupSelector; ids: number[] } | undefined;
+  private readonly chosenText = { surfaces: '' };
   /** Set once the tool was used on this file (colour, pin, a choice changed, a pinned group restored). */
   private used = false;
   private next = 1;
@@ -66,7 +77,7 @@ export class WallTool implements FieldSource {
       (ev, p) => { const o = ev.probes[0]; if (o && this.pins.includes(p)) v.setResult(this.result(o, p)); },
       (e) => v.banner.error(`Wall quantities: ${(e as Error).message}`));
     v.addFieldSource(this);
-    v.onDataset(() => { this.pins = []; this.next = 1; this.used = false; this.settings.group = this.defaultGroup(); this.buildPanel(); });
+    v.onDataset(() => { this.pins = []; this.next = 1; this.used = false; this.chosenBy = undefined; this.settings.group = this.defaultGroup(); this.buildPanel(); });
     v.onResultRemoved((id) => { this.pins = this.pins.filter((p) => p.id !== id); });
     v.onRename((id, label) => { const p = this.pins.find((x) => x.id === id); if (p) p.label = label; });
     // the group choice and the colour entries show the groups' labels
@@ -82,19 +93,19 @@ export class WallTool implements FieldSource {
   // ---- colour source ----
 
   entries(): SourceEntry[] {
-    const g = this.group();
-    if (!g) return [];
-    return (Object.keys(QUANTITIES) as Quantity[]).map((q) => ({ label: `wall: ${QUANTITIES[q].title} on ${this.v.groupLabel(g)}`, key: `${KEY}${q}` }));
+    if (!this.group()) return [];
+    const on = this.surfacesText();
+    return (Object.keys(QUANTITIES) as Quantity[]).map((q) => ({ label: `wall: ${QUANTITIES[q].title} on ${on}`, key: `${KEY}${q}` }));
   }
 
   owns(key: string): boolean { return key.startsWith(KEY); }
 
   async resolve(key: string): Promise<ResolvedColour> {
-    const q = key.slice(KEY.length) as Quantity, g = this.group();
-    if (!g || !(q in QUANTITIES)) throw new Error(`no wall quantity "${q}" on a surface group`);
+    const q = key.slice(KEY.length) as Quantity;
+    if (!this.group() || !(q in QUANTITIES)) throw new Error(`no wall quantity "${q}" on a surface group`);
     if (!this.used) { this.used = true; void this.refreshPanel(); }
     const r = await this.request(q);
-    return { kind: 'values', values: r.values, title: `${QUANTITIES[q].title} on ${this.v.groupLabel(g)}`, unit: QUANTITIES[q].unit };
+    return { kind: 'values', values: r.values, title: `${QUANTITIES[q].title} on ${this.surfacesText()}`, unit: QUANTITIES[q].unit };
   }
 
   // ---- probe set ----
@@ -102,27 +113,26 @@ export class WallTool implements FieldSource {
   /** The pinned groups as probe-set probes. */
   probes(): WallProbe[] { return this.pins.map((p) => this.doc(p)); }
 
-  /** True for a `wall` probe this tool can hold: surfaces found, no own field names, only the panel's options. */
+  /** True for a `wall` probe this tool can hold: surfaces found (by name, id or selector), no own field names, only the panel's options. */
   accepts(p: Probe): p is WallProbe {
     if (p.kind !== 'wall' || (p.fields && Object.keys(p.fields).length)) return false;
     const o = p.options ?? {};
     if (Object.keys(o).some((k) => !['thresholds', 'wallDistance', 'shearFrom', 'wallGradient'].includes(k))) return false;
     if (o.wallGradient !== undefined && o.wallGradient !== 'second-order') return false;
-    // a group chosen by a selector (name, bounds, area) is evaluated by the worker with the set's other probes
-    if (p.geometry.surfaces.some((r) => typeof r === 'object')) return false;
-    return this.resolveRefs(p.geometry.surfaces as (string | number)[]) !== undefined;
+    // a selector that matches nothing here, or needs the faces (`nearest`), is evaluated by the worker with the set's other probes
+    return this.resolveRefs(p.geometry.surfaces) !== undefined;
   }
 
   /** Pins a probe-set `wall` probe (see `accepts`), keeping its id, label and options. */
   addFrom(p: WallProbe): void {
     const o = p.options ?? {};
     const pin: WallPin = {
-      id: p.id, label: p.label ?? p.id, surfaces: p.geometry.surfaces.filter((r): r is string | number => typeof r !== 'object'), thresholds: o.thresholds ? [...o.thresholds] : [1, 5, 30],
+      id: p.id, label: p.label ?? p.id, surfaces: [...p.geometry.surfaces], thresholds: o.thresholds ? [...o.thresholds] : [1, 5, 30],
       wallDistance: o.wallDistance ?? 'cell-centroid', shearFrom: o.shearFrom ?? 'auto',
     };
     this.pins.push(pin);
     // the panel shows the thresholds of a pinned group it has chosen (after an undo, a reload, an opened set)
-    if (this.resolveRefs(pin.surfaces)?.every((g) => g === this.settings.group)) {
+    if (this.isPanels(pin)) {
       this.used = true;
       this.settings.thresholds = pin.thresholds.join(', ');
       for (const c of this.folder.controllers) c.updateDisplay();
@@ -144,11 +154,10 @@ export class WallTool implements FieldSource {
     if (!g) { this.v.banner.error('Wall quantities: this file has no surface groups'); return; }
     let thresholds: number[];
     try { thresholds = parseThresholds(this.settings.thresholds); } catch (e) { this.v.banner.error((e as Error).message); return; }
-    const groups = this.v.description?.groups ?? [];
-    const ref = groups.filter((x) => x.name === g.name).length === 1 ? g.name : g.fileId;
+    const surfaces: SurfaceRef[] = this.chosenBy ? [this.chosenBy.selector] : [groupRef(this.v.description?.groups ?? [], g)];
     while (this.v.allResults.some((r) => r.id === `wall-${this.next}`)) this.next++;
     this.used = true;
-    const pin: WallPin = { id: `wall-${this.next++}`, label: `Wall ${this.v.groupLabel(g)}`, surfaces: [ref], thresholds, wallDistance: this.settings.wallDistance, shearFrom: this.settings.shearFrom };
+    const pin: WallPin = { id: `wall-${this.next++}`, label: `Wall ${this.surfacesText()}`, surfaces, thresholds, wallDistance: this.settings.wallDistance, shearFrom: this.settings.shearFrom };
     this.pins.push(pin);
     this.v.select(pin.id);
     this.evaluate.request(pin);
@@ -168,21 +177,46 @@ export class WallTool implements FieldSource {
     return outcomeResult(o, [0, 0, 0], { pinned, origin: '', ...(tau ? { tag: `τ_w from ${tau}` } : {}) });
   }
 
-  private resolveRefs(refs: readonly (string | number)[]): number[] | undefined {
-    const groups = this.v.description?.groups ?? [];
-    const out: number[] = [];
-    for (const r of refs) {
-      const byName = groups.filter((g) => g.name === String(r));
-      const g = byName.length === 1 ? byName[0] : byName.length === 0 && /^-?\d+$/.test(String(r)) ? groups.find((x) => x.fileId === Number(r)) : undefined;
-      if (!g) return undefined;
-      out.push(g.id);
-    }
-    return out;
+  private resolveRefs(refs: readonly SurfaceRef[]): number[] | undefined {
+    return groupIdsOf(this.v.description?.groups ?? [], refs);
+  }
+
+  /** True when a pinned probe's surfaces are the panel's (so the panel's thresholds are its). */
+  private isPanels(p: WallPin): boolean {
+    const ids = this.resolveRefs(p.surfaces), panel = new Set(this.surfaceIds());
+    return ids !== undefined && ids.length > 0 && ids.every((g) => panel.has(g));
   }
 
   // ---- panel ----
 
   private group() { return this.v.description?.groups.find((g) => g.id === this.settings.group); }
+
+  /** Group ids (`GroupInfo.id`) the panel colours and pins: the selector's, else the list's group. */
+  private surfaceIds(): number[] { return this.chosenBy ? [...this.chosenBy.ids] : [this.settings.group]; }
+
+  /** The panel's surfaces in words: their labels, and the selector that chose them. */
+  private surfacesText(): string {
+    const ids = new Set(this.surfaceIds());
+    const names = (this.v.description?.groups ?? []).filter((g) => ids.has(g.id)).map((g) => this.v.groupLabel(g)).join(', ');
+    return this.chosenBy ? `${names} (${describeSelector(this.chosenBy.selector)})` : names;
+  }
+
+  /** Takes the surfaces a selector picked as the panel's; a pin made now keeps the selector. */
+  private chooseBy(selector: GroupSelector, ids: number[]): void {
+    this.chosenBy = { selector, ids };
+    this.settings.group = ids[0]!;
+    for (const c of this.folder.controllers) c.updateDisplay();
+    this.panelChanged();
+  }
+
+  /** After a change of surfaces or options: the colour chooser, the colour shown and the panel text follow. */
+  private panelChanged(): void {
+    this.used = true;
+    this.chosenText.surfaces = this.surfacesText();
+    this.v.rebuildColorChooser();
+    this.recolourIfShown();
+    void this.refreshPanel();
+  }
 
   /** Among the groups shown at opening (an enclosing far field is hidden): one named like a wall, else the largest. */
   private defaultGroup(): number {
@@ -197,7 +231,7 @@ export class WallTool implements FieldSource {
     try { thresholds = parseThresholds(this.settings.thresholds); } catch { thresholds = [...WALL_PANEL_DEFAULTS.thresholds]; }
     const c = this.refs.conditions;
     return this.v.compute.wallSurface({
-      groups: [this.settings.group], quantity: q, density: c.density, speed: c.speed, viscosity: c.viscosity,
+      groups: this.surfaceIds(), quantity: q, density: c.density, speed: c.speed, viscosity: c.viscosity,
       thresholds, bins: WALL_PANEL_DEFAULTS.bins, wallDistance: this.settings.wallDistance, shearFrom: this.settings.shearFrom,
     });
   }
@@ -223,7 +257,7 @@ export class WallTool implements FieldSource {
       const hist = document.createElement('div');
       hist.className = 'wall-histogram-host';
       if (r.yPlusHistogram) {
-        hist.innerHTML = histogramSvg({ ...r.yPlusHistogram, above: r.yPlusAbove, title: `y+ over ${this.v.groupLabel(this.group()!)} (area share)` });
+        hist.innerHTML = histogramSvg({ ...r.yPlusHistogram, above: r.yPlusAbove, title: `y+ over ${this.surfacesText()} (area share)` });
       }
       this.panel.replaceChildren(text, hist);
     } catch (e) {
@@ -240,12 +274,16 @@ export class WallTool implements FieldSource {
 
   private buildPanel(): void {
     for (const c of [...this.folder.controllers]) c.destroy();
+    for (const f of [...this.folder.folders]) f.destroy();
     const groups = this.v.description?.groups ?? [];
     const opts: Record<string, number> = {};
     for (const g of groups) { const l = this.v.groupLabel(g); opts[l in opts ? `${l} (${g.fileId})` : l] = g.id; }
     const s = this.settings;
-    const changed = () => { this.used = true; this.v.rebuildColorChooser(); this.recolourIfShown(); void this.refreshPanel(); };
-    this.folder.add(s, 'group', opts).name('surface group').onChange(changed);
+    const changed = () => this.panelChanged();
+    // a group taken from the list replaces surfaces chosen by what they are
+    this.folder.add(s, 'group', opts).name('surface group').onChange(() => { this.chosenBy = undefined; changed(); });
+    this.chosenText.surfaces = this.group() ? this.surfacesText() : '';
+    this.folder.add(this.chosenText, 'surfaces').name('surfaces').disable().listen();
     const q: Record<string, Quantity> = {};
     for (const k of Object.keys(QUANTITIES) as Quantity[]) q[QUANTITIES[k].label] = k;
     this.folder.add(s, 'quantity', q).name('quantity');
@@ -257,11 +295,12 @@ export class WallTool implements FieldSource {
       try { list = parseThresholds(t); } catch (e) { this.v.banner.error((e as Error).message); s.thresholds = WALL_PANEL_DEFAULTS.thresholds.join(', '); }
       for (const c of this.folder.controllers) c.updateDisplay();
       // the group's pinned statistics take the new thresholds (an undo step of the probe set)
-      const ids = new Set([s.group]);
-      if (list) for (const p of this.pins) if (this.resolveRefs(p.surfaces)?.every((g) => ids.has(g))) { p.thresholds = list; this.evaluate.request(p); }
+      if (list) for (const p of this.pins) if (this.isPanels(p)) { p.thresholds = list; this.evaluate.request(p); }
       void this.refreshPanel();
     });
     this.folder.add({ pin: () => this.pin() }, 'pin').name('pin statistics of the group');
+    addGroupChoice(this.folder, this.choice, 'take matching surfaces', () => this.v.description?.groups ?? [],
+      (sel, ids) => this.chooseBy(sel, ids), (m) => this.v.banner.error(`Wall quantities: ${m}`));
     this.folder.domElement.querySelector('.lil-children')?.append(this.panel);
     void this.refreshPanel();
   }

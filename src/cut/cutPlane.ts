@@ -399,8 +399,10 @@ export function cutPlane(dataset: Dataset, origin: Vec3, normal: Vec3, options: 
   // Ascending ids: the same triangle order whichever search ran, and connectivity read in memory order.
   const cells = used === 'tree' ? found.sort() : found;
   const nCand = cells.length;
-  // One allocation up front instead of repeated doubling: about four vertices and two triangles a cut cell.
-  resetOutput(4 * nCand, 2 * nCand);
+  // One allocation up front: room for the largest polygon a plane cuts from a convex cell (six vertices, four
+  // triangles) per candidate, so the buffers do not grow mid-cut (a path the warm-up never takes, whose first
+  // run threw the optimised cut away); pages of it never written are never touched.
+  resetOutput(6 * nCand, 4 * nCand);
   const starts = cellStarts(dataset), pStarts = pointStarts(dataset);
   const tables = opts.caseTables;
   let cutCells = 0, tableCells = 0;

@@ -10,9 +10,9 @@
  *
  * The app's compute worker runs this once, when it is otherwise idle; the pool's share workers run it as they
  * start (`src/parallel/shareHost.ts`), while the file is still being read; the pool's host thread while the
- * workers take on their shares (it integrates every merged cut); the bench verb while the file loads. It
- * gives way to other tasks between cuts (each a few ms), so a load it runs beside is held up little. The
- * result is thrown away.
+ * workers take on their shares (it integrates every merged cut); the bench verb before it loads the file
+ * (reported apart). It gives way to other tasks between cuts (each a few ms), so work it runs beside is held up
+ * little. The result is thrown away.
  */
 import { readDataset } from '../io/readDataset.ts';
 import { writeVtu } from '../io/writeVtu.ts';
@@ -23,9 +23,11 @@ import { integratePlane } from './planeIntegrals.ts';
 
 function withFlow(p: Piece): Piece {
   const cells = p.cellTypes.length;
+  const p64 = pointFieldFrom(p, 'p', 1, (x, y, z, o) => { o[0] = 100 * (1 - z) + x * y; });
+  // Files store fields as Float32 or Float64: the interpolation meets both kinds here, not first on a real file.
   return withFields(p, [
     pointFieldFrom(p, 'velocity', 3, (x, y, z, o) => { o[0] = 0.1 * y; o[1] = -0.1 * x; o[2] = 1 + x * (1 - x) + 0.01 * z; }),
-    pointFieldFrom(p, 'p', 1, (x, y, z, o) => { o[0] = 100 * (1 - z) + x * y; }),
+    p64, field('p32', 'point', 1, Float32Array.from(p64.values)),
   ], [field('group', 'cell', 1, new Int32Array(cells).fill(1))]);
 }
 

@@ -1,8 +1,10 @@
 /**
  * The wall-quantities probe of a probe set: τ_w, c_f and y⁺ over the named surface groups together — the
  * same compute path as the `wall` verb (`wallQuantities`), on the SI dataset. ρ and U come from the set's
- * reference values, μ from `fields.viscosity` or the reference viscosity.
+ * reference values, μ from `fields.viscosity` or the reference viscosity. Surfaces are named by id, name or a
+ * selector choosing them by what they are (src/surface/groupSelect.ts); the definition states a selector used.
  */
+import { describeSelector, type GroupSelector } from '../surface/groupSelect.ts';
 import { facesOfGroups, resolveGroups } from '../surface/surfaceGroups.ts';
 import { wallQuantities } from '../surface/wallQuantities.ts';
 import { addQuantity, fmt6, type EvalContext, type ProbeOutcome } from './outcome.ts';
@@ -30,7 +32,9 @@ export function evaluateWall(ctx: EvalContext, p: WallProbe, out: ProbeOutcome):
   if (a > 0) out.anchor = ctx.file([cx / a, cy / a, cz / a]);
   const src = r.shearSource.method === 'wall-shear-array' ? `the file's wall-shear array "${r.shearSource.array}"`
     : `the ${r.shearSource.gradient ?? 'first-order'} velocity gradient of "${r.shearSource.array}" with μ = ${typeof r.shearSource.mu === 'number' ? `${fmt6(r.shearSource.mu)} Pa·s` : `"${r.shearSource.mu}"`}`;
-  out.definition = `wall quantities on ${picked.map((i) => `${groups.groups[i]!.id} "${groups.groups[i]!.name}"`).join(' + ')}; τ_w from ${src}; ${r.wallDistanceDefinition}`;
+  // groups chosen by what they are say how, so the same wall is recognised in another file
+  const chosen = p.geometry.surfaces.filter((r): r is GroupSelector => typeof r === 'object').map((r) => ` (chosen ${describeSelector(r)})`).join('');
+  out.definition = `wall quantities on ${picked.map((i) => `${groups.groups[i]!.id} "${groups.groups[i]!.name}"`).join(' + ')}${chosen}; τ_w from ${src}; ${r.wallDistanceDefinition}`;
   const s = r.stats;
   addQuantity(out, 'wallShear.mean', '|τ_w| mean', s.shearMagnitude.mean, SI.pressure);
   addQuantity(out, 'wallShear.min', '|τ_w| min', s.shearMagnitude.min, SI.pressure);

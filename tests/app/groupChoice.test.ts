@@ -4,7 +4,7 @@
  * outlet end at z = 0.1 m; areas as `fieldtally surfaces sample-fields/pipe-medium.vtu` lists them).
  */
 import { describe, expect, it } from 'vitest';
-import { EMPTY_CHOICE, groupsChosen, selectorFromText } from '../../src/app/groupChoice.ts';
+import { EMPTY_CHOICE, groupIdsOf, groupRef, groupsChosen, selectorFromText } from '../../src/app/groupChoice.ts';
 import type { GroupInfo } from '../../workers/api.ts';
 
 const group = (id: number, name: string, area: number, bounds: number[]): GroupInfo => ({
@@ -38,5 +38,19 @@ describe('choosing surface groups by what they are', () => {
     expect(groupsChosen(PIPE, { areaTo: 0.001 })).toEqual([0, 2]);
     expect(groupsChosen(PIPE, { name: 'part 0', areaTo: 0.001 })).toEqual([0]);
     expect(() => groupsChosen(PIPE, { name: 'outlet' })).toThrow('no surface group named "outlet" (known: 0 "part 0" (area 0.000310583), 1 "part 1" (area 0.00626526), 2 "part 2" (area 0.000310583))');
+  });
+
+  it('finds the groups a probe set names by name, id in the file or selector (force and wall tools); unknown or `nearest` is left to the worker', () => {
+    const twin = [...PIPE, group(3, 'part 1', 1, [0, 1, 0, 1, 0, 1])];
+    expect(groupIdsOf(PIPE, ['part 2', 0, { areaFrom: 0.005 }])).toEqual([2, 0, 1]);
+    expect(groupIdsOf(PIPE, [{ areaTo: 0.001 }])).toEqual([0, 2]);
+    expect(groupIdsOf(PIPE, ['outlet'])).toBeUndefined();
+    expect(groupIdsOf(PIPE, [{ name: 'outlet' }])).toBeUndefined();
+    expect(groupIdsOf(PIPE, [{ nearest: [0, 0, 0] }])).toBeUndefined();
+    // a name two groups share is not a reference; their ids in the file are
+    expect(groupIdsOf(twin, ['part 1'])).toBeUndefined();
+    expect(groupIdsOf(twin, ['3'])).toEqual([3]);
+    expect(groupRef(PIPE, PIPE[1]!)).toBe('part 1');
+    expect(groupRef(twin, twin[3]!)).toBe(3);
   });
 });

@@ -37,3 +37,37 @@ it('wall probe: τ_w, c_f = 16/Re_D and y+ statistics with units, source and y d
   expect(() => checkProbeSet({ format: 'fieldtally-probe-set', version: 2, probes: [{ id: 'w', kind: 'wall', geometry: { surfaces: [1] }, options: { wallDistance: 'middle' } }] }, 'bad.json'))
     .toThrow(/wallDistance/);
 });
+
+it('wall probe chosen by what it is: the pipe wall by its area, or the group nearest a point on it, gives τ_w = 4μV/R; a selector matching nothing names the known groups', async () => {
+  const e = pipeExact(), d = await readDataset('pipe-medium.vtu', new Uint8Array(readFileSync(PIPE)));
+  // Hagen–Poiseuille (REFERENCES §1): τ_w = 4μV/R, reduced by cos(π/24) on the 24-faceted wall
+  const tauW = 4 * e.mu * e.V / e.R, facet = Math.cos(Math.PI / 24);
+  // the wall's area is 2πR·L·(faceted) ≈ 6.3e-3 m², each end ≈ 3.1e-4 m²; a box around the pipe holds every group
+  const byArea = { areaFrom: 1e-3 }, byPoint = { nearest: [e.R, 0, e.L / 2] as [number, number, number] };
+  const box = { within: [-2 * e.R, 2 * e.R, -2 * e.R, 2 * e.R, -0.01, e.L + 0.01] as [number, number, number, number, number, number], areaFrom: 1e-3 };
+  const set = checkProbeSet({
+    format: 'fieldtally-probe-set', version: 2, reference: { density: e.rho, viscosity: e.mu, speed: e.V },
+    probes: [
+      { id: 'by-id', kind: 'wall', geometry: { surfaces: [1] } },
+      { id: 'by-area', kind: 'wall', geometry: { surfaces: [byArea] } },
+      { id: 'by-point', kind: 'wall', geometry: { surfaces: [byPoint] } },
+      { id: 'by-box', kind: 'wall', geometry: { surfaces: [box] } },
+      { id: 'none', kind: 'wall', geometry: { surfaces: [{ name: 'outlet' }] } },
+    ],
+  }, 'test');
+  const ev = evaluateProbeSet(d, set);
+  const mean = (id: string) => {
+    const p = ev.probes.find((x) => x.id === id)!;
+    expect(p.ok, p.error ?? '').toBe(true);
+    return p.quantities.find((x) => x.key === 'wallShear.mean')!.value;
+  };
+  for (const id of ['by-area', 'by-point', 'by-box']) {
+    expect(mean(id) / (tauW * facet)).toBeCloseTo(1, 9);
+    expect(mean(id)).toBe(mean('by-id'));
+  }
+  // the outcome names the selector it used
+  expect(ev.probes.find((x) => x.id === 'by-area')!.definition).toMatch(/^wall quantities on 1 "part 1" \(chosen area 0\.001 … ∞\); τ_w from/);
+  const none = ev.probes.find((x) => x.id === 'none')!;
+  expect(none.ok).toBe(false);
+  expect(none.error).toMatch(/^no surface group named "outlet" \(known: 0 "part 0" \(area [\d.e-]+\), 1 "part 1" \(area [\d.e-]+\), 2 "part 2" \(area [\d.e-]+\)\)/);
+});

@@ -3,7 +3,8 @@
  * chooser offers the derived fields the file allows and makes them in the worker; cp follows the reference
  * conditions; a surface group coloured by y⁺ and its pinned statistics equal the `wall` verb's; a formula
  * becomes a field, shows parse errors with their column, is saved in the probe set, undone, redone, kept over
- * a reload and removed. Screenshots go to tests/.screenshots/ (git-ignored) and were looked at.
+ * a reload and removed. The wall tool also takes surfaces by what they are (name, box, area), and the saved
+ * set keeps that choice. Screenshots go to tests/.screenshots/ (git-ignored) and were looked at.
  */
 import { execFileSync } from 'node:child_process';
 import { readFileSync } from 'node:fs';
@@ -165,6 +166,50 @@ describe('derived fields, wall quantities and formulas in the app', () => {
     expect(saved.probes.find((p) => p.id === 'wall-1')).toMatchObject({ kind: 'wall', geometry: { surfaces: ['part 1'] }, options: { thresholds: [1, 5] } });
   });
 
+  it('the wall tool takes surfaces by what they are: a name matching nothing names the known groups; the wall by its area is pinned, equal to the verb, and the set keeps the selector', async () => {
+    const rho = 998.207, mu = 0.0010016;
+    const wall = page.locator('.lil-gui', { has: page.locator(':scope > .lil-title', { hasText: 'Wall quantities' }) });
+    const field = (label: string) => wall.locator('.lil-controller', { has: page.locator('.lil-name', { hasText: new RegExp(`^${label.replace(/[[\]]/g, '\\$&')}$`) }) }).locator('input');
+    const take = async () => { await wall.locator('.lil-name', { hasText: /^take matching surfaces$/ }).click(); await settle(); };
+    await wall.locator('.lil-title', { hasText: /^choose surfaces by what they are$/ }).click();
+    // a name no group has: refused on the banner, naming the known groups; the panel keeps its group
+    await field('name is').fill('outlet');
+    await take();
+    await page.waitForSelector('.banner[data-kind=error]');
+    expect(await page.locator('.banner-text').innerText()).toMatch(/^Wall quantities: no surface group named "outlet" \(known: 0 "part 0" \(area [\d.e-]+\), 1 "part 1" \(area [\d.e-]+\), 2 "part 2" \(area [\d.e-]+\)\)/);
+    await page.locator('.banner-close').click();
+    expect(await control('surfaces', 'Wall quantities').locator('input').inputValue()).toBe('part 1');
+    // the wall by its area (6.3e-3 m², each end 3.1e-4 m²): only the wall is that large
+    await field('name is').fill('');
+    await field('area from [m²]').fill('0.005');
+    await take();
+    expect(await control('surfaces', 'Wall quantities').locator('input').inputValue()).toBe('part 1 (area 0.005 … ∞)');
+    await control('colour the group by it', 'Wall quantities').locator('button').click();
+    await settle();
+    expect(await page.locator('.legend').innerText()).toMatch(/on part 1 \(area 0\.005 … ∞\)/);
+    await control('pin statistics of the group', 'Wall quantities').locator('button').click();
+    await page.waitForSelector('[data-pin="wall-2"] [data-quantity="wallShear.mean"]');
+    await settle();
+    expect(await page.locator('[data-pin="wall-2"] .pin-title').innerText()).toBe('Wall part 1 (area 0.005 … ∞)');
+    // the verb chooses the same wall by the same selector; its numbers are the pin's
+    const w = (cli('wall', PIPE, '--groups-area-from', '0.005', '--rho', String(rho), '--mu', String(mu), '--speed', '1') as {
+      groups: { id: number; stats: { shearMagnitude: { mean: number }; yPlus: { mean: number } } }[];
+    }).groups;
+    expect(w.map((g) => g.id)).toEqual([1]);
+    expect(await pinNumber('wall-2', 'wallShear.mean')).toBe(sig4(w[0]!.stats.shearMagnitude.mean));
+    expect(await pinNumber('wall-2', 'yPlus.mean')).toBe(sig4(w[0]!.stats.yPlus.mean));
+    // Hagen–Poiseuille τ_w = 4μV/R (White, Fluid Mechanics, §6.9); the 24-faceted wall puts the mean 0.9 % low
+    expect(Math.abs(await pinNumber('wall-2', 'wallShear.mean') / (4 * mu * e.V / e.R) - 1)).toBeLessThan(0.01);
+    await shot('d04b-wall-by-area');
+    // the saved set keeps the selector, not the group's name or number
+    const saved = JSON.parse(await downloadOf(() => page.getByText('save probe set (JSON)').click())) as { probes: { id: string; kind: string; geometry: unknown }[] };
+    expect(saved.probes.find((p) => p.id === 'wall-2')).toMatchObject({ kind: 'wall', geometry: { surfaces: [{ areaFrom: 0.005 }] } });
+    // a group from the list replaces the selector
+    await choose('surface group', 'part 0', 'Wall quantities');
+    expect(await control('surfaces', 'Wall quantities').locator('input').inputValue()).toBe('part 0');
+    await choose('surface group', 'part 1', 'Wall quantities');
+  });
+
   it('formulas: errors name the column, a defined formula is a field everywhere, saved, undone, kept over a reload and removed', async () => {
     const folder = page.locator('.formula-editor');
     const define = async (name: string, expression: string, unit = '') => {
@@ -229,6 +274,8 @@ describe('derived fields, wall quantities and formulas in the app', () => {
     expect(await folder.locator('.formula-row[data-formula="dynp"]').count()).toBe(1);
     expect(await control('field', 'Colour').locator('select option').allInnerTexts()).toContain('dynp (points)');
     expect(await page.locator('[data-pin="wall-1"]').count()).toBe(1);
+    // the pin of the wall chosen by its area is back, found by the selector
+    await page.waitForSelector('[data-pin="wall-2"] [data-quantity="wallShear.mean"]');
     // removed
     await folder.locator('button[data-remove-formula="dynp"]').click();
     await settle();

@@ -148,8 +148,10 @@ describe('groups and view hygiene in the app', () => {
   it('surfaces chosen by what they are: the force total takes them, the set keeps the selector, another mesh finds the same wall', async () => {
     // the pipe sample's parts (`fieldtally surfaces`): 0 the inlet end (z = 0), 1 the wall (6.27×10⁻³ m²), 2 the outlet end (z = 0.1 m)
     await openFile(PIPE, 'pipe-medium.vtu');
-    await page.locator('.lil-title', { hasText: /^choose surfaces by what they are$/ }).click();
-    const field = (label: string) => control(label, 'choose surfaces by what they are').locator('input');
+    // the force total's folder (the wall tool has one of the same title)
+    const force = page.locator('.lil-gui', { has: page.locator(':scope > .lil-title', { hasText: 'Force total' }) });
+    await force.locator('.lil-title', { hasText: /^choose surfaces by what they are$/ }).click();
+    const field = (label: string) => force.locator('.lil-controller', { has: page.locator('.lil-name', { hasText: label }) }).locator('input');
     const choose = async () => { await page.locator('.lil-name', { hasText: /^choose matching surfaces$/ }).click(); await waitIdle(page); };
     const chosen = () => control('surfaces', 'Force total').locator('input').inputValue();
     await field('area from [m²]').fill('0.005');

@@ -1,7 +1,8 @@
 /**
  * `fieldtally wall <file> --groups a,b [--rho ρ --mu μ --speed U] [--json]`: wall shear stress, skin-friction
  * coefficient and y⁺ of the first cell on each named surface group, with area-weighted statistics, the area
- * share above y⁺ thresholds and a y⁺ histogram (src/surface/wallQuantities.ts).
+ * share above y⁺ thresholds and a y⁺ histogram (src/surface/wallQuantities.ts). Groups are named by id or name,
+ * or chosen by what they are (`groupArgs.ts`: box, nearest point, area range, exact name).
  */
 import { facesOfGroups, resolveGroups } from '../../surface/surfaceGroups.ts';
 import { wallQuantities, WALL_DEFAULTS, type WallOptions, type WallResult, type WallStat } from '../../surface/wallQuantities.ts';
@@ -38,7 +39,8 @@ const wall: Verb = {
     '                [--thresholds 1,5,30] [--histogram-bins n] [--shear-from auto|wall-shear|gradient]',
     '                [--wall-gradient second-order|first-order] [--velocity name] [--wall-shear name] [--per-face] [--json]',
     '                [--workers N]',
-    '  --groups          surface groups by id or name (see `fieldtally surfaces`), each reported on its own',
+    '  --groups          surface groups by id or name (see `fieldtally surfaces`), or chosen by what they are',
+    '                    (options below); each group reported on its own; a choice matching none names the file\'s groups',
     '  --rho, --mu       density (kg/m³) and dynamic viscosity (Pa·s, or a viscosity array): y+ = y·u_τ/ν, u_τ = √(|τ_w|/ρ)',
     '  --speed           reference speed U for c_f = |τ_w|/(½ρU²)',
     '  --wall-distance   y of y+: the wall cell\'s centroid from the face (default, common practice for cell-centred',

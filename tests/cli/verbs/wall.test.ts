@@ -42,3 +42,21 @@ it('text output names the source and ends with the caution; bad options get one-
   expect(none.code).toBe(1);
   expect(none.err).toMatch(/no viscosity μ given/);
 });
+
+it('groups chosen by what they are (area, box, nearest point, name) take the same wall, τ_w = 4μV/R; a choice matching nothing names the known groups', async () => {
+  const e = pipeExact();
+  // Hagen–Poiseuille (REFERENCES §1): τ_w = 4μV/R, times cos(π/24) on the 24-faceted wall
+  const tauW = 4 * e.mu * e.V / e.R, facet = Math.cos(Math.PI / 24);
+  const common = ['--rho', String(e.rho), '--mu', String(e.mu), '--speed', String(e.V), '--json'];
+  const box = [-2 * e.R, 2 * e.R, -2 * e.R, 2 * e.R, -0.01, e.L + 0.01].join(',');
+  for (const choice of [['--groups-area-from', '1e-3'], ['--groups-within', box, '--groups-area-from', '1e-3'], ['--group-nearest-to', `${e.R},0,${e.L / 2}`], ['--group-named', 'part 1']]) {
+    const r = await run('wall', FILE, ...choice, ...common);
+    expect(r.code, r.err).toBe(0);
+    const groups = JSON.parse(r.out).groups as { id: number; stats: { shearMagnitude: { mean: number } } }[];
+    expect(groups.map((g) => g.id), choice.join(' ')).toEqual([1]);
+    expect(groups[0]!.stats.shearMagnitude.mean / (tauW * facet)).toBeCloseTo(1, 9);
+  }
+  const none = await run('wall', FILE, '--group-named', 'outlet', ...common);
+  expect(none.code).toBe(1);
+  expect(none.err.trim()).toMatch(/^fieldtally wall: no surface group named "outlet" \(known: 0 "part 0" \(area [\d.e-]+\), 1 "part 1" \(area [\d.e-]+\), 2 "part 2" \(area [\d.e-]+\)\)$/);
+});
