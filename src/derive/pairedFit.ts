@@ -63,7 +63,8 @@ const siteOf = (k: number): number => (job.targets ? job.targets[k]! : k);
  */
 function prepare(lane: number, k: number): boolean {
   const i = siteOf(k), { so, sid } = job;
-  let n = gather(i, sid, so[i]!, so[i + 1]!, lane, true);
+  // a node list (a wall's nodes) is mostly one-sided: test the one-ring before writing it into the slots
+  let n = job.targets && !fittedApart(i, so[i]!, so[i + 1]!) ? -1 : gather(i, sid, so[i]!, so[i + 1]!, lane, true);
   laneOne[lane] = 1;
   if (n < 0) {
     const m = twoRing(so, sid, i, k);
@@ -128,6 +129,22 @@ function gather(i: number, list: Int32Array, lo: number, hi: number, lane: numbe
   if (skipOneSided && Math.hypot(mx, my, mz) / used * ih > ONE_SIDED) return SKEWED;
   F[KERNEL_LAYOUT.scaleAt / 8 + lane] = ih;
   return n;
+}
+
+/**
+ * False when `gather(i, sid, lo, hi, …, true)` would return −1 or SKEWED (the same sums in the same order),
+ * without writing anything.
+ */
+function fittedApart(i: number, lo: number, hi: number): boolean {
+  const { positions, sid } = job;
+  const x0 = positions[3 * i]!, y0 = positions[3 * i + 1]!, z0 = positions[3 * i + 2]!;
+  let h2 = 0, used = 0, mx = 0, my = 0, mz = 0;
+  for (let s = lo; s < hi; s++) {
+    const q = 3 * sid[s]!, dx = positions[q]! - x0, dy = positions[q + 1]! - y0, dz = positions[q + 2]! - z0;
+    const r2 = dx * dx + dy * dy + dz * dz;
+    if (r2 > 0) { h2 += r2; used++; mx += dx; my += dy; mz += dz; }
+  }
+  return used > 0 && !(Math.hypot(mx, my, mz) / used * (1 / Math.sqrt(h2 / used)) > ONE_SIDED);
 }
 
 /** Empties lane `lane`'s slots `a .. b-1` (padding: a zero offset adds nothing to any sum). */
