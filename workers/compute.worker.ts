@@ -8,6 +8,7 @@ import { integratePlane } from '../src/cut/planeIntegrals.ts';
 import { cutPlane } from '../src/cut/cutPlane.ts';
 import { selectRegion } from '../src/cut/region.ts';
 import { warmUpCutKernels } from '../src/cut/warmUp.ts';
+import { warmUpSurfaceKernels } from '../src/surface/warmUp.ts';
 import { getCellTree, hasCellTree } from '../src/locate/cellTree.ts';
 import type { RegionSpec } from '../src/cut/region.ts';
 import { readDatasetFrom } from '../src/io/readDataset.ts';
@@ -145,12 +146,12 @@ const WARM_UP_DELAY_MS = 150;
 let warmUpTimer: ReturnType<typeof setTimeout> | undefined;
 
 /**
- * Readies the held dataset for its first cut-plane and line probe while the user looks at the picture: the
- * cut kernels' compiled code (once per worker) and the dataset's cell tree (once per mesh; `crossingCells.ts`
- * uses it for cuts once built, `lineProbe.ts` always). With share workers, they hold their own.
+ * Readies the held dataset for its first cut-plane, line probe and force total while the user looks at the
+ * picture: the cut and surface kernels' compiled code (once per worker) and the dataset's cell tree (once per
+ * mesh; `crossingCells.ts` uses it for cuts once built, `lineProbe.ts` always). With share workers, they hold their own.
  */
 async function warmUp(h: Held | undefined, superseded: () => boolean): Promise<void> {
-  await warmUpCutKernels();
+  await Promise.all([warmUpCutKernels(), warmUpSurfaceKernels()]);
   // a file chosen meanwhile is read first: this dataset's tree would only delay it
   await yieldToMessages();
   if (superseded()) return;

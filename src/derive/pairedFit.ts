@@ -63,7 +63,8 @@ const siteOf = (k: number): number => (job.targets ? job.targets[k]! : k);
  */
 function prepare(lane: number, k: number): boolean {
   const i = siteOf(k), { so, sid } = job;
-  let n = gather(i, sid, so[i]!, so[i + 1]!, lane, true);
+  // a node list (a wall's nodes) is mostly one-sided: test the one-ring before writing it into the slots
+  let n = job.targets && !fittedApart(i, so[i]!, so[i + 1]!) ? -1 : gather(i, sid, so[i]!, so[i + 1]!, lane, true);
   laneOne[lane] = 1;
   if (n < 0) {
     const m = twoRing(so, sid, i, k);
@@ -102,27 +103,48 @@ function gather(i: number, list: Int32Array, lo: number, hi: number, lane: numbe
   const { K, positions, values, nc } = job, n = hi - lo;
   const step = 2 * (3 + nc), first = kernelSlots(K, n, nc) + lane, F = K.f64;
   const x0 = positions[3 * i]!, y0 = positions[3 * i + 1]!, z0 = positions[3 * i + 2]!;
-  const three = nc === 3;
-  const f0 = values[i * nc]!, f1 = three ? values[i * nc + 1]! : 0, f2 = three ? values[i * nc + 2]! : 0;
   let h2 = 0, used = 0, mx = 0, my = 0, mz = 0;
-  for (let s = lo, o = first; s < hi; s++, o += step) {
-    const q = 3 * list[s]!, dx = positions[q]! - x0, dy = positions[q + 1]! - y0, dz = positions[q + 2]! - z0;
-    F[o] = dx; F[o + 2] = dy; F[o + 4] = dz;
-    const r2 = dx * dx + dy * dy + dz * dz;
-    if (r2 > 0) { h2 += r2; used++; mx += dx; my += dy; mz += dz; }
+  // offsets and value differences in one pass over the ring (a one-sided one-ring's values are written and
+  // then not fitted: a few boundary nodes, against a second walk of every ring)
+  if (nc === 3) {
+    const f0 = values[3 * i]!, f1 = values[3 * i + 1]!, f2 = values[3 * i + 2]!;
+    for (let s = lo, o = first; s < hi; s++, o += step) {
+      const j = list[s]!, q = 3 * j, dx = positions[q]! - x0, dy = positions[q + 1]! - y0, dz = positions[q + 2]! - z0;
+      F[o] = dx; F[o + 2] = dy; F[o + 4] = dz;
+      F[o + 6] = values[q]! - f0; F[o + 8] = values[q + 1]! - f1; F[o + 10] = values[q + 2]! - f2;
+      const r2 = dx * dx + dy * dy + dz * dz;
+      if (r2 > 0) { h2 += r2; used++; mx += dx; my += dy; mz += dz; }
+    }
+  } else {
+    const f0 = values[i]!;
+    for (let s = lo, o = first; s < hi; s++, o += step) {
+      const j = list[s]!, q = 3 * j, dx = positions[q]! - x0, dy = positions[q + 1]! - y0, dz = positions[q + 2]! - z0;
+      F[o] = dx; F[o + 2] = dy; F[o + 4] = dz; F[o + 6] = values[j]! - f0;
+      const r2 = dx * dx + dy * dy + dz * dz;
+      if (r2 > 0) { h2 += r2; used++; mx += dx; my += dy; mz += dz; }
+    }
   }
   if (used === 0) return -1;
   const ih = 1 / Math.sqrt(h2 / used);
   if (skipOneSided && Math.hypot(mx, my, mz) / used * ih > ONE_SIDED) return SKEWED;
-  // the values only for a ring that is fitted (a one-sided one-ring is not)
-  if (three) {
-    for (let s = lo, o = first + 6; s < hi; s++, o += step) {
-      const v = 3 * list[s]!;
-      F[o] = values[v]! - f0; F[o + 2] = values[v + 1]! - f1; F[o + 4] = values[v + 2]! - f2;
-    }
-  } else for (let s = lo, o = first + 6; s < hi; s++, o += step) F[o] = values[list[s]!]! - f0;
   F[KERNEL_LAYOUT.scaleAt / 8 + lane] = ih;
   return n;
+}
+
+/**
+ * False when `gather(i, sid, lo, hi, …, true)` would return −1 or SKEWED (the same sums in the same order),
+ * without writing anything.
+ */
+function fittedApart(i: number, lo: number, hi: number): boolean {
+  const { positions, sid } = job;
+  const x0 = positions[3 * i]!, y0 = positions[3 * i + 1]!, z0 = positions[3 * i + 2]!;
+  let h2 = 0, used = 0, mx = 0, my = 0, mz = 0;
+  for (let s = lo; s < hi; s++) {
+    const q = 3 * sid[s]!, dx = positions[q]! - x0, dy = positions[q + 1]! - y0, dz = positions[q + 2]! - z0;
+    const r2 = dx * dx + dy * dy + dz * dz;
+    if (r2 > 0) { h2 += r2; used++; mx += dx; my += dy; mz += dz; }
+  }
+  return used > 0 && !(Math.hypot(mx, my, mz) / used * (1 / Math.sqrt(h2 / used)) > ONE_SIDED);
 }
 
 /** Empties lane `lane`'s slots `a .. b-1` (padding: a zero offset adds nothing to any sum). */

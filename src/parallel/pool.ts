@@ -24,6 +24,7 @@ import { findField } from '../model/piece.ts';
 import { probeLine, type LineProbeOptions, type LineProbeResult } from '../locate/lineProbe.ts';
 import type { BoundaryFaces } from '../surface/boundaryFaces.ts';
 import { primeBoundaryFaces } from '../surface/surfaceCache.ts';
+import { warmUpSurfaceKernels } from '../surface/warmUp.ts';
 import type { EvaluateOptions, SetEvaluation } from '../study/evaluate.ts';
 import type { ProbeSet } from '../study/probeSet.ts';
 import { mergeBoundary, mergeLines } from './mergeParts.ts';
@@ -32,6 +33,7 @@ import { dealProbes, joinEvaluations, subSet } from './probeSetShares.ts';
 import { nodeRanges } from '../derive/rangeGradient.ts';
 import type { ShareMessage, ShareReply, ShareRequest, WorkerMemory } from './shareHost.ts';
 import type { BoundaryPart, LinePart } from './shareTasks.ts';
+import { toSharedDataset } from './sharedDataset.ts';
 import { splitCells, type CellShare } from './shares.ts';
 
 /** The pool's end of one worker. */
@@ -100,8 +102,9 @@ export class ComputePool {
     for (const p of ports.slice(shares.length)) await p.terminate();
     const lanes = ports.slice(0, shares.length).map((p) => new Lane(p));
     const pool = new ComputePool(dataset, shares, lanes);
-    // This thread selects and integrates every merged cut: its kernels warm up while the workers take on their shares.
-    await Promise.all([...lanes.map((l, i) => l.call({ op: 'hold', dataset, share: shares[i]! })), warmUpCutKernels()]);
+    // This thread selects and integrates every merged cut and sums force totals over the merged boundary: its kernels
+    // warm up (the surface ones on datasets of the shared shape it will hold) while the workers take on their shares.
+    await Promise.all([...lanes.map((l, i) => l.call({ op: 'hold', dataset, share: shares[i]! })), warmUpCutKernels(), warmUpSurfaceKernels(toSharedDataset)]);
     return pool;
   }
 
