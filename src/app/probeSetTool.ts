@@ -59,6 +59,9 @@ export class ProbeSetTool {
   constructor(private readonly v: Viewer,
     private readonly tools: { refs: ReferenceTool; planes: PlaneTool; lines: LineTool; force: ForceTool; losses: LossTool; splits: SplitTool; iso?: IsoTool; walls?: WallTool; formulas?: FormulaTool },
     compareHost: HTMLElement, private readonly makeReport: (set: ProbeSet) => Promise<void>) {
+    // A change still waiting for its quiet moment is stored before the page goes away (reload, close, another
+    // address), so a probe made just before is not lost.
+    window.addEventListener('pagehide', () => { if (this.saveTimer !== undefined) this.persist(); });
     const f: GUI = v.gui.addFolder('Probe set');
     f.add({ save: () => this.save() }, 'save').name('save probe set (JSON)');
     f.add({ open: () => this.input.click() }, 'open').name('open probe set…');

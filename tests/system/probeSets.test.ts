@@ -202,7 +202,20 @@ describe('probe sets in the viewer', () => {
     expect(await pin('mid', 'massFlowRate')).toBe(sig4(cliValue(cliResults(MEDIUM), 'mid', 'massFlowRate')));
   });
 
+  it('a probe made just before the page goes away is kept (stored on leaving, not only after the quiet moment)', async () => {
+    await page.locator('.lil-name', { hasText: /^\+ new cut-plane$/ }).click();
+    await page.waitForFunction(() => document.querySelectorAll('table.results:not(.comparison) tr.probe-head').length === 9);
+    // at once: no waiting for the quiet moment after the change
+    await page.reload();
+    await waitIdle(page, 90_000);
+    await page.waitForSelector('.banner[data-kind=notice]');
+    expect(await page.locator('.banner-text').innerText()).toMatch(/^Restored the probe set kept from your last visit: 9 probes/);
+    expect((await probeIds()).length).toBe(9);
+  });
+
   it('a stored set that cannot be read is reported and kept aside, not dropped', async () => {
+    // the restored set is stored again after its quiet moment (or on leaving): let that happen before spoiling it
+    await settle();
     await page.evaluate((k) => localStorage.setItem(k, '{"savedAt": "x", "set": {"format": "fieldtally-probe-set", "version": 2, "probes": [{"id": 5}]}}'), STORE_KEY);
     await page.reload();
     await waitIdle(page, 90_000);
