@@ -3,8 +3,8 @@
  * that are all triangles (every boundary face of a tetrahedral mesh): the triangle rule, additions and order of
  * the general loop of `forces.ts`, with no traction work, no fan, and the corner pressures read in place from
  * the pieces' point arrays (`SurfaceLoads.pointPressure`) instead of a gathered per-corner array. Each corner
- * value is computed by the expression the gather uses, `scale × (p − shift)`, so force, moment and wetted area
- * are the general loop's bits (tests/surface/pressureOnlyForces.test.ts).
+ * value is computed by the expression the gather uses, `scale × (p − shift)`, so force, moment, wetted area and
+ * Σ|dF| (`ForceResult.grossForce`) are the general loop's bits (tests/surface/pressureOnlyForces.test.ts).
  *
  * Why a loop of its own, repeating the general loop's triangle lines: a file's force total runs once, almost all
  * of it before the engine has optimised the loop, and the unoptimised loop boxes every double it makes (the
@@ -23,7 +23,7 @@ const CHUNK = 64;
 
 /**
  * Integrates the point pressure `pp` over the triangles `selection` (faces of three nodes only) into `acc[0..5]`
- * (pressure force, moment about `ref`) and `acc[12]` (Σ|A_f|); `acc[6..11]` (viscous) are left 0.
+ * (pressure force, moment about `ref`), `acc[12]` (Σ|A_f|) and `acc[13]` (Σ|dF|); `acc[6..11]` (viscous) are left 0.
  */
 export function integratePressureTriangles(d: Dataset, faces: BoundaryFaces, selection: Int32Array, pp: PointPressure,
   ref: readonly number[], acc: Float64Array): void {
@@ -36,7 +36,7 @@ export function integratePressureTriangles(d: Dataset, faces: BoundaryFaces, sel
 function pressureTriangles(d: Dataset, faces: BoundaryFaces, sel: Int32Array, pp: PointPressure, ref: readonly number[],
   acc: Float64Array, k0: number, k1: number): void {
   const rx = ref[0]!, ry = ref[1]!, rz = ref[2]!, scale = pp.scale, shift = pp.shift, byPiece = pp.byPiece;
-  let fpx = acc[0]!, fpy = acc[1]!, fpz = acc[2]!, mpx = acc[3]!, mpy = acc[4]!, mpz = acc[5]!, wetted = acc[12]!;
+  let fpx = acc[0]!, fpy = acc[1]!, fpz = acc[2]!, mpx = acc[3]!, mpy = acc[4]!, mpz = acc[5]!, wetted = acc[12]!, gross = acc[13]!;
   const fo = faces.offsets, nodes = faces.nodes, fp = faces.piece, pieces = d.pieces, av = faces.areaVector;
   for (let k = k0; k < k1; k++) {
     const f = sel[k]!, a = fo[f]!, piece = fp[f]!;
@@ -51,11 +51,12 @@ function pressureTriangles(d: Dataset, faces: BoundaryFaces, sel: Int32Array, pp
     const sx = 0.5 * (uy * vz - uz * vy), sy = 0.5 * (uz * vx - ux * vz), sz = 0.5 * (ux * vy - uy * vx);
     const pm = (p0 + p1 + p2) / 3;
     fpx += pm * sx; fpy += pm * sy; fpz += pm * sz;
+    gross += Math.abs(pm) * Math.sqrt(sx * sx + sy * sy + sz * sz);
     const m0x = 0.5 * (x0 + x1) - rx, m0y = 0.5 * (y0 + y1) - ry, m0z = 0.5 * (z0 + z1) - rz, pa = 0.5 * (p0 + p1);
     const m1x = 0.5 * (x1 + x2) - rx, m1y = 0.5 * (y1 + y2) - ry, m1z = 0.5 * (z1 + z2) - rz, pb = 0.5 * (p1 + p2);
     const m2x = 0.5 * (x2 + x0) - rx, m2y = 0.5 * (y2 + y0) - ry, m2z = 0.5 * (z2 + z0) - rz, pc = 0.5 * (p2 + p0);
     const wx = (m0x * pa + m1x * pb + m2x * pc) / 3, wy = (m0y * pa + m1y * pb + m2y * pc) / 3, wz = (m0z * pa + m1z * pb + m2z * pc) / 3;
     mpx += wy * sz - wz * sy; mpy += wz * sx - wx * sz; mpz += wx * sy - wy * sx;
   }
-  acc[0] = fpx; acc[1] = fpy; acc[2] = fpz; acc[3] = mpx; acc[4] = mpy; acc[5] = mpz; acc[12] = wetted;
+  acc[0] = fpx; acc[1] = fpy; acc[2] = fpz; acc[3] = mpx; acc[4] = mpy; acc[5] = mpz; acc[12] = wetted; acc[13] = gross;
 }

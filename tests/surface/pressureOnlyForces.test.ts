@@ -61,6 +61,15 @@ describe('pressure-only force totals (no viscous part: triangles without tractio
     expect(result.pressureForce).toEqual(fp);
     expect(result.pressureMoment).toEqual(mp);
     expect(result.area).toBe(area);
+    // Σ|dF| = Σ |mean corner p| × triangle area, computed here from the faces' area vectors
+    const P = d.pieces[0]!.pointData[0]!.values;
+    let gross = 0;
+    for (let f = 0; f < faces.count; f++) {
+      const a = faces.offsets[f]!, pm = (P[faces.nodes[a]!]! + P[faces.nodes[a + 1]!]! + P[faces.nodes[a + 2]!]!) / 3;
+      gross += Math.abs(pm) * Math.hypot(faces.areaVector[3 * f]!, faces.areaVector[3 * f + 1]!, faces.areaVector[3 * f + 2]!);
+    }
+    expect(result.grossForce).toBeGreaterThan(0);
+    expect(Math.abs(result.grossForce / gross - 1)).toBeLessThan(1e-12);
   });
 
   it('uniform pressure on a closed surface gives no net force and no moment', () => {
@@ -70,6 +79,8 @@ describe('pressure-only force totals (no viscous part: triangles without tractio
       const { result } = totalOver(d, { viscous: 'none' }, [0.5, 0.5, 0.5]);
       for (const v of result.force) expect(Math.abs(v)).toBeLessThan(1e-9);
       for (const v of result.moment) expect(Math.abs(v)).toBeLessThan(1e-9);
+      // nothing cancels in Σ|dF|: a uniform p over the whole area, p·A (the triangle loop and the fan alike)
+      expect(Math.abs(result.grossForce / (101325 * result.area) - 1)).toBeLessThan(1e-12);
     }
   });
 
