@@ -16,8 +16,7 @@
  */
 import { readDataset } from '../io/readDataset.ts';
 import { writeVtu } from '../io/writeVtu.ts';
-import { CellType } from '../model/cellTypes.ts';
-import { field, datasetOf, hexGrid, pieceFromCells, pointFieldFrom, tetGrid, withFields } from '../model/meshBuild.ts';
+import { field, datasetOf, hexGrid, pointFieldFrom, tetGrid, tetsWithTriangles, withFields } from '../model/meshBuild.ts';
 import type { Piece } from '../model/piece.ts';
 import { integratePlane } from './planeIntegrals.ts';
 
@@ -31,21 +30,12 @@ function withFlow(p: Piece): Piece {
   ], [field('group', 'cell', 1, new Int32Array(cells).fill(1))]);
 }
 
-/** Tetrahedra followed by triangles on some of their faces, as files store boundary faces with the volume (the scans' general loops). */
-function tetsWithFaces(): Piece {
-  const t = tetGrid(4, 4, 4, (u, v, w) => [u, v, 2 + w]);
-  const nt = t.cellTypes.length, types: number[] = [], nodes: number[][] = [];
-  for (let c = 0; c < nt; c++) { types.push(CellType.TETRA); nodes.push(Array.from(t.connectivity.subarray(4 * c, 4 * c + 4))); }
-  for (let c = 0; c < nt; c += 3) { types.push(CellType.TRIANGLE); nodes.push(Array.from(t.connectivity.subarray(4 * c, 4 * c + 3))); }
-  return pieceFromCells(t.points, { types, nodes });
-}
-
 let warmed: Promise<void> | undefined;
 
 /** Cuts and integrates a small mesh twelve times; resolves when done. Runs once per thread (later calls share it). */
 export function warmUpCutKernels(): Promise<void> {
   warmed ??= (async () => {
-    const built = datasetOf([withFlow(hexGrid(10, 10, 10)), withFlow(tetGrid(5, 5, 5, (u, v, w) => [u, v, 1 + w])), withFlow(tetsWithFaces())], 'warm-up mesh');
+    const built = datasetOf([withFlow(hexGrid(10, 10, 10)), withFlow(tetGrid(5, 5, 5, (u, v, w) => [u, v, 1 + w])), withFlow(tetsWithTriangles(tetGrid(4, 4, 4, (u, v, w) => [u, v, 2 + w]), 3))], 'warm-up mesh');
     const d = await readDataset('warm-up mesh', writeVtu(built, { encoding: 'appended-raw' }));
     for (let i = 0; i < 12; i++) {
       const origin: [number, number, number] = [0.31 + 0.03 * i, 0.47, 0.2 + 0.23 * i];

@@ -118,6 +118,17 @@ export function tetGrid(nx: number, ny: number, nz: number, map: LatticeMap = id
   return piece;
 }
 
+/**
+ * The tetrahedra of `t` (a `tetGrid`), then a triangle on the first three nodes of every `every`-th of them, as
+ * files store boundary 2D cells after the volume cells (warm-up meshes meet the scans' general loops with them).
+ */
+export function tetsWithTriangles(t: Piece, every: number): Piece {
+  const nt = t.cellTypes.length, types: number[] = [], nodes: number[][] = [];
+  for (let c = 0; c < nt; c++) { types.push(CellType.TETRA); nodes.push(Array.from(t.connectivity.subarray(4 * c, 4 * c + 4))); }
+  for (let c = 0; c < nt; c += every) { types.push(CellType.TRIANGLE); nodes.push(Array.from(t.connectivity.subarray(4 * c, 4 * c + 3))); }
+  return pieceFromCells(t.points, { types, nodes });
+}
+
 /** Returns a copy of `p` with extra point and cell fields attached. */
 export function withFields(p: Piece, pointData: FieldArray[] = [], cellData: FieldArray[] = []): Piece {
   const out: Piece = { ...p, pointData: [...p.pointData, ...pointData], cellData: [...p.cellData, ...cellData] };

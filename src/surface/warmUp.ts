@@ -27,7 +27,7 @@ import { writeVtu } from '../io/writeVtu.ts';
 import { CellType } from '../model/cellTypes.ts';
 import type { Dataset } from '../model/dataset.ts';
 import type { FieldArray } from '../model/fieldArray.ts';
-import { datasetOf, field, hexGrid, pieceFromCells, pointFieldFrom, tetGrid, withFields } from '../model/meshBuild.ts';
+import { datasetOf, field, hexGrid, pieceFromCells, pointFieldFrom, tetGrid, tetsWithTriangles, withFields } from '../model/meshBuild.ts';
 import type { Piece } from '../model/piece.ts';
 import { forceTotals } from './forces.ts';
 import { getBoundaryFaces } from './surfaceCache.ts';
@@ -50,15 +50,6 @@ function withWallFields(p: Piece, float32: boolean): Piece {
   return withFields(p, float32 ? pointData.map(asFloat32) : pointData, float32 ? cellData.map(asFloat32) : cellData);
 }
 
-/** Tetrahedra followed by triangles on some of their faces, as files store boundary faces with the volume. */
-function tetsWithFaces(nx: number, map: (u: number, v: number, w: number) => [number, number, number]): Piece {
-  const t = tetGrid(nx, nx, nx, map);
-  const nt = t.cellTypes.length, types: number[] = [], nodes: number[][] = [];
-  for (let c = 0; c < nt; c++) { types.push(CellType.TETRA); nodes.push(Array.from(t.connectivity.subarray(4 * c, 4 * c + 4))); }
-  for (let c = 0; c < nt; c += 5) { types.push(CellType.TRIANGLE); nodes.push(Array.from(t.connectivity.subarray(4 * c, 4 * c + 3))); }
-  return pieceFromCells(t.points, { types, nodes });
-}
-
 /** A hexahedral lattice and a tetrahedral one beside it (apart: no face shared) in one piece: a surface of quadrilaterals and triangles. */
 function hexesAndTets(): Piece {
   const h = hexGrid(5, 5, 5), t = tetGrid(4, 4, 4, (u, v, w) => [u, v, 1.5 + w]);
@@ -72,7 +63,7 @@ function hexesAndTets(): Piece {
 async function warmUpMeshes(): Promise<Dataset[]> {
   const built = [
     datasetOf([withWallFields(hexGrid(8, 8, 8), true)], 'warm-up hexahedra'),
-    datasetOf([withWallFields(tetsWithFaces(6, (u, v, w) => [u, v, w]), true)], 'warm-up tetrahedra'),
+    datasetOf([withWallFields(tetsWithTriangles(tetGrid(6, 6, 6), 5), true)], 'warm-up tetrahedra'),
     datasetOf([withWallFields(hexesAndTets(), false)], 'warm-up mixed'),
   ];
   const out: Dataset[] = [];

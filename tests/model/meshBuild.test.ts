@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { datasetBounds } from '../../src/model/bounds.ts';
 import { cellStarts, pieceOfCell } from '../../src/model/dataset.ts';
 import { loadReport } from '../../src/model/loadReport.ts';
-import { datasetOf, field, hexGrid, pieceFromCells, tetGrid } from '../../src/model/meshBuild.ts';
+import { datasetOf, field, hexGrid, pieceFromCells, tetGrid, tetsWithTriangles } from '../../src/model/meshBuild.ts';
 
 /** Signed volume of a tetra given 4 point ids (exact arithmetic reference: 1/6 of the triple product). */
 function tetVolume(p: Float64Array, a: number, b: number, c: number, d: number): number {
@@ -39,6 +39,17 @@ describe('mesh builders', () => {
     expect(Array.from(s)).toEqual([0, 8, 9]);
     expect(pieceOfCell(s, 7)).toBe(0);
     expect(pieceOfCell(s, 8)).toBe(1);
+  });
+
+  it('tetrahedra followed by triangles on the first three nodes of every n-th of them', () => {
+    const t = tetGrid(2, 2, 2), p = tetsWithTriangles(t, 5);
+    // 48 tetrahedra, then triangles on tetrahedra 0, 5, …, 45: 10
+    expect(p.cellTypes.length).toBe(58);
+    expect(Array.from(p.cellTypes.subarray(0, 48)).every((c) => c === 10)).toBe(true);
+    expect(Array.from(p.cellTypes.subarray(48)).every((c) => c === 5)).toBe(true);
+    expect(Array.from(p.connectivity.subarray(0, 192))).toEqual(Array.from(t.connectivity));
+    expect(Array.from(p.connectivity.subarray(192 + 3, 192 + 6))).toEqual(Array.from(t.connectivity.subarray(20, 23)));
+    expect(Array.from(p.points)).toEqual(Array.from(t.points));
   });
 
   it('rejects connectivity out of range with a clear message', () => {
