@@ -7,8 +7,15 @@
  */
 import { fillPolygon } from './polygonFill.ts';
 
-let oPos = new Float64Array(3 * 4096), oEdge = new Int32Array(2 * 4096), oT = new Float64Array(4096);
-let oIdx = new Uint32Array(3 * 4096), oCell = new Int32Array(4096);
+/** Vertices and triangles the buffers hold at first (they grow as a cut needs). */
+const START = 4096;
+let oPos: Float64Array, oEdge: Int32Array, oT: Float64Array, oIdx: Uint32Array, oCell: Int32Array;
+/** Fresh buffers of `START` vertices and triangles (at load, and after a cut took the buffers themselves). */
+function startBuffers(): void {
+  oPos = new Float64Array(3 * START); oEdge = new Int32Array(2 * START); oT = new Float64Array(START);
+  oIdx = new Uint32Array(3 * START); oCell = new Int32Array(START);
+}
+startBuffers();
 let nV = 0, nT = 0;
 let tri = new Int32Array(192), work = new Int32Array(64);
 
@@ -54,8 +61,7 @@ export function takeOutput(): { positions: Float64Array; indices: Uint32Array; s
       positions: oPos.subarray(0, 3 * nV), indices: oIdx.subarray(0, 3 * nT), sourceCell: oCell.subarray(0, nT),
       vertexEdges: oEdge.subarray(0, 2 * nV), vertexT: oT.subarray(0, nV),
     };
-    oPos = new Float64Array(3 * 4096); oEdge = new Int32Array(2 * 4096); oT = new Float64Array(4096);
-    oIdx = new Uint32Array(3 * 4096); oCell = new Int32Array(4096);
+    startBuffers();
     nV = 0; nT = 0;
     return out;
   }
