@@ -30,6 +30,8 @@ export interface CutCounts {
   openChains: number;
   tolerance: number;
   planeFaces: PlaneFaceKeys;
+  /** Time the share's cut took in its worker (ms). */
+  ms: number;
 }
 
 /** The merged cut's arrays (layout of `PlaneCut`), in shared memory; each share writes its runs into them. */
@@ -56,7 +58,7 @@ export function cutShare(share: Dataset, key: number, origin: Vec3, normal: Vec3
     vertices: c.vertexT.length, triangles: c.sourceCell.length,
     fields: c.fields.map((f) => ({ name: f.name, association: f.association, components: f.components })),
     candidateCells: c.stats.candidateCells, candidateSource: c.stats.candidateSource, cutCells: c.stats.cutCells,
-    openChains: c.stats.openChains, tolerance: c.stats.tolerance, planeFaces: c.planeFaces!,
+    openChains: c.stats.openChains, tolerance: c.stats.tolerance, planeFaces: c.planeFaces!, ms: c.stats.ms,
   };
 }
 
