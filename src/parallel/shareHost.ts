@@ -71,7 +71,7 @@ export function serveShares(port: SharePort, memory: () => WorkerMemory | null =
     if (m.op === 'gradient') { if (!whole) throw new Error('worker pool: no dataset is held by this worker'); return gradientShare(whole, m); }
     if (!share || !range) throw new Error('worker pool: no dataset is held by this worker');
     if (m.op === 'cut') return cutShare(share, m.key, m.origin, m.normal, m.options);
-    if (m.op === 'place') return placeCutShare(m.key, range, m.runs, m.into);
+    if (m.op === 'place') return placeCutShare(m.key, range, m.runs, m.into, m.sums ?? null);
     if (m.op === 'line') return lineShare(share, range, m.from, m.to, m.options);
     return boundaryShare(share, range, m.withMerge);
   };

@@ -7,6 +7,7 @@
  * share straight into its place in the merged cut's shared arrays (`placeCuts.ts`).
  */
 import { cutPlane, type CutOptions, type PlaneCut, type PlaneFaceKeys } from '../cut/cutPlane.ts';
+import { blockSums, SUM_BLOCK, sumLayout, type IntegralOptions } from '../cut/integrals.ts';
 import type { Vec3 } from '../cut/triangleSet.ts';
 import type { Dataset } from '../model/dataset.ts';
 import { lineLocator, locateLineSamples } from '../locate/lineSamples.ts';
@@ -45,6 +46,21 @@ export interface SharedCutArrays {
   fields: Float64Array[];
 }
 
+/**
+ * Room for the blocks of the integral's triangle pass (`integrals.ts` `blockSums`) over a merged cut of `total`
+ * triangles, in shared memory: `K` sums a block (`sumLayout(fields, options).K`) in `sums`, `done[b]` set to 1 by
+ * the worker that summed block b, and each triangle's u·n, density (3 a triangle) and area at its place.
+ */
+export interface ShareSums {
+  options: Partial<IntegralOptions>;
+  total: number;
+  sums: Float64Array;
+  done: Uint8Array;
+  un: Float64Array;
+  rho: Float64Array;
+  area: Float64Array;
+}
+
 /** Cuts held until placed, by the host's key (a few at most: a cut whose placement never came is let go). */
 const held = new Map<number, PlaneCut>();
 const HELD_MAX = 4;
@@ -67,7 +83,7 @@ export function cutShare(share: Dataset, key: number, origin: Vec3, normal: Vec3
  * run: source triangles t0 … t1 − 1 with their vertices v0 … v1 − 1, to triangle `dt` and vertex `dv` of the
  * merged cut; vertex numbers are moved by dv − v0 and cell ids by the share's first cell. `into` null: only let go.
  */
-export function placeCutShare(key: number, range: CellShare, runs: Int32Array, into: SharedCutArrays | null): null {
+export function placeCutShare(key: number, range: CellShare, runs: Int32Array, into: SharedCutArrays | null, sums: ShareSums | null = null): null {
   const c = held.get(key);
   held.delete(key);
   if (!into) return null;
@@ -85,7 +101,22 @@ export function placeCutShare(key: number, range: CellShare, runs: Int32Array, i
       else into.fields[j]!.set(f.values.subarray(nc * t0, nc * t1), nc * dt);
     }
   }
+  if (sums) sumOwnBlocks(c, runs, sums);
   return null;
+}
+
+/**
+ * The blocks of the integral sums that lie wholly in this share's cell triangles (the first run, when it has
+ * any), summed from the share's own arrays into `s`: the same triangles in the same order as in the merged cut.
+ */
+function sumOwnBlocks(c: PlaneCut, runs: Int32Array, s: ShareSums): void {
+  const pf = c.planeFaces!, cells = pf.emitted.length ? pf.triStart[0]! : c.sourceCell.length;
+  if (cells === 0 || runs.length === 0) return;
+  const first = runs[4]!, end = first + cells, nb = Math.ceil(s.total / SUM_BLOCK);
+  const b0 = Math.ceil(first / SUM_BLOCK), b1 = end === s.total ? nb : Math.floor(end / SUM_BLOCK);
+  if (b1 <= b0) return;
+  blockSums(c, sumLayout(c.fields, s.options), first, s.total, b0, b1, { un: s.un, rho: s.rho, area: s.area }, s.sums);
+  s.done.fill(1, b0, b1);
 }
 
 function shiftInto(src: Uint32Array, a: number, b: number, shift: number, out: Uint32Array, o: number): void {
