@@ -119,7 +119,7 @@ export async function cutInPlace(all: <R>(req: (i: number) => CutRequest) => Pro
 }
 
 /** Shared room for the integral sums' blocks of a merged cut of `nT` triangles; null when the options do not fit its fields (integrateSurface then says why). */
-export function shareSums(layout: CutCounts['fields'], integral: Partial<IntegralOptions>, nT: number): ShareSums | null {
+function shareSums(layout: CutCounts['fields'], integral: Partial<IntegralOptions>, nT: number): ShareSums | null {
   let K: number;
   try { K = sumLayout(layout, integral).K; } catch { return null; }
   const nb = Math.ceil(nT / SUM_BLOCK);

@@ -10,13 +10,13 @@
  * Here a lattice of hexahedra and one of tetrahedra (with a few boundary triangles after them, as files store
  * them) go through shared memory and a structured clone, as a posted dataset does, are split into two shares,
  * and each share is cut and placed on planes that cross few blocks (coordinates) and many (side bytes), with
- * normals of both signs, summing the integral's blocks as they are placed. Results are thrown away; nothing is kept but the engine's compiled code.
+ * normals of both signs. Results are thrown away; nothing is kept but the engine's compiled code.
  */
 import { prepareCut } from '../cut/cutPlane.ts';
 import { datasetOf, field, hexGrid, pointFieldFrom, tetGrid, tetsWithTriangles, withFields } from '../model/meshBuild.ts';
 import type { Piece } from '../model/piece.ts';
 import type { Vec3 } from '../cut/triangleSet.ts';
-import { planCutRuns, shareSums } from './placeCuts.ts';
+import { planCutRuns } from './placeCuts.ts';
 import { cutShare, placeCutShare, type CutCounts, type SharedCutArrays } from './shareTasks.ts';
 import { toSharedDataset } from './sharedDataset.ts';
 import { shareDataset, splitCells } from './shares.ts';
@@ -64,8 +64,7 @@ export function warmUpShareKernels(rounds = 4): Promise<void> {
             vertexEdges: shared(Int32Array, 2 * nV), vertexT: shared(Float64Array, nV),
             fields: parts[0]!.fields.map((f) => shared(Float64Array, (f.association === 'point' ? nV : nT) * f.components)),
           };
-          const sums = shareSums(parts[0]!.fields, { density: 1000 }, nT);
-          ranges.forEach((range, i) => placeCutShare(keys[i]!, range, plan.runs[i]!, into, sums));
+          ranges.forEach((range, i) => placeCutShare(keys[i]!, range, plan.runs[i]!, into));
         }
         await new Promise<void>((resolve) => setTimeout(resolve, 0));
       }

@@ -39,7 +39,7 @@ describe('integral sums by blocks', () => {
   const pools: ComputePool[] = [];
   beforeAll(async () => {
     d = bigBox();
-    for (const n of [1, 2, 3]) pools.push(await openNodePool(d, n));
+    for (const n of [1, 2, 3]) { const pool = await openNodePool(d, n); pool.sumInWorkers = true; pools.push(pool); }
   }, 120_000);
   afterAll(async () => { await Promise.all(pools.map((p) => p.close())); });
 
@@ -78,6 +78,14 @@ describe('integral sums by blocks', () => {
     const q: PlaneQuery = { ...planes[0]!, region: [{ kind: 'rectangle', centre: [0.5, 0.5, 0.4], axis: [1, 0, 0], half: [0.3, 0.2] }] };
     const one = integratePlane(d, q);
     for (const pool of pools) expect((await pool.integratePlane(q)).integrals).toEqual(one.integrals);
+  }, 60_000);
+
+  it('by default the pool sums every block on this thread, with the same bits', async () => {
+    pools[1]!.sumInWorkers = false;
+    const one = integratePlane(d, planes[0]!), r = await pools[1]!.integratePlane(planes[0]!);
+    pools[1]!.sumInWorkers = true;
+    expect(summedBlocks(r.cut)).toBeUndefined();
+    expect(r.integrals).toEqual(one.integrals);
   }, 60_000);
 
   it('the cut area is the exact section of the box', () => {
