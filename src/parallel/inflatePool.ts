@@ -18,6 +18,8 @@ export interface InflatePool {
   readonly workers: number;
   /** Batches and blocks inflated by the workers so far. */
   readonly done: { batches: number; blocks: number };
+  /** Resolves when every worker has started and answered an empty batch. */
+  ready(): Promise<void>;
   close(): Promise<void>;
 }
 
@@ -70,5 +72,12 @@ export function startInflatePool(n: number): InflatePool {
     return got;
   };
   const inflate: InflateBlock = Object.assign((block: Uint8Array, out: Uint8Array) => nodeInflate(block, out), { batch });
-  return { inflate, workers: n, done, close: async () => { await Promise.all(workers.map((w) => w.terminate())); } };
+  const ready = async (): Promise<void> => {
+    await Promise.all(workers.map((w) => new Promise<(number | string)[]>((resolve, reject) => {
+      const id = next++;
+      waiting.set(id, { resolve, reject });
+      w.postMessage({ id, input, output, jobs: [] });
+    })));
+  };
+  return { inflate, workers: n, done, ready, close: async () => { await Promise.all(workers.map((w) => w.terminate())); } };
 }

@@ -28,6 +28,12 @@ describe.each([1, 2, 3])('loading with %i inflate worker(s)', (n) => {
   const pool = startInflatePool(n);
   pools.push(pool);
 
+  it('ready: every worker answers an empty batch, counted as no batch and no block', async () => {
+    const before = { ...pool.done };
+    await pool.ready();
+    expect(pool.done).toEqual(before);
+  });
+
   it.each(FILES)('%s: every array byte for byte as the one-thread load', async (file) => {
     const one = await loadDatasetFile(file);
     const before = pool.done.blocks;
