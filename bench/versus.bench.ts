@@ -7,7 +7,8 @@
  *   1000-sample line, later line, boundary extraction, pressure force total over the whole boundary — once on
  *   the single-thread core in one process (`core`) and once with a pool of 2 compute workers (`pool2`:
  *   workers started while the file loads, zlib blocks inflated by 2 threads, arrays decoded straight into shared
- *   memory (`sharedArrays`), as the CLI's `--workers 2`);
+ *   memory (`sharedArrays`), as the CLI's `--workers 2`; the workers are started and warmed before the load's
+ *   clock and that time is reported apart as `warmUp`, like the core's kernel warm-up);
  *   and 1 worker (`pool1`), for the speed-up from 1 to 2 workers and the memory per worker;
  * - the same stages with VTK (`bench/vtk_stages.py stages`);
  * - whole processes: `fieldtally cut <file> --origin … --normal …` against `vtk_stages.py cut` (read, cut,
@@ -305,6 +306,8 @@ export async function run(): Promise<Record<string, unknown>> {
       + 'coreCpuRatio = CPU time of the single-thread core / CPU time of VTK (all its threads): less sensitive to a busy machine; '
       + 'oneShotCut cpuRatio: the same for the whole processes; '
       + 'speedUp = wall(1 worker) / wall(2 workers); cpuMs counts every thread of a process. '
+      + 'Load of the pool children: timed after their warmUp (workers started and their kernels warmed, this thread\'s pool kernels warmed; reported apart), '
+      + 'as the core child\'s load is timed after its kernels\' warm-up (FIELDTALLY_BENCH_COLD_POOL=1: warm-up inside the load\'s clock). '
       + 'Boundary: files with 2D cells are reduced to their 3D cells for VTK before the clock starts (both tools then extract the same faces)',
     loadAverageBefore: loadBefore, loadAverageAfter: loadavg().map(r1), files,
   };
