@@ -164,11 +164,11 @@ function idError(plan: ArrayPlan, v: number | bigint, i: number): Error {
  * least and greatest value. The in-cache scan (`ChunkScan` in partReads.ts) takes the range from here instead of
  * reading the run again, when the run is the one it is handed.
  */
-export const lastIdRun = { out: undefined as NumericArray | undefined, from: 0, count: 0, min: 0, max: 0 };
+export const lastIdRun = { out: undefined as WeakRef<NumericArray> | undefined, from: 0, count: 0, min: 0, max: 0 };
 
-/** Records `runRange` as the range of ids `[from, from + count)` of `out`. */
+/** Records `runRange` as the range of ids `[from, from + count)` of `out` (held weakly: a dropped array is not kept). */
 function noteIdRun(out: NumericArray, from: number, count: number): void {
-  lastIdRun.out = out; lastIdRun.from = from; lastIdRun.count = count;
+  lastIdRun.out = new WeakRef(out); lastIdRun.from = from; lastIdRun.count = count;
   lastIdRun.min = runRange[0]!; lastIdRun.max = runRange[1]!;
 }
 

@@ -71,7 +71,7 @@ export class ChunkScan {
     if (this.ids && k > 0) {
       // The check of these ids (`finishDirect`, `convertChunk`) summed up their range already, as a rule.
       const run = lastIdRun;
-      const r = run.out === this.out && run.from === i && run.count === k ? (range[0] = run.min, range[1] = run.max, range)
+      const r = run.out?.deref() === this.out && run.from === i && run.count === k ? (range[0] = run.min, range[1] = run.max, range)
         : rangeOf(this.out as Int32Array, a0, a0 + k);
       if (r[0]! < this.min) this.min = r[0]!;
       if (r[1]! > this.max) this.max = r[1]!;

@@ -63,7 +63,7 @@ async function viaReaders(bytes: Uint8Array, plan: ArrayPlan, count: number, chu
         convertChunk(plan, part, k, out, i);
       }
       // The run was summed up, not searched value by value: its range is noted (the fast path did the work).
-      expect([lastIdRun.out === out, lastIdRun.from, lastIdRun.count]).toEqual([true, i, k]);
+      expect([lastIdRun.out?.deref() === out, lastIdRun.from, lastIdRun.count]).toEqual([true, i, k]);
       const ids = Array.from(out.subarray((plan.lead ?? 0) + i, (plan.lead ?? 0) + i + k));
       expect([lastIdRun.min, lastIdRun.max]).toEqual([Math.min(...ids), Math.max(...ids)]);
     }
