@@ -34,6 +34,14 @@ describe.each([1, 2, 3])('loading with %i inflate worker(s)', (n) => {
     expect(pool.done).toEqual(before);
   });
 
+  it.each(FILES)('%s, arrays decoded into shared memory: blocks inflated in place, every array byte for byte as the one-thread load', async (file) => {
+    const one = await loadDatasetFile(file);
+    const before = pool.done.inPlace;
+    const many = await loadDatasetFile(file, { inflate: pool.inflate, sharedArrays: true });
+    if (file.startsWith(SAMPLES) && file.includes('sphere')) expect(pool.done.inPlace).toBeGreaterThan(before);
+    expectSameArrays(many, one);
+  });
+
   it.each(FILES)('%s: every array byte for byte as the one-thread load', async (file) => {
     const one = await loadDatasetFile(file);
     const before = pool.done.blocks;
@@ -59,6 +67,11 @@ describe('a corrupt zlib block', () => {
       expect(one).toMatch(/^bad\.vtu: .*DataArray ".*": zlib block \d+ of \d+ (is corrupt|inflates to)/);
       // the same array and block (the zlib library's own words in parentheses may differ)
       expect(two.replace(/\(.*\)$/, '')).toBe(one.replace(/\(.*\)$/, ''));
+      // Inflated in place into shared final arrays: the same message.
+      const before = pool.done.inPlace;
+      const inPlace = await readDatasetFrom(bytesSource('bad.vtu', bad), { inflate: pool.inflate, sharedArrays: true }).then(() => '', (e: Error) => e.message);
+      expect(pool.done.inPlace).toBeGreaterThan(before);
+      expect(inPlace.replace(/\(.*\)$/, '')).toBe(one.replace(/\(.*\)$/, ''));
     } finally {
       await pool.close();
     }
