@@ -44,37 +44,42 @@ export const HOST_LITTLE = new Uint8Array(new Uint16Array([1]).buffer)[0] === 1;
 /** Bytes of the module scratch: big enough that a read or an inflate call is rare, small enough to stay in cache. */
 export const SCRATCH_BYTES = 1 << 20;
 
-const shared = [new ArrayBuffer(0), new ArrayBuffer(0), new ArrayBuffer(0)];
-const busy = [false, false, false];
+/** The module's scratch buffers per slot: in ordinary memory, and in shared memory (`Scratch`'s `inSharedMemory`; empty until first grown). */
+const kept: ArrayBufferLike[][] = [[new ArrayBuffer(0), new ArrayBuffer(0), new ArrayBuffer(0)], [new ArrayBuffer(0), new ArrayBuffer(0), new ArrayBuffer(0)]];
+const busy = [[false, false, false], [false, false, false]];
 
 /**
  * A scratch buffer held for the length of one array's read: the module's shared buffer for its slot
  * (grown when needed, reused by every read) or, when a concurrent load holds that, a private one. Slot 0
  * holds file elements on their way to a final array; slot 1 compressed blocks on their way to slot 0 (or
  * the next chunk, read while slot 0 is converted); slot 2 base64 text on its way to being decoded.
- * Call `release` when done (in a `finally`).
+ * `inSharedMemory`: a SharedArrayBuffer, so worker threads can write into it (the Node inflate pool inflates
+ * blocks straight into shared memory). Call `release` when done (in a `finally`).
  */
 export class Scratch {
-  private buf: ArrayBuffer;
+  private buf: ArrayBufferLike;
   private readonly own: boolean;
+  private readonly kind: 0 | 1;
 
-  constructor(private readonly slot: 0 | 1 | 2) {
-    this.own = busy[slot]!;
-    if (!this.own) busy[slot] = true;
-    this.buf = this.own ? new ArrayBuffer(0) : shared[slot]!;
+  constructor(private readonly slot: 0 | 1 | 2, inSharedMemory = false) {
+    this.kind = inSharedMemory && typeof SharedArrayBuffer !== 'undefined' ? 1 : 0;
+    this.own = busy[this.kind]![slot]!;
+    if (!this.own) busy[this.kind]![slot] = true;
+    this.buf = this.own ? new ArrayBuffer(0) : kept[this.kind]![slot]!;
   }
 
   /** The first `n` bytes of the buffer (aligned, contents not kept when it grows). */
   bytes(n: number): Uint8Array {
     if (this.buf.byteLength < n) {
-      this.buf = new ArrayBuffer(Math.max(n, SCRATCH_BYTES));
-      if (!this.own) shared[this.slot] = this.buf;
+      const size = Math.max(n, SCRATCH_BYTES);
+      this.buf = this.kind === 1 ? new SharedArrayBuffer(size) : new ArrayBuffer(size);
+      if (!this.own) kept[this.kind]![this.slot] = this.buf;
     }
     return new Uint8Array(this.buf, 0, n);
   }
 
   release(): void {
-    if (!this.own) busy[this.slot] = false;
+    if (!this.own) busy[this.kind]![this.slot] = false;
   }
 }
 
