@@ -2,33 +2,12 @@
 // blocks it is given from one shared buffer into another with node:zlib. Plain JavaScript (no TypeScript
 // loader), so it starts in a few milliseconds.
 //
-// One zlib engine, reset per block, inflates straight into the output (the engine's `_handle.writeSync` and
-// `_writeState`, as src/io/nodeFiles.ts `engineInflate` on the loading thread): `inflateSync` per 32 KiB block
-// made a fresh stream and output buffers each time and cost 2–3× as much CPU. Where the engine's parts are
-// missing, `inflateSync` as before.
+// One zlib engine, reset per block, inflates straight into the output (src/io/zlibEngine.mjs, as on the loading
+// thread): `inflateSync` per 32 KiB block made a fresh stream and output buffers each time and cost 2–3× as
+// much CPU. Where the engine's parts are missing, `inflateSync` as before.
 import { parentPort } from 'node:worker_threads';
-import { constants, createInflate, inflateSync } from 'node:zlib';
-
-let engine;
-const spill = new Uint8Array(4096);
-
-/** Inflates `block` into `out`; returns the inflated length (more than `out.length` when the stream is longer). */
-function engineInflate(block, out) {
-  if (!engine || engine.destroyed) {
-    engine = createInflate();
-    engine.on('error', () => undefined);
-  }
-  const z = engine;
-  z.reset();
-  z._handle.writeSync(constants.Z_FINISH, block, 0, block.length, out, 0, out.length);
-  if (z.destroyed) throw z.errored ?? new Error('invalid zlib data');
-  const [availOut, availIn] = z._writeState;
-  if (availOut > 0) return out.length - availOut;
-  // Output full: the stream may hold more than declared.
-  z._handle.writeSync(constants.Z_FINISH, block, block.length - availIn, availIn, spill, 0, spill.length);
-  if (z.destroyed) throw z.errored ?? new Error('invalid zlib data');
-  return out.length + (spill.length - z._writeState[0]);
-}
+import { inflateSync } from 'node:zlib';
+import { engineInflate, engineWorks } from '../src/io/zlibEngine.mjs';
 
 /** `inflateSync` into `out`: what was used before, and what runs where the engine's parts are missing. */
 function publicInflate(block, out) {
@@ -37,10 +16,7 @@ function publicInflate(block, out) {
   return r.length;
 }
 
-const probe = createInflate();
-probe.on('error', () => undefined);
-const inflate = typeof probe._handle?.writeSync === 'function' && probe._writeState instanceof Uint32Array ? engineInflate : publicInflate;
-probe.close();
+const inflate = engineWorks() ? engineInflate : publicInflate;
 
 parentPort.on('message', ({ id, input, output, jobs }) => {
   // jobs: [inStart, inLength, outStart, outLength] per block
