@@ -14,6 +14,7 @@ import { gradientShare, type GradientShare } from './deriveShares.ts';
 import { shareDataset, type CellShare } from './shares.ts';
 import { prepareCut } from '../cut/cutPlane.ts';
 import { warmUpCutKernels } from '../cut/warmUp.ts';
+import { warmUpShareKernels } from './shareWarmUp.ts';
 import { warmUpFitKernels } from '../derive/warmUpFit.ts';
 import type { Vec3 } from '../cut/triangleSet.ts';
 import { evaluateProbeSet, type EvaluateOptions } from '../study/evaluate.ts';
@@ -53,14 +54,14 @@ export interface WorkerMemory { heapUsed: number; external: number; arrayBuffers
 
 /**
  * Serves the pool's requests on `port` until the worker ends. `memory` reports this worker's memory when the
- * platform can tell. `warmUp` runs first (default: `warmUpCutKernels`, about 0.1 s, then `warmUpFitKernels` of
- * src/derive/warmUpFit.ts, about 0.15 s): a pool's workers start while the file is still being read, so their cut
+ * platform can tell. `warmUp` runs first (default: `warmUpCutKernels`, about 0.1 s, then `warmUpShareKernels` of
+ * shareWarmUp.ts, about 0.1 s, then `warmUpFitKernels` of src/derive/warmUpFit.ts, about 0.15 s): a pool's workers start while the file is still being read, so their cut
  * kernels and gradient fit are optimised by the time the first cut or gradient arrives instead of running cold
  * over their share (the cold first cut, and the cold wall fit, made two workers slower than one thread).
  * Requests wait for it and are answered one at a time, in order; a failed warm-up only leaves the kernels cold.
  */
 export function serveShares(port: SharePort, memory: () => WorkerMemory | null = () => null,
-  warmUp: () => Promise<void> = () => warmUpCutKernels().then(warmUpFitKernels)): void {
+  warmUp: () => Promise<void> = () => warmUpCutKernels().then(() => warmUpShareKernels()).then(warmUpFitKernels)): void {
   let whole: Dataset | undefined, share: Dataset | undefined, range: CellShare | undefined;
   const run = (m: ShareRequest): unknown => {
     if (m.op === 'hold') { whole = m.dataset; range = m.share; share = shareDataset(whole, range); prepareCut(share); return null; }
@@ -70,7 +71,7 @@ export function serveShares(port: SharePort, memory: () => WorkerMemory | null =
     if (m.op === 'gradient') { if (!whole) throw new Error('worker pool: no dataset is held by this worker'); return gradientShare(whole, m); }
     if (!share || !range) throw new Error('worker pool: no dataset is held by this worker');
     if (m.op === 'cut') return cutShare(share, m.key, m.origin, m.normal, m.options);
-    if (m.op === 'place') return placeCutShare(m.key, range, m.runs, m.into);
+    if (m.op === 'place') return placeCutShare(m.key, range, m.runs, m.into, m.sums ?? null);
     if (m.op === 'line') return lineShare(share, range, m.from, m.to, m.options);
     return boundaryShare(share, range, m.withMerge);
   };
