@@ -20,6 +20,7 @@ import { writeVtu } from '../io/writeVtu.ts';
 import type { Dataset } from '../model/dataset.ts';
 import { datasetOf, field, hexGrid, pointFieldFrom, tetGrid, tetsWithTriangles, withFields } from '../model/meshBuild.ts';
 import type { Piece } from '../model/piece.ts';
+import { oncePerShape, yieldNow } from '../model/warmUpRuns.ts';
 import { buildCellBlocks } from './cellBlocks.ts';
 import { probeLine, type Vec3 } from './lineProbe.ts';
 
@@ -56,33 +57,21 @@ function lineOf(r: number, zTop: number): [Vec3, Vec3] {
   }
 }
 
-const yieldNow = () => new Promise<void>((resolve) => setTimeout(resolve, 0));
-
-/** One warm-up per thread and dataset shape (see `warmUpLocateKernels`). */
-const warmed = new Map<((d: Dataset) => Dataset) | undefined, Promise<void>>();
-
 /**
  * Builds cell blocks and probes lines on small meshes; resolves when done. Runs once per thread and `reshape`
  * (later calls share it): `reshape` gives the meshes the shape the thread's real datasets will have when that
  * differs from a reader's (a pool worker locates in its share's views, `shareDataset`).
  */
-export function warmUpLocateKernels(reshape?: (d: Dataset) => Dataset): Promise<void> {
-  let run = warmed.get(reshape);
-  if (!run) {
-    run = (async () => {
-      const meshes = (await warmUpMeshes()).map((d) => (reshape ? reshape(d) : d));
-      for (const d of meshes) {
-        const zTop = d.pieces.length > 1 ? 2 : 1;
-        for (let b = 0; b < 3; b++) buildCellBlocks(d);
-        // Sample counts differ so the scans' sample arrays differ in length, as on real lines.
-        for (let r = 0; r < ROUNDS; r++) {
-          const [a, b] = lineOf(r, zTop);
-          probeLine(d, a, b, { samples: 200 + 7 * r });
-        }
-        await yieldNow();
-      }
-    })();
-    warmed.set(reshape, run);
+export const warmUpLocateKernels = oncePerShape(async (reshape) => {
+  const meshes = (await warmUpMeshes()).map((d) => (reshape ? reshape(d) : d));
+  for (const d of meshes) {
+    const zTop = d.pieces.length > 1 ? 2 : 1;
+    for (let b = 0; b < 3; b++) buildCellBlocks(d);
+    // Sample counts differ so the scans' sample arrays differ in length, as on real lines.
+    for (let r = 0; r < ROUNDS; r++) {
+      const [a, b] = lineOf(r, zTop);
+      probeLine(d, a, b, { samples: 200 + 7 * r });
+    }
+    await yieldNow();
   }
-  return run;
-}
+});
