@@ -239,7 +239,7 @@ describe('line samples by a scan of cell blocks', () => {
     // two pieces whose block counts are not multiples of GROUP, so a group straddles the pieces; 2D cells in the first
     const d = datasetOf([tetsWithTriangles(jitteredTet(5), 3), jitteredHex(4)]);
     const b = getCellBlocks(d);
-    const union = (boxes: Float64Array, from: number, to: number): number[] => {
+    const union = (boxes: Float32Array, from: number, to: number): number[] => {
       const u = [Infinity, -Infinity, Infinity, -Infinity, Infinity, -Infinity];
       for (let j = from; j < to; j++) {
         if (!(boxes[6 * j]! <= boxes[6 * j + 1]!)) continue;
