@@ -45,6 +45,7 @@ import { forceTotals } from '../src/surface/forces.ts';
 import { getBoundaryFaces } from '../src/surface/surfaceCache.ts';
 import { surfaceLoads } from '../src/surface/surfaceLoads.ts';
 import { warmUpSurfaceKernels } from '../src/surface/warmUp.ts';
+import { warmUpLocateKernels } from '../src/locate/warmUp.ts';
 
 const ROOT = resolve(dirname(fileURLToPath(import.meta.url)), '..');
 const PYTHON = '/usr/bin/python3';
@@ -101,7 +102,7 @@ async function childStages(file: string, workers: number): Promise<Record<string
   if (workers === 0) {
     // The kernels warm up first, as the app's compute worker does when it starts (before a file is chosen);
     // its cost is reported apart (warmUp). Beside a one-thread load it only moved time from the first cut into the load.
-    [, out.warmUp] = await timed(() => Promise.all([warmUpCutKernels(), warmUpSurfaceKernels()]));
+    [, out.warmUp] = await timed(() => Promise.all([warmUpCutKernels(), warmUpSurfaceKernels(), warmUpLocateKernels()]));
     [d, out.load] = await timed(() => loadDatasetFile(file));
   } else {
     let c0 = process.cpuUsage(), t0 = performance.now();
