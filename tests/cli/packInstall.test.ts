@@ -39,7 +39,7 @@ describe('npm pack → npm install -g → fieldtally', () => {
 
     const listed = execFileSync('tar', ['-tzf', tarball], { encoding: 'utf8' }).trim().split('\n').sort();
     expect(listed).toEqual([
-      'package/README.md', 'package/bin/fieldtally.mjs', 'package/dist-cli/THIRD-PARTY-NOTICES.txt',
+      'package/README.md', 'package/bin/fieldtally.mjs', 'package/bin/hugePages.mjs', 'package/dist-cli/THIRD-PARTY-NOTICES.txt',
       'package/dist-cli/fieldtally.mjs', 'package/dist-cli/inflateWorker.mjs', 'package/dist-cli/readWorker.mjs', 'package/dist-cli/seriesWorker.mjs',
       'package/dist-cli/shareWorker.mjs', 'package/dist-cli/textWorker.mjs', 'package/package.json', 'package/src/study/probeSet.schema.json',
     ]);
