@@ -2,9 +2,11 @@
 // `bin/build-cli.mjs` (dist-cli/, for `npm pack`) and `bin/fieldtally.mjs` in a clone, which runs a bundle
 // cached in the temporary folder instead of compiling TypeScript on every start.
 //
-// `writeBundle(root, dir)` writes dir/fieldtally.mjs (from src/cli/run.ts, fflate included) and each Node
+// `writeBundle(root, dir)` writes dir/fieldtally.cjs (from src/cli/run.ts, fflate included) and each Node
 // worker beside it (dir/<kind>Worker.mjs, found there by src/parallel/workerEntry.ts), with the verb and
-// bench-stage names written in as constants (a bundle has no folder to list).
+// bench-stage names written in as constants (a bundle has no folder to list). The command is CommonJS so
+// that bin/runBundle.mjs can compile it with a V8 code cache (Node 20 keeps none for ES modules); the workers
+// stay ES modules.
 //
 // `cachedBundle(root)` returns the entry of a bundle in $TMPDIR/fieldtally-cli-<uid>/<stamp>/, building it
 // when missing. The stamp is a hash of the size and time of every file in src/, workers/ and bin/ and of
@@ -30,6 +32,9 @@ export function workerEntries(root) {
   }
   return out;
 }
+
+/** File name of the command's bundle (CommonJS, run by bin/runBundle.mjs). */
+export const BUNDLE_ENTRY = 'fieldtally.cjs';
 
 /** Folders of cached bundles not used for this long are removed (ms). */
 const KEEP_UNUSED_MS = 7 * 24 * 3600 * 1000;
@@ -72,13 +77,18 @@ export async function writeBundle(root, dir, overrides = {}) {
   const { version, verbs, options } = commonOptions(root);
   const common = { ...options, ...overrides };
   mkdirSync(dir, { recursive: true });
-  const main = await build({ ...common, entryPoints: [join(root, 'src/cli/run.ts')], outfile: join(dir, 'fieldtally.mjs') });
+  // CommonJS has no import.meta: the bundle's own file URL stands in for it (the workers are found beside it).
+  const main = await build({
+    ...common, format: 'cjs', entryPoints: [join(root, 'src/cli/run.ts')], outfile: join(dir, BUNDLE_ENTRY),
+    define: { ...common.define, 'import.meta.url': 'fieldtallyModuleUrl' },
+    banner: { js: "var fieldtallyModuleUrl = require('node:url').pathToFileURL(__filename).href;" },
+  });
   const inputs = Object.keys(main.metafile?.inputs ?? {});
   for (const [kind, entry] of Object.entries(workerEntries(root))) {
     const w = await build({ ...common, entryPoints: [join(root, entry)], outfile: join(dir, `${kind}Worker.mjs`) });
     inputs.push(...Object.keys(w.metafile?.inputs ?? {}));
   }
-  return { version, verbs, bytes: statSync(join(dir, 'fieldtally.mjs')).size, inputs };
+  return { version, verbs, bytes: statSync(join(dir, BUNDLE_ENTRY)).size, inputs };
 }
 
 /** Size and time of every file under `dir`, one line each (sorted, so the order of listing does not matter). */
@@ -128,14 +138,14 @@ function prune(base, keep) {
 }
 
 /**
- * Path of the cached bundle's entry (dir/fieldtally.mjs) for the sources under `root`, built now when missing
+ * Path of the cached bundle's entry (dir/fieldtally.cjs) for the sources under `root`, built now when missing
  * (about a second). Throws when it cannot be built (no esbuild, a read-only temporary folder).
  */
 export async function cachedBundle(root) {
   const base = join(tmpdir(), `fieldtally-cli-${userInfo().uid}`);
   const name = sourceStamp(root);
   const dir = join(base, name);
-  const entry = join(dir, 'fieldtally.mjs');
+  const entry = join(dir, BUNDLE_ENTRY);
   if (existsSync(entry)) {
     const now = new Date();
     try { utimesSync(dir, now, now); } catch { /* marks it used; not needed to run it */ }

@@ -4,8 +4,8 @@
 // the first run after an edit, about a second), so `npx fieldtally …` works right after `npm ci` with no
 // build step, never runs a stale build, and does not compile TypeScript on every start; if the bundle
 // cannot be built, or with FIELDTALLY_CLI_FROM_SOURCE=1, it runs the sources through tsx. In the installed
-// package (`npm pack`, no src/) it runs the bundle dist-cli/fieldtally.mjs that `bin/build-cli.mjs` wrote
-// at pack time.
+// package (`npm pack`, no src/) it runs the bundle dist-cli/fieldtally.cjs that `bin/build-cli.mjs` wrote
+// at pack time. Either bundle is compiled with a V8 code cache of its verb (bin/runBundle.mjs).
 //
 // On Linux, when its input files may decode to 256 MiB or more (bin/hugePages.mjs), it first re-runs itself
 // once with glibc's `malloc.hugetlb=1` tunable: large typed arrays are then backed by transparent huge pages,
@@ -14,7 +14,7 @@
 // `--version` is answered before that, from package.json, so it costs a single short start.
 import { spawnSync } from 'node:child_process';
 import { existsSync, readFileSync } from 'node:fs';
-import { fileURLToPath, pathToFileURL } from 'node:url';
+import { fileURLToPath } from 'node:url';
 import { wantsHugePages } from './hugePages.mjs';
 
 const root = new URL('../', import.meta.url);
@@ -49,12 +49,15 @@ if (existsSync(new URL('src/cli/main.ts', root))) {
     }
   }
   if (bundle) {
-    await import(pathToFileURL(bundle).href);
+    const { runBundle } = await import('./runBundle.mjs');
+    await runBundle(bundle, args);
   } else {
     const { register } = await import('tsx/esm/api');
     register();
-    await import('../src/cli/run.ts');
+    const { runCommand } = await import('../src/cli/run.ts');
+    await runCommand(args);
   }
 } else {
-  await import('../dist-cli/fieldtally.mjs');
+  const { runBundle } = await import('./runBundle.mjs');
+  await runBundle(fileURLToPath(new URL('dist-cli/fieldtally.cjs', root)), args);
 }

@@ -1,6 +1,6 @@
 /**
- * Entry of the bundled command (`bin/build-cli.mjs` bundles from here; the clone's tsx fallback imports it
- * too): runs the command line on argv, then leaves as soon as stdout and stderr are flushed.
+ * Entry of the bundled command (`bin/cliBundle.mjs` bundles from here; `bin/runBundle.mjs` loads the bundle
+ * and calls `runCommand`, the clone's tsx fallback imports this file and does the same).
  *
  * Why `process.exit`: a verb returns once its work is done and its output written (pools closed, files
  * saved), so what is left — freeing a loaded field's arrays, tearing down the engine's heap and threads —
@@ -13,6 +13,9 @@ function flushed(stream: NodeJS.WriteStream): Promise<void> {
   return new Promise((done) => { stream.write('', () => done()); });
 }
 
-const code = await main(process.argv.slice(2));
-await Promise.all([flushed(process.stdout), flushed(process.stderr)]);
-process.exit(code);
+/** Runs the command line `argv` (the arguments after the command's name), then ends the process with its exit code once stdout and stderr are flushed. */
+export async function runCommand(argv: string[]): Promise<never> {
+  const code = await main(argv);
+  await Promise.all([flushed(process.stdout), flushed(process.stderr)]);
+  process.exit(code);
+}

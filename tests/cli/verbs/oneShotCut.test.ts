@@ -101,15 +101,15 @@ describe('one-shot cut', () => {
     const stamps = readdirSync(join(cache, base[0]!));
     expect(stamps).toHaveLength(1);
     const built = join(cache, base[0]!, stamps[0]!);
-    expect(readdirSync(built).sort()).toEqual(['fieldtally.mjs', ...Object.keys(workerEntries(REPO)).map((k) => `${k}Worker.mjs`)].sort());
+    expect(readdirSync(built).sort()).toEqual(['fieldtally.cjs', ...Object.keys(workerEntries(REPO)).map((k) => `${k}Worker.mjs`)].sort());
     expect(readdirSync(built)).toEqual(expect.arrayContaining(['inflateWorker.mjs', 'seriesWorker.mjs', 'shareWorker.mjs']));
-    const time = statSync(join(built, 'fieldtally.mjs')).mtimeMs;
+    const time = statSync(join(built, 'fieldtally.cjs')).mtimeMs;
     // a second run reuses it; the pool's workers start from the bundles beside it
     expect(withoutTime(bin([...cutArgs(raw), '--workers', '2']))).toEqual(expected);
-    expect(statSync(join(built, 'fieldtally.mjs')).mtimeMs).toBe(time);
+    expect(statSync(join(built, 'fieldtally.cjs')).mtimeMs).toBe(time);
     expect(readdirSync(join(cache, base[0]!))).toEqual(stamps);
     // the TypeScript sources through tsx, on request: the same numbers
     expect(withoutTime(bin(cutArgs(raw), { FIELDTALLY_CLI_FROM_SOURCE: '1' }))).toEqual(expected);
-    expect(existsSync(join(built, 'fieldtally.mjs'))).toBe(true);
+    expect(existsSync(join(built, 'fieldtally.cjs'))).toBe(true);
   }, 180_000);
 });
