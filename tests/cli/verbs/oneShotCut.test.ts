@@ -15,7 +15,8 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { workerEntries } from '../../../bin/cliBundle.mjs';
 import { main } from '../../../src/cli/main.ts';
 import { parseArgs } from '../../../src/cli/args.ts';
-import { loadForOneShot } from '../../../src/cli/oneShotLoad.ts';
+import { loadForOneShot, ONE_SHOT_WORKER_OPTIONS } from '../../../src/cli/oneShotLoad.ts';
+import { WORKER_OPTIONS } from '../../../src/cli/workerOption.ts';
 import { writeVtu } from '../../../src/io/writeVtu.ts';
 import { PIPE_LEVELS, pipeCase, pipeExact } from '../../../src/samples/pipe.ts';
 
@@ -66,6 +67,7 @@ describe('one-shot cut', () => {
   });
 
   it('opens no pool unless --workers N ≥ 2 is given (FIELDTALLY_WORKERS does not start one)', async () => {
+    expect(ONE_SHOT_WORKER_OPTIONS).toEqual(WORKER_OPTIONS);
     const options = { workers: 'string' } as const;
     const saved = process.env.FIELDTALLY_WORKERS;
     process.env.FIELDTALLY_WORKERS = '2';
@@ -95,6 +97,8 @@ describe('one-shot cut', () => {
       execFileSync(process.execPath, [join(REPO, 'bin', 'fieldtally.mjs'), ...argv], { cwd: dir, encoding: 'utf8', env: { ...env, ...extra } });
     const expected = await inProcess(cutArgs(raw));
     expect(withoutTime(bin(cutArgs(raw)))).toEqual(expected);
+    // zlib blocks inflated by the bundle's fflate (its build without threads) give the sources' numbers
+    expect(withoutTime(bin(cutArgs(zlib)))).toEqual(await inProcess(cutArgs(zlib)));
     // one folder of bundles, with the command and every worker beside it
     const base = readdirSync(cache).filter((f) => f.startsWith('fieldtally-cli-'));
     expect(base).toHaveLength(1);
