@@ -36,11 +36,13 @@ function declaresCompressor(file) {
 /**
  * Estimated bytes the input files of `args` decode to (their sizes, a compressed XML file's times
  * `COMPRESSED_GROWTH`), or Infinity when an argument is a folder, a pattern or a file naming other files.
- * Arguments that name no existing path (options and their values) count nothing.
+ * Arguments that name no existing path (options and their values) count nothing. Stops counting once the
+ * estimate reaches `enough` (a long list of files is not read through when its first files decide).
  */
-export function inputEstimate(args) {
+export function inputEstimate(args, enough = Infinity) {
   let bytes = 0;
   for (const a of args) {
+    if (bytes >= enough) break;
     if (a.startsWith('-')) continue;
     let s;
     try { s = statSync(a); } catch { if (PATTERN.test(a)) return Infinity; continue; }
@@ -58,5 +60,5 @@ export function inputEstimate(args) {
  * `HUGE_PAGES_MIN_BYTES`, or `FIELDTALLY_RESPAWN_MIN_BYTES` from the environment).
  */
 export function wantsHugePages(args, minBytes = Number(process.env.FIELDTALLY_RESPAWN_MIN_BYTES || HUGE_PAGES_MIN_BYTES)) {
-  return inputEstimate(args) >= minBytes;
+  return inputEstimate(args, minBytes) >= minBytes;
 }

@@ -29,6 +29,8 @@ describe('hugePages', () => {
     expect(inputEstimate([raw, zlib, '--json'])).toBe(rawBytes.length + 8 * zlibBytes.length);
     expect(inputEstimate(['--version'])).toBe(0);
     expect(inputEstimate([join(work, 'missing.vtu')])).toBe(0);
+    // counting stops once the estimate is enough
+    expect(inputEstimate([raw, zlib], rawBytes.length)).toBe(rawBytes.length);
   });
 
   it('cannot tell for a folder, a glob or numbered pattern, or a file naming other files', () => {
