@@ -89,8 +89,12 @@ export async function writeBundle(root, dir, overrides = {}) {
   const common = { ...options, ...overrides };
   mkdirSync(dir, { recursive: true });
   // CommonJS has no import.meta: the bundle's own file URL stands in for it (the workers are found beside it).
+  // Every import() becomes a require(): a script compiled with a code cache has no dynamic-import callback
+  // (Node keeps it with the script's host options, which a cached script loses), so an import() of a module
+  // left outside the bundle (a Node built-in) would fail on the runs that use the cache.
   const main = await build({
     ...common, format: 'cjs', entryPoints: [join(root, 'src/cli/run.ts')], outfile: join(dir, BUNDLE_ENTRY),
+    supported: { 'dynamic-import': false },
     define: { ...common.define, 'import.meta.url': 'fieldtallyModuleUrl' },
     banner: { js: "var fieldtallyModuleUrl = require('node:url').pathToFileURL(__filename).href;" },
   });

@@ -6,10 +6,12 @@
  * is linear, so the area-mean pressure over the cut at z = L/2 is G·L/2 = 0.20032 Pa on any mesh of the pipe.
  */
 import { spawnSync } from 'node:child_process';
-import { chmodSync, existsSync, mkdtempSync, readdirSync, rmSync, writeFileSync } from 'node:fs';
+import { chmodSync, existsSync, mkdirSync, mkdtempSync, readdirSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir, userInfo } from 'node:os';
 import { join, resolve } from 'node:path';
+import { pathToFileURL } from 'node:url';
 import { afterAll, describe, expect, it } from 'vitest';
+import { BUNDLE_ENTRY, writeBundle } from '../../bin/cliBundle.mjs';
 import { main } from '../../src/cli/main.ts';
 
 const REPO = resolve(__dirname, '../..');
@@ -66,6 +68,19 @@ describe('code cache of the bundled command', () => {
     expect([spoilt.status, spoilt.said]).toEqual([0, ['rejected', 'written']]);
     expect(withoutTime(spoilt.stdout)).toEqual(withoutTime(good.stdout));
     expect(run(CUT).said).toEqual(['used']);
+  }, 60_000);
+
+  it('runs import() of a Node built-in from the bundle with the cache in use (bundled as a require)', async () => {
+    const root = join(work, 'fake');
+    for (const d of ['src/cli/verbs', 'src/cli/benchStages', 'workers', 'bin']) mkdirSync(join(root, d), { recursive: true });
+    writeFileSync(join(root, 'package.json'), '{ "name": "fake", "version": "1.0.0", "type": "module" }\n');
+    writeFileSync(join(root, 'src/cli/run.ts'), "export async function runCommand(argv: string[]): Promise<void> {\n  const { posix } = await import('node:path');\n  process.stdout.write(posix.join(...argv) + '\\n');\n  process.exit(3);\n}\n");
+    const dir = join(work, 'fake-bundle');
+    await writeBundle(root, dir, { logLevel: 'silent' });
+    const script = `import(${JSON.stringify(pathToFileURL(join(REPO, 'bin/runBundle.mjs')).href)}).then((m) => m.runBundle(${JSON.stringify(join(dir, BUNDLE_ENTRY))}, ['join', 'a', 'b']))`;
+    const runs = [0, 1, 2].map(() => spawnSync(process.execPath, ['-e', script], { encoding: 'utf8', env: { ...process.env, TMPDIR: temp, FIELDTALLY_DEBUG: '1', FIELDTALLY_CODE_CACHE: '' } }));
+    expect(runs.map((r) => [r.status, r.stdout, r.stderr.split('\n').filter((l) => l.startsWith('fieldtally: code cache: ')).map((l) => l.slice(24).split(' ')[0])]))
+      .toEqual([[3, 'join/a/b\n', ['none', 'written']], [3, 'join/a/b\n', ['used']], [3, 'join/a/b\n', ['used']]]);
   }, 60_000);
 
   it('uses no folder that others may write, and nothing when turned off', () => {
