@@ -16,7 +16,7 @@
 import { existsSync, mkdirSync, readdirSync, readFileSync, renameSync, rmSync, statSync, utimesSync } from 'node:fs';
 import { tmpdir, userInfo } from 'node:os';
 import { join } from 'node:path';
-import zlib from 'node:zlib';
+import { hash64 } from './runBundle.mjs';
 
 /**
  * The Node workers bundled beside the command, by kind (src/parallel/workerEntry.ts names the kinds): each
@@ -115,28 +115,6 @@ function stamp(dir, lines) {
     if (e.isDirectory()) stamp(full, lines);
     else if (e.isFile()) { const s = statSync(full); lines.push(`${full}\0${s.size}\0${s.mtimeMs}`); }
   }
-}
-
-/**
- * A 64-bit hash of the lines, as 16 hex digits: the CRC-32 of the lines in order and of the lines in reverse
- * order (zlib's, in native code: about 0.1 ms where the JavaScript hash below took 4–15 ms, since it runs once
- * and is never optimised; node:zlib is loaded by the command anyway). Before Node 20.15, two FNV-1a hashes.
- */
-function hash64(lines) {
-  const text = lines.join('\n');
-  const { crc32 } = zlib;
-  if (typeof crc32 === 'function') {
-    const hex = (v) => (v >>> 0).toString(16).padStart(8, '0');
-    return hex(crc32(text)) + hex(crc32(lines.slice().reverse().join('\n')));
-  }
-  let a = 0x811c9dc5, b = 0x050c5d1f;
-  for (let i = 0; i < text.length; i++) {
-    const c = text.charCodeAt(i);
-    a = Math.imul(a ^ c, 0x01000193) >>> 0;
-    b = Math.imul(b ^ c, 0x01000193) >>> 0;
-    b = (b ^ (b >>> 13)) >>> 0;
-  }
-  return a.toString(16).padStart(8, '0') + b.toString(16).padStart(8, '0');
 }
 
 /** The stamp of the sources a bundle is made from: file count and a hash of every file's path, size and time. */
