@@ -16,7 +16,7 @@
  *   so a change in the machine's load touches them alike; wall and CPU time (user + system of every thread,
  *   from GNU time when present). The command both from the clone (`bin/fieldtally.mjs`, which runs the
  *   bundle it caches under a stamp of the sources) and as installed (the files `npm pack` ships —
- *   package.json, bin/fieldtally.mjs, dist-cli/ built first by `bin/build-cli.mjs` — copied into a temporary
+ *   package.json, bin/*.mjs, dist-cli/ built first by `bin/build-cli.mjs` — copied into a temporary
  *   folder and run through its bin/fieldtally.mjs, as `npm install` would).
  *   `--one-shot-only` (`npm run bench -- versus --one-shot-only`) runs only these, with `ONE_SHOT_ONLY_RUNS`.
  *
@@ -53,7 +53,7 @@ const FILES = ['pipe-hex-1M.appended-raw.vtu', 'pipe-hex-1M.appended-zlib.vtu', 
 const ONE_SHOT_RUNS = 2;
 const ONE_SHOT_ONLY_RUNS = 5;
 /** The installed command's bundle (built by the run when missing or older than this run). */
-const BUNDLE = join(ROOT, 'dist-cli', 'fieldtally.mjs');
+const BUNDLE = join(ROOT, 'dist-cli', 'fieldtally.cjs');
 /** GNU time gives a child's CPU time (user + system, every thread), which the machine's load changes far less than wall time. */
 const GNU_TIME = '/usr/bin/time';
 const STAGES = ['load', 'firstCut', 'laterCut', 'firstLine', 'laterLine', 'boundary', 'force'] as const;
