@@ -3,19 +3,32 @@
  * bin/write-moment-kernel.mjs): for two sites at once, one per f64x2 lane, it sums the 31 weighted moments and
  * the right-hand sides, factorises the 9×9 normal matrix (pivots dropped per lane) and solves for the gradient,
  * each lane's arithmetic the scalar code's to the bit (same products, same order, no fused multiply-add).
- * pairedFit.ts feeds it.
+ * pairedFit.ts feeds it: from neighbour rows built in JavaScript, or — for every node of a piece or a node range —
+ * from a copy of the mesh held in the kernel's memory (kernelMesh.ts), whose rings the kernel walks and gathers
+ * itself (`incidence`, `walk`, `twoRing`, `gather1`/`gather3`; see bin/write-moment-kernel.mjs).
  *
  * Where WebAssembly SIMD is missing the kernel is absent and the fit runs in JavaScript, with the same
  * results. `FIELDTALLY_SCALAR_FIT=1` in the environment, or `useMomentKernel(false)`, forces the JavaScript path.
  */
-import { KERNEL_LAYOUT, MOMENT_KERNEL_BASE64 } from './momentKernelWasm.ts';
+import { KERNEL_CONFIG, KERNEL_LAYOUT, KERNEL_STATS, MOMENT_KERNEL_BASE64 } from './momentKernelWasm.ts';
 
 /** The instantiated kernel and views of its memory (renewed when the memory grows). */
 export interface MomentKernel {
   fit1(n: number): void;
   fit3(n: number): void;
+  /** Node → cells rows of the held mesh's `np` nodes and `cells` cells (kernelMesh.ts). */
+  incidence(np: number, cells: number): void;
+  /** Node i's one-ring to byte address `at`; returns its length. */
+  walk(i: number, at: number): number;
+  /** Node i's two-ring from its one-ring (`n` ids at byte address `one`) to byte address `at`; returns its length. */
+  twoRing(i: number, one: number, n: number, at: number): number;
+  /** Lane `lane`'s slots and scale from the `n` ids at byte address `at` around node i (1 or 3 components); −1 when none lies apart. */
+  gather1(lane: number, i: number, at: number, n: number): number;
+  gather3(lane: number, i: number, at: number, n: number): number;
   /** The memory as doubles, lane-interleaved, laid out as `KERNEL_LAYOUT` says (byte offsets). */
   f64: Float64Array;
+  /** The memory as 32-bit integers (the held mesh's ids and the addresses at `KERNEL_LAYOUT.configAt`). */
+  i32: Int32Array;
   memory: WebAssembly.Memory;
   /** The memory's size in bytes (reading `memory.buffer` costs a call into the engine). */
   bytes: number;
@@ -40,8 +53,9 @@ function instantiate(): MomentKernel | null {
     const bytes = decode(MOMENT_KERNEL_BASE64);
     if (!WebAssembly.validate(bytes)) return null;
     const e = new WebAssembly.Instance(new WebAssembly.Module(bytes)).exports as unknown as
-      { memory: WebAssembly.Memory; fit1(n: number): void; fit3(n: number): void };
-    return { fit1: e.fit1, fit3: e.fit3, memory: e.memory, f64: new Float64Array(e.memory.buffer), bytes: e.memory.buffer.byteLength };
+      Pick<MomentKernel, 'memory' | 'fit1' | 'fit3' | 'incidence' | 'walk' | 'twoRing' | 'gather1' | 'gather3'>;
+    const b = e.memory.buffer;
+    return { ...e, f64: new Float64Array(b), i32: new Int32Array(b), bytes: b.byteLength };
   } catch {
     return null;
   }
@@ -60,15 +74,28 @@ export function useMomentKernel(on: boolean): boolean {
   return momentKernel() !== null;
 }
 
-/** Makes room for `n` neighbour slots of `nc` components; returns the double index of slot 0. */
-export function kernelSlots(k: MomentKernel, n: number, nc: number): number {
-  const need = KERNEL_LAYOUT.slotsAt + n * 16 * (3 + nc);
-  if (k.bytes < need) {
-    k.memory.grow(Math.ceil((need - k.bytes) / 65536));
-    k.f64 = new Float64Array(k.memory.buffer);
-    k.bytes = k.memory.buffer.byteLength;
-  }
-  return KERNEL_LAYOUT.slotsAt / 8;
+/**
+ * Makes room for `n` neighbour slots of `nc` components from byte `at` (default: `KERNEL_LAYOUT.slotsAt`, the
+ * slots fed from JavaScript); returns the double index of slot 0.
+ */
+export function kernelSlots(k: MomentKernel, n: number, nc: number, at: number = KERNEL_LAYOUT.slotsAt): number {
+  kernelBytes(k, at + n * 16 * (3 + nc));
+  return at / 8;
 }
 
-export { KERNEL_LAYOUT };
+/** Grows the kernel's memory to at least `need` bytes (its views renewed). Throws RangeError when it cannot. */
+export function kernelBytes(k: MomentKernel, need: number): void {
+  if (k.bytes >= need) return;
+  k.memory.grow(Math.ceil((need - k.bytes) / 65536));
+  const b = k.memory.buffer;
+  k.f64 = new Float64Array(b);
+  k.i32 = new Int32Array(b);
+  k.bytes = b.byteLength;
+}
+
+/** Points the kernel's fits at slots from byte `at` (a multiple of 16). */
+export function useSlotsAt(k: MomentKernel, at: number): void {
+  k.i32[(KERNEL_LAYOUT.configAt + KERNEL_CONFIG.slots) / 4] = at;
+}
+
+export { KERNEL_CONFIG, KERNEL_LAYOUT, KERNEL_STATS };

@@ -5,10 +5,16 @@
  * and its scale; the kernel sums, factorises and solves; this file reads each lane's gradient back. Site
  * choice (one-ring, two-ring when one-sided or ill-conditioned), every product and every sum are the scalar
  * code's, so each site's gradient is the same to the bit (tests/derive/momentKernel.test.ts).
+ *
+ * For a range of nodes of a piece (`meshInto`) the kernel walks and gathers the rings itself from the mesh it
+ * holds (kernelMesh.ts): the rows are not built in JavaScript and nothing is copied per neighbour here; this
+ * file keeps the pairing, the one-sided test and the reading of results — same rings, same bits.
  */
 import type { NumericArray } from '../model/fieldArray.ts';
 import { ONE_SIDED, PIVOT_TOLERANCE, SKEWED, WIDEN_TOLERANCE } from './fitTolerances.ts';
-import { KERNEL_LAYOUT, kernelSlots, type MomentKernel } from './momentKernel.ts';
+import type { Piece } from '../model/piece.ts';
+import { KERNEL_LAYOUT, KERNEL_STATS, kernelSlots, useSlotsAt, type MomentKernel } from './momentKernel.ts';
+import { holdMesh, slotsBase, type HeldMesh } from './kernelMesh.ts';
 import { ringIds, twoRing } from './neighbourRing.ts';
 import type { Stencil } from './stencils.ts';
 
@@ -20,6 +26,8 @@ const job = {
   K: null as unknown as MomentKernel, out: new Float64Array(0) as Float64Array, outStart: 0, positions: new Float64Array(0) as Float64Array,
   values: new Float64Array(0) as NumericArray, nc: 1, so: new Int32Array(0) as Int32Array, sid: new Int32Array(0) as Int32Array,
   targets: undefined as Int32Array | undefined, from: 0, ringSizes: undefined as Int32Array | undefined,
+  /** The mesh the kernel holds (rings walked there), or null (rings from `so`/`sid`); slot 0's byte address. */
+  mesh: null as HeldMesh | null, slotsAt: 0,
 };
 
 /**
@@ -28,11 +36,33 @@ const job = {
  */
 export function pairedInto(K: MomentKernel, out: Float64Array, outStart: number, positions: Float64Array, values: NumericArray,
   nc: number, stencil: Stencil, targets: Int32Array | undefined, from: number, to: number, ringSizes: Int32Array | undefined): void {
-  Object.assign(job, { K, out, outStart, positions, values, nc, so: stencil.offsets, sid: stencil.ids, targets, from, ringSizes });
+  Object.assign(job, { K, out, outStart, positions, values, nc, so: stencil.offsets, sid: stencil.ids, targets, from, ringSizes, mesh: null });
+  pairs(to);
+}
+
+/**
+ * `pairedInto` for the nodes `from .. to-1` of piece `p` (every node: no node list), with the rings found and
+ * gathered by the kernel in the mesh it holds (kernelMesh.ts). Returns false, having written nothing, when the
+ * mesh is too large to hold (the caller fits from rows instead).
+ */
+export function meshInto(K: MomentKernel, out: Float64Array, outStart: number, p: Piece, values: NumericArray, nc: number,
+  from: number, to: number, ringSizes: Int32Array | undefined): boolean {
+  const mesh = holdMesh(K, p, values, nc);
+  if (!mesh) return false;
+  Object.assign(job, { K, out, outStart, positions: p.points, values, nc, targets: undefined, from, ringSizes, mesh });
+  pairs(to);
+  return true;
+}
+
+/** The pairing loop over `job`'s sites up to `to`. */
+function pairs(to: number): void {
+  const { K, nc } = job;
+  job.slotsAt = slotsBase();
+  useSlotsAt(K, job.slotsAt);
   const run = nc === 3 ? K.fit3 : K.fit1, t = KERNEL_LAYOUT.toleranceAt / 8;
   K.f64[t] = PIVOT_TOLERANCE; K.f64[t + 1] = PIVOT_TOLERANCE;
   try {
-    let k = from;
+    let k = job.from;
     while (k < to) {
       let lanes = 0;
       while (lanes < 2 && k < to) { if (prepare(lanes, k)) lanes++; k++; }
@@ -48,7 +78,7 @@ export function pairedInto(K: MomentKernel, out: Float64Array, outStart: number,
     }
   } finally {
     // let go of the caller's arrays, so the module does not keep the last mesh alive
-    Object.assign(job, { out: NO_VALUES, positions: NO_VALUES, values: NO_VALUES, so: NO_IDS, sid: NO_IDS, targets: undefined, ringSizes: undefined });
+    Object.assign(job, { out: NO_VALUES, positions: NO_VALUES, values: NO_VALUES, so: NO_IDS, sid: NO_IDS, targets: undefined, ringSizes: undefined, mesh: null });
   }
 }
 
@@ -62,6 +92,7 @@ const siteOf = (k: number): number => (job.targets ? job.targets[k]! : k);
  * has no neighbour apart from the site. Returns false (the site's result written as NaN) when neither has one.
  */
 function prepare(lane: number, k: number): boolean {
+  if (job.mesh) return prepareHeld(lane, k, job.mesh);
   const i = siteOf(k), { so, sid } = job;
   // a node list (a wall's nodes) is mostly one-sided: test the one-ring before writing it into the slots
   let n = job.targets && !fittedApart(i, so[i]!, so[i + 1]!) ? -1 : gather(i, sid, so[i]!, so[i + 1]!, lane, true);
@@ -76,11 +107,38 @@ function prepare(lane: number, k: number): boolean {
   return true;
 }
 
+/** `prepare` over the held mesh: node k's one-ring walked and gathered by the kernel, its two-ring likewise. */
+function prepareHeld(lane: number, k: number, mesh: HeldMesh): boolean {
+  const K = job.K, n1 = K.walk(k, mesh.ring1);
+  let n = gatherHeld(lane, k, mesh.ring1, n1);
+  if (n >= 0) {
+    const F = K.f64, s = KERNEL_LAYOUT.statsAt / 8, S = KERNEL_STATS;
+    // the one-sided test of `gather`, on the sums the kernel left
+    if (Math.hypot(F[s + S.mx / 8]!, F[s + S.my / 8]!, F[s + S.mz / 8]!) / F[s + S.used / 8]! * F[s + S.ih / 8]! > ONE_SIDED) n = SKEWED;
+  }
+  laneOne[lane] = 1;
+  if (n < 0) {
+    n = gatherHeld(lane, k, mesh.ring2, K.twoRing(k, mesh.ring1, n1, mesh.ring2));
+    laneOne[lane] = 0;
+    if (n < 0) { noResult(k); return false; }
+  }
+  laneK[lane] = k; laneN[lane] = n;
+  return true;
+}
+
+/** The kernel's gather of the `n` ids at byte address `at` around node i into lane `lane` (room made first). */
+function gatherHeld(lane: number, i: number, at: number, n: number): number {
+  const { K, nc } = job;
+  kernelSlots(K, n, nc, job.slotsAt);
+  return nc === 3 ? K.gather3(lane, i, at, n) : K.gather1(lane, i, at, n);
+}
+
 /** Refits target `k` over its two-ring (its one-ring was ill-conditioned), alone in lane 0. */
 function widen(k: number, run: (n: number) => void): void {
-  const i = siteOf(k), { so, sid } = job;
-  const m = twoRing(so, sid, i, k);
-  const n = gather(i, ringIds(), 0, m, 0, false);
+  const i = siteOf(k), { so, sid, mesh } = job;
+  let n: number;
+  if (mesh) n = gatherHeld(0, i, mesh.ring2, job.K.twoRing(i, mesh.ring1, job.K.walk(i, mesh.ring1), mesh.ring2));
+  else { const m = twoRing(so, sid, i, k); n = gather(i, ringIds(), 0, m, 0, false); }
   if (n < 0) { noResult(k); return; }
   laneK[0] = k; laneN[0] = n; laneOne[0] = 0;
   clearLane(1, 0, n);
@@ -101,7 +159,7 @@ function noResult(k: number): void {
  */
 function gather(i: number, list: Int32Array, lo: number, hi: number, lane: number, skipOneSided: boolean): number {
   const { K, positions, values, nc } = job, n = hi - lo;
-  const step = 2 * (3 + nc), first = kernelSlots(K, n, nc) + lane, F = K.f64;
+  const step = 2 * (3 + nc), first = kernelSlots(K, n, nc, job.slotsAt) + lane, F = K.f64;
   const x0 = positions[3 * i]!, y0 = positions[3 * i + 1]!, z0 = positions[3 * i + 2]!;
   let h2 = 0, used = 0, mx = 0, my = 0, mz = 0;
   // offsets and value differences in one pass over the ring (a one-sided one-ring's values are written and
@@ -149,7 +207,7 @@ function fittedApart(i: number, lo: number, hi: number): boolean {
 
 /** Empties lane `lane`'s slots `a .. b-1` (padding: a zero offset adds nothing to any sum). */
 function clearLane(lane: number, a: number, b: number): void {
-  const { K, nc } = job, step = 2 * (3 + nc), F = K.f64, first = KERNEL_LAYOUT.slotsAt / 8 + lane;
+  const { K, nc } = job, step = 2 * (3 + nc), F = K.f64, first = job.slotsAt / 8 + lane;
   for (let t = a, o = first + a * step; t < b; t++, o += step) for (let e = 0; e < step; e += 2) F[o + e] = 0;
 }
 

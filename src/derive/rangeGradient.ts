@@ -12,6 +12,8 @@ import type { NumericArray } from '../model/fieldArray.ts';
 import type { Piece } from '../model/piece.ts';
 import { pointStencilOfRange } from './localStencil.ts';
 import { gradientInto } from './quadraticGradient.ts';
+import { momentKernel } from './momentKernel.ts';
+import { meshInto } from './pairedFit.ts';
 
 /**
  * Writes the gradient of a point field (`values`, `nc` components per node of `p`) at nodes `from .. to-1`
@@ -23,6 +25,9 @@ export function pointGradientRange(p: Piece, values: NumericArray, nc: number, f
   if (!(from >= 0 && to <= np && from <= to)) throw new Error(`gradient: node range ${from}..${to} is outside the piece's ${np} nodes`);
   if (out.length !== 3 * nc * np) throw new Error(`gradient: result holds ${out.length} values, expected ${3 * nc * np} (${np} nodes × ${3 * nc})`);
   if (from === to) return;
+  // the kernel walks the rings in its copy of the mesh (kernelMesh.ts): no rows built here
+  const K = (nc === 1 || nc === 3) ? momentKernel() : null;
+  if (K && meshInto(K, out, 3 * nc * from, p, values, nc, from, to, undefined)) return;
   const stencil = pointStencilOfRange(p, from, to);
   gradientInto(out, 3 * nc * from, p.points, values, nc, stencil, undefined, from, to);
 }
