@@ -14,24 +14,37 @@
 // components) read n slots from the byte address held at CONFIG_AT (SLOTS_AT for a fit fed from JavaScript).
 //
 // A mesh held in the memory (src/derive/kernelMesh.ts lays it out and writes the byte addresses of its parts
-// from CONFIG_AT on, as `CONFIG` says) lets the kernel find and gather each site's ring itself, with no copy
+// from CONFIG_AT on, as `CONFIG` says) lets the kernel find and gather each node's ring itself, with no copy
 // per neighbour in JavaScript: `incidence(np, cells)` builds the node → cells rows from the cells' connectivity
 // (a count, then a fill from the last cell back, so each node's cells come out ascending, as stencils.ts has
-// them); `walk(i, at)` writes node i's one-ring (the nodes of its cells, cells ascending, nodes in connectivity
-// order, i and repeats left out: stencils.ts `pointStencil`'s row) to byte address `at`; `twoRing(i, one, n,
-// at)` its two-ring from its one-ring's n ids at `one` (neighbourRing.ts's order); `gather1`/`gather3(lane, i,
-// at, n)` write the n ids' offsets and value differences into lane `lane`'s slots, sum the ring statistics as
-// pairedFit.ts `gather` does and store the lane's scale 1/h, returning n (−1 when no neighbour lies apart from
-// the site); the one-sided test (Math.hypot) stays in JavaScript, which reads the statistics at STATS_AT.
+// them); `one1`/`one3(lane, i)` walk node i's one-ring (the nodes of its cells, cells ascending, nodes in
+// connectivity order, i and repeats left out: stencils.ts `pointStencil`'s row) and gather it into lane
+// `lane`'s slots — offsets and value differences, the ring statistics and the scale 1/h as pairedFit.ts
+// `gather` computes them — then make the one-sided test (RING.skewed), leaving to JavaScript (RING.ask) the
+// rare case within BAND of the bound, where squares and Math.hypot might disagree; `two1`/`two3(lane, i,
+// fresh)` gather the two-ring (neighbourRing.ts's order) from the one-ring just walked (or walked again). Stamps
+// per node and per cell, compared with a counter bumped per walk, leave repeats out without clearing.
+
 import { writeFileSync } from 'node:fs';
 import { dirname, join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 
 export const SCALE_AT = 0, TOLERANCE_AT = 16, RESULT_AT = 32, CONFIG_AT = 512, STATS_AT = 576, SLOTS_AT = 1024;
 /** Byte offsets from CONFIG_AT of the i32 addresses (and the stamp counter) a held mesh uses. */
-export const CONFIG = { slots: 0, positions: 4, values: 8, connectivity: 12, offsets: 16, incidence: 20, cells: 24, stamps: 28, tick: 32 };
+export const CONFIG = {
+  slots: 0, positions: 4, values: 8, connectivity: 12, offsets: 16, incidence: 20, cells: 24, stamps: 28, tick: 32, cellStamps: 36,
+  ring1: 40, ring2: 44, n1: 48, need: 52,
+};
 /** Byte offsets from STATS_AT of the last gather's f64 statistics: Σdx, Σdy, Σdz over the neighbours apart, their count, 1/h. */
-export const STATS = { mx: 0, my: 8, mz: 16, used: 24, ih: 32 };
+export const STATS = { mx: 0, my: 8, mz: 16, used: 24, ih: 32, oneSided: 40 };
+/** What `one` and `two` return besides a slot count. */
+export const RING = { none: -1, skewed: -2, ask: -3, room: -4 };
+/**
+ * The one-sided test's band: the kernel decides |Σd|·(1/h)/used > ONE_SIDED on squares, which may differ from
+ * JavaScript's Math.hypot in the last bits; within this relative band of the bound it leaves the test to
+ * JavaScript (RING.ask), so the decision is always JavaScript's.
+ */
+const BAND = 1e-9;
 
 const uleb = (n) => { const b = []; do { let x = n & 0x7f; n >>>= 7; if (n) x |= 0x80; b.push(x); } while (n); return b; };
 const sleb = (n) => {
@@ -249,15 +262,20 @@ function incidenceBody() {
  * byte address `n` (n advances). Locals are the caller's.
  */
 function emitCellWalk(a, L, node) {
-  const { tick, stamps, conn, off, inc, cells, ca, cb, b, be, q, sq, n } = L;
+  const { tick, stamps, cellStamps, conn, off, inc, cells, ca, cb, b, be, q, sq, n } = L;
   a.get(node); a.i32(2); a.shl(); a.get(inc); a.add(); a.tee(ca); a.load(4); a.i32(2); a.shl(); a.get(cells); a.add(); a.set(cb);
   a.get(ca); a.load(); a.i32(2); a.shl(); a.get(cells); a.add(); a.set(ca);
   a.each(ca, cb, 4, () => {
-    a.get(ca); a.load(); a.i32(2); a.shl(); a.get(off); a.add(); a.tee(b); a.load(4); a.i32(2); a.shl(); a.get(conn); a.add(); a.set(be);
+    // a cell already walked under this tick adds nothing: skip it (a two-ring meets each cell many times)
+    a.get(ca); a.load(); a.tee(q); a.i32(2); a.shl(); a.get(cellStamps); a.add(); a.tee(sq); a.load(); a.get(tick); a.ne();
+    a.ifThen(() => {
+    a.get(sq); a.get(tick); a.store();
+    a.get(q); a.i32(2); a.shl(); a.get(off); a.add(); a.tee(b); a.load(4); a.i32(2); a.shl(); a.get(conn); a.add(); a.set(be);
     a.get(b); a.load(); a.i32(2); a.shl(); a.get(conn); a.add(); a.set(b);
     a.each(b, be, 4, () => {
       a.get(b); a.load(); a.tee(q); a.i32(2); a.shl(); a.get(stamps); a.add(); a.tee(sq); a.load(); a.get(tick); a.ne();
       a.ifThen(() => { a.get(sq); a.get(tick); a.store(); a.get(n); a.get(q); a.store(); a.get(n); a.i32(4); a.add(); a.set(n); });
+    });
     });
   });
 }
@@ -265,8 +283,8 @@ function emitCellWalk(a, L, node) {
 /** Locals of a ring walk; stamps `first` with a new tick. */
 function ringLocals(a, first) {
   const L = {};
-  for (const k of ['tick', 'stamps', 'conn', 'off', 'inc', 'cells', 'ca', 'cb', 'b', 'be', 'q', 'sq', 'n']) L[k] = a.local(I32);
-  a.config(CONFIG.stamps); a.set(L.stamps); a.config(CONFIG.connectivity); a.set(L.conn); a.config(CONFIG.offsets); a.set(L.off);
+  for (const k of ['tick', 'stamps', 'cellStamps', 'conn', 'off', 'inc', 'cells', 'ca', 'cb', 'b', 'be', 'q', 'sq', 'n']) L[k] = a.local(I32);
+  a.config(CONFIG.stamps); a.set(L.stamps); a.config(CONFIG.cellStamps); a.set(L.cellStamps); a.config(CONFIG.connectivity); a.set(L.conn); a.config(CONFIG.offsets); a.set(L.off);
   a.config(CONFIG.incidence); a.set(L.inc); a.config(CONFIG.cells); a.set(L.cells);
   a.i32(0); a.config(CONFIG.tick); a.i32(1); a.add(); a.tee(L.tick); a.store(CONFIG_AT + CONFIG.tick);
   a.get(first); a.i32(2); a.shl(); a.get(L.stamps); a.add(); a.get(L.tick); a.store();
@@ -298,14 +316,17 @@ function twoRingBody() {
   return a.finish();
 }
 
-/** `gather<nc>(lane, i, at, n)`: see the file comment. */
+/** `gather<nc>(lane, i, at, n, test)`: see the file comment. */
 function gatherBody(nc) {
-  const a = assembler(4), LANE = 0, I = 1, AT = 2, N = 3;
+  const a = assembler(5), LANE = 0, I = 1, AT = 2, N = 3, TEST = 4;
   const s = a.local(I32), se = a.local(I32), o = a.local(I32), pos = a.local(I32), val = a.local(I32), q = a.local(I32), used = a.local(I32);
   const x0 = a.local(F64), y0 = a.local(F64), z0 = a.local(F64), dx = a.local(F64), dy = a.local(F64), dz = a.local(F64), r2 = a.local(F64);
   const h2 = a.local(F64), mx = a.local(F64), my = a.local(F64), mz = a.local(F64), ih = a.local(F64);
   const f = [a.local(F64), a.local(F64), a.local(F64)];
   const step = 16 * (3 + nc);
+  // room for n slots, else RING.room (n left at CONFIG.need for the caller to grow the memory)
+  a.config(CONFIG.slots); a.get(N); a.i32(step); a.mul(); a.add(); a.e(0x3f, 0); a.i32(16); a.shl(); a.e(0x4b); // i32.gt_u
+  a.ifThen(() => { a.i32(0); a.get(N); a.store(CONFIG_AT + CONFIG.need); a.i32(RING.room); a.e(0x0f); });
   a.config(CONFIG.positions); a.set(pos); a.config(CONFIG.values); a.set(val);
   a.config(CONFIG.slots); a.get(LANE); a.i32(3); a.shl(); a.add(); a.set(o);
   a.get(I); a.i32(24); a.mul(); a.get(pos); a.add(); a.tee(q); a.fload(0); a.set(x0); a.get(q); a.fload(8); a.set(y0); a.get(q); a.fload(16); a.set(z0);
@@ -337,7 +358,38 @@ function gatherBody(nc) {
   a.i32(0); a.get(mx); a.fstore(STATS_AT + STATS.mx); a.i32(0); a.get(my); a.fstore(STATS_AT + STATS.my);
   a.i32(0); a.get(mz); a.fstore(STATS_AT + STATS.mz); a.i32(0); a.get(used); a.e(0xb7); a.fstore(STATS_AT + STATS.used);
   a.i32(0); a.get(ih); a.fstore(STATS_AT + STATS.ih);
+  // the one-sided test, |Σd·ih|² against (ONE_SIDED·used)², decided here only outside the band
+  a.get(TEST);
+  a.ifThen(() => {
+    a.get(mx); a.get(ih); a.fmul(); a.set(dx); a.get(my); a.get(ih); a.fmul(); a.set(dy); a.get(mz); a.get(ih); a.fmul(); a.set(dz);
+    a.get(dx); a.get(dx); a.fmul(); a.get(dy); a.get(dy); a.fmul(); a.fadd(); a.get(dz); a.get(dz); a.fmul(); a.fadd(); a.set(r2);
+    a.i32(0); a.fload(STATS_AT + STATS.oneSided); a.get(used); a.e(0xb7); a.fmul(); a.tee(h2); a.get(h2); a.fmul(); a.set(h2);
+    a.get(r2); a.e(0x44, f64Bytes(1 + BAND)); a.get(h2); a.fmul(); a.fgt(); a.ifThen(() => { a.i32(RING.skewed); a.e(0x0f); });
+    a.get(r2); a.e(0x44, f64Bytes(1 - BAND)); a.get(h2); a.fmul(); a.e(0x63); // f64.lt
+    a.eqz(); a.ifThen(() => { a.i32(RING.ask); a.e(0x0f); });
+  });
   a.get(N);
+  return a.finish();
+}
+
+/** `one(lane, i)`: node i's one-ring walked to CONFIG.ring1 (its length kept at CONFIG.n1) and gathered, with the one-sided test. */
+function oneBody(walkFn, gatherFn) {
+  const a = assembler(2), LANE = 0, I = 1;
+  a.i32(0); a.get(I); a.config(CONFIG.ring1); a.e(0x10, uleb(walkFn)); a.store(CONFIG_AT + CONFIG.n1);
+  a.get(LANE); a.get(I); a.config(CONFIG.ring1); a.config(CONFIG.n1); a.i32(1); a.e(0x10, uleb(gatherFn));
+  return a.finish();
+}
+
+/**
+ * `two(lane, i, fresh)`: node i's two-ring to CONFIG.ring2, from its one-ring at CONFIG.ring1 (walked again
+ * first when `fresh` is 1), gathered without the one-sided test.
+ */
+function twoBody(walkFn, twoRingFn, gatherFn) {
+  const a = assembler(3), LANE = 0, I = 1, FRESH = 2;
+  a.get(FRESH); a.ifThen(() => { a.i32(0); a.get(I); a.config(CONFIG.ring1); a.e(0x10, uleb(walkFn)); a.store(CONFIG_AT + CONFIG.n1); });
+  a.get(LANE); a.get(I); a.config(CONFIG.ring2);
+  a.get(I); a.config(CONFIG.ring1); a.config(CONFIG.n1); a.config(CONFIG.ring2); a.e(0x10, uleb(twoRingFn));
+  a.i32(0); a.e(0x10, uleb(gatherFn));
   return a.finish();
 }
 
@@ -346,13 +398,16 @@ const f64Bytes = (x) => [...new Uint8Array(new Float64Array([x]).buffer)];
 export function momentKernelBytes() {
   return Uint8Array.from([
     0x00, 0x61, 0x73, 0x6d, 0x01, 0x00, 0x00, 0x00,
-    // types: (i32) → (); (i32, i32) → (); (i32, i32) → i32; (i32, i32, i32, i32) → i32
-    ...section(1, vec([[0x60, 1, I32, 0], [0x60, 2, I32, I32, 0], [0x60, 2, I32, I32, 1, I32], [0x60, 4, I32, I32, I32, I32, 1, I32]])),
-    ...section(3, vec([[0], [0], [1], [2], [3], [3], [3]])),
+    // types: 0 (i32) → (); 1 (i32, i32) → (); 2 (i32, i32) → i32; 3 (i32, i32, i32, i32) → i32; 4 (i32 ×5) → i32; 5 (i32 ×3) → i32
+    ...section(1, vec([[0x60, 1, I32, 0], [0x60, 2, I32, I32, 0], [0x60, 2, I32, I32, 1, I32], [0x60, 4, I32, I32, I32, I32, 1, I32],
+      [0x60, 5, I32, I32, I32, I32, I32, 1, I32], [0x60, 3, I32, I32, I32, 1, I32]])),
+    // functions 0 fit1, 1 fit3, 2 incidence, 3 walk, 4 twoRing, 5 gather1, 6 gather3, 7 one1, 8 one3, 9 two1, 10 two3
+    ...section(3, vec([[0], [0], [1], [2], [3], [4], [4], [2], [2], [5], [5]])),
     ...section(5, vec([[0x00, 1]])),
     ...section(7, vec([[...name('memory'), 0x02, 0], [...name('fit1'), 0x00, 0], [...name('fit3'), 0x00, 1], [...name('incidence'), 0x00, 2],
-      [...name('walk'), 0x00, 3], [...name('twoRing'), 0x00, 4], [...name('gather1'), 0x00, 5], [...name('gather3'), 0x00, 6]])),
-    ...section(10, vec([fitBody(1), fitBody(3), incidenceBody(), walkBody(), twoRingBody(), gatherBody(1), gatherBody(3)])),
+      [...name('one1'), 0x00, 7], [...name('one3'), 0x00, 8], [...name('two1'), 0x00, 9], [...name('two3'), 0x00, 10]])),
+    ...section(10, vec([fitBody(1), fitBody(3), incidenceBody(), walkBody(), twoRingBody(), gatherBody(1), gatherBody(3),
+      oneBody(3, 5), oneBody(3, 6), twoBody(3, 4, 5), twoBody(3, 4, 6)])),
   ]);
 }
 
@@ -372,8 +427,11 @@ export const KERNEL_LAYOUT = {
 /** Byte offsets from \`configAt\` of the i32 addresses of a mesh held in the kernel's memory, and of its stamp counter. */
 export const KERNEL_CONFIG = ${JSON.stringify(CONFIG).replace(/"/g, '').replace(/:/g, ': ').replace(/,/g, ', ').replace('{', '{ ').replace('}', ' }')} as const;
 
-/** Byte offsets from \`statsAt\` of the last gather's statistics (f64). */
+/** Byte offsets from \`statsAt\` of the last gather's statistics (f64) and of the one-sided bound it tests against. */
 export const KERNEL_STATS = ${JSON.stringify(STATS).replace(/"/g, '').replace(/:/g, ': ').replace(/,/g, ', ').replace('{', '{ ').replace('}', ' }')} as const;
+
+/** What the kernel's ring calls return besides a slot count: no neighbour apart, one-sided, test left to JavaScript, no room. */
+export const KERNEL_RING = ${JSON.stringify(RING).replace(/"/g, '').replace(/:/g, ': ').replace(/,/g, ', ').replace('{', '{ ').replace('}', ' }')} as const;
 
 export const MOMENT_KERNEL_BASE64 =
 ${lines};

@@ -7,7 +7,7 @@
  *
  * Layout from byte `KERNEL_LAYOUT.slotsAt` on, each part 16-byte aligned: positions (3 f64 per node), values
  * (room for 3 f64 per node), connectivity and cell offsets (i32, as the piece has them), node → cells starts
- * (np + 3 i32, the kernel's fill trick) and cell ids, stamps (i32 per node), two ring lists (np i32 each),
+ * (np + 3 i32, the kernel's fill trick) and cell ids, stamps (i32 per node, then per cell), two ring lists (np i32 each),
  * then the neighbour slots, which grow at the end and are shared with the fit fed from JavaScript.
  *
  * One mesh at a time per thread (the last one asked for). A mesh whose copy would pass MAX_HELD_BYTES is not
@@ -16,7 +16,8 @@
  */
 import type { NumericArray } from '../model/fieldArray.ts';
 import type { Piece } from '../model/piece.ts';
-import { KERNEL_CONFIG, KERNEL_LAYOUT, kernelBytes, type MomentKernel } from './momentKernel.ts';
+import { KERNEL_CONFIG, KERNEL_LAYOUT, KERNEL_STATS, kernelBytes, type MomentKernel } from './momentKernel.ts';
+import { ONE_SIDED } from './fitTolerances.ts';
 
 /** Largest copy of a mesh the kernel's memory holds (bytes; the kernel addresses at most 4 GiB). */
 export const MAX_HELD_BYTES = 1 << 30;
@@ -28,9 +29,7 @@ export interface HeldMesh {
   readonly connectivity: WeakRef<Int32Array>;
   readonly offsets: WeakRef<Int32Array>;
   readonly nodes: number;
-  /** Byte addresses of the one-ring and two-ring lists. */
-  readonly ring1: number;
-  readonly ring2: number;
+  readonly cells: number;
   /** Byte address of neighbour slot 0 (the end of the held mesh). */
   readonly slots: number;
   /** The values array last copied in and its components (null: none yet). */
@@ -60,7 +59,8 @@ export function holdMesh(K: MomentKernel, p: Piece, values: NumericArray, nc: nu
     held = h = null;
     const conn = p.connectivity.length, at = KERNEL_LAYOUT.slotsAt;
     const pos = at, val = pos + up16(24 * np), cn = val + up16(24 * np), off = cn + up16(4 * conn), inc = off + up16(4 * (cells + 1));
-    const ids = inc + up16(4 * (np + 3)), stamps = ids + up16(4 * conn), ring1 = stamps + up16(4 * np), ring2 = ring1 + up16(4 * np);
+    const ids = inc + up16(4 * (np + 3)), stamps = ids + up16(4 * conn), cellStamps = stamps + up16(4 * np);
+    const ring1 = cellStamps + up16(4 * cells), ring2 = ring1 + up16(4 * np);
     const slots = ring2 + up16(4 * np);
     if (slots > MAX_HELD_BYTES) return null;
     try {
@@ -71,12 +71,14 @@ export function holdMesh(K: MomentKernel, p: Piece, values: NumericArray, nc: nu
     K.f64.set(p.points, pos / 8);
     K.i32.set(p.connectivity, cn / 4);
     K.i32.set(p.offsets, off / 4);
-    K.i32.fill(0, stamps / 4, stamps / 4 + np);
+    K.i32.fill(0, stamps / 4, cellStamps / 4 + cells);
     const c = (KERNEL_LAYOUT.configAt) / 4, C = KERNEL_CONFIG;
     K.i32[c + C.positions / 4] = pos; K.i32[c + C.values / 4] = val; K.i32[c + C.connectivity / 4] = cn; K.i32[c + C.offsets / 4] = off;
     K.i32[c + C.incidence / 4] = inc + 8; K.i32[c + C.cells / 4] = ids; K.i32[c + C.stamps / 4] = stamps; K.i32[c + C.tick / 4] = 0;
+    K.i32[c + C.cellStamps / 4] = cellStamps; K.i32[c + C.ring1 / 4] = ring1; K.i32[c + C.ring2 / 4] = ring2;
+    K.f64[(KERNEL_LAYOUT.statsAt + KERNEL_STATS.oneSided) / 8] = ONE_SIDED;
     K.incidence(np, cells);
-    h = { points: new WeakRef(p.points), connectivity: new WeakRef(p.connectivity), offsets: new WeakRef(p.offsets), nodes: np, ring1, ring2, slots, values: null, nc: 0 };
+    h = { points: new WeakRef(p.points), connectivity: new WeakRef(p.connectivity), offsets: new WeakRef(p.offsets), nodes: np, cells, slots, values: null, nc: 0 };
   }
   if (h.values?.deref() !== values || h.nc !== nc) {
     const val = K.i32[(KERNEL_LAYOUT.configAt + KERNEL_CONFIG.values) / 4]!;
@@ -86,8 +88,9 @@ export function holdMesh(K: MomentKernel, p: Piece, values: NumericArray, nc: nu
   // the stamps are compared with a counter bumped per walk: start again from 0 long before it wraps
   const t = (KERNEL_LAYOUT.configAt + KERNEL_CONFIG.tick) / 4;
   if (K.i32[t]! > TICK_LIMIT) {
-    const s = K.i32[(KERNEL_LAYOUT.configAt + KERNEL_CONFIG.stamps) / 4]! / 4;
-    K.i32.fill(0, s, s + np);
+    // node stamps, then cell stamps (laid out one after the other)
+    const s = K.i32[(KERNEL_LAYOUT.configAt + KERNEL_CONFIG.stamps) / 4]! / 4, e = K.i32[(KERNEL_LAYOUT.configAt + KERNEL_CONFIG.cellStamps) / 4]! / 4;
+    K.i32.fill(0, s, e + cells);
     K.i32[t] = 0;
   }
   held = h;

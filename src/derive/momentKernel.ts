@@ -5,12 +5,12 @@
  * each lane's arithmetic the scalar code's to the bit (same products, same order, no fused multiply-add).
  * pairedFit.ts feeds it: from neighbour rows built in JavaScript, or — for every node of a piece or a node range —
  * from a copy of the mesh held in the kernel's memory (kernelMesh.ts), whose rings the kernel walks and gathers
- * itself (`incidence`, `walk`, `twoRing`, `gather1`/`gather3`; see bin/write-moment-kernel.mjs).
+ * itself (`incidence`, `one1`/`one3`, `two1`/`two3`; see bin/write-moment-kernel.mjs).
  *
  * Where WebAssembly SIMD is missing the kernel is absent and the fit runs in JavaScript, with the same
  * results. `FIELDTALLY_SCALAR_FIT=1` in the environment, or `useMomentKernel(false)`, forces the JavaScript path.
  */
-import { KERNEL_CONFIG, KERNEL_LAYOUT, KERNEL_STATS, MOMENT_KERNEL_BASE64 } from './momentKernelWasm.ts';
+import { KERNEL_CONFIG, KERNEL_LAYOUT, KERNEL_RING, KERNEL_STATS, MOMENT_KERNEL_BASE64 } from './momentKernelWasm.ts';
 
 /** The instantiated kernel and views of its memory (renewed when the memory grows). */
 export interface MomentKernel {
@@ -18,13 +18,15 @@ export interface MomentKernel {
   fit3(n: number): void;
   /** Node → cells rows of the held mesh's `np` nodes and `cells` cells (kernelMesh.ts). */
   incidence(np: number, cells: number): void;
-  /** Node i's one-ring to byte address `at`; returns its length. */
-  walk(i: number, at: number): number;
-  /** Node i's two-ring from its one-ring (`n` ids at byte address `one`) to byte address `at`; returns its length. */
-  twoRing(i: number, one: number, n: number, at: number): number;
-  /** Lane `lane`'s slots and scale from the `n` ids at byte address `at` around node i (1 or 3 components); −1 when none lies apart. */
-  gather1(lane: number, i: number, at: number, n: number): number;
-  gather3(lane: number, i: number, at: number, n: number): number;
+  /**
+   * Node i's one-ring walked and gathered into lane `lane` (1 or 3 components), the one-sided test made: its
+   * slot count, or a `KERNEL_RING` code.
+   */
+  one1(lane: number, i: number): number;
+  one3(lane: number, i: number): number;
+  /** Node i's two-ring from its one-ring (walked again first when `fresh` is 1), gathered: its slot count or a `KERNEL_RING` code. */
+  two1(lane: number, i: number, fresh: number): number;
+  two3(lane: number, i: number, fresh: number): number;
   /** The memory as doubles, lane-interleaved, laid out as `KERNEL_LAYOUT` says (byte offsets). */
   f64: Float64Array;
   /** The memory as 32-bit integers (the held mesh's ids and the addresses at `KERNEL_LAYOUT.configAt`). */
@@ -53,7 +55,7 @@ function instantiate(): MomentKernel | null {
     const bytes = decode(MOMENT_KERNEL_BASE64);
     if (!WebAssembly.validate(bytes)) return null;
     const e = new WebAssembly.Instance(new WebAssembly.Module(bytes)).exports as unknown as
-      Pick<MomentKernel, 'memory' | 'fit1' | 'fit3' | 'incidence' | 'walk' | 'twoRing' | 'gather1' | 'gather3'>;
+      Pick<MomentKernel, 'memory' | 'fit1' | 'fit3' | 'incidence' | 'one1' | 'one3' | 'two1' | 'two3'>;
     const b = e.memory.buffer;
     return { ...e, f64: new Float64Array(b), i32: new Int32Array(b), bytes: b.byteLength };
   } catch {
@@ -98,4 +100,4 @@ export function useSlotsAt(k: MomentKernel, at: number): void {
   k.i32[(KERNEL_LAYOUT.configAt + KERNEL_CONFIG.slots) / 4] = at;
 }
 
-export { KERNEL_CONFIG, KERNEL_LAYOUT, KERNEL_STATS };
+export { KERNEL_CONFIG, KERNEL_LAYOUT, KERNEL_RING, KERNEL_STATS };

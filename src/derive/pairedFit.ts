@@ -13,7 +13,7 @@
 import type { NumericArray } from '../model/fieldArray.ts';
 import { ONE_SIDED, PIVOT_TOLERANCE, SKEWED, WIDEN_TOLERANCE } from './fitTolerances.ts';
 import type { Piece } from '../model/piece.ts';
-import { KERNEL_LAYOUT, KERNEL_STATS, kernelSlots, useSlotsAt, type MomentKernel } from './momentKernel.ts';
+import { KERNEL_CONFIG, KERNEL_LAYOUT, KERNEL_RING, KERNEL_STATS, kernelSlots, useSlotsAt, type MomentKernel } from './momentKernel.ts';
 import { holdMesh, slotsBase, type HeldMesh } from './kernelMesh.ts';
 import { ringIds, twoRing } from './neighbourRing.ts';
 import type { Stencil } from './stencils.ts';
@@ -92,7 +92,7 @@ const siteOf = (k: number): number => (job.targets ? job.targets[k]! : k);
  * has no neighbour apart from the site. Returns false (the site's result written as NaN) when neither has one.
  */
 function prepare(lane: number, k: number): boolean {
-  if (job.mesh) return prepareHeld(lane, k, job.mesh);
+  if (job.mesh) return prepareHeld(lane, k);
   const i = siteOf(k), { so, sid } = job;
   // a node list (a wall's nodes) is mostly one-sided: test the one-ring before writing it into the slots
   let n = job.targets && !fittedApart(i, so[i]!, so[i + 1]!) ? -1 : gather(i, sid, so[i]!, so[i + 1]!, lane, true);
@@ -108,17 +108,11 @@ function prepare(lane: number, k: number): boolean {
 }
 
 /** `prepare` over the held mesh: node k's one-ring walked and gathered by the kernel, its two-ring likewise. */
-function prepareHeld(lane: number, k: number, mesh: HeldMesh): boolean {
-  const K = job.K, n1 = K.walk(k, mesh.ring1);
-  let n = gatherHeld(lane, k, mesh.ring1, n1);
-  if (n >= 0) {
-    const F = K.f64, s = KERNEL_LAYOUT.statsAt / 8, S = KERNEL_STATS;
-    // the one-sided test of `gather`, on the sums the kernel left
-    if (Math.hypot(F[s + S.mx / 8]!, F[s + S.my / 8]!, F[s + S.mz / 8]!) / F[s + S.used / 8]! * F[s + S.ih / 8]! > ONE_SIDED) n = SKEWED;
-  }
+function prepareHeld(lane: number, k: number): boolean {
+  let n = ringHeld(lane, k, 1, 0);
   laneOne[lane] = 1;
   if (n < 0) {
-    n = gatherHeld(lane, k, mesh.ring2, K.twoRing(k, mesh.ring1, n1, mesh.ring2));
+    n = ringHeld(lane, k, 2, 0);
     laneOne[lane] = 0;
     if (n < 0) { noResult(k); return false; }
   }
@@ -126,18 +120,31 @@ function prepareHeld(lane: number, k: number, mesh: HeldMesh): boolean {
   return true;
 }
 
-/** The kernel's gather of the `n` ids at byte address `at` around node i into lane `lane` (room made first). */
-function gatherHeld(lane: number, i: number, at: number, n: number): number {
+/**
+ * Node i's one-ring (`ring` 1, with the one-sided test) or two-ring (2; from the one-ring just walked, or walked
+ * again when `fresh` is 1) gathered by the kernel into lane `lane`: the slot count, or < 0 as `gather` returns.
+ */
+function ringHeld(lane: number, i: number, ring: 1 | 2, fresh: number): number {
   const { K, nc } = job;
-  kernelSlots(K, n, nc, job.slotsAt);
-  return nc === 3 ? K.gather3(lane, i, at, n) : K.gather1(lane, i, at, n);
+  for (;;) {
+    const n = ring === 1 ? (nc === 3 ? K.one3(lane, i) : K.one1(lane, i)) : (nc === 3 ? K.two3(lane, i, fresh) : K.two1(lane, i, fresh));
+    if (n === KERNEL_RING.room) { kernelSlots(K, K.i32[(KERNEL_LAYOUT.configAt + KERNEL_CONFIG.need) / 4]!, nc, job.slotsAt); fresh = 1; continue; }
+    if (n !== KERNEL_RING.ask) return n;
+    // near the bound: the one-sided test as `gather` makes it, on the sums the kernel left
+    const F = K.f64, s = KERNEL_LAYOUT.statsAt / 8, S = KERNEL_STATS;
+    return Math.hypot(F[s + S.mx / 8]!, F[s + S.my / 8]!, F[s + S.mz / 8]!) / F[s + S.used / 8]! * F[s + S.ih / 8]! > ONE_SIDED
+      ? SKEWED : laneSlots(K);
+  }
 }
+
+/** The slot count of the last gather (the kernel left it at CONFIG.n1 for a one-ring). */
+const laneSlots = (K: MomentKernel): number => K.i32[(KERNEL_LAYOUT.configAt + KERNEL_CONFIG.n1) / 4]!;
 
 /** Refits target `k` over its two-ring (its one-ring was ill-conditioned), alone in lane 0. */
 function widen(k: number, run: (n: number) => void): void {
   const i = siteOf(k), { so, sid, mesh } = job;
   let n: number;
-  if (mesh) n = gatherHeld(0, i, mesh.ring2, job.K.twoRing(i, mesh.ring1, job.K.walk(i, mesh.ring1), mesh.ring2));
+  if (mesh) n = ringHeld(0, i, 2, 1);
   else { const m = twoRing(so, sid, i, k); n = gather(i, ringIds(), 0, m, 0, false); }
   if (n < 0) { noResult(k); return; }
   laneK[0] = k; laneN[0] = n; laneOne[0] = 0;
