@@ -47,6 +47,20 @@ export function slotsBase(): number {
   return held ? held.slots : KERNEL_LAYOUT.slotsAt;
 }
 
+/** Byte addresses of the parts of piece `p`'s mesh held from `KERNEL_LAYOUT.slotsAt` on (see the file comment). */
+function layout(p: Piece) {
+  const np = p.points.length / 3, cells = p.cellTypes.length, conn = p.connectivity.length;
+  const pos = KERNEL_LAYOUT.slotsAt, val = pos + up16(24 * np), cn = val + up16(24 * np), off = cn + up16(4 * conn), inc = off + up16(4 * (cells + 1));
+  const ids = inc + up16(4 * (np + 3)), stamps = ids + up16(4 * conn), cellStamps = stamps + up16(4 * np);
+  const ring1 = cellStamps + up16(4 * cells), ring2 = ring1 + up16(4 * np);
+  return { pos, val, cn, off, inc, ids, stamps, cellStamps, ring1, ring2, slots: ring2 + up16(4 * np) };
+}
+
+/** True when piece `p`'s mesh is small enough for the kernel to hold (MAX_HELD_BYTES). */
+export function holdable(p: Piece): boolean {
+  return layout(p).slots <= MAX_HELD_BYTES;
+}
+
 /**
  * Holds piece `p`'s mesh and the point field `values` (`nc` = 1 or 3 components per node) in kernel `K`'s
  * memory, reusing what is held already (same geometry arrays; same values array). Returns null when the copy
@@ -57,11 +71,7 @@ export function holdMesh(K: MomentKernel, p: Piece, values: NumericArray, nc: nu
   let h = held;
   if (!h || h.points.deref() !== p.points || h.connectivity.deref() !== p.connectivity || h.offsets.deref() !== p.offsets) {
     held = h = null;
-    const conn = p.connectivity.length, at = KERNEL_LAYOUT.slotsAt;
-    const pos = at, val = pos + up16(24 * np), cn = val + up16(24 * np), off = cn + up16(4 * conn), inc = off + up16(4 * (cells + 1));
-    const ids = inc + up16(4 * (np + 3)), stamps = ids + up16(4 * conn), cellStamps = stamps + up16(4 * np);
-    const ring1 = cellStamps + up16(4 * cells), ring2 = ring1 + up16(4 * np);
-    const slots = ring2 + up16(4 * np);
+    const { pos, val, cn, off, inc, ids, stamps, cellStamps, ring1, ring2, slots } = layout(p);
     if (slots > MAX_HELD_BYTES) return null;
     try {
       kernelBytes(K, slots);

@@ -16,6 +16,8 @@ import type { DeriveOptions, DerivedName } from '../derive/derivedFields.ts';
 import { derivedNamesIn, DERIVED_FIELDS, gradientFieldFor, gradientQuantity, hasPrimedQuantity, NODE_QUANTITIES, primeQuantity } from '../derive/derivedFields.ts';
 import { pointGradientAt, primeGradient, primeGradientAt } from '../derive/fieldGradient.ts';
 import { pointGradientRange, pointGradientRangeInto } from '../derive/rangeGradient.ts';
+import { momentKernel } from '../derive/momentKernel.ts';
+import { holdable } from '../derive/kernelMesh.ts';
 import type { Dataset } from '../model/dataset.ts';
 import { findField } from '../model/piece.ts';
 import type { ComputePool } from './pool.ts';
@@ -49,7 +51,12 @@ export function gradientShare(d: Dataset, s: GradientShare): Float64Array | Floa
   const f = p && findField(p, s.field, 'point');
   if (!p || !f) throw new Error(`worker pool: no point field "${s.field}" on piece ${s.piece} of ${d.source}`);
   const w = 3 * f.components;
-  if (s.quantities) return quantityShare(p.points.length / 3, f.values, f.components, s, (g) => pointGradientRangeInto(p, f.values, f.components, s.from, s.to, g, 0));
+  if (s.quantities) {
+    // on the kernel's own copy of the mesh, in blocks: a block's gradient stays in the cache, and no gradient
+    // array of the whole range is made (its first touch alone cost more than the quantities)
+    const block = momentKernel() && holdable(p) ? QUANTITY_BLOCK : s.to - s.from;
+    return quantityShare(p.points.length / 3, f.values, f.components, s, block, (a, b, g) => pointGradientRangeInto(p, f.values, f.components, a, b, g, 0));
+  }
   if (s.nodes) {
     if (s.nodes.length !== s.to - s.from || s.out.length < w * s.to) throw new Error(`worker pool: gradient share ${s.from}..${s.to} does not match its ${s.nodes.length} nodes`);
     s.out.set(pointGradientAt(p, f, s.nodes), w * s.from);
@@ -57,25 +64,27 @@ export function gradientShare(d: Dataset, s: GradientShare): Float64Array | Floa
   return s.out.buffer instanceof ArrayBuffer ? s.out.slice(w * s.from, w * s.to) : null;
 }
 
+/** Nodes per block of a quantity share: their gradient (9 doubles each, 1.2 MB) stays in the cache. */
+const QUANTITY_BLOCK = 16384;
+
 /**
- * The quantities of a share (`s.quantities`): the range's gradient (`fit` fills its range-sized array), then
- * each quantity of it. Null when every `out` is shared memory, else the range's values per quantity.
+ * The quantities of a share (`s.quantities`), `block` nodes at a time: the block's gradient (`fit(a, b, g)`
+ * fills `g` for nodes a .. b-1), then each quantity of it, written into its `out`. Null when every `out` is
+ * shared memory, else the range's values per quantity.
  */
-function quantityShare(np: number, values: NumericArray, nc: number, s: GradientShare, fit: (g: Float64Array) => void): Float64Array[] | null {
+function quantityShare(np: number, values: NumericArray, nc: number, s: GradientShare, block: number,
+  fit: (a: number, b: number, g: Float64Array) => void): Float64Array[] | null {
   if (nc !== 3) throw new Error(`worker pool: derived quantities need a velocity of 3 components, "${s.field}" has ${nc}`);
-  const g = new Float64Array(9 * (s.to - s.from));
-  fit(g);
-  const u = values.subarray(3 * s.from, 3 * s.to);
-  const copies: Float64Array[] = [];
-  let shared = true;
-  for (const q of s.quantities!) {
-    const c = DERIVED_FIELDS[q.name].components, v = gradientQuantity(q.name, g, u);
-    if (q.out.length !== c * np) throw new Error(`worker pool: "${q.name}" result holds ${q.out.length} values, expected ${c * np}`);
-    q.out.set(v, c * s.from);
-    copies.push(v);
-    if (q.out.buffer instanceof ArrayBuffer) shared = false;
+  const qs = s.quantities!, comps = qs.map((q) => DERIVED_FIELDS[q.name].components);
+  qs.forEach((q, k) => { if (q.out.length !== comps[k]! * np) throw new Error(`worker pool: "${q.name}" result holds ${q.out.length} values, expected ${comps[k]! * np}`); });
+  const g = new Float64Array(9 * Math.min(block, s.to - s.from));
+  for (let a = s.from; a < s.to; a += block) {
+    const b = Math.min(s.to, a + block), gb = g.subarray(0, 9 * (b - a)), u = values.subarray(3 * a, 3 * b);
+    fit(a, b, gb);
+    qs.forEach((q, k) => q.out.set(gradientQuantity(q.name, gb, u), comps[k]! * a));
   }
-  return shared ? null : copies;
+  if (qs.every((q) => !(q.out.buffer instanceof ArrayBuffer))) return null;
+  return qs.map((q, k) => q.out.slice(comps[k]! * s.from, comps[k]! * s.to));
 }
 
 /**
