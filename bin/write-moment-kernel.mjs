@@ -15,9 +15,9 @@
 //
 // A mesh held in the memory (src/derive/kernelMesh.ts lays it out and writes the byte addresses of its parts
 // from CONFIG_AT on, as `CONFIG` says) lets the kernel find and gather each node's ring itself, with no copy
-// per neighbour in JavaScript: `incidence(np, cells)` builds the node → cells rows from the cells' connectivity
-// (a count, then a fill from the last cell back, so each node's cells come out ascending, as stencils.ts has
-// them); `one1`/`one3(lane, i)` walk node i's one-ring (the nodes of its cells, cells ascending, nodes in
+// per neighbour in JavaScript: `incidence(np, c0, c1, phase)` builds the node → cells rows from the cells'
+// connectivity (a count, then a fill from the last cell back, so each node's cells come out ascending, as
+// stencils.ts has them; in chunks of cells); `one1`/`one3(lane, i)` walk node i's one-ring (the nodes of its cells, cells ascending, nodes in
 // connectivity order, i and repeats left out: stencils.ts `pointStencil`'s row) and gather it into lane
 // `lane`'s slots — offsets and value differences, the ring statistics and the scale 1/h as pairedFit.ts
 // `gather` computes them — then make the one-sided test (RING.skewed), leaving to JavaScript (RING.ask) the
@@ -216,34 +216,46 @@ function assembler(nParams) {
 
 const F64 = 0x7c;
 
-/** `incidence(np, cells)`: node → cells rows (at CONFIG.incidence: np + 1 starts; ids at CONFIG.cells). */
+/**
+ * `incidence(np, c0, c1, phase)`: node → cells rows (at CONFIG.incidence: np + 1 starts; ids at CONFIG.cells),
+ * built in three phases, the first and last in chunks of cells, so the optimising tier takes over after the
+ * first chunks (a function's first call runs to its end in the baseline code): 0 counts the entries of cells
+ * c0 .. c1-1 (the counts zeroed first by the caller), 1 sums them (np nodes), 2 fills cells c1-1 down to c0
+ * (called from the last chunk back).
+ */
 function incidenceBody() {
-  const a = assembler(2), NP = 0, NC = 1;
+  const a = assembler(4), NP = 0, C0 = 1, C1 = 2, PHASE = 3;
   const A = a.local(I32), conn = a.local(I32), off = a.local(I32), cells = a.local(I32), p = a.local(I32), end = a.local(I32);
   const acc = a.local(I32), q = a.local(I32), c = a.local(I32), lo = a.local(I32), v = a.local(I32);
   // A = the starts' array less two entries: counts go to A[q + 2], so that after the prefix sum A[q + 2] ends
   // node q's list and, after the fill from the back, starts it (the starts then read from A + 2)
   a.config(CONFIG.incidence); a.i32(8); a.sub(); a.set(A);
   a.config(CONFIG.connectivity); a.set(conn); a.config(CONFIG.offsets); a.set(off); a.config(CONFIG.cells); a.set(cells);
-  // A[0 .. np+2] = 0 (memory.fill)
-  a.get(A); a.i32(0); a.get(NP); a.i32(3); a.add(); a.i32(2); a.shl(); a.e(0xfc, 11, 0);
-  // count: every connectivity entry of the cells
-  a.get(off); a.load(); a.i32(2); a.shl(); a.get(conn); a.add(); a.set(p);
-  a.get(off); a.get(NC); a.i32(2); a.shl(); a.add(); a.load(); a.i32(2); a.shl(); a.get(conn); a.add(); a.set(end);
-  a.each(p, end, 4, () => {
-    a.get(p); a.load(); a.i32(2); a.shl(); a.get(A); a.add(); a.tee(q);
-    a.get(q); a.load(8); a.i32(1); a.add(); a.store(8);
+  a.get(PHASE); a.eqz();
+  a.ifThen(() => {
+    // count: every connectivity entry of cells c0 .. c1-1
+    a.get(off); a.get(C0); a.i32(2); a.shl(); a.add(); a.load(); a.i32(2); a.shl(); a.get(conn); a.add(); a.set(p);
+    a.get(off); a.get(C1); a.i32(2); a.shl(); a.add(); a.load(); a.i32(2); a.shl(); a.get(conn); a.add(); a.set(end);
+    a.each(p, end, 4, () => {
+      a.get(p); a.load(); a.i32(2); a.shl(); a.get(A); a.add(); a.tee(q);
+      a.get(q); a.load(8); a.i32(1); a.add(); a.store(8);
+    });
+    a.e(0x0f);
   });
-  // prefix sums over A[2 .. np+1]; A[np+2] = the total
-  a.get(A); a.load(8); a.set(acc);
-  a.get(A); a.i32(12); a.add(); a.set(p);
-  a.get(NP); a.i32(2); a.add(); a.i32(2); a.shl(); a.get(A); a.add(); a.set(end);
-  a.each(p, end, 4, () => { a.get(p); a.get(acc); a.get(p); a.load(); a.add(); a.tee(acc); a.store(); });
-  a.get(end); a.get(acc); a.store();
+  a.get(PHASE); a.i32(1); a.e(0x46); // i32.eq
+  a.ifThen(() => {
+    // prefix sums over A[2 .. np+1]; A[np+2] = the total
+    a.get(A); a.load(8); a.set(acc);
+    a.get(A); a.i32(12); a.add(); a.set(p);
+    a.get(NP); a.i32(2); a.add(); a.i32(2); a.shl(); a.get(A); a.add(); a.set(end);
+    a.each(p, end, 4, () => { a.get(p); a.get(acc); a.get(p); a.load(); a.add(); a.tee(acc); a.store(); });
+    a.get(end); a.get(acc); a.store();
+    a.e(0x0f);
+  });
   // fill from the last cell back, each cell's entries from its last back: each node's cells come out ascending
-  a.get(NC); a.set(c);
+  a.get(C1); a.set(c);
   a.e(0x02, 0x40, 0x03, 0x40);
-  a.get(c); a.eqz(); a.e(0x0d, 1);
+  a.get(C0); a.get(c); a.geU(); a.e(0x0d, 1);
   a.get(c); a.i32(1); a.sub(); a.set(c);
   a.get(off); a.get(c); a.i32(2); a.shl(); a.add(); a.tee(p); a.load(); a.i32(2); a.shl(); a.get(conn); a.add(); a.set(lo);
   a.get(p); a.load(4); a.i32(2); a.shl(); a.get(conn); a.add(); a.set(p);
@@ -398,8 +410,8 @@ const f64Bytes = (x) => [...new Uint8Array(new Float64Array([x]).buffer)];
 export function momentKernelBytes() {
   return Uint8Array.from([
     0x00, 0x61, 0x73, 0x6d, 0x01, 0x00, 0x00, 0x00,
-    // types: 0 (i32) → (); 1 (i32, i32) → (); 2 (i32, i32) → i32; 3 (i32, i32, i32, i32) → i32; 4 (i32 ×5) → i32; 5 (i32 ×3) → i32
-    ...section(1, vec([[0x60, 1, I32, 0], [0x60, 2, I32, I32, 0], [0x60, 2, I32, I32, 1, I32], [0x60, 4, I32, I32, I32, I32, 1, I32],
+    // types: 0 (i32) → (); 1 (i32 ×4) → (); 2 (i32, i32) → i32; 3 (i32, i32, i32, i32) → i32; 4 (i32 ×5) → i32; 5 (i32 ×3) → i32
+    ...section(1, vec([[0x60, 1, I32, 0], [0x60, 4, I32, I32, I32, I32, 0], [0x60, 2, I32, I32, 1, I32], [0x60, 4, I32, I32, I32, I32, 1, I32],
       [0x60, 5, I32, I32, I32, I32, I32, 1, I32], [0x60, 3, I32, I32, I32, 1, I32]])),
     // functions 0 fit1, 1 fit3, 2 incidence, 3 walk, 4 twoRing, 5 gather1, 6 gather3, 7 one1, 8 one3, 9 two1, 10 two3
     ...section(3, vec([[0], [0], [1], [2], [3], [4], [4], [2], [2], [5], [5]])),

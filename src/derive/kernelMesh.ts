@@ -87,7 +87,7 @@ export function holdMesh(K: MomentKernel, p: Piece, values: NumericArray, nc: nu
     K.i32[c + C.incidence / 4] = inc + 8; K.i32[c + C.cells / 4] = ids; K.i32[c + C.stamps / 4] = stamps; K.i32[c + C.tick / 4] = 0;
     K.i32[c + C.cellStamps / 4] = cellStamps; K.i32[c + C.ring1 / 4] = ring1; K.i32[c + C.ring2 / 4] = ring2;
     K.f64[(KERNEL_LAYOUT.statsAt + KERNEL_STATS.oneSided) / 8] = ONE_SIDED;
-    K.incidence(np, cells);
+    buildIncidence(K, np, cells, inc);
     h = { points: new WeakRef(p.points), connectivity: new WeakRef(p.connectivity), offsets: new WeakRef(p.offsets), nodes: np, cells, slots, values: null, nc: 0 };
   }
   if (h.values?.deref() !== values || h.nc !== nc) {
@@ -105,6 +105,17 @@ export function holdMesh(K: MomentKernel, p: Piece, values: NumericArray, nc: nu
   }
   held = h;
   return h;
+}
+
+/** Cells per call of the kernel's incidence passes (the first calls run in the baseline tier). */
+const CHUNK = 1 << 15;
+
+/** The held mesh's node → cells rows (starts from byte `inc` + 8, np + 3 entries from `inc`). */
+function buildIncidence(K: MomentKernel, np: number, cells: number, inc: number): void {
+  K.i32.fill(0, inc / 4, inc / 4 + np + 3);
+  for (let c = 0; c < cells; c += CHUNK) K.incidence(np, c, Math.min(cells, c + CHUNK), 0);
+  K.incidence(np, 0, 0, 1);
+  for (let c = cells; c > 0; c -= CHUNK) K.incidence(np, Math.max(0, c - CHUNK), c, 2);
 }
 
 /** Lets go of the held mesh (its memory is reused by the next). */

@@ -16,8 +16,11 @@ import { KERNEL_CONFIG, KERNEL_LAYOUT, KERNEL_RING, KERNEL_STATS, MOMENT_KERNEL_
 export interface MomentKernel {
   fit1(n: number): void;
   fit3(n: number): void;
-  /** Node → cells rows of the held mesh's `np` nodes and `cells` cells (kernelMesh.ts). */
-  incidence(np: number, cells: number): void;
+  /**
+   * Node → cells rows of the held mesh's `np` nodes (kernelMesh.ts), by phase: 0 counts cells c0 .. c1-1, 1 sums
+   * the counts, 2 fills cells c1-1 down to c0.
+   */
+  incidence(np: number, c0: number, c1: number, phase: number): void;
   /**
    * Node i's one-ring walked and gathered into lane `lane` (1 or 3 components), the one-sided test made: its
    * slot count, or a `KERNEL_RING` code.
