@@ -182,18 +182,24 @@ export const NODE_QUANTITIES: readonly DerivedName[] = ['vorticity', 'vorticity-
 
 /**
  * Quantity `name` (one of NODE_QUANTITIES) at each site from the velocity gradients `G` (9 per site) and the
- * velocities `u` (3 per site, for helicity), `DERIVED_FIELDS[name].components` values per site. Site by site,
- * so a slice of sites gives the slice of the whole result, bit for bit.
+ * velocities `u` (3 per site, for helicity), `DERIVED_FIELDS[name].components` values per site, written into
+ * `out` from index `at` when given (else a new array). Site by site, so a slice of sites gives the slice of the
+ * whole result, bit for bit.
  */
-export function gradientQuantity(name: DerivedName, G: Float64Array, u: ArrayLike<number>): Float64Array {
+export function gradientQuantity(name: DerivedName, G: Float64Array, u: ArrayLike<number>, out?: Float64Array, at = 0): Float64Array {
+  // vorticity and Q straight into `out`; the others through an array of their own
+  if (name === 'vorticity') return vorticityOf(G, out, at);
+  if (name === 'q-criterion') return qCriterionOf(G, out, at);
+  let v: Float64Array;
   switch (name) {
-    case 'vorticity': return vorticityOf(G);
-    case 'vorticity-magnitude': return magnitudeOf(vorticityOf(G), 3);
-    case 'q-criterion': return qCriterionOf(G);
-    case 'lambda2': return lambda2Of(G);
-    case 'helicity': return helicityOf(u, vorticityOf(G));
+    case 'vorticity-magnitude': v = magnitudeOf(vorticityOf(G), 3); break;
+    case 'lambda2': v = lambda2Of(G); break;
+    case 'helicity': v = helicityOf(u, vorticityOf(G)); break;
     default: throw new Error(`derived field "${name}" is not made from the velocity gradient node by node`);
   }
+  if (!out) return v;
+  out.set(v, at);
+  return out;
 }
 
 /** Quantities computed elsewhere (the worker pool), by velocity values array: `primeQuantity`. */

@@ -81,7 +81,7 @@ function quantityShare(np: number, values: NumericArray, nc: number, s: Gradient
   for (let a = s.from; a < s.to; a += block) {
     const b = Math.min(s.to, a + block), gb = g.subarray(0, 9 * (b - a)), u = values.subarray(3 * a, 3 * b);
     fit(a, b, gb);
-    qs.forEach((q, k) => q.out.set(gradientQuantity(q.name, gb, u), comps[k]! * a));
+    qs.forEach((q, k) => gradientQuantity(q.name, gb, u, q.out, comps[k]! * a));
   }
   if (qs.every((q) => !(q.out.buffer instanceof ArrayBuffer))) return null;
   return qs.map((q, k) => q.out.slice(comps[k]! * s.from, comps[k]! * s.to));
