@@ -344,24 +344,36 @@ function gatherBody(nc) {
   a.get(I); a.i32(24); a.mul(); a.get(pos); a.add(); a.tee(q); a.fload(0); a.set(x0); a.get(q); a.fload(8); a.set(y0); a.get(q); a.fload(16); a.set(z0);
   a.get(I); a.i32(8 * nc); a.mul(); a.get(val); a.add(); a.set(q);
   for (let c = 0; c < nc; c++) { a.get(q); a.fload(8 * c); a.set(f[c]); }
+  // x and y (and the first two value components) as f64x2 pairs: one load and one subtraction for both, each
+  // lane the scalar code's value; the sums of x and y in one pair (Σ starts at +0, so adding in lanes is exact)
+  const xy0 = a.local(V128), dxy = a.local(V128), mxy = a.local(V128), f01 = a.local(V128), sq = a.local(V128);
+  const vload = (off) => a.e(simd(OP.load), 3, uleb(off)), vsub = () => a.e(simd(OP.sub)), vmul = () => a.e(simd(OP.mul));
+  const laneStore = (off, lane) => a.e(simd(0x5b), 3, uleb(off), lane), lane = (k) => a.e(simd(0x21), k);
+  a.get(I); a.i32(24); a.mul(); a.get(pos); a.add(); vload(0); a.set(xy0);
+  if (nc === 3) { a.get(I); a.i32(24); a.mul(); a.get(val); a.add(); vload(0); a.set(f01); }
   a.get(AT); a.set(s); a.get(N); a.i32(2); a.shl(); a.get(AT); a.add(); a.set(se);
   a.each(s, se, 4, () => {
-    a.get(s); a.load(); a.i32(24); a.mul(); a.get(pos); a.add(); a.set(q);
-    a.get(q); a.fload(0); a.get(x0); a.fsub(); a.set(dx);
-    a.get(q); a.fload(8); a.get(y0); a.fsub(); a.set(dy);
+    a.get(s); a.load(); a.i32(24); a.mul(); a.get(pos); a.add(); a.tee(q);
+    vload(0); a.get(xy0); vsub(); a.set(dxy);
     a.get(q); a.fload(16); a.get(z0); a.fsub(); a.set(dz);
-    a.get(o); a.get(dx); a.fstore(0); a.get(o); a.get(dy); a.fstore(16); a.get(o); a.get(dz); a.fstore(32);
+    a.get(o); a.get(dxy); laneStore(0, 0); a.get(o); a.get(dxy); laneStore(16, 1); a.get(o); a.get(dz); a.fstore(32);
     a.get(s); a.load(); a.i32(8 * nc); a.mul(); a.get(val); a.add(); a.set(q);
-    for (let c = 0; c < nc; c++) { a.get(o); a.get(q); a.fload(8 * c); a.get(f[c]); a.fsub(); a.fstore(48 + 16 * c); }
-    a.get(dx); a.get(dx); a.fmul(); a.get(dy); a.get(dy); a.fmul(); a.fadd(); a.get(dz); a.get(dz); a.fmul(); a.fadd(); a.tee(r2);
+    if (nc === 3) {
+      a.get(q); vload(0); a.get(f01); vsub(); a.set(sq);
+      a.get(o); a.get(sq); laneStore(48, 0); a.get(o); a.get(sq); laneStore(64, 1);
+      a.get(o); a.get(q); a.fload(16); a.get(f[2]); a.fsub(); a.fstore(80);
+    } else { a.get(o); a.get(q); a.fload(0); a.get(f[0]); a.fsub(); a.fstore(48); }
+    // r2 = dx·dx + dy·dy + dz·dz, in the scalar code's order
+    a.get(dxy); a.get(dxy); vmul(); a.tee(sq); lane(0); a.get(sq); lane(1); a.fadd(); a.get(dz); a.get(dz); a.fmul(); a.fadd(); a.tee(r2);
     a.e(0x44, f64Bytes(0)); a.fgt();
     a.ifThen(() => {
       a.get(h2); a.get(r2); a.fadd(); a.set(h2);
       a.get(used); a.i32(1); a.add(); a.set(used);
-      a.get(mx); a.get(dx); a.fadd(); a.set(mx); a.get(my); a.get(dy); a.fadd(); a.set(my); a.get(mz); a.get(dz); a.fadd(); a.set(mz);
+      a.get(mxy); a.get(dxy); a.e(simd(OP.add)); a.set(mxy); a.get(mz); a.get(dz); a.fadd(); a.set(mz);
     });
     a.get(o); a.i32(step); a.add(); a.set(o);
   });
+  a.get(mxy); lane(0); a.set(mx); a.get(mxy); lane(1); a.set(my);
   // no neighbour apart from the site: −1
   a.get(used); a.eqz(); a.ifThen(() => { a.i32(-1); a.e(0x0f); });
   // ih = 1 / sqrt(h2 / used), as pairedFit.ts computes it
