@@ -6,7 +6,9 @@
 // lane mask), so each lane's gradient is the scalar one to the bit. Run `node bin/write-moment-kernel.mjs`
 // after changing this generator; tests/derive/momentKernel.test.ts checks the written file is its output.
 //
-// Memory (exported as `memory`, grown by the caller), one f64x2 (lane 0 the first site) per value: bytes 0–15
+// Memory (imported as `env.memory` and exported as `memory`; the caller gives a larger memory to a new instance
+// instead of growing it: growing detaches the old buffer, which makes V8 check every typed-array access in the
+// whole thread from then on), one f64x2 (lane 0 the first site) per value: bytes 0–15
 // the two sites' scales 1/h; 16–31 the pivot tolerance; from byte 32 the results: the smallest relative
 // pivot (as factorNine returns it), then ∂f_c/∂x_d (component c, direction d: at 32 + 16·(1 + 3c + d), in the
 // field's unit per length unit); from byte 1024 the neighbour slots, one per neighbour: offsets dx, dy, dz
@@ -425,9 +427,10 @@ export function momentKernelBytes() {
     // types: 0 (i32) → (); 1 (i32 ×4) → (); 2 (i32, i32) → i32; 3 (i32, i32, i32, i32) → i32; 4 (i32 ×5) → i32; 5 (i32 ×3) → i32
     ...section(1, vec([[0x60, 1, I32, 0], [0x60, 4, I32, I32, I32, I32, 0], [0x60, 2, I32, I32, 1, I32], [0x60, 4, I32, I32, I32, I32, 1, I32],
       [0x60, 5, I32, I32, I32, I32, I32, 1, I32], [0x60, 3, I32, I32, I32, 1, I32]])),
+    // the memory is the caller's (env.memory, at least one page): it is replaced by a larger one rather than grown
+    ...section(2, vec([[...name('env'), ...name('memory'), 0x02, 0x00, 1]])),
     // functions 0 fit1, 1 fit3, 2 incidence, 3 walk, 4 twoRing, 5 gather1, 6 gather3, 7 one1, 8 one3, 9 two1, 10 two3
     ...section(3, vec([[0], [0], [1], [2], [3], [4], [4], [2], [2], [5], [5]])),
-    ...section(5, vec([[0x00, 1]])),
     ...section(7, vec([[...name('memory'), 0x02, 0], [...name('fit1'), 0x00, 0], [...name('fit3'), 0x00, 1], [...name('incidence'), 0x00, 2],
       [...name('one1'), 0x00, 7], [...name('one3'), 0x00, 8], [...name('two1'), 0x00, 9], [...name('two3'), 0x00, 10]])),
     ...section(10, vec([fitBody(1), fitBody(3), incidenceBody(), walkBody(), twoRingBody(), gatherBody(1), gatherBody(3),

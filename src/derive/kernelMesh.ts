@@ -74,7 +74,8 @@ export function holdMesh(K: MomentKernel, p: Piece, values: NumericArray, nc: nu
     const { pos, val, cn, off, inc, ids, stamps, cellStamps, ring1, ring2, slots } = layout(p);
     if (slots > MAX_HELD_BYTES) return null;
     try {
-      kernelBytes(K, slots);
+      // nothing of the memory is kept but the header (every part is written anew)
+      kernelBytes(K, slots, KERNEL_LAYOUT.slotsAt);
     } catch {
       return null;
     }

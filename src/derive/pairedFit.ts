@@ -37,7 +37,20 @@ const job = {
 export function pairedInto(K: MomentKernel, out: Float64Array, outStart: number, positions: Float64Array, values: NumericArray,
   nc: number, stencil: Stencil, targets: Int32Array | undefined, from: number, to: number, ringSizes: Int32Array | undefined): void {
   Object.assign(job, { K, out, outStart, positions, values, nc, so: stencil.offsets, sid: stencil.ids, targets, from, ringSizes, mesh: null });
-  pairs(to);
+  try {
+    const run = begin();
+    let k = from;
+    while (k < to) {
+      let lanes = 0;
+      while (lanes < 2 && k < to) { if (prepare(lanes, k)) lanes++; k++; }
+      if (lanes === 0) break;
+      const redo = fitLanes(lanes, run);
+      if (redo & 1) widen(laneK[0]!, run);
+      if (redo & 2) widen(laneK[1]!, run);
+    }
+  } finally {
+    end();
+  }
 }
 
 /**
@@ -50,36 +63,56 @@ export function meshInto(K: MomentKernel, out: Float64Array, outStart: number, p
   const mesh = holdMesh(K, p, values, nc);
   if (!mesh) return false;
   Object.assign(job, { K, out, outStart, positions: p.points, values, nc, targets: undefined, from, ringSizes, mesh });
-  pairs(to);
+  // the same loop as pairedInto's, kept apart so each keeps its own optimised code (one loop serving both was
+  // re-optimised for the mix, and the wall's fits after a whole-mesh fit ran ~20 % slower)
+  try {
+    const run = begin();
+    let k = from;
+    while (k < to) {
+      let lanes = 0;
+      while (lanes < 2 && k < to) { if (prepareHeld(lanes, k)) lanes++; k++; }
+      if (lanes === 0) break;
+      const redo = fitLanes(lanes, run);
+      if (redo & 1) widenHeld(laneK[0]!, run);
+      if (redo & 2) widenHeld(laneK[1]!, run);
+    }
+  } finally {
+    end();
+  }
   return true;
 }
 
-/** The pairing loop over `job`'s sites up to `to`. */
-function pairs(to: number): void {
+/**
+ * Readies the kernel for `job` (slots after any held mesh, the pivot tolerance); returns its fit for `job.nc`,
+ * looked up at each call (making room may put the kernel on a new instance: momentKernel.ts `kernelBytes`).
+ */
+function begin(): (n: number) => void {
   const { K, nc } = job;
   job.slotsAt = slotsBase();
   useSlotsAt(K, job.slotsAt);
-  const run = nc === 3 ? K.fit3 : K.fit1, t = KERNEL_LAYOUT.toleranceAt / 8;
+  const t = KERNEL_LAYOUT.toleranceAt / 8;
   K.f64[t] = PIVOT_TOLERANCE; K.f64[t + 1] = PIVOT_TOLERANCE;
-  try {
-    let k = job.from;
-    while (k < to) {
-      let lanes = 0;
-      while (lanes < 2 && k < to) { if (prepare(lanes, k)) lanes++; k++; }
-      if (lanes === 0) break;
-      let n = laneN[0]!;
-      if (lanes === 1) clearLane(1, 0, n);
-      else if (laneN[1]! < n) clearLane(1, laneN[1]!, n);
-      else if (laneN[1]! > n) { clearLane(0, n, laneN[1]!); n = laneN[1]!; }
-      run(n);
-      const redo0 = !finish(0), redo1 = lanes === 2 && !finish(1);
-      if (redo0) widen(laneK[0]!, run);
-      if (redo1) widen(laneK[1]!, run);
-    }
-  } finally {
-    // let go of the caller's arrays, so the module does not keep the last mesh alive
-    Object.assign(job, { out: NO_VALUES, positions: NO_VALUES, values: NO_VALUES, so: NO_IDS, sid: NO_IDS, targets: undefined, ringSizes: undefined, mesh: null });
-  }
+  return nc === 3 ? fit3 : fit1;
+}
+
+const fit3 = (n: number): void => job.K.fit3(n), fit1 = (n: number): void => job.K.fit1(n);
+
+/** Lets go of the caller's arrays, so the module does not keep the last mesh alive. */
+function end(): void {
+  Object.assign(job, { out: NO_VALUES, positions: NO_VALUES, values: NO_VALUES, so: NO_IDS, sid: NO_IDS, targets: undefined, ringSizes: undefined, mesh: null });
+}
+
+/**
+ * Pads the shorter lane, fits the `lanes` lanes prepared and writes their results; returns the lanes whose
+ * one-ring turned out ill-conditioned (bit 0: lane 0, bit 1: lane 1), to be widened.
+ */
+function fitLanes(lanes: number, run: (n: number) => void): number {
+  let n = laneN[0]!;
+  if (lanes === 1) clearLane(1, 0, n);
+  else if (laneN[1]! < n) clearLane(1, laneN[1]!, n);
+  else if (laneN[1]! > n) { clearLane(0, n, laneN[1]!); n = laneN[1]!; }
+  run(n);
+  return (finish(0) ? 0 : 1) | (lanes === 2 && !finish(1) ? 2 : 0);
 }
 
 const NO_VALUES = new Float64Array(0), NO_IDS = new Int32Array(0);
@@ -92,7 +125,6 @@ const siteOf = (k: number): number => (job.targets ? job.targets[k]! : k);
  * has no neighbour apart from the site. Returns false (the site's result written as NaN) when neither has one.
  */
 function prepare(lane: number, k: number): boolean {
-  if (job.mesh) return prepareHeld(lane, k);
   const i = siteOf(k), { so, sid } = job;
   // a node list (a wall's nodes) is mostly one-sided: test the one-ring before writing it into the slots
   let n = job.targets && !fittedApart(i, so[i]!, so[i + 1]!) ? -1 : gather(i, sid, so[i]!, so[i + 1]!, lane, true);
@@ -142,10 +174,17 @@ const laneSlots = (K: MomentKernel): number => K.i32[(KERNEL_LAYOUT.configAt + K
 
 /** Refits target `k` over its two-ring (its one-ring was ill-conditioned), alone in lane 0. */
 function widen(k: number, run: (n: number) => void): void {
-  const i = siteOf(k), { so, sid, mesh } = job;
-  let n: number;
-  if (mesh) n = ringHeld(0, i, 2, 1);
-  else { const m = twoRing(so, sid, i, k); n = gather(i, ringIds(), 0, m, 0, false); }
+  const i = siteOf(k), m = twoRing(job.so, job.sid, i, k);
+  refit(k, gather(i, ringIds(), 0, m, 0, false), run);
+}
+
+/** `widen` over the held mesh (node k's two-ring walked and gathered by the kernel). */
+function widenHeld(k: number, run: (n: number) => void): void {
+  refit(k, ringHeld(0, k, 2, 1), run);
+}
+
+/** Fits target `k` alone in lane 0 over the `n` slots gathered there (none: NaN). */
+function refit(k: number, n: number, run: (n: number) => void): void {
   if (n < 0) { noResult(k); return; }
   laneK[0] = k; laneN[0] = n; laneOne[0] = 0;
   clearLane(1, 0, n);
