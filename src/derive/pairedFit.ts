@@ -37,20 +37,7 @@ const job = {
 export function pairedInto(K: MomentKernel, out: Float64Array, outStart: number, positions: Float64Array, values: NumericArray,
   nc: number, stencil: Stencil, targets: Int32Array | undefined, from: number, to: number, ringSizes: Int32Array | undefined): void {
   Object.assign(job, { K, out, outStart, positions, values, nc, so: stencil.offsets, sid: stencil.ids, targets, from, ringSizes, mesh: null });
-  try {
-    const run = begin();
-    let k = from;
-    while (k < to) {
-      let lanes = 0;
-      while (lanes < 2 && k < to) { if (prepare(lanes, k)) lanes++; k++; }
-      if (lanes === 0) break;
-      const redo = fitLanes(lanes, run);
-      if (redo & 1) widen(laneK[0]!, run);
-      if (redo & 2) widen(laneK[1]!, run);
-    }
-  } finally {
-    end();
-  }
+  pairs(to);
 }
 
 /**
@@ -63,23 +50,27 @@ export function meshInto(K: MomentKernel, out: Float64Array, outStart: number, p
   const mesh = holdMesh(K, p, values, nc);
   if (!mesh) return false;
   Object.assign(job, { K, out, outStart, positions: p.points, values, nc, targets: undefined, from, ringSizes, mesh });
-  // the same loop as pairedInto's, kept apart so each keeps its own optimised code (one loop serving both was
-  // re-optimised for the mix, and the wall's fits after a whole-mesh fit ran ~20 % slower)
+  pairs(to);
+  return true;
+}
+
+/** The pairing loop over `job`'s sites from `job.from` up to `to`: rings from rows, or walked in the held mesh. */
+function pairs(to: number): void {
+  const held = job.mesh !== null;
   try {
     const run = begin();
-    let k = from;
+    let k = job.from;
     while (k < to) {
       let lanes = 0;
-      while (lanes < 2 && k < to) { if (prepareHeld(lanes, k)) lanes++; k++; }
+      while (lanes < 2 && k < to) { if (held ? prepareHeld(lanes, k) : prepare(lanes, k)) lanes++; k++; }
       if (lanes === 0) break;
       const redo = fitLanes(lanes, run);
-      if (redo & 1) widenHeld(laneK[0]!, run);
-      if (redo & 2) widenHeld(laneK[1]!, run);
+      if (redo & 1) (held ? widenHeld : widen)(laneK[0]!, run);
+      if (redo & 2) (held ? widenHeld : widen)(laneK[1]!, run);
     }
   } finally {
     end();
   }
-  return true;
 }
 
 /**
