@@ -31,10 +31,13 @@ import { mergeBoundary, mergeLines } from './mergeParts.ts';
 import { cutInPlace, summedBlocks } from './placeCuts.ts';
 import { dealProbes, joinEvaluations, subSet } from './probeSetShares.ts';
 import { nodeRanges } from '../derive/rangeGradient.ts';
+import type { DerivedName } from '../derive/derivedFields.ts';
 import type { ShareMessage, ShareReply, ShareRequest, WorkerMemory } from './shareHost.ts';
 import type { BoundaryPart, LinePart } from './shareTasks.ts';
 import { toSharedDataset } from './sharedDataset.ts';
 import { splitCells, type CellShare } from './shares.ts';
+
+const EMPTY = new Float64Array(0);
 
 /** The pool's end of one worker. */
 export interface PoolPort {
@@ -200,6 +203,25 @@ export class ComputePool {
     // without shared memory each worker sends its range back
     parts.forEach((part, i) => { if (part) out.set(part, w * bounds[i]!); });
     return out;
+  }
+
+  /**
+   * Quantities of the velocity gradient of point field `field` of piece `piece` (`names`: NODE_QUANTITIES of
+   * src/derive/derivedFields.ts, with their components), each as `withDerivedFields` makes it, bit for bit: the
+   * nodes split as for `pointGradient`, each worker writing its range of every quantity into shared arrays; the
+   * gradient itself stays in the workers.
+   */
+  async pointDerived(piece: number, field: string, names: readonly { name: DerivedName; components: number }[]): Promise<Float64Array[]> {
+    const p = this.dataset.pieces[piece], f = p && findField(p, field, 'point');
+    if (!p || !f) throw new Error(`gradient: no point field "${field}" on piece ${piece} of ${this.dataset.source}`);
+    const np = p.points.length / 3, shared = typeof SharedArrayBuffer !== 'undefined';
+    const outs = names.map((q) => (shared ? new Float64Array(new SharedArrayBuffer(8 * q.components * np)) : new Float64Array(q.components * np)));
+    const bounds = nodeRanges(np, this.lanes.length);
+    const parts = await Promise.all(this.lanes.slice(0, bounds.length - 1).map((l, i) => l.call<Float64Array[] | null>({
+      op: 'gradient', piece, field, from: bounds[i]!, to: bounds[i + 1]!, out: EMPTY, quantities: names.map((q, k) => ({ name: q.name, out: outs[k]! })),
+    })));
+    parts.forEach((part, i) => part?.forEach((v, k) => outs[k]!.set(v, names[k]!.components * bounds[i]!)));
+    return outs;
   }
 
   /**
