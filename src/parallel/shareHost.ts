@@ -14,6 +14,7 @@ import { gradientShare, type GradientShare } from './deriveShares.ts';
 import { shareDataset, type CellShare } from './shares.ts';
 import { prepareCut } from '../cut/cutPlane.ts';
 import { warmUpCutKernels } from '../cut/warmUp.ts';
+import { detachOnce } from './detachOnce.ts';
 import { warmUpShareKernels } from './shareWarmUp.ts';
 import { warmUpFitKernels } from '../derive/warmUpFit.ts';
 import { warmUpLocateKernels } from '../locate/warmUp.ts';
@@ -96,6 +97,8 @@ export function serveShares(port: SharePort, memory: () => WorkerMemory | null =
     }
     port.postMessage(reply, transfer);
   };
+  // replies transfer their arrays: the first detach would drop every compiled kernel, so it happens before the warm-up
+  detachOnce();
   let queue: Promise<void> = warmUp().catch(() => undefined);
   port.onMessage((m) => { queue = queue.then(() => answer(m)); });
 }
