@@ -8,6 +8,7 @@ import { integratePlane } from '../src/cut/planeIntegrals.ts';
 import { cutPlane } from '../src/cut/cutPlane.ts';
 import { selectRegion } from '../src/cut/region.ts';
 import { warmUpCutKernels } from '../src/cut/warmUp.ts';
+import { detachOnce } from '../src/parallel/detachOnce.ts';
 import { warmUpSurfaceKernels } from '../src/surface/warmUp.ts';
 import { warmUpLocateKernels } from '../src/locate/warmUp.ts';
 import { getCellTree, hasCellTree } from '../src/locate/cellTree.ts';
@@ -152,6 +153,8 @@ let warmUpTimer: ReturnType<typeof setTimeout> | undefined;
  * mesh; `crossingCells.ts` uses it for cuts once built, `lineProbe.ts` always). With share workers, they hold their own.
  */
 async function warmUp(h: Held | undefined, superseded: () => boolean): Promise<void> {
+  // replies transfer arrays; the first detach in a thread would drop the kernels compiled here (detachOnce.ts)
+  detachOnce();
   await Promise.all([warmUpCutKernels(), warmUpSurfaceKernels(), warmUpLocateKernels()]);
   // a file chosen meanwhile is read first: this dataset's tree would only delay it
   await yieldToMessages();
