@@ -98,7 +98,8 @@ export function buildCellTree(dataset: Dataset): CellTree {
 
   const order = new Int32Array(n);
   const nodeCap = n === 0 ? 0 : n <= LEAF ? 1 : 2 * Math.ceil((2 * n) / LEAF) - 1;
-  const nodeBounds = new Float32Array(Math.max(6 * nodeCap, 3 * n));
+  // Kept by the tree, but it is also the sort's scratch, written whole in the first passes: outside malloc too.
+  const nodeBounds = scratchFloat32(Math.max(6 * nodeCap, 3 * n));
   const buf = nodeBounds.buffer;
   const codes = new Uint32Array(buf, 0, n), keyB = new Uint32Array(buf, 4 * n, n), valB = new Int32Array(buf, 8 * n, n);
   // Each phase is its own function: V8 optimises a hot loop by on-stack replacement, and a phase sharing
