@@ -2,8 +2,9 @@
  * Derived-field and wall-quantity benchmark, meshes built in memory:
  *  - vorticity and Q-criterion on 1M hexahedra (100³ lattice, 1,030,301 nodes) with a smooth point velocity:
  *    the quadratic least-squares gradient at every node, then ω and Q. Goal 0.5 s. Three figures: `cold`
- *    (first field on a new mesh: neighbour rows built), `secondFreshMesh` (the same on another new mesh), and
- *    `newStepSameMesh` (a new velocity array on the same geometry arrays — a series step: the rows are reused),
+ *    (first field on a new mesh: the kernel's copy of it and its node → cells rows made), `secondFreshMesh` (the
+ *    same on another new mesh), and `newStepSameMesh` (a new velocity array on the same geometry arrays — a series
+ *    step: only the velocities are copied into the kernel),
  *    and that step again with the fit in JavaScript (`newStepSameMeshJavaScriptFit`; `kernel` says whether the
  *    WebAssembly SIMD kernel of src/derive/momentKernel.ts ran the others).
  *  - wall quantities on a ~100k-face wall (a 224 × 224 × 1 slab of hexahedra, the bottom face's 50,176 faces
@@ -15,9 +16,11 @@
  *  - the same wall quantities with the wall nodes' gradient fitted by the worker pool (1 and 2 workers, a run of
  *    wall nodes each; src/parallel/deriveShares.ts `primeWallGradients`, as `fieldtally wall --workers N`): `cold`
  *    on a fresh pool and mesh, boundary faces and groups not timed.
- *  - the same vorticity and Q with the gradient computed by the worker pool (1 and 2 workers, each filling a
- *    range of nodes of a shared result; src/parallel/deriveShares.ts): `cold` on a fresh pool and mesh. Pool
- *    start-up and the copy into shared memory are not timed; CPU time there is the whole process's (workers included).
+ *  - the same vorticity and Q on the worker pool (1 and 2 workers, each fitting a range of nodes over its own
+ *    copy of the mesh in the moment kernel and writing that range's ω and Q into shared results;
+ *    src/parallel/deriveShares.ts): `cold` on a fresh pool and mesh — the kernel's copy of the mesh and its
+ *    node → cells rows are made in the timed part, as a first request makes them. Pool start-up and the copy
+ *    into shared memory are not timed; CPU time there is the whole process's (workers included).
  * Every figure is wall time and CPU time (process.cpuUsage: the whole process, every thread); the machine is shared, so CPU time
  * is the steadier figure; `loadAverage` (1, 5, 15 min, from the OS) records how busy the machine was. Mesh and field building are not timed.
  */

@@ -171,15 +171,54 @@ function velocityField(p: Piece, info: FieldInfo, name: DerivedName): FieldArray
   const u = findField(p, info.name, info.association)!;
   const assoc = info.association;
   if (name === 'velocity-magnitude') return made(name, assoc, 1, magnitudeOf(u.values, 3));
+  const primed = primedQuantities.get(u.values)?.get(name);
+  if (primed) return made(name, assoc, DERIVED_FIELDS[name].components, primed);
   const G = fieldGradient(p, u);
+  return made(name, assoc, DERIVED_FIELDS[name].components, name === 'velocity-gradient' ? G : gradientQuantity(name, G, u.values));
+}
+
+/** The derived fields made from the velocity gradient alone, node by node (no gradient kept): `gradientQuantity`. */
+export const NODE_QUANTITIES: readonly DerivedName[] = ['vorticity', 'vorticity-magnitude', 'q-criterion', 'lambda2', 'helicity'];
+
+/**
+ * Quantity `name` (one of NODE_QUANTITIES) at each site from the velocity gradients `G` (9 per site) and the
+ * velocities `u` (3 per site, for helicity), `DERIVED_FIELDS[name].components` values per site, written into
+ * `out` from index `at` when given (else a new array). Site by site, so a slice of sites gives the slice of the
+ * whole result, bit for bit.
+ */
+export function gradientQuantity(name: DerivedName, G: Float64Array, u: ArrayLike<number>, out?: Float64Array, at = 0): Float64Array {
+  // vorticity and Q straight into `out`; the others through an array of their own
+  if (name === 'vorticity') return vorticityOf(G, out, at);
+  if (name === 'q-criterion') return qCriterionOf(G, out, at);
+  let v: Float64Array;
   switch (name) {
-    case 'velocity-gradient': return made(name, assoc, 9, G);
-    case 'vorticity': return made(name, assoc, 3, vorticityOf(G));
-    case 'vorticity-magnitude': return made(name, assoc, 1, magnitudeOf(vorticityOf(G), 3));
-    case 'q-criterion': return made(name, assoc, 1, qCriterionOf(G));
-    case 'lambda2': return made(name, assoc, 1, lambda2Of(G));
-    default: return made(name, assoc, 1, helicityOf(u.values, vorticityOf(G)));
+    case 'vorticity-magnitude': v = magnitudeOf(vorticityOf(G), 3); break;
+    case 'lambda2': v = lambda2Of(G); break;
+    case 'helicity': v = helicityOf(u, vorticityOf(G)); break;
+    default: throw new Error(`derived field "${name}" is not made from the velocity gradient node by node`);
   }
+  if (!out) return v;
+  out.set(v, at);
+  return out;
+}
+
+/** Quantities computed elsewhere (the worker pool), by velocity values array: `primeQuantity`. */
+const primedQuantities = new WeakMap<object, Map<DerivedName, Float64Array>>();
+
+/**
+ * Hands `withDerivedFields` quantity `name` (one of NODE_QUANTITIES) of the velocity whose values array is
+ * `values`, computed elsewhere (src/parallel/deriveShares.ts) as `gradientQuantity` computes it; it is then
+ * attached as it is, without the gradient.
+ */
+export function primeQuantity(values: object, name: DerivedName, v: Float64Array): void {
+  let m = primedQuantities.get(values);
+  if (!m) { m = new Map(); primedQuantities.set(values, m); }
+  m.set(name, v);
+}
+
+/** True when quantity `name` of the velocity values array `values` has been primed. */
+export function hasPrimedQuantity(values: object, name: DerivedName): boolean {
+  return primedQuantities.get(values)?.has(name) ?? false;
 }
 
 /** cp = (p − p_ref)/(½ρU²) on one piece (kinematic pressure: p_ref/ρ subtracted, divided by ½U²). */

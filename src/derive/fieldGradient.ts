@@ -5,6 +5,9 @@
  * Pieces of a set are reconstructed one by one (a node on a piece's interface gets a one-sided fit, still
  * second order).
  *
+ * A point field of 1 or 3 components is fitted by the moment kernel over its own copy of the mesh (kernelMesh.ts,
+ * kept for the last mesh: a later step on the same geometry copies only its values); other fields over rows.
+ *
  * Caches: the sites (positions and stencil) depend on the geometry only and are kept per mesh — keyed by the piece's points, offsets and connectivity arrays, so the steps of a
  * series that share those arrays (src/series/meshReuse.ts) share them; a gradient is kept per values array
  * (WeakMap), so vorticity, Q and λ₂ share one reconstruction.
@@ -14,6 +17,8 @@ import type { Piece } from '../model/piece.ts';
 import { gradientInto, quadraticGradient } from './quadraticGradient.ts';
 import { cellCentres, cellStencil, pointStencil, type Stencil } from './stencils.ts';
 import { pointStencilAround } from './localStencil.ts';
+import { momentKernel } from './momentKernel.ts';
+import { meshInto } from './pairedFit.ts';
 
 /** Positions (xyz per site, length unit) and one-ring stencil of a piece's nodes or cells. */
 export interface Sites { positions: Float64Array; stencil: Stencil }
@@ -56,11 +61,26 @@ export function fieldGradient(p: Piece, f: FieldArray): Float64Array {
   if (f.association === 'dataset') throw new Error(`gradient: field "${f.name}" is dataset-level data, not tied to points or cells`);
   let g = gradients.get(f.values);
   if (!g) {
-    const s = sitesOf(p, f.association);
-    g = quadraticGradient(s.positions, f.values, f.components, s.stencil);
+    g = (f.association === 'point' ? heldGradient(p, f) : null) ?? undefined;
+    if (!g) {
+      const s = sitesOf(p, f.association);
+      g = quadraticGradient(s.positions, f.values, f.components, s.stencil);
+    }
     gradients.set(f.values, g);
   }
   return g;
+}
+
+/**
+ * A point field's gradient at every node on the moment kernel walking its own copy of the mesh (kernelMesh.ts:
+ * no rows built here; the same values as over `sitesOf`'s rows), or null where the kernel cannot (no WebAssembly
+ * SIMD, components other than 1 or 3, a mesh too large to hold).
+ */
+function heldGradient(p: Piece, f: FieldArray): Float64Array | null {
+  const nc = f.components, K = nc === 1 || nc === 3 ? momentKernel() : null;
+  if (!K) return null;
+  const np = p.points.length / 3, g = new Float64Array(3 * nc * np);
+  return meshInto(K, g, 0, p, f.values, nc, 0, np, undefined) ? g : null;
 }
 
 /**

@@ -12,14 +12,14 @@
  *  - helicity density h = u · ω (m/s²).
  */
 
-/** Vorticity vectors (3 per point) from gradients (9 per point). */
-export function vorticityOf(G: Float64Array): Float64Array {
-  const n = G.length / 9, out = new Float64Array(3 * n);
-  for (let i = 0; i < n; i++) {
+/** Vorticity vectors (3 per point) from gradients (9 per point); into `out` from index `at` when given. */
+export function vorticityOf(G: Float64Array, out: Float64Array = new Float64Array(G.length / 3), at = 0): Float64Array {
+  const n = G.length / 9;
+  for (let i = 0, o = at; i < n; i++, o += 3) {
     const g = 9 * i;
-    out[3 * i] = G[g + 7]! - G[g + 5]!;
-    out[3 * i + 1] = G[g + 2]! - G[g + 6]!;
-    out[3 * i + 2] = G[g + 3]! - G[g + 1]!;
+    out[o] = G[g + 7]! - G[g + 5]!;
+    out[o + 1] = G[g + 2]! - G[g + 6]!;
+    out[o + 2] = G[g + 3]! - G[g + 1]!;
   }
   return out;
 }
@@ -35,14 +35,14 @@ export function magnitudeOf(v: ArrayLike<number>, nc: number): Float64Array {
   return out;
 }
 
-/** Q-criterion per point (see the file comment). */
-export function qCriterionOf(G: Float64Array): Float64Array {
-  const n = G.length / 9, out = new Float64Array(n);
+/** Q-criterion per point (see the file comment); into `out` from index `at` when given. */
+export function qCriterionOf(G: Float64Array, out: Float64Array = new Float64Array(G.length / 9), at = 0): Float64Array {
+  const n = G.length / 9;
   for (let i = 0; i < n; i++) {
     const g = 9 * i;
     const g0 = G[g]!, g1 = G[g + 1]!, g2 = G[g + 2]!, g3 = G[g + 3]!, g4 = G[g + 4]!, g5 = G[g + 5]!;
     const g6 = G[g + 6]!, g7 = G[g + 7]!, g8 = G[g + 8]!;
-    out[i] = -0.5 * (g0 * g0 + g4 * g4 + g8 * g8) - (g1 * g3 + g2 * g6 + g5 * g7);
+    out[at + i] = -0.5 * (g0 * g0 + g4 * g4 + g8 * g8) - (g1 * g3 + g2 * g6 + g5 * g7);
   }
   return out;
 }

@@ -5,10 +5,16 @@
  * and its scale; the kernel sums, factorises and solves; this file reads each lane's gradient back. Site
  * choice (one-ring, two-ring when one-sided or ill-conditioned), every product and every sum are the scalar
  * code's, so each site's gradient is the same to the bit (tests/derive/momentKernel.test.ts).
+ *
+ * For a range of nodes of a piece (`meshInto`) the kernel walks and gathers the rings itself from the mesh it
+ * holds (kernelMesh.ts): the rows are not built in JavaScript and nothing is copied per neighbour here; this
+ * file keeps the pairing, the one-sided test and the reading of results — same rings, same bits.
  */
 import type { NumericArray } from '../model/fieldArray.ts';
 import { ONE_SIDED, PIVOT_TOLERANCE, SKEWED, WIDEN_TOLERANCE } from './fitTolerances.ts';
-import { KERNEL_LAYOUT, kernelSlots, type MomentKernel } from './momentKernel.ts';
+import type { Piece } from '../model/piece.ts';
+import { KERNEL_CONFIG, KERNEL_LAYOUT, KERNEL_RING, KERNEL_STATS, kernelSlots, useSlotsAt, type MomentKernel } from './momentKernel.ts';
+import { holdMesh, slotsBase, type HeldMesh } from './kernelMesh.ts';
 import { ringIds, twoRing } from './neighbourRing.ts';
 import type { Stencil } from './stencils.ts';
 
@@ -20,6 +26,8 @@ const job = {
   K: null as unknown as MomentKernel, out: new Float64Array(0) as Float64Array, outStart: 0, positions: new Float64Array(0) as Float64Array,
   values: new Float64Array(0) as NumericArray, nc: 1, so: new Int32Array(0) as Int32Array, sid: new Int32Array(0) as Int32Array,
   targets: undefined as Int32Array | undefined, from: 0, ringSizes: undefined as Int32Array | undefined,
+  /** The mesh the kernel holds (rings walked there), or null (rings from `so`/`sid`); slot 0's byte address. */
+  mesh: null as HeldMesh | null, slotsAt: 0,
 };
 
 /**
@@ -28,28 +36,74 @@ const job = {
  */
 export function pairedInto(K: MomentKernel, out: Float64Array, outStart: number, positions: Float64Array, values: NumericArray,
   nc: number, stencil: Stencil, targets: Int32Array | undefined, from: number, to: number, ringSizes: Int32Array | undefined): void {
-  Object.assign(job, { K, out, outStart, positions, values, nc, so: stencil.offsets, sid: stencil.ids, targets, from, ringSizes });
-  const run = nc === 3 ? K.fit3 : K.fit1, t = KERNEL_LAYOUT.toleranceAt / 8;
-  K.f64[t] = PIVOT_TOLERANCE; K.f64[t + 1] = PIVOT_TOLERANCE;
+  Object.assign(job, { K, out, outStart, positions, values, nc, so: stencil.offsets, sid: stencil.ids, targets, from, ringSizes, mesh: null });
+  pairs(to);
+}
+
+/**
+ * `pairedInto` for the nodes `from .. to-1` of piece `p` (every node: no node list), with the rings found and
+ * gathered by the kernel in the mesh it holds (kernelMesh.ts). Returns false, having written nothing, when the
+ * mesh is too large to hold (the caller fits from rows instead).
+ */
+export function meshInto(K: MomentKernel, out: Float64Array, outStart: number, p: Piece, values: NumericArray, nc: number,
+  from: number, to: number, ringSizes: Int32Array | undefined): boolean {
+  const mesh = holdMesh(K, p, values, nc);
+  if (!mesh) return false;
+  Object.assign(job, { K, out, outStart, positions: p.points, values, nc, targets: undefined, from, ringSizes, mesh });
+  pairs(to);
+  return true;
+}
+
+/** The pairing loop over `job`'s sites from `job.from` up to `to`: rings from rows, or walked in the held mesh. */
+function pairs(to: number): void {
+  const held = job.mesh !== null;
   try {
-    let k = from;
+    const run = begin();
+    let k = job.from;
     while (k < to) {
       let lanes = 0;
-      while (lanes < 2 && k < to) { if (prepare(lanes, k)) lanes++; k++; }
+      while (lanes < 2 && k < to) { if (held ? prepareHeld(lanes, k) : prepare(lanes, k)) lanes++; k++; }
       if (lanes === 0) break;
-      let n = laneN[0]!;
-      if (lanes === 1) clearLane(1, 0, n);
-      else if (laneN[1]! < n) clearLane(1, laneN[1]!, n);
-      else if (laneN[1]! > n) { clearLane(0, n, laneN[1]!); n = laneN[1]!; }
-      run(n);
-      const redo0 = !finish(0), redo1 = lanes === 2 && !finish(1);
-      if (redo0) widen(laneK[0]!, run);
-      if (redo1) widen(laneK[1]!, run);
+      const redo = fitLanes(lanes, run);
+      if (redo & 1) (held ? widenHeld : widen)(laneK[0]!, run);
+      if (redo & 2) (held ? widenHeld : widen)(laneK[1]!, run);
     }
   } finally {
-    // let go of the caller's arrays, so the module does not keep the last mesh alive
-    Object.assign(job, { out: NO_VALUES, positions: NO_VALUES, values: NO_VALUES, so: NO_IDS, sid: NO_IDS, targets: undefined, ringSizes: undefined });
+    end();
   }
+}
+
+/**
+ * Readies the kernel for `job` (slots after any held mesh, the pivot tolerance); returns its fit for `job.nc`,
+ * looked up at each call (making room may put the kernel on a new instance: momentKernel.ts `kernelBytes`).
+ */
+function begin(): (n: number) => void {
+  const { K, nc } = job;
+  job.slotsAt = slotsBase();
+  useSlotsAt(K, job.slotsAt);
+  const t = KERNEL_LAYOUT.toleranceAt / 8;
+  K.f64[t] = PIVOT_TOLERANCE; K.f64[t + 1] = PIVOT_TOLERANCE;
+  return nc === 3 ? fit3 : fit1;
+}
+
+const fit3 = (n: number): void => job.K.fit3(n), fit1 = (n: number): void => job.K.fit1(n);
+
+/** Lets go of the caller's arrays, so the module does not keep the last mesh alive. */
+function end(): void {
+  Object.assign(job, { out: NO_VALUES, positions: NO_VALUES, values: NO_VALUES, so: NO_IDS, sid: NO_IDS, targets: undefined, ringSizes: undefined, mesh: null });
+}
+
+/**
+ * Pads the shorter lane, fits the `lanes` lanes prepared and writes their results; returns the lanes whose
+ * one-ring turned out ill-conditioned (bit 0: lane 0, bit 1: lane 1), to be widened.
+ */
+function fitLanes(lanes: number, run: (n: number) => void): number {
+  let n = laneN[0]!;
+  if (lanes === 1) clearLane(1, 0, n);
+  else if (laneN[1]! < n) clearLane(1, laneN[1]!, n);
+  else if (laneN[1]! > n) { clearLane(0, n, laneN[1]!); n = laneN[1]!; }
+  run(n);
+  return (finish(0) ? 0 : 1) | (lanes === 2 && !finish(1) ? 2 : 0);
 }
 
 const NO_VALUES = new Float64Array(0), NO_IDS = new Int32Array(0);
@@ -76,11 +130,52 @@ function prepare(lane: number, k: number): boolean {
   return true;
 }
 
+/** `prepare` over the held mesh: node k's one-ring walked and gathered by the kernel, its two-ring likewise. */
+function prepareHeld(lane: number, k: number): boolean {
+  let n = ringHeld(lane, k, 1, 0);
+  laneOne[lane] = 1;
+  if (n < 0) {
+    n = ringHeld(lane, k, 2, 0);
+    laneOne[lane] = 0;
+    if (n < 0) { noResult(k); return false; }
+  }
+  laneK[lane] = k; laneN[lane] = n;
+  return true;
+}
+
+/**
+ * Node i's one-ring (`ring` 1, with the one-sided test) or two-ring (2; from the one-ring just walked, or walked
+ * again when `fresh` is 1) gathered by the kernel into lane `lane`: the slot count, or < 0 as `gather` returns.
+ */
+function ringHeld(lane: number, i: number, ring: 1 | 2, fresh: number): number {
+  const { K, nc } = job;
+  for (;;) {
+    const n = ring === 1 ? (nc === 3 ? K.one3(lane, i) : K.one1(lane, i)) : (nc === 3 ? K.two3(lane, i, fresh) : K.two1(lane, i, fresh));
+    if (n === KERNEL_RING.room) { kernelSlots(K, K.i32[(KERNEL_LAYOUT.configAt + KERNEL_CONFIG.need) / 4]!, nc, job.slotsAt); fresh = 1; continue; }
+    if (n !== KERNEL_RING.ask) return n;
+    // near the bound: the one-sided test as `gather` makes it, on the sums the kernel left
+    const F = K.f64, s = KERNEL_LAYOUT.statsAt / 8, S = KERNEL_STATS;
+    return Math.hypot(F[s + S.mx / 8]!, F[s + S.my / 8]!, F[s + S.mz / 8]!) / F[s + S.used / 8]! * F[s + S.ih / 8]! > ONE_SIDED
+      ? SKEWED : laneSlots(K);
+  }
+}
+
+/** The slot count of the last gather (the kernel left it at CONFIG.n1 for a one-ring). */
+const laneSlots = (K: MomentKernel): number => K.i32[(KERNEL_LAYOUT.configAt + KERNEL_CONFIG.n1) / 4]!;
+
 /** Refits target `k` over its two-ring (its one-ring was ill-conditioned), alone in lane 0. */
 function widen(k: number, run: (n: number) => void): void {
-  const i = siteOf(k), { so, sid } = job;
-  const m = twoRing(so, sid, i, k);
-  const n = gather(i, ringIds(), 0, m, 0, false);
+  const i = siteOf(k), m = twoRing(job.so, job.sid, i, k);
+  refit(k, gather(i, ringIds(), 0, m, 0, false), run);
+}
+
+/** `widen` over the held mesh (node k's two-ring walked and gathered by the kernel). */
+function widenHeld(k: number, run: (n: number) => void): void {
+  refit(k, ringHeld(0, k, 2, 1), run);
+}
+
+/** Fits target `k` alone in lane 0 over the `n` slots gathered there (none: NaN). */
+function refit(k: number, n: number, run: (n: number) => void): void {
   if (n < 0) { noResult(k); return; }
   laneK[0] = k; laneN[0] = n; laneOne[0] = 0;
   clearLane(1, 0, n);
@@ -101,7 +196,7 @@ function noResult(k: number): void {
  */
 function gather(i: number, list: Int32Array, lo: number, hi: number, lane: number, skipOneSided: boolean): number {
   const { K, positions, values, nc } = job, n = hi - lo;
-  const step = 2 * (3 + nc), first = kernelSlots(K, n, nc) + lane, F = K.f64;
+  const step = 2 * (3 + nc), first = kernelSlots(K, n, nc, job.slotsAt) + lane, F = K.f64;
   const x0 = positions[3 * i]!, y0 = positions[3 * i + 1]!, z0 = positions[3 * i + 2]!;
   let h2 = 0, used = 0, mx = 0, my = 0, mz = 0;
   // offsets and value differences in one pass over the ring (a one-sided one-ring's values are written and
@@ -149,7 +244,7 @@ function fittedApart(i: number, lo: number, hi: number): boolean {
 
 /** Empties lane `lane`'s slots `a .. b-1` (padding: a zero offset adds nothing to any sum). */
 function clearLane(lane: number, a: number, b: number): void {
-  const { K, nc } = job, step = 2 * (3 + nc), F = K.f64, first = KERNEL_LAYOUT.slotsAt / 8 + lane;
+  const { K, nc } = job, step = 2 * (3 + nc), F = K.f64, first = job.slotsAt / 8 + lane;
   for (let t = a, o = first + a * step; t < b; t++, o += step) for (let e = 0; e < step; e += 2) F[o + e] = 0;
 }
 

@@ -12,6 +12,8 @@ import type { NumericArray } from '../model/fieldArray.ts';
 import type { Piece } from '../model/piece.ts';
 import { pointStencilOfRange } from './localStencil.ts';
 import { gradientInto } from './quadraticGradient.ts';
+import { momentKernel } from './momentKernel.ts';
+import { meshInto } from './pairedFit.ts';
 
 /**
  * Writes the gradient of a point field (`values`, `nc` components per node of `p`) at nodes `from .. to-1`
@@ -22,9 +24,20 @@ export function pointGradientRange(p: Piece, values: NumericArray, nc: number, f
   const np = p.points.length / 3;
   if (!(from >= 0 && to <= np && from <= to)) throw new Error(`gradient: node range ${from}..${to} is outside the piece's ${np} nodes`);
   if (out.length !== 3 * nc * np) throw new Error(`gradient: result holds ${out.length} values, expected ${3 * nc * np} (${np} nodes × ${3 * nc})`);
+  pointGradientRangeInto(p, values, nc, from, to, out, 3 * nc * from);
+}
+
+/**
+ * `pointGradientRange` written to `out` from index `at` on (node `from` first), so a caller may keep only its
+ * range (`at` = 0, `out` holding `3·nc·(to − from)` values). The range is not checked.
+ */
+export function pointGradientRangeInto(p: Piece, values: NumericArray, nc: number, from: number, to: number, out: Float64Array, at: number): void {
   if (from === to) return;
+  // the kernel walks the rings in its copy of the mesh (kernelMesh.ts): no rows built here
+  const K = (nc === 1 || nc === 3) ? momentKernel() : null;
+  if (K && meshInto(K, out, at, p, values, nc, from, to, undefined)) return;
   const stencil = pointStencilOfRange(p, from, to);
-  gradientInto(out, 3 * nc * from, p.points, values, nc, stencil, undefined, from, to);
+  gradientInto(out, at, p.points, values, nc, stencil, undefined, from, to);
 }
 
 /** Splits `n` nodes into `parts` contiguous ranges of near-equal size (`parts + 1` bounds, first 0, last n). */

@@ -5,16 +5,23 @@
  * derived fields are then attached here by the single-thread code without computing it again. Every node's
  * value is the single-thread kernel's, bit for bit, for any number of workers.
  *
+ * When only quantities made node by node from the gradient are asked for (vorticity, Q-criterion, λ₂, …; not the
+ * gradient itself), each worker computes them for its own range from its range's gradient and writes them into
+ * shared arrays (`pool.pointDerived`): the gradient never crosses to this thread and nothing is left to compute
+ * here but attaching them (`primeQuantity`).
+ *
  * Point velocities only: a cell velocity's gradient (cell-centre fit) is left to the single-thread path.
  */
-import type { DeriveOptions } from '../derive/derivedFields.ts';
-import { gradientFieldFor } from '../derive/derivedFields.ts';
+import type { DeriveOptions, DerivedName } from '../derive/derivedFields.ts';
+import { derivedNamesIn, DERIVED_FIELDS, gradientFieldFor, gradientQuantity, hasPrimedQuantity, NODE_QUANTITIES, primeQuantity } from '../derive/derivedFields.ts';
 import { pointGradientAt, primeGradient, primeGradientAt } from '../derive/fieldGradient.ts';
-import { pointGradientRange } from '../derive/rangeGradient.ts';
+import { pointGradientRange, pointGradientRangeInto } from '../derive/rangeGradient.ts';
+import { momentKernel } from '../derive/momentKernel.ts';
+import { holdable } from '../derive/kernelMesh.ts';
 import type { Dataset } from '../model/dataset.ts';
 import { findField } from '../model/piece.ts';
 import type { ComputePool } from './pool.ts';
-import type { FieldArray } from '../model/fieldArray.ts';
+import type { FieldArray, NumericArray } from '../model/fieldArray.ts';
 import type { BoundaryFaces } from '../surface/boundaryFaces.ts';
 import { findArray, SHEAR_NAME, VELOCITY_NAME } from '../surface/surfaceLoads.ts';
 import { wallNodes } from '../surface/wallTraction.ts';
@@ -25,18 +32,31 @@ import { WALL_DEFAULTS, type WallOptions } from '../surface/wallQuantities.ts';
  * piece (`out` in the whole piece's layout) or, with `nodes`, the entries `from .. to-1` of a chosen node list
  * (`nodes` holding just those entries' nodes; `out` in the list's layout).
  */
-export interface GradientShare { piece: number; field: string; from: number; to: number; out: Float64Array; nodes?: Int32Array }
+export interface GradientShare {
+  piece: number; field: string; from: number; to: number; out: Float64Array; nodes?: Int32Array;
+  /**
+   * Instead of the gradient (`out` then unused): quantities of it (NODE_QUANTITIES of derivedFields.ts, the
+   * field a velocity) for nodes `from .. to-1`, each into its `out` in the whole piece's layout.
+   */
+  quantities?: { name: DerivedName; out: Float64Array }[];
+}
 
 /**
  * Runs one share on the dataset a worker holds (the worker side of `pool.pointGradient`). Returns null when
  * `out` is shared memory (the values are already in place), else the range's values (a platform without
  * shared memory posted a copy of `out`).
  */
-export function gradientShare(d: Dataset, s: GradientShare): Float64Array | null {
+export function gradientShare(d: Dataset, s: GradientShare): Float64Array | Float64Array[] | null {
   const p = d.pieces[s.piece];
   const f = p && findField(p, s.field, 'point');
   if (!p || !f) throw new Error(`worker pool: no point field "${s.field}" on piece ${s.piece} of ${d.source}`);
   const w = 3 * f.components;
+  if (s.quantities) {
+    // on the kernel's own copy of the mesh, in blocks: a block's gradient stays in the cache, and no gradient
+    // array of the whole range is made (its first touch alone cost more than the quantities)
+    const block = momentKernel() && holdable(p) ? QUANTITY_BLOCK : s.to - s.from;
+    return quantityShare(p.points.length / 3, f.values, f.components, s, block, (a, b, g) => pointGradientRangeInto(p, f.values, f.components, a, b, g, 0));
+  }
   if (s.nodes) {
     if (s.nodes.length !== s.to - s.from || s.out.length < w * s.to) throw new Error(`worker pool: gradient share ${s.from}..${s.to} does not match its ${s.nodes.length} nodes`);
     s.out.set(pointGradientAt(p, f, s.nodes), w * s.from);
@@ -44,18 +64,50 @@ export function gradientShare(d: Dataset, s: GradientShare): Float64Array | null
   return s.out.buffer instanceof ArrayBuffer ? s.out.slice(w * s.from, w * s.to) : null;
 }
 
+/** Nodes per block of a quantity share: their gradient (9 doubles each, 1.2 MB) stays in the cache. */
+const QUANTITY_BLOCK = 16384;
+
 /**
- * Computes on `pool` the velocity gradient that `withDerivedFields(pool.dataset, names, options)` needs and
- * primes the gradient cache with it; does nothing when no requested field needs a gradient or the velocity
- * is cell data. Returns the number of pieces whose gradient the workers computed.
+ * The quantities of a share (`s.quantities`), `block` nodes at a time: the block's gradient (`fit(a, b, g)`
+ * fills `g` for nodes a .. b-1), then each quantity of it, written into its `out`. Null when every `out` is
+ * shared memory, else the range's values per quantity.
+ */
+function quantityShare(np: number, values: NumericArray, nc: number, s: GradientShare, block: number,
+  fit: (a: number, b: number, g: Float64Array) => void): Float64Array[] | null {
+  if (nc !== 3) throw new Error(`worker pool: derived quantities need a velocity of 3 components, "${s.field}" has ${nc}`);
+  const qs = s.quantities!, comps = qs.map((q) => DERIVED_FIELDS[q.name].components);
+  qs.forEach((q, k) => { if (q.out.length !== comps[k]! * np) throw new Error(`worker pool: "${q.name}" result holds ${q.out.length} values, expected ${comps[k]! * np}`); });
+  const g = new Float64Array(9 * Math.min(block, s.to - s.from));
+  for (let a = s.from; a < s.to; a += block) {
+    const b = Math.min(s.to, a + block), gb = g.subarray(0, 9 * (b - a)), u = values.subarray(3 * a, 3 * b);
+    fit(a, b, gb);
+    qs.forEach((q, k) => gradientQuantity(q.name, gb, u, q.out, comps[k]! * a));
+  }
+  if (qs.every((q) => !(q.out.buffer instanceof ArrayBuffer))) return null;
+  return qs.map((q, k) => q.out.slice(comps[k]! * s.from, comps[k]! * s.to));
+}
+
+/**
+ * Computes on `pool` what `withDerivedFields(pool.dataset, names, options)` needs of the velocity gradient and
+ * primes it: when every requested gradient field is made node by node from it (NODE_QUANTITIES), those
+ * quantities, computed by the workers (`primeQuantity`); else the gradient itself (the gradient cache). Does
+ * nothing when no requested field needs a gradient, the velocity is cell data, or it is primed already.
+ * Returns the number of pieces the workers worked on.
  */
 export async function primeDerivedGradients(pool: ComputePool, names: readonly string[], options: Partial<DeriveOptions> = {}): Promise<number> {
   const d = pool.dataset, info = gradientFieldFor(d, names, options);
   if (!info || info.association !== 'point') return 0;
+  const wanted = derivedNamesIn(d, names).filter((n) => n === 'velocity-gradient' || NODE_QUANTITIES.includes(n));
+  const quantities = wanted.every((n) => NODE_QUANTITIES.includes(n)) ? wanted : null;
   let done = 0;
   for (let k = 0; k < d.pieces.length; k++) {
     const f = findField(d.pieces[k]!, info.name, 'point')!;
-    primeGradient(f.values, await pool.pointGradient(k, info.name));
+    if (quantities) {
+      const missing = quantities.filter((n) => !hasPrimedQuantity(f.values, n));
+      if (!missing.length) continue;
+      const v = await pool.pointDerived(k, info.name, missing.map((name) => ({ name, components: DERIVED_FIELDS[name].components })));
+      missing.forEach((n, i) => primeQuantity(f.values, n, v[i]!));
+    } else primeGradient(f.values, await pool.pointGradient(k, info.name));
     done++;
   }
   return done;

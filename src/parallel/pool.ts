@@ -28,13 +28,16 @@ import { warmUpSurfaceKernels } from '../surface/warmUp.ts';
 import type { EvaluateOptions, SetEvaluation } from '../study/evaluate.ts';
 import type { ProbeSet } from '../study/probeSet.ts';
 import { mergeBoundary, mergeLines } from './mergeParts.ts';
-import { cutInPlace } from './placeCuts.ts';
+import { cutInPlace, summedBlocks } from './placeCuts.ts';
 import { dealProbes, joinEvaluations, subSet } from './probeSetShares.ts';
 import { nodeRanges } from '../derive/rangeGradient.ts';
+import type { DerivedName } from '../derive/derivedFields.ts';
 import type { ShareMessage, ShareReply, ShareRequest, WorkerMemory } from './shareHost.ts';
 import type { BoundaryPart, LinePart } from './shareTasks.ts';
 import { toSharedDataset } from './sharedDataset.ts';
 import { splitCells, type CellShare } from './shares.ts';
+
+const EMPTY = new Float64Array(0);
 
 /** The pool's end of one worker. */
 export interface PoolPort {
@@ -90,6 +93,13 @@ class Lane {
 /** A pool of compute workers holding one dataset. Create with `ComputePool.open`. */
 export class ComputePool {
   private boundaryFaces: Promise<BoundaryFaces> | undefined;
+  /**
+   * Whether `integratePlane` has the workers sum the integral's blocks that lie in their own triangles as they
+   * place them (same bits as summing them all here; see `cutInPlace`). Default false: on the 1M-tetrahedron
+   * sample it cost about 120 ms more CPU on a first cut than summing here (most of it on the engine's helper
+   * threads, in a pool of 2, machine loaded), though the same work in a lone worker costs what it costs here.
+   */
+  sumInWorkers = false;
   private constructor(readonly dataset: Dataset, readonly shares: readonly CellShare[], private readonly lanes: Lane[]) {}
 
   /**
@@ -123,9 +133,12 @@ export class ComputePool {
 
   /** Cuts, selects the region and integrates: `integratePlane` (planeIntegrals.ts) with the cut done by the workers. */
   async integratePlane(q: PlaneQuery): Promise<PlaneResult> {
-    const cut = await this.cutPlane(q.origin, q.normal, q.cut);
+    if (!q.origin.every(Number.isFinite)) throw new Error(`cutPlane: origin must be three finite numbers, got (${q.origin.join(', ')})`);
+    // Over the whole cut, the workers may sum most blocks of the integral as they place their triangles.
+    const whole = this.sumInWorkers && (q.region ?? []).length === 0;
+    const cut = await cutInPlace((req) => this.all(req), q.origin, q.normal, q.cut ?? {}, whole ? q.integral ?? {} : undefined);
     const region = selectRegion(cut, q.region ?? []);
-    const integrals = integrateSurface(region.set, q.integral, region.arcs ?? undefined);
+    const integrals = integrateSurface(region.set, q.integral, region.arcs ?? undefined, region.set === cut ? summedBlocks(cut) : undefined);
     if (integrals.empty) {
       integrals.reason = cut.empty ? 'the plane misses every 3D cell of the mesh' : region.reason ?? integrals.reason;
     }
@@ -190,6 +203,25 @@ export class ComputePool {
     // without shared memory each worker sends its range back
     parts.forEach((part, i) => { if (part) out.set(part, w * bounds[i]!); });
     return out;
+  }
+
+  /**
+   * Quantities of the velocity gradient of point field `field` of piece `piece` (`names`: NODE_QUANTITIES of
+   * src/derive/derivedFields.ts, with their components), each as `withDerivedFields` makes it, bit for bit: the
+   * nodes split as for `pointGradient`, each worker writing its range of every quantity into shared arrays; the
+   * gradient itself stays in the workers.
+   */
+  async pointDerived(piece: number, field: string, names: readonly { name: DerivedName; components: number }[]): Promise<Float64Array[]> {
+    const p = this.dataset.pieces[piece], f = p && findField(p, field, 'point');
+    if (!p || !f) throw new Error(`gradient: no point field "${field}" on piece ${piece} of ${this.dataset.source}`);
+    const np = p.points.length / 3, shared = typeof SharedArrayBuffer !== 'undefined';
+    const outs = names.map((q) => (shared ? new Float64Array(new SharedArrayBuffer(8 * q.components * np)) : new Float64Array(q.components * np)));
+    const bounds = nodeRanges(np, this.lanes.length);
+    const parts = await Promise.all(this.lanes.slice(0, bounds.length - 1).map((l, i) => l.call<Float64Array[] | null>({
+      op: 'gradient', piece, field, from: bounds[i]!, to: bounds[i + 1]!, out: EMPTY, quantities: names.map((q, k) => ({ name: q.name, out: outs[k]! })),
+    })));
+    parts.forEach((part, i) => part?.forEach((v, k) => outs[k]!.set(v, names[k]!.components * bounds[i]!)));
+    return outs;
   }
 
   /**

@@ -14,6 +14,7 @@ import { gradientShare, type GradientShare } from './deriveShares.ts';
 import { shareDataset, type CellShare } from './shares.ts';
 import { prepareCut } from '../cut/cutPlane.ts';
 import { warmUpCutKernels } from '../cut/warmUp.ts';
+import { warmUpShareKernels } from './shareWarmUp.ts';
 import { warmUpFitKernels } from '../derive/warmUpFit.ts';
 import { warmUpLocateKernels } from '../locate/warmUp.ts';
 import type { Vec3 } from '../cut/triangleSet.ts';
@@ -57,15 +58,17 @@ const asShareView = (d: Dataset): Dataset => shareDataset(d, { start: 0, end: to
 
 /**
  * Serves the pool's requests on `port` until the worker ends. `memory` reports this worker's memory when the
- * platform can tell. `warmUp` runs first (default: `warmUpCutKernels`, about 0.1 s, then `warmUpFitKernels` of
- * src/derive/warmUpFit.ts, about 0.15 s, then `warmUpLocateKernels` of src/locate/warmUp.ts on share views, about
- * 0.15 s): a pool's workers start while the file is still being read, so their cut kernels, gradient fit and line
- * scan are optimised by the time the first cut, gradient or line arrives instead of running cold over their share
- * (the cold first cut, and the cold wall fit, made two workers slower than one thread).
+ * platform can tell. `warmUp` runs first (default: `warmUpCutKernels`, about 0.1 s, then `warmUpShareKernels` of
+ * shareWarmUp.ts, about 0.1 s, then `warmUpFitKernels` of src/derive/warmUpFit.ts, about 0.15 s, then
+ * `warmUpLocateKernels` of src/locate/warmUp.ts on share views, about 0.15 s): a pool's workers start while the
+ * file is still being read, so their cut kernels, gradient fit and line scan are optimised by the time the first
+ * cut, gradient or line arrives instead of running cold over their share (the cold first cut, and the cold wall
+ * fit, made two workers slower than one thread).
  * Requests wait for it and are answered one at a time, in order; a failed warm-up only leaves the kernels cold.
  */
 export function serveShares(port: SharePort, memory: () => WorkerMemory | null = () => null,
-  warmUp: () => Promise<void> = () => warmUpCutKernels().then(warmUpFitKernels).then(() => warmUpLocateKernels(asShareView))): void {
+  warmUp: () => Promise<void> = () => warmUpCutKernels().then(() => warmUpShareKernels()).then(warmUpFitKernels)
+    .then(() => warmUpLocateKernels(asShareView))): void {
   let whole: Dataset | undefined, share: Dataset | undefined, range: CellShare | undefined;
   const run = (m: ShareRequest): unknown => {
     if (m.op === 'hold') { whole = m.dataset; range = m.share; share = shareDataset(whole, range); prepareCut(share); return null; }
@@ -75,7 +78,7 @@ export function serveShares(port: SharePort, memory: () => WorkerMemory | null =
     if (m.op === 'gradient') { if (!whole) throw new Error('worker pool: no dataset is held by this worker'); return gradientShare(whole, m); }
     if (!share || !range) throw new Error('worker pool: no dataset is held by this worker');
     if (m.op === 'cut') return cutShare(share, m.key, m.origin, m.normal, m.options);
-    if (m.op === 'place') return placeCutShare(m.key, range, m.runs, m.into);
+    if (m.op === 'place') return placeCutShare(m.key, range, m.runs, m.into, m.sums ?? null);
     if (m.op === 'line') return lineShare(share, range, m.from, m.to, m.options);
     return boundaryShare(share, range, m.withMerge);
   };

@@ -14,6 +14,10 @@ import { pointStencil, type Stencil } from '../../src/derive/stencils.ts';
 import { pointStencilAround } from '../../src/derive/localStencil.ts';
 import { smoothFields } from './smoothFields.ts';
 import { boxMesh, rng, type BoxKind } from '../cut/meshes.ts';
+import { meshInto } from '../../src/derive/pairedFit.ts';
+import { nodeRanges } from '../../src/derive/rangeGradient.ts';
+import type { Piece } from '../../src/model/piece.ts';
+import type { NumericArray } from '../../src/model/fieldArray.ts';
 
 afterEach(() => { useMomentKernel(true); });
 
@@ -87,5 +91,64 @@ describe('WebAssembly moment kernel', () => {
     expect(Number.isNaN(js.out[js.out.length - 1])).toBe(true);
     expect(differing(wasm.out, js.out)).toBe(0);
     expect(Array.from(wasm.sizes)).toEqual(Array.from(js.sizes));
+  });
+});
+
+describe('the kernel walking its own copy of the mesh (kernelMesh.ts, pairedFit.ts meshInto)', () => {
+  /** The gradient of every node with rows built in JavaScript and the JavaScript fit, and the ring sizes. */
+  function reference(p: Piece, values: NumericArray, nc: number) {
+    useMomentKernel(false);
+    const np = p.points.length / 3, out = new Float64Array(3 * nc * np), sizes = new Int32Array(np);
+    gradientInto(out, 0, p.points, values, nc, pointStencil(p), undefined, 0, np, sizes);
+    useMomentKernel(true);
+    return { out, sizes };
+  }
+
+  /** The same from the kernel's walk, in `parts` node ranges. */
+  function walked(p: Piece, values: NumericArray, nc: number, parts: number) {
+    const K = momentKernel()!, np = p.points.length / 3, out = new Float64Array(3 * nc * np), sizes = new Int32Array(np);
+    const b = nodeRanges(np, parts);
+    for (let k = 0; k + 1 < b.length; k++) {
+      const sub = new Int32Array(np);
+      expect(meshInto(K, out, 3 * nc * b[k]!, p, values, nc, b[k]!, b[k + 1]!, sub)).toBe(true);
+      sizes.set(sub.subarray(b[k]!, b[k + 1]!), b[k]!);
+    }
+    return { out, sizes };
+  }
+
+  for (const kind of ['tet', 'hex', 'wedge', 'pyramid', 'polyhedron', 'voxel'] as BoxKind[]) {
+    it(`${kind}: every node in 1, 2 and 3 ranges, 3 and 1 components, then a new values array on the same mesh, bit for bit`, () => {
+      const p = boxMesh(kind, 6, 5, 4, 0.3);
+      const { u, s } = smoothFields(p);
+      for (const [values, nc] of [[u, 3], [s, 1], [Float32Array.from(u, (x) => 2 * x), 3]] as const) {
+        const ref = reference(p, values, nc);
+        expect(ref.out.some((v) => v !== 0 && Number.isFinite(v))).toBe(true);
+        for (const parts of [1, 2, 3]) {
+          const got = walked(p, values, nc, parts);
+          expect(differing(got.out, ref.out)).toBe(0);
+          expect(Array.from(got.sizes)).toEqual(Array.from(ref.sizes));
+        }
+      }
+    });
+  }
+
+  it('holds one mesh at a time (another mesh, then the first again), a twin node carrying NaN and a node in no cell', () => {
+    const a = boxMesh('hex', 4, 4, 3, 0.2), b = boxMesh('tet', 3, 4, 3, 0.2);
+    // a twin of node 0 in a copy of cell 0, its values NaN; a last node in no cell (its gradient NaN)
+    const np = a.points.length / 3, first = Array.from(a.connectivity.subarray(a.offsets[0]!, a.offsets[1]!));
+    const points = new Float64Array(3 * (np + 2));
+    points.set(a.points); points.set(a.points.subarray(0, 3), 3 * np); points.set([9, 9, 9], 3 * np + 3);
+    const connectivity = Int32Array.from([...a.connectivity, ...first.map((q) => (q === first[0] ? np : q))]);
+    const offsets = Int32Array.from([...a.offsets, a.offsets[a.offsets.length - 1]! + first.length]);
+    const odd: Piece = { ...a, points, connectivity, offsets, cellTypes: Uint8Array.from([...a.cellTypes, a.cellTypes[0]!]) };
+    const u = new Float64Array(3 * (np + 2));
+    for (let i = 0; i < np + 2; i++) { const x = points[3 * i]!, y = points[3 * i + 1]!, z = points[3 * i + 2]!; u.set([x * y, z - x * x, Math.sin(y)], 3 * i); }
+    u.set([NaN, NaN, NaN], 3 * np);
+    for (const p of [odd, b, odd]) {
+      const values = p === odd ? u : smoothFields(p).u, ref = reference(p, values, 3), got = walked(p, values, 3, 2);
+      expect(differing(got.out, ref.out)).toBe(0);
+      expect(Array.from(got.sizes)).toEqual(Array.from(ref.sizes));
+      if (p === odd) { expect(Number.isNaN(got.out[got.out.length - 1])).toBe(true); expect(Number.isFinite(got.out[0])).toBe(true); }
+    }
   });
 });

@@ -55,6 +55,41 @@ describe('velocity gradient on the worker pool', () => {
     });
   }
 
+  const quantities = ['vorticity', 'vorticity-magnitude', 'q-criterion', 'lambda2', 'helicity'];
+  const single2 = make(), reference2 = withDerivedFields(single2, quantities);
+  for (const workers of [1, 2, 3]) {
+    it(`${workers} worker(s): vorticity, its magnitude, Q, λ₂ and helicity made in the workers (no gradient sent back) equal the single-thread values bit for bit`, async () => {
+      const pool = await openNodePool(make(), workers);
+      pools.push(pool);
+      expect(await primeDerivedGradients(pool, quantities)).toBe(2);
+      // made once: asked again, nothing is left to compute
+      expect(await primeDerivedGradients(pool, ['vorticity'])).toBe(0);
+      const derived = withDerivedFields(pool.dataset, quantities);
+      for (let k = 0; k < single2.pieces.length; k++) {
+        for (const n of quantities) {
+          const a = derived.pieces[k]!.pointData.find((f) => f.name === n)!;
+          const b = reference2.pieces[k]!.pointData.find((f) => f.name === n)!;
+          expect(a.components).toBe(b.components);
+          expect(b.values.some((v) => v !== 0 && Number.isFinite(v))).toBe(true);
+          expect(differingBits(a.values, b.values)).toBe(0);
+        }
+      }
+      // with the gradient itself asked for, the gradient comes back (and the quantities are made from it here)
+      expect(await primeDerivedGradients(pool, ['velocity-gradient', 'q-criterion'])).toBe(2);
+    });
+  }
+
+  it('one worker, a range of more than one block of nodes (20,181 nodes): vorticity and Q equal the single-thread values bit for bit', async () => {
+    const big = (): Dataset => datasetOf([flow(hexGrid(30, 30, 20, bent))], 'one piece');
+    const ref = withDerivedFields(big(), names), pool = await openNodePool(big(), 1);
+    pools.push(pool);
+    expect(await primeDerivedGradients(pool, names)).toBe(1);
+    const derived = withDerivedFields(pool.dataset, names);
+    for (const n of names) {
+      expect(differingBits(derived.pieces[0]!.pointData.find((f) => f.name === n)!.values, ref.pieces[0]!.pointData.find((f) => f.name === n)!.values)).toBe(0);
+    }
+  });
+
   it('names the missing field', async () => {
     const pool = await openNodePool(make(), 2);
     pools.push(pool);

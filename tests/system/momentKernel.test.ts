@@ -79,8 +79,11 @@ describe('moment kernel in chromium', () => {
 function fitOnce(b64: string, layout: typeof KERNEL_LAYOUT, slots: number[]): number[] {
   const s = atob(b64), bytes = new Uint8Array(s.length);
   for (let i = 0; i < s.length; i++) bytes[i] = s.charCodeAt(i);
-  const e = new WebAssembly.Instance(new WebAssembly.Module(bytes)).exports as unknown as { memory: WebAssembly.Memory; fit3(n: number): void };
-  const F = new Float64Array(e.memory.buffer), n = 30;
+  // the kernel's memory is the caller's (env.memory); its slots start where the word at configAt says
+  const memory = new WebAssembly.Memory({ initial: 1 });
+  const e = new WebAssembly.Instance(new WebAssembly.Module(bytes), { env: { memory } }).exports as unknown as { fit3(n: number): void };
+  const F = new Float64Array(memory.buffer), n = 30;
+  new Int32Array(memory.buffer)[layout.configAt / 4] = layout.slotsAt;
   F[layout.scaleAt / 8] = 2; F[layout.scaleAt / 8 + 1] = 0.5;
   F[layout.toleranceAt / 8] = 1e-9; F[layout.toleranceAt / 8 + 1] = 1e-9;
   for (let k = 0; k < 12 * n; k++) F[layout.slotsAt / 8 + k] = slots[k]!;
