@@ -4,7 +4,8 @@
  * (d > 0) the plane, the polygons of the cut as loops of crossed edges, in the order the general polygon
  * builder of `cutPlane.ts` finds them.
  *
- * The tables are not typed in: they are made when the module loads by running the general builder's rules
+ * The tables are not typed in: each case is made the first time a cut meets it (`caseStart`; building all
+ * 624 cases when the module loaded cost a one-shot `cut` 13–30 ms of cold code) by running the general builder's rules
  * on the cell's face list (`FACE_TABLE` of src/model/cellTypes.ts) with symbolic crossings — per face, in
  * face order, a crossing on each edge whose ends lie on opposite sides; a segment from each crossing where
  * the face's walk goes from above to below to the face's next crossing; segments chained into loops from
@@ -13,8 +14,9 @@
  * order; only the geometry (crossing points, orientation, triangulation) is left to do at run time.
  * Patterns with a node on the plane (d = 0) are not in the tables: those cells keep the general path.
  *
- * Layout: case (slot s of the type, pattern b) starts at `CASE_START[256·s + b]` in `CASE_DATA`: the number
- * of loops, then per loop its vertex count m followed by m pairs (local node below, local node above).
+ * Layout: case (slot s of the type, pattern b) starts at `caseStart(s, b)` = 32·(256·s + b) in `CASE_DATA`: the
+ * number of loops, then per loop its vertex count m followed by m pairs (local node below, local node above);
+ * 255 in a case's first byte marks it not yet made.
  */
 import { CellType, FACE_TABLE } from '../model/cellTypes.ts';
 
@@ -74,23 +76,32 @@ export function casePolygons(type: number, below: number): [number, number][][] 
   return loops;
 }
 
-function build(): { start: Int32Array; data: Uint8Array } {
-  const start = new Int32Array(256 * TABLE_TYPES.length).fill(-1), data: number[] = [];
-  TABLE_TYPES.forEach((t, s) => {
-    const n = SLOT_NODES[s]!;
-    for (let b = 0; b < 1 << n; b++) {
-      start[256 * s + b] = data.length;
-      const loops = casePolygons(t, b);
-      data.push(loops.length);
-      for (const loop of loops) { data.push(loop.length); for (const [lo, hi] of loop) data.push(lo, hi); }
-    }
-  });
-  return { start, data: Uint8Array.from(data) };
+/** Bytes kept per case: its loop count, then per loop m and m pairs — at most 1 + 4 + 2·12 = 29 (twelve crossed edges, four loops). */
+const CASE_BYTES = 32;
+/** First byte of a case not yet made (no cell has 255 loops). */
+const UNMADE = 255;
+
+/** The cases' loops (see the file comment); read a case only at `caseStart`. */
+export const CASE_DATA: Uint8Array = new Uint8Array(256 * TABLE_TYPES.length * CASE_BYTES);
+for (let i = 0; i < CASE_DATA.length; i += CASE_BYTES) CASE_DATA[i] = UNMADE;
+
+/** Start in `CASE_DATA` of the case of slot `s` and pattern `below` (bit i: local node i below the plane), made on first use. */
+export function caseStart(s: number, below: number): number {
+  const p = (256 * s + below) * CASE_BYTES;
+  if (CASE_DATA[p] === UNMADE) makeCase(s, below, p);
+  return p;
 }
 
-const built = build();
-
-/** Start of each case in `CASE_DATA` (see the file comment), −1 for patterns beyond the type's node count. */
-export const CASE_START: Int32Array = built.start;
-/** The cases' loops (see the file comment). */
-export const CASE_DATA: Uint8Array = built.data;
+function makeCase(s: number, below: number, p: number): void {
+  const n = SLOT_NODES[s];
+  if (n === undefined || !(below >= 0 && below < 1 << n)) throw new RangeError(`caseTables: no case ${below} for slot ${s}`);
+  const loops = casePolygons(TABLE_TYPES[s]!, below);
+  const size = loops.reduce((k, loop) => k + 1 + 2 * loop.length, 1);
+  if (size > CASE_BYTES) throw new Error(`caseTables: case ${below} of cell type ${TABLE_TYPES[s]} needs ${size} bytes, more than ${CASE_BYTES}`);
+  let q = p + 1;
+  for (const loop of loops) {
+    CASE_DATA[q++] = loop.length;
+    for (const [lo, hi] of loop) { CASE_DATA[q++] = lo; CASE_DATA[q++] = hi; }
+  }
+  CASE_DATA[p] = loops.length;
+}

@@ -9,7 +9,7 @@
  * without a table, a node on the plane (|d| ≤ tolerance), or a node repeated in the cell (collapsed cells,
  * whose crossings the general path merges by point id).
  */
-import { CASE_DATA, CASE_START, SLOT_NODES, TABLE_SLOT } from './caseTables.ts';
+import { CASE_DATA, caseStart, SLOT_NODES, TABLE_SLOT } from './caseTables.ts';
 import { writePolygon } from './cutOutput.ts';
 
 let OX = 0, OY = 0, OZ = 0, NX = 0, NY = 0, NZ = 1, TOL = 0;
@@ -50,7 +50,7 @@ export function cutByTable(types: Uint8Array, off: Int32Array, conn: Int32Array,
   if (zero !== 0) return -1;
   if (below === 0 || below === (1 << n) - 1) return 0;
   if (repeatsNode(n)) return -1;
-  let p = CASE_START[256 * s + below]!;
+  let p = caseStart(s, below);
   const loops = CASE_DATA[p++]!;
   let any = 0;
   for (let l = 0; l < loops; l++) {

@@ -30,6 +30,7 @@ import { datasetBounds, isEmptyBounds } from '../model/bounds.ts';
 import { cellStarts, type Dataset } from '../model/dataset.ts';
 import { geometryOnly, meshKey, type MeshKey } from '../model/meshKey.ts';
 import type { Piece } from '../model/piece.ts';
+import { scratchFloat32 } from '../model/scratchMemory.ts';
 import { uniformSize } from '../model/uniformCells.ts';
 import { lattice, MORTON, radixSort30 } from './mortonOrder.ts';
 
@@ -97,14 +98,16 @@ export function buildCellTree(dataset: Dataset): CellTree {
 
   const order = new Int32Array(n);
   const nodeCap = n === 0 ? 0 : n <= LEAF ? 1 : 2 * Math.ceil((2 * n) / LEAF) - 1;
-  const nodeBounds = new Float32Array(Math.max(6 * nodeCap, 3 * n));
+  // Kept by the tree, but it is also the sort's scratch, written whole in the first passes: outside malloc too.
+  const nodeBounds = scratchFloat32(Math.max(6 * nodeCap, 3 * n));
   const buf = nodeBounds.buffer;
   const codes = new Uint32Array(buf, 0, n), keyB = new Uint32Array(buf, 4 * n, n), valB = new Int32Array(buf, 8 * n, n);
   // Each phase is its own function: V8 optimises a hot loop by on-stack replacement, and a phase sharing
   // a function with loops that have not run yet would drop back to the interpreter when it reached them.
   // Padded cell boxes (Float32, relative to the origin), by global id: computed in the sequential pass, so
   // the boxes pass, which visits cells in Morton order, reads 24 bytes per cell instead of its points.
-  const boxes = new Float32Array(6 * n);
+  // Scratch memory outside malloc (scratchMemory.ts): its first touch cost the 10M build most of its extra time.
+  const boxes = scratchFloat32(6 * n);
   let volumeCells = 0;
   for (let k = 0; k < dataset.pieces.length; k++) {
     volumeCells += mortonCodes(dataset.pieces[k]!, starts[k]!, ox, oy, oz, 511.5 / half, roundPad, codes, boxes);

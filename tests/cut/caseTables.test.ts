@@ -9,7 +9,7 @@
  * "Marching cubes: a high resolution 3D surface construction algorithm", SIGGRAPH '87).
  */
 import { describe, expect, it } from 'vitest';
-import { CASE_DATA, CASE_START, casePolygons, SLOT_NODES, TABLE_TYPES } from '../../src/cut/caseTables.ts';
+import { CASE_DATA, caseStart, casePolygons, SLOT_NODES, TABLE_TYPES } from '../../src/cut/caseTables.ts';
 import { cutPlane, type PlaneCut } from '../../src/cut/cutPlane.ts';
 import { integrateSurface } from '../../src/cut/integrals.ts';
 import { datasetBounds } from '../../src/model/bounds.ts';
@@ -102,7 +102,7 @@ describe('case tables', () => {
         expect(got, `type ${t}, pattern ${below}`).toEqual(crossed);
         for (const loop of loops) expect(loop.length).toBeGreaterThanOrEqual(3);
         // The flat form holds the same loops.
-        let p = CASE_START[256 * s + below]!;
+        let p = caseStart(s, below);
         expect(CASE_DATA[p++]).toBe(loops.length);
         for (const loop of loops) {
           expect(CASE_DATA[p++]).toBe(loop.length);
@@ -153,4 +153,14 @@ describe('case-table cut equals the general cut', () => {
       compareOn(d, file.length, file);
     });
   }
+});
+
+describe('cases made on first use', () => {
+  it('a case is made when first asked for, stays where it is, and a pattern beyond the type is refused', () => {
+    const hex = TABLE_TYPES.indexOf(CellType.HEXAHEDRON), tet = TABLE_TYPES.indexOf(CellType.TETRA);
+    const p = caseStart(hex, 0b0110_1001);
+    expect(caseStart(hex, 0b0110_1001)).toBe(p);
+    expect(CASE_DATA[p]).toBe(casePolygons(CellType.HEXAHEDRON, 0b0110_1001).length);
+    expect(() => caseStart(tet, 16)).toThrow(/no case 16 for slot/);
+  });
 });
