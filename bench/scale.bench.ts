@@ -15,7 +15,7 @@
  * Then the same stages with `--workers 2` (`stagesOnPoolOfTwoMs`: cut, lines and boundary on a pool of 2 workers, the
  * pool's set-up — starting the workers, handing them the shared dataset — as its own figure, `poolSetup`).
  * Goals (issue 12) at 10M: load ≤ 1.5 s, first cut ≤ 0.3 s (judged on the pool, its set-up shown beside), peak of loading ≤ 1.3× the decoded arrays, and
- * every stage ≤ 12× its 1M cost (linear growth). Times are wall ms of one run each (`loadCpu`, `firstCutCpu`:
+ * every stage ≤ 12× its 1M cost (linear growth). Times are wall ms of one run each (`loadCpu`, `firstCutCpu`, `treeBuildCpu`:
  * process CPU ms, steadier on a busy machine), and `loadAverage` records how busy the machine was. Alone: `node bin/run-ts.mjs bench/scale.bench.ts` (needs about 4 GB of memory).
  */
 import { execFileSync } from 'node:child_process';
@@ -99,6 +99,7 @@ function measure(file: string): Record<string, unknown> {
       firstCut: num(all, 'cut', 'firstCut', 'ms'),
       firstCutCpu: num(all, 'cut', 'firstCut', 'cpuMs'),
       treeBuild: num(all, 'cut', 'treeBuildMs'),
+      treeBuildCpu: num(all, 'cut', 'treeBuildCpuMs'),
       laterCut: num(all, 'cut', 'laterCuts', 'cutAndIntegralsMs', 'median'),
       firstLine: num(all, 'locate', 'firstLine', 'ms'),
       laterLine: num(all, 'locate', 'laterLines', 'ms', 'median'),

@@ -2,7 +2,7 @@
  * Start-up of the installed command: packs the repository (`npm pack`, whose prepack bundles the CLI),
  * installs the tarball offline into a temporary prefix, then times whole processes run from outside the
  * repository: `fieldtally --version` (goal ≤ 250 ms), and `fieldtally info` on the small pipe sample, installed
- * (bundle) against the clone's `bin/fieldtally.mjs` (sources through tsx), with a bare `node -e 0` for scale.
+ * (bundle) against the clone's `bin/fieldtally.mjs` (its bundle cached under a stamp of the sources), with a bare `node -e 0` for scale.
  * Wall-clock and CPU (user + system, from GNU time when present) ms; min and median of interleaved repeated
  * runs, since this machine is shared; `load` is the load average at the end.
  */

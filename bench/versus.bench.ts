@@ -7,7 +7,8 @@
  *   1000-sample line, later line, boundary extraction, pressure force total over the whole boundary — once on
  *   the single-thread core in one process (`core`) and once with a pool of 2 compute workers (`pool2`:
  *   workers started while the file loads, zlib blocks inflated by 2 threads, arrays decoded straight into shared
- *   memory (`sharedArrays`), as the CLI's `--workers 2`);
+ *   memory (`sharedArrays`), as the CLI's `--workers 2`; the workers are started and warmed before the load's
+ *   clock and that time is reported apart as `warmUp`, like the core's kernel warm-up);
  *   and 1 worker (`pool1`), for the speed-up from 1 to 2 workers and the memory per worker;
  * - the same stages with VTK (`bench/vtk_stages.py stages`);
  * - whole processes: `fieldtally cut <file> --origin … --normal …` against `vtk_stages.py cut` (read, cut,
@@ -15,7 +16,7 @@
  *   so a change in the machine's load touches them alike; wall and CPU time (user + system of every thread,
  *   from GNU time when present). The command both from the clone (`bin/fieldtally.mjs`, which runs the
  *   bundle it caches under a stamp of the sources) and as installed (the files `npm pack` ships —
- *   package.json, bin/fieldtally.mjs, dist-cli/ built first by `bin/build-cli.mjs` — copied into a temporary
+ *   package.json, bin/*.mjs, dist-cli/ built first by `bin/build-cli.mjs` — copied into a temporary
  *   folder and run through its bin/fieldtally.mjs, as `npm install` would).
  *   `--one-shot-only` (`npm run bench -- versus --one-shot-only`) runs only these, with `ONE_SHOT_ONLY_RUNS`.
  *
@@ -36,13 +37,15 @@ import { loadDatasetFile } from '../src/io/nodeFiles.ts';
 import { probeLine } from '../src/locate/lineProbe.ts';
 import { datasetBounds } from '../src/model/bounds.ts';
 import type { Dataset } from '../src/model/dataset.ts';
-import { openNodePool, startNodeWorkers } from '../src/parallel/nodePool.ts';
+import { openNodePool, startNodeWorkers, workersWarm } from '../src/parallel/nodePool.ts';
+import { toSharedDataset } from '../src/parallel/sharedDataset.ts';
 import { startInflatePool } from '../src/parallel/inflatePool.ts';
 import type { ComputePool } from '../src/parallel/pool.ts';
 import { forceTotals } from '../src/surface/forces.ts';
 import { getBoundaryFaces } from '../src/surface/surfaceCache.ts';
 import { surfaceLoads } from '../src/surface/surfaceLoads.ts';
 import { warmUpSurfaceKernels } from '../src/surface/warmUp.ts';
+import { warmUpLocateKernels } from '../src/locate/warmUp.ts';
 
 const ROOT = resolve(dirname(fileURLToPath(import.meta.url)), '..');
 const PYTHON = '/usr/bin/python3';
@@ -50,7 +53,7 @@ const FILES = ['pipe-hex-1M.appended-raw.vtu', 'pipe-hex-1M.appended-zlib.vtu', 
 const ONE_SHOT_RUNS = 2;
 const ONE_SHOT_ONLY_RUNS = 5;
 /** The installed command's bundle (built by the run when missing or older than this run). */
-const BUNDLE = join(ROOT, 'dist-cli', 'fieldtally.mjs');
+const BUNDLE = join(ROOT, 'dist-cli', 'fieldtally.cjs');
 /** GNU time gives a child's CPU time (user + system, every thread), which the machine's load changes far less than wall time. */
 const GNU_TIME = '/usr/bin/time';
 const STAGES = ['load', 'firstCut', 'laterCut', 'firstLine', 'laterLine', 'boundary', 'force'] as const;
@@ -99,12 +102,19 @@ async function childStages(file: string, workers: number): Promise<Record<string
   if (workers === 0) {
     // The kernels warm up first, as the app's compute worker does when it starts (before a file is chosen);
     // its cost is reported apart (warmUp). Beside a one-thread load it only moved time from the first cut into the load.
-    [, out.warmUp] = await timed(() => Promise.all([warmUpCutKernels(), warmUpSurfaceKernels()]));
+    [, out.warmUp] = await timed(() => Promise.all([warmUpCutKernels(), warmUpSurfaceKernels(), warmUpLocateKernels()]));
     [d, out.load] = await timed(() => loadDatasetFile(file));
   } else {
-    const c0 = process.cpuUsage(), t0 = performance.now();
+    let c0 = process.cpuUsage(), t0 = performance.now();
     const ports = startNodeWorkers(workers);
     const inflaters = startInflatePool(workers);
+    // As for the one-thread core above (and the app, whose compute worker starts with the page): the workers load
+    // their code and warm their kernels, and this thread warms the kernels it runs for a pool, before the load's
+    // clock; reported apart (warmUp). FIELDTALLY_BENCH_COLD_POOL=1 keeps all of it in the load's clock instead.
+    if (process.env.FIELDTALLY_BENCH_COLD_POOL !== '1') {
+      [, out.warmUp] = await timed(() => Promise.all([workersWarm(ports), inflaters.ready(), warmUpCutKernels(), warmUpSurfaceKernels(toSharedDataset)]));
+      c0 = process.cpuUsage(); t0 = performance.now();
+    }
     let loaded: Dataset;
     try { loaded = await loadDatasetFile(file, { inflate: inflaters.inflate, sharedArrays: true }); } finally { await inflaters.close(); }
     const loadDone = performance.now();
@@ -297,6 +307,8 @@ export async function run(): Promise<Record<string, unknown>> {
       + 'coreCpuRatio = CPU time of the single-thread core / CPU time of VTK (all its threads): less sensitive to a busy machine; '
       + 'oneShotCut cpuRatio: the same for the whole processes; '
       + 'speedUp = wall(1 worker) / wall(2 workers); cpuMs counts every thread of a process. '
+      + 'Load of the pool children: timed after their warmUp (workers started and their kernels warmed, this thread\'s pool kernels warmed; reported apart), '
+      + 'as the core child\'s load is timed after its kernels\' warm-up (FIELDTALLY_BENCH_COLD_POOL=1: warm-up inside the load\'s clock). '
       + 'Boundary: files with 2D cells are reduced to their 3D cells for VTK before the clock starts (both tools then extract the same faces)',
     loadAverageBefore: loadBefore, loadAverageAfter: loadavg().map(r1), files,
   };

@@ -1,5 +1,8 @@
 // Types of bin/cliBundle.mjs (plain JavaScript, run before any TypeScript loader), for the tests.
 
+/** File name of the command's bundle (CommonJS) in a bundle folder. */
+export const BUNDLE_ENTRY: string;
+
 /** The Node workers bundled beside the command: kind → entry file relative to `root`. */
 export function workerEntries(root: string): Record<string, string>;
 

@@ -2,9 +2,11 @@
 // `bin/build-cli.mjs` (dist-cli/, for `npm pack`) and `bin/fieldtally.mjs` in a clone, which runs a bundle
 // cached in the temporary folder instead of compiling TypeScript on every start.
 //
-// `writeBundle(root, dir)` writes dir/fieldtally.mjs (from src/cli/run.ts, fflate included) and each Node
+// `writeBundle(root, dir)` writes dir/fieldtally.cjs (from src/cli/run.ts, fflate included) and each Node
 // worker beside it (dir/<kind>Worker.mjs, found there by src/parallel/workerEntry.ts), with the verb and
-// bench-stage names written in as constants (a bundle has no folder to list).
+// bench-stage names written in as constants (a bundle has no folder to list). The command is CommonJS so
+// that bin/runBundle.mjs can compile it with a V8 code cache (Node 20 keeps none for ES modules); the workers
+// stay ES modules.
 //
 // `cachedBundle(root)` returns the entry of a bundle in $TMPDIR/fieldtally-cli-<uid>/<stamp>/, building it
 // when missing. The stamp is a hash of the size and time of every file in src/, workers/ and bin/ and of
@@ -14,6 +16,7 @@
 import { existsSync, mkdirSync, readdirSync, readFileSync, renameSync, rmSync, statSync, utimesSync } from 'node:fs';
 import { tmpdir, userInfo } from 'node:os';
 import { join } from 'node:path';
+import { hash64 } from './runBundle.mjs';
 
 /**
  * The Node workers bundled beside the command, by kind (src/parallel/workerEntry.ts names the kinds): each
@@ -31,10 +34,22 @@ export function workerEntries(root) {
   return out;
 }
 
+/** File name of the command's bundle (CommonJS, run by bin/runBundle.mjs). */
+export const BUNDLE_ENTRY = 'fieldtally.cjs';
+
 /** Folders of cached bundles not used for this long are removed (ms). */
 const KEEP_UNUSED_MS = 7 * 24 * 3600 * 1000;
 
 const tsNames = (root, dir) => readdirSync(join(root, dir)).filter((f) => f.endsWith('.ts')).map((f) => f.slice(0, -3)).sort();
+
+/**
+ * fflate's build for browsers: the same synchronous and streaming code as its Node build, whose module starts
+ * by loading node:worker_threads for the asynchronous functions (which we do not use), 2–9 ms of every start.
+ */
+const fflateWithoutThreads = (root) => ({
+  name: 'fflate-without-threads',
+  setup(b) { b.onResolve({ filter: /^fflate$/ }, () => ({ path: join(root, 'node_modules', 'fflate', 'esm', 'browser.js') })); },
+});
 
 /** esbuild options shared by the command and its workers. */
 function commonOptions(root) {
@@ -59,6 +74,7 @@ function commonOptions(root) {
       // some bundled CommonJS code may call require() for Node built-ins
       banner: { js: "import { createRequire as fieldtallyRequire } from 'node:module'; const require = fieldtallyRequire(import.meta.url);" },
       metafile: true,
+      plugins: [fflateWithoutThreads(root)],
     },
   };
 }
@@ -72,13 +88,22 @@ export async function writeBundle(root, dir, overrides = {}) {
   const { version, verbs, options } = commonOptions(root);
   const common = { ...options, ...overrides };
   mkdirSync(dir, { recursive: true });
-  const main = await build({ ...common, entryPoints: [join(root, 'src/cli/run.ts')], outfile: join(dir, 'fieldtally.mjs') });
+  // CommonJS has no import.meta: the bundle's own file URL stands in for it (the workers are found beside it).
+  // Every import() becomes a require(): a script compiled with a code cache has no dynamic-import callback
+  // (Node keeps it with the script's host options, which a cached script loses), so an import() of a module
+  // left outside the bundle (a Node built-in) would fail on the runs that use the cache.
+  const main = await build({
+    ...common, format: 'cjs', entryPoints: [join(root, 'src/cli/run.ts')], outfile: join(dir, BUNDLE_ENTRY),
+    supported: { 'dynamic-import': false },
+    define: { ...common.define, 'import.meta.url': 'fieldtallyModuleUrl' },
+    banner: { js: "var fieldtallyModuleUrl = require('node:url').pathToFileURL(__filename).href;" },
+  });
   const inputs = Object.keys(main.metafile?.inputs ?? {});
   for (const [kind, entry] of Object.entries(workerEntries(root))) {
     const w = await build({ ...common, entryPoints: [join(root, entry)], outfile: join(dir, `${kind}Worker.mjs`) });
     inputs.push(...Object.keys(w.metafile?.inputs ?? {}));
   }
-  return { version, verbs, bytes: statSync(join(dir, 'fieldtally.mjs')).size, inputs };
+  return { version, verbs, bytes: statSync(join(dir, BUNDLE_ENTRY)).size, inputs };
 }
 
 /** Size and time of every file under `dir`, one line each (sorted, so the order of listing does not matter). */
@@ -92,18 +117,6 @@ function stamp(dir, lines) {
   }
 }
 
-/** Two 32-bit FNV-1a hashes of `text` (different offsets), as 16 hex digits; node:crypto takes longer to load than this takes. */
-function fnv64(text) {
-  let a = 0x811c9dc5, b = 0x050c5d1f;
-  for (let i = 0; i < text.length; i++) {
-    const c = text.charCodeAt(i);
-    a = Math.imul(a ^ c, 0x01000193) >>> 0;
-    b = Math.imul(b ^ c, 0x01000193) >>> 0;
-    b = (b ^ (b >>> 13)) >>> 0;
-  }
-  return a.toString(16).padStart(8, '0') + b.toString(16).padStart(8, '0');
-}
-
 /** The stamp of the sources a bundle is made from: file count and a hash of every file's path, size and time. */
 export function sourceStamp(root) {
   const lines = [];
@@ -112,7 +125,7 @@ export function sourceStamp(root) {
     const p = join(root, f);
     if (existsSync(p)) { const s = statSync(p); lines.push(`${p}\0${s.size}\0${s.mtimeMs}`); }
   }
-  return `${lines.length.toString(36)}-${fnv64(lines.join('\n'))}`;
+  return `${lines.length.toString(36)}-${hash64(lines)}`;
 }
 
 /** Removes folders of other stamps under `base` last used over a week ago (best effort). */
@@ -128,14 +141,14 @@ function prune(base, keep) {
 }
 
 /**
- * Path of the cached bundle's entry (dir/fieldtally.mjs) for the sources under `root`, built now when missing
+ * Path of the cached bundle's entry (dir/fieldtally.cjs) for the sources under `root`, built now when missing
  * (about a second). Throws when it cannot be built (no esbuild, a read-only temporary folder).
  */
 export async function cachedBundle(root) {
   const base = join(tmpdir(), `fieldtally-cli-${userInfo().uid}`);
   const name = sourceStamp(root);
   const dir = join(base, name);
-  const entry = join(dir, 'fieldtally.mjs');
+  const entry = join(dir, BUNDLE_ENTRY);
   if (existsSync(entry)) {
     const now = new Date();
     try { utimesSync(dir, now, now); } catch { /* marks it used; not needed to run it */ }

@@ -9,6 +9,7 @@ import { cutPlane } from '../src/cut/cutPlane.ts';
 import { selectRegion } from '../src/cut/region.ts';
 import { warmUpCutKernels } from '../src/cut/warmUp.ts';
 import { warmUpSurfaceKernels } from '../src/surface/warmUp.ts';
+import { warmUpLocateKernels } from '../src/locate/warmUp.ts';
 import { getCellTree, hasCellTree } from '../src/locate/cellTree.ts';
 import type { RegionSpec } from '../src/cut/region.ts';
 import { readDatasetFrom } from '../src/io/readDataset.ts';
@@ -151,7 +152,7 @@ let warmUpTimer: ReturnType<typeof setTimeout> | undefined;
  * mesh; `crossingCells.ts` uses it for cuts once built, `lineProbe.ts` always). With share workers, they hold their own.
  */
 async function warmUp(h: Held | undefined, superseded: () => boolean): Promise<void> {
-  await Promise.all([warmUpCutKernels(), warmUpSurfaceKernels()]);
+  await Promise.all([warmUpCutKernels(), warmUpSurfaceKernels(), warmUpLocateKernels()]);
   // a file chosen meanwhile is read first: this dataset's tree would only delay it
   await yieldToMessages();
   if (superseded()) return;

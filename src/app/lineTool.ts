@@ -8,7 +8,7 @@ import type * as THREE from 'three';
 import type { LineReply, Vec3 } from '../../workers/api.ts';
 import type { LineProbe, Probe } from '../study/probeSet.ts';
 import { download } from '../ui/download.ts';
-import { formatVec } from '../ui/format.ts';
+import { formatVec, roundToScale } from '../ui/format.ts';
 import { CAUTION } from '../study/caution.ts';
 import { lineSamplesCsv } from '../ui/lineCsv.ts';
 import { profileSvg } from '../ui/profileSvg.ts';
@@ -108,12 +108,14 @@ export class LineTool {
     const axis = sides.indexOf(Math.min(...sides));
     const a: Vec3 = [center.x, center.y, center.z], e: Vec3 = [center.x, center.y, center.z];
     a[axis] = b[2 * axis]!; e[axis] = b[2 * axis + 1]!;
+    // 6 significant figures of the geometry's size: the panel shows exactly what is sampled, without binary noise
+    const r = (x: number) => roundToScale(x, this.v.diagonal);
     let number = Math.max(0, ...this.lines.map((l) => l.number)) + 1;
     const used = new Set(this.v.allResults.map((r) => r.id));
     while (used.has(`line-${number}`)) number++;
     const l: Line = {
       id: `line-${number}`, number, label: `Line ${number}`, widget: new LineProbeWidget(this.v.diagonal),
-      ax: a[0], ay: a[1], az: a[2], bx: e[0], by: e[1], bz: e[2], samples: DEFAULT_SAMPLES,
+      ax: r(a[0]), ay: r(a[1]), az: r(a[2]), bx: r(e[0]), by: r(e[1]), bz: r(e[2]), samples: DEFAULT_SAMPLES,
     };
     // the new line is first drawn with its samples' pin
     this.v.view.holdFrames();
@@ -236,8 +238,9 @@ export class LineTool {
       move: (_ev: PointerEvent, ray: THREE.Raycaster): void => {
         const l = this.dragged;
         if (!l || !l.widget.drag(ray)) return;
-        [l.ax, l.ay, l.az] = l.widget.from;
-        [l.bx, l.by, l.bz] = l.widget.to;
+        const r = (x: number) => roundToScale(x, this.v.diagonal);
+        [l.ax, l.ay, l.az] = l.widget.from.map(r) as [number, number, number];
+        [l.bx, l.by, l.bz] = l.widget.to.map(r) as [number, number, number];
         this.changed(l);
       },
       up: (): void => { this.dragged?.widget.endDrag(); this.dragged = undefined; },

@@ -16,9 +16,11 @@
  * numbers are the same either way (tests/cli/verbs/oneShotCut.test.ts).
  */
 import { loadDatasetFile } from '../io/nodeFiles.ts';
-import { poolSize } from '../parallel/nodePool.ts';
-import { str, type ParsedArgs } from './args.ts';
-import { loadForCompute, type ComputeInput } from './workerOption.ts';
+import { str, type OptionKind, type ParsedArgs } from './args.ts';
+import type { ComputeInput } from './workerOption.ts';
+
+/** The one-shot verbs' `--workers` option (the same option as `WORKER_OPTIONS`, declared here so the pool's modules load only when it is given). */
+export const ONE_SHOT_WORKER_OPTIONS: Record<string, OptionKind> = { workers: 'string' };
 
 export const ONE_SHOT_WORKER_HELP = '  --workers N           compute workers sharing the cells (default 1: the one plane is cut in this process, which is faster than starting workers); N ≥ 2 opens the pool and inflates zlib blocks on N threads';
 
@@ -28,6 +30,10 @@ export const ONE_SHOT_WORKER_HELP = '  --workers N           compute workers sha
  */
 export async function loadForOneShot(file: string, args: ParsedArgs): Promise<ComputeInput> {
   const asked = str(args, 'workers');
-  if (asked !== undefined && poolSize(asked) > 1) return loadForCompute(file, args);
+  // The pool's modules (and node:worker_threads) are loaded only when asked for: a one-shot start-up does not pay for them.
+  if (asked !== undefined) {
+    const [{ poolSize }, { loadForCompute }] = await Promise.all([import('../parallel/nodePool.ts'), import('./workerOption.ts')]);
+    if (poolSize(asked) > 1) return loadForCompute(file, args);
+  }
   return { dataset: await loadDatasetFile(file), pool: null, close: async () => {} };
 }

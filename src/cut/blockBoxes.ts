@@ -5,6 +5,12 @@
  * Mesh generators and solvers write cells in a spatially coherent order (layers, sweeps, space-filling
  * curves), so a plane meets a small share of the blocks.
  *
+ * Two levels: the box of every `FINE_BLOCK` (8) consecutive cells (`fineBoxes`), and of every `CELL_BLOCK`
+ * (128) cells (`blockBoxes`, the join of its 16 fine boxes). A scan tests the coarse boxes, then the fine boxes
+ * of the blocks the plane crosses: a plane along the cell order's short runs (the pipe sample's lengthwise
+ * plane, a lattice's x-normal plane) crosses most 128-cell blocks but few 8-cell ones (1M-hexahedron pipe,
+ * lengthwise plane: 74 % of the coarse blocks, 744 000 cells, against 12 % of the fine ones, 123 000 cells).
+ *
  * Layout: `Float64Array` of 6 numbers per block — min x, min y, min z, max x, max y, max z (file's length
  * unit) — over the point ids the scan reads for the block's cells (a polyhedron stored with empty
  * connectivity: its face stream). A block of cells with no nodes keeps +∞/−∞ (its test is NaN, so it is
@@ -16,8 +22,11 @@ import { cellLayout } from '../model/uniformCells.ts';
 
 /** Cells per block: small enough that a plane's blocks hold few cells it misses, large enough that the box test is cheap per cell. */
 export const CELL_BLOCK = 128;
+/** Cells per fine block; `CELL_BLOCK` is a whole number of them. */
+export const FINE_BLOCK = 8;
+const FINE_PER_BLOCK = CELL_BLOCK / FINE_BLOCK;
 
-const cache = new WeakMap<Int32Array, { types: Uint8Array; conn: Int32Array; points: Float64Array; boxes: Float64Array }>();
+const cache = new WeakMap<Int32Array, { types: Uint8Array; conn: Int32Array; points: Float64Array; boxes: Float64Array; fine: Float64Array }>();
 
 /** Whether the boxes of `p` are already computed, or can be joined from point-run boxes a first scan kept. */
 export function hasBlockBoxes(p: Piece): boolean {
@@ -66,10 +75,19 @@ let stamp = new Int32Array(0);
 
 /** The block boxes of piece `p` (see the file comment), computed on the first call for these arrays. */
 export function blockBoxes(p: Piece): Float64Array {
+  return boxesOf(p).boxes;
+}
+
+/** The fine boxes of piece `p` (`FINE_BLOCK` cells each; see the file comment), computed with its block boxes. */
+export function fineBoxes(p: Piece): Float64Array {
+  return boxesOf(p).fine;
+}
+
+function boxesOf(p: Piece): { boxes: Float64Array; fine: Float64Array } {
   const hit = cache.get(p.offsets);
-  if (hit && hit.types === p.cellTypes && hit.conn === p.connectivity && hit.points === p.points) return hit.boxes;
-  const nc = p.cellTypes.length, nb = Math.ceil(nc / CELL_BLOCK);
-  const boxes = new Float64Array(6 * nb);
+  if (hit && hit.types === p.cellTypes && hit.conn === p.connectivity && hit.points === p.points) return hit;
+  const nc = p.cellTypes.length, nf = Math.ceil(nc / FINE_BLOCK);
+  const fine = new Float64Array(6 * nf);
   const lay = cellLayout(p);
   const left = pending.get(p.offsets);
   if (!p.polyFaces && left && left.types === p.cellTypes && left.conn === p.connectivity && left.points === p.points) {
@@ -77,21 +95,33 @@ export function blockBoxes(p: Piece): Float64Array {
     const nRuns = left.runs.length / 6;
     if (stamp.length < nRuns) stamp = new Int32Array(Math.max(nRuns, 2 * stamp.length));
     stamp.fill(0, 0, nRuns);
-    for (let b = 0; b < nb; b++) {
-      const c0 = b * CELL_BLOCK, c1 = Math.min(nc, c0 + CELL_BLOCK);
+    for (let b = 0; b < nf; b++) {
+      const c0 = b * FINE_BLOCK, c1 = Math.min(nc, c0 + FINE_BLOCK);
       // without polyhedra a block's nodes are one stretch of the connectivity
-      joinRuns(p.connectivity, p.offsets[c0]!, p.offsets[c1]!, left.shift, b + 1, left.runs, boxes, 6 * b);
+      joinRuns(p.connectivity, p.offsets[c0]!, p.offsets[c1]!, left.shift, b + 1, left.runs, fine, 6 * b);
     }
-    cache.set(p.offsets, { types: p.cellTypes, conn: p.connectivity, points: p.points, boxes });
-    return boxes;
+  } else {
+    for (let b = 0; b < nf; b++) {
+      const c0 = b * FINE_BLOCK, c1 = Math.min(nc, c0 + FINE_BLOCK);
+      if (lay.size > 0) boxOfRun(p.points, p.connectivity, lay.base + lay.size * c0, lay.base + lay.size * c1, fine, 6 * b);
+      else boxOfCells(p, c0, c1, fine, 6 * b);
+    }
   }
-  for (let b = 0; b < nb; b++) {
-    const c0 = b * CELL_BLOCK, c1 = Math.min(nc, c0 + CELL_BLOCK);
-    if (lay.size > 0) boxOfRun(p.points, p.connectivity, lay.base + lay.size * c0, lay.base + lay.size * c1, boxes, 6 * b);
-    else boxOfCells(p, c0, c1, boxes, 6 * b);
+  const nb = Math.ceil(nc / CELL_BLOCK), boxes = new Float64Array(6 * nb);
+  for (let b = 0; b < nb; b++) joinBoxes(fine, b * FINE_PER_BLOCK, Math.min(nf, (b + 1) * FINE_PER_BLOCK), boxes, 6 * b);
+  const entry = { types: p.cellTypes, conn: p.connectivity, points: p.points, boxes, fine };
+  cache.set(p.offsets, entry);
+  return entry;
+}
+
+/** Join of boxes f0 … f1 − 1 of `boxes` into `out[o … o + 5]`. */
+function joinBoxes(boxes: Float64Array, f0: number, f1: number, out: Float64Array, o: number): void {
+  let x0 = Infinity, y0 = Infinity, z0 = Infinity, x1 = -Infinity, y1 = -Infinity, z1 = -Infinity;
+  for (let k = 6 * f0; k < 6 * f1; k += 6) {
+    x0 = Math.min(x0, boxes[k]!); y0 = Math.min(y0, boxes[k + 1]!); z0 = Math.min(z0, boxes[k + 2]!);
+    x1 = Math.max(x1, boxes[k + 3]!); y1 = Math.max(y1, boxes[k + 4]!); z1 = Math.max(z1, boxes[k + 5]!);
   }
-  cache.set(p.offsets, { types: p.cellTypes, conn: p.connectivity, points: p.points, boxes });
-  return boxes;
+  out[o] = x0; out[o + 1] = y0; out[o + 2] = z0; out[o + 3] = x1; out[o + 4] = y1; out[o + 5] = z1;
 }
 
 /** Join of the boxes of the point runs (`runs`) that `ids[q0 … q1 − 1]` lie in, each run once (marked with `mark` in `stamp`), into `out[o … o + 5]`. */

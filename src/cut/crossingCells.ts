@@ -5,7 +5,8 @@
  *  - `tree`: the flat bounding-box tree of `src/locate/cellTree.ts` (built once per dataset, then each query
  *    visits only the boxes the plane touches);
  *  - `scan`: a sign test per cell (side code of each node: below, on or above the plane, OR-ed), over the
- *    blocks of `CELL_BLOCK` consecutive cells whose box the plane may meet (`blockBoxes.ts`). The first scan
+ *    blocks of `CELL_BLOCK` consecutive cells whose box the plane may meet, and inside them the runs of
+ *    `FINE_BLOCK` cells whose box it may meet (`blockBoxes.ts`). The first scan
  *    of a piece with no polyhedra reads every cell by side bytes and leaves the boxes of 32-point runs behind
  *    (made in its point pass); the next scan reads every cell again (`RENTED_SCANS`), the one after joins the
  *    block boxes from the runs. A scan with block boxes tests them first and reads only the crossed blocks —
@@ -28,13 +29,16 @@ import { cellDimension, CellType } from '../model/cellTypes.ts';
 import { cellStarts, type Dataset } from '../model/dataset.ts';
 import { cellsCrossingPlane, getCellTree, hasCellTree } from '../locate/cellTree.ts';
 import { cellLayout } from '../model/uniformCells.ts';
-import { blockBoxes, boxMayCross, CELL_BLOCK, hasBlockBoxes, keepPointRunBoxes, rentFullScan } from './blockBoxes.ts';
+import { blockBoxes, boxMayCross, CELL_BLOCK, FINE_BLOCK, fineBoxes, hasBlockBoxes, keepPointRunBoxes, rentFullScan } from './blockBoxes.ts';
 import type { Piece } from '../model/piece.ts';
 
 export type CandidateSource = 'auto' | 'tree' | 'scan';
 
 /** Scans allowed per dataset before `auto` builds the tree (see the file comment for the measurement behind it). */
 export const AUTO_SCANS = 12;
+
+/** Fine blocks in a block. */
+const FINE_PER_BLOCK = CELL_BLOCK / FINE_BLOCK;
 
 const scansDone = new WeakMap<Dataset, number>();
 
@@ -82,19 +86,23 @@ function scan(d: Dataset, ox: number, oy: number, oz: number, nx: number, ny: nu
       nFound = fullScan(p, lay.base, lay.size, ox, oy, oz, nx, ny, nz, tol, g0, nFound, first);
       continue;
     }
-    const boxes = blockBoxes(p), pf = p.polyFaces, nb = boxes.length / 6;
-    // The blocks the plane may cross (see blockBoxes.ts); the others hold no candidate and are never read.
+    const boxes = blockBoxes(p), fine = fineBoxes(p), pf = p.polyFaces, nb = boxes.length / 6;
+    // The blocks the plane may cross, then their fine blocks that it may cross, as runs of cells (see
+    // blockBoxes.ts); the others hold no candidate and are never read.
     if (crossing.length < nb) crossing = new Int32Array(Math.max(nb, 2 * crossing.length));
     const nCross = blocksMayCross(boxes, nb, ox, oy, oz, nx, ny, nz, tol, crossing);
-    // Many crossed blocks: side bytes of every point once, then bytes per node (cheaper than coordinates per node).
-    const bytes = lay.size > 0 && nCross * CELL_BLOCK * lay.size > lay.endPoint - lay.firstPoint;
+    const nf = fine.length / 6;
+    if (runFrom.length < nf) { runFrom = new Int32Array(Math.max(nf, 2 * runFrom.length)); runTo = new Int32Array(runFrom.length); }
+    const nRuns = fineRuns(fine, nf, nc, crossing, nCross, ox, oy, oz, nx, ny, nz, tol, runFrom, runTo);
+    // Many cells to read: side bytes of every point once, then bytes per node (cheaper than coordinates per node).
+    const bytes = lay.size > 0 && runCells * lay.size > lay.endPoint - lay.firstPoint;
     if (bytes) {
       if (side.length < lay.endPoint) side = new Uint8Array(Math.max(lay.endPoint, 2 * side.length));
       pointSides(p.points, lay.firstPoint, lay.endPoint, ox, oy, oz, nx, ny, nz, tol, side);
     }
-    for (let i = 0; i < nCross; i++) {
-      const c0 = crossing[i]! * CELL_BLOCK, c1 = Math.min(nc, c0 + CELL_BLOCK);
-      reserveFound(nFound + CELL_BLOCK);
+    for (let i = 0; i < nRuns; i++) {
+      const c0 = runFrom[i]!, c1 = runTo[i]!;
+      reserveFound(nFound + (c1 - c0));
       if (bytes && lay.size === 8) nFound = sideBytesOf8(p.connectivity, lay.base, c0, c1, side, g0, found, nFound);
       else if (bytes && lay.size === 4) nFound = sideBytesOf4(p.connectivity, lay.base, c0, c1, side, g0, found, nFound);
       else if (bytes) nFound = sideBytesOf(p.connectivity, lay.size, lay.base, c0, c1, side, g0, found, nFound);
@@ -116,6 +124,30 @@ function blocksMayCross(boxes: Float64Array, nb: number, ox: number, oy: number,
     out[n] = b;
     n += boxMayCross(boxes, 6 * b, ox, oy, oz, nx, ny, nz, tol) ? 1 : 0;
   }
+  return n;
+}
+
+let runFrom = new Int32Array(0), runTo = new Int32Array(0), runCells = 0;
+
+/**
+ * The cells of the fine blocks the plane may cross inside the crossed blocks `crossing[0 … nCross − 1]`, as runs
+ * of consecutive cells (`from[i]` … `to[i]` − 1, adjacent fine blocks joined) in ascending order; returns the
+ * run count and leaves the cell count in `runCells`.
+ */
+function fineRuns(fine: Float64Array, nf: number, nc: number, crossing: Int32Array, nCross: number, ox: number, oy: number, oz: number,
+  nx: number, ny: number, nz: number, tol: number, from: Int32Array, to: Int32Array): number {
+  let n = 0, cells = 0;
+  for (let i = 0; i < nCross; i++) {
+    const b = crossing[i]!, f1 = Math.min(nf, (b + 1) * FINE_PER_BLOCK);
+    for (let f = b * FINE_PER_BLOCK; f < f1; f++) {
+      if (!boxMayCross(fine, 6 * f, ox, oy, oz, nx, ny, nz, tol)) continue;
+      const c0 = f * FINE_BLOCK, c1 = Math.min(nc, c0 + FINE_BLOCK);
+      cells += c1 - c0;
+      if (n > 0 && to[n - 1] === c0) to[n - 1] = c1;
+      else { from[n] = c0; to[n] = c1; n++; }
+    }
+  }
+  runCells = cells;
   return n;
 }
 

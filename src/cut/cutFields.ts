@@ -54,6 +54,26 @@ function pieceArrays(d: Dataset, ref: FieldRef): { arrays: NumericArray[]; compo
   return { arrays, components: Math.max(components, 1) };
 }
 
+/** The fields `spec` names on `d` ('all': `allFieldRefs(d)`, 'none': none) with their component counts; throws as `interpolateCutFields` does for a missing field. */
+export function cutFieldLayout(d: Dataset, spec: 'all' | 'none' | readonly FieldRef[]): { name: string; association: 'point' | 'cell'; components: number }[] {
+  const refs = spec === 'all' ? allFieldRefs(d) : spec === 'none' ? [] : spec;
+  return refs.map((r) => ({ name: r.name, association: r.association, components: pieceArrays(d, r).components }));
+}
+
+/**
+ * Writes field `ref` of a cut's vertices v0 … v1 − 1 (point field) or triangles t0 … t1 − 1 (cell field) into
+ * `out` from tuple `o`: the values `pointFieldOnCut` / `cellFieldOnCut` give there, bit for bit (a pool worker
+ * writes them straight into the merged cut's shared arrays).
+ */
+export function cutFieldInto(d: Dataset, cut: CutProvenance, ref: FieldRef, v0: number, v1: number, t0: number, t1: number, out: Float64Array, o: number): void {
+  const { arrays, components: nc } = pieceArrays(d, ref);
+  if (ref.association === 'point') {
+    interpolateVertices(arrays, nc, pointStarts(d), cut.vertexEdges.subarray(2 * v0, 2 * v1), cut.vertexT.subarray(v0, v1), out.subarray(nc * o, nc * (o + v1 - v0)));
+  } else {
+    copyCells(arrays, nc, cellStarts(d), cut.sourceCell.subarray(t0, t1), out.subarray(nc * o, nc * (o + t1 - t0)));
+  }
+}
+
 /** Materialises fields on a cut. `spec` 'all' means `allFieldRefs(d)`; 'none' gives no fields. */
 export function interpolateCutFields(d: Dataset, cut: CutProvenance, spec: 'all' | 'none' | readonly FieldRef[]): SurfaceField[] {
   const refs = spec === 'all' ? allFieldRefs(d) : spec === 'none' ? [] : spec;
@@ -86,12 +106,17 @@ function interpolateVertices(arrays: NumericArray[], nc: number, ps: Int32Array,
 /** A cell field copied to the cut's triangles from their source cells. */
 export function cellFieldOnCut(d: Dataset, cut: CutProvenance, name: string): SurfaceField {
   const { arrays, components: nc } = pieceArrays(d, { name, association: 'cell' });
-  const sc = cut.sourceCell, nt = sc.length, out = new Float64Array(nt * nc);
-  const cs = cellStarts(d), single = arrays.length === 1;
+  const out = new Float64Array(cut.sourceCell.length * nc);
+  copyCells(arrays, nc, cellStarts(d), cut.sourceCell, out);
+  return { name, association: 'cell', components: nc, values: out };
+}
+
+/** The loop of `cellFieldOnCut`: each triangle's tuple from its source cell (`cs`: cellStarts). */
+function copyCells(arrays: NumericArray[], nc: number, cs: Int32Array, sc: Int32Array, out: Float64Array): void {
+  const nt = sc.length, single = arrays.length === 1;
   for (let t = 0; t < nt; t++) {
     let g = sc[t]!, vals = arrays[0]!;
     if (!single) { const k = pieceOfCell(cs, g); vals = arrays[k]!; g -= cs[k]!; }
     for (let c = 0, i = g * nc, o = t * nc; c < nc; c++) out[o + c] = vals[i + c]!;
   }
-  return { name, association: 'cell', components: nc, values: out };
 }

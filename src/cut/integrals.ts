@@ -115,10 +115,30 @@ function resolve(set: TriangleSet, spec: string | null | undefined, role: 'veloc
   return set.fields.findIndex((f) => f.name === info!.name && f.association === info!.association);
 }
 
-/** Integrates over `set` (and the optional arc points of a disk region). Units: those of the file. */
-export function integrateSurface(set: TriangleSet, options: Partial<IntegralOptions> = {}, arcs?: ArcCloud): SurfaceIntegrals {
+/**
+ * Triangles per block of the triangle pass. Sums run block by block, each block from zero in triangle order,
+ * and the block sums are added in block order (the first block's sums are the start), so a pool's workers can
+ * sum whole blocks of the merged cut and give the one-thread bits (`placeCuts.ts`); the blocks depend only on
+ * the triangle count. A set of at most one block is summed in one pass, as before blocks.
+ */
+export const SUM_BLOCK = 4096;
+
+/** What `integrateSurface` resolves from the set's fields and the options before summing: roles and channels. */
+export interface SumLayout {
+  readonly iu: number; readonly ip: number; readonly ir: number;
+  readonly rhoConst: number | null; readonly kinematic: boolean; readonly hasRho: boolean;
+  readonly roles: SurfaceIntegrals['roles']; readonly notes: string[];
+  readonly chOf: Int32Array; readonly C: number; readonly vecs: number[];
+  readonly magCh: Int32Array; readonly magNc: Int32Array; readonly needCh: Int32Array;
+  readonly uCh: number; readonly pCh: number; readonly rCh: number; readonly rho0: number; readonly halfRho: number;
+  /** Numbers per block of `blockSums`: the 14 sums of the triangle pass, then ∫φ, ∫ρu_nφ and the magnitudes' sums. */
+  readonly K: number;
+}
+
+/** Resolves roles and channels of `fields` under `options` (throws, naming the field, on a wrong role). */
+export function sumLayout(fields: readonly { name: string; association: 'point' | 'cell'; components: number }[], options: Partial<IntegralOptions> = {}): SumLayout {
   const notes: string[] = [];
-  const fields = set.fields;
+  const set = { fields } as unknown as TriangleSet;
   const iu = resolve(set, options.velocity, 'velocity', notes);
   const ip = resolve(set, options.pressure, 'pressure', notes);
   const rhoConst = typeof options.density === 'number' ? options.density : null;
@@ -128,40 +148,86 @@ export function integrateSurface(set: TriangleSet, options: Partial<IntegralOpti
   const hasRho = rhoConst !== null || ir >= 0;
   const label = (i: number) => (i < 0 ? null : `${fields[i]!.name} (${fields[i]!.association})`);
   const roles = { velocity: label(iu), pressure: label(ip), density: rhoConst ?? label(ir), kinematicPressure: kinematic };
-
   // Channels: every component of every field, in field order.
   const chOf = new Int32Array(fields.length + 1);
   for (let i = 0; i < fields.length; i++) chOf[i + 1] = chOf[i]! + fields[i]!.components;
   const C = chOf[fields.length]!;
   const vecs = fields.map((f, i) => (f.components > 1 ? i : -1)).filter((i) => i >= 0);
-  const nMag = vecs.length;
   const magCh = Int32Array.from(vecs, (i) => chOf[i]!), magNc = Int32Array.from(vecs, (i) => fields[i]!.components);
-  // acc layout: [0,C) ∫φ, [C,2C) ∫ρu_nφ, then per vector: ∫|v|, ∫ρu_n|v|.
-  if (vv.length < 3 * C) vv = new Float64Array(3 * C);
-  if (pv.length < C) pv = new Float64Array(C);
-  if (acc.length < 2 * C + 2 * nMag) acc = new Float64Array(2 * C + 2 * nMag);
-  acc.fill(0);
   const uCh = iu >= 0 ? chOf[iu]! : -1, pCh = ip >= 0 ? chOf[ip]! : -1, rCh = ir >= 0 ? chOf[ir]! : -1;
-  const rho0 = rhoConst ?? 1, withP0 = pCh >= 0 && uCh >= 0, halfRho = kinematic ? 0 : 1;
-
-  const nt = triangleCount(set);
-  if (triUn.length < 3 * nt) { triUn = new Float64Array(3 * nt); triArea = new Float64Array(nt); triRho = new Float64Array(3 * nt); }
+  const withP0 = pCh >= 0 && uCh >= 0;
   // Channels needed at the rule's points: vector fields (magnitudes), and velocity, pressure, density for p₀.
   const need = new Set<number>();
   vecs.forEach((i) => { for (let c = 0; c < fields[i]!.components; c++) need.add(chOf[i]! + c); });
   if (withP0) { for (let c = 0; c < 3; c++) need.add(uCh + c); need.add(pCh); if (rCh >= 0) need.add(rCh); }
-  const needCh = Int32Array.from(need);
-  if (e7.length < 7 * C) e7 = new Float64Array(7 * C);
-  const values = fields.map((f) => f.values), perVertex = Uint8Array.from(fields, (f) => (f.association === 'point' ? 1 : 0));
-  sums.fill(0);
-  // In short runs: the engine optimises the whole function (with feedback for every line of it, the end
-  // included) after the first few runs instead of entering a half-fed optimised loop mid-way and throwing it
-  // away at the loop's exit, which made the first two integrals of a session several times slower.
-  // The running sums go in and out through `sums`, so the order of additions is that of one pass.
-  for (let t0 = 0; t0 < nt; t0 += TRIANGLE_RUN) {
-    triangleSums(set.positions, set.indices, values, perVertex, chOf, C, uCh, pCh, rCh, rho0, halfRho, needCh, magCh, magNc, t0, Math.min(nt, t0 + TRIANGLE_RUN));
+  return {
+    iu, ip, ir, rhoConst, kinematic, hasRho, roles, notes, chOf, C, vecs, magCh, magNc, needCh: Int32Array.from(need),
+    uCh, pCh, rCh, rho0: rhoConst ?? 1, halfRho: kinematic ? 0 : 1, K: N_SUMS + 2 * C + 2 * vecs.length,
+  };
+}
+
+/** Per-triangle results of the triangle pass (u·n and density at the vertices, area), read by the reverse-flow and deviation passes. */
+export interface TriangleScratch { un: Float64Array; rho: Float64Array; area: Float64Array }
+
+/**
+ * Sums of blocks `b0 … b1 − 1` (`SUM_BLOCK` triangles each, the last one short) of a set whose first triangle
+ * is triangle `first` of the set the blocks count in (a pool worker's share of a merged cut; 0 otherwise):
+ * `K` numbers a block into `out` from `K·b`, and each triangle's u·n, density and area into `tri` at its
+ * place in the whole set. Same arithmetic and order as `integrateSurface`.
+ */
+export function blockSums(set: TriangleSet, L: SumLayout, first: number, total: number, b0: number, b1: number, tri: TriangleScratch, out: Float64Array): void {
+  const values = set.fields.map((f) => f.values), perVertex = Uint8Array.from(set.fields, (f) => (f.association === 'point' ? 1 : 0));
+  const nAcc = L.K - N_SUMS;
+  if (vv.length < 3 * L.C) vv = new Float64Array(3 * L.C);
+  if (e7.length < 7 * L.C) e7 = new Float64Array(7 * L.C);
+  if (acc.length < nAcc) acc = new Float64Array(nAcc);
+  for (let b = b0; b < b1; b++) {
+    const g0 = b * SUM_BLOCK, g1 = Math.min(total, g0 + SUM_BLOCK);
+    sums.fill(0); acc.fill(0);
+    // In short runs: the engine optimises the whole function (with feedback for every line of it, the end
+    // included) after the first few runs instead of entering a half-fed optimised loop mid-way and throwing it
+    // away at the loop's exit, which made the first two integrals of a session several times slower.
+    // The running sums go in and out through `sums`, so the order of additions is that of one pass.
+    for (let t0 = g0; t0 < g1; t0 += TRIANGLE_RUN) {
+      triangleSums(set.positions, set.indices, values, perVertex, L.chOf, L.C, L.uCh, L.pCh, L.rCh, L.rho0, L.halfRho, L.needCh, L.magCh, L.magNc,
+        t0 - first, Math.min(g1, t0 + TRIANGLE_RUN) - first, first, tri.un, tri.rho, tri.area);
+    }
+    if (L.uCh >= 0) { reverseFlowSums(g0, g1, tri); sums[S_ANEG] = revArea; sums[S_QNEG] = revFlow; sums[S_MNEG] = revMass; }
+    out.set(sums, L.K * b);
+    out.set(acc.subarray(0, nAcc), L.K * b + N_SUMS);
   }
-  if (uCh >= 0) { reverseFlowSums(nt); sums[S_ANEG] = revArea; sums[S_QNEG] = revFlow; sums[S_MNEG] = revMass; }
+}
+
+/** Blocks summed elsewhere (a pool's workers): `done[b]` is 1 where `sums` holds block b, and `tri` holds its triangles' values. */
+export interface SummedBlocks { sums: Float64Array; done: Uint8Array; tri: TriangleScratch }
+
+/**
+ * Integrates over `set` (and the optional arc points of a disk region). Units: those of the file. `summed`:
+ * blocks of this very set already summed (by `blockSums`, in a pool's workers); the others are summed here.
+ */
+export function integrateSurface(set: TriangleSet, options: Partial<IntegralOptions> = {}, arcs?: ArcCloud, summed?: SummedBlocks): SurfaceIntegrals {
+  const fields = set.fields;
+  const L = sumLayout(fields, options);
+  const { notes, roles, kinematic, hasRho, chOf, C, vecs, magCh, magNc, uCh, pCh, rCh, rho0, halfRho } = L;
+  const nMag = vecs.length;
+  const withP0 = pCh >= 0 && uCh >= 0;
+  // acc layout: [0,C) ∫φ, [C,2C) ∫ρu_nφ, then per vector: ∫|v|, ∫ρu_n|v|.
+  if (pv.length < C) pv = new Float64Array(C);
+  const nt = triangleCount(set), nb = Math.ceil(nt / SUM_BLOCK), K = L.K;
+  if (triUn.length < 3 * nt) { triUn = new Float64Array(3 * nt); triArea = new Float64Array(nt); triRho = new Float64Array(3 * nt); }
+  const tri = summed?.tri ?? { un: triUn, rho: triRho, area: triArea };
+  if (blockOut.length < nb * K) blockOut = new Float64Array(Math.max(nb * K, 2 * blockOut.length));
+  const blocks = summed?.sums ?? blockOut;
+  for (let b = 0; b < nb; b++) if (!summed || summed.done[b] !== 1) blockSums(set, L, 0, nt, b, b + 1, tri, blocks);
+  // The block sums in block order, the first block's as the start (a single block is the one pass's sums).
+  if (acc.length < K - N_SUMS) acc = new Float64Array(K - N_SUMS);
+  sums.fill(0); acc.fill(0);
+  if (nb > 0) { for (let k = 0; k < N_SUMS; k++) sums[k] = blocks[k]!; for (let k = N_SUMS; k < K; k++) acc[k - N_SUMS] = blocks[k]!; }
+  for (let b = 1; b < nb; b++) {
+    const o = K * b;
+    for (let k = 0; k < N_SUMS; k++) sums[k] += blocks[o + k]!;
+    for (let k = N_SUMS; k < K; k++) acc[k - N_SUMS] += blocks[o + k]!;
+  }
   let A = sums[S_A]!, cx = sums[S_CX]!, cy = sums[S_CY]!, cz = sums[S_CZ]!, Q = sums[S_Q]!, M = sums[S_M]!;
   let P0a = sums[S_P0A]!, P0m = sums[S_P0M]!, Nx = sums[S_NX]!, Ny = sums[S_NY]!, Nz = sums[S_NZ]!;
   let Aneg = sums[S_ANEG]!, Qneg = sums[S_QNEG]!, Mneg = sums[S_MNEG]!;
@@ -245,7 +311,7 @@ export function integrateSurface(set: TriangleSet, options: Partial<IntegralOpti
       massFlowRate: massOk ? Mneg : null, massShare: massOk && absM !== 0 ? -Mneg / absM : null,
     };
     const un = Q / A;
-    if (un !== 0) res.uniformityIndex = 1 - absDeviation(nt, un, fields, chOf, uCh, arcs) / (2 * Math.abs(un) * A);
+    if (un !== 0) res.uniformityIndex = 1 - absDeviation(nt, un, tri, fields, chOf, uCh, arcs) / (2 * Math.abs(un) * A);
     else notes.push('mean normal velocity is zero: uniformity index undefined');
   }
   return res;
@@ -253,8 +319,9 @@ export function integrateSurface(set: TriangleSet, options: Partial<IntegralOpti
 
 // Sums of the triangle pass, by slot.
 const S_A = 0, S_CX = 1, S_CY = 2, S_CZ = 3, S_Q = 4, S_M = 5, S_P0A = 6, S_P0M = 7, S_NX = 8, S_NY = 9, S_NZ = 10;
-const S_ANEG = 11, S_QNEG = 12, S_MNEG = 13;
-const sums = new Float64Array(14);
+const S_ANEG = 11, S_QNEG = 12, S_MNEG = 13, N_SUMS = 14;
+const sums = new Float64Array(N_SUMS);
+let blockOut = new Float64Array(0);
 /** Triangles per call of `triangleSums` (see its caller). */
 const TRIANGLE_RUN = 64;
 
@@ -268,7 +335,7 @@ const TRIANGLE_RUN = 64;
  */
 function triangleSums(P: Float64Array, I: Uint32Array, values: Float64Array[], perVertex: Uint8Array, chOf: Int32Array,
   C: number, uCh: number, pCh: number, rCh: number, rho0: number, halfRho: number, needCh: Int32Array, magCh: Int32Array,
-  magNc: Int32Array, tBegin: number, tEnd: number): void {
+  magNc: Int32Array, tBegin: number, tEnd: number, first: number, tUn: Float64Array, tRho: Float64Array, tArea: Float64Array): void {
   const nf = values.length, nMag = magCh.length;
   const withP0 = pCh >= 0 && uCh >= 0;
   const wts = TRI7.weight;
@@ -279,8 +346,8 @@ function triangleSums(P: Float64Array, I: Uint32Array, values: Float64Array[], p
     const ax = P[a]!, ay = P[a + 1]!, az = P[a + 2]!;
     const ux = P[b]! - ax, uy = P[b + 1]! - ay, uz = P[b + 2]! - az, wx = P[c]! - ax, wy = P[c + 1]! - ay, wz = P[c + 2]! - az;
     let nx = uy * wz - uz * wy, ny = uz * wx - ux * wz, nz = ux * wy - uy * wx;
-    const n2 = Math.sqrt(nx * nx + ny * ny + nz * nz);
-    triArea[t] = 0.5 * n2;
+    const n2 = Math.sqrt(nx * nx + ny * ny + nz * nz), g = t + first;
+    tArea[g] = 0.5 * n2;
     if (n2 === 0) continue;
     const area = 0.5 * n2, a3 = area / 3;
     Nx += 0.5 * nx; Ny += 0.5 * ny; Nz += 0.5 * nz;
@@ -294,9 +361,9 @@ function triangleSums(P: Float64Array, I: Uint32Array, values: Float64Array[], p
       g1 = vv[3 * uCh + 1]! * nx + vv[3 * uCh + 4]! * ny + vv[3 * uCh + 7]! * nz;
       g2 = vv[3 * uCh + 2]! * nx + vv[3 * uCh + 5]! * ny + vv[3 * uCh + 8]! * nz;
     }
-    triUn[3 * t] = g0; triUn[3 * t + 1] = g1; triUn[3 * t + 2] = g2;
+    tUn[3 * g] = g0; tUn[3 * g + 1] = g1; tUn[3 * g + 2] = g2;
     const r0 = rCh >= 0 ? vv[3 * rCh]! : rho0, r1 = rCh >= 0 ? vv[3 * rCh + 1]! : rho0, r2 = rCh >= 0 ? vv[3 * rCh + 2]! : rho0;
-    triRho[3 * t] = r0; triRho[3 * t + 1] = r1; triRho[3 * t + 2] = r2;
+    tRho[3 * g] = r0; tRho[3 * g + 1] = r1; tRho[3 * g + 2] = r2;
     // Values of the non-linear parts' inputs at the rule's 7 points (vertices, midpoints, centroid).
     for (let i = 0; i < needCh.length; i++) {
       const ch = needCh[i]!, v0 = vv[3 * ch]!, v1 = vv[3 * ch + 1]!, v2 = vv[3 * ch + 2]!, o = 7 * ch;
@@ -343,19 +410,20 @@ function triangleSums(P: Float64Array, I: Uint32Array, values: Float64Array[], p
 }
 
 /**
- * The reverse-flow sums (into revArea, revFlow, revMass) from the triangle pass's per-triangle u·n, density and
- * area, in triangle order. A pass of its own: its call of `belowPart` runs only where the flow reverses, often
+ * The reverse-flow sums (into revArea, revFlow, revMass) of triangles t0 … t1 − 1 from the triangle pass's per-triangle
+ * u·n, density and area, in triangle order. A pass of its own: its call of `belowPart` runs only where the flow reverses, often
  * first late in a cut, and inside the large triangle pass it made the engine throw that pass's optimised code
  * away and compile it again.
  */
-function reverseFlowSums(nt: number): void {
+function reverseFlowSums(t0: number, t1: number, tri: TriangleScratch): void {
+  const un = tri.un, rho = tri.rho, ar = tri.area;
   let Aneg = 0, Qneg = 0, Mneg = 0;
-  for (let t = 0; t < nt; t++) {
-    const area = triArea[t]!;
+  for (let t = t0; t < t1; t++) {
+    const area = ar[t]!;
     if (area === 0) continue;
-    const g0 = triUn[3 * t]!, g1 = triUn[3 * t + 1]!, g2 = triUn[3 * t + 2]!;
+    const g0 = un[3 * t]!, g1 = un[3 * t + 1]!, g2 = un[3 * t + 2]!;
     if (g0 < 0 || g1 < 0 || g2 < 0) {
-      belowPart(area, g0, g1, g2, triRho[3 * t]!, triRho[3 * t + 1]!, triRho[3 * t + 2]!);
+      belowPart(area, g0, g1, g2, rho[3 * t]!, rho[3 * t + 1]!, rho[3 * t + 2]!);
       Aneg += partArea; Qneg += partInt; Mneg += partWeighted;
     }
   }
@@ -414,12 +482,13 @@ function belowPart(area: number, g0: number, g1: number, g2: number, r0: number,
 }
 
 /** ∫|u·n − ū_n| dA, exact on triangles (split where the linear u·n crosses ū_n), from the first pass's per-triangle data. */
-function absDeviation(nt: number, un: number, fields: readonly SurfaceField[], chOf: Int32Array, uCh: number, arcs?: ArcCloud): number {
+function absDeviation(nt: number, un: number, tri: TriangleScratch, fields: readonly SurfaceField[], chOf: Int32Array, uCh: number, arcs?: ArcCloud): number {
+  const tu = tri.un, ta = tri.area;
   let s = 0;
   for (let t = 0; t < nt; t++) {
-    const area = triArea[t]!;
+    const area = ta[t]!;
     if (area === 0) continue;
-    const g0 = triUn[3 * t]! - un, g1 = triUn[3 * t + 1]! - un, g2 = triUn[3 * t + 2]! - un;
+    const g0 = tu[3 * t]! - un, g1 = tu[3 * t + 1]! - un, g2 = tu[3 * t + 2]! - un;
     const whole = area * (g0 + g1 + g2) / 3;
     if (g0 >= 0 && g1 >= 0 && g2 >= 0) { s += whole; continue; }
     belowPart(area, g0, g1, g2, 1, 1, 1);

@@ -44,37 +44,42 @@ export const HOST_LITTLE = new Uint8Array(new Uint16Array([1]).buffer)[0] === 1;
 /** Bytes of the module scratch: big enough that a read or an inflate call is rare, small enough to stay in cache. */
 export const SCRATCH_BYTES = 1 << 20;
 
-const shared = [new ArrayBuffer(0), new ArrayBuffer(0), new ArrayBuffer(0)];
-const busy = [false, false, false];
+/** The module's scratch buffers per slot: in ordinary memory, and in shared memory (`Scratch`'s `inSharedMemory`; empty until first grown). */
+const kept: ArrayBufferLike[][] = [[new ArrayBuffer(0), new ArrayBuffer(0), new ArrayBuffer(0)], [new ArrayBuffer(0), new ArrayBuffer(0), new ArrayBuffer(0)]];
+const busy = [[false, false, false], [false, false, false]];
 
 /**
  * A scratch buffer held for the length of one array's read: the module's shared buffer for its slot
  * (grown when needed, reused by every read) or, when a concurrent load holds that, a private one. Slot 0
  * holds file elements on their way to a final array; slot 1 compressed blocks on their way to slot 0 (or
  * the next chunk, read while slot 0 is converted); slot 2 base64 text on its way to being decoded.
- * Call `release` when done (in a `finally`).
+ * `inSharedMemory`: a SharedArrayBuffer, so worker threads can write into it (the Node inflate pool inflates
+ * blocks straight into shared memory). Call `release` when done (in a `finally`).
  */
 export class Scratch {
-  private buf: ArrayBuffer;
+  private buf: ArrayBufferLike;
   private readonly own: boolean;
+  private readonly kind: 0 | 1;
 
-  constructor(private readonly slot: 0 | 1 | 2) {
-    this.own = busy[slot]!;
-    if (!this.own) busy[slot] = true;
-    this.buf = this.own ? new ArrayBuffer(0) : shared[slot]!;
+  constructor(private readonly slot: 0 | 1 | 2, inSharedMemory = false) {
+    this.kind = inSharedMemory && typeof SharedArrayBuffer !== 'undefined' ? 1 : 0;
+    this.own = busy[this.kind]![slot]!;
+    if (!this.own) busy[this.kind]![slot] = true;
+    this.buf = this.own ? new ArrayBuffer(0) : kept[this.kind]![slot]!;
   }
 
   /** The first `n` bytes of the buffer (aligned, contents not kept when it grows). */
   bytes(n: number): Uint8Array {
     if (this.buf.byteLength < n) {
-      this.buf = new ArrayBuffer(Math.max(n, SCRATCH_BYTES));
-      if (!this.own) shared[this.slot] = this.buf;
+      const size = Math.max(n, SCRATCH_BYTES);
+      this.buf = this.kind === 1 ? new SharedArrayBuffer(size) : new ArrayBuffer(size);
+      if (!this.own) kept[this.kind]![this.slot] = this.buf;
     }
     return new Uint8Array(this.buf, 0, n);
   }
 
   release(): void {
-    if (!this.own) busy[this.slot] = false;
+    if (!this.own) busy[this.kind]![this.slot] = false;
   }
 }
 
@@ -160,19 +165,49 @@ function idError(plan: ArrayPlan, v: number | bigint, i: number): Error {
 }
 
 /**
+ * The last run of ids checked by `finishDirect` or `convertChunk`: its final array, first file element, length,
+ * least and greatest value. The in-cache scan (`ChunkScan` in partReads.ts) takes the range from here instead of
+ * reading the run again, when the run is the one it is handed.
+ */
+export const lastIdRun = { out: undefined as WeakRef<NumericArray> | undefined, from: 0, count: 0, min: 0, max: 0 };
+
+/** Records `runRange` as the range of ids `[from, from + count)` of `out` (held weakly: a dropped array is not kept). */
+function noteIdRun(out: NumericArray, from: number, count: number): void {
+  lastIdRun.out = new WeakRef(out); lastIdRun.from = from; lastIdRun.count = count;
+  lastIdRun.min = runRange[0]!; lastIdRun.max = runRange[1]!;
+}
+
+/**
  * Finishes elements `[from, from + count)` of a direct plan whose file bytes were copied into `out`
  * (indices count file elements, after the lead): swaps the byte order and checks ids in place.
  */
 export function finishDirect(plan: ArrayPlan, out: NumericArray, from: number, count: number): void {
   const size = ELEMENT_SIZE[plan.type], at = (plan.lead ?? 0) + from;
   if (plan.littleEndian !== HOST_LITTLE) swapInPlace(new Uint8Array(out.buffer, out.byteOffset + at * size, count * size), count, size);
-  if (plan.target === 'ids') {
+  if (plan.target === 'ids' && count > 0) {
     const min = plan.min ?? 0, max = plan.max ?? 0x7fffffff;
+    // Every value is in range when the run's least and greatest are (a UInt32 of 2^31 or more reads as a
+    // negative Int32 here, so its run fails too); only a run that fails is searched for its first bad value.
+    rangeOfRun(new Int32Array(out.buffer, out.byteOffset + at * 4, count));
+    if (runRange[0]! >= min && runRange[1]! <= max && (plan.type !== 'UInt32' || runRange[0]! >= 0)) {
+      noteIdRun(out, from, count);
+      return;
+    }
     const bad = plan.type === 'UInt32'
       ? firstOutside(new Uint32Array(out.buffer, out.byteOffset + at * 4, count), min, max)
       : firstOutside(new Int32Array(out.buffer, out.byteOffset + at * 4, count), min, max);
     if (bad >= 0) throw idError(plan, plan.type === 'UInt32' ? new Uint32Array(out.buffer, out.byteOffset + at * 4, count)[bad]! : (out as Int32Array)[at + bad]!, from + bad);
   }
+}
+
+/** The least and greatest value of the last run summed up (`rangeOfRun`, `narrowLowFirst`, `narrowHighFirst`). */
+const runRange = new Int32Array(2);
+
+/** Least and greatest value of `a` (non-empty) into `runRange`, without a branch per value. */
+function rangeOfRun(a: Int32Array): void {
+  let lo = a[0]!, hi = lo;
+  for (let i = 1; i < a.length; i++) { const v = a[i]!; lo = v < lo ? v : lo; hi = v > hi ? v : hi; }
+  runRange[0] = lo; runRange[1] = hi;
 }
 
 /** Index of the first value of `a` outside `[min, max]`, or −1. */
@@ -238,6 +273,10 @@ function convert64(plan: ArrayPlan, bytes: Uint8Array, count: number, out: Numer
   if (plan.target === 'ids' || plan.target === 'cellTypes') {
     const ids = plan.target === 'ids';
     const min = ids ? plan.min ?? 0 : 0, max = ids ? plan.max ?? 0x7fffffff : 255;
+    if (ids && bytes.byteOffset % 4 === 0 && count > 0 && narrowIds(bytes, le, count, out as Int32Array, o, min, max, unsigned)) {
+      noteIdRun(out, from, count);
+      return;
+    }
     // In the host's byte order and 4-byte aligned (the usual case), the halves are read as 32-bit words: a
     // plain typed-array loop, fast from the first call (a DataView loop is slow until the engine optimises it).
     const bad = le === HOST_LITTLE && bytes.byteOffset % 4 === 0
@@ -264,6 +303,54 @@ function narrow64(dv: DataView, le: boolean, count: number, out: Int32Array | Ui
     out[o + i] = lo;
   }
   return -1;
+}
+
+/**
+ * The fast path of 64-bit ids (4-byte aligned `bytes`, either byte order): writes the low words into `out[o…]`
+ * while summing up, with no branch per id, whether every high word is its low word's sign (the value fits in
+ * 32 bits) and the least and greatest low word (into `runRange`). True when every value lies in `[min, max]`
+ * (and is not negative when `unsigned`): the same test as `narrowWords`, per run instead of per id. False when
+ * some value does not; `bytes` is then as it was, for the precise loops to find and name the first.
+ */
+function narrowIds(bytes: Uint8Array, le: boolean, count: number, out: Int32Array, o: number, min: number, max: number, unsigned: boolean): boolean {
+  const w = new Int32Array(bytes.buffer, bytes.byteOffset, 2 * count);
+  // Words of the other byte order are swapped into the host's in place: each value is then high word first.
+  const swap = le !== HOST_LITTLE;
+  if (swap) swapInPlace(bytes, 2 * count, 4);
+  const sign = HOST_LITTLE === !swap ? narrowLowFirst(w, count, out, o) : narrowHighFirst(w, count, out, o);
+  if (sign === 0 && runRange[0]! >= (unsigned ? Math.max(min, 0) : min) && runRange[1]! <= max) return true;
+  if (swap) swapInPlace(bytes, 2 * count, 4);
+  return false;
+}
+
+/**
+ * Low word of each of `count` 64-bit values (host-order words, low word first) into `out[o…]`; returns the OR of
+ * every high word XOR its low word's sign (0: every value fits in 32 bits) and leaves the least and greatest low
+ * word in `runRange`. One loop per word order, so each reads its words at fixed places.
+ */
+function narrowLowFirst(w: Int32Array, count: number, out: Int32Array, o: number): number {
+  let sign = 0, lo = w[0]!, hi = lo;
+  for (let i = 0, p = 0; i < count; i++, p += 2) {
+    const v = w[p]!;
+    sign |= w[p + 1]! ^ (v >> 31);
+    lo = v < lo ? v : lo; hi = v > hi ? v : hi;
+    out[o + i] = v;
+  }
+  runRange[0] = lo; runRange[1] = hi;
+  return sign;
+}
+
+/** `narrowLowFirst` for values stored high word first. */
+function narrowHighFirst(w: Int32Array, count: number, out: Int32Array, o: number): number {
+  let sign = 0, lo = w[1]!, hi = lo;
+  for (let i = 0, p = 0; i < count; i++, p += 2) {
+    const v = w[p + 1]!;
+    sign |= w[p]! ^ (v >> 31);
+    lo = v < lo ? v : lo; hi = v > hi ? v : hi;
+    out[o + i] = v;
+  }
+  runRange[0] = lo; runRange[1] = hi;
+  return sign;
 }
 
 /** `narrow64` over the 32-bit words of the values, in the host's byte order (`le` = the host's), into ids. */

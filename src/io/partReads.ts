@@ -12,7 +12,7 @@
 import type { ArrayScan } from '../model/arrayScans.ts';
 import type { NumericArray } from '../model/fieldArray.ts';
 import { ELEMENT_SIZE } from './elementTypes.ts';
-import { convertChunk, finishDirect, isDirect, type ArrayPlan } from './elementConvert.ts';
+import { convertChunk, finishDirect, isDirect, lastIdRun, type ArrayPlan } from './elementConvert.ts';
 
 /** Fills all of `target` with the file's bytes from byte `offset` (throws when the file ends first). */
 export type FillSync = (offset: number, target: Uint8Array) => void;
@@ -65,9 +65,14 @@ export class ChunkScan {
 
   add(i: number, k: number): void {
     const a0 = this.lead + i;
-    if (this.floats && this.firstNonFinite < 0) this.firstNonFinite = nonFiniteIn(this.out as Float64Array | Float32Array, a0, a0 + k);
+    if (this.floats && this.firstNonFinite < 0) {
+      this.firstNonFinite = this.out instanceof Float64Array ? nonFiniteIn64(this.out, a0, a0 + k) : nonFiniteIn32(this.out as Float32Array, a0, a0 + k);
+    }
     if (this.ids && k > 0) {
-      const r = rangeOf(this.out as Int32Array, a0, a0 + k);
+      // The check of these ids (`finishDirect`, `convertChunk`) summed up their range already, as a rule.
+      const run = lastIdRun;
+      const r = run.out?.deref() === this.out && run.from === i && run.count === k ? (range[0] = run.min, range[1] = run.max, range)
+        : rangeOf(this.out as Int32Array, a0, a0 + k);
       if (r[0]! < this.min) this.min = r[0]!;
       if (r[1]! > this.max) this.max = r[1]!;
       this.any = true;
@@ -80,8 +85,24 @@ export class ChunkScan {
   }
 }
 
-/** Index of the first non-finite value of `a[a0, a1)`, or −1 (x − x is 0 exactly for finite x). */
-function nonFiniteIn(a: Float64Array | Float32Array, a0: number, a1: number): number {
+/**
+ * Index of the first non-finite value of `a[a0, a1)`, or −1. x − x is 0 for finite x and NaN otherwise, so a
+ * sum of them is NaN exactly when some value is not finite: one branch per run; only a run that has one is
+ * searched for it. A loop per array type, so each sees one kind of element.
+ */
+function nonFiniteIn64(a: Float64Array, a0: number, a1: number): number {
+  let s = 0;
+  for (let j = a0; j < a1; j++) { const x = a[j]!; s += x - x; }
+  if (s === 0) return -1;
+  for (let j = a0; j < a1; j++) { const x = a[j]!; if (x - x !== 0) return j; }
+  return -1;
+}
+
+/** `nonFiniteIn64` over single-precision values. */
+function nonFiniteIn32(a: Float32Array, a0: number, a1: number): number {
+  let s = 0;
+  for (let j = a0; j < a1; j++) { const x = a[j]!; s += x - x; }
+  if (s === 0) return -1;
   for (let j = a0; j < a1; j++) { const x = a[j]!; if (x - x !== 0) return j; }
   return -1;
 }

@@ -105,7 +105,8 @@ function sourcePacked(src: ByteSource, pos: number): PackedInput {
 export async function inflateBlocks(packed: PackedInput, plan: ArrayPlan, z: ZlibLayout, inflate: InflateBlock, cp: Checkpoint): Promise<NumericArray> {
   const size = ELEMENT_SIZE[plan.type], count = z.total / size;
   const out = allocateTarget(plan, count);
-  const decoded = new Scratch(0), packedScratch = new Scratch(1);
+  // Converted arrays decoded into shared memory: the batch inflater's threads may write the scratch itself.
+  const decoded = new Scratch(0, plan.shared === true && inflate.batch !== undefined && !isDirect(plan)), packedScratch = new Scratch(1);
   // Each run of finished elements is scanned while in cache, so the piece checks need not read the array again.
   const scan = new ChunkScan(plan, out);
   try {

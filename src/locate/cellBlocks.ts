@@ -10,11 +10,11 @@
  * Layout (all typed arrays; boxes are `[xmin, xmax, ymin, ymax, zmin, zmax]` in the file's length unit):
  *  - block j of piece k covers that piece's cells `BLOCK·(j − pieceBlocks[k]) …` (BLOCK of them, fewer in
  *    the piece's last block); blocks never straddle two pieces;
- *  - `boxes`: Float64Array(6 · blocks), the box of every point the block's cells use (2D cells included),
+ *  - `boxes`: Float32Array(6 · blocks), the box of every point the block's cells use (2D cells included),
  *    padded outward by 2·PAD × the box's largest extent, so it holds every padded cell box of the block
  *    (cellTree.ts pads a cell's box by PAD × the cell's own extent). A block without points has an
  *    inverted box that nothing meets;
- *  - `groupBoxes`: Float64Array(6 · groups), the union of GROUP consecutive block boxes, and
+ *  - `groupBoxes`: Float32Array(6 · groups), the union of GROUP consecutive block boxes, and
  *    `superBoxes` the union of GROUP consecutive group boxes: a walk tests super-groups, then the groups of
  *    those met, then their blocks.
  */
@@ -22,7 +22,6 @@ import { cellDimension, CellType } from '../model/cellTypes.ts';
 import { cellStarts, type Dataset } from '../model/dataset.ts';
 import { geometryOnly, meshKey, type MeshKey } from '../model/meshKey.ts';
 import type { Piece } from '../model/piece.ts';
-import { uniformSize } from '../model/uniformCells.ts';
 import { PAD } from './cellTree.ts';
 
 /** Cells per block. */
@@ -40,9 +39,9 @@ export interface CellBlocks {
   readonly starts: Int32Array;
   /** First block of each piece; the last entry is the block count. */
   readonly pieceBlocks: Int32Array;
-  readonly boxes: Float64Array;
-  readonly groupBoxes: Float64Array;
-  readonly superBoxes: Float64Array;
+  readonly boxes: Float32Array;
+  readonly groupBoxes: Float32Array;
+  readonly superBoxes: Float32Array;
   /** Bytes of the arrays kept. */
   readonly bytes: number;
   /** Wall time of the build, milliseconds. */
@@ -67,17 +66,17 @@ export function buildCellBlocks(dataset: Dataset): CellBlocks {
   const pieceBlocks = new Int32Array(pieces.length + 1);
   for (let k = 0; k < pieces.length; k++) pieceBlocks[k + 1] = pieceBlocks[k]! + Math.ceil(pieces[k]!.cellTypes.length / BLOCK);
   const nb = pieceBlocks[pieces.length]!;
-  const boxes = new Float64Array(6 * nb);
+  const ng = Math.ceil(nb / GROUP), ns = Math.ceil(ng / GROUP);
+  const boxes = new Float32Array(6 * nb), groupBoxes = new Float32Array(6 * ng), superBoxes = new Float32Array(6 * ns);
+  for (let o = 0; o < groupBoxes.length; o += 2) { groupBoxes[o] = Infinity; groupBoxes[o + 1] = -Infinity; }
+  // The group boxes and the volume-cell count are made in the pass over the connectivity: as passes of their
+  // own they ran unoptimised over a million cells on a file's first line (5–9 ms after the warm-up).
   let volume = 0;
   for (let k = 0; k < pieces.length; k++) {
     const p = pieces[k]!;
-    if (p.polyFaces) polyBlockBoxes(p, boxes, pieceBlocks[k]!);
-    else blockBoxes(p.points, p.connectivity, p.offsets, p.cellTypes.length, boxes, pieceBlocks[k]!);
-    volume += uniformSize(p.cellTypes, p.offsets) > 0 ? p.cellTypes.length : volumeCells(p.cellTypes);
+    volume += p.polyFaces ? polyBlockBoxes(p, boxes, groupBoxes, pieceBlocks[k]!)
+      : blockBoxes(p.points, p.connectivity, p.offsets, p.cellTypes, boxes, groupBoxes, pieceBlocks[k]!);
   }
-  const ng = Math.ceil(nb / GROUP), ns = Math.ceil(ng / GROUP);
-  const groupBoxes = new Float64Array(6 * ng), superBoxes = new Float64Array(6 * ns);
-  unionGroups(boxes, nb, groupBoxes);
   unionGroups(groupBoxes, ng, superBoxes);
   return {
     dataset, cellCount: starts[starts.length - 1]!, volumeCellCount: volume, starts, pieceBlocks, boxes, groupBoxes, superBoxes,
@@ -93,19 +92,17 @@ const DIM3 = (() => {
   return t;
 })();
 
-function volumeCells(types: Uint8Array): number {
-  let n = 0;
-  for (let c = 0; c < types.length; c++) n += DIM3[types[c]!]!;
-  return n;
-}
-
 /**
  * Box of the points each block's connectivity range names (the cells of a block are consecutive, so are
- * their ids): one sequential read of the connectivity, whatever the cell types.
+ * their ids): one sequential read of the connectivity, whatever the cell types. Each box is joined into its
+ * group's box in `groups`; returns the piece's count of volume cells.
  */
-function blockBoxes(pts: Float64Array, conn: Int32Array, off: Int32Array, nc: number, out: Float64Array, b0: number): void {
+function blockBoxes(pts: Float64Array, conn: Int32Array, off: Int32Array, types: Uint8Array, out: Float32Array, groups: Float32Array, b0: number): number {
+  const nc = types.length;
+  let volume = 0;
   for (let c0 = 0, j = b0; c0 < nc; c0 += BLOCK, j++) {
-    const a = off[c0]!, e = off[Math.min(nc, c0 + BLOCK)]!;
+    const ce = Math.min(nc, c0 + BLOCK), a = off[c0]!, e = off[ce]!;
+    for (let c = c0; c < ce; c++) volume += DIM3[types[c]!]!;
     let x0 = Infinity, x1 = -Infinity, y0 = Infinity, y1 = -Infinity, z0 = Infinity, z1 = -Infinity;
     for (let q = a; q < e; q++) {
       const i = 3 * conn[q]!, x = pts[i]!, y = pts[i + 1]!, z = pts[i + 2]!;
@@ -114,15 +111,19 @@ function blockBoxes(pts: Float64Array, conn: Int32Array, off: Int32Array, nc: nu
       if (z < z0) z0 = z; if (z > z1) z1 = z;
     }
     writePadded(out, 6 * j, x0, x1, y0, y1, z0, z1);
+    joinGroup(out, 6 * j, groups, 6 * Math.floor(j / GROUP));
   }
+  return volume;
 }
 
 /** As `blockBoxes` for a piece with polyhedra: each cell's connectivity, or its face stream when it has none. */
-function polyBlockBoxes(p: Piece, out: Float64Array, b0: number): void {
+function polyBlockBoxes(p: Piece, out: Float32Array, groups: Float32Array, b0: number): number {
   const pts = p.points, nc = p.cellTypes.length, pf = p.polyFaces!;
+  let volume = 0;
   for (let c0 = 0, j = b0; c0 < nc; c0 += BLOCK, j++) {
     let x0 = Infinity, x1 = -Infinity, y0 = Infinity, y1 = -Infinity, z0 = Infinity, z1 = -Infinity;
     for (let c = c0, ce = Math.min(nc, c0 + BLOCK); c < ce; c++) {
+      volume += DIM3[p.cellTypes[c]!]!;
       let ids = p.connectivity, a = p.offsets[c]!, e = p.offsets[c + 1]!;
       if (a === e && p.cellTypes[c] === CellType.POLYHEDRON) {
         ids = pf.faceConnectivity; a = pf.faceOffsets[pf.cellFaceStart[c]!]!; e = pf.faceOffsets[pf.cellFaceStart[c + 1]!]!;
@@ -135,24 +136,36 @@ function polyBlockBoxes(p: Piece, out: Float64Array, b0: number): void {
       }
     }
     writePadded(out, 6 * j, x0, x1, y0, y1, z0, z1);
+    joinGroup(out, 6 * j, groups, 6 * Math.floor(j / GROUP));
   }
+  return volume;
+}
+
+/** Joins the block box at b[o …] into the group box at g[q …] (an inverted block box, a block without points, adds nothing). */
+function joinGroup(b: Float32Array, o: number, g: Float32Array, q: number): void {
+  if (!(b[o]! <= b[o + 1]!)) return;
+  if (b[o]! < g[q]!) g[q] = b[o]!; if (b[o + 1]! > g[q + 1]!) g[q + 1] = b[o + 1]!;
+  if (b[o + 2]! < g[q + 2]!) g[q + 2] = b[o + 2]!; if (b[o + 3]! > g[q + 3]!) g[q + 3] = b[o + 3]!;
+  if (b[o + 4]! < g[q + 4]!) g[q + 4] = b[o + 4]!; if (b[o + 5]! > g[q + 5]!) g[q + 5] = b[o + 5]!;
 }
 
 /**
- * Writes a block's box padded by PAD × its largest extent (twice over), and a little more for rounding of the
- * padded cell boxes; a block without points keeps its inverted box.
+ * Writes a block's box padded by PAD × its largest extent (twice over), and a little more for rounding: of the
+ * padded cell boxes, and of storing the box as Float32 (at most 2^-24 of a coordinate, covered twice over, so
+ * the stored box is never smaller; half the memory of doubles, the pass's fresh memory being part of its cost);
+ * a block without points keeps its inverted box.
  */
-function writePadded(out: Float64Array, o: number, x0: number, x1: number, y0: number, y1: number, z0: number, z1: number): void {
+function writePadded(out: Float32Array, o: number, x0: number, x1: number, y0: number, y1: number, z0: number, z1: number): void {
   let pad = 0;
   if (x0 <= x1) {
     const ext = Math.max(x1 - x0, y1 - y0, z1 - z0);
     const big = Math.max(Math.abs(x0), Math.abs(x1), Math.abs(y0), Math.abs(y1), Math.abs(z0), Math.abs(z1));
-    pad = 2 * PAD * ext + 1e-15 * big;
+    pad = 2 * PAD * ext + 2.4e-7 * big + 1e-37;
   }
   out[o] = x0 - pad; out[o + 1] = x1 + pad; out[o + 2] = y0 - pad; out[o + 3] = y1 + pad; out[o + 4] = z0 - pad; out[o + 5] = z1 + pad;
 }
 
-function unionGroups(b: Float64Array, nb: number, out: Float64Array): void {
+function unionGroups(b: Float32Array, nb: number, out: Float32Array): void {
   for (let g = 0, j0 = 0; j0 < nb; g++, j0 += GROUP) {
     let x0 = Infinity, x1 = -Infinity, y0 = Infinity, y1 = -Infinity, z0 = Infinity, z1 = -Infinity;
     for (let j = j0, je = Math.min(nb, j0 + GROUP); j < je; j++) {

@@ -263,7 +263,8 @@ function barycentric(ax: number, ay: number, az: number, bx: number, by: number,
   const e3x = dx - ax, e3y = dy - ay, e3z = dz - az;
   const nx = e2y * e3z - e2z * e3y, ny = e2z * e3x - e2x * e3z, nz = e2x * e3y - e2y * e3x;
   const det = e1x * nx + e1y * ny + e1z * nz;
-  const size = Math.hypot(e1x, e1y, e1z) * Math.hypot(e2x, e2y, e2z) * Math.hypot(e3x, e3y, e3z);
+  // The product of the edge lengths (Math.hypot with three arguments allocated on every call).
+  const size = Math.sqrt((e1x * e1x + e1y * e1y + e1z * e1z) * (e2x * e2x + e2y * e2y + e2z * e2z) * (e3x * e3x + e3y * e3y + e3z * e3z));
   if (!(Math.abs(det) > 1e-14 * size)) return Infinity;
   const inv = 1 / det;
   // Right-hand side: origin − a.

@@ -57,7 +57,7 @@ function blocksMet(b: CellBlocks, from: Vec3, to: Vec3): number {
 }
 
 /** Appends to `hit` (from `found`) the blocks of super-group s that the segment meets; returns the new count. */
-function blocksUnder(gb: Float64Array, bb: Float64Array, s: number, px: number, py: number, pz: number, dx: number, dy: number, dz: number,
+function blocksUnder(gb: Float32Array, bb: Float32Array, s: number, px: number, py: number, pz: number, dx: number, dy: number, dz: number,
   hit: Int32Array, found: number): number {
   const nb = bb.length / 6, ng = gb.length / 6;
   for (let g = s * GROUP, ge = Math.min(ng, g + GROUP); g < ge; g++) {
@@ -70,7 +70,7 @@ function blocksUnder(gb: Float64Array, bb: Float64Array, s: number, px: number, 
   return found;
 }
 
-function meets(boxes: Float64Array, i: number, px: number, py: number, pz: number, dx: number, dy: number, dz: number): boolean {
+function meets(boxes: Float32Array, i: number, px: number, py: number, pz: number, dx: number, dy: number, dz: number): boolean {
   const o = 6 * i;
   return segmentMeetsBox(boxes[o]!, boxes[o + 1]!, boxes[o + 2]!, boxes[o + 3]!, boxes[o + 4]!, boxes[o + 5]!, px, py, pz, dx, dy, dz);
 }

@@ -52,6 +52,22 @@ export function startNodeWorkers(n: number): PoolPort[] {
 }
 
 /**
+ * Resolves when each of `ports` (fresh from `startNodeWorkers`) has loaded its code and warmed its kernels: it
+ * answers a request only after its warm-up (shareHost.ts), so a `memory` request's answer marks it.
+ */
+export async function workersWarm(ports: readonly PoolPort[]): Promise<void> {
+  await Promise.all(ports.map((p) => new Promise<void>((resolve, reject) => {
+    // An id no pool lane uses (lanes count up from 1), answered before any lane is made.
+    const id = -2;
+    p.onMessage((r) => {
+      if (r.id === id) resolve();
+      else if (r.id === -1 && !r.ok) reject(new Error(r.error));
+    });
+    p.postMessage({ id, op: 'memory' });
+  })));
+}
+
+/**
  * Copies `dataset` into shared memory and opens a pool of `poolSize(workers)` worker threads over it.
  * Close it with `pool.close()` (the process cannot exit while workers run).
  */

@@ -11,8 +11,9 @@
  * order they were written, so vertex numbers are the single-thread cut's too.
  */
 import type { CutOptions, PlaneCut } from '../cut/cutPlane.ts';
+import { SUM_BLOCK, sumLayout, type IntegralOptions, type SummedBlocks } from '../cut/integrals.ts';
 import { unitVector, type SurfaceField, type Vec3 } from '../cut/triangleSet.ts';
-import type { CutCounts, SharedCutArrays } from './shareTasks.ts';
+import type { CutCounts, ShareSums, SharedCutArrays } from './shareTasks.ts';
 
 /** Where each share's runs go: 6 numbers a run (see `placeCutShare`), and the merged totals. */
 export interface CutPlan {
@@ -58,17 +59,30 @@ function shared<T>(ctor: { new (b: SharedArrayBuffer): T; BYTES_PER_ELEMENT: num
 /** The requests the pool sends its workers for one cut, `key` naming it between the two steps. */
 export type CutRequest =
   | { op: 'cut'; key: number; origin: Vec3; normal: Vec3; options: Partial<CutOptions> }
-  | { op: 'place'; key: number; runs: Int32Array; into: SharedCutArrays | null };
+  | { op: 'place'; key: number; runs: Int32Array; into: SharedCutArrays | null; sums?: ShareSums | null };
 
 let nextKey = 1;
+
+/** The blocks of a merged cut's integral sums that the workers summed (see `cutInPlace`), by cut. */
+const summedBy = new WeakMap<PlaneCut, SummedBlocks>();
+
+/**
+ * The integral sums' blocks (`integrals.ts` `blockSums`) the pool's workers summed while placing `cut` (made by
+ * `cutInPlace` with integral options), for `integrateSurface` over the whole cut with those options; undefined
+ * when none were.
+ */
+export function summedBlocks(cut: PlaneCut): SummedBlocks | undefined { return summedBy.get(cut); }
 
 /**
  * The cut on every share, merged in place (see the file comment): `all` sends one request to every worker (by
  * index) and resolves with their replies in worker order. The result is `cutPlane`'s on the whole dataset,
- * its arrays in shared memory.
+ * its arrays in shared memory. With `integral` (the options the whole cut will be integrated with), each worker
+ * also sums the blocks of the integral's triangle pass that lie wholly in its cell triangles, from its own
+ * arrays as it places them (`summedBlocks`); the rest (blocks across a share border, in-plane faces) are left
+ * to `integrateSurface`, so the sums are the one-thread ones bit for bit.
  */
 export async function cutInPlace(all: <R>(req: (i: number) => CutRequest) => Promise<R[]>, origin: Vec3, normal: Vec3,
-  options: Partial<CutOptions>): Promise<PlaneCut> {
+  options: Partial<CutOptions>, integral?: Partial<IntegralOptions>): Promise<PlaneCut> {
   const t0 = performance.now(), key = nextKey++;
   let parts: CutCounts[];
   try {
@@ -86,10 +100,11 @@ export async function cutInPlace(all: <R>(req: (i: number) => CutRequest) => Pro
     vertexEdges: shared(Int32Array, 2 * nV), vertexT: shared(Float64Array, nV),
     fields: layout.map((f) => shared(Float64Array, (f.association === 'point' ? nV : nT) * f.components)),
   };
-  await all<null>((i) => ({ op: 'place', key, runs: plan.runs[i]!, into }));
+  const sums = integral ? shareSums(layout, integral, nT) : null;
+  await all<null>((i) => ({ op: 'place', key, runs: plan.runs[i]!, into, sums }));
   const fields: SurfaceField[] = layout.map((f, j) => ({ name: f.name, association: f.association, components: f.components, values: into.fields[j]! }));
   const sum = (g: (c: CutCounts) => number) => parts.reduce((s, c) => s + g(c), 0);
-  return {
+  const cut: PlaneCut = {
     positions: into.positions, indices: into.indices, sourceCell: into.sourceCell, vertexEdges: into.vertexEdges, vertexT: into.vertexT, fields,
     origin: [origin[0], origin[1], origin[2]], normal: unitVector(normal, 'cutPlane: normal'), empty: nT === 0,
     stats: {
@@ -98,5 +113,18 @@ export async function cutInPlace(all: <R>(req: (i: number) => CutRequest) => Pro
       cutCells: sum((c) => c.cutCells) - plan.dropped, boundaryFaces: plan.kept, openChains: sum((c) => c.openChains),
       tolerance: parts[0]?.tolerance ?? 0, ms: performance.now() - t0,
     },
+  };
+  if (sums) summedBy.set(cut, { sums: sums.sums, done: sums.done, tri: { un: sums.un, rho: sums.rho, area: sums.area } });
+  return cut;
+}
+
+/** Shared room for the integral sums' blocks of a merged cut of `nT` triangles; null when the options do not fit its fields (integrateSurface then says why). */
+function shareSums(layout: CutCounts['fields'], integral: Partial<IntegralOptions>, nT: number): ShareSums | null {
+  let K: number;
+  try { K = sumLayout(layout, integral).K; } catch { return null; }
+  const nb = Math.ceil(nT / SUM_BLOCK);
+  return {
+    options: integral, total: nT, sums: shared(Float64Array, nb * K), done: shared(Uint8Array, nb),
+    un: shared(Float64Array, 3 * nT), rho: shared(Float64Array, 3 * nT), area: shared(Float64Array, nT),
   };
 }

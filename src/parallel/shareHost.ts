@@ -7,14 +7,16 @@
  * are fresh and go back by transfer; the shared dataset is never transferred. A cut is kept here until the
  * host says where to write it in the merged cut's shared arrays (`placeCuts.ts`).
  */
-import type { Dataset } from '../model/dataset.ts';
+import { totalCells, type Dataset } from '../model/dataset.ts';
 import { boundaryShare, cutShare, lineShare, placeCutShare, type LineShareOptions } from './shareTasks.ts';
 import type { CutRequest } from './placeCuts.ts';
 import { gradientShare, type GradientShare } from './deriveShares.ts';
 import { shareDataset, type CellShare } from './shares.ts';
 import { prepareCut } from '../cut/cutPlane.ts';
 import { warmUpCutKernels } from '../cut/warmUp.ts';
+import { warmUpShareKernels } from './shareWarmUp.ts';
 import { warmUpFitKernels } from '../derive/warmUpFit.ts';
+import { warmUpLocateKernels } from '../locate/warmUp.ts';
 import type { Vec3 } from '../cut/triangleSet.ts';
 import { evaluateProbeSet, type EvaluateOptions } from '../study/evaluate.ts';
 import type { ProbeSet } from '../study/probeSet.ts';
@@ -51,16 +53,22 @@ function transferables(x: unknown, out: Set<ArrayBuffer>, depth = 0): void {
 /** What a worker reports about its memory (bytes), where the platform can tell: JS heap in use and its own (non-shared) array buffers. */
 export interface WorkerMemory { heapUsed: number; external: number; arrayBuffers: number }
 
+/** A dataset as a worker sees its share: views of every cell (`shareDataset`), the shape its line scans meet. */
+const asShareView = (d: Dataset): Dataset => shareDataset(d, { start: 0, end: totalCells(d) });
+
 /**
  * Serves the pool's requests on `port` until the worker ends. `memory` reports this worker's memory when the
- * platform can tell. `warmUp` runs first (default: `warmUpCutKernels`, about 0.1 s, then `warmUpFitKernels` of
- * src/derive/warmUpFit.ts, about 0.15 s): a pool's workers start while the file is still being read, so their cut
- * kernels and gradient fit are optimised by the time the first cut or gradient arrives instead of running cold
- * over their share (the cold first cut, and the cold wall fit, made two workers slower than one thread).
+ * platform can tell. `warmUp` runs first (default: `warmUpCutKernels`, about 0.1 s, then `warmUpShareKernels` of
+ * shareWarmUp.ts, about 0.1 s, then `warmUpFitKernels` of src/derive/warmUpFit.ts, about 0.15 s, then
+ * `warmUpLocateKernels` of src/locate/warmUp.ts on share views, about 0.15 s): a pool's workers start while the
+ * file is still being read, so their cut kernels, gradient fit and line scan are optimised by the time the first
+ * cut, gradient or line arrives instead of running cold over their share (the cold first cut, and the cold wall
+ * fit, made two workers slower than one thread).
  * Requests wait for it and are answered one at a time, in order; a failed warm-up only leaves the kernels cold.
  */
 export function serveShares(port: SharePort, memory: () => WorkerMemory | null = () => null,
-  warmUp: () => Promise<void> = () => warmUpCutKernels().then(warmUpFitKernels)): void {
+  warmUp: () => Promise<void> = () => warmUpCutKernels().then(() => warmUpShareKernels()).then(warmUpFitKernels)
+    .then(() => warmUpLocateKernels(asShareView))): void {
   let whole: Dataset | undefined, share: Dataset | undefined, range: CellShare | undefined;
   const run = (m: ShareRequest): unknown => {
     if (m.op === 'hold') { whole = m.dataset; range = m.share; share = shareDataset(whole, range); prepareCut(share); return null; }
@@ -70,7 +78,7 @@ export function serveShares(port: SharePort, memory: () => WorkerMemory | null =
     if (m.op === 'gradient') { if (!whole) throw new Error('worker pool: no dataset is held by this worker'); return gradientShare(whole, m); }
     if (!share || !range) throw new Error('worker pool: no dataset is held by this worker');
     if (m.op === 'cut') return cutShare(share, m.key, m.origin, m.normal, m.options);
-    if (m.op === 'place') return placeCutShare(m.key, range, m.runs, m.into);
+    if (m.op === 'place') return placeCutShare(m.key, range, m.runs, m.into, m.sums ?? null);
     if (m.op === 'line') return lineShare(share, range, m.from, m.to, m.options);
     return boundaryShare(share, range, m.withMerge);
   };

@@ -6,7 +6,9 @@
  * global (share cell + `share.start`). A cut is the exception: it is counted first and then written by each
  * share straight into its place in the merged cut's shared arrays (`placeCuts.ts`).
  */
-import { cutPlane, type CutOptions, type PlaneCut, type PlaneFaceKeys } from '../cut/cutPlane.ts';
+import { CUT_DEFAULTS, cutPlane, type CutOptions, type PlaneCut, type PlaneFaceKeys } from '../cut/cutPlane.ts';
+import { cutFieldInto, cutFieldLayout } from '../cut/cutFields.ts';
+import { blockSums, SUM_BLOCK, sumLayout, type IntegralOptions } from '../cut/integrals.ts';
 import type { Vec3 } from '../cut/triangleSet.ts';
 import type { Dataset } from '../model/dataset.ts';
 import { lineLocator, locateLineSamples } from '../locate/lineSamples.ts';
@@ -30,6 +32,8 @@ export interface CutCounts {
   openChains: number;
   tolerance: number;
   planeFaces: PlaneFaceKeys;
+  /** Time the share's cut took in its worker (ms). */
+  ms: number;
 }
 
 /** The merged cut's arrays (layout of `PlaneCut`), in shared memory; each share writes its runs into them. */
@@ -43,33 +47,54 @@ export interface SharedCutArrays {
   fields: Float64Array[];
 }
 
-/** Cuts held until placed, by the host's key (a few at most: a cut whose placement never came is let go). */
-const held = new Map<number, PlaneCut>();
+/**
+ * Room for the blocks of the integral's triangle pass (`integrals.ts` `blockSums`) over a merged cut of `total`
+ * triangles, in shared memory: `K` sums a block (`sumLayout(fields, options).K`) in `sums`, `done[b]` set to 1 by
+ * the worker that summed block b, and each triangle's u·n, density (3 a triangle) and area at its place.
+ */
+export interface ShareSums {
+  options: Partial<IntegralOptions>;
+  total: number;
+  sums: Float64Array;
+  done: Uint8Array;
+  un: Float64Array;
+  rho: Float64Array;
+  area: Float64Array;
+}
+
+/** Cuts held until placed, by the host's key (a few at most: a cut whose placement never came is let go), with their share and fields. */
+const held = new Map<number, { cut: PlaneCut; share: Dataset; fields: CutCounts['fields'] }>();
 const HELD_MAX = 4;
 
-/** Cuts the share's cells (`cutPlane` with the in-plane face keys kept for the merge) and keeps the result under `key`. */
+/**
+ * Cuts the share's cells (`cutPlane` with the in-plane face keys kept for the merge) and keeps the result under
+ * `key`. Its fields are not made here: `placeCutShare` writes them straight into the merged arrays.
+ */
 export function cutShare(share: Dataset, key: number, origin: Vec3, normal: Vec3, options: Partial<CutOptions>): CutCounts {
-  const c = cutPlane(share, origin, normal, { ...options, planeFaceKeys: true });
-  held.set(key, c);
+  const fields = cutFieldLayout(share, options.fields ?? CUT_DEFAULTS.fields);
+  const c = cutPlane(share, origin, normal, { ...options, fields: 'none', planeFaceKeys: true });
+  held.set(key, { cut: c, share, fields });
   for (const k of held.keys()) if (held.size > HELD_MAX) held.delete(k);
   return {
-    vertices: c.vertexT.length, triangles: c.sourceCell.length,
-    fields: c.fields.map((f) => ({ name: f.name, association: f.association, components: f.components })),
+    vertices: c.vertexT.length, triangles: c.sourceCell.length, fields,
     candidateCells: c.stats.candidateCells, candidateSource: c.stats.candidateSource, cutCells: c.stats.cutCells,
-    openChains: c.stats.openChains, tolerance: c.stats.tolerance, planeFaces: c.planeFaces!,
+    openChains: c.stats.openChains, tolerance: c.stats.tolerance, planeFaces: c.planeFaces!, ms: c.stats.ms,
   };
 }
 
 /**
  * Writes the runs of the cut held under `key` into the merged arrays and lets it go. `runs` holds 6 numbers a
  * run: source triangles t0 … t1 − 1 with their vertices v0 … v1 − 1, to triangle `dt` and vertex `dv` of the
- * merged cut; vertex numbers are moved by dv − v0 and cell ids by the share's first cell. `into` null: only let go.
+ * merged cut; vertex numbers are moved by dv − v0 and cell ids by the share's first cell. The fields are
+ * interpolated straight into their places. `into` null: only let go. With `sums`, the integral's blocks that
+ * lie wholly in the share's cell triangles are summed too (`sumOwnBlocks`).
  */
-export function placeCutShare(key: number, range: CellShare, runs: Int32Array, into: SharedCutArrays | null): null {
-  const c = held.get(key);
+export function placeCutShare(key: number, range: CellShare, runs: Int32Array, into: SharedCutArrays | null, sums: ShareSums | null = null): null {
+  const h = held.get(key);
   held.delete(key);
   if (!into) return null;
-  if (!c) throw new Error('worker pool: no cut is held for this placement');
+  if (!h) throw new Error('worker pool: no cut is held for this placement');
+  const c = h.cut;
   for (let r = 0; r < runs.length; r += 6) {
     const t0 = runs[r]!, t1 = runs[r + 1]!, v0 = runs[r + 2]!, v1 = runs[r + 3]!, dt = runs[r + 4]!, dv = runs[r + 5]!;
     into.positions.set(c.positions.subarray(3 * v0, 3 * v1), 3 * dv);
@@ -77,13 +102,27 @@ export function placeCutShare(key: number, range: CellShare, runs: Int32Array, i
     into.vertexT.set(c.vertexT.subarray(v0, v1), dv);
     shiftInto(c.indices, 3 * t0, 3 * t1, dv - v0, into.indices, 3 * dt);
     cellsInto(c.sourceCell, t0, t1, range.start, into.sourceCell, dt);
-    for (let j = 0; j < into.fields.length; j++) {
-      const f = c.fields[j]!, nc = f.components;
-      if (f.association === 'point') into.fields[j]!.set(f.values.subarray(nc * v0, nc * v1), nc * dv);
-      else into.fields[j]!.set(f.values.subarray(nc * t0, nc * t1), nc * dt);
-    }
+    for (let j = 0; j < into.fields.length; j++) cutFieldInto(h.share, c, h.fields[j]!, v0, v1, t0, t1, into.fields[j]!, h.fields[j]!.association === 'point' ? dv : dt);
   }
+  if (sums) sumOwnBlocks(c, h.fields, runs, into, sums);
   return null;
+}
+
+/**
+ * The blocks of the integral sums that lie wholly in this share's cell triangles (the first run, when it has
+ * any), summed from the share's own geometry and its fields as just written into the merged arrays, into `s`:
+ * the same triangles in the same order as in the merged cut.
+ */
+function sumOwnBlocks(c: PlaneCut, layout: CutCounts['fields'], runs: Int32Array, into: SharedCutArrays, s: ShareSums): void {
+  const pf = c.planeFaces!, cells = pf.emitted.length ? pf.triStart[0]! : c.sourceCell.length;
+  if (cells === 0 || runs.length === 0) return;
+  const first = runs[4]!, dv = runs[5]!, end = first + cells, nb = Math.ceil(s.total / SUM_BLOCK);
+  const b0 = Math.ceil(first / SUM_BLOCK), b1 = end === s.total ? nb : Math.floor(end / SUM_BLOCK);
+  if (b1 <= b0) return;
+  // the fields of the share's own vertices and triangles, numbered as in its cut
+  const fields = layout.map((f, j) => ({ ...f, values: into.fields[j]!.subarray(f.components * (f.association === 'point' ? dv : first)) }));
+  blockSums({ ...c, fields }, sumLayout(fields, s.options), first, s.total, b0, b1, { un: s.un, rho: s.rho, area: s.area }, s.sums);
+  s.done.fill(1, b0, b1);
 }
 
 function shiftInto(src: Uint32Array, a: number, b: number, shift: number, out: Uint32Array, o: number): void {

@@ -29,6 +29,7 @@ import type { Dataset } from '../model/dataset.ts';
 import type { FieldArray } from '../model/fieldArray.ts';
 import { datasetOf, field, hexGrid, pieceFromCells, pointFieldFrom, tetGrid, tetsWithTriangles, withFields } from '../model/meshBuild.ts';
 import type { Piece } from '../model/piece.ts';
+import { oncePerShape, yieldNow } from '../model/warmUpRuns.ts';
 import { forceTotals } from './forces.ts';
 import { getBoundaryFaces } from './surfaceCache.ts';
 import { surfaceLoads, type LoadOptions } from './surfaceLoads.ts';
@@ -91,11 +92,6 @@ function loadOptions(r: number): Partial<LoadOptions> {
   }
 }
 
-const yieldNow = () => new Promise<void>((resolve) => setTimeout(resolve, 0));
-
-/** One warm-up per thread and dataset shape (see `warmUpSurfaceKernels`). */
-const warmed = new Map<((d: Dataset) => Dataset) | undefined, Promise<void>>();
-
 /**
  * Extracts boundaries and integrates force totals on small meshes; resolves when done. Runs once per thread
  * (later calls share it). `reshape` gives the meshes the object shape the real datasets of this thread will
@@ -103,21 +99,14 @@ const warmed = new Map<((d: Dataset) => Dataset) | undefined, Promise<void>>();
  * whose objects the engine sees as another kind: the reader's shapes alone left its first force total
  * unoptimised); each `reshape` warms once.
  */
-export function warmUpSurfaceKernels(reshape?: (d: Dataset) => Dataset): Promise<void> {
-  let run = warmed.get(reshape);
-  if (!run) {
-    run = (async () => {
-      const meshes = (await warmUpMeshes()).map((d) => (reshape ? reshape(d) : d));
-      for (let r = 0; r < ROUNDS; r++) {
-        for (const d of meshes) {
-          const faces = getBoundaryFaces(d);
-          const loads = surfaceLoads(d, faces, allFaces(faces.count), loadOptions(r));
-          forceTotals(d, faces, loads, r % 2 === 0 ? {} : { reference: { rho: 1.2, speed: 10, area: 0.5, length: 0.3 }, momentPoint: [0.5, 0.5, 0.5] });
-          await yieldNow();
-        }
-      }
-    })();
-    warmed.set(reshape, run);
+export const warmUpSurfaceKernels = oncePerShape(async (reshape) => {
+  const meshes = (await warmUpMeshes()).map((d) => (reshape ? reshape(d) : d));
+  for (let r = 0; r < ROUNDS; r++) {
+    for (const d of meshes) {
+      const faces = getBoundaryFaces(d);
+      const loads = surfaceLoads(d, faces, allFaces(faces.count), loadOptions(r));
+      forceTotals(d, faces, loads, r % 2 === 0 ? {} : { reference: { rho: 1.2, speed: 10, area: 0.5, length: 0.3 }, momentPoint: [0.5, 0.5, 0.5] });
+      await yieldNow();
+    }
   }
-  return run;
-}
+});

@@ -39,6 +39,20 @@ export function formatVec(v: ArrayLike<number>, sig = SIGNIFICANT_FIGURES, plain
   return `(${Array.from(v, (x) => formatNumber(x, sig, plain)).join(', ')})`;
 }
 
+/**
+ * `v` rounded to `figures` significant figures of `scale` (a length of the geometry, in v's unit), not of v
+ * itself: every coordinate in a box of that size gets the same absolute step, so a computed centre such as
+ * −0.0024999999999999996 reads −0.0025 and rounding noise beside 0 becomes 0. The result is what a panel shows
+ * and what is computed with. `v` unchanged when it or `scale` is not a finite number (scale must be > 0).
+ */
+export function roundToScale(v: number, scale: number, figures = 6): number {
+  if (!Number.isFinite(v) || !(scale > 0 && Number.isFinite(scale))) return v;
+  const decimals = figures - 1 - Math.floor(Math.log10(scale));
+  if (decimals >= 0) return Number(v.toFixed(Math.min(decimals, 100)));
+  const step = 10 ** -decimals;
+  return Math.round(v / step) * step;
+}
+
 /** Parses a number as formatted by `formatNumber` (either notation); NaN for '—' or junk. */
 export function parseFormatted(text: string): number {
   const t = text.trim().replace(/\u2212/g, '-');

@@ -61,7 +61,7 @@ describe('cliBundle', () => {
       const good = fakeRoot('good');
       const entry = await cachedBundle(good);
       expect(entry.startsWith(cache)).toBe(true);
-      expect(readdirSync(join(entry, '..')).sort()).toEqual(['fieldtally.mjs', 'plainWorker.mjs']);
+      expect(readdirSync(join(entry, '..')).sort()).toEqual(['fieldtally.cjs', 'plainWorker.mjs']);
       expect(await cachedBundle(good)).toBe(entry);
       const bad = fakeRoot('bad', 'const = ;\n');
       await expect(cachedBundle(bad)).rejects.toThrow();

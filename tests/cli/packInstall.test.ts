@@ -39,8 +39,8 @@ describe('npm pack → npm install -g → fieldtally', () => {
 
     const listed = execFileSync('tar', ['-tzf', tarball], { encoding: 'utf8' }).trim().split('\n').sort();
     expect(listed).toEqual([
-      'package/README.md', 'package/bin/fieldtally.mjs', 'package/dist-cli/THIRD-PARTY-NOTICES.txt',
-      'package/dist-cli/fieldtally.mjs', 'package/dist-cli/inflateWorker.mjs', 'package/dist-cli/readWorker.mjs', 'package/dist-cli/seriesWorker.mjs',
+      'package/README.md', 'package/bin/fieldtally.mjs', 'package/bin/hugePages.mjs', 'package/bin/runBundle.mjs', 'package/dist-cli/THIRD-PARTY-NOTICES.txt',
+      'package/dist-cli/fieldtally.cjs', 'package/dist-cli/inflateWorker.mjs', 'package/dist-cli/readWorker.mjs', 'package/dist-cli/seriesWorker.mjs',
       'package/dist-cli/shareWorker.mjs', 'package/dist-cli/textWorker.mjs', 'package/package.json', 'package/src/study/probeSet.schema.json',
     ]);
     const shipped = JSON.parse(execFileSync('tar', ['-xzOf', tarball, 'package/package.json'], { encoding: 'utf8' })) as Record<string, unknown>;

@@ -6,7 +6,7 @@
  * from the rule in crossingCells.ts.
  */
 import { describe, expect, it } from 'vitest';
-import { blockBoxes, boxMayCross, CELL_BLOCK } from '../../src/cut/blockBoxes.ts';
+import { blockBoxes, boxMayCross, CELL_BLOCK, FINE_BLOCK, fineBoxes } from '../../src/cut/blockBoxes.ts';
 import { candidateCells } from '../../src/cut/crossingCells.ts';
 import { CellType } from '../../src/model/cellTypes.ts';
 import { datasetOf, hexGrid, tetGrid } from '../../src/model/meshBuild.ts';
@@ -24,12 +24,12 @@ function nodesOf(p: Piece, c: number): number[] {
   return Array.from(p.connectivity.subarray(p.offsets[c]!, p.offsets[c + 1]!));
 }
 
-function expectBoxesHoldNodes(p: Piece, boxes: Float64Array, exact: boolean): void {
-  const nb = Math.ceil(p.cellTypes.length / CELL_BLOCK);
+function expectBoxesHoldNodes(p: Piece, boxes: Float64Array, exact: boolean, cellsPerBox = CELL_BLOCK): void {
+  const nb = Math.ceil(p.cellTypes.length / cellsPerBox);
   expect(boxes.length).toBe(6 * nb);
   for (let b = 0; b < nb; b++) {
     const lo = [Infinity, Infinity, Infinity], hi = [-Infinity, -Infinity, -Infinity];
-    for (let c = b * CELL_BLOCK; c < Math.min(p.cellTypes.length, (b + 1) * CELL_BLOCK); c++) {
+    for (let c = b * cellsPerBox; c < Math.min(p.cellTypes.length, (b + 1) * cellsPerBox); c++) {
       for (const id of nodesOf(p, c)) for (let k = 0; k < 3; k++) { lo[k] = Math.min(lo[k]!, p.points[3 * id + k]!); hi[k] = Math.max(hi[k]!, p.points[3 * id + k]!); }
     }
     for (let k = 0; k < 3; k++) {
@@ -61,7 +61,10 @@ function bruteForce(d: Dataset, o: V3, n: V3, tol: number): number[] {
 
 describe('block boxes', () => {
   it('hold exactly the nodes of each block, polyhedra by their face stream', () => {
-    for (const p of [hexGrid(7, 6, 9), tetGrid(5, 5, 5), jitteredWedge(6), jitteredPolyhedron(6)]) expectBoxesHoldNodes(p, blockBoxes(p), true);
+    for (const p of [hexGrid(7, 6, 9), tetGrid(5, 5, 5), jitteredWedge(6), jitteredPolyhedron(6)]) {
+      expectBoxesHoldNodes(p, blockBoxes(p), true);
+      expectBoxesHoldNodes(p, fineBoxes(p), true, FINE_BLOCK);
+    }
   });
 
   it('left by a first scan (joined point runs) hold every node of their block, on fixed-stride and general pieces', () => {
@@ -69,6 +72,7 @@ describe('block boxes', () => {
       const d = datasetOf([p]);
       candidateCells(d, 0.37, 0.41, 0.53, 0, 0.6, 0.8, 1e-10, 'scan');
       expectBoxesHoldNodes(p, blockBoxes(p), false);
+      expectBoxesHoldNodes(p, fineBoxes(p), false, FINE_BLOCK);
     }
   });
 
@@ -90,6 +94,8 @@ describe('block boxes', () => {
       { o: [0.5, 0.5, 1.0], n: [0, 0, 1] },       // the face between the two pieces
       { o: [0.31, 0.47, 0.73], n: [0.3, -0.5, 0.81] },
       { o: [0.5, 0.5, 3], n: [0, 0, 1] },         // misses everything
+      { o: [0.5, 0.5, 0.5], n: [1, 0, 0] },       // a layer of nodes across every row: one fine block a row
+      { o: [0.401, 0.5, 0.5], n: [-1, 0.01, 0] }, // fine blocks of one row side by side
     ];
     for (let pass = 0; pass < 2; pass++) {
       for (const { o, n } of planes) {

@@ -15,9 +15,9 @@ import { loadDatasetFile } from '../../src/io/nodeFiles.ts';
 import { cellDimension } from '../../src/model/cellTypes.ts';
 import { datasetBounds } from '../../src/model/bounds.ts';
 import { cellStarts, type Dataset } from '../../src/model/dataset.ts';
-import { datasetOf, hexGrid, pieceFromCells, tetGrid } from '../../src/model/meshBuild.ts';
+import { datasetOf, hexGrid, pieceFromCells, tetGrid, tetsWithTriangles } from '../../src/model/meshBuild.ts';
 import type { Piece } from '../../src/model/piece.ts';
-import { BLOCK, buildCellBlocks, getCellBlocks } from '../../src/locate/cellBlocks.ts';
+import { BLOCK, buildCellBlocks, getCellBlocks, GROUP } from '../../src/locate/cellBlocks.ts';
 import { getCellTree, hasCellTree } from '../../src/locate/cellTree.ts';
 import { probeLine, type LineProbeResult } from '../../src/locate/lineProbe.ts';
 import { createLocation, evaluateCell, locatePoint } from '../../src/locate/locatePoint.ts';
@@ -233,6 +233,27 @@ describe('line samples by a scan of cell blocks', () => {
         }
       }
     });
+  });
+
+  it('group and super-group boxes are the unions of the boxes below them; the volume cells are counted', () => {
+    // two pieces whose block counts are not multiples of GROUP, so a group straddles the pieces; 2D cells in the first
+    const d = datasetOf([tetsWithTriangles(jitteredTet(5), 3), jitteredHex(4)]);
+    const b = getCellBlocks(d);
+    const union = (boxes: Float32Array, from: number, to: number): number[] => {
+      const u = [Infinity, -Infinity, Infinity, -Infinity, Infinity, -Infinity];
+      for (let j = from; j < to; j++) {
+        if (!(boxes[6 * j]! <= boxes[6 * j + 1]!)) continue;
+        for (let a = 0; a < 3; a++) { u[2 * a] = Math.min(u[2 * a]!, boxes[6 * j + 2 * a]!); u[2 * a + 1] = Math.max(u[2 * a + 1]!, boxes[6 * j + 2 * a + 1]!); }
+      }
+      return u;
+    };
+    const nb = b.boxes.length / 6, ng = b.groupBoxes.length / 6;
+    expect(ng).toBe(Math.ceil(nb / GROUP));
+    for (let g = 0; g < ng; g++) expect(Array.from(b.groupBoxes.subarray(6 * g, 6 * g + 6))).toEqual(union(b.boxes, g * GROUP, Math.min(nb, (g + 1) * GROUP)));
+    for (let s = 0; s < b.superBoxes.length / 6; s++) expect(Array.from(b.superBoxes.subarray(6 * s, 6 * s + 6))).toEqual(union(b.groupBoxes, s * GROUP, Math.min(ng, (s + 1) * GROUP)));
+    const volume = d.pieces.reduce((n, p) => n + p.cellTypes.filter((t) => cellDimension(t) === 3).length, 0);
+    expect(b.volumeCellCount).toBe(volume);
+    expect(b.volumeCellCount).toBeLessThan(b.cellCount);
   });
 });
 

@@ -16,7 +16,7 @@ import type { CutCounts } from '../../src/parallel/shareTasks.ts';
 
 function counts(vertices: number, triangles: number, emitted: string[], triStart: number[], vertStart: number[], claimed: string[]): CutCounts {
   return {
-    vertices, triangles, fields: [], candidateCells: 0, candidateSource: 'scan', cutCells: 0, openChains: 0, tolerance: 0,
+    vertices, triangles, fields: [], candidateCells: 0, candidateSource: 'scan', cutCells: 0, openChains: 0, tolerance: 0, ms: 0,
     planeFaces: { emitted, triStart: Int32Array.from(triStart), vertStart: Int32Array.from(vertStart), claimed },
   };
 }

@@ -173,6 +173,13 @@ describe('viewer', () => {
     expect(lines[1]).toMatch(/^# Caution: /);
     expect(lines[2]).toBe('s [m],x [m],y [m],z [m],valid,velocity_x [m/s],velocity_y [m/s],velocity_z [m/s],p [Pa]');
     expect(lines.length).toBe(3 + 201);
+    // the panel shows the line's ends without binary noise (the pipe's centre computed from its bounds was
+    // −0.0024999999999999996): 6 figures of the geometry's size, and the samples are taken there
+    const ends = await Promise.all(['start x [m]', 'start y [m]', 'start z [m]', 'end x [m]', 'end y [m]', 'end z [m]'].map((name) =>
+      page.locator('.lil-controller').filter({ has: page.locator('.lil-name', { hasText: name }) }).locator('input').inputValue()));
+    for (const v of ends) expect(Number(v)).toBe(Number(Number(v).toPrecision(6)));
+    const firstSample = lines[3]!.split(',').slice(1, 4).map(Number);
+    expect(firstSample).toEqual(ends.slice(0, 3).map(Number));
     await shot('05-pipe-line-probe');
   });
 

@@ -1,6 +1,6 @@
 /** Number formatting for pins, table and exports: 4 significant figures, exponents for extremes, round trip. */
 import { describe, expect, it } from 'vitest';
-import { formatBytes, formatNumber, parseFormatted, withUnit } from '../../src/ui/format.ts';
+import { formatBytes, formatNumber, parseFormatted, roundToScale, withUnit } from '../../src/ui/format.ts';
 
 describe('formatNumber', () => {
   it('keeps 4 significant figures, trailing zeros included', () => {
@@ -26,5 +26,23 @@ describe('formatNumber', () => {
   it('sizes bytes', () => {
     expect(formatBytes(999)).toBe('999 B');
     expect(formatBytes(22_350_100)).toBe('22.4 MB');
+  });
+});
+
+describe('roundToScale', () => {
+  it('rounds to significant figures of the geometry, not of the value: binary noise goes, the step is the same everywhere', () => {
+    // a computed centre of a 0.1 m pipe: 6 figures of 0.1 m is a step of 1e-6 m
+    expect(roundToScale(-0.0024999999999999996, 0.1)).toBe(-0.0025);
+    expect(String(roundToScale(-0.0024999999999999996, 0.1))).toBe('-0.0025');
+    expect(roundToScale(0.30000000000000004, 0.1)).toBe(0.3);
+    // noise beside 0 becomes 0 (relative rounding of the value itself would keep 1.3e-17)
+    expect(Math.abs(roundToScale(1.3e-17, 0.1))).toBe(0);
+    expect(roundToScale(0.12345678, 0.1)).toBe(0.123457);
+    // a large geometry: steps above 1
+    expect(roundToScale(123456789.4, 2e6)).toBe(123456790);
+    expect(roundToScale(-3.5e6 + 0.25, 2e6)).toBe(-3500000);
+    // nothing to scale by: unchanged
+    expect(roundToScale(0.1 + 0.2, 0)).toBe(0.1 + 0.2);
+    expect(roundToScale(NaN, 1)).toBeNaN();
   });
 });

@@ -10,10 +10,8 @@ import {
   footer, integralOptions, integralsJson, integralsTable, num, regionSpecs,
 } from '../cutCommon.ts';
 import type { Verb } from '../verb.ts';
-import { WORKER_OPTIONS } from '../workerOption.ts';
-import { loadForOneShot, ONE_SHOT_WORKER_HELP } from '../oneShotLoad.ts';
+import { loadForOneShot, ONE_SHOT_WORKER_HELP, ONE_SHOT_WORKER_OPTIONS } from '../oneShotLoad.ts';
 import { DERIVED_HELP, DERIVED_OPTIONS, withDerivedArgs } from '../derivedArgs.ts';
-import { primeDerivedGradients } from '../../parallel/deriveShares.ts';
 
 const cut: Verb = {
   summary: 'cut-plane integrals: area, flow rates, area- and mass-flow-weighted means, total pressure',
@@ -25,7 +23,7 @@ const cut: Verb = {
     '  --fields a,b            derived fields to add: their integrals, means and ranges are reported with the file\'s fields',
     DERIVED_HELP, FIELD_RULE, ONE_SHOT_WORKER_HELP, SIGN_CONVENTION, UNITS_NOTE,
   ].join('\n'),
-  options: { origin: 'string', normal: 'string', ...REGION_OPTIONS, ...FIELD_OPTIONS, fields: 'string', ...DERIVED_OPTIONS, ...WORKER_OPTIONS },
+  options: { origin: 'string', normal: 'string', ...REGION_OPTIONS, ...FIELD_OPTIONS, fields: 'string', ...DERIVED_OPTIONS, ...ONE_SHOT_WORKER_OPTIONS },
   async run(argv, io) {
     const args = parseArgs(argv, this.options, 'cut');
     const file = args.positional[0];
@@ -42,7 +40,10 @@ const cut: Verb = {
       const none = (v: string | undefined) => (v === 'none' ? undefined : v);
       const rho = none(str(args, 'rho'));
       // with workers, the velocity gradient of the derived fields is computed by them (deriveShares.ts)
-      if (input.pool) await primeDerivedGradients(input.pool, extra, { velocity: none(str(args, 'velocity')) });
+      if (input.pool) {
+        const { primeDerivedGradients } = await import('../../parallel/deriveShares.ts');
+        await primeDerivedGradients(input.pool, extra, { velocity: none(str(args, 'velocity')) });
+      }
       dataset = withDerivedArgs(input.dataset, [...extra, ...[str(args, 'velocity'), str(args, 'pressure'), rho].filter((x): x is string => !!x)], args, {
         velocity: none(str(args, 'velocity')), pressure: none(str(args, 'pressure')), kinematicPressure: args.options.kinematic === true,
         ...(rho !== undefined ? { density: /^[-+]?(\d|\.\d)/.test(rho.trim()) ? Number(rho) : rho } : {}),

@@ -15,7 +15,8 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { workerEntries } from '../../../bin/cliBundle.mjs';
 import { main } from '../../../src/cli/main.ts';
 import { parseArgs } from '../../../src/cli/args.ts';
-import { loadForOneShot } from '../../../src/cli/oneShotLoad.ts';
+import { loadForOneShot, ONE_SHOT_WORKER_OPTIONS } from '../../../src/cli/oneShotLoad.ts';
+import { WORKER_OPTIONS } from '../../../src/cli/workerOption.ts';
 import { writeVtu } from '../../../src/io/writeVtu.ts';
 import { PIPE_LEVELS, pipeCase, pipeExact } from '../../../src/samples/pipe.ts';
 
@@ -66,6 +67,7 @@ describe('one-shot cut', () => {
   });
 
   it('opens no pool unless --workers N ≥ 2 is given (FIELDTALLY_WORKERS does not start one)', async () => {
+    expect(ONE_SHOT_WORKER_OPTIONS).toEqual(WORKER_OPTIONS);
     const options = { workers: 'string' } as const;
     const saved = process.env.FIELDTALLY_WORKERS;
     process.env.FIELDTALLY_WORKERS = '2';
@@ -95,21 +97,23 @@ describe('one-shot cut', () => {
       execFileSync(process.execPath, [join(REPO, 'bin', 'fieldtally.mjs'), ...argv], { cwd: dir, encoding: 'utf8', env: { ...env, ...extra } });
     const expected = await inProcess(cutArgs(raw));
     expect(withoutTime(bin(cutArgs(raw)))).toEqual(expected);
+    // zlib blocks inflated by the bundle's fflate (its build without threads) give the sources' numbers
+    expect(withoutTime(bin(cutArgs(zlib)))).toEqual(await inProcess(cutArgs(zlib)));
     // one folder of bundles, with the command and every worker beside it
     const base = readdirSync(cache).filter((f) => f.startsWith('fieldtally-cli-'));
     expect(base).toHaveLength(1);
     const stamps = readdirSync(join(cache, base[0]!));
     expect(stamps).toHaveLength(1);
     const built = join(cache, base[0]!, stamps[0]!);
-    expect(readdirSync(built).sort()).toEqual(['fieldtally.mjs', ...Object.keys(workerEntries(REPO)).map((k) => `${k}Worker.mjs`)].sort());
+    expect(readdirSync(built).sort()).toEqual(['fieldtally.cjs', ...Object.keys(workerEntries(REPO)).map((k) => `${k}Worker.mjs`)].sort());
     expect(readdirSync(built)).toEqual(expect.arrayContaining(['inflateWorker.mjs', 'seriesWorker.mjs', 'shareWorker.mjs']));
-    const time = statSync(join(built, 'fieldtally.mjs')).mtimeMs;
+    const time = statSync(join(built, 'fieldtally.cjs')).mtimeMs;
     // a second run reuses it; the pool's workers start from the bundles beside it
     expect(withoutTime(bin([...cutArgs(raw), '--workers', '2']))).toEqual(expected);
-    expect(statSync(join(built, 'fieldtally.mjs')).mtimeMs).toBe(time);
+    expect(statSync(join(built, 'fieldtally.cjs')).mtimeMs).toBe(time);
     expect(readdirSync(join(cache, base[0]!))).toEqual(stamps);
     // the TypeScript sources through tsx, on request: the same numbers
     expect(withoutTime(bin(cutArgs(raw), { FIELDTALLY_CLI_FROM_SOURCE: '1' }))).toEqual(expected);
-    expect(existsSync(join(built, 'fieldtally.mjs'))).toBe(true);
+    expect(existsSync(join(built, 'fieldtally.cjs'))).toBe(true);
   }, 180_000);
 });
