@@ -16,6 +16,7 @@ export default defineConfig({
           exclude: ['tests/system/**', 'node_modules/**'],
           environment: 'node',
           testTimeout: 60_000,
+          hookTimeout: 60_000,
           pool: 'forks',
         },
       },

@@ -95,7 +95,7 @@ export async function writeBundle(root, dir, overrides = {}) {
   const main = await build({
     ...common, format: 'cjs', entryPoints: [join(root, 'src/cli/run.ts')], outfile: join(dir, BUNDLE_ENTRY),
     supported: { 'dynamic-import': false },
-    define: { ...common.define, 'import.meta.url': 'fieldtallyModuleUrl' },
+    define: { ...common.define, 'import.meta.url': 'fieldtallyModuleUrl', 'import.meta.filename': '__filename', 'import.meta.dirname': '__dirname' },
     banner: { js: "var fieldtallyModuleUrl = require('node:url').pathToFileURL(__filename).href;" },
   });
   const inputs = Object.keys(main.metafile?.inputs ?? {});

@@ -33,7 +33,8 @@ describe('code cache of the bundled command', () => {
     return { status: r.status, stdout: r.stdout, said, rest };
   };
   const base = join(temp, `fieldtally-code-${userInfo().uid}`);
-  const folder = () => join(base, readdirSync(base)[0]!);
+  /** The cache folder of the command's bundle (the one holding cut.bin). */
+  const folder = () => join(base, readdirSync(base).find((f) => existsSync(join(base, f, 'cut.bin')))!);
   const withoutTime = (text: string) => { const j = JSON.parse(text) as { cut: { ms?: number } }; delete j.cut.ms; return j; };
 
   it('is written by the first run of a verb and used by the next, which prints the same numbers', async () => {
@@ -78,7 +79,8 @@ describe('code cache of the bundled command', () => {
     const dir = join(work, 'fake-bundle');
     await writeBundle(root, dir, { logLevel: 'silent' });
     const script = `import(${JSON.stringify(pathToFileURL(join(REPO, 'bin/runBundle.mjs')).href)}).then((m) => m.runBundle(${JSON.stringify(join(dir, BUNDLE_ENTRY))}, ['join', 'a', 'b']))`;
-    const runs = [0, 1, 2].map(() => spawnSync(process.execPath, ['-e', script], { encoding: 'utf8', env: { ...process.env, TMPDIR: temp, FIELDTALLY_DEBUG: '1', FIELDTALLY_CODE_CACHE: '' } }));
+    const own = mkdtempSync(join(work, 'tmp-'));
+    const runs = [0, 1, 2].map(() => spawnSync(process.execPath, ['-e', script], { encoding: 'utf8', env: { ...process.env, TMPDIR: own, FIELDTALLY_DEBUG: '1', FIELDTALLY_CODE_CACHE: '' } }));
     expect(runs.map((r) => [r.status, r.stdout, r.stderr.split('\n').filter((l) => l.startsWith('fieldtally: code cache: ')).map((l) => l.slice(24).split(' ')[0])]))
       .toEqual([[3, 'join/a/b\n', ['none', 'written']], [3, 'join/a/b\n', ['used']], [3, 'join/a/b\n', ['used']]]);
   }, 60_000);
