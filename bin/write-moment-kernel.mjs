@@ -275,22 +275,25 @@ function incidenceBody() {
  * Emits the walk of node `node`'s cells: every node of them not yet stamped `tick` is stamped and appended at
  * byte address `n` (n advances). Locals are the caller's.
  */
-function emitCellWalk(a, L, node) {
+function emitCellWalk(a, L, node, skipWalkedCells) {
   const { tick, stamps, cellStamps, conn, off, inc, cells, ca, cb, b, be, q, sq, n } = L;
   a.get(node); a.i32(2); a.shl(); a.get(inc); a.add(); a.tee(ca); a.load(4); a.i32(2); a.shl(); a.get(cells); a.add(); a.set(cb);
   a.get(ca); a.load(); a.i32(2); a.shl(); a.get(cells); a.add(); a.set(ca);
-  a.each(ca, cb, 4, () => {
-    // a cell already walked under this tick adds nothing: skip it (a two-ring meets each cell many times)
-    a.get(ca); a.load(); a.tee(q); a.i32(2); a.shl(); a.get(cellStamps); a.add(); a.tee(sq); a.load(); a.get(tick); a.ne();
-    a.ifThen(() => {
-    a.get(sq); a.get(tick); a.store();
+  const walkCell = () => {
     a.get(q); a.i32(2); a.shl(); a.get(off); a.add(); a.tee(b); a.load(4); a.i32(2); a.shl(); a.get(conn); a.add(); a.set(be);
     a.get(b); a.load(); a.i32(2); a.shl(); a.get(conn); a.add(); a.set(b);
     a.each(b, be, 4, () => {
       a.get(b); a.load(); a.tee(q); a.i32(2); a.shl(); a.get(stamps); a.add(); a.tee(sq); a.load(); a.get(tick); a.ne();
       a.ifThen(() => { a.get(sq); a.get(tick); a.store(); a.get(n); a.get(q); a.store(); a.get(n); a.i32(4); a.add(); a.set(n); });
     });
-    });
+  };
+  a.each(ca, cb, 4, () => {
+    a.get(ca); a.load(); a.set(q);
+    if (!skipWalkedCells) { walkCell(); return; }
+    // a cell already walked under this tick adds nothing: skip it (a two-ring meets each cell many times; a
+    // one-ring meets each once)
+    a.get(q); a.i32(2); a.shl(); a.get(cellStamps); a.add(); a.tee(sq); a.load(); a.get(tick); a.ne();
+    a.ifThen(() => { a.get(sq); a.get(tick); a.store(); walkCell(); });
   });
 }
 
@@ -310,7 +313,7 @@ function walkBody() {
   const a = assembler(2), I = 0, AT = 1;
   const L = ringLocals(a, I);
   a.get(AT); a.set(L.n);
-  emitCellWalk(a, L, I);
+  emitCellWalk(a, L, I, false);
   a.get(L.n); a.get(AT); a.sub(); a.i32(2); a.shrU();
   return a.finish();
 }
@@ -324,7 +327,7 @@ function twoRingBody() {
   a.each(s, se, 4, () => {
     a.get(s); a.load(); a.tee(j); a.i32(2); a.shl(); a.get(L.stamps); a.add(); a.tee(L.sq); a.load(); a.get(L.tick); a.ne();
     a.ifThen(() => { a.get(L.sq); a.get(L.tick); a.store(); a.get(L.n); a.get(j); a.store(); a.get(L.n); a.i32(4); a.add(); a.set(L.n); });
-    emitCellWalk(a, L, j);
+    emitCellWalk(a, L, j, true);
   });
   a.get(L.n); a.get(AT); a.sub(); a.i32(2); a.shrU();
   return a.finish();

@@ -73,6 +73,8 @@ export function holdMesh(K: MomentKernel, p: Piece, values: NumericArray, nc: nu
     held = h = null;
     const { pos, val, cn, off, inc, ids, stamps, cellStamps, ring1, ring2, slots } = layout(p);
     if (slots > MAX_HELD_BYTES) return null;
+    // a new memory is all zeros past the header: the stamps and counts need no clearing
+    const fresh = K.bytes < slots;
     try {
       // nothing of the memory is kept but the header (every part is written anew)
       kernelBytes(K, slots, KERNEL_LAYOUT.slotsAt);
@@ -82,13 +84,13 @@ export function holdMesh(K: MomentKernel, p: Piece, values: NumericArray, nc: nu
     K.f64.set(p.points, pos / 8);
     K.i32.set(p.connectivity, cn / 4);
     K.i32.set(p.offsets, off / 4);
-    K.i32.fill(0, stamps / 4, cellStamps / 4 + cells);
+    if (!fresh) K.i32.fill(0, stamps / 4, cellStamps / 4 + cells);
     const c = (KERNEL_LAYOUT.configAt) / 4, C = KERNEL_CONFIG;
     K.i32[c + C.positions / 4] = pos; K.i32[c + C.values / 4] = val; K.i32[c + C.connectivity / 4] = cn; K.i32[c + C.offsets / 4] = off;
     K.i32[c + C.incidence / 4] = inc + 8; K.i32[c + C.cells / 4] = ids; K.i32[c + C.stamps / 4] = stamps; K.i32[c + C.tick / 4] = 0;
     K.i32[c + C.cellStamps / 4] = cellStamps; K.i32[c + C.ring1 / 4] = ring1; K.i32[c + C.ring2 / 4] = ring2;
     K.f64[(KERNEL_LAYOUT.statsAt + KERNEL_STATS.oneSided) / 8] = ONE_SIDED;
-    buildIncidence(K, np, cells, inc);
+    buildIncidence(K, np, cells, inc, fresh);
     h = { points: new WeakRef(p.points), connectivity: new WeakRef(p.connectivity), offsets: new WeakRef(p.offsets), nodes: np, cells, slots, values: null, nc: 0 };
   }
   if (h.values?.deref() !== values || h.nc !== nc) {
@@ -111,9 +113,9 @@ export function holdMesh(K: MomentKernel, p: Piece, values: NumericArray, nc: nu
 /** Cells per call of the kernel's incidence passes (the first calls run in the baseline tier). */
 const CHUNK = 1 << 15;
 
-/** The held mesh's node → cells rows (starts from byte `inc` + 8, np + 3 entries from `inc`). */
-function buildIncidence(K: MomentKernel, np: number, cells: number, inc: number): void {
-  K.i32.fill(0, inc / 4, inc / 4 + np + 3);
+/** The held mesh's node → cells rows (starts from byte `inc` + 8, np + 3 entries from `inc`; `zeroed`: they are 0 already). */
+function buildIncidence(K: MomentKernel, np: number, cells: number, inc: number, zeroed: boolean): void {
+  if (!zeroed) K.i32.fill(0, inc / 4, inc / 4 + np + 3);
   for (let c = 0; c < cells; c += CHUNK) K.incidence(np, c, Math.min(cells, c + CHUNK), 0);
   K.incidence(np, 0, 0, 1);
   for (let c = cells; c > 0; c -= CHUNK) K.incidence(np, Math.max(0, c - CHUNK), c, 2);

@@ -15,6 +15,7 @@ import { pointStencilAround } from '../../src/derive/localStencil.ts';
 import { smoothFields } from './smoothFields.ts';
 import { boxMesh, rng, type BoxKind } from '../cut/meshes.ts';
 import { meshInto } from '../../src/derive/pairedFit.ts';
+import { holdMesh } from '../../src/derive/kernelMesh.ts';
 import { nodeRanges } from '../../src/derive/rangeGradient.ts';
 import type { Piece } from '../../src/model/piece.ts';
 import type { NumericArray } from '../../src/model/fieldArray.ts';
@@ -131,6 +132,24 @@ describe('the kernel walking its own copy of the mesh (kernelMesh.ts, pairedFit.
       }
     });
   }
+
+  it('makes room for a ring larger than the memory it was given (a node in 1500 tetrahedra: a ring of 4500), same bits', () => {
+    const r = rng(11), n = 1500, np = 1 + 3 * n;
+    const points = new Float64Array(3 * np);
+    for (let i = 3; i < 3 * np; i++) points[i] = r() - 0.5;
+    const connectivity = new Int32Array(4 * n), offsets = new Int32Array(n + 1);
+    for (let k = 0; k < n; k++) { connectivity.set([0, 1 + 3 * k, 2 + 3 * k, 3 + 3 * k], 4 * k); offsets[k + 1] = 4 * (k + 1); }
+    const fan: Piece = { points, connectivity, offsets, cellTypes: new Uint8Array(n).fill(10), pointData: [], cellData: [] };
+    const u = Float64Array.from({ length: 3 * np }, (_, i) => Math.sin(points[i]! * 3 + (i % 3)) + points[i - (i % 3)]! ** 2);
+    const K = momentKernel()!, ref = reference(fan, u, 3);
+    // held first: the fit itself must then find its slots short and move to a larger memory mid-way
+    expect(holdMesh(K, fan, u, 3)).not.toBeNull();
+    const memory = K.memory, got = walked(fan, u, 3, 1);
+    expect(got.sizes[0]).toBe(3 * n);
+    expect(K.memory).not.toBe(memory);
+    expect(differing(got.out, ref.out)).toBe(0);
+    expect(Array.from(got.sizes)).toEqual(Array.from(ref.sizes));
+  });
 
   it('holds one mesh at a time (another mesh, then the first again), a twin node carrying NaN and a node in no cell', () => {
     const a = boxMesh('hex', 4, 4, 3, 0.2), b = boxMesh('tet', 3, 4, 3, 0.2);
