@@ -3,8 +3,11 @@
  * messages by running `shareTasks.ts` on the share. Platform-neutral: the Node bootstrap
  * (workers/shareWorker.node.mjs) and the browser entry (workers/share.worker.ts) hand it their port.
  *
- * Messages: `{ id, op, args }` in, `{ id, ok: true, result }` or `{ id, ok: false, error }` out. Result arrays
- * are fresh and go back by transfer; the shared dataset is never transferred. A cut is kept here until the
+ * Messages: `{ id, op, args }` in, `{ id, ok: true, result }` or `{ id, ok: false, error }` out. Results are
+ * copied, never transferred: no array buffer is ever detached in a share worker, so the engine keeps compiling
+ * its typed-array code without detach checks (the first detach in a thread throws away every optimised function
+ * that touched a typed array, and spending it up front slows every access ~15 %; DEVELOPERS.md, "The worker
+ * pool"). Large results go through shared memory (the cut, the node quantities); the rest are small. A cut is kept here until the
  * host says where to write it in the merged cut's shared arrays (`placeCuts.ts`).
  */
 import { totalCells, type Dataset } from '../model/dataset.ts';
@@ -14,7 +17,6 @@ import { gradientShare, type GradientShare } from './deriveShares.ts';
 import { shareDataset, type CellShare } from './shares.ts';
 import { prepareCut } from '../cut/cutPlane.ts';
 import { warmUpCutKernels } from '../cut/warmUp.ts';
-import { detachOnce } from './detachOnce.ts';
 import { warmUpShareKernels } from './shareWarmUp.ts';
 import { warmUpFitKernels } from '../derive/warmUpFit.ts';
 import { warmUpLocateKernels } from '../locate/warmUp.ts';
@@ -42,13 +44,6 @@ export type ShareReply = { id: number; ok: true; result: unknown } | { id: numbe
 export interface SharePort {
   postMessage(message: ShareReply, transfer: ArrayBuffer[]): void;
   onMessage(handler: (message: ShareMessage) => void): void;
-}
-
-/** Non-shared array buffers reachable from a result (to transfer, not copy). */
-function transferables(x: unknown, out: Set<ArrayBuffer>, depth = 0): void {
-  if (x === null || typeof x !== 'object' || depth > 6) return;
-  if (ArrayBuffer.isView(x)) { if (x.buffer instanceof ArrayBuffer) out.add(x.buffer); return; }
-  for (const v of Array.isArray(x) ? x : Object.values(x)) transferables(v, out, depth + 1);
 }
 
 /** What a worker reports about its memory (bytes), where the platform can tell: JS heap in use and its own (non-shared) array buffers. */
@@ -84,21 +79,15 @@ export function serveShares(port: SharePort, memory: () => WorkerMemory | null =
     return boundaryShare(share, range, m.withMerge);
   };
   const answer = (m: ShareMessage): void => {
-    let reply: ShareReply, transfer: ArrayBuffer[] = [];
+    let reply: ShareReply;
     try {
-      const result = run(m);
-      const set = new Set<ArrayBuffer>();
-      // an evaluation may hold arrays this worker keeps in its caches: it is copied, never transferred
-      if (m.op !== 'evaluate') transferables(result, set);
-      transfer = [...set];
-      reply = { id: m.id, ok: true, result };
+      reply = { id: m.id, ok: true, result: run(m) };
     } catch (e) {
       reply = { id: m.id, ok: false, error: e instanceof Error ? e.message : String(e) };
     }
-    port.postMessage(reply, transfer);
+    // copied, not transferred: see the file comment
+    port.postMessage(reply, []);
   };
-  // replies transfer their arrays: the first detach would drop every compiled kernel, so it happens before the warm-up
-  detachOnce();
   let queue: Promise<void> = warmUp().catch(() => undefined);
   port.onMessage((m) => { queue = queue.then(() => answer(m)); });
 }
