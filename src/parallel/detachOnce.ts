@@ -5,7 +5,9 @@
  * that touched a typed array, in that thread, at once. A pool worker's first reply did that right after its
  * first cut, so its next cut ran its scan, cut and placement unoptimised (about 24 MB of boxed doubles, 3–5×
  * the CPU) while they were compiled again. Detached here, before the warm-up, the kernels are compiled once
- * with the detach checks and stay.
+ * with the detach checks and stay — at the price of those checks on every typed-array access (~15 % on the
+ * wall fit). So share workers no longer transfer anything (shareHost.ts posts copies) and do not call this;
+ * the app's compute worker, whose replies must transfer drawing arrays, does.
  */
 let done = false;
 

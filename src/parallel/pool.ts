@@ -97,7 +97,7 @@ export class ComputePool {
    * Whether `integratePlane` has the workers sum the integral's blocks that lie in their own triangles as they
    * place them (same bits as summing them all here; see `cutInPlace`). Default false: on the 1M-tetrahedron
    * sample, pool of 2, it saved nothing (later cut 59–63 against 56–57 ms of CPU). It once cost 120 ms more;
-   * that was the workers' first-transfer deoptimisations, gone since (detachOnce.ts).
+   * that was the workers' first-transfer deoptimisations, gone since (share workers transfer nothing: shareHost.ts).
    */
   sumInWorkers = false;
   private constructor(readonly dataset: Dataset, readonly shares: readonly CellShare[], private readonly lanes: Lane[]) {}
