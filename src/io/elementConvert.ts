@@ -203,11 +203,12 @@ export function finishDirect(plan: ArrayPlan, out: NumericArray, from: number, c
 /** The least and greatest value of the last run summed up (`rangeOfRun`, `narrowLowFirst`, `narrowHighFirst`). */
 const runRange = new Int32Array(2);
 
-/** Least and greatest value of `a` (non-empty) into `runRange`, without a branch per value. */
-function rangeOfRun(a: Int32Array): void {
-  let lo = a[0]!, hi = lo;
-  for (let i = 1; i < a.length; i++) { const v = a[i]!; lo = v < lo ? v : lo; hi = v > hi ? v : hi; }
+/** Least and greatest value of `a[a0, a1)` (non-empty) into `runRange`, which it returns; no branch per value. */
+export function rangeOfRun(a: Int32Array, a0 = 0, a1 = a.length): Int32Array {
+  let lo = a[a0]!, hi = lo;
+  for (let i = a0 + 1; i < a1; i++) { const v = a[i]!; lo = v < lo ? v : lo; hi = v > hi ? v : hi; }
   runRange[0] = lo; runRange[1] = hi;
+  return runRange;
 }
 
 /** Index of the first value of `a` outside `[min, max]`, or −1. */

@@ -12,7 +12,7 @@
 import type { ArrayScan } from '../model/arrayScans.ts';
 import type { NumericArray } from '../model/fieldArray.ts';
 import { ELEMENT_SIZE } from './elementTypes.ts';
-import { convertChunk, finishDirect, isDirect, lastIdRun, type ArrayPlan } from './elementConvert.ts';
+import { convertChunk, finishDirect, isDirect, lastIdRun, rangeOfRun, type ArrayPlan } from './elementConvert.ts';
 
 /** Fills all of `target` with the file's bytes from byte `offset` (throws when the file ends first). */
 export type FillSync = (offset: number, target: Uint8Array) => void;
@@ -71,10 +71,13 @@ export class ChunkScan {
     if (this.ids && k > 0) {
       // The check of these ids (`finishDirect`, `convertChunk`) summed up their range already, as a rule.
       const run = lastIdRun;
-      const r = run.out?.deref() === this.out && run.from === i && run.count === k ? (range[0] = run.min, range[1] = run.max, range)
-        : rangeOf(this.out as Int32Array, a0, a0 + k);
-      if (r[0]! < this.min) this.min = r[0]!;
-      if (r[1]! > this.max) this.max = r[1]!;
+      let lo = run.min, hi = run.max;
+      if (!(run.out?.deref() === this.out && run.from === i && run.count === k)) {
+        const r = rangeOfRun(this.out as Int32Array, a0, a0 + k);
+        lo = r[0]!; hi = r[1]!;
+      }
+      if (lo < this.min) this.min = lo;
+      if (hi > this.max) this.max = hi;
       this.any = true;
     }
   }
@@ -105,16 +108,6 @@ function nonFiniteIn32(a: Float32Array, a0: number, a1: number): number {
   if (s === 0) return -1;
   for (let j = a0; j < a1; j++) { const x = a[j]!; if (x - x !== 0) return j; }
   return -1;
-}
-
-const range = new Int32Array(2);
-
-/** Least and greatest value of `a[a0, a1)` (non-empty), in a module pair. */
-function rangeOf(a: Int32Array, a0: number, a1: number): Int32Array {
-  let lo = a[a0]!, hi = lo;
-  for (let j = a0 + 1; j < a1; j++) { const v = a[j]!; if (v < lo) lo = v; else if (v > hi) hi = v; }
-  range[0] = lo; range[1] = hi;
-  return range;
 }
 
 /** The scan of a whole array from its parts' scans, in order (see `readPartSync`). */
