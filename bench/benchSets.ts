@@ -16,6 +16,7 @@ export const HEAVY: Readonly<Record<string, string>> = {
   load: 'reads the ten 1M-cell files of sample-fields/large/ (writes them when missing)',
   series: 'writes and reads a 200-step series of 100k cells',
   startup: 'packs and installs the command (npm pack) before timing it',
+  appScale: 'the app in headless chromium on a 10M-hexahedron file (1.3 GB of disk, about 2 GB of browser memory)',
 };
 
 /** The words that stand for a set rather than one benchmark. */

@@ -27,11 +27,11 @@ import { writeVtu } from '../src/io/writeVtu.ts';
 import { datasetOf, hexGrid, pointFieldFrom, withFields } from '../src/model/meshBuild.ts';
 
 const ROOT = resolve(dirname(fileURLToPath(import.meta.url)), '..');
-const OUT = join(ROOT, 'bench', 'out');
+export const OUT = join(ROOT, 'bench', 'out');
 const GOALS = { loadMs: 1500, firstCutMs: 300, loadPeakOverDecoded: 1.3, growth: 12 };
 
 /** Writes the lattice with `nz` layers (nz/10 million cells) as appended raw .vtu; returns its path. */
-function writeLattice(nz: number): string {
+export function writeLattice(nz: number): string {
   const p = hexGrid(100, 100, nz);
   const d = datasetOf([withFields(p, [
     pointFieldFrom(p, 'velocity', 3, (x, y, z, o) => { o[0] = 0.1 * y; o[1] = -0.1 * x; o[2] = 4 * x * (1 - x) * y * (1 - y) + 0.01 * z; }),
