@@ -19,6 +19,7 @@ import { Checkpoint, checkAborted, type LoadOptions, type ResolveSource } from '
 import { fileSettings, readVtkXmlInput, unsupportedTypeError } from './vtkXml.ts';
 import { scanXmlSource } from './xmlHead.ts';
 import { child, scanXml, type XmlElement } from './xmlScan.ts';
+import { GHOST_ARRAY } from '../model/ghostCells.ts';
 
 const PARALLEL: Readonly<Record<string, string>> = { PUnstructuredGrid: 'UnstructuredGrid', PPolyData: 'PolyData' };
 const COMPOSITE = new Set(['vtkMultiBlockDataSet', 'vtkPartitionedDataSet', 'vtkPartitionedDataSetCollection']);
@@ -116,7 +117,8 @@ function addLeaf(acc: Collected, d: Dataset, path: string, declared: { point: st
   for (const p of d.pieces) {
     for (const [assoc, names] of [['point', declared.point], ['cell', declared.cell]] as const) {
       const have = (assoc === 'point' ? p.pointData : p.cellData).map((f) => f.name);
-      const missing = names.filter((n) => !have.includes(n));
+      // the ghost flags are read and dropped with the ghost cells (src/model/ghostCells.ts)
+      const missing = names.filter((n) => n !== GHOST_ARRAY && !have.includes(n));
       if (missing.length) acc.warnings.push(`${path}: ${assoc} arrays declared by the set are missing: ${missing.map((n) => `"${n}"`).join(', ')}`);
     }
   }

@@ -17,6 +17,7 @@ import { readSectionFields } from './xmlFields.ts';
 import { facesFromStream, facesFromTables } from './xmlPolyhedra.ts';
 import { appendedMatches } from './sameBlock.ts';
 import { child, type XmlElement } from './xmlScan.ts';
+import { ghostNote, withoutGhostCells } from '../model/ghostCells.ts';
 
 /** A piece with what the file declared about its cells. */
 export interface PieceResult {
@@ -186,5 +187,8 @@ export async function readXmlPiece(ctx: XmlFileContext, pieceEl: XmlElement, kin
   // geometry that is wholly the piece read before was checked then: only the fields are new
   const checked = before && !polyFaces && points === before.points && lin.connectivity === before.connectivity && lin.offsets === before.offsets && lin.cellTypes === before.cellTypes;
   if (checked) validateFields(piece, where); else validatePiece(piece, where);
-  return { piece, fileCellTypes: lin.fileCellTypes, warnings: lin.warnings.map((w) => `piece ${index}: ${w}`) };
+  const warnings = lin.warnings.map((w) => `piece ${index}: ${w}`);
+  const ghostFree = withoutGhostCells(piece, where);
+  if (ghostFree.leftOut) warnings.push(ghostNote(`piece ${index}`, ghostFree.leftOut));
+  return { piece: ghostFree.piece, fileCellTypes: lin.fileCellTypes, warnings };
 }

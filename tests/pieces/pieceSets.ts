@@ -71,3 +71,35 @@ export function writeVtm(dir: string, name: string, d: Dataset, pieces: Piece[],
   writeFileSync(path, text);
   return path;
 }
+
+/**
+ * Like `splitDataset`, but each piece also holds one layer of ghost cells: every cell of another piece that
+ * shares a node with one of its own cells, flagged 1 (a duplicate of another piece's cell) in a UInt8 cell
+ * array `vtkGhostType`, VTK's ghost convention; own cells are flagged `ownFlag` (0, or bits that keep a cell).
+ * With `pointFlags`, a point array of the same name flags the points only ghost cells use.
+ */
+export function splitWithGhosts(d: Dataset, n: number, rule: PieceRule, ownFlag = 0, pointFlags = false): Piece[] {
+  const p = d.pieces[0]!, nc = cellCount(p);
+  const owner = new Int32Array(nc);
+  for (let c = 0; c < nc; c++) {
+    let x = 0, y = 0, z = 0;
+    const a = p.offsets[c]!, b = p.offsets[c + 1]!;
+    for (let q = a; q < b; q++) { const i = 3 * p.connectivity[q]!; x += p.points[i]!; y += p.points[i + 1]!; z += p.points[i + 2]!; }
+    owner[c] = rule(x / (b - a), y / (b - a), z / (b - a));
+  }
+  return Array.from({ length: n }, (_, k) => {
+    const touched = new Uint8Array(p.points.length / 3);
+    for (let c = 0; c < nc; c++) if (owner[c] === k) for (let q = p.offsets[c]!; q < p.offsets[c + 1]!; q++) touched[p.connectivity[q]!] = 1;
+    const cells: number[] = [];
+    const flags = new Uint8Array(nc);
+    for (let c = 0; c < nc; c++) {
+      if (owner[c] === k) { cells.push(c); flags[c] = ownFlag; continue; }
+      for (let q = p.offsets[c]!; q < p.offsets[c + 1]!; q++) if (touched[p.connectivity[q]!]) { cells.push(c); flags[c] = 1; break; }
+    }
+    const pointData = pointFlags
+      ? [...p.pointData, { name: 'vtkGhostType', association: 'point' as const, components: 1, values: Uint8Array.from(touched, (t) => (t ? 0 : 1)), sourceType: 'UInt8' }]
+      : p.pointData;
+    const flagged: Piece = { ...p, pointData, cellData: [...p.cellData, { name: 'vtkGhostType', association: 'cell', components: 1, values: flags, sourceType: 'UInt8' }] };
+    return subPiece(flagged, Int32Array.from(cells), new Float64Array(0)).piece;
+  });
+}
