@@ -14,7 +14,7 @@ import type { Dataset, DatasetKind, FieldStrings } from '../model/dataset.ts';
 import type { FieldArray } from '../model/fieldArray.ts';
 import type { Piece } from '../model/piece.ts';
 import { validatePiece } from '../model/validate.ts';
-import { ghostNote, withoutGhostCells } from '../model/ghostCells.ts';
+import { countsWithoutGhosts, ghostNote, withoutGhostCells } from '../model/ghostCells.ts';
 import { bytesSource, inMemoryBytes, type ByteSource } from './byteSource.ts';
 import { readWhole } from './sourceArrays.ts';
 import { linearizeCells, polyDataCells, unreadCellType, type PolySection } from './cellAssembly.ts';
@@ -255,5 +255,5 @@ function assemble(name: string, kind: DatasetKind, parts: Parts, warnings: strin
   const ghostFree = withoutGhostCells(piece, name);
   if (ghostFree.leftOut) warnings.push(ghostNote(name, ghostFree.leftOut));
   const strings = parts.fieldStrings.length ? { fieldStrings: parts.fieldStrings } : {};
-  return { source: name, kind, pieces: [ghostFree.piece], fieldData: parts.fieldData, warnings, fileCellTypes, ...strings };
+  return { source: name, kind, pieces: [ghostFree.piece], fieldData: parts.fieldData, warnings, fileCellTypes: countsWithoutGhosts(fileCellTypes, ghostFree), ...strings };
 }

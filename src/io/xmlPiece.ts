@@ -17,7 +17,7 @@ import { readSectionFields } from './xmlFields.ts';
 import { facesFromStream, facesFromTables } from './xmlPolyhedra.ts';
 import { appendedMatches } from './sameBlock.ts';
 import { child, type XmlElement } from './xmlScan.ts';
-import { ghostNote, withoutGhostCells } from '../model/ghostCells.ts';
+import { countsWithoutGhosts, ghostNote, withoutGhostCells } from '../model/ghostCells.ts';
 
 /** A piece with what the file declared about its cells. */
 export interface PieceResult {
@@ -190,5 +190,5 @@ export async function readXmlPiece(ctx: XmlFileContext, pieceEl: XmlElement, kin
   const warnings = lin.warnings.map((w) => `piece ${index}: ${w}`);
   const ghostFree = withoutGhostCells(piece, where);
   if (ghostFree.leftOut) warnings.push(ghostNote(`piece ${index}`, ghostFree.leftOut));
-  return { piece: ghostFree.piece, fileCellTypes: lin.fileCellTypes, warnings };
+  return { piece: ghostFree.piece, fileCellTypes: countsWithoutGhosts(lin.fileCellTypes, ghostFree), warnings };
 }

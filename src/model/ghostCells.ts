@@ -23,6 +23,8 @@ export interface GhostFree {
   readonly piece: Piece;
   /** Cells left out (0 when the piece had none, or no `vtkGhostType` array). */
   readonly leftOut: number;
+  /** The cells left out by (linear) cell type. */
+  readonly leftOutByType: Readonly<Record<number, number>>;
 }
 
 /** The cell flags of `f`, checked: one integer component in 0..255 per cell. `where` names the piece. */
@@ -81,16 +83,20 @@ function keptFaces(pf: PolyFaces, keep: Int32Array, newPoint: Int32Array): PolyF
 export function withoutGhostCells(p: Piece, where: string): GhostFree {
   const cellGhost = p.cellData.find((f) => f.name === GHOST_ARRAY);
   const pointGhost = p.pointData.find((f) => f.name === GHOST_ARRAY);
-  if (!cellGhost && !pointGhost) return { piece: p, leftOut: 0 };
+  if (!cellGhost && !pointGhost) return { piece: p, leftOut: 0, leftOutByType: {} };
   const nCells = p.cellTypes.length;
   const cellData = p.cellData.filter((f) => f !== cellGhost), pointData = p.pointData.filter((f) => f !== pointGhost);
   const flags = cellGhost ? ghostFlags(cellGhost, nCells, where) : undefined;
   let kept = 0;
   if (flags) for (let c = 0; c < nCells; c++) if ((flags[c]! & GHOST_CELL_BITS) === 0) kept++;
-  if (!flags || kept === nCells) return { piece: { ...p, cellData, pointData }, leftOut: 0 };
+  if (!flags || kept === nCells) return { piece: { ...p, cellData, pointData }, leftOut: 0, leftOutByType: {} };
 
   const keep = new Int32Array(kept);
-  for (let c = 0, i = 0; c < nCells; c++) if ((flags[c]! & GHOST_CELL_BITS) === 0) keep[i++] = c;
+  const leftOutByType: Record<number, number> = {};
+  for (let c = 0, i = 0; c < nCells; c++) {
+    if ((flags[c]! & GHOST_CELL_BITS) === 0) keep[i++] = c;
+    else leftOutByType[p.cellTypes[c]!] = (leftOutByType[p.cellTypes[c]!] ?? 0) + 1;
+  }
   // the points the kept cells use, in their order in the file
   const nPts = p.points.length / 3, off = p.offsets, conn = p.connectivity;
   const newPoint = new Int32Array(nPts).fill(-1);
@@ -126,10 +132,24 @@ export function withoutGhostCells(p: Piece, where: string): GhostFree {
     pointData: pointData.map((f) => takeTuples(f, oldPoint)),
     cellData: cellData.map((f) => takeTuples(f, keep)),
   };
-  return { piece, leftOut: nCells - kept };
+  return { piece, leftOut: nCells - kept, leftOutByType };
 }
 
 /** The load report's line for `n` ghost cells left out of `where` (a file or `piece k`). */
 export function ghostNote(where: string, n: number): string {
   return `${where}: ${n} ghost cell${n === 1 ? '' : 's'} (flagged in "${GHOST_ARRAY}" as another piece's or hidden) left out`;
+}
+
+/**
+ * A file's cell-type counts less the ghost cells left out (by linear type), so the load report counts the
+ * cells read. A higher-order file type is counted under its own number and keeps its count.
+ */
+export function countsWithoutGhosts(fileCellTypes: Readonly<Record<number, number>>, g: GhostFree): Record<number, number> {
+  const out: Record<number, number> = { ...fileCellTypes };
+  for (const [t, n] of Object.entries(g.leftOutByType)) {
+    const k = Number(t), left = (out[k] ?? 0) - n;
+    if (out[k] === undefined || left < 0) continue;
+    if (left === 0) delete out[k]; else out[k] = left;
+  }
+  return out;
 }

@@ -74,6 +74,8 @@ describe('ghost cells in piece sets are left out', () => {
     const set = writePvtu(join(dir, 'ghosted'), 'ghosted', d, ghosted);
     const read = await loadDatasetFile(set);
     expect(totalCells(read)).toBe(totalCells(d));
+    // the load report's counts by type are of the cells read
+    expect(read.fileCellTypes).toEqual({ 12: totalCells(d) });
     read.pieces.forEach((p, k) => {
       expect(p.cellTypes).toEqual(plain[k]!.cellTypes);
       expect(p.connectivity).toEqual(plain[k]!.connectivity);
@@ -130,6 +132,7 @@ describe('ghost cells in piece sets are left out', () => {
     writeFileSync(legacy, writeLegacyVtk({ ...d, pieces: [pieces[1]!], assembled: undefined }, { binary: true }));
     const one = await loadDatasetFile(legacy);
     expect(one.pieces[0]!.cellTypes.length).toBe(splitDataset(d, 2, bands(2, 0, 0.1, 2))[1]!.cellTypes.length);
+    expect(one.fileCellTypes).toEqual({ 12: one.pieces[0]!.cellTypes.length });
     expect(one.pieces[0]!.cellData.some((f) => f.name === 'vtkGhostType')).toBe(false);
     expect(one.warnings.some((w) => /^piece1\.vtk: \d+ ghost cells \(flagged in "vtkGhostType" as another piece's or hidden\) left out$/.test(w))).toBe(true);
   });
