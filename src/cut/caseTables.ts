@@ -12,7 +12,8 @@
  * the first unused one, taking at each step the first unused segment that touches the current crossing.
  * So a cell cut through its table gives the polygons of the general path, vertex for vertex in the same
  * order; only the geometry (crossing points, orientation, triangulation) is left to do at run time.
- * Patterns with a node on the plane (d = 0) are not in the tables: those cells keep the general path.
+ * Patterns with a node on the plane (d = 0) have tables of their own (`onPlaneCases.ts`), made by the same
+ * symbolic run (`patternCut`).
  *
  * Layout: case (slot s of the type, pattern b) starts at `caseStart(s, b)` = 32·(256·s + b) in `CASE_DATA`: the
  * number of loops, then per loop its vertex count m followed by m pairs (local node below, local node above);
@@ -37,43 +38,82 @@ export const SLOT_NODES = Int8Array.from(TABLE_TYPES, (t) => {
 
 /** Loops of one sign pattern: each loop a list of [below, above] local node pairs, in the general builder's order. */
 export function casePolygons(type: number, below: number): [number, number][][] {
+  const c = patternCut(type, below, 0);
+  if (c.open) throw new Error(`caseTables: open chain for cell type ${type}, pattern ${below}`);
+  return c.loops;
+}
+
+/**
+ * What the general builder of `cutPlane.ts` does with a cell of `type` whose local nodes in `below` lie below
+ * the plane and those in `zero` on it (the rest above), run on symbols: its loops, each a list of
+ * [below node, above node] pairs — [l, l] for a vertex at on-plane node l, where the general path merges the
+ * crossings of every edge that ends there — the faces it records as lying in the plane (indices into the
+ * type's face list; claimed by a cell with nodes below, candidates of a cell with none: `planeFaces.ts`), and
+ * whether a chain stayed open (those cells keep the general path, which counts it).
+ */
+export function patternCut(type: number, below: number, zero: number): { loops: [number, number][][]; planeFaces: number[]; open: boolean } {
   const fs = FACE_TABLE.start[type]!, fe = FACE_TABLE.start[type + 1]!;
   const isBelow = (l: number) => ((below >> l) & 1) === 1;
+  let nodes = 0, zeros = 0;
+  for (let f = fs; f < fe; f++) for (let j = 0; j < FACE_TABLE.size[f]!; j++) nodes = Math.max(nodes, FACE_TABLE.nodes[FACE_TABLE.first[f]! + j]! + 1);
+  for (let l = 0; l < nodes; l++) zeros += (zero >> l) & 1;
+  const full = (1 << nodes) - 1, faceAllZero = (f: number) => {
+    for (let j = 0; j < FACE_TABLE.size[f]!; j++) if (((zero >> FACE_TABLE.nodes[FACE_TABLE.first[f]! + j]!) & 1) === 0) return false;
+    return true;
+  };
+  const planeFaces: number[] = [];
+  // A cell with no node below cuts nothing; with three nodes on the plane and one above, its in-plane faces are candidates.
+  if (below === 0) {
+    if (zeros >= 3 && (zero | below) !== full) for (let f = fs; f < fe; f++) if (faceAllZero(f)) planeFaces.push(f - fs);
+    return { loops: [], planeFaces, open: false };
+  }
+  if (below === full) return { loops: [], planeFaces, open: false };
   const edges: [number, number][] = [];
   const crossing = (b: number, a: number): number => {
-    const i = edges.findIndex(([x, y]) => x === b && y === a);
+    const key: [number, number] = ((zero >> a) & 1) === 1 ? [a, a] : [b, a];
+    const i = edges.findIndex(([x, y]) => x === key[0] && y === key[1]);
     if (i >= 0) return i;
-    edges.push([b, a]);
+    edges.push(key);
     return edges.length - 1;
   };
   const segs: [number, number][] = [];
   for (let f = fs; f < fe; f++) {
     const m = FACE_TABLE.size[f]!, s0 = FACE_TABLE.first[f]!;
     if (m > 4) throw new Error(`caseTables: cell type ${type} has a face of ${m} nodes; tables cover faces of at most four`);
+    let fb = 0, fm = 0;
+    for (let j = 0; j < m; j++) { const l = FACE_TABLE.nodes[s0 + j]!; fm |= 1 << l; fb |= below & (1 << l); }
+    if (fb === 0 || fb === fm) {
+      if (zeros >= 3 && faceAllZero(f)) planeFaces.push(f - fs);
+      continue;
+    }
     const xs: number[] = [], entry: boolean[] = [];
     for (let j = 0; j < m; j++) {
       const a = FACE_TABLE.nodes[s0 + j]!, b = FACE_TABLE.nodes[s0 + (j + 1) % m]!;
       if (isBelow(a) && !isBelow(b)) { xs.push(crossing(a, b)); entry.push(false); }
       else if (!isBelow(a) && isBelow(b)) { xs.push(crossing(b, a)); entry.push(true); }
     }
-    for (let i = 0; i < xs.length; i++) if (entry[i]) segs.push([xs[i]!, xs[(i + 1) % xs.length]!]);
+    for (let i = 0; i < xs.length; i++) {
+      const u = xs[i]!, v = xs[(i + 1) % xs.length]!;
+      if (entry[i] && u !== v) segs.push([u, v]);
+    }
   }
   const used = segs.map(() => false), loops: [number, number][][] = [];
+  let open = false;
   for (let s0 = 0; s0 < segs.length; s0++) {
     if (used[s0]) continue;
     used[s0] = true;
     const start = segs[s0]![0], loop = [start];
-    let cur = segs[s0]![1];
+    let cur = segs[s0]![1], closed = true;
     while (cur !== start) {
       const s = segs.findIndex((g, i) => !used[i] && (g[0] === cur || g[1] === cur));
-      if (s < 0) throw new Error(`caseTables: open chain for cell type ${type}, pattern ${below}`);
+      if (s < 0) { closed = false; break; }
       used[s] = true;
       loop.push(cur);
       cur = segs[s]![0] === cur ? segs[s]![1] : segs[s]![0];
     }
-    loops.push(loop.map((e) => edges[e]!));
+    if (closed) loops.push(loop.map((e) => edges[e]!)); else open = true;
   }
-  return loops;
+  return { loops, planeFaces, open };
 }
 
 /** Bytes kept per case: its loop count, then per loop m and m pairs — at most 1 + 4 + 2·12 = 29 (twelve crossed edges, four loops). */

@@ -20,9 +20,10 @@
  * cells below). Faces in the plane with no cell below — the mesh boundary — are added from the cell above
  * (`planeFaces.ts`). So a unit cube cut at any height, its two end faces included, has area 1.
  *
- * Fast path: tetrahedra, voxels, hexahedra, wedges and pyramids with no node on the plane and no repeated
- * node go through their case tables (`tableCut.ts`, `caseTables.ts`), which give this builder's loops vertex
- * for vertex; every other cell comes here. Option `caseTables: false` sends every cell here.
+ * Fast path: tetrahedra, voxels, hexahedra, wedges and pyramids with no repeated node go through their case
+ * tables (`tableCut.ts`; `caseTables.ts`, and `onPlaneCases.ts` when nodes lie on the plane), which give this
+ * builder's loops vertex for vertex and its in-plane face records; every other cell comes here. Option
+ * `caseTables: false` sends every cell here.
  *
  * Fields are not interpolated here: each vertex keeps its provenance (edge end points and parameter), and
  * `cutFields.ts` materialises only the fields asked for.
@@ -49,8 +50,8 @@ export interface CutOptions {
   /** Keep the position keys of in-plane faces (`PlaneCut.planeFaces`), for the worker pool's merge of cell shares. Default false. */
   planeFaceKeys: boolean;
   /**
-   * Cut the tetrahedra, voxels, hexahedra, wedges and pyramids with no node on the plane through their case
-   * tables (`caseTables.ts`, same triangles bit for bit); false sends every cell through the general polygon
+   * Cut the tetrahedra, voxels, hexahedra, wedges and pyramids with no repeated node through their case
+   * tables (`caseTables.ts`, `onPlaneCases.ts`; same triangles bit for bit); false sends every cell through the general polygon
    * builder (for comparisons). Default true.
    */
   caseTables: boolean;
@@ -314,7 +315,7 @@ function cutRun(piece: Piece, k: number, cells: Int32Array, i0: number, nCand: n
     const g = cells[i]!;
     if (g >= gEnd) break;
     const c = g - g0;
-    const r = tables ? cutByTable(types, off, conn, c, g, base) : -1;
+    const r = tables ? cutByTable(types, off, conn, c, k, g, base) : -1;
     viaTable += r < 0 ? 0 : 1;
     cut += (r < 0 ? cutCell(piece, k, c, g) : r === 1) ? 1 : 0;
   }
