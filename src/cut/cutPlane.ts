@@ -63,7 +63,9 @@ export const CUT_DEFAULTS: Readonly<CutOptions> = { fields: 'all', tolerance: 1e
  * In-plane faces of a cut (only with `planeFaceKeys`): the faces this cut added from the cell above
  * (`emitted[i]`, its triangles from `triStart[i]` to `triStart[i + 1]`, its vertices from `vertStart[i]` to
  * `vertStart[i + 1]`; the cells' triangles and vertices come before the first) and the faces cut by the cell below
- * (`claimed`), as `facePositionKey`s. A face emitted by one cell share and claimed by another is interior.
+ * whose cell above was not among the cells cut (`claimed`: a share's border or the mesh boundary; a face matched
+ * within the cut is interior and has no key), as `facePositionKey`s. A face emitted by one cell share and claimed
+ * by another is interior.
  */
 export interface PlaneFaceKeys {
   readonly emitted: readonly string[];
