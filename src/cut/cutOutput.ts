@@ -92,16 +92,18 @@ export function writePolygon(xs: Float64Array, ys: Float64Array, zs: Float64Arra
   if (tri.length < 3 * m) { tri = new Int32Array(6 * m); work = new Int32Array(2 * m); }
   const nt = fillPolygon(xs, ys, zs, loop, m, nx, ny, nz, tri, work);
   reserveOutput(m, nt);
-  const base = nV;
+  // The buffers in locals once they have room (module-level `let`s are read through their context at every use).
+  const pos = oPos, edge = oEdge, par = oT, idx = oIdx, cellOf = oCell, tr = tri, base = nV, t0 = nT;
   for (let i = 0; i < m; i++) {
-    const v = loop[i]!, o = nV++;
-    oPos[3 * o] = xs[v]!; oPos[3 * o + 1] = ys[v]!; oPos[3 * o + 2] = zs[v]!;
-    oEdge[2 * o] = pointBase + va[v]!; oEdge[2 * o + 1] = pointBase + vb[v]!; oT[o] = vt[v]!;
+    const v = loop[i]!, o = base + i;
+    pos[3 * o] = xs[v]!; pos[3 * o + 1] = ys[v]!; pos[3 * o + 2] = zs[v]!;
+    edge[2 * o] = pointBase + va[v]!; edge[2 * o + 1] = pointBase + vb[v]!; par[o] = vt[v]!;
   }
   for (let t = 0; t < nt; t++) {
-    const o = nT++;
-    oIdx[3 * o] = base + tri[3 * t]!; oIdx[3 * o + 1] = base + tri[3 * t + 1]!; oIdx[3 * o + 2] = base + tri[3 * t + 2]!;
-    oCell[o] = cell;
+    const o = t0 + t;
+    idx[3 * o] = base + tr[3 * t]!; idx[3 * o + 1] = base + tr[3 * t + 1]!; idx[3 * o + 2] = base + tr[3 * t + 2]!;
+    cellOf[o] = cell;
   }
+  nV = base + m; nT = t0 + nt;
   return true;
 }

@@ -44,11 +44,13 @@ export function cutByTable(types: Uint8Array, off: Int32Array, conn: Int32Array,
   if (s < 0) return -1;
   const n = SLOT_NODES[s]!, q0 = off[c]!;
   if (off[c + 1]! - q0 !== n) return -1;
+  // The plane and points in locals: a module-level `let` is read through its context, with a check, at every use.
+  const pts = P, ox = OX, oy = OY, oz = OZ, nx = NX, ny = NY, nz = NZ, tol = TOL;
   let below = 0, zero = 0;
   for (let i = 0; i < n; i++) {
     const id = conn[q0 + i]!, j = 3 * id;
-    const d = NX * (P[j]! - OX) + NY * (P[j + 1]! - OY) + NZ * (P[j + 2]! - OZ);
-    const on = d <= TOL && d >= -TOL;
+    const d = nx * (pts[j]! - ox) + ny * (pts[j + 1]! - oy) + nz * (pts[j + 2]! - oz);
+    const on = d <= tol && d >= -tol;
     nodeId[i] = id; nodeD[i] = d;
     below |= (d < 0 && !on ? 1 : 0) << i;
     zero |= (on ? 1 : 0) << i;
@@ -61,8 +63,8 @@ export function cutByTable(types: Uint8Array, off: Int32Array, conn: Int32Array,
   let any = 0;
   for (let l = 0; l < loops; l++) {
     const m = CASE_DATA[p++]!;
-    for (let i = 0; i < m; i++, p += 2) crossingAt(i, CASE_DATA[p]!, CASE_DATA[p + 1]!);
-    if (writePolygon(xX, xY, xZ, xA, xB, xT, ring, m, NX, NY, NZ, g, pointBase)) any = 1;
+    for (let i = 0; i < m; i++, p += 2) crossingAt(pts, i, CASE_DATA[p]!, CASE_DATA[p + 1]!);
+    if (writePolygon(xX, xY, xZ, xA, xB, xT, ring, m, nx, ny, nz, g, pointBase)) any = 1;
   }
   return any;
 }
@@ -79,7 +81,7 @@ function cutOnPlane(s: number, n: number, below: number, zero: number, k: number
     const m = a[p++]!;
     for (let i = 0; i < m; i++, p += 2) {
       const lb = a[p]!, la = a[p + 1]!;
-      if (lb === la) nodeAt(i, la); else crossingAt(i, lb, la);
+      if (lb === la) nodeAt(i, la); else crossingAt(P, i, lb, la);
     }
     if (writePolygon(xX, xY, xZ, xA, xB, xT, ring, m, NX, NY, NZ, g, pointBase)) any = 1;
   }
@@ -114,8 +116,8 @@ function repeatsNode(n: number): boolean {
   return false;
 }
 
-/** Crossing i of the current loop on the edge from local node `lb` (below) to `la` (above); provenance from the lower point id. */
-function crossingAt(i: number, lb: number, la: number): void {
+/** Crossing i of the current loop on the edge from local node `lb` (below) to `la` (above) of points `P`; provenance from the lower point id. */
+function crossingAt(P: Float64Array, i: number, lb: number, la: number): void {
   const a = nodeId[lb]!, b = nodeId[la]!, da = nodeD[lb]!, db = nodeD[la]!;
   const ja = 3 * a, jb = 3 * b, den = db - da;
   xX[i] = (db * P[ja]! - da * P[jb]!) / den;
