@@ -35,7 +35,7 @@ import type { Piece } from '../model/piece.ts';
 import { candidateCells, prepareScan, type CandidateSource } from './crossingCells.ts';
 import { interpolateCutFields, type FieldRef } from './cutFields.ts';
 import { claimedFaceKeys, facePositionKey, forEachUnclaimedFace, recordPlaneFace, resetPlaneFaces } from './planeFaces.ts';
-import { resetOutput, takeOutput, triangleTotal, vertexTotal, writePolygon } from './cutOutput.ts';
+import { resetOutput, returnOutput, takeOutput, triangleTotal, vertexTotal, writePolygon } from './cutOutput.ts';
 import { cutByTable, setTablePlane, setTablePoints } from './tableCut.ts';
 import { unitVector, type TriangleSet, type Vec3 } from './triangleSet.ts';
 
@@ -55,9 +55,14 @@ export interface CutOptions {
    * builder (for comparisons). Default true.
    */
   caseTables: boolean;
+  /**
+   * The cut's arrays are views of the cut kernel's own buffers, valid until the next cut of this thread starts
+   * or until given back (`releaseCut`), for a cut copied elsewhere at once (a pool worker's share). Default false.
+   */
+  lendOutput: boolean;
 }
 
-export const CUT_DEFAULTS: Readonly<CutOptions> = { fields: 'all', tolerance: 1e-10, candidates: 'auto', planeFaceKeys: false, caseTables: true };
+export const CUT_DEFAULTS: Readonly<CutOptions> = { fields: 'all', tolerance: 1e-10, candidates: 'auto', planeFaceKeys: false, caseTables: true, lendOutput: false };
 
 /**
  * In-plane faces of a cut (only with `planeFaceKeys`): the faces this cut added from the cell above
@@ -363,6 +368,9 @@ function emitPlaneFace(ids: Int32Array, start: number, m: number, cell: number):
   return emitLoop(nCv, cell);
 }
 
+/** Gives a cut made with `lendOutput` its buffers back (it must not be read after): the next cut writes into them instead of fresh memory. */
+export function releaseCut(cut: PlaneCut): void { returnOutput(cut.positions); }
+
 const scaleCache = new WeakMap<Dataset, number>();
 
 /** Length scale of a dataset (bounds diagonal), cached per dataset. */
@@ -428,7 +436,7 @@ export function cutPlane(dataset: Dataset, origin: Vec3, normal: Vec3, options: 
     ? { planeFaces: { emitted, triStart: Int32Array.from(triStarts), vertStart: Int32Array.from(vertStarts), claimed: claimedFaceKeys(dataset.pieces) } } : {};
   pts = new Float64Array(0);
   setTablePoints(pts);
-  const geometry = takeOutput();
+  const geometry = takeOutput(opts.lendOutput);
   const fields = interpolateCutFields(dataset, geometry, opts.fields);
   return {
     ...geometry, fields, origin: [origin[0], origin[1], origin[2]], normal: n, empty: geometry.indices.length === 0,
