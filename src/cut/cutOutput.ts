@@ -19,8 +19,13 @@ startBuffers();
 let nV = 0, nT = 0;
 let tri = new Int32Array(192), work = new Int32Array(64);
 
+/** Whether the last cut was given views of the buffers themselves (`takeOutput(true)`) and has not given them back. */
+let lent = false;
+
 /** Starts a new cut's output, with room for about `verts` vertices and `tris` triangles. */
 export function resetOutput(verts: number, tris: number): void {
+  // A lent cut may still be read: leave it its buffers.
+  if (lent) { startBuffers(); lent = false; }
   nV = 0; nT = 0;
   reserveOutput(verts, tris);
 }
@@ -50,12 +55,29 @@ export function vertexTotal(): number { return nV; }
 const HAND_OVER_MIN = 1 << 15;
 
 /**
- * The cut's arrays (see `PlaneCut` for their layout). A large cut that fills at least half of the buffers
+ * Gives the buffers back from a cut that was lent them (`takeOutput(true)`, `positions` its array), so the next
+ * cut writes into them again instead of fresh memory. Nothing for any other cut.
+ */
+export function returnOutput(positions: Float64Array): void {
+  if (lent && positions.buffer === oPos.buffer) lent = false;
+}
+
+/**
+ * The cut's arrays (see `PlaneCut` for their layout). `lend`: views of the buffers themselves, valid until
+ * the next cut starts, or, once given back with `returnOutput`, until the next cut writes (a pool worker's cut,
+ * which lives only until it is copied into the merged arrays: no fresh memory a cut, no copy). A large cut that fills at least half of the buffers
  * gets the buffers themselves (views of their used part; the next cut makes new ones): copying them would
  * write as many fresh bytes again, which on a first cut of millions of cells cost more than the cut itself
  * (fresh pages are slow to touch on a virtual machine). A small cut gets copies and the buffers stay.
  */
-export function takeOutput(): { positions: Float64Array; indices: Uint32Array; sourceCell: Int32Array; vertexEdges: Int32Array; vertexT: Float64Array } {
+export function takeOutput(lend = false): { positions: Float64Array; indices: Uint32Array; sourceCell: Int32Array; vertexEdges: Int32Array; vertexT: Float64Array } {
+  if (lend) {
+    lent = true;
+    return {
+      positions: oPos.subarray(0, 3 * nV), indices: oIdx.subarray(0, 3 * nT), sourceCell: oCell.subarray(0, nT),
+      vertexEdges: oEdge.subarray(0, 2 * nV), vertexT: oT.subarray(0, nV),
+    };
+  }
   if (nV >= HAND_OVER_MIN && 2 * nV >= oT.length && 2 * nT >= oCell.length) {
     const out = {
       positions: oPos.subarray(0, 3 * nV), indices: oIdx.subarray(0, 3 * nT), sourceCell: oCell.subarray(0, nT),
@@ -92,16 +114,18 @@ export function writePolygon(xs: Float64Array, ys: Float64Array, zs: Float64Arra
   if (tri.length < 3 * m) { tri = new Int32Array(6 * m); work = new Int32Array(2 * m); }
   const nt = fillPolygon(xs, ys, zs, loop, m, nx, ny, nz, tri, work);
   reserveOutput(m, nt);
-  const base = nV;
+  // The buffers in locals once they have room (module-level `let`s are read through their context at every use).
+  const pos = oPos, edge = oEdge, par = oT, idx = oIdx, cellOf = oCell, tr = tri, base = nV, t0 = nT;
   for (let i = 0; i < m; i++) {
-    const v = loop[i]!, o = nV++;
-    oPos[3 * o] = xs[v]!; oPos[3 * o + 1] = ys[v]!; oPos[3 * o + 2] = zs[v]!;
-    oEdge[2 * o] = pointBase + va[v]!; oEdge[2 * o + 1] = pointBase + vb[v]!; oT[o] = vt[v]!;
+    const v = loop[i]!, o = base + i;
+    pos[3 * o] = xs[v]!; pos[3 * o + 1] = ys[v]!; pos[3 * o + 2] = zs[v]!;
+    edge[2 * o] = pointBase + va[v]!; edge[2 * o + 1] = pointBase + vb[v]!; par[o] = vt[v]!;
   }
   for (let t = 0; t < nt; t++) {
-    const o = nT++;
-    oIdx[3 * o] = base + tri[3 * t]!; oIdx[3 * o + 1] = base + tri[3 * t + 1]!; oIdx[3 * o + 2] = base + tri[3 * t + 2]!;
-    oCell[o] = cell;
+    const o = t0 + t;
+    idx[3 * o] = base + tr[3 * t]!; idx[3 * o + 1] = base + tr[3 * t + 1]!; idx[3 * o + 2] = base + tr[3 * t + 2]!;
+    cellOf[o] = cell;
   }
+  nV = base + m; nT = t0 + nt;
   return true;
 }

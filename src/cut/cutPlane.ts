@@ -20,9 +20,10 @@
  * cells below). Faces in the plane with no cell below — the mesh boundary — are added from the cell above
  * (`planeFaces.ts`). So a unit cube cut at any height, its two end faces included, has area 1.
  *
- * Fast path: tetrahedra, voxels, hexahedra, wedges and pyramids with no node on the plane and no repeated
- * node go through their case tables (`tableCut.ts`, `caseTables.ts`), which give this builder's loops vertex
- * for vertex; every other cell comes here. Option `caseTables: false` sends every cell here.
+ * Fast path: tetrahedra, voxels, hexahedra, wedges and pyramids with no repeated node go through their case
+ * tables (`tableCut.ts`; `caseTables.ts`, and `onPlaneCases.ts` when nodes lie on the plane), which give this
+ * builder's loops vertex for vertex and its in-plane face records; every other cell comes here. Option
+ * `caseTables: false` sends every cell here.
  *
  * Fields are not interpolated here: each vertex keeps its provenance (edge end points and parameter), and
  * `cutFields.ts` materialises only the fields asked for.
@@ -34,7 +35,7 @@ import type { Piece } from '../model/piece.ts';
 import { candidateCells, prepareScan, type CandidateSource } from './crossingCells.ts';
 import { interpolateCutFields, type FieldRef } from './cutFields.ts';
 import { claimedFaceKeys, facePositionKey, forEachUnclaimedFace, recordPlaneFace, resetPlaneFaces } from './planeFaces.ts';
-import { resetOutput, takeOutput, triangleTotal, vertexTotal, writePolygon } from './cutOutput.ts';
+import { resetOutput, returnOutput, takeOutput, triangleTotal, vertexTotal, writePolygon } from './cutOutput.ts';
 import { cutByTable, setTablePlane, setTablePoints } from './tableCut.ts';
 import { unitVector, type TriangleSet, type Vec3 } from './triangleSet.ts';
 
@@ -49,20 +50,27 @@ export interface CutOptions {
   /** Keep the position keys of in-plane faces (`PlaneCut.planeFaces`), for the worker pool's merge of cell shares. Default false. */
   planeFaceKeys: boolean;
   /**
-   * Cut the tetrahedra, voxels, hexahedra, wedges and pyramids with no node on the plane through their case
-   * tables (`caseTables.ts`, same triangles bit for bit); false sends every cell through the general polygon
+   * Cut the tetrahedra, voxels, hexahedra, wedges and pyramids with no repeated node through their case
+   * tables (`caseTables.ts`, `onPlaneCases.ts`; same triangles bit for bit); false sends every cell through the general polygon
    * builder (for comparisons). Default true.
    */
   caseTables: boolean;
+  /**
+   * The cut's arrays are views of the cut kernel's own buffers, valid until the next cut of this thread starts
+   * or until given back (`releaseCut`), for a cut copied elsewhere at once (a pool worker's share). Default false.
+   */
+  lendOutput: boolean;
 }
 
-export const CUT_DEFAULTS: Readonly<CutOptions> = { fields: 'all', tolerance: 1e-10, candidates: 'auto', planeFaceKeys: false, caseTables: true };
+export const CUT_DEFAULTS: Readonly<CutOptions> = { fields: 'all', tolerance: 1e-10, candidates: 'auto', planeFaceKeys: false, caseTables: true, lendOutput: false };
 
 /**
  * In-plane faces of a cut (only with `planeFaceKeys`): the faces this cut added from the cell above
  * (`emitted[i]`, its triangles from `triStart[i]` to `triStart[i + 1]`, its vertices from `vertStart[i]` to
  * `vertStart[i + 1]`; the cells' triangles and vertices come before the first) and the faces cut by the cell below
- * (`claimed`), as `facePositionKey`s. A face emitted by one cell share and claimed by another is interior.
+ * whose cell above was not among the cells cut (`claimed`: a share's border or the mesh boundary; a face matched
+ * within the cut is interior and has no key), as `facePositionKey`s. A face emitted by one cell share and claimed
+ * by another is interior.
  */
 export interface PlaneFaceKeys {
   readonly emitted: readonly string[];
@@ -314,7 +322,7 @@ function cutRun(piece: Piece, k: number, cells: Int32Array, i0: number, nCand: n
     const g = cells[i]!;
     if (g >= gEnd) break;
     const c = g - g0;
-    const r = tables ? cutByTable(types, off, conn, c, g, base) : -1;
+    const r = tables ? cutByTable(types, off, conn, c, k, g, base) : -1;
     viaTable += r < 0 ? 0 : 1;
     cut += (r < 0 ? cutCell(piece, k, c, g) : r === 1) ? 1 : 0;
   }
@@ -359,6 +367,9 @@ function emitPlaneFace(ids: Int32Array, start: number, m: number, cell: number):
   if (nCv > 1 && vA[nCv - 1] === vA[0]) nCv--;
   return emitLoop(nCv, cell);
 }
+
+/** Gives a cut made with `lendOutput` its buffers back (it must not be read after): the next cut writes into them instead of fresh memory. */
+export function releaseCut(cut: PlaneCut): void { returnOutput(cut.positions); }
 
 const scaleCache = new WeakMap<Dataset, number>();
 
@@ -425,7 +436,7 @@ export function cutPlane(dataset: Dataset, origin: Vec3, normal: Vec3, options: 
     ? { planeFaces: { emitted, triStart: Int32Array.from(triStarts), vertStart: Int32Array.from(vertStarts), claimed: claimedFaceKeys(dataset.pieces) } } : {};
   pts = new Float64Array(0);
   setTablePoints(pts);
-  const geometry = takeOutput();
+  const geometry = takeOutput(opts.lendOutput);
   const fields = interpolateCutFields(dataset, geometry, opts.fields);
   return {
     ...geometry, fields, origin: [origin[0], origin[1], origin[2]], normal: n, empty: geometry.indices.length === 0,

@@ -131,6 +131,8 @@ export interface SumLayout {
   readonly chOf: Int32Array; readonly C: number; readonly vecs: number[];
   readonly magCh: Int32Array; readonly magNc: Int32Array; readonly needCh: Int32Array;
   readonly uCh: number; readonly pCh: number; readonly rCh: number; readonly rho0: number; readonly halfRho: number;
+  /** The pressure channel when total pressure is reported (velocity, pressure and ρ or kinematic pressure), else −1: its sums are skipped. */
+  readonly p0Ch: number;
   /** Numbers per block of `blockSums`: the 14 sums of the triangle pass, then ∫φ, ∫ρu_nφ and the magnitudes' sums. */
   readonly K: number;
 }
@@ -155,14 +157,15 @@ export function sumLayout(fields: readonly { name: string; association: 'point' 
   const vecs = fields.map((f, i) => (f.components > 1 ? i : -1)).filter((i) => i >= 0);
   const magCh = Int32Array.from(vecs, (i) => chOf[i]!), magNc = Int32Array.from(vecs, (i) => fields[i]!.components);
   const uCh = iu >= 0 ? chOf[iu]! : -1, pCh = ip >= 0 ? chOf[ip]! : -1, rCh = ir >= 0 ? chOf[ir]! : -1;
-  const withP0 = pCh >= 0 && uCh >= 0;
+  // Total pressure is reported only with ρ (or kinematic pressure); without, its sums would be thrown away.
+  const withP0 = pCh >= 0 && uCh >= 0 && (hasRho || kinematic);
   // Channels needed at the rule's points: vector fields (magnitudes), and velocity, pressure, density for p₀.
   const need = new Set<number>();
   vecs.forEach((i) => { for (let c = 0; c < fields[i]!.components; c++) need.add(chOf[i]! + c); });
   if (withP0) { for (let c = 0; c < 3; c++) need.add(uCh + c); need.add(pCh); if (rCh >= 0) need.add(rCh); }
   return {
     iu, ip, ir, rhoConst, kinematic, hasRho, roles, notes, chOf, C, vecs, magCh, magNc, needCh: Int32Array.from(need),
-    uCh, pCh, rCh, rho0: rhoConst ?? 1, halfRho: kinematic ? 0 : 1, K: N_SUMS + 2 * C + 2 * vecs.length,
+    uCh, pCh, rCh, rho0: rhoConst ?? 1, halfRho: kinematic ? 0 : 1, p0Ch: withP0 ? pCh : -1, K: N_SUMS + 2 * C + 2 * vecs.length,
   };
 }
 
@@ -189,7 +192,7 @@ export function blockSums(set: TriangleSet, L: SumLayout, first: number, total: 
     // away at the loop's exit, which made the first two integrals of a session several times slower.
     // The running sums go in and out through `sums`, so the order of additions is that of one pass.
     for (let t0 = g0; t0 < g1; t0 += TRIANGLE_RUN) {
-      triangleSums(set.positions, set.indices, values, perVertex, L.chOf, L.C, L.uCh, L.pCh, L.rCh, L.rho0, L.halfRho, L.needCh, L.magCh, L.magNc,
+      triangleSums(set.positions, set.indices, values, perVertex, L.chOf, L.C, L.uCh, L.p0Ch, L.rCh, L.rho0, L.halfRho, L.needCh, L.magCh, L.magNc,
         t0 - first, Math.min(g1, t0 + TRIANGLE_RUN) - first, first, tri.un, tri.rho, tri.area);
     }
     if (L.uCh >= 0) { reverseFlowSums(g0, g1, tri); sums[S_ANEG] = revArea; sums[S_QNEG] = revFlow; sums[S_MNEG] = revMass; }
@@ -210,7 +213,7 @@ export function integrateSurface(set: TriangleSet, options: Partial<IntegralOpti
   const L = sumLayout(fields, options);
   const { notes, roles, kinematic, hasRho, chOf, C, vecs, magCh, magNc, uCh, pCh, rCh, rho0, halfRho } = L;
   const nMag = vecs.length;
-  const withP0 = pCh >= 0 && uCh >= 0;
+  const withP0 = L.p0Ch >= 0;
   // acc layout: [0,C) ∫φ, [C,2C) ∫ρu_nφ, then per vector: ∫|v|, ∫ρu_n|v|.
   if (pv.length < C) pv = new Float64Array(C);
   const nt = triangleCount(set), nb = Math.ceil(nt / SUM_BLOCK), K = L.K;
@@ -330,13 +333,15 @@ const TRIANGLE_RUN = 64;
  * keeps it (one large function was compiled several times over on the first cuts of a session): area,
  * centroid and normal sums, Q, ṁ and p₀ into `sums` (running sums carried between calls over triangles
  * tBegin … tEnd − 1), ∫φ and ∫ρu_nφ into `acc`, u·n, density and area per triangle into
- * `triUn`/`triRho`/`triArea` (the reverse-flow parts follow from them in `reverseFlowSums`). Channel numbers are −1 when the role has no field;
- * `halfRho` is 0 for kinematic pressure; scratch arrays are sized by the caller.
+ * `triUn`/`triRho`/`triArea` (the reverse-flow parts follow from them in `reverseFlowSums`). Channel numbers are −1 when the role has no field
+ * (`pCh` also when total pressure is not reported: `SumLayout.p0Ch`); `halfRho` is 0 for kinematic pressure; scratch arrays are sized by the caller.
  */
 function triangleSums(P: Float64Array, I: Uint32Array, values: Float64Array[], perVertex: Uint8Array, chOf: Int32Array,
   C: number, uCh: number, pCh: number, rCh: number, rho0: number, halfRho: number, needCh: Int32Array, magCh: Int32Array,
   magNc: Int32Array, tBegin: number, tEnd: number, first: number, tUn: Float64Array, tRho: Float64Array, tArea: Float64Array): void {
   const nf = values.length, nMag = magCh.length;
+  // Module scratch in locals: a module-level `let` is read through its context, with a check, at every use.
+  const V = vv, E = e7, S = acc, W = wmq;
   const withP0 = pCh >= 0 && uCh >= 0;
   const wts = TRI7.weight;
   let A = sums[S_A]!, cx = sums[S_CX]!, cy = sums[S_CY]!, cz = sums[S_CZ]!, Q = sums[S_Q]!, M = sums[S_M]!;
@@ -354,55 +359,55 @@ function triangleSums(P: Float64Array, I: Uint32Array, values: Float64Array[], p
     nx /= n2; ny /= n2; nz /= n2;
     A += area;
     cx += a3 * (3 * ax + ux + wx); cy += a3 * (3 * ay + uy + wy); cz += a3 * (3 * az + uz + wz);
-    gather(values, perVertex, chOf, nf, I, t);
+    gather(values, perVertex, chOf, nf, I, t, V);
     let g0 = 0, g1 = 0, g2 = 0;
     if (uCh >= 0) {
-      g0 = vv[3 * uCh]! * nx + vv[3 * uCh + 3]! * ny + vv[3 * uCh + 6]! * nz;
-      g1 = vv[3 * uCh + 1]! * nx + vv[3 * uCh + 4]! * ny + vv[3 * uCh + 7]! * nz;
-      g2 = vv[3 * uCh + 2]! * nx + vv[3 * uCh + 5]! * ny + vv[3 * uCh + 8]! * nz;
+      g0 = V[3 * uCh]! * nx + V[3 * uCh + 3]! * ny + V[3 * uCh + 6]! * nz;
+      g1 = V[3 * uCh + 1]! * nx + V[3 * uCh + 4]! * ny + V[3 * uCh + 7]! * nz;
+      g2 = V[3 * uCh + 2]! * nx + V[3 * uCh + 5]! * ny + V[3 * uCh + 8]! * nz;
     }
     tUn[3 * g] = g0; tUn[3 * g + 1] = g1; tUn[3 * g + 2] = g2;
-    const r0 = rCh >= 0 ? vv[3 * rCh]! : rho0, r1 = rCh >= 0 ? vv[3 * rCh + 1]! : rho0, r2 = rCh >= 0 ? vv[3 * rCh + 2]! : rho0;
+    const r0 = rCh >= 0 ? V[3 * rCh]! : rho0, r1 = rCh >= 0 ? V[3 * rCh + 1]! : rho0, r2 = rCh >= 0 ? V[3 * rCh + 2]! : rho0;
     tRho[3 * g] = r0; tRho[3 * g + 1] = r1; tRho[3 * g + 2] = r2;
     // Values of the non-linear parts' inputs at the rule's 7 points (vertices, midpoints, centroid).
     for (let i = 0; i < needCh.length; i++) {
-      const ch = needCh[i]!, v0 = vv[3 * ch]!, v1 = vv[3 * ch + 1]!, v2 = vv[3 * ch + 2]!, o = 7 * ch;
-      e7[o] = v0; e7[o + 1] = v1; e7[o + 2] = v2;
-      e7[o + 3] = 0.5 * (v0 + v1); e7[o + 4] = 0.5 * (v1 + v2); e7[o + 5] = 0.5 * (v0 + v2); e7[o + 6] = (v0 + v1 + v2) / 3;
+      const ch = needCh[i]!, v0 = V[3 * ch]!, v1 = V[3 * ch + 1]!, v2 = V[3 * ch + 2]!, o = 7 * ch;
+      E[o] = v0; E[o + 1] = v1; E[o + 2] = v2;
+      E[o + 3] = 0.5 * (v0 + v1); E[o + 4] = 0.5 * (v1 + v2); E[o + 5] = 0.5 * (v0 + v2); E[o + 6] = (v0 + v1 + v2) / 3;
     }
     // Mass weights ρu_n·w at the points; for a linear φ, ∫ρu_nφ = Σ_q wm_q Σ_j λ_qj φ_j = Σ_j M_j φ_j.
     const gm3 = 0.5 * (g0 + g1), gm4 = 0.5 * (g1 + g2), gm5 = 0.5 * (g0 + g2), gc = (g0 + g1 + g2) / 3;
     const wv = area * wts[0]!, wmid = area * wts[3]!, wc = area * wts[6]!;
-    wmq[0] = wv * r0 * g0; wmq[1] = wv * r1 * g1; wmq[2] = wv * r2 * g2;
-    wmq[3] = wmid * 0.5 * (r0 + r1) * gm3; wmq[4] = wmid * 0.5 * (r1 + r2) * gm4; wmq[5] = wmid * 0.5 * (r0 + r2) * gm5;
-    wmq[6] = wc * ((r0 + r1 + r2) / 3) * gc;
-    const c3 = wmq[6]! / 3;
-    const M0 = wmq[0]! + 0.5 * (wmq[3]! + wmq[5]!) + c3, M1 = wmq[1]! + 0.5 * (wmq[3]! + wmq[4]!) + c3, M2 = wmq[2]! + 0.5 * (wmq[4]! + wmq[5]!) + c3;
+    W[0] = wv * r0 * g0; W[1] = wv * r1 * g1; W[2] = wv * r2 * g2;
+    W[3] = wmid * 0.5 * (r0 + r1) * gm3; W[4] = wmid * 0.5 * (r1 + r2) * gm4; W[5] = wmid * 0.5 * (r0 + r2) * gm5;
+    W[6] = wc * ((r0 + r1 + r2) / 3) * gc;
+    const c3 = W[6]! / 3;
+    const M0 = W[0]! + 0.5 * (W[3]! + W[5]!) + c3, M1 = W[1]! + 0.5 * (W[3]! + W[4]!) + c3, M2 = W[2]! + 0.5 * (W[4]! + W[5]!) + c3;
     Q += a3 * (g0 + g1 + g2); M += M0 + M1 + M2;
     for (let k = 0; k < nMag; k++) {
       const o = 7 * magCh[k]!, nc = magNc[k]!;
       let sa = 0, sm = 0;
       for (let q = 0; q < 7; q++) {
         let s2 = 0;
-        for (let cc = 0; cc < nc; cc++) { const v = e7[o + 7 * cc + q]!; s2 += v * v; }
+        for (let cc = 0; cc < nc; cc++) { const v = E[o + 7 * cc + q]!; s2 += v * v; }
         const m = Math.sqrt(s2);
-        sa += area * wts[q]! * m; sm += wmq[q]! * m;
+        sa += area * wts[q]! * m; sm += W[q]! * m;
       }
-      acc[2 * C + 2 * k] += sa; acc[2 * C + 2 * k + 1] += sm;
+      S[2 * C + 2 * k] += sa; S[2 * C + 2 * k + 1] += sm;
     }
     if (withP0) {
       const ou = 7 * uCh, op = 7 * pCh, or = 7 * rCh;
       for (let q = 0; q < 7; q++) {
-        const vx = e7[ou + q]!, vy = e7[ou + 7 + q]!, vz = e7[ou + 14 + q]!;
-        const rho = halfRho ? (rCh >= 0 ? e7[or + q]! : rho0) : 1;
-        const p0 = e7[op + q]! + 0.5 * rho * (vx * vx + vy * vy + vz * vz);
-        P0a += area * wts[q]! * p0; P0m += wmq[q]! * p0;
+        const vx = E[ou + q]!, vy = E[ou + 7 + q]!, vz = E[ou + 14 + q]!;
+        const rho = halfRho ? (rCh >= 0 ? E[or + q]! : rho0) : 1;
+        const p0 = E[op + q]! + 0.5 * rho * (vx * vx + vy * vy + vz * vz);
+        P0a += area * wts[q]! * p0; P0m += W[q]! * p0;
       }
     }
     for (let ch = 0; ch < C; ch++) {
-      const v0 = vv[3 * ch]!, v1 = vv[3 * ch + 1]!, v2 = vv[3 * ch + 2]!;
-      acc[ch] += a3 * (v0 + v1 + v2);
-      acc[C + ch] += M0 * v0 + M1 * v1 + M2 * v2;
+      const v0 = V[3 * ch]!, v1 = V[3 * ch + 1]!, v2 = V[3 * ch + 2]!;
+      S[ch] += a3 * (v0 + v1 + v2);
+      S[C + ch] += M0 * v0 + M1 * v1 + M2 * v2;
     }
   }
   sums[S_A] = A; sums[S_CX] = cx; sums[S_CY] = cy; sums[S_CZ] = cz; sums[S_Q] = Q; sums[S_M] = M;
@@ -431,8 +436,8 @@ function reverseFlowSums(t0: number, t1: number, tri: TriangleScratch): void {
 }
 let revArea = 0, revFlow = 0, revMass = 0;
 
-/** Fills vv with the vertex values of triangle t (cell fields repeated on the three vertices). */
-function gather(values: Float64Array[], perVertex: Uint8Array, chOf: Int32Array, nf: number, I: Uint32Array, t: number): void {
+/** Fills `vv` with the vertex values of triangle t (cell fields repeated on the three vertices). */
+function gather(values: Float64Array[], perVertex: Uint8Array, chOf: Int32Array, nf: number, I: Uint32Array, t: number, vv: Float64Array): void {
   const v0 = I[3 * t]!, v1 = I[3 * t + 1]!, v2 = I[3 * t + 2]!;
   for (let i = 0; i < nf; i++) {
     const vals = values[i]!, o = chOf[i]!, nc = chOf[i + 1]! - o;
@@ -511,8 +516,13 @@ function ranges(fields: readonly SurfaceField[], chOf: Int32Array, magCh: Int32A
   const lo = new Float64Array(C + nMag).fill(Infinity), hi = new Float64Array(C + nMag).fill(-Infinity);
   for (let i = 0; i < fields.length; i++) {
     const f = fields[i]!, nc = f.components, v = f.values, o = chOf[i]!;
-    for (let c = 0; c < nc; c++) { strideRange(v, c, nc); lo[o + c] = rangeLo; hi[o + c] = rangeHi; }
     const q = magCh.indexOf(o);
+    if (nc === 3 && q >= 0 && magNc[q] === 3) {
+      // A 3-vector's components and magnitude in one pass (the four passes below read it four times).
+      vectorRange(v, lo, hi, o, C + q);
+      continue;
+    }
+    for (let c = 0; c < nc; c++) { strideRange(v, c, nc); lo[o + c] = rangeLo; hi[o + c] = rangeHi; }
     if (q >= 0 && magNc[q] === nc) { magnitudeRange(v, nc); lo[C + q] = rangeLo; hi[C + q] = rangeHi; }
   }
   return { lo, hi };
@@ -528,6 +538,22 @@ function strideRange(v: Float64Array, c: number, nc: number): void {
   let l = Infinity, h = -Infinity;
   for (let k = c; k < v.length; k += nc) { const x = v[k]!; if (x < l) l = x; if (x > h) h = x; }
   rangeLo = l; rangeHi = h;
+}
+
+/** Min and max of each component of the 3-vectors of v into lo/hi from `o`, and of their magnitudes at `m`; the same values as `strideRange` and `magnitudeRange`. */
+function vectorRange(v: Float64Array, lo: Float64Array, hi: Float64Array, o: number, m: number): void {
+  let lx = Infinity, hx = -Infinity, ly = Infinity, hy = -Infinity, lz = Infinity, hz = -Infinity, lm = Infinity, hm = -Infinity;
+  for (let k = 0; k < v.length; k += 3) {
+    const x = v[k]!, y = v[k + 1]!, z = v[k + 2]!;
+    if (x < lx) lx = x; if (x > hx) hx = x;
+    if (y < ly) ly = y; if (y > hy) hy = y;
+    if (z < lz) lz = z; if (z > hz) hz = z;
+    let s2 = 0;
+    s2 += x * x; s2 += y * y; s2 += z * z;
+    const r = Math.sqrt(s2);
+    if (r < lm) lm = r; if (r > hm) hm = r;
+  }
+  lo[o] = lx; hi[o] = hx; lo[o + 1] = ly; hi[o + 1] = hy; lo[o + 2] = lz; hi[o + 2] = hz; lo[m] = lm; hi[m] = hm;
 }
 
 /** Min and max (into rangeLo, rangeHi) of the magnitudes of the nc-component tuples of v. */

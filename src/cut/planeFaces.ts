@@ -19,6 +19,8 @@ import { hashPoint } from './pointKey.ts';
 let nodes = new Int32Array(256);
 let recPiece = new Int32Array(32), recCell = new Int32Array(32), recStart = new Int32Array(32), recSize = new Int32Array(32);
 let recHash = new Uint32Array(32), isClaim = new Uint8Array(32);
+/** Per claim: 1 once a candidate of this cut matched it (the face is interior to the cells cut here). */
+let matched = new Uint8Array(32);
 let nNodes = 0, nRec = 0, nCand = 0;
 let table = new Int32Array(64);
 
@@ -26,7 +28,7 @@ function growRecords(): void {
   const n = 2 * recPiece.length;
   const g = <T extends Int32Array | Uint32Array | Uint8Array>(a: T, ctor: new (n: number) => T): T => { const b = new ctor(n); b.set(a); return b; };
   recPiece = g(recPiece, Int32Array); recCell = g(recCell, Int32Array); recStart = g(recStart, Int32Array);
-  recSize = g(recSize, Int32Array); recHash = g(recHash, Uint32Array); isClaim = g(isClaim, Uint8Array);
+  recSize = g(recSize, Int32Array); recHash = g(recHash, Uint32Array); isClaim = g(isClaim, Uint8Array); matched = g(matched, Uint8Array);
 }
 
 /** Forgets every record (call at the start of each cut). */
@@ -50,6 +52,7 @@ export function recordPlaneFace(k: number, pts: Float64Array, cell: number, ids:
     h = (h + hashPoint(pts[p]!, pts[p + 1]!, pts[p + 2]!)) >>> 0;
   }
   recPiece[nRec] = k; recCell[nRec] = cell; recStart[nRec] = nNodes; recSize[nRec] = m; recHash[nRec] = h; isClaim[nRec] = claim ? 1 : 0;
+  matched[nRec] = 0;
   nRec++;
   nNodes += m;
   if (!claim) nCand++;
@@ -65,10 +68,16 @@ export function facePositionKey(pts: Float64Array, ids: Int32Array, start: numbe
   return parts.sort().join(';');
 }
 
-/** Keys (`facePositionKey`) of the faces claimed by cells below them in the last cut. */
+/**
+ * Keys (`facePositionKey`) of the faces claimed by cells below them in the last cut that no candidate of the
+ * same cut matched (call after `forEachUnclaimedFace`): the faces whose cell above, if any, lies outside the
+ * cells cut — on a worker's share border, or the mesh boundary. A face has at most one cell on each side, so a
+ * claim matched here is met by no other share's candidate; keying only the rest spares the strings of every
+ * interior face of a plane along a node layer.
+ */
 export function claimedFaceKeys(pieces: readonly Piece[]): string[] {
   const out: string[] = [];
-  for (let r = 0; r < nRec; r++) if (isClaim[r]) out.push(facePositionKey(pieces[recPiece[r]!]!.points, nodes, recStart[r]!, recSize[r]!));
+  for (let r = 0; r < nRec; r++) if (isClaim[r] && !matched[r]) out.push(facePositionKey(pieces[recPiece[r]!]!.points, nodes, recStart[r]!, recSize[r]!));
   return out;
 }
 
@@ -93,7 +102,7 @@ function findOrInsert(pieces: readonly Piece[], r: number, mask: number): boolea
   for (;;) {
     const e = table[s]!;
     if (e === 0) { table[s] = r + 1; return false; }
-    if (sameFace(pieces, e - 1, r)) return true;
+    if (sameFace(pieces, e - 1, r)) { if (!isClaim[r]) matched[e - 1] = 1; return true; }
     s = (s + 1) & mask;
   }
 }

@@ -30,9 +30,12 @@ function withFlow(p: Piece): Piece {
   ], [field('group', 'cell', 1, new Int32Array(cells).fill(1))]);
 }
 
+type V3 = [number, number, number];
+const ON_NODES: [V3, V3][] = [[[0.5, 0.5, 0.5], [0, 0, 1]], [[0.4, 0.4, 0.4], [-1, 0.5, 0]], [[0.3, 0.5, 0.5], [1, 0, 0]], [[0.6, 0.6, 0.6], [0, -1, 0.5]]];
+
 let warmed: Promise<void> | undefined;
 
-/** Cuts and integrates a small mesh twelve times; resolves when done. Runs once per thread (later calls share it). */
+/** Cuts and integrates a small mesh sixteen times (four planes through nodes); resolves when done. Runs once per thread (later calls share it). */
 export function warmUpCutKernels(): Promise<void> {
   warmed ??= (async () => {
     const built = datasetOf([withFlow(hexGrid(10, 10, 10)), withFlow(tetGrid(5, 5, 5, (u, v, w) => [u, v, 1 + w])), withFlow(tetsWithTriangles(tetGrid(4, 4, 4, (u, v, w) => [u, v, 2 + w]), 3))], 'warm-up mesh');
@@ -43,6 +46,11 @@ export function warmUpCutKernels(): Promise<void> {
       // below with the lower id, and the branches for the other order would first run on a real file.
       const normal: [number, number, number] = i % 4 === 0 ? [1, 0, 0] : i % 4 === 1 ? [0, 0.2, 1] : i % 4 === 2 ? [1, 1, 1] : [-0.4, 1, -0.7];
       integratePlane(d, { origin, normal, cut: { candidates: i < 6 ? 'scan' : 'tree' }, integral: { density: 1000 } });
+      await new Promise<void>((resolve) => setTimeout(resolve, 0));
+    }
+    // Planes through the hexahedra's node layers and rows: the on-plane case tables (`onPlaneCases.ts`).
+    for (const [origin, normal] of ON_NODES) {
+      integratePlane(d, { origin, normal, cut: { candidates: 'scan' }, integral: { density: 1000 } });
       await new Promise<void>((resolve) => setTimeout(resolve, 0));
     }
   })();

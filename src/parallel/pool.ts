@@ -96,7 +96,8 @@ export class ComputePool {
   /**
    * Whether `integratePlane` has the workers sum the integral's blocks that lie in their own triangles as they
    * place them (same bits as summing them all here; see `cutInPlace`). Default false: on the 1M-tetrahedron
-   * sample, pool of 2, it saved nothing (later cut 59–63 against 56–57 ms of CPU). It once cost 120 ms more;
+   * sample, pool of 2, it saved nothing (later cut 59–63 against 56–57 ms of CPU), nor on the 1M hexahedra's
+   * later cut (107–141 against 107–130 ms of CPU, loaded machine; DEVELOPERS.md). It once cost 120 ms more;
    * that was the workers' first-transfer deoptimisations, gone since (share workers transfer nothing: shareHost.ts).
    */
   sumInWorkers = false;

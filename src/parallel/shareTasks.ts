@@ -6,7 +6,7 @@
  * global (share cell + `share.start`). A cut is the exception: it is counted first and then written by each
  * share straight into its place in the merged cut's shared arrays (`placeCuts.ts`).
  */
-import { CUT_DEFAULTS, cutPlane, type CutOptions, type PlaneCut, type PlaneFaceKeys } from '../cut/cutPlane.ts';
+import { CUT_DEFAULTS, cutPlane, releaseCut, type CutOptions, type PlaneCut, type PlaneFaceKeys } from '../cut/cutPlane.ts';
 import { cutFieldInto, cutFieldLayout } from '../cut/cutFields.ts';
 import { blockSums, SUM_BLOCK, sumLayout, type IntegralOptions } from '../cut/integrals.ts';
 import type { Vec3 } from '../cut/triangleSet.ts';
@@ -72,7 +72,8 @@ const HELD_MAX = 4;
  */
 export function cutShare(share: Dataset, key: number, origin: Vec3, normal: Vec3, options: Partial<CutOptions>): CutCounts {
   const fields = cutFieldLayout(share, options.fields ?? CUT_DEFAULTS.fields);
-  const c = cutPlane(share, origin, normal, { ...options, fields: 'none', planeFaceKeys: true });
+  // Lent buffers: the cut lives only until placed (copied into the merged arrays), so no fresh memory a cut.
+  const c = cutPlane(share, origin, normal, { ...options, fields: 'none', planeFaceKeys: true, lendOutput: true });
   held.set(key, { cut: c, share, fields });
   for (const k of held.keys()) if (held.size > HELD_MAX) held.delete(k);
   return {
@@ -92,7 +93,7 @@ export function cutShare(share: Dataset, key: number, origin: Vec3, normal: Vec3
 export function placeCutShare(key: number, range: CellShare, runs: Int32Array, into: SharedCutArrays | null, sums: ShareSums | null = null): null {
   const h = held.get(key);
   held.delete(key);
-  if (!into) return null;
+  if (!into) { if (h) releaseCut(h.cut); return null; }
   if (!h) throw new Error('worker pool: no cut is held for this placement');
   const c = h.cut;
   for (let r = 0; r < runs.length; r += 6) {
@@ -105,6 +106,7 @@ export function placeCutShare(key: number, range: CellShare, runs: Int32Array, i
     for (let j = 0; j < into.fields.length; j++) cutFieldInto(h.share, c, h.fields[j]!, v0, v1, t0, t1, into.fields[j]!, h.fields[j]!.association === 'point' ? dv : dt);
   }
   if (sums) sumOwnBlocks(c, h.fields, runs, into, sums);
+  releaseCut(c);
   return null;
 }
 

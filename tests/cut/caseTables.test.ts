@@ -20,6 +20,7 @@ import type { Piece } from '../../src/model/piece.ts';
 import { loadExternal } from '../helpers/external.ts';
 import { meshesOfEveryType, voxelGrid } from '../locate/meshes.ts';
 import { rng } from './meshes.ts';
+import { expectSameCut } from './sameCut.ts';
 
 type V3 = [number, number, number];
 
@@ -43,16 +44,6 @@ function planesFor(d: Dataset, seed: number): { o: V3; n: V3 }[] {
   return out;
 }
 
-function expectSameCut(a: PlaneCut, b: PlaneCut, where: string): void {
-  expect(a.positions, where).toEqual(b.positions);
-  expect(a.indices, where).toEqual(b.indices);
-  expect(a.sourceCell, where).toEqual(b.sourceCell);
-  expect(a.vertexEdges, where).toEqual(b.vertexEdges);
-  expect(a.vertexT, where).toEqual(b.vertexT);
-  expect(a.stats.cutCells, where).toBe(b.stats.cutCells);
-  expect(a.stats.openChains, where).toBe(b.stats.openChains);
-  expect(a.fields.map((f) => f.values), where).toEqual(b.fields.map((f) => f.values));
-}
 
 const close = (x: number, y: number, scale: number) => Math.abs(x - y) <= 1e-12 * Math.max(Math.abs(y), scale);
 
