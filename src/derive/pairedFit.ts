@@ -54,6 +54,19 @@ export function meshInto(K: MomentKernel, out: Float64Array, outStart: number, p
   return true;
 }
 
+/**
+ * `meshInto` for the chosen nodes `targets` of piece `p` (a wall's nodes), written to `out` from 0 in the list's
+ * order (`3·nc` values per entry): each node's ring walked in the held mesh, so no rows are built for the list.
+ * False, having written nothing, when the mesh is too large to hold.
+ */
+export function meshAtInto(K: MomentKernel, out: Float64Array, p: Piece, values: NumericArray, nc: number, targets: Int32Array): boolean {
+  const mesh = holdMesh(K, p, values, nc);
+  if (!mesh) return false;
+  Object.assign(job, { K, out, outStart: 0, positions: p.points, values, nc, targets, from: 0, ringSizes: undefined, mesh });
+  pairs(targets.length);
+  return true;
+}
+
 /** The pairing loop over `job`'s sites from `job.from` up to `to`: rings from rows, or walked in the held mesh. */
 function pairs(to: number): void {
   const held = job.mesh !== null;
@@ -130,12 +143,13 @@ function prepare(lane: number, k: number): boolean {
   return true;
 }
 
-/** `prepare` over the held mesh: node k's one-ring walked and gathered by the kernel, its two-ring likewise. */
+/** `prepare` over the held mesh: target k's one-ring walked and gathered by the kernel, its two-ring likewise. */
 function prepareHeld(lane: number, k: number): boolean {
-  let n = ringHeld(lane, k, 1, 0);
+  const i = siteOf(k);
+  let n = ringHeld(lane, i, 1, 0);
   laneOne[lane] = 1;
   if (n < 0) {
-    n = ringHeld(lane, k, 2, 0);
+    n = ringHeld(lane, i, 2, 0);
     laneOne[lane] = 0;
     if (n < 0) { noResult(k); return false; }
   }
@@ -169,9 +183,9 @@ function widen(k: number, run: (n: number) => void): void {
   refit(k, gather(i, ringIds(), 0, m, 0, false), run);
 }
 
-/** `widen` over the held mesh (node k's two-ring walked and gathered by the kernel). */
+/** `widen` over the held mesh (target k's two-ring walked and gathered by the kernel). */
 function widenHeld(k: number, run: (n: number) => void): void {
-  refit(k, ringHeld(0, k, 2, 1), run);
+  refit(k, ringHeld(0, siteOf(k), 2, 1), run);
 }
 
 /** Fits target `k` alone in lane 0 over the `n` slots gathered there (none: NaN). */
