@@ -26,6 +26,13 @@
 // rare case within BAND of the bound, where squares and Math.hypot might disagree; `two1`/`two3(lane, i,
 // fresh)` gather the two-ring (neighbourRing.ts's order) from the one-ring just walked (or walked again). Stamps
 // per node and per cell, compared with a counter bumped per walk, leave repeats out without clearing.
+//
+// Every header address above (scales, tolerance, results, CONFIG, statistics) is taken from the global `base`
+// (exported; 0 unless the caller sets it), and every address held in CONFIG is relative to `base`. A private
+// memory leaves it at 0. The second module, `momentKernelBytes(true)`, imports a shared memory: several
+// instances (one per pool worker, src/derive/sharedKernelMesh.ts) walk one held mesh, each from its own area
+// (header, stamps, ring lists, slots at `base` on; the mesh below it, at negative relative addresses that wrap to
+// the right bytes), and a gather checks its slots against CONFIG.limit, the end of its area, instead of the memory's size.
 
 import { writeFileSync } from 'node:fs';
 import { dirname, join } from 'node:path';
@@ -35,8 +42,10 @@ export const SCALE_AT = 0, TOLERANCE_AT = 16, RESULT_AT = 32, CONFIG_AT = 512, S
 /** Byte offsets from CONFIG_AT of the i32 addresses (and the stamp counter) a held mesh uses. */
 export const CONFIG = {
   slots: 0, positions: 4, values: 8, connectivity: 12, offsets: 16, incidence: 20, cells: 24, stamps: 28, tick: 32, cellStamps: 36,
-  ring1: 40, ring2: 44, n1: 48, need: 52,
+  ring1: 40, ring2: 44, n1: 48, need: 52, limit: 56,
 };
+/** CONFIG fields that hold numbers, not addresses (every other field is an address from `base` on). */
+const COUNTS = [CONFIG.tick, CONFIG.n1, CONFIG.need];
 /** Byte offsets from STATS_AT of the last gather's f64 statistics: Σdx, Σdy, Σdz over the neighbours apart, their count, 1/h. */
 export const STATS = { mx: 0, my: 8, mz: 16, used: 24, ih: 32, oneSided: 40 };
 /** What `one` and `two` return besides a slot count. */
@@ -84,11 +93,11 @@ function fitBody(nc) {
   const splat = (name, bytes) => { emit(0x44, bytes); emit(simd(OP.splat)); set(V(name)); };
   const stride = 16 * (3 + nc);
   // ih = the two scales, tol = the pivot tolerance; p = first slot; end = p + n·stride
-  emit(0x41, sleb(0)); emit(simd(OP.load), memarg(SCALE_AT)); set(V('ih'));
-  emit(0x41, sleb(0)); emit(simd(OP.load), memarg(TOLERANCE_AT)); set(V('tol'));
+  emit(BASE); emit(simd(OP.load), memarg(SCALE_AT)); set(V('ih'));
+  emit(BASE); emit(simd(OP.load), memarg(TOLERANCE_AT)); set(V('tol'));
   const f64 = (x) => [...new Uint8Array(new Float64Array([x]).buffer)];
   splat('one', f64(1)); splat('half', f64(0.5)); splat('quarter', f64(0.25));
-  emit(0x41, sleb(0)); emit(0x28, 2, uleb(CONFIG_AT + CONFIG.slots)); set(P_LOCAL);
+  emit(BASE); emit(0x28, 2, uleb(CONFIG_AT + CONFIG.slots)); emit(BASE, 0x6a); set(P_LOCAL);
   get(P_LOCAL); get(0); emit(0x41, sleb(stride), 0x6c, 0x6a); set(END_LOCAL);
   emit(0x02, 0x40, 0x03, 0x40); // block, loop
   get(P_LOCAL); get(END_LOCAL); emit(0x4f, 0x0d, 1); // i32.ge_u; br_if 1
@@ -156,7 +165,7 @@ function fitBody(nc) {
       let_(`l${i}${j}`, mul(t, `i${j}`));
     }
   }
-  const store = (k, name) => { emit(0x41, sleb(0)); get(V(name)); emit(simd(OP.store), memarg(RESULT_AT + 16 * k)); };
+  const store = (k, name) => { emit(BASE); get(V(name)); emit(simd(OP.store), memarg(RESULT_AT + 16 * k)); };
   store(0, 'worst');
   // forward and back substitution per component (solveNine.ts gradientNine), the ½ of the square terms'
   // right-hand sides applied first; the gradient scaled back by ih
@@ -205,7 +214,10 @@ function assembler(nParams) {
     },
     ifThen: (body) => { e(0x04, 0x40); body(); e(0x0b); },
     /** Pushes the i32 at CONFIG_AT + field. */
-    config: (field) => { a.i32(0); a.load(CONFIG_AT + field); },
+    /** Pushes `base` (the start of this instance's header: the first byte of its area of a shared memory, else 0). */
+    base: () => e(BASE),
+    /** Pushes the CONFIG field `field`: a number, or an address (held relative to `base`) made absolute. */
+    config: (field) => { a.base(); a.load(CONFIG_AT + field); if (!COUNTS.includes(field)) { a.base(); a.add(); } },
     finish: () => {
       const groups = [];
       for (const t of types) { if (groups.length && groups[groups.length - 1][1] === t) groups[groups.length - 1][0]++; else groups.push([1, t]); }
@@ -217,6 +229,10 @@ function assembler(nParams) {
 }
 
 const F64 = 0x7c;
+/** `global.get 0`: the instance's `base`. */
+const BASE = [0x23, 0];
+/** True while the shared-memory module is written (`momentKernelBytes(true)`). */
+let SHARED = false;
 
 /**
  * `incidence(np, c0, c1, phase)`: node → cells rows (at CONFIG.incidence: np + 1 starts; ids at CONFIG.cells),
@@ -303,7 +319,7 @@ function ringLocals(a, first) {
   for (const k of ['tick', 'stamps', 'cellStamps', 'conn', 'off', 'inc', 'cells', 'ca', 'cb', 'b', 'be', 'q', 'sq', 'n']) L[k] = a.local(I32);
   a.config(CONFIG.stamps); a.set(L.stamps); a.config(CONFIG.cellStamps); a.set(L.cellStamps); a.config(CONFIG.connectivity); a.set(L.conn); a.config(CONFIG.offsets); a.set(L.off);
   a.config(CONFIG.incidence); a.set(L.inc); a.config(CONFIG.cells); a.set(L.cells);
-  a.i32(0); a.config(CONFIG.tick); a.i32(1); a.add(); a.tee(L.tick); a.store(CONFIG_AT + CONFIG.tick);
+  a.base(); a.config(CONFIG.tick); a.i32(1); a.add(); a.tee(L.tick); a.store(CONFIG_AT + CONFIG.tick);
   a.get(first); a.i32(2); a.shl(); a.get(L.stamps); a.add(); a.get(L.tick); a.store();
   return L;
 }
@@ -342,8 +358,11 @@ function gatherBody(nc) {
   const f = [a.local(F64), a.local(F64), a.local(F64)];
   const step = 16 * (3 + nc);
   // room for n slots, else RING.room (n left at CONFIG.need for the caller to grow the memory)
-  a.config(CONFIG.slots); a.get(N); a.i32(step); a.mul(); a.add(); a.e(0x3f, 0); a.i32(16); a.shl(); a.e(0x4b); // i32.gt_u
-  a.ifThen(() => { a.i32(0); a.get(N); a.store(CONFIG_AT + CONFIG.need); a.i32(RING.room); a.e(0x0f); });
+  a.config(CONFIG.slots); a.get(N); a.i32(step); a.mul(); a.add();
+  // a private memory ends the slots; in a shared memory they end at this area's limit (the next area follows)
+  if (SHARED) a.config(CONFIG.limit); else { a.e(0x3f, 0); a.i32(16); a.shl(); }
+  a.e(0x4b); // i32.gt_u
+  a.ifThen(() => { a.base(); a.get(N); a.store(CONFIG_AT + CONFIG.need); a.i32(RING.room); a.e(0x0f); });
   a.config(CONFIG.positions); a.set(pos); a.config(CONFIG.values); a.set(val);
   a.config(CONFIG.slots); a.get(LANE); a.i32(3); a.shl(); a.add(); a.set(o);
   a.get(I); a.i32(24); a.mul(); a.get(pos); a.add(); a.tee(q); a.fload(0); a.set(x0); a.get(q); a.fload(8); a.set(y0); a.get(q); a.fload(16); a.set(z0);
@@ -383,16 +402,16 @@ function gatherBody(nc) {
   a.get(used); a.eqz(); a.ifThen(() => { a.i32(-1); a.e(0x0f); });
   // ih = 1 / sqrt(h2 / used), as pairedFit.ts computes it
   a.e(0x44, f64Bytes(1)); a.get(h2); a.get(used); a.e(0xb7); a.fdiv(); a.fsqrt(); a.fdiv(); a.set(ih);
-  a.i32(0); a.get(LANE); a.i32(3); a.shl(); a.add(); a.get(ih); a.fstore(SCALE_AT);
-  a.i32(0); a.get(mx); a.fstore(STATS_AT + STATS.mx); a.i32(0); a.get(my); a.fstore(STATS_AT + STATS.my);
-  a.i32(0); a.get(mz); a.fstore(STATS_AT + STATS.mz); a.i32(0); a.get(used); a.e(0xb7); a.fstore(STATS_AT + STATS.used);
-  a.i32(0); a.get(ih); a.fstore(STATS_AT + STATS.ih);
+  a.base(); a.get(LANE); a.i32(3); a.shl(); a.add(); a.get(ih); a.fstore(SCALE_AT);
+  a.base(); a.get(mx); a.fstore(STATS_AT + STATS.mx); a.base(); a.get(my); a.fstore(STATS_AT + STATS.my);
+  a.base(); a.get(mz); a.fstore(STATS_AT + STATS.mz); a.base(); a.get(used); a.e(0xb7); a.fstore(STATS_AT + STATS.used);
+  a.base(); a.get(ih); a.fstore(STATS_AT + STATS.ih);
   // the one-sided test, |Σd·ih|² against (ONE_SIDED·used)², decided here only outside the band
   a.get(TEST);
   a.ifThen(() => {
     a.get(mx); a.get(ih); a.fmul(); a.set(dx); a.get(my); a.get(ih); a.fmul(); a.set(dy); a.get(mz); a.get(ih); a.fmul(); a.set(dz);
     a.get(dx); a.get(dx); a.fmul(); a.get(dy); a.get(dy); a.fmul(); a.fadd(); a.get(dz); a.get(dz); a.fmul(); a.fadd(); a.set(r2);
-    a.i32(0); a.fload(STATS_AT + STATS.oneSided); a.get(used); a.e(0xb7); a.fmul(); a.tee(h2); a.get(h2); a.fmul(); a.set(h2);
+    a.base(); a.fload(STATS_AT + STATS.oneSided); a.get(used); a.e(0xb7); a.fmul(); a.tee(h2); a.get(h2); a.fmul(); a.set(h2);
     a.get(r2); a.e(0x44, f64Bytes(1 + BAND)); a.get(h2); a.fmul(); a.fgt(); a.ifThen(() => { a.i32(RING.skewed); a.e(0x0f); });
     a.get(r2); a.e(0x44, f64Bytes(1 - BAND)); a.get(h2); a.fmul(); a.e(0x63); // f64.lt
     a.eqz(); a.ifThen(() => { a.i32(RING.ask); a.e(0x0f); });
@@ -404,7 +423,7 @@ function gatherBody(nc) {
 /** `one(lane, i)`: node i's one-ring walked to CONFIG.ring1 (its length kept at CONFIG.n1) and gathered, with the one-sided test. */
 function oneBody(walkFn, gatherFn) {
   const a = assembler(2), LANE = 0, I = 1;
-  a.i32(0); a.get(I); a.config(CONFIG.ring1); a.e(0x10, uleb(walkFn)); a.store(CONFIG_AT + CONFIG.n1);
+  a.base(); a.get(I); a.config(CONFIG.ring1); a.e(0x10, uleb(walkFn)); a.store(CONFIG_AT + CONFIG.n1);
   a.get(LANE); a.get(I); a.config(CONFIG.ring1); a.config(CONFIG.n1); a.i32(1); a.e(0x10, uleb(gatherFn));
   return a.finish();
 }
@@ -415,7 +434,7 @@ function oneBody(walkFn, gatherFn) {
  */
 function twoBody(walkFn, twoRingFn, gatherFn) {
   const a = assembler(3), LANE = 0, I = 1, FRESH = 2;
-  a.get(FRESH); a.ifThen(() => { a.i32(0); a.get(I); a.config(CONFIG.ring1); a.e(0x10, uleb(walkFn)); a.store(CONFIG_AT + CONFIG.n1); });
+  a.get(FRESH); a.ifThen(() => { a.base(); a.get(I); a.config(CONFIG.ring1); a.e(0x10, uleb(walkFn)); a.store(CONFIG_AT + CONFIG.n1); });
   a.get(LANE); a.get(I); a.config(CONFIG.ring2);
   a.get(I); a.config(CONFIG.ring1); a.config(CONFIG.n1); a.config(CONFIG.ring2); a.e(0x10, uleb(twoRingFn));
   a.i32(0); a.e(0x10, uleb(gatherFn));
@@ -424,26 +443,44 @@ function twoBody(walkFn, twoRingFn, gatherFn) {
 
 const f64Bytes = (x) => [...new Uint8Array(new Float64Array([x]).buffer)];
 
-export function momentKernelBytes() {
+/**
+ * The module's bytes; `shared`: the variant over a shared memory (imported shared, up to 4 GiB), whose instances
+ * each work from their own `base` (a header, stamps, ring lists and slots of their own) on one held mesh.
+ */
+export function momentKernelBytes(shared = false) {
+  SHARED = shared;
+  try {
+    return moduleBytes(shared);
+  } finally {
+    SHARED = false;
+  }
+}
+
+function moduleBytes(shared) {
   return Uint8Array.from([
     0x00, 0x61, 0x73, 0x6d, 0x01, 0x00, 0x00, 0x00,
     // types: 0 (i32) → (); 1 (i32 ×4) → (); 2 (i32, i32) → i32; 3 (i32, i32, i32, i32) → i32; 4 (i32 ×5) → i32; 5 (i32 ×3) → i32
     ...section(1, vec([[0x60, 1, I32, 0], [0x60, 4, I32, I32, I32, I32, 0], [0x60, 2, I32, I32, 1, I32], [0x60, 4, I32, I32, I32, I32, 1, I32],
       [0x60, 5, I32, I32, I32, I32, I32, 1, I32], [0x60, 3, I32, I32, I32, 1, I32]])),
     // the memory is the caller's (env.memory, at least one page): it is replaced by a larger one rather than grown
-    ...section(2, vec([[...name('env'), ...name('memory'), 0x02, 0x00, 1]])),
+    // (shared: flags 3, at least one page and at most 65536; it is grown, never replaced, and growing a shared
+    // memory detaches nothing)
+    ...section(2, vec([[...name('env'), ...name('memory'), 0x02, ...(shared ? [0x03, 1, ...uleb(65536)] : [0x00, 1])]])),
     // functions 0 fit1, 1 fit3, 2 incidence, 3 walk, 4 twoRing, 5 gather1, 6 gather3, 7 one1, 8 one3, 9 two1, 10 two3
     ...section(3, vec([[0], [0], [1], [2], [3], [4], [4], [2], [2], [5], [5]])),
-    ...section(7, vec([[...name('memory'), 0x02, 0], [...name('fit1'), 0x00, 0], [...name('fit3'), 0x00, 1], [...name('incidence'), 0x00, 2],
+    // global 0: `base`, mutable i32, 0 until the caller sets it
+    ...section(6, vec([[I32, 1, 0x41, 0, 0x0b]])),
+    ...section(7, vec([[...name('memory'), 0x02, 0], [...name('base'), 0x03, 0], [...name('fit1'), 0x00, 0], [...name('fit3'), 0x00, 1], [...name('incidence'), 0x00, 2],
       [...name('one1'), 0x00, 7], [...name('one3'), 0x00, 8], [...name('two1'), 0x00, 9], [...name('two3'), 0x00, 10]])),
     ...section(10, vec([fitBody(1), fitBody(3), incidenceBody(), walkBody(), twoRingBody(), gatherBody(1), gatherBody(3),
       oneBody(3, 5), oneBody(3, 6), twoBody(3, 4, 5), twoBody(3, 4, 6)])),
   ]);
 }
 
+const base64Lines = (bytes) => Buffer.from(bytes).toString('base64').match(/.{1,100}/g).map((s) => `  '${s}'`).join(' +\n');
+
 export function momentKernelSource() {
-  const b64 = Buffer.from(momentKernelBytes()).toString('base64');
-  const lines = b64.match(/.{1,100}/g).map((s) => `  '${s}'`).join(' +\n');
+  const lines = base64Lines(momentKernelBytes()), sharedLines = base64Lines(momentKernelBytes(true));
   return `/**
  * The WebAssembly SIMD kernel of the quadratic gradient fit (see momentKernel.ts), as base64.
  * Written by bin/write-moment-kernel.mjs — edit the generator, not this file.
@@ -465,6 +502,10 @@ export const KERNEL_RING = ${JSON.stringify(RING).replace(/"/g, '').replace(/:/g
 
 export const MOMENT_KERNEL_BASE64 =
 ${lines};
+
+/** The same kernel over a shared memory (imported shared; each instance's header, stamps and slots from its \`base\` on). */
+export const MOMENT_KERNEL_SHARED_BASE64 =
+${sharedLines};
 `;
 }
 

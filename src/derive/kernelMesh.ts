@@ -119,8 +119,11 @@ export function holdMesh(K: MomentKernel, p: Piece, values: NumericArray, nc: nu
 /** Cells per call of the kernel's incidence passes (the first calls run in the baseline tier). */
 const CHUNK = 1 << 15;
 
-/** The held mesh's node → cells rows (starts from byte `inc` + 8, np + 3 entries from `inc`; `zeroed`: they are 0 already). */
-function buildIncidence(K: MomentKernel, np: number, cells: number, inc: number, zeroed: boolean): void {
+/**
+ * The node → cells rows of the mesh kernel `K` holds (its CONFIG set): starts from byte `inc` + 8, np + 3 entries
+ * from `inc`; `zeroed`: they are 0 already. Also sharedKernelMesh.ts's.
+ */
+export function buildIncidence(K: MomentKernel, np: number, cells: number, inc: number, zeroed: boolean): void {
   if (!zeroed) K.i32.fill(0, inc / 4, inc / 4 + np + 3);
   for (let c = 0; c < cells; c += CHUNK) K.incidence(np, c, Math.min(cells, c + CHUNK), 0);
   K.incidence(np, 0, 0, 1);
