@@ -13,6 +13,7 @@ import { momentKernel, useMomentKernel } from '../../src/derive/momentKernel.ts'
 import { pointStencil, type Stencil } from '../../src/derive/stencils.ts';
 import { pointStencilAround } from '../../src/derive/localStencil.ts';
 import { smoothFields } from './smoothFields.ts';
+import { tetrahedronFan } from './fanMesh.ts';
 import { boxMesh, rng, type BoxKind } from '../cut/meshes.ts';
 import { meshAtInto, meshInto } from '../../src/derive/pairedFit.ts';
 import { holdMesh, isHeld, releaseMesh } from '../../src/derive/kernelMesh.ts';
@@ -135,13 +136,7 @@ describe('the kernel walking its own copy of the mesh (kernelMesh.ts, pairedFit.
   }
 
   it('makes room for a ring larger than the memory it was given (a node in 1500 tetrahedra: a ring of 4500), same bits', () => {
-    const r = rng(11), n = 1500, np = 1 + 3 * n;
-    const points = new Float64Array(3 * np);
-    for (let i = 3; i < 3 * np; i++) points[i] = r() - 0.5;
-    const connectivity = new Int32Array(4 * n), offsets = new Int32Array(n + 1);
-    for (let k = 0; k < n; k++) { connectivity.set([0, 1 + 3 * k, 2 + 3 * k, 3 + 3 * k], 4 * k); offsets[k + 1] = 4 * (k + 1); }
-    const fan: Piece = { points, connectivity, offsets, cellTypes: new Uint8Array(n).fill(10), pointData: [], cellData: [] };
-    const u = Float64Array.from({ length: 3 * np }, (_, i) => Math.sin(points[i]! * 3 + (i % 3)) + points[i - (i % 3)]! ** 2);
+    const n = 1500, { fan, u } = tetrahedronFan(n);
     const K = momentKernel()!, ref = reference(fan, u, 3);
     // held first: the fit itself must then find its slots short and move to a larger memory mid-way
     expect(holdMesh(K, fan, u, 3)).not.toBeNull();

@@ -13,7 +13,8 @@ import { pointStencil } from '../../src/derive/stencils.ts';
 import { attachKernelMesh, holdsMesh, isAttached, loadValues, makeSharedKernelMesh, sharedMeshInto } from '../../src/derive/sharedKernelMesh.ts';
 import { nodeRanges } from '../../src/derive/rangeGradient.ts';
 import { smoothFields } from './smoothFields.ts';
-import { boxMesh, rng, type BoxKind } from '../cut/meshes.ts';
+import { tetrahedronFan } from './fanMesh.ts';
+import { boxMesh, type BoxKind } from '../cut/meshes.ts';
 import type { Piece } from '../../src/model/piece.ts';
 import type { NumericArray } from '../../src/model/fieldArray.ts';
 
@@ -62,13 +63,7 @@ describe('a kernel mesh held once in shared memory, fitted from several areas', 
   }
 
   it('a ring larger than an area\'s slots (a node in 1500 tetrahedra: a ring of 4500) grows the memory, moves the slots, same bits', () => {
-    const r = rng(11), n = 1500, np = 1 + 3 * n;
-    const points = new Float64Array(3 * np);
-    for (let i = 3; i < 3 * np; i++) points[i] = r() - 0.5;
-    const connectivity = new Int32Array(4 * n), offsets = new Int32Array(n + 1);
-    for (let k = 0; k < n; k++) { connectivity.set([0, 1 + 3 * k, 2 + 3 * k, 3 + 3 * k], 4 * k); offsets[k + 1] = 4 * (k + 1); }
-    const fan: Piece = { points, connectivity, offsets, cellTypes: new Uint8Array(n).fill(10), pointData: [], cellData: [] };
-    const u = Float64Array.from({ length: 3 * np }, (_, i) => Math.sin(points[i]! * 3 + (i % 3)) + points[i - (i % 3)]! ** 2);
+    const n = 1500, np = 1 + 3 * n, { fan, u } = tetrahedronFan(n);
     const m = makeSharedKernelMesh(fan, 2)!, bytes = m.ref.memory.buffer.byteLength;
     loadValues(m, u, 3);
     const got = new Float64Array(9 * np);
