@@ -16,8 +16,9 @@
  *  - the same wall quantities with the wall nodes' gradient fitted by the worker pool (1 and 2 workers, a run of
  *    wall nodes each; src/parallel/deriveShares.ts `primeWallGradients`, as `fieldtally wall --workers N`): `cold`
  *    on a fresh pool and mesh, boundary faces and groups not timed.
- *  - the same vorticity and Q on the worker pool (1 and 2 workers, each fitting a range of nodes over its own
- *    copy of the mesh in the moment kernel and writing that range's ω and Q into shared results;
+ *  - the same vorticity and Q on the worker pool (1 and 2 workers, each fitting a range of nodes in the moment
+ *    kernel — 1 worker over its own copy of the mesh, 2 over one copy in shared memory made on this thread,
+ *    src/derive/sharedKernelMesh.ts — and writing that range's ω and Q into shared results;
  *    src/parallel/deriveShares.ts): `cold` on a fresh pool and mesh — the kernel's copy of the mesh and its
  *    node → cells rows are made in the timed part, as a first request makes them. Pool start-up and the copy
  *    into shared memory are not timed; CPU time there is the whole process's (workers included), and each

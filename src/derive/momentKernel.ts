@@ -96,7 +96,12 @@ export function sharedMomentKernel(memory: WebAssembly.Memory, base: number): Mo
     compiledShared = null;
   }
   if (!compiledShared) return null;
-  const e = new WebAssembly.Instance(compiledShared, { env: { memory } }).exports as unknown as KernelExports & { base: WebAssembly.Global };
+  let e: KernelExports & { base: WebAssembly.Global };
+  try {
+    e = new WebAssembly.Instance(compiledShared, { env: { memory } }).exports as unknown as KernelExports & { base: WebAssembly.Global };
+  } catch {
+    return null;
+  }
   e.base.value = base;
   const k: MomentKernel = {
     fit1: e.fit1, fit3: e.fit3, incidence: e.incidence, one1: e.one1, one3: e.one3, two1: e.two1, two3: e.two3,
