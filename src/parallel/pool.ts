@@ -228,7 +228,7 @@ export class ComputePool {
   /**
    * The quadratic least-squares gradient of point field `field` of piece `piece` at the chosen `nodes` only
    * (`pointGradientAt`'s layout and values, bit for bit): the list split into one contiguous run per worker, each
-   * fitting its run over its nodes' own neighbour rows into one shared array (src/parallel/deriveShares.ts).
+   * fitting its run with `pointGradientAt` (fieldGradient.ts) into one shared array (src/parallel/deriveShares.ts).
    */
   async pointGradientAt(piece: number, field: string, nodes: Int32Array): Promise<Float64Array> {
     const p = this.dataset.pieces[piece], f = p && findField(p, field, 'point');
