@@ -191,7 +191,8 @@ export class ComputePool {
   /**
    * The quadratic least-squares gradient of point field `field` of piece `piece` (`fieldGradient`'s layout and
    * values, bit for bit): the piece's nodes split into one contiguous range per worker, each worker filling its
-   * range of one shared array (src/parallel/deriveShares.ts).
+   * range of one shared array (src/parallel/deriveShares.ts). `kernelMesh`: the id of a shared kernel mesh every
+   * worker has attached (`attachKernelMesh`) and that holds this field's values, to fit there.
    */
   async pointGradient(piece: number, field: string, kernelMesh?: number): Promise<Float64Array> {
     const p = this.dataset.pieces[piece], f = p && findField(p, field, 'point');
@@ -210,7 +211,7 @@ export class ComputePool {
    * Quantities of the velocity gradient of point field `field` of piece `piece` (`names`: NODE_QUANTITIES of
    * src/derive/derivedFields.ts, with their components), each as `withDerivedFields` makes it, bit for bit: the
    * nodes split as for `pointGradient`, each worker writing its range of every quantity into shared arrays; the
-   * gradient itself stays in the workers.
+   * gradient itself stays in the workers. `kernelMesh` as for `pointGradient`.
    */
   async pointDerived(piece: number, field: string, names: readonly { name: DerivedName; components: number }[], kernelMesh?: number): Promise<Float64Array[]> {
     const p = this.dataset.pieces[piece], f = p && findField(p, field, 'point');
