@@ -16,11 +16,13 @@
  *  - the same wall quantities with the wall nodes' gradient fitted by the worker pool (1 and 2 workers, a run of
  *    wall nodes each; src/parallel/deriveShares.ts `primeWallGradients`, as `fieldtally wall --workers N`): `cold`
  *    on a fresh pool and mesh, boundary faces and groups not timed.
- *  - the same vorticity and Q on the worker pool (1 and 2 workers, each fitting a range of nodes over its own
- *    copy of the mesh in the moment kernel and writing that range's ω and Q into shared results;
+ *  - the same vorticity and Q on the worker pool (1 and 2 workers, each fitting a range of nodes in the moment
+ *    kernel — 1 worker over its own copy of the mesh, 2 over one copy in shared memory made on this thread,
+ *    src/derive/sharedKernelMesh.ts — and writing that range's ω and Q into shared results;
  *    src/parallel/deriveShares.ts): `cold` on a fresh pool and mesh — the kernel's copy of the mesh and its
  *    node → cells rows are made in the timed part, as a first request makes them. Pool start-up and the copy
- *    into shared memory are not timed; CPU time there is the whole process's (workers included).
+ *    into shared memory are not timed; CPU time there is the whole process's (workers included), and each
+ *    worker thread's (`cpuMsPerWorker`, from the workers' memory replies: /proc/thread-self/schedstat).
  * Every figure is wall time and CPU time (process.cpuUsage: the whole process, every thread); the machine is shared, so CPU time
  * is the steadier figure; `loadAverage` (1, 5, 15 min, from the OS) records how busy the machine was. Mesh and field building are not timed.
  */
@@ -31,6 +33,7 @@ import { getBoundaryFaces, getSurfaceGroups } from '../src/surface/surfaceCache.
 import { facesOfGroups } from '../src/surface/surfaceGroups.ts';
 import { wallQuantities } from '../src/surface/wallQuantities.ts';
 import { openNodePool } from '../src/parallel/nodePool.ts';
+import type { WorkerMemory } from '../src/parallel/shareHost.ts';
 import { primeDerivedGradients, primeWallGradients } from '../src/parallel/deriveShares.ts';
 import { momentKernel, useMomentKernel } from '../src/derive/momentKernel.ts';
 import { loadavg } from 'node:os';
@@ -87,12 +90,12 @@ export async function run(): Promise<Record<string, unknown>> {
     };
     for (const workers of [1, 2]) {
       const pool = await openNodePool(make(), workers);
-      const c0 = process.cpuUsage(), t0 = performance.now();
+      const w0 = await pool.memory(), c0 = process.cpuUsage(), t0 = performance.now();
       await primeDerivedGradients(pool, names);
       withDerivedFields(pool.dataset, names);
-      const c = process.cpuUsage(c0);
+      const c = process.cpuUsage(c0), ms = performance.now() - t0, w = workerCpu(w0, await pool.memory());
       await pool.close();
-      out[`vorticityAndQOn1MHexahedraPool${workers}`] = { cells: 1_000_000, goalMs: 500, workers, cold: { ms: performance.now() - t0, cpuMsAllThreads: (c.user + c.system) / 1000 }, loadAverage: loadAverage() };
+      out[`vorticityAndQOn1MHexahedraPool${workers}`] = { cells: 1_000_000, goalMs: 500, workers, cold: { ms, cpuMsAllThreads: (c.user + c.system) / 1000, cpuMsPerWorker: w }, loadAverage: loadAverage() };
     }
   }
   {
@@ -112,15 +115,20 @@ export async function run(): Promise<Record<string, unknown>> {
       const pool = await openNodePool(datasetOf([flow(hexGrid(224, 224, 1, (u, v, w) => [u, v, 0.01 * w]))], 'slab 224×224×1'), workers);
       const pd = pool.dataset, pf = getBoundaryFaces(pd), pg = getSurfaceGroups(pd);
       const psel = facesOfGroups(pg, pg.groups.map((g, i) => ({ g, i })).filter(({ g }) => g.faces > 10_000).map(({ i }) => i));
-      const c0 = process.cpuUsage(), t0 = performance.now();
+      const w0 = await pool.memory(), c0 = process.cpuUsage(), t0 = performance.now();
       await primeWallGradients(pool, pd, pf, psel, opts);
       wallQuantities(pd, pf, psel, opts);
-      const c = process.cpuUsage(c0);
+      const c = process.cpuUsage(c0), ms = performance.now() - t0, w = workerCpu(w0, await pool.memory());
       await pool.close();
-      out[`wallQuantitiesOn100kFacesPool${workers}`] = { faces: psel.length, goalMs: 200, workers, cold: { ms: performance.now() - t0, cpuMsAllThreads: (c.user + c.system) / 1000 }, loadAverage: loadAverage() };
+      out[`wallQuantitiesOn100kFacesPool${workers}`] = { faces: psel.length, goalMs: 200, workers, cold: { ms, cpuMsAllThreads: (c.user + c.system) / 1000, cpuMsPerWorker: w }, loadAverage: loadAverage() };
     }
   }
   return out;
+}
+
+/** Each worker's thread CPU time between two `pool.memory()` replies (ms; null where the platform does not tell). */
+function workerCpu(before: (WorkerMemory | null)[], after: (WorkerMemory | null)[]): (number | null)[] {
+  return after.map((m, i) => (m?.cpuMs != null && before[i]?.cpuMs != null ? Math.round(m.cpuMs - before[i]!.cpuMs!) : null));
 }
 
 const loadAverage = (): number[] => loadavg().map((v) => Math.round(v * 10) / 10);

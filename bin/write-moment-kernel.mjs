@@ -26,6 +26,13 @@
 // rare case within BAND of the bound, where squares and Math.hypot might disagree; `two1`/`two3(lane, i,
 // fresh)` gather the two-ring (neighbourRing.ts's order) from the one-ring just walked (or walked again). Stamps
 // per node and per cell, compared with a counter bumped per walk, leave repeats out without clearing.
+//
+// Every header address above (scales, tolerance, results, CONFIG, statistics) is taken from the global `base`
+// (exported; 0 unless the caller sets it), and every address held in CONFIG is relative to `base`. A private
+// memory leaves it at 0. The second module, `momentKernelBytes(true)`, imports a shared memory: several
+// instances (one per pool worker, src/derive/sharedKernelMesh.ts) walk one held mesh, each from its own area
+// (header, stamps, ring lists, slots at `base` on; the mesh below it, at negative relative addresses that wrap to
+// the right bytes), and a gather checks its slots against CONFIG.limit, the end of its area, instead of the memory's size.
 
 import { writeFileSync } from 'node:fs';
 import { dirname, join } from 'node:path';
@@ -35,8 +42,10 @@ export const SCALE_AT = 0, TOLERANCE_AT = 16, RESULT_AT = 32, CONFIG_AT = 512, S
 /** Byte offsets from CONFIG_AT of the i32 addresses (and the stamp counter) a held mesh uses. */
 export const CONFIG = {
   slots: 0, positions: 4, values: 8, connectivity: 12, offsets: 16, incidence: 20, cells: 24, stamps: 28, tick: 32, cellStamps: 36,
-  ring1: 40, ring2: 44, n1: 48, need: 52,
+  ring1: 40, ring2: 44, n1: 48, need: 52, limit: 56,
 };
+/** CONFIG fields that hold numbers, not addresses (every other field is an address from `base` on). */
+const COUNTS = [CONFIG.tick, CONFIG.n1, CONFIG.need];
 /** Byte offsets from STATS_AT of the last gather's f64 statistics: Σdx, Σdy, Σdz over the neighbours apart, their count, 1/h. */
 export const STATS = { mx: 0, my: 8, mz: 16, used: 24, ih: 32, oneSided: 40 };
 /** What `one` and `two` return besides a slot count. */
@@ -62,6 +71,12 @@ const simd = (op) => [0xfd, ...uleb(op)];
 const OP = { load: 0x00, store: 0x0b, splat: 0x14, lt: 0x49, gt: 0x4a, and: 0x4e, bitselect: 0x52, sqrt: 0xef, add: 0xf0, sub: 0xf1, mul: 0xf2, div: 0xf3 };
 const memarg = (offset) => [4, ...uleb(offset)];
 
+/**
+ * Slots per step of the fit's loop (see `accumulate`). Measured (the fit of a pair over 26 slots, interleaved
+ * in one process): 2 took 0.66–0.72 of one's time, 3 about 0.78, 4 about 0.82 (more values live at once).
+ */
+const UNROLL = 2;
+
 /** The body of `fit<nc>(n)`. */
 function fitBody(nc) {
   const code = [];
@@ -84,43 +99,61 @@ function fitBody(nc) {
   const splat = (name, bytes) => { emit(0x44, bytes); emit(simd(OP.splat)); set(V(name)); };
   const stride = 16 * (3 + nc);
   // ih = the two scales, tol = the pivot tolerance; p = first slot; end = p + n·stride
-  emit(0x41, sleb(0)); emit(simd(OP.load), memarg(SCALE_AT)); set(V('ih'));
-  emit(0x41, sleb(0)); emit(simd(OP.load), memarg(TOLERANCE_AT)); set(V('tol'));
+  emit(BASE); emit(simd(OP.load), memarg(SCALE_AT)); set(V('ih'));
+  emit(BASE); emit(simd(OP.load), memarg(TOLERANCE_AT)); set(V('tol'));
   const f64 = (x) => [...new Uint8Array(new Float64Array([x]).buffer)];
   splat('one', f64(1)); splat('half', f64(0.5)); splat('quarter', f64(0.25));
-  emit(0x41, sleb(0)); emit(0x28, 2, uleb(CONFIG_AT + CONFIG.slots)); set(P_LOCAL);
+  emit(BASE); emit(0x28, 2, uleb(CONFIG_AT + CONFIG.slots)); emit(BASE, 0x6a); set(P_LOCAL);
   get(P_LOCAL); get(0); emit(0x41, sleb(stride), 0x6c, 0x6a); set(END_LOCAL);
-  emit(0x02, 0x40, 0x03, 0x40); // block, loop
-  get(P_LOCAL); get(END_LOCAL); emit(0x4f, 0x0d, 1); // i32.ge_u; br_if 1
-  const load = (slot, dst, scaled) => {
-    get(P_LOCAL); emit(simd(OP.load), memarg(16 * slot));
-    if (scaled) { get(V('ih')); emit(simd(OP.mul)); }
-    set(V(dst));
+  // A slot's values and products, in locals named with the suffix `sfx` (slot `k` of the step: bytes from
+  // P + k·stride on).
+  const slotValues = (sfx, k) => {
+    const L = (n) => n + sfx;
+    const load = (slot, dst, scaled) => {
+      get(P_LOCAL); emit(simd(OP.load), memarg(k * stride + 16 * slot));
+      if (scaled) { get(V('ih')); emit(simd(OP.mul)); }
+      set(V(L(dst)));
+    };
+    load(0, 'x', true); load(1, 'y', true); load(2, 'z', true);
+    // r2 = x·x + y·y + z·z; w = 1/r2 where r2 > 0, else 0 (a coincident or padding slot adds nothing)
+    let_(L('r2'), add(add(mul(L('x'), L('x')), mul(L('y'), L('y'))), mul(L('z'), L('z'))));
+    get(V(L('r2'))); emit(0xfd, 0x0c, new Array(16).fill(0)); emit(simd(OP.gt)); set(V(L('mask')));
+    let_(L('w'), ['and', ['div', 'one', L('r2')], L('mask')]);
+    for (const [n, a, b] of [['wx', 'w', 'x'], ['wy', 'w', 'y'], ['wz', 'w', 'z'], ['wxx', 'wx', 'x'], ['wyy', 'wy', 'y'], ['wzz', 'wz', 'z'],
+      ['wxy', 'wx', 'y'], ['wxz', 'wx', 'z'], ['wyz', 'wy', 'z'], ['xx', 'x', 'x'], ['yy', 'y', 'y'], ['zz', 'z', 'z'],
+      ['xy', 'x', 'y'], ['xz', 'x', 'z'], ['yz', 'y', 'z']]) let_(L(n), mul(L(a), L(b)));
+    for (let c = 0; c < nc; c++) {
+      // Δf masked like w, so a non-finite value at a coincident neighbour adds nothing (the scalar code skips it)
+      get(P_LOCAL); emit(simd(OP.load), memarg(k * stride + 16 * (3 + c))); get(V(L('mask'))); emit(simd(OP.and)); set(V(L(`g${c}`)));
+    }
   };
-  load(0, 'x', true); load(1, 'y', true); load(2, 'z', true);
-  // r2 = x·x + y·y + z·z; w = 1/r2 where r2 > 0, else 0 (a coincident or padding slot adds nothing)
-  let_('r2', add(add(mul('x', 'x'), mul('y', 'y')), mul('z', 'z')));
-  get(V('r2')); emit(0xfd, 0x0c, new Array(16).fill(0)); emit(simd(OP.gt)); set(V('mask'));
-  let_('w', ['and', ['div', 'one', 'r2'], 'mask']);
-  for (const [n, a, b] of [['wx', 'w', 'x'], ['wy', 'w', 'y'], ['wz', 'w', 'z'], ['wxx', 'wx', 'x'], ['wyy', 'wy', 'y'], ['wzz', 'wz', 'z'],
-    ['wxy', 'wx', 'y'], ['wxz', 'wx', 'z'], ['wyz', 'wy', 'z'], ['xx', 'x', 'x'], ['yy', 'y', 'y'], ['zz', 'z', 'z'],
-    ['xy', 'x', 'y'], ['xz', 'x', 'z'], ['yz', 'y', 'z']]) let_(n, mul(a, b));
-  const addTo = (s, a) => let_(s, add(s, a));
-  const acc = (s, a, b) => let_(s, add(s, mul(a, b)));
-  addTo('sxx', 'wxx'); addTo('syy', 'wyy'); addTo('szz', 'wzz'); addTo('sxy', 'wxy'); addTo('sxz', 'wxz'); addTo('syz', 'wyz');
-  acc('txxx', 'wxx', 'x'); acc('txxy', 'wxx', 'y'); acc('txxz', 'wxx', 'z'); acc('txyy', 'wyy', 'x'); acc('tyyy', 'wyy', 'y');
-  acc('tyyz', 'wyy', 'z'); acc('txzz', 'wzz', 'x'); acc('tyzz', 'wzz', 'y'); acc('tzzz', 'wzz', 'z'); acc('txyz', 'wxy', 'z');
-  acc('qxxxx', 'wxx', 'xx'); acc('qyyyy', 'wyy', 'yy'); acc('qzzzz', 'wzz', 'zz'); acc('qxxxy', 'wxx', 'xy'); acc('qxxxz', 'wxx', 'xz');
-  acc('qxyyy', 'wyy', 'xy'); acc('qyyyz', 'wyy', 'yz'); acc('qxzzz', 'wzz', 'xz'); acc('qyzzz', 'wzz', 'yz'); acc('qxxyy', 'wxx', 'yy');
-  acc('qxxzz', 'wxx', 'zz'); acc('qyyzz', 'wyy', 'zz'); acc('qxxyz', 'wxx', 'yz'); acc('qxyyz', 'wyy', 'xz'); acc('qxyzz', 'wzz', 'xy');
+  // Every sum: [sum, a] adds a, [sum, a, b] adds a·b (operands named without the slot's suffix)
+  const sums = [['sxx', 'wxx'], ['syy', 'wyy'], ['szz', 'wzz'], ['sxy', 'wxy'], ['sxz', 'wxz'], ['syz', 'wyz'],
+    ['txxx', 'wxx', 'x'], ['txxy', 'wxx', 'y'], ['txxz', 'wxx', 'z'], ['txyy', 'wyy', 'x'], ['tyyy', 'wyy', 'y'],
+    ['tyyz', 'wyy', 'z'], ['txzz', 'wzz', 'x'], ['tyzz', 'wzz', 'y'], ['tzzz', 'wzz', 'z'], ['txyz', 'wxy', 'z'],
+    ['qxxxx', 'wxx', 'xx'], ['qyyyy', 'wyy', 'yy'], ['qzzzz', 'wzz', 'zz'], ['qxxxy', 'wxx', 'xy'], ['qxxxz', 'wxx', 'xz'],
+    ['qxyyy', 'wyy', 'xy'], ['qyyyz', 'wyy', 'yz'], ['qxzzz', 'wzz', 'xz'], ['qyzzz', 'wzz', 'yz'], ['qxxyy', 'wxx', 'yy'],
+    ['qxxzz', 'wxx', 'zz'], ['qyyzz', 'wyy', 'zz'], ['qxxyz', 'wxx', 'yz'], ['qxyyz', 'wyy', 'xz'], ['qxyzz', 'wzz', 'xy']];
   const m = ['wx', 'wy', 'wz', 'wxx', 'wyy', 'wzz', 'wxy', 'wxz', 'wyz'];
-  for (let c = 0; c < nc; c++) {
-    // Δf masked like w, so a non-finite value at a coincident neighbour adds nothing (the scalar code skips it)
-    get(P_LOCAL); emit(simd(OP.load), memarg(16 * (3 + c))); get(V('mask')); emit(simd(OP.and)); set(V(`g${c}`));
-    for (let a = 0; a < 9; a++) acc(`b${a}_${c}`, m[a], `g${c}`);
-  }
-  get(P_LOCAL); emit(0x41, sleb(stride), 0x6a); set(P_LOCAL);
+  for (let c = 0; c < nc; c++) for (let a = 0; a < 9; a++) sums.push([`b${a}_${c}`, m[a], `g${c}`]);
+  // each sum takes the step's slots one after the other, in slot order (the scalar code's order): ((s + t0) + t1)
+  const accumulate = (sfxs) => {
+    for (const [sum, a, b] of sums) for (const x of sfxs) let_(sum, add(sum, b ? mul(a + x, b + x) : a + x));
+  };
+  // two slots a step: a sum is read and written once per two slots (the ~60 sums do not fit in registers, so
+  // each is spilled: one load and one store per step instead of per slot); an odd last slot alone
+  const step = Array.from({ length: UNROLL }, (_, k) => `_${k}`);
+  emit(0x02, 0x40, 0x03, 0x40); // block, loop
+  get(P_LOCAL); emit(0x41, sleb((UNROLL - 1) * stride), 0x6a); get(END_LOCAL); emit(0x4f, 0x0d, 1); // fewer than UNROLL left: br_if 1
+  step.forEach((x, k) => slotValues(x, k)); accumulate(step);
+  get(P_LOCAL); emit(0x41, sleb(UNROLL * stride), 0x6a); set(P_LOCAL);
   emit(0x0c, 0, 0x0b, 0x0b); // br 0; end loop; end block
+  // the last slots one at a time
+  emit(0x02, 0x40, 0x03, 0x40);
+  get(P_LOCAL); get(END_LOCAL); emit(0x4f, 0x0d, 1);
+  slotValues('_0', 0); accumulate(['_0']);
+  get(P_LOCAL); emit(0x41, sleb(stride), 0x6a); set(P_LOCAL);
+  emit(0x0c, 0, 0x0b, 0x0b);
 
   // the normal matrix (unknowns g_x, g_y, g_z, H_xx, H_yy, H_zz, H_xy, H_xz, H_yz), as fitSums assembles it
   const M = [['sxx', 'sxy', 'sxz', ['h', 'txxx'], ['h', 'txyy'], ['h', 'txzz'], 'txxy', 'txxz', 'txyz'],
@@ -156,7 +189,7 @@ function fitBody(nc) {
       let_(`l${i}${j}`, mul(t, `i${j}`));
     }
   }
-  const store = (k, name) => { emit(0x41, sleb(0)); get(V(name)); emit(simd(OP.store), memarg(RESULT_AT + 16 * k)); };
+  const store = (k, name) => { emit(BASE); get(V(name)); emit(simd(OP.store), memarg(RESULT_AT + 16 * k)); };
   store(0, 'worst');
   // forward and back substitution per component (solveNine.ts gradientNine), the ½ of the square terms'
   // right-hand sides applied first; the gradient scaled back by ih
@@ -205,7 +238,10 @@ function assembler(nParams) {
     },
     ifThen: (body) => { e(0x04, 0x40); body(); e(0x0b); },
     /** Pushes the i32 at CONFIG_AT + field. */
-    config: (field) => { a.i32(0); a.load(CONFIG_AT + field); },
+    /** Pushes `base` (the start of this instance's header: the first byte of its area of a shared memory, else 0). */
+    base: () => e(BASE),
+    /** Pushes the CONFIG field `field`: a number, or an address (held relative to `base`) made absolute. */
+    config: (field) => { a.base(); a.load(CONFIG_AT + field); if (!COUNTS.includes(field)) { a.base(); a.add(); } },
     finish: () => {
       const groups = [];
       for (const t of types) { if (groups.length && groups[groups.length - 1][1] === t) groups[groups.length - 1][0]++; else groups.push([1, t]); }
@@ -217,6 +253,10 @@ function assembler(nParams) {
 }
 
 const F64 = 0x7c;
+/** `global.get 0`: the instance's `base`. */
+const BASE = [0x23, 0];
+/** True while the shared-memory module is written (`momentKernelBytes(true)`). */
+let SHARED = false;
 
 /**
  * `incidence(np, c0, c1, phase)`: node → cells rows (at CONFIG.incidence: np + 1 starts; ids at CONFIG.cells),
@@ -303,7 +343,7 @@ function ringLocals(a, first) {
   for (const k of ['tick', 'stamps', 'cellStamps', 'conn', 'off', 'inc', 'cells', 'ca', 'cb', 'b', 'be', 'q', 'sq', 'n']) L[k] = a.local(I32);
   a.config(CONFIG.stamps); a.set(L.stamps); a.config(CONFIG.cellStamps); a.set(L.cellStamps); a.config(CONFIG.connectivity); a.set(L.conn); a.config(CONFIG.offsets); a.set(L.off);
   a.config(CONFIG.incidence); a.set(L.inc); a.config(CONFIG.cells); a.set(L.cells);
-  a.i32(0); a.config(CONFIG.tick); a.i32(1); a.add(); a.tee(L.tick); a.store(CONFIG_AT + CONFIG.tick);
+  a.base(); a.config(CONFIG.tick); a.i32(1); a.add(); a.tee(L.tick); a.store(CONFIG_AT + CONFIG.tick);
   a.get(first); a.i32(2); a.shl(); a.get(L.stamps); a.add(); a.get(L.tick); a.store();
   return L;
 }
@@ -342,8 +382,11 @@ function gatherBody(nc) {
   const f = [a.local(F64), a.local(F64), a.local(F64)];
   const step = 16 * (3 + nc);
   // room for n slots, else RING.room (n left at CONFIG.need for the caller to grow the memory)
-  a.config(CONFIG.slots); a.get(N); a.i32(step); a.mul(); a.add(); a.e(0x3f, 0); a.i32(16); a.shl(); a.e(0x4b); // i32.gt_u
-  a.ifThen(() => { a.i32(0); a.get(N); a.store(CONFIG_AT + CONFIG.need); a.i32(RING.room); a.e(0x0f); });
+  a.config(CONFIG.slots); a.get(N); a.i32(step); a.mul(); a.add();
+  // a private memory ends the slots; in a shared memory they end at this area's limit (the next area follows)
+  if (SHARED) a.config(CONFIG.limit); else { a.e(0x3f, 0); a.i32(16); a.shl(); }
+  a.e(0x4b); // i32.gt_u
+  a.ifThen(() => { a.base(); a.get(N); a.store(CONFIG_AT + CONFIG.need); a.i32(RING.room); a.e(0x0f); });
   a.config(CONFIG.positions); a.set(pos); a.config(CONFIG.values); a.set(val);
   a.config(CONFIG.slots); a.get(LANE); a.i32(3); a.shl(); a.add(); a.set(o);
   a.get(I); a.i32(24); a.mul(); a.get(pos); a.add(); a.tee(q); a.fload(0); a.set(x0); a.get(q); a.fload(8); a.set(y0); a.get(q); a.fload(16); a.set(z0);
@@ -383,16 +426,16 @@ function gatherBody(nc) {
   a.get(used); a.eqz(); a.ifThen(() => { a.i32(-1); a.e(0x0f); });
   // ih = 1 / sqrt(h2 / used), as pairedFit.ts computes it
   a.e(0x44, f64Bytes(1)); a.get(h2); a.get(used); a.e(0xb7); a.fdiv(); a.fsqrt(); a.fdiv(); a.set(ih);
-  a.i32(0); a.get(LANE); a.i32(3); a.shl(); a.add(); a.get(ih); a.fstore(SCALE_AT);
-  a.i32(0); a.get(mx); a.fstore(STATS_AT + STATS.mx); a.i32(0); a.get(my); a.fstore(STATS_AT + STATS.my);
-  a.i32(0); a.get(mz); a.fstore(STATS_AT + STATS.mz); a.i32(0); a.get(used); a.e(0xb7); a.fstore(STATS_AT + STATS.used);
-  a.i32(0); a.get(ih); a.fstore(STATS_AT + STATS.ih);
+  a.base(); a.get(LANE); a.i32(3); a.shl(); a.add(); a.get(ih); a.fstore(SCALE_AT);
+  a.base(); a.get(mx); a.fstore(STATS_AT + STATS.mx); a.base(); a.get(my); a.fstore(STATS_AT + STATS.my);
+  a.base(); a.get(mz); a.fstore(STATS_AT + STATS.mz); a.base(); a.get(used); a.e(0xb7); a.fstore(STATS_AT + STATS.used);
+  a.base(); a.get(ih); a.fstore(STATS_AT + STATS.ih);
   // the one-sided test, |Σd·ih|² against (ONE_SIDED·used)², decided here only outside the band
   a.get(TEST);
   a.ifThen(() => {
     a.get(mx); a.get(ih); a.fmul(); a.set(dx); a.get(my); a.get(ih); a.fmul(); a.set(dy); a.get(mz); a.get(ih); a.fmul(); a.set(dz);
     a.get(dx); a.get(dx); a.fmul(); a.get(dy); a.get(dy); a.fmul(); a.fadd(); a.get(dz); a.get(dz); a.fmul(); a.fadd(); a.set(r2);
-    a.i32(0); a.fload(STATS_AT + STATS.oneSided); a.get(used); a.e(0xb7); a.fmul(); a.tee(h2); a.get(h2); a.fmul(); a.set(h2);
+    a.base(); a.fload(STATS_AT + STATS.oneSided); a.get(used); a.e(0xb7); a.fmul(); a.tee(h2); a.get(h2); a.fmul(); a.set(h2);
     a.get(r2); a.e(0x44, f64Bytes(1 + BAND)); a.get(h2); a.fmul(); a.fgt(); a.ifThen(() => { a.i32(RING.skewed); a.e(0x0f); });
     a.get(r2); a.e(0x44, f64Bytes(1 - BAND)); a.get(h2); a.fmul(); a.e(0x63); // f64.lt
     a.eqz(); a.ifThen(() => { a.i32(RING.ask); a.e(0x0f); });
@@ -404,7 +447,7 @@ function gatherBody(nc) {
 /** `one(lane, i)`: node i's one-ring walked to CONFIG.ring1 (its length kept at CONFIG.n1) and gathered, with the one-sided test. */
 function oneBody(walkFn, gatherFn) {
   const a = assembler(2), LANE = 0, I = 1;
-  a.i32(0); a.get(I); a.config(CONFIG.ring1); a.e(0x10, uleb(walkFn)); a.store(CONFIG_AT + CONFIG.n1);
+  a.base(); a.get(I); a.config(CONFIG.ring1); a.e(0x10, uleb(walkFn)); a.store(CONFIG_AT + CONFIG.n1);
   a.get(LANE); a.get(I); a.config(CONFIG.ring1); a.config(CONFIG.n1); a.i32(1); a.e(0x10, uleb(gatherFn));
   return a.finish();
 }
@@ -415,7 +458,7 @@ function oneBody(walkFn, gatherFn) {
  */
 function twoBody(walkFn, twoRingFn, gatherFn) {
   const a = assembler(3), LANE = 0, I = 1, FRESH = 2;
-  a.get(FRESH); a.ifThen(() => { a.i32(0); a.get(I); a.config(CONFIG.ring1); a.e(0x10, uleb(walkFn)); a.store(CONFIG_AT + CONFIG.n1); });
+  a.get(FRESH); a.ifThen(() => { a.base(); a.get(I); a.config(CONFIG.ring1); a.e(0x10, uleb(walkFn)); a.store(CONFIG_AT + CONFIG.n1); });
   a.get(LANE); a.get(I); a.config(CONFIG.ring2);
   a.get(I); a.config(CONFIG.ring1); a.config(CONFIG.n1); a.config(CONFIG.ring2); a.e(0x10, uleb(twoRingFn));
   a.i32(0); a.e(0x10, uleb(gatherFn));
@@ -424,26 +467,44 @@ function twoBody(walkFn, twoRingFn, gatherFn) {
 
 const f64Bytes = (x) => [...new Uint8Array(new Float64Array([x]).buffer)];
 
-export function momentKernelBytes() {
+/**
+ * The module's bytes; `shared`: the variant over a shared memory (imported shared, up to 4 GiB), whose instances
+ * each work from their own `base` (a header, stamps, ring lists and slots of their own) on one held mesh.
+ */
+export function momentKernelBytes(shared = false) {
+  SHARED = shared;
+  try {
+    return moduleBytes(shared);
+  } finally {
+    SHARED = false;
+  }
+}
+
+function moduleBytes(shared) {
   return Uint8Array.from([
     0x00, 0x61, 0x73, 0x6d, 0x01, 0x00, 0x00, 0x00,
     // types: 0 (i32) → (); 1 (i32 ×4) → (); 2 (i32, i32) → i32; 3 (i32, i32, i32, i32) → i32; 4 (i32 ×5) → i32; 5 (i32 ×3) → i32
     ...section(1, vec([[0x60, 1, I32, 0], [0x60, 4, I32, I32, I32, I32, 0], [0x60, 2, I32, I32, 1, I32], [0x60, 4, I32, I32, I32, I32, 1, I32],
       [0x60, 5, I32, I32, I32, I32, I32, 1, I32], [0x60, 3, I32, I32, I32, 1, I32]])),
     // the memory is the caller's (env.memory, at least one page): it is replaced by a larger one rather than grown
-    ...section(2, vec([[...name('env'), ...name('memory'), 0x02, 0x00, 1]])),
+    // (shared: flags 3, at least one page and at most 65536; it is grown, never replaced, and growing a shared
+    // memory detaches nothing)
+    ...section(2, vec([[...name('env'), ...name('memory'), 0x02, ...(shared ? [0x03, 1, ...uleb(65536)] : [0x00, 1])]])),
     // functions 0 fit1, 1 fit3, 2 incidence, 3 walk, 4 twoRing, 5 gather1, 6 gather3, 7 one1, 8 one3, 9 two1, 10 two3
     ...section(3, vec([[0], [0], [1], [2], [3], [4], [4], [2], [2], [5], [5]])),
-    ...section(7, vec([[...name('memory'), 0x02, 0], [...name('fit1'), 0x00, 0], [...name('fit3'), 0x00, 1], [...name('incidence'), 0x00, 2],
+    // global 0: `base`, mutable i32, 0 until the caller sets it
+    ...section(6, vec([[I32, 1, 0x41, 0, 0x0b]])),
+    ...section(7, vec([[...name('memory'), 0x02, 0], [...name('base'), 0x03, 0], [...name('fit1'), 0x00, 0], [...name('fit3'), 0x00, 1], [...name('incidence'), 0x00, 2],
       [...name('one1'), 0x00, 7], [...name('one3'), 0x00, 8], [...name('two1'), 0x00, 9], [...name('two3'), 0x00, 10]])),
     ...section(10, vec([fitBody(1), fitBody(3), incidenceBody(), walkBody(), twoRingBody(), gatherBody(1), gatherBody(3),
       oneBody(3, 5), oneBody(3, 6), twoBody(3, 4, 5), twoBody(3, 4, 6)])),
   ]);
 }
 
+const base64Lines = (bytes) => Buffer.from(bytes).toString('base64').match(/.{1,100}/g).map((s) => `  '${s}'`).join(' +\n');
+
 export function momentKernelSource() {
-  const b64 = Buffer.from(momentKernelBytes()).toString('base64');
-  const lines = b64.match(/.{1,100}/g).map((s) => `  '${s}'`).join(' +\n');
+  const lines = base64Lines(momentKernelBytes()), sharedLines = base64Lines(momentKernelBytes(true));
   return `/**
  * The WebAssembly SIMD kernel of the quadratic gradient fit (see momentKernel.ts), as base64.
  * Written by bin/write-moment-kernel.mjs — edit the generator, not this file.
@@ -465,6 +526,10 @@ export const KERNEL_RING = ${JSON.stringify(RING).replace(/"/g, '').replace(/:/g
 
 export const MOMENT_KERNEL_BASE64 =
 ${lines};
+
+/** The same kernel over a shared memory (imported shared; each instance's header, stamps and slots from its \`base\` on). */
+export const MOMENT_KERNEL_SHARED_BASE64 =
+${sharedLines};
 `;
 }
 

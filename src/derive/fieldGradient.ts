@@ -18,7 +18,8 @@ import { gradientInto, quadraticGradient } from './quadraticGradient.ts';
 import { cellCentres, cellStencil, pointStencil, type Stencil } from './stencils.ts';
 import { pointStencilAround } from './localStencil.ts';
 import { momentKernel } from './momentKernel.ts';
-import { meshInto } from './pairedFit.ts';
+import { meshAtInto, meshInto } from './pairedFit.ts';
+import { isHeld } from './kernelMesh.ts';
 
 /** Positions (xyz per site, length unit) and one-ring stencil of a piece's nodes or cells. */
 export interface Sites { positions: Float64Array; stencil: Stencil }
@@ -95,9 +96,10 @@ export function pointGradientAt(p: Piece, f: FieldArray, nodes: Int32Array): Flo
   const primed = primedAt.get(f.values);
   if (primed && sameNodes(primed.nodes, nodes)) return primed.g.slice();
   const out = new Float64Array(3 * f.components * nodes.length);
+  const e = geometryOf(p);
+  if (!e.point && heldAt(p, f, nodes, out)) return out;
   // a mesh without cached rows: only the chosen nodes' rows and their neighbours' (the same rows); no
   // whole-mesh structure is built for a wall request
-  const e = geometryOf(p);
   let stencil = e.point?.stencil;
   if (!stencil) {
     if (e.around && sameNodes(e.around.nodes, nodes)) stencil = e.around.stencil;
@@ -108,6 +110,22 @@ export function pointGradientAt(p: Piece, f: FieldArray, nodes: Int32Array): Flo
   }
   gradientInto(out, 0, p.points, f.values, f.components, stencil, nodes, 0, nodes.length);
   return out;
+}
+
+/**
+ * A node list is fitted on the kernel's copy of the mesh (kernelMesh.ts) when the kernel holds that mesh already,
+ * or when the mesh has at most this many nodes per listed node: holding it (positions, connectivity, the node →
+ * cells rows made by the kernel) then costs less than building the list's rows and their neighbours' in
+ * JavaScript. Measured on the wall bench's slab (101k nodes, all listed): see DEVELOPERS.md, "Derived fields".
+ */
+export const HOLD_FOR_LIST_RATIO = 8;
+
+/** `pointGradientAt` on the held mesh (`out` in the list's layout); false when the kernel cannot or should not. */
+function heldAt(p: Piece, f: FieldArray, nodes: Int32Array, out: Float64Array): boolean {
+  const nc = f.components, K = nc === 1 || nc === 3 ? momentKernel() : null;
+  if (!K || nodes.length === 0) return false;
+  if (!isHeld(p) && p.points.length / 3 > HOLD_FOR_LIST_RATIO * nodes.length) return false;
+  return meshAtInto(K, out, p, f.values, nc, nodes);
 }
 
 /** Gradients at chosen nodes computed elsewhere (the worker pool), by values array: `primeGradientAt`. */

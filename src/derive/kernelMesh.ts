@@ -56,6 +56,12 @@ function layout(p: Piece) {
   return { pos, val, cn, off, inc, ids, stamps, cellStamps, ring1, ring2, slots: ring2 + up16(4 * np) };
 }
 
+/** True when this thread's kernel holds piece `p`'s mesh now (the same geometry arrays). */
+export function isHeld(p: Piece): boolean {
+  const h = held;
+  return h !== null && h.points.deref() === p.points && h.connectivity.deref() === p.connectivity && h.offsets.deref() === p.offsets;
+}
+
 /** True when piece `p`'s mesh is small enough for the kernel to hold (MAX_HELD_BYTES). */
 export function holdable(p: Piece): boolean {
   return layout(p).slots <= MAX_HELD_BYTES;
@@ -69,7 +75,7 @@ export function holdable(p: Piece): boolean {
 export function holdMesh(K: MomentKernel, p: Piece, values: NumericArray, nc: number): HeldMesh | null {
   const np = p.points.length / 3, cells = p.cellTypes.length;
   let h = held;
-  if (!h || h.points.deref() !== p.points || h.connectivity.deref() !== p.connectivity || h.offsets.deref() !== p.offsets) {
+  if (!h || !isHeld(p)) {
     held = h = null;
     const { pos, val, cn, off, inc, ids, stamps, cellStamps, ring1, ring2, slots } = layout(p);
     if (slots > MAX_HELD_BYTES) return null;
@@ -113,8 +119,11 @@ export function holdMesh(K: MomentKernel, p: Piece, values: NumericArray, nc: nu
 /** Cells per call of the kernel's incidence passes (the first calls run in the baseline tier). */
 const CHUNK = 1 << 15;
 
-/** The held mesh's node → cells rows (starts from byte `inc` + 8, np + 3 entries from `inc`; `zeroed`: they are 0 already). */
-function buildIncidence(K: MomentKernel, np: number, cells: number, inc: number, zeroed: boolean): void {
+/**
+ * The node → cells rows of the mesh kernel `K` holds (its CONFIG set): starts from byte `inc` + 8, np + 3 entries
+ * from `inc`; `zeroed`: they are 0 already. Also sharedKernelMesh.ts's.
+ */
+export function buildIncidence(K: MomentKernel, np: number, cells: number, inc: number, zeroed: boolean): void {
   if (!zeroed) K.i32.fill(0, inc / 4, inc / 4 + np + 3);
   for (let c = 0; c < cells; c += CHUNK) K.incidence(np, c, Math.min(cells, c + CHUNK), 0);
   K.incidence(np, 0, 0, 1);

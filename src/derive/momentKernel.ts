@@ -10,7 +10,7 @@
  * Where WebAssembly SIMD is missing the kernel is absent and the fit runs in JavaScript, with the same
  * results. `FIELDTALLY_SCALAR_FIT=1` in the environment, or `useMomentKernel(false)`, forces the JavaScript path.
  */
-import { KERNEL_CONFIG, KERNEL_LAYOUT, KERNEL_RING, KERNEL_STATS, MOMENT_KERNEL_BASE64 } from './momentKernelWasm.ts';
+import { KERNEL_CONFIG, KERNEL_LAYOUT, KERNEL_RING, KERNEL_STATS, MOMENT_KERNEL_BASE64, MOMENT_KERNEL_SHARED_BASE64 } from './momentKernelWasm.ts';
 
 /** The instantiated kernel and views of its memory (renewed when the memory grows). */
 export interface MomentKernel {
@@ -37,6 +37,11 @@ export interface MomentKernel {
   memory: WebAssembly.Memory;
   /** The memory's size in bytes (reading `memory.buffer` costs a call into the engine). Replaced, never grown: `kernelBytes`. */
   bytes: number;
+  /**
+   * On a shared memory (sharedKernelMesh.ts): the byte where this instance's area starts (its `base`: `f64` and
+   * `i32` view the memory from there, and every address in its CONFIG is relative to it). Absent: a private memory.
+   */
+  base?: number;
 }
 
 let kernel: MomentKernel | null | undefined;
@@ -74,6 +79,44 @@ function instantiate(): MomentKernel | null {
   } catch {
     return null;
   }
+}
+
+let compiledShared: WebAssembly.Module | null | undefined;
+
+/**
+ * An instance of the shared-memory kernel over `memory` (a shared WebAssembly.Memory, as sharedKernelMesh.ts
+ * makes it) working from byte `base` on (a multiple of 16): its views start there. Null when the kernel is
+ * switched off or the platform lacks WebAssembly SIMD or shared memories.
+ */
+export function sharedMomentKernel(memory: WebAssembly.Memory, base: number): MomentKernel | null {
+  if (!momentKernel()) return null;
+  try {
+    compiledShared ??= new WebAssembly.Module(decode(MOMENT_KERNEL_SHARED_BASE64));
+  } catch {
+    compiledShared = null;
+  }
+  if (!compiledShared) return null;
+  let e: KernelExports & { base: WebAssembly.Global };
+  try {
+    e = new WebAssembly.Instance(compiledShared, { env: { memory } }).exports as unknown as KernelExports & { base: WebAssembly.Global };
+  } catch {
+    return null;
+  }
+  e.base.value = base;
+  const k: MomentKernel = {
+    fit1: e.fit1, fit3: e.fit3, incidence: e.incidence, one1: e.one1, one3: e.one3, two1: e.two1, two3: e.two3,
+    memory, f64: new Float64Array(0), i32: new Int32Array(0), bytes: 0, base,
+  };
+  sharedViews(k);
+  return k;
+}
+
+/** Renews a shared kernel's views after its memory grew (growing a shared memory detaches nothing). */
+export function sharedViews(k: MomentKernel): void {
+  const b = k.memory.buffer, base = k.base ?? 0;
+  k.f64 = new Float64Array(b, base, (b.byteLength - base) >> 3);
+  k.i32 = new Int32Array(b, base, (b.byteLength - base) >> 2);
+  k.bytes = b.byteLength - base;
 }
 
 /** The kernel, or null when it is switched off or this platform has no WebAssembly SIMD. */

@@ -14,7 +14,7 @@ import type { NumericArray } from '../model/fieldArray.ts';
 import { ONE_SIDED, PIVOT_TOLERANCE, SKEWED, WIDEN_TOLERANCE } from './fitTolerances.ts';
 import type { Piece } from '../model/piece.ts';
 import { KERNEL_CONFIG, KERNEL_LAYOUT, KERNEL_RING, KERNEL_STATS, kernelSlots, useSlotsAt, type MomentKernel } from './momentKernel.ts';
-import { holdMesh, slotsBase, type HeldMesh } from './kernelMesh.ts';
+import { holdMesh, slotsBase } from './kernelMesh.ts';
 import { ringIds, twoRing } from './neighbourRing.ts';
 import type { Stencil } from './stencils.ts';
 
@@ -26,9 +26,17 @@ const job = {
   K: null as unknown as MomentKernel, out: new Float64Array(0) as Float64Array, outStart: 0, positions: new Float64Array(0) as Float64Array,
   values: new Float64Array(0) as NumericArray, nc: 1, so: new Int32Array(0) as Int32Array, sid: new Int32Array(0) as Int32Array,
   targets: undefined as Int32Array | undefined, from: 0, ringSizes: undefined as Int32Array | undefined,
-  /** The mesh the kernel holds (rings walked there), or null (rings from `so`/`sid`); slot 0's byte address. */
-  mesh: null as HeldMesh | null, slotsAt: 0,
+  /** True: rings walked in the mesh the kernel holds; false: rings from `so`/`sid`. Slot 0's byte address. */
+  walked: false, slotsAt: 0,
+  /** Makes room for `need` slots of `nc` components from byte `at`; returns where the slots are now. */
+  room: growSlots,
 };
+
+/** The private kernel's `job.room`: a larger memory, the slots where they were (momentKernel.ts `kernelSlots`). */
+function growSlots(need: number, nc: number, at: number): number {
+  kernelSlots(job.K, need, nc, at);
+  return at;
+}
 
 /**
  * `gradientInto` for 1 or 3 components on the kernel `K`: the gradients of sites `from .. to-1` (indices into
@@ -36,7 +44,7 @@ const job = {
  */
 export function pairedInto(K: MomentKernel, out: Float64Array, outStart: number, positions: Float64Array, values: NumericArray,
   nc: number, stencil: Stencil, targets: Int32Array | undefined, from: number, to: number, ringSizes: Int32Array | undefined): void {
-  Object.assign(job, { K, out, outStart, positions, values, nc, so: stencil.offsets, sid: stencil.ids, targets, from, ringSizes, mesh: null });
+  Object.assign(job, { K, out, outStart, positions, values, nc, so: stencil.offsets, sid: stencil.ids, targets, from, ringSizes, walked: false, slotsAt: slotsBase(), room: growSlots });
   pairs(to);
 }
 
@@ -49,14 +57,37 @@ export function meshInto(K: MomentKernel, out: Float64Array, outStart: number, p
   from: number, to: number, ringSizes: Int32Array | undefined): boolean {
   const mesh = holdMesh(K, p, values, nc);
   if (!mesh) return false;
-  Object.assign(job, { K, out, outStart, positions: p.points, values, nc, targets: undefined, from, ringSizes, mesh });
+  walkInto(K, mesh.slots, growSlots, out, outStart, nc, undefined, from, to, ringSizes);
+  return true;
+}
+
+/**
+ * The pairing loop over rings walked by kernel `K` in the mesh it holds (kernelMesh.ts, or a shared one:
+ * sharedKernelMesh.ts) for a field of `nc` components held there, for sites `from .. to-1` (indices into
+ * `targets`, or nodes themselves), written to `out` from `outStart` on. `slotsAt`: slot 0's byte address (in `K`'s
+ * views); `room(need, nc, at)` makes room for `need` slots and returns their address then.
+ */
+export function walkInto(K: MomentKernel, slotsAt: number, room: (need: number, nc: number, at: number) => number, out: Float64Array,
+  outStart: number, nc: number, targets: Int32Array | undefined, from: number, to: number, ringSizes: Int32Array | undefined): void {
+  Object.assign(job, { K, out, outStart, nc, targets, from, ringSizes, walked: true, slotsAt, room });
   pairs(to);
+}
+
+/**
+ * `meshInto` for the chosen nodes `targets` of piece `p` (a wall's nodes), written to `out` from 0 in the list's
+ * order (`3·nc` values per entry): each node's ring walked in the held mesh, so no rows are built for the list.
+ * False, having written nothing, when the mesh is too large to hold.
+ */
+export function meshAtInto(K: MomentKernel, out: Float64Array, p: Piece, values: NumericArray, nc: number, targets: Int32Array): boolean {
+  const mesh = holdMesh(K, p, values, nc);
+  if (!mesh) return false;
+  walkInto(K, mesh.slots, growSlots, out, 0, nc, targets, 0, targets.length, undefined);
   return true;
 }
 
 /** The pairing loop over `job`'s sites from `job.from` up to `to`: rings from rows, or walked in the held mesh. */
 function pairs(to: number): void {
-  const held = job.mesh !== null;
+  const held = job.walked;
   try {
     const run = begin();
     let k = job.from;
@@ -79,7 +110,6 @@ function pairs(to: number): void {
  */
 function begin(): (n: number) => void {
   const { K, nc } = job;
-  job.slotsAt = slotsBase();
   useSlotsAt(K, job.slotsAt);
   const t = KERNEL_LAYOUT.toleranceAt / 8;
   K.f64[t] = PIVOT_TOLERANCE; K.f64[t + 1] = PIVOT_TOLERANCE;
@@ -90,7 +120,7 @@ const fit3 = (n: number): void => job.K.fit3(n), fit1 = (n: number): void => job
 
 /** Lets go of the caller's arrays, so the module does not keep the last mesh alive. */
 function end(): void {
-  Object.assign(job, { out: NO_VALUES, positions: NO_VALUES, values: NO_VALUES, so: NO_IDS, sid: NO_IDS, targets: undefined, ringSizes: undefined, mesh: null });
+  Object.assign(job, { out: NO_VALUES, positions: NO_VALUES, values: NO_VALUES, so: NO_IDS, sid: NO_IDS, targets: undefined, ringSizes: undefined, walked: false });
 }
 
 /**
@@ -130,12 +160,13 @@ function prepare(lane: number, k: number): boolean {
   return true;
 }
 
-/** `prepare` over the held mesh: node k's one-ring walked and gathered by the kernel, its two-ring likewise. */
+/** `prepare` over the held mesh: target k's one-ring walked and gathered by the kernel, its two-ring likewise. */
 function prepareHeld(lane: number, k: number): boolean {
-  let n = ringHeld(lane, k, 1, 0);
+  const i = siteOf(k);
+  let n = ringHeld(lane, i, 1, 0);
   laneOne[lane] = 1;
   if (n < 0) {
-    n = ringHeld(lane, k, 2, 0);
+    n = ringHeld(lane, i, 2, 0);
     laneOne[lane] = 0;
     if (n < 0) { noResult(k); return false; }
   }
@@ -151,7 +182,10 @@ function ringHeld(lane: number, i: number, ring: 1 | 2, fresh: number): number {
   const { K, nc } = job;
   for (;;) {
     const n = ring === 1 ? (nc === 3 ? K.one3(lane, i) : K.one1(lane, i)) : (nc === 3 ? K.two3(lane, i, fresh) : K.two1(lane, i, fresh));
-    if (n === KERNEL_RING.room) { kernelSlots(K, K.i32[(KERNEL_LAYOUT.configAt + KERNEL_CONFIG.need) / 4]!, nc, job.slotsAt); fresh = 1; continue; }
+    if (n === KERNEL_RING.room) {
+      job.slotsAt = job.room(K.i32[(KERNEL_LAYOUT.configAt + KERNEL_CONFIG.need) / 4]!, nc, job.slotsAt);
+      useSlotsAt(K, job.slotsAt); fresh = 1; continue;
+    }
     if (n !== KERNEL_RING.ask) return n;
     // near the bound: the one-sided test as `gather` makes it, on the sums the kernel left
     const F = K.f64, s = KERNEL_LAYOUT.statsAt / 8, S = KERNEL_STATS;
@@ -169,9 +203,9 @@ function widen(k: number, run: (n: number) => void): void {
   refit(k, gather(i, ringIds(), 0, m, 0, false), run);
 }
 
-/** `widen` over the held mesh (node k's two-ring walked and gathered by the kernel). */
+/** `widen` over the held mesh (target k's two-ring walked and gathered by the kernel). */
 function widenHeld(k: number, run: (n: number) => void): void {
-  refit(k, ringHeld(0, k, 2, 1), run);
+  refit(k, ringHeld(0, siteOf(k), 2, 1), run);
 }
 
 /** Fits target `k` alone in lane 0 over the `n` slots gathered there (none: NaN). */

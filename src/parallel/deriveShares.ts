@@ -18,6 +18,8 @@ import { pointGradientAt, primeGradient, primeGradientAt } from '../derive/field
 import { pointGradientRange, pointGradientRangeInto } from '../derive/rangeGradient.ts';
 import { momentKernel } from '../derive/momentKernel.ts';
 import { holdable } from '../derive/kernelMesh.ts';
+import { holdsMesh, isAttached, loadValues, makeSharedKernelMesh, sharedMeshInto, type SharedKernelMesh } from '../derive/sharedKernelMesh.ts';
+import type { Piece } from '../model/piece.ts';
 import type { Dataset } from '../model/dataset.ts';
 import { findField } from '../model/piece.ts';
 import type { ComputePool } from './pool.ts';
@@ -39,6 +41,11 @@ export interface GradientShare {
    * field a velocity) for nodes `from .. to-1`, each into its `out` in the whole piece's layout.
    */
   quantities?: { name: DerivedName; out: Float64Array }[];
+  /**
+   * The shared kernel mesh (src/derive/sharedKernelMesh.ts) holding this piece and field, by id: the worker fits
+   * there when it is attached to it, else on a mesh of its own.
+   */
+  kernelMesh?: number;
 }
 
 /**
@@ -50,12 +57,21 @@ export function gradientShare(d: Dataset, s: GradientShare): Float64Array | Floa
   const p = d.pieces[s.piece];
   const f = p && findField(p, s.field, 'point');
   if (!p || !f) throw new Error(`worker pool: no point field "${s.field}" on piece ${s.piece} of ${d.source}`);
-  const w = 3 * f.components;
+  const w = 3 * f.components, nc = f.components;
+  const shared = s.kernelMesh !== undefined && !s.nodes && (nc === 1 || nc === 3) && isAttached(s.kernelMesh);
   if (s.quantities) {
-    // on the kernel's own copy of the mesh, in blocks: a block's gradient stays in the cache, and no gradient
-    // array of the whole range is made (its first touch alone cost more than the quantities)
-    const block = momentKernel() && holdable(p) ? QUANTITY_BLOCK : s.to - s.from;
-    return quantityShare(p.points.length / 3, f.values, f.components, s, block, (a, b, g) => pointGradientRangeInto(p, f.values, f.components, a, b, g, 0));
+    // on the kernel's copy of the mesh (the pool's shared one, or the worker's own), in blocks: a block's gradient
+    // stays in the cache, and no gradient array of the whole range is made (its first touch alone cost more than
+    // the quantities)
+    const block = shared || (momentKernel() && holdable(p)) ? QUANTITY_BLOCK : s.to - s.from;
+    return quantityShare(p.points.length / 3, f.values, nc, s, block, shared
+      ? (a, b, g) => sharedMeshInto(g, 0, nc, undefined, a, b)
+      : (a, b, g) => pointGradientRangeInto(p, f.values, nc, a, b, g, 0));
+  }
+  if (shared) {
+    if (s.out.length !== w * p.points.length / 3) throw new Error(`worker pool: gradient result holds ${s.out.length} values, expected ${w * p.points.length / 3}`);
+    sharedMeshInto(s.out, w * s.from, nc, undefined, s.from, s.to);
+    return s.out.buffer instanceof ArrayBuffer ? s.out.slice(w * s.from, w * s.to) : null;
   }
   if (s.nodes) {
     if (s.nodes.length !== s.to - s.from || s.out.length < w * s.to) throw new Error(`worker pool: gradient share ${s.from}..${s.to} does not match its ${s.nodes.length} nodes`);
@@ -102,15 +118,45 @@ export async function primeDerivedGradients(pool: ComputePool, names: readonly s
   let done = 0;
   for (let k = 0; k < d.pieces.length; k++) {
     const f = findField(d.pieces[k]!, info.name, 'point')!;
+    const p = d.pieces[k]!;
     if (quantities) {
       const missing = quantities.filter((n) => !hasPrimedQuantity(f.values, n));
       if (!missing.length) continue;
-      const v = await pool.pointDerived(k, info.name, missing.map((name) => ({ name, components: DERIVED_FIELDS[name].components })));
+      const v = await onKernelMesh(pool, p, f, (id) => pool.pointDerived(k, info.name, missing.map((name) => ({ name, components: DERIVED_FIELDS[name].components })), id));
       missing.forEach((n, i) => primeQuantity(f.values, n, v[i]!));
-    } else primeGradient(f.values, await pool.pointGradient(k, info.name));
+    } else primeGradient(f.values, await onKernelMesh(pool, p, f, (id) => pool.pointGradient(k, info.name, id)));
     done++;
   }
   return done;
+}
+
+/** Each pool's shared kernel mesh (the last piece it held) and its queue of requests (one at a time on it). */
+const kernelMeshes = new WeakMap<ComputePool, { mesh: SharedKernelMesh | null; queue: Promise<unknown> }>();
+
+/**
+ * Runs `request` with the id of a shared kernel mesh holding piece `p` and field `f` for `pool`'s workers
+ * (src/derive/sharedKernelMesh.ts: made once here and handed to every worker, instead of each worker copying the
+ * mesh into its own kernel), or with no id where there is none to be had: a pool of one worker (its own copy
+ * costs the same and saves this thread's), a field of other than 1 or 3 components, no kernel or shared memory,
+ * a mesh too large. Requests on a pool's shared mesh run one at a time, since each may load its field's values.
+ */
+function onKernelMesh<T>(pool: ComputePool, p: Piece, f: FieldArray, request: (id: number | undefined) => Promise<T>): Promise<T> {
+  let entry = kernelMeshes.get(pool);
+  if (!entry) kernelMeshes.set(pool, entry = { mesh: null, queue: Promise.resolve() });
+  const e = entry, nc = f.components;
+  const run = async (): Promise<T> => {
+    if (pool.size < 2 || (nc !== 1 && nc !== 3)) return request(undefined);
+    if (!e.mesh || !holdsMesh(e.mesh, p, pool.size)) {
+      e.mesh = makeSharedKernelMesh(p, pool.size);
+      if (e.mesh && !(await pool.attachKernelMesh(e.mesh.ref))) e.mesh = null;
+    }
+    if (!e.mesh) return request(undefined);
+    loadValues(e.mesh, f.values, nc);
+    return request(e.mesh.ref.id);
+  };
+  const next = e.queue.then(run, run);
+  e.queue = next.catch(() => undefined);
+  return next;
 }
 
 /**

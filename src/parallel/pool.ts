@@ -32,6 +32,7 @@ import { cutInPlace, summedBlocks } from './placeCuts.ts';
 import { dealProbes, joinEvaluations, subSet } from './probeSetShares.ts';
 import { nodeRanges } from '../derive/rangeGradient.ts';
 import type { DerivedName } from '../derive/derivedFields.ts';
+import type { SharedKernelMeshRef } from '../derive/sharedKernelMesh.ts';
 import type { ShareMessage, ShareReply, ShareRequest, WorkerMemory } from './shareHost.ts';
 import type { BoundaryPart, LinePart } from './shareTasks.ts';
 import { toSharedDataset } from './sharedDataset.ts';
@@ -191,16 +192,17 @@ export class ComputePool {
   /**
    * The quadratic least-squares gradient of point field `field` of piece `piece` (`fieldGradient`'s layout and
    * values, bit for bit): the piece's nodes split into one contiguous range per worker, each worker filling its
-   * range of one shared array (src/parallel/deriveShares.ts).
+   * range of one shared array (src/parallel/deriveShares.ts). `kernelMesh`: the id of a shared kernel mesh every
+   * worker has attached (`attachKernelMesh`) and that holds this field's values, to fit there.
    */
-  async pointGradient(piece: number, field: string): Promise<Float64Array> {
+  async pointGradient(piece: number, field: string, kernelMesh?: number): Promise<Float64Array> {
     const p = this.dataset.pieces[piece], f = p && findField(p, field, 'point');
     if (!p || !f) throw new Error(`gradient: no point field "${field}" on piece ${piece} of ${this.dataset.source}`);
     const np = p.points.length / 3, bytes = 8 * 3 * f.components * np;
     const out = typeof SharedArrayBuffer === 'undefined' ? new Float64Array(bytes / 8) : new Float64Array(new SharedArrayBuffer(bytes));
     const bounds = nodeRanges(np, this.lanes.length), w = 3 * f.components;
     const parts = await Promise.all(this.lanes.slice(0, bounds.length - 1).map((l, i) =>
-      l.call<Float64Array | null>({ op: 'gradient', piece, field, from: bounds[i]!, to: bounds[i + 1]!, out })));
+      l.call<Float64Array | null>({ op: 'gradient', piece, field, from: bounds[i]!, to: bounds[i + 1]!, out, kernelMesh })));
     // without shared memory each worker sends its range back
     parts.forEach((part, i) => { if (part) out.set(part, w * bounds[i]!); });
     return out;
@@ -210,16 +212,16 @@ export class ComputePool {
    * Quantities of the velocity gradient of point field `field` of piece `piece` (`names`: NODE_QUANTITIES of
    * src/derive/derivedFields.ts, with their components), each as `withDerivedFields` makes it, bit for bit: the
    * nodes split as for `pointGradient`, each worker writing its range of every quantity into shared arrays; the
-   * gradient itself stays in the workers.
+   * gradient itself stays in the workers. `kernelMesh` as for `pointGradient`.
    */
-  async pointDerived(piece: number, field: string, names: readonly { name: DerivedName; components: number }[]): Promise<Float64Array[]> {
+  async pointDerived(piece: number, field: string, names: readonly { name: DerivedName; components: number }[], kernelMesh?: number): Promise<Float64Array[]> {
     const p = this.dataset.pieces[piece], f = p && findField(p, field, 'point');
     if (!p || !f) throw new Error(`gradient: no point field "${field}" on piece ${piece} of ${this.dataset.source}`);
     const np = p.points.length / 3, shared = typeof SharedArrayBuffer !== 'undefined';
     const outs = names.map((q) => (shared ? new Float64Array(new SharedArrayBuffer(8 * q.components * np)) : new Float64Array(q.components * np)));
     const bounds = nodeRanges(np, this.lanes.length);
     const parts = await Promise.all(this.lanes.slice(0, bounds.length - 1).map((l, i) => l.call<Float64Array[] | null>({
-      op: 'gradient', piece, field, from: bounds[i]!, to: bounds[i + 1]!, out: EMPTY, quantities: names.map((q, k) => ({ name: q.name, out: outs[k]! })),
+      op: 'gradient', piece, field, from: bounds[i]!, to: bounds[i + 1]!, out: EMPTY, quantities: names.map((q, k) => ({ name: q.name, out: outs[k]! })), kernelMesh,
     })));
     parts.forEach((part, i) => part?.forEach((v, k) => outs[k]!.set(v, names[k]!.components * bounds[i]!)));
     return outs;
@@ -228,7 +230,7 @@ export class ComputePool {
   /**
    * The quadratic least-squares gradient of point field `field` of piece `piece` at the chosen `nodes` only
    * (`pointGradientAt`'s layout and values, bit for bit): the list split into one contiguous run per worker, each
-   * fitting its run over its nodes' own neighbour rows into one shared array (src/parallel/deriveShares.ts).
+   * fitting its run with `pointGradientAt` (fieldGradient.ts) into one shared array (src/parallel/deriveShares.ts).
    */
   async pointGradientAt(piece: number, field: string, nodes: Int32Array): Promise<Float64Array> {
     const p = this.dataset.pieces[piece], f = p && findField(p, field, 'point');
@@ -242,6 +244,14 @@ export class ComputePool {
     return out;
   }
 
+  /**
+   * Hands every worker its area of a shared kernel mesh (src/derive/sharedKernelMesh.ts); `pointGradient` and
+   * `pointDerived` given its id then fit there. Resolves true when every worker took it.
+   */
+  async attachKernelMesh(mesh: SharedKernelMeshRef): Promise<boolean> {
+    if (mesh.areas.length < this.lanes.length) throw new Error(`worker pool: a shared kernel mesh of ${mesh.areas.length} areas for ${this.lanes.length} workers`);
+    return (await this.all<boolean>((i) => ({ op: 'kernelMesh', mesh, area: mesh.areas[i]! }))).every(Boolean);
+  }
   /** Memory each worker reports (bytes; null where the platform cannot tell). The shared dataset is not in it. */
   memory(): Promise<(WorkerMemory | null)[]> {
     return this.all<WorkerMemory | null>(() => ({ op: 'memory' }));

@@ -14,6 +14,7 @@ import { totalCells, type Dataset } from '../model/dataset.ts';
 import { boundaryShare, cutShare, lineShare, placeCutShare, type LineShareOptions } from './shareTasks.ts';
 import type { CutRequest } from './placeCuts.ts';
 import { gradientShare, type GradientShare } from './deriveShares.ts';
+import { attachKernelMesh, type SharedKernelMeshRef } from '../derive/sharedKernelMesh.ts';
 import { shareDataset, type CellShare } from './shares.ts';
 import { prepareCut } from '../cut/cutPlane.ts';
 import { warmUpCutKernels } from '../cut/warmUp.ts';
@@ -32,6 +33,7 @@ export type ShareRequest =
   | { op: 'boundary'; withMerge: boolean }
   | { op: 'evaluate'; set: ProbeSet; options: Partial<EvaluateOptions> }
   | ({ op: 'gradient' } & GradientShare)
+  | { op: 'kernelMesh'; mesh: SharedKernelMeshRef; area: number }
   | { op: 'memory' };
 
 /** A message to a share worker. */
@@ -47,7 +49,11 @@ export interface SharePort {
 }
 
 /** What a worker reports about its memory (bytes), where the platform can tell: JS heap in use and its own (non-shared) array buffers. */
-export interface WorkerMemory { heapUsed: number; external: number; arrayBuffers: number }
+export interface WorkerMemory {
+  heapUsed: number; external: number; arrayBuffers: number;
+  /** The worker thread's CPU time so far (ms), where the platform tells it (benchmarks take differences). */
+  cpuMs?: number | null;
+}
 
 /** A dataset as a worker sees its share: views of every cell (`shareDataset`), the shape its line scans meet. */
 const asShareView = (d: Dataset): Dataset => shareDataset(d, { start: 0, end: totalCells(d) });
@@ -71,6 +77,8 @@ export function serveShares(port: SharePort, memory: () => WorkerMemory | null =
     if (m.op === 'memory') return memory();
     // whole probes on the whole dataset (probeSetShares.ts): the single-thread path, bit for bit
     if (m.op === 'evaluate') { if (!whole) throw new Error('worker pool: no dataset is held by this worker'); return evaluateProbeSet(whole, m.set, m.options); }
+    // the pool's one copy of a mesh for the moment kernel (src/derive/sharedKernelMesh.ts), this worker's area in it
+    if (m.op === 'kernelMesh') return attachKernelMesh(m.mesh, m.area);
     if (m.op === 'gradient') { if (!whole) throw new Error('worker pool: no dataset is held by this worker'); return gradientShare(whole, m); }
     if (!share || !range) throw new Error('worker pool: no dataset is held by this worker');
     if (m.op === 'cut') return cutShare(share, m.key, m.origin, m.normal, m.options);

@@ -13,12 +13,14 @@ import { momentKernel, useMomentKernel } from '../../src/derive/momentKernel.ts'
 import { pointStencil, type Stencil } from '../../src/derive/stencils.ts';
 import { pointStencilAround } from '../../src/derive/localStencil.ts';
 import { smoothFields } from './smoothFields.ts';
+import { tetrahedronFan } from './fanMesh.ts';
 import { boxMesh, rng, type BoxKind } from '../cut/meshes.ts';
-import { meshInto } from '../../src/derive/pairedFit.ts';
-import { holdMesh } from '../../src/derive/kernelMesh.ts';
+import { meshAtInto, meshInto } from '../../src/derive/pairedFit.ts';
+import { holdMesh, isHeld, releaseMesh } from '../../src/derive/kernelMesh.ts';
+import { HOLD_FOR_LIST_RATIO, pointGradientAt } from '../../src/derive/fieldGradient.ts';
 import { nodeRanges } from '../../src/derive/rangeGradient.ts';
 import type { Piece } from '../../src/model/piece.ts';
-import type { NumericArray } from '../../src/model/fieldArray.ts';
+import type { FieldArray, NumericArray } from '../../src/model/fieldArray.ts';
 
 afterEach(() => { useMomentKernel(true); });
 
@@ -134,13 +136,7 @@ describe('the kernel walking its own copy of the mesh (kernelMesh.ts, pairedFit.
   }
 
   it('makes room for a ring larger than the memory it was given (a node in 1500 tetrahedra: a ring of 4500), same bits', () => {
-    const r = rng(11), n = 1500, np = 1 + 3 * n;
-    const points = new Float64Array(3 * np);
-    for (let i = 3; i < 3 * np; i++) points[i] = r() - 0.5;
-    const connectivity = new Int32Array(4 * n), offsets = new Int32Array(n + 1);
-    for (let k = 0; k < n; k++) { connectivity.set([0, 1 + 3 * k, 2 + 3 * k, 3 + 3 * k], 4 * k); offsets[k + 1] = 4 * (k + 1); }
-    const fan: Piece = { points, connectivity, offsets, cellTypes: new Uint8Array(n).fill(10), pointData: [], cellData: [] };
-    const u = Float64Array.from({ length: 3 * np }, (_, i) => Math.sin(points[i]! * 3 + (i % 3)) + points[i - (i % 3)]! ** 2);
+    const n = 1500, { fan, u } = tetrahedronFan(n);
     const K = momentKernel()!, ref = reference(fan, u, 3);
     // held first: the fit itself must then find its slots short and move to a larger memory mid-way
     expect(holdMesh(K, fan, u, 3)).not.toBeNull();
@@ -169,5 +165,54 @@ describe('the kernel walking its own copy of the mesh (kernelMesh.ts, pairedFit.
       expect(Array.from(got.sizes)).toEqual(Array.from(ref.sizes));
       if (p === odd) { expect(Number.isNaN(got.out[got.out.length - 1])).toBe(true); expect(Number.isFinite(got.out[0])).toBe(true); }
     }
+  });
+});
+
+describe('node lists (a wall\'s nodes) on the held mesh (pairedFit.ts meshAtInto, fieldGradient.ts pointGradientAt)', () => {
+  /** Boundary nodes of `p` (one-sided: refitted over the two-ring) and every seventh node, in a shuffled order. */
+  function listOf(p: Piece): Int32Array {
+    const np = p.points.length / 3, r = rng(5), xs = Array.from({ length: np }, (_, i) => p.points[3 * i]!);
+    const lo = Math.min(...xs), hi = Math.max(...xs);
+    const picked = Array.from({ length: np }, (_, i) => i).filter((i) => xs[i] === lo || xs[i] === hi || i % 7 === 3);
+    for (let k = picked.length - 1; k > 0; k--) { const j = Math.floor(r() * (k + 1)); [picked[k], picked[j]] = [picked[j]!, picked[k]!]; }
+    return Int32Array.from(picked);
+  }
+
+  for (const kind of ['tet', 'hex', 'wedge', 'pyramid', 'polyhedron', 'voxel'] as BoxKind[]) {
+    it(`${kind}: a node list's gradient walked in the held mesh equals the JavaScript fit over its rows, 3 and 1 components`, () => {
+      const p = boxMesh(kind, 6, 5, 4, 0.3), nodes = listOf(p), st = pointStencilAround(p, nodes);
+      const { u, s } = smoothFields(p);
+      for (const [values, nc] of [[u, 3], [s, 1]] as const) {
+        useMomentKernel(false);
+        const ref = new Float64Array(3 * nc * nodes.length);
+        gradientInto(ref, 0, p.points, values, nc, st, nodes, 0, nodes.length);
+        useMomentKernel(true);
+        const got = new Float64Array(3 * nc * nodes.length);
+        expect(meshAtInto(momentKernel()!, got, p, values, nc, nodes)).toBe(true);
+        expect(ref.some((v) => v !== 0 && Number.isFinite(v))).toBe(true);
+        expect(differing(got, ref)).toBe(0);
+      }
+    });
+  }
+
+  it('pointGradientAt holds a mesh for a list of at least 1/HOLD_FOR_LIST_RATIO of its nodes, not for a smaller one, with the same bits', () => {
+    const p = boxMesh('hex', 8, 6, 5, 0.2), np = p.points.length / 3, { u } = smoothFields(p);
+    const field: FieldArray = { name: 'velocity', association: 'point', components: 3, values: u, sourceType: 'Float64' };
+    const large = listOf(p), small = large.slice(0, Math.floor(np / HOLD_FOR_LIST_RATIO) - 1);
+    expect(large.length * HOLD_FOR_LIST_RATIO).toBeGreaterThanOrEqual(np);
+    const reference = (nodes: Int32Array) => {
+      useMomentKernel(false);
+      const ref = new Float64Array(9 * nodes.length);
+      gradientInto(ref, 0, p.points, u, 3, pointStencilAround(p, nodes), nodes, 0, nodes.length);
+      useMomentKernel(true);
+      return ref;
+    };
+    releaseMesh();
+    expect(differing(pointGradientAt(p, field, small), reference(small))).toBe(0);
+    expect(isHeld(p)).toBe(false);
+    expect(differing(pointGradientAt(p, field, large), reference(large))).toBe(0);
+    expect(isHeld(p)).toBe(true);
+    // held now: a small list is walked there too
+    expect(differing(pointGradientAt(p, field, small.slice(0, 5)), reference(small.slice(0, 5)))).toBe(0);
   });
 });

@@ -13,6 +13,7 @@ import type { Piece } from '../../src/model/piece.ts';
 import { openNodePool } from '../../src/parallel/nodePool.ts';
 import type { ComputePool } from '../../src/parallel/pool.ts';
 import { primeDerivedGradients } from '../../src/parallel/deriveShares.ts';
+import { loadValues, makeSharedKernelMesh } from '../../src/derive/sharedKernelMesh.ts';
 
 const bent = (u: number, v: number, w: number): [number, number, number] => [u + 0.1 * Math.sin(v), 1.3 * v, w + 0.05 * u * v];
 const flow = (p: Piece): Piece => withFields(p, [
@@ -88,6 +89,25 @@ describe('velocity gradient on the worker pool', () => {
     for (const n of names) {
       expect(differingBits(derived.pieces[0]!.pointData.find((f) => f.name === n)!.values, ref.pieces[0]!.pointData.find((f) => f.name === n)!.values)).toBe(0);
     }
+  });
+
+  it('2 workers on one shared kernel mesh (sharedKernelMesh.ts): every worker attaches; the gradient, then ω and Q of a new velocity array on the same geometry, bit for bit', async () => {
+    const big = (): Dataset => datasetOf([flow(hexGrid(30, 30, 20, bent))], 'one piece');
+    const pool = await openNodePool(big(), 2), single3 = big();
+    pools.push(pool);
+    const p = pool.dataset.pieces[0]!, u = p.pointData[0]!, m = makeSharedKernelMesh(p, 2)!;
+    expect(await pool.attachKernelMesh(m.ref)).toBe(true);
+    loadValues(m, u.values, 3);
+    const g = await pool.pointGradient(0, 'velocity', m.ref.id);
+    expect(differingBits(g, fieldGradient(single3.pieces[0]!, single3.pieces[0]!.pointData[0]!))).toBe(0);
+    // a later step: only the values are loaded again (the workers' own dataset still holds the first step's)
+    const u2 = Float64Array.from(u.values, (x, i) => x * (1 + (i % 7) / 10));
+    loadValues(m, u2, 3);
+    const [w, q] = await pool.pointDerived(0, 'velocity', [{ name: 'vorticity', components: 3 }, { name: 'q-criterion', components: 1 }], m.ref.id);
+    const step = { ...single3, pieces: [{ ...single3.pieces[0]!, pointData: [{ ...single3.pieces[0]!.pointData[0]!, values: u2 }] }] };
+    const ref = withDerivedFields(step, names);
+    expect(differingBits(w!, ref.pieces[0]!.pointData.find((f) => f.name === 'vorticity')!.values)).toBe(0);
+    expect(differingBits(q!, ref.pieces[0]!.pointData.find((f) => f.name === 'q-criterion')!.values)).toBe(0);
   });
 
   it('names the missing field', async () => {
