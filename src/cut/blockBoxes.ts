@@ -103,7 +103,7 @@ function boxesOf(p: Piece): { boxes: Float64Array; fine: Float64Array } {
   } else {
     for (let b = 0; b < nf; b++) {
       const c0 = b * FINE_BLOCK, c1 = Math.min(nc, c0 + FINE_BLOCK);
-      if (lay.size > 0) boxOfRun(p.points, p.connectivity, lay.base + lay.size * c0, lay.base + lay.size * c1, fine, 6 * b);
+      if (c1 <= lay.leadCells) boxOfRun(p.points, p.connectivity, lay.base + lay.leadSize * c0, lay.base + lay.leadSize * c1, fine, 6 * b);
       else boxOfCells(p, c0, c1, fine, 6 * b);
     }
   }
