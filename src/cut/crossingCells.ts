@@ -37,6 +37,14 @@ export type CandidateSource = 'auto' | 'tree' | 'scan';
 /** Scans allowed per dataset before `auto` builds the tree (see the file comment for the measurement behind it). */
 export const AUTO_SCANS = 12;
 
+/**
+ * Cost of one node read by coordinates in the scan, in points of the side pass (see `scan`). Measured on the
+ * 1M-tetrahedron file's second share (its boundary triangles reach every point, so the side pass covers all
+ * 175 000 points for 34 000 cells read), pool of 2, load average 14: that worker's CPU for the first cut
+ * 14.4–16.7 ms by coordinates (the weight 1) against 10.9–12.7 ms by bytes (the weight 2).
+ */
+const NODE_BY_COORDINATES = 2;
+
 /** Fine blocks in a block. */
 const FINE_PER_BLOCK = CELL_BLOCK / FINE_BLOCK;
 
@@ -94,9 +102,11 @@ function scan(d: Dataset, ox: number, oy: number, oz: number, nx: number, ny: nu
     const nf = fine.length / 6;
     if (runFrom.length < nf) { runFrom = new Int32Array(Math.max(nf, 2 * runFrom.length)); runTo = new Int32Array(runFrom.length); }
     const nRuns = fineRuns(fine, nf, nc, crossing, nCross, ox, oy, oz, nx, ny, nz, tol, runFrom, runTo);
-    // Many cells to read: side bytes of every point once, then bytes per node (cheaper than coordinates per node).
+    // Many cells to read: side bytes of every point once, then bytes per node (cheaper than coordinates per
+    // node). A node by coordinates (three doubles read out of order, a dot product) costs about two points of
+    // the in-order side pass (`NODE_BY_COORDINATES`).
     const m = lay.leadSize, lead = lay.leadCells;
-    const bytes = m > 0 && !pf && runCells * m > lay.endPoint - lay.firstPoint;
+    const bytes = m > 0 && !pf && NODE_BY_COORDINATES * runCells * m > lay.endPoint - lay.firstPoint;
     if (bytes) {
       if (side.length < lay.endPoint) side = new Uint8Array(Math.max(lay.endPoint, 2 * side.length));
       pointSides(p.points, lay.firstPoint, lay.endPoint, ox, oy, oz, nx, ny, nz, tol, side);
