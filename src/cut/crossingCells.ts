@@ -38,12 +38,17 @@ export type CandidateSource = 'auto' | 'tree' | 'scan';
 export const AUTO_SCANS = 12;
 
 /**
- * Cost of one node read by coordinates in the scan, in points of the side pass (see `scan`). Measured on the
- * 1M-tetrahedron file's second share (its boundary triangles reach every point, so the side pass covers all
- * 175 000 points for 34 000 cells read), pool of 2, load average 14: that worker's CPU for the first cut
- * 14.4–16.7 ms by coordinates (the weight 1) against 10.9–12.7 ms by bytes (the weight 2).
+ * Cost of one node read by coordinates in the scan, in points of the side pass (see `scan`), by the size of the
+ * point range the side pass covers. A small range (up to `SMALL_POINT_RANGE` points, 12 MB of coordinates)
+ * stays in cache, and a node by coordinates (three doubles read out of order, a dot product) costs about two
+ * points of it: on the 1M-tetrahedron file's second share (its boundary triangles reach all 175 000 points; 34 000
+ * cells read) that worker's first-cut CPU was 14.4–16.7 ms by coordinates against 10.9–12.7 ms by bytes (pool of
+ * 2, load average 14). A large range is a stream from memory, and the nodes of a run of cells share their
+ * points: on a 5M-cell share of the 10M lattice (x-normal plane, 600 000 cells read over 5.1M points) the share's
+ * cut took 230–497 ms by coordinates against 484–507 ms by bytes (in-thread, load average 14–17), so a node
+ * there weighs one point.
  */
-const NODE_BY_COORDINATES = 2;
+const SMALL_POINT_RANGE = 1 << 19;
 
 /** Fine blocks in a block. */
 const FINE_PER_BLOCK = CELL_BLOCK / FINE_BLOCK;
@@ -103,10 +108,10 @@ function scan(d: Dataset, ox: number, oy: number, oz: number, nx: number, ny: nu
     if (runFrom.length < nf) { runFrom = new Int32Array(Math.max(nf, 2 * runFrom.length)); runTo = new Int32Array(runFrom.length); }
     const nRuns = fineRuns(fine, nf, nc, crossing, nCross, ox, oy, oz, nx, ny, nz, tol, runFrom, runTo);
     // Many cells to read: side bytes of every point once, then bytes per node (cheaper than coordinates per
-    // node). A node by coordinates (three doubles read out of order, a dot product) costs about two points of
-    // the in-order side pass (`NODE_BY_COORDINATES`).
+    // node); a node by coordinates weighs two points of the side pass over a small range (`SMALL_POINT_RANGE`).
     const m = lay.leadSize, lead = lay.leadCells;
-    const bytes = m > 0 && !pf && NODE_BY_COORDINATES * runCells * m > lay.endPoint - lay.firstPoint;
+    const range = lay.endPoint - lay.firstPoint;
+    const bytes = m > 0 && !pf && (range <= SMALL_POINT_RANGE ? 2 : 1) * runCells * m > range;
     if (bytes) {
       if (side.length < lay.endPoint) side = new Uint8Array(Math.max(lay.endPoint, 2 * side.length));
       pointSides(p.points, lay.firstPoint, lay.endPoint, ox, oy, oz, nx, ny, nz, tol, side);
