@@ -9,7 +9,8 @@
  *   workers started while the file loads, zlib blocks inflated by 2 threads, arrays decoded straight into shared
  *   memory (`sharedArrays`), as the CLI's `--workers 2`; the workers are started and warmed before the load's
  *   clock and that time is reported apart as `warmUp`, like the core's kernel warm-up);
- *   and 1 worker (`pool1`), for the speed-up from 1 to 2 workers and the memory per worker;
+ *   and 1 worker (`pool1`), for the speed-up from 1 to 2 workers and the memory per worker; the pool children
+ *   report how each cut was split between the workers (`cutSplit`: candidate cells, triangles and cut ms per worker);
  * - the same stages with VTK (`bench/vtk_stages.py stages`);
  * - whole processes: `fieldtally cut <file> --origin … --normal …` against `vtk_stages.py cut` (read, cut,
  *   integrate, print), each the best of `ONE_SHOT_RUNS` after one untimed run, the three commands taking turns
@@ -136,6 +137,8 @@ async function childStages(file: string, workers: number): Promise<Record<string
     const [b, boundary] = await timed(() => pool ? pool.boundary() : getBoundaryFaces(d));
     const [f, force] = await timed(() => forceAll(d));
     Object.assign(out, { firstCut, laterCut, firstLine, laterLine, boundary, force });
+    // the pool's split of each cut between its workers (candidate cells, triangles, ms of each worker's cut)
+    if (pool) out.cutSplit = { firstCut: c1.cut.stats.shares ?? null, laterCut: c2.cut.stats.shares ?? null };
     out.check = {
       firstCutArea: c1.integrals.area, firstCutPIntegral: (c1.integrals.integral as Record<string, number>).p ?? null, laterCutArea: c2.integrals.area,
       firstLineValid: l1.validCount, laterLineValid: l2.validCount, boundaryFaces: b.count, forceFromPressure: f,

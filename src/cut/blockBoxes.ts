@@ -13,10 +13,10 @@
  *
  * Layout: `Float64Array` of 6 numbers per block — min x, min y, min z, max x, max y, max z (file's length
  * unit) — over the point ids the scan reads for the block's cells (a polyhedron stored with empty
- * connectivity: its face stream). A block of cells with no nodes keeps +∞/−∞ (its test is NaN, so it is
- * scanned, and yields nothing).
+ * connectivity: its face stream). A block with no 3D cell (computed from the cells, not joined from point
+ * runs) keeps the empty box +∞ … −∞, which no plane crosses.
  */
-import { CellType } from '../model/cellTypes.ts';
+import { cellDimension, CellType } from '../model/cellTypes.ts';
 import type { Piece } from '../model/piece.ts';
 import { cellLayout } from '../model/uniformCells.ts';
 
@@ -103,7 +103,7 @@ function boxesOf(p: Piece): { boxes: Float64Array; fine: Float64Array } {
   } else {
     for (let b = 0; b < nf; b++) {
       const c0 = b * FINE_BLOCK, c1 = Math.min(nc, c0 + FINE_BLOCK);
-      if (lay.size > 0) boxOfRun(p.points, p.connectivity, lay.base + lay.size * c0, lay.base + lay.size * c1, fine, 6 * b);
+      if (c1 <= lay.leadCells) boxOfRun(p.points, p.connectivity, lay.base + lay.leadSize * c0, lay.base + lay.leadSize * c1, fine, 6 * b);
       else boxOfCells(p, c0, c1, fine, 6 * b);
     }
   }
@@ -151,11 +151,17 @@ function boxOfRun(pts: Float64Array, ids: Int32Array, q0: number, q1: number, ou
   out[o] = x0; out[o + 1] = y0; out[o + 2] = z0; out[o + 3] = x1; out[o + 4] = y1; out[o + 5] = z1;
 }
 
-/** Box of cells c0 … c1 − 1 of a piece with mixed cells (polyhedra by their face stream when their connectivity is empty). */
+/**
+ * Box of the 3D cells among cells c0 … c1 − 1 of a piece with mixed cells (polyhedra by their face stream when
+ * their connectivity is empty). Faces, lines and vertices stored with the volume (a file's boundary triangles
+ * after its tetrahedra) are never candidates, so their nodes are left out: a block of them alone keeps the
+ * empty box, which `boxMayCross` skips.
+ */
 function boxOfCells(p: Piece, c0: number, c1: number, out: Float64Array, o: number): void {
   const off = p.offsets, pf = p.polyFaces;
   let x0 = Infinity, y0 = Infinity, z0 = Infinity, x1 = -Infinity, y1 = -Infinity, z1 = -Infinity;
   for (let c = c0; c < c1; c++) {
+    if (cellDimension(p.cellTypes[c]!) !== 3) continue;
     let a = off[c]!, b = off[c + 1]!, ids = p.connectivity;
     if (p.cellTypes[c] === CellType.POLYHEDRON && a === b && pf) {
       ids = pf.faceConnectivity; a = pf.faceOffsets[pf.cellFaceStart[c]!]!; b = pf.faceOffsets[pf.cellFaceStart[c + 1]!]!;
@@ -174,6 +180,8 @@ function boxOfCells(p: Piece, c0: number, c1: number, out: Float64Array, o: numb
  * A box with a NaN coordinate is never skipped.
  */
 export function boxMayCross(boxes: Float64Array, o: number, ox: number, oy: number, oz: number, nx: number, ny: number, nz: number, tol: number): boolean {
+  // the empty box (+∞ … −∞: a block with no 3D cell, see `boxOfCells`) holds no candidate
+  if (boxes[o]! > boxes[o + 3]!) return false;
   const hx = 0.5 * (boxes[o + 3]! - boxes[o]!), hy = 0.5 * (boxes[o + 4]! - boxes[o + 1]!), hz = 0.5 * (boxes[o + 5]! - boxes[o + 2]!);
   const cx = boxes[o]! + hx, cy = boxes[o + 1]! + hy, cz = boxes[o + 2]! + hz;
   const dc = nx * (cx - ox) + ny * (cy - oy) + nz * (cz - oz);

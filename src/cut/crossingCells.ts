@@ -37,6 +37,19 @@ export type CandidateSource = 'auto' | 'tree' | 'scan';
 /** Scans allowed per dataset before `auto` builds the tree (see the file comment for the measurement behind it). */
 export const AUTO_SCANS = 12;
 
+/**
+ * Cost of one node read by coordinates in the scan, in points of the side pass (see `scan`), by the size of the
+ * point range the side pass covers. A small range (up to `SMALL_POINT_RANGE` points, 12 MB of coordinates)
+ * stays in cache, and a node by coordinates (three doubles read out of order, a dot product) costs about two
+ * points of it: on the 1M-tetrahedron file's second share (its boundary triangles reach all 175 000 points; 34 000
+ * cells read) that worker's first-cut CPU was 14.4–16.7 ms by coordinates against 10.9–12.7 ms by bytes (pool of
+ * 2, load average 14). A large range is a stream from memory, and the nodes of a run of cells share their
+ * points: on a 5M-cell share of the 10M lattice (x-normal plane, 600 000 cells read over 5.1M points) the share's
+ * cut took 230–497 ms by coordinates against 484–507 ms by bytes (in-thread, load average 14–17), so a node
+ * there weighs one point.
+ */
+const SMALL_POINT_RANGE = 1 << 19;
+
 /** Fine blocks in a block. */
 const FINE_PER_BLOCK = CELL_BLOCK / FINE_BLOCK;
 
@@ -83,7 +96,7 @@ function scan(d: Dataset, ox: number, oy: number, oz: number, nx: number, ny: nu
     if (first || (!p.polyFaces && rentFullScan(p))) {
       // A piece with no polyhedra, first scanned (the point pass leaves the boxes the block boxes are joined
       // from) or scanned whole while those wait (blockBoxes.ts, RENTED_SCANS): every cell is read.
-      nFound = fullScan(p, lay.base, lay.size, ox, oy, oz, nx, ny, nz, tol, g0, nFound, first);
+      nFound = fullScan(p, ox, oy, oz, nx, ny, nz, tol, g0, nFound, first);
       continue;
     }
     const boxes = blockBoxes(p), fine = fineBoxes(p), pf = p.polyFaces, nb = boxes.length / 6;
@@ -94,23 +107,31 @@ function scan(d: Dataset, ox: number, oy: number, oz: number, nx: number, ny: nu
     const nf = fine.length / 6;
     if (runFrom.length < nf) { runFrom = new Int32Array(Math.max(nf, 2 * runFrom.length)); runTo = new Int32Array(runFrom.length); }
     const nRuns = fineRuns(fine, nf, nc, crossing, nCross, ox, oy, oz, nx, ny, nz, tol, runFrom, runTo);
-    // Many cells to read: side bytes of every point once, then bytes per node (cheaper than coordinates per node).
-    const bytes = lay.size > 0 && runCells * lay.size > lay.endPoint - lay.firstPoint;
+    // Many cells to read: side bytes of every point once, then bytes per node (cheaper than coordinates per
+    // node); a node by coordinates weighs two points of the side pass over a small range (`SMALL_POINT_RANGE`).
+    const m = lay.leadSize, lead = lay.leadCells;
+    const range = lay.endPoint - lay.firstPoint;
+    const bytes = m > 0 && !pf && (range <= SMALL_POINT_RANGE ? 2 : 1) * runCells * m > range;
     if (bytes) {
       if (side.length < lay.endPoint) side = new Uint8Array(Math.max(lay.endPoint, 2 * side.length));
       pointSides(p.points, lay.firstPoint, lay.endPoint, ox, oy, oz, nx, ny, nz, tol, side);
     }
     for (let i = 0; i < nRuns; i++) {
-      const c0 = runFrom[i]!, c1 = runTo[i]!;
+      const c0 = runFrom[i]!, c1 = runTo[i]!, cl = Math.min(c1, lead), ct = Math.max(c0, lead);
       reserveFound(nFound + (c1 - c0));
-      if (bytes && lay.size === 8) nFound = sideBytesOf8(p.connectivity, lay.base, c0, c1, side, g0, found, nFound);
-      else if (bytes && lay.size === 4) nFound = sideBytesOf4(p.connectivity, lay.base, c0, c1, side, g0, found, nFound);
-      else if (bytes) nFound = sideBytesOf(p.connectivity, lay.size, lay.base, c0, c1, side, g0, found, nFound);
-      else if (lay.size === 8) nFound = blockOf8(p.points, p.connectivity, lay.base, c0, c1, ox, oy, oz, nx, ny, nz, tol, g0, found, nFound);
-      else if (lay.size === 4) nFound = blockOf4(p.points, p.connectivity, lay.base, c0, c1, ox, oy, oz, nx, ny, nz, tol, g0, found, nFound);
-      else {
-        nFound = blockOfAny(p.points, p.cellTypes, p.offsets, p.connectivity, pf?.faceConnectivity, pf?.faceOffsets, pf?.cellFaceStart,
-          ox, oy, oz, nx, ny, nz, tol, g0, c0, c1, found, nFound);
+      // The run's part in the lead run (fixed stride), then its part after it (types and offsets read per cell).
+      if (c0 < cl) {
+        if (bytes && m === 8) nFound = sideBytesOf8(p.connectivity, lay.base, c0, cl, side, g0, found, nFound);
+        else if (bytes) nFound = sideBytesOf4(p.connectivity, lay.base, c0, cl, side, g0, found, nFound);
+        else if (m === 8) nFound = blockOf8(p.points, p.connectivity, lay.base, c0, cl, ox, oy, oz, nx, ny, nz, tol, g0, found, nFound);
+        else nFound = blockOf4(p.points, p.connectivity, lay.base, c0, cl, ox, oy, oz, nx, ny, nz, tol, g0, found, nFound);
+      }
+      if (ct < c1) {
+        if (bytes) nFound = sideBytesOfAny(p.cellTypes, p.offsets, p.connectivity, ct, c1, side, g0, found, nFound);
+        else {
+          nFound = blockOfAny(p.points, p.cellTypes, p.offsets, p.connectivity, pf?.faceConnectivity, pf?.faceOffsets, pf?.cellFaceStart,
+            ox, oy, oz, nx, ny, nz, tol, g0, ct, c1, found, nFound);
+        }
       }
     }
   }
@@ -159,33 +180,23 @@ function pointSides(pts: Float64Array, first: number, end: number, ox: number, o
   }
 }
 
-/** Cells c0 … c1 − 1 of a single-type piece (`size` nodes a cell) by their nodes' side bytes; same test as `blockOf8`. */
-function sideBytesOf(conn: Int32Array, size: number, base: number, c0: number, c1: number, side: Uint8Array, g0: number, out: Int32Array, nFound: number): number {
-  for (let c = c0, q = base + size * c0; c < c1; c++) {
-    let m = 0;
-    for (const qe = q + size; q < qe; q++) m |= side[conn[q]!]!;
-    out[nFound] = g0 + c;
-    nFound += m === 3 || m >= 5 ? 1 : 0;
-  }
-  return nFound;
-}
-
 /** Points per point run of the first scan: the runs whose boxes the block boxes are joined from. */
 const POINT_BLOCK_SHIFT = 5;
 let crossing = new Int32Array(0);
 let side = new Uint8Array(0);
 
 /**
- * A scan of every cell of a piece with no polyhedra (`size` nodes a cell, 0 for mixed cells). One pass over
- * the points: a side byte per point (1 below, 2 on, 4 above) and, on the `first` scan, the box of each run of
- * 2^POINT_BLOCK_SHIFT consecutive points, kept for the piece (`keepPointRunBoxes`: a later scan joins its
- * block boxes from them, one pass over the connectivity that this first cut does not wait for). Then per cell
- * the OR of its nodes' side bytes: the candidates, exactly as the scans over block boxes select them.
+ * A scan of every cell of a piece with no polyhedra. One pass over the points: a side byte per point (1 below,
+ * 2 on, 4 above) and, on the `first` scan, the box of each run of 2^POINT_BLOCK_SHIFT consecutive points, kept
+ * for the piece (`keepPointRunBoxes`: a later scan joins its block boxes from them, one pass over the
+ * connectivity that this first cut does not wait for). Then per cell the OR of its nodes' side bytes — the lead
+ * run (`cellLayout`) with a fixed stride, the cells after it by their offsets: the candidates, exactly as the
+ * scans over block boxes select them.
  */
-function fullScan(p: Piece, base: number, size: number, ox: number, oy: number, oz: number, nx: number, ny: number, nz: number,
+function fullScan(p: Piece, ox: number, oy: number, oz: number, nx: number, ny: number, nz: number,
   tol: number, g0: number, nFound: number, first: boolean): number {
   const nc = p.cellTypes.length, np = p.points.length / 3, nRuns = (np >> POINT_BLOCK_SHIFT) + 1;
-  const lay = cellLayout(p);
+  const lay = cellLayout(p), m = lay.leadSize, lead = lay.leadCells, base = lay.base;
   if (side.length < np) side = new Uint8Array(Math.max(np, 2 * side.length));
   if (first) {
     const runs = new Float64Array(6 * nRuns);
@@ -196,13 +207,15 @@ function fullScan(p: Piece, base: number, size: number, ox: number, oy: number, 
   }
   // Room for a chunk at a time: every cell's id is written, so room for all of them would be as many fresh
   // bytes as the piece has cells (40 MB at 10M cells), where the candidates are a small share.
-  for (let c0 = 0; c0 < nc; c0 += SCAN_CHUNK) {
+  for (let c0 = 0; c0 < lead; c0 += SCAN_CHUNK) {
+    const c1 = Math.min(lead, c0 + SCAN_CHUNK);
+    reserveFound(nFound + (c1 - c0));
+    nFound = m === 8 ? sideBytesOf8(p.connectivity, base, c0, c1, side, g0, found, nFound) : sideBytesOf4(p.connectivity, base, c0, c1, side, g0, found, nFound);
+  }
+  for (let c0 = lead; c0 < nc; c0 += SCAN_CHUNK) {
     const c1 = Math.min(nc, c0 + SCAN_CHUNK);
     reserveFound(nFound + (c1 - c0));
-    if (size === 8) nFound = sideBytesOf8(p.connectivity, base, c0, c1, side, g0, found, nFound);
-    else if (size === 4) nFound = sideBytesOf4(p.connectivity, base, c0, c1, side, g0, found, nFound);
-    else if (size > 0) nFound = sideBytesOf(p.connectivity, size, base, c0, c1, side, g0, found, nFound);
-    else nFound = sideBytesOfAny(p.cellTypes, p.offsets, p.connectivity, c0, c1, side, g0, found, nFound);
+    nFound = sideBytesOfAny(p.cellTypes, p.offsets, p.connectivity, c0, c1, side, g0, found, nFound);
   }
   return nFound;
 }
@@ -244,7 +257,7 @@ function sidesOfRun(pts: Float64Array, i0: number, i1: number, ox: number, oy: n
   runs[o] = x0; runs[o + 1] = y0; runs[o + 2] = z0; runs[o + 3] = x1; runs[o + 4] = y1; runs[o + 5] = z1;
 }
 
-/** `sideBytesOf` for hexahedra (8 nodes a cell), unrolled. */
+/** Cells c0 … c1 − 1 of a lead run of hexahedra (8 nodes a cell, back to back from `base`) by their nodes' side bytes; same test as `blockOf8`. */
 function sideBytesOf8(conn: Int32Array, base: number, c0: number, c1: number, side: Uint8Array, g0: number, out: Int32Array, nFound: number): number {
   for (let c = c0, q = base + 8 * c0; c < c1; c++, q += 8) {
     const m = side[conn[q]!]! | side[conn[q + 1]!]! | side[conn[q + 2]!]! | side[conn[q + 3]!]!
@@ -255,7 +268,7 @@ function sideBytesOf8(conn: Int32Array, base: number, c0: number, c1: number, si
   return nFound;
 }
 
-/** `sideBytesOf` for tetrahedra (4 nodes a cell), unrolled. */
+/** `sideBytesOf8` for tetrahedra (4 nodes a cell). */
 function sideBytesOf4(conn: Int32Array, base: number, c0: number, c1: number, side: Uint8Array, g0: number, out: Int32Array, nFound: number): number {
   for (let c = c0, q = base + 4 * c0; c < c1; c++, q += 4) {
     const m = side[conn[q]!]! | side[conn[q + 1]!]! | side[conn[q + 2]!]! | side[conn[q + 3]!]!;
@@ -334,4 +347,33 @@ function blockOfAny(pts: Float64Array, types: Uint8Array, off: Int32Array, conn:
     nFound += SOLID[t]! & (m === 3 || m >= 5 ? 1 : 0);
   }
   return nFound;
+}
+
+let scanLoopsWarm = false;
+
+/**
+ * Runs the full scan's loops (point sides with and without run boxes, the fixed-stride side-byte loops, the
+ * per-cell loop over a tail of triangles) on a lattice-sized set of arrays of the loaded files' types, enough
+ * times that the engine optimises them: a whole-mesh warm-up cut reads a few hundred cells of a tail, and the
+ * first real scan then ran the tail loop (the boundary triangles a file stores after its tetrahedra)
+ * unoptimised. Once per thread; results are thrown away.
+ */
+export function warmUpScanLoops(): void {
+  if (scanLoopsWarm) return;
+  scanLoopsWarm = true;
+  const np = 4096, nc = 2048, pts = new Float64Array(3 * np), conn = new Int32Array(8 * nc);
+  const types = new Uint8Array(nc).fill(CellType.TRIANGLE), off = new Int32Array(nc + 1);
+  for (let i = 0; i < 3 * np; i++) pts[i] = ((i * 7919) % 1021) / 1021;
+  for (let q = 0; q < conn.length; q++) conn[q] = (q * 2654435761 >>> 0) % np;
+  for (let c = 0; c <= nc; c++) off[c] = 3 * c;
+  for (let c = 0; c < nc; c += 5) types[c] = CellType.TETRA;
+  const sides = new Uint8Array(np), runs = new Float64Array(6 * ((np >> POINT_BLOCK_SHIFT) + 1)), out = new Int32Array(2 * nc);
+  for (let r = 0; r < 40; r++) {
+    const oz = 0.3 + 0.01 * r, nz = r % 2 === 0 ? 1 : -1;
+    if (r % 4 === 0) pointSidesAndRuns(pts, 0, np, 0.5, 0.5, oz, 0.1, 0.05, nz, 1e-12, sides, runs);
+    else pointSides(pts, 0, np, 0.5, 0.5, oz, 0.1, 0.05, nz, 1e-12, sides);
+    sideBytesOf8(conn, 0, 0, nc, sides, 0, out, 0);
+    sideBytesOf4(conn, 0, 0, 2 * nc, sides, 0, out, 0);
+    sideBytesOfAny(types, off, conn, 0, nc, sides, 0, out, 0);
+  }
 }

@@ -110,6 +110,8 @@ export interface CutStats {
   /** Absolute node-on-plane tolerance used (file's length unit). */
   tolerance: number;
   ms: number;
+  /** Merged pool cuts only: each worker's share of the work, in worker order (its candidate cells, triangles and the ms its cut took there). */
+  shares?: { candidateCells: number; triangles: number; ms: number }[];
 }
 
 // ---- per-cell scratch ----------------------------------------------------------------------------------

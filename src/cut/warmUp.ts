@@ -18,6 +18,7 @@ import { readDataset } from '../io/readDataset.ts';
 import { writeVtu } from '../io/writeVtu.ts';
 import { field, datasetOf, hexGrid, pointFieldFrom, tetGrid, tetsWithTriangles, withFields } from '../model/meshBuild.ts';
 import type { Piece } from '../model/piece.ts';
+import { warmUpScanLoops } from './crossingCells.ts';
 import { integratePlane } from './planeIntegrals.ts';
 
 function withFlow(p: Piece): Piece {
@@ -38,6 +39,7 @@ let warmed: Promise<void> | undefined;
 /** Cuts and integrates a small mesh sixteen times (four planes through nodes); resolves when done. Runs once per thread (later calls share it). */
 export function warmUpCutKernels(): Promise<void> {
   warmed ??= (async () => {
+    warmUpScanLoops();
     const built = datasetOf([withFlow(hexGrid(10, 10, 10)), withFlow(tetGrid(5, 5, 5, (u, v, w) => [u, v, 1 + w])), withFlow(tetsWithTriangles(tetGrid(4, 4, 4, (u, v, w) => [u, v, 2 + w]), 3))], 'warm-up mesh');
     const d = await readDataset('warm-up mesh', writeVtu(built, { encoding: 'appended-raw' }));
     for (let i = 0; i < 12; i++) {

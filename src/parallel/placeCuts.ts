@@ -112,6 +112,7 @@ export async function cutInPlace(all: <R>(req: (i: number) => CutRequest) => Pro
       candidateSource: parts.every((c) => c.candidateSource === 'scan') ? 'scan' : 'tree',
       cutCells: sum((c) => c.cutCells) - plan.dropped, boundaryFaces: plan.kept, openChains: sum((c) => c.openChains),
       tolerance: parts[0]?.tolerance ?? 0, ms: performance.now() - t0,
+      shares: parts.map((c) => ({ candidateCells: c.candidateCells, triangles: c.triangles, ms: c.ms })),
     },
   };
   if (sums) summedBy.set(cut, { sums: sums.sums, done: sums.done, tri: { un: sums.un, rho: sums.rho, area: sums.area } });

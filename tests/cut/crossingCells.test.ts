@@ -8,7 +8,7 @@
 import { describe, expect, it } from 'vitest';
 import { candidateCells } from '../../src/cut/crossingCells.ts';
 import { CellType } from '../../src/model/cellTypes.ts';
-import { datasetOf, hexGrid, pieceFromCells, tetGrid } from '../../src/model/meshBuild.ts';
+import { datasetOf, hexGrid, pieceFromCells, tetGrid, tetsWithTriangles } from '../../src/model/meshBuild.ts';
 import type { Dataset } from '../../src/model/dataset.ts';
 import type { Piece } from '../../src/model/piece.ts';
 import { shareDataset, splitCells } from '../../src/parallel/shares.ts';
@@ -90,6 +90,23 @@ describe('candidateCells scan', () => {
     }
     expect(types.length).toBeGreaterThan(4096);
     expectSame(datasetOf([pieceFromCells(h.points, { types, nodes })]), 9);
+  });
+
+  it('selects exactly the rule\'s cells on a lead run of one type followed by other cells (stride, then offsets)', () => {
+    // tetrahedra then their boundary triangles, as a volume mesh written with its faces
+    expectSame(datasetOf([tetsWithTriangles(jitteredTet(4), 3)]), 10);
+    expectSame(datasetOf([tetsWithTriangles(tetGrid(10, 10, 10), 7)]), 11);
+    // hexahedra, a wedge, hexahedra again: the lead ends at the wedge, the later hexahedra go by offsets
+    const h = hexGrid(17, 17, 17), types: number[] = [], nodes: number[][] = [];
+    for (let c = 0; c < h.cellTypes.length; c++) {
+      const hex = Array.from(h.connectivity.subarray(8 * c, 8 * c + 8));
+      if (c === 3000) { types.push(CellType.WEDGE); nodes.push(hex.slice(0, 6)); }
+      types.push(CellType.HEXAHEDRON); nodes.push(hex);
+    }
+    expectSame(datasetOf([pieceFromCells(h.points, { types, nodes })]), 12);
+    // shares whose first one ends inside the lead and whose last one holds only the tail
+    const d = datasetOf([tetsWithTriangles(jitteredTet(4), 2)]);
+    for (const share of splitCells(d.pieces[0]!.cellTypes.length, 3)) expectSame(shareDataset(d, share), 13);
   });
 
   it('selects exactly the rule\'s cells on a worker\'s share of the cells (views; only the share\'s points classified)', () => {

@@ -4,7 +4,7 @@
  */
 import { describe, expect, it } from 'vitest';
 import { CellType } from '../../src/model/cellTypes.ts';
-import { hexGrid, pieceFromCells, tetGrid } from '../../src/model/meshBuild.ts';
+import { hexGrid, pieceFromCells, tetGrid, tetsWithTriangles } from '../../src/model/meshBuild.ts';
 import { cellLayout, uniformSize } from '../../src/model/uniformCells.ts';
 
 describe('uniformSize', () => {
@@ -38,10 +38,25 @@ describe('uniformSize', () => {
 describe('cellLayout', () => {
   it('gives the stride, the first offset and the point ids used by a share of the cells', () => {
     const h = hexGrid(4, 1, 1), np = h.points.length / 3;
-    expect(cellLayout(h)).toEqual({ size: 8, base: 0, firstPoint: 0, endPoint: np });
+    expect(cellLayout(h)).toEqual({ size: 8, leadSize: 8, leadCells: 4, base: 0, firstPoint: 0, endPoint: np });
     // the last two cells as a share's views (offsets and types narrowed, connectivity and points whole)
     const view = { ...h, cellTypes: h.cellTypes.subarray(2, 4), offsets: h.offsets.subarray(2, 5) };
     const ids = Array.from(h.connectivity.subarray(16, 32));
-    expect(cellLayout(view)).toEqual({ size: 8, base: 16, firstPoint: Math.min(...ids), endPoint: Math.max(...ids) + 1 });
+    expect(cellLayout(view)).toEqual({ size: 8, leadSize: 8, leadCells: 2, base: 16, firstPoint: Math.min(...ids), endPoint: Math.max(...ids) + 1 });
+  });
+});
+
+describe('cellLayout lead run', () => {
+  it('is the leading cells of one type back to back, the whole piece or up to the first other cell', () => {
+    const t = tetGrid(2, 2, 2), nt = t.cellTypes.length;
+    const tt = tetsWithTriangles(t, 3);
+    const lay = cellLayout(tt);
+    expect([lay.size, lay.leadSize, lay.leadCells]).toEqual([0, 4, nt]);
+    expect(tt.cellTypes[nt]).toBe(CellType.TRIANGLE);
+    // a share's view that starts in the tail has no lead run
+    const tail = { ...tt, cellTypes: tt.cellTypes.subarray(nt), offsets: tt.offsets.subarray(nt) };
+    expect([cellLayout(tail).leadSize, cellLayout(tail).leadCells]).toEqual([0, 0]);
+    // hexahedra with one node too many in the third cell: the lead stops there
+    expect(cellLayout({ ...hexGrid(4, 1, 1), cellTypes: Uint8Array.of(12, 12, 12, 12), offsets: Int32Array.of(0, 8, 16, 25, 33) })).toMatchObject({ size: 0, leadSize: 8, leadCells: 2 });
   });
 });

@@ -79,6 +79,18 @@ for (const workers of [1, 2]) {
       }
     });
 
+    it('reports each worker\'s share of the cut: candidates and triangles adding up to the merged cut\'s', async () => {
+      for (const [o, n] of PLANES) {
+        const c = await pool.cutPlane(o, n), one = cutPlane(d, o, n, { planeFaceKeys: true });
+        const shares = c.stats.shares!;
+        expect(shares).toHaveLength(workers);
+        expect(shares.reduce((s, x) => s + x.candidateCells, 0)).toBe(one.stats.candidateCells);
+        // triangles of cells, plus in-plane faces a share added that another share cut from the cell below (dropped in the merge)
+        expect(shares.reduce((s, x) => s + x.triangles, 0)).toBeGreaterThanOrEqual(c.sourceCell.length);
+        for (const x of shares) expect(x.ms).toBeGreaterThanOrEqual(0);
+      }
+    });
+
     it('keeps two cuts in flight at once apart', async () => {
       const both = await Promise.all(PLANES.map(([o, n]) => pool.cutPlane(o, n)));
       both.forEach((c, i) => expectSameCut(c, cutPlane(d, ...PLANES[i]!)));
