@@ -13,7 +13,7 @@ import { noteScan } from '../model/arrayScans.ts';
 import type { NumericArray } from '../model/fieldArray.ts';
 import { inMemoryBytes, readExactly, readInto, type ByteSource } from './byteSource.ts';
 import { ELEMENT_SIZE } from './elementTypes.ts';
-import { ChunkScan } from './partReads.ts';
+import { ChunkScan, directBytes, readChunkSync, type FillSync } from './partReads.ts';
 import { HOST_LITTLE, Scratch, allocateTarget, chunkElements, convertChunk, finishDirect, isDirect, type ArrayPlan } from './elementConvert.ts';
 import { PARTS_MIN_BYTES, type Checkpoint, type ReadParts } from './loadOptions.ts';
 
@@ -64,6 +64,7 @@ export async function readArray(src: ByteSource, offset: number, count: number, 
   if (parts && !mem && src.descriptor !== undefined && plan.target !== 'cellTypes' && count * size >= (parts.minBytes ?? PARTS_MIN_BYTES)) {
     return readInParts(src, src.descriptor, offset, count, plan, parts, opts.progress);
   }
+  if (!mem && src.readIntoSync) return readOnThisThread(src, src.readIntoSync.bind(src), offset, count, plan, opts.progress);
   const out = allocateTarget(plan, count);
   const outBytes = direct ? new Uint8Array(out.buffer, out.byteOffset + (plan.lead ?? 0) * size, count * size) : undefined;
   const step = chunkElements(size, src.chunkBytes);
@@ -107,6 +108,33 @@ export async function readArray(src: ByteSource, offset: number, count: number, 
   } finally {
     sc[0].release();
     sc[1].release();
+  }
+  noteScan(out, scan.result());
+  return out;
+}
+
+/**
+ * `readArray` from a source with synchronous reads (a file on disk): chunk by chunk, a direct plan's bytes read
+ * straight into the final array and finished there, others through the scratch (64-bit ids through the chunk
+ * kernel's input) — the read parts' code (`readChunkSync`), with a checkpoint between chunks.
+ */
+async function readOnThisThread(src: ByteSource, fill: FillSync, offset: number, count: number, plan: ArrayPlan, progress: ReadProgress | undefined): Promise<NumericArray> {
+  const size = ELEMENT_SIZE[plan.type];
+  const out = allocateTarget(plan, count);
+  const outBytes = directBytes(plan, out);
+  const step = chunkElements(size, src.chunkBytes);
+  const scan = new ChunkScan(plan, out);
+  const sc = new Scratch(0);
+  try {
+    const scratch = outBytes ? new Uint8Array(0) : sc.bytes(Math.min(count, step) * size);
+    for (let i = 0; i < count; i += step) {
+      const k = Math.min(step, count - i);
+      readChunkSync(plan, out, outBytes, offset, i, k, fill, scratch);
+      scan.add(i, k);
+      if (progress) await progress.cp.at(progress.stage, offset + (i + k) * size);
+    }
+  } finally {
+    sc.release();
   }
   noteScan(out, scan.result());
   return out;
