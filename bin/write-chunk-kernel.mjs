@@ -3,14 +3,17 @@
 // per-chunk loop, narrowing 64-bit ids (low word first, as little-endian files hold them on a little-endian
 // host) to Int32 while it sums up the run: the OR of every high word XOR its low word's sign (0: every value
 // fits in 32 bits) and the least and greatest low word. Same answer as `narrowLowFirst` in
-// src/io/elementConvert.ts, four ids per step instead of one. The bytes are assembled here by hand — no
+// src/io/elementConvert.ts, four ids per step instead of one. Also the non-finite test of a chunk of floats
+// (`nonFinite32`, `nonFinite64`: 1 when some value has every exponent bit set), the question `ChunkScan` of
+// src/io/partReads.ts asks; compiled at once, so unlike a JavaScript loop run once per load it is not slow
+// while the engine has not optimised it yet. The bytes are assembled here by hand — no
 // toolchain — and written as base64. Run `node bin/write-chunk-kernel.mjs` after changing this generator;
 // tests/io/chunkKernel.test.ts checks the written file is its output.
 //
 // Memory (imported as `env.memory`, made once at its full size by the caller and never grown: growing detaches
 // the old buffer, which makes V8 check every typed-array access of the thread from then on): the 64-bit ids of
 // one chunk from byte IN_AT (IN_BYTES at most), their low words written from OUT_AT, the run's least and
-// greatest low word left at RANGE_AT (two i32). `narrow(n)` returns the sign OR.
+// greatest low word left at RANGE_AT (two i32). `narrow(n)` returns the sign OR. Floats are read from IN_AT too.
 
 import { writeFileSync } from 'node:fs';
 import { dirname, join } from 'node:path';
@@ -31,7 +34,52 @@ const vec = (items) => [...uleb(items.length), ...items.flat()];
 const I32 = 0x7f, V128 = 0x7b;
 const simd = (op, ...imm) => [0xfd, ...uleb(op), ...imm];
 /** SIMD opcodes used (WebAssembly SIMD proposal, final numbering). */
-const S = { load: 0x00, store: 0x0b, shuffle: 0x0d, splat: 0x11, lane: 0x1b, or: 0x50, xor: 0x51, shrS: 0xac, minS: 0xb6, maxS: 0xb8 };
+const S = {
+  load: 0x00, store: 0x0b, shuffle: 0x0d, splat: 0x11, lane: 0x1b, eq32: 0x37, and: 0x4e, or: 0x50, xor: 0x51, anyTrue: 0x53, shrS: 0xac,
+  minS: 0xb6, maxS: 0xb8, eq64: 0xd6,
+};
+
+/**
+ * The body of `nonFinite32(n)` / `nonFinite64(n)`: 1 when some of the n floats (4 or 8 bytes, host order) from
+ * IN_AT is not finite (all exponent bits set: ±∞ or NaN), else 0. Whole vectors first, the last values one by one.
+ */
+function nonFiniteBody(size) {
+  const code = [];
+  const e = (...b) => code.push(...b.flat());
+  // locals: 0 n (param); i32: 1 at, 2 end, 3 tail; v128: 4 hit, 5 mask
+  const N = 0, AT = 1, END = 2, TAIL = 3, HIT = 4, MASK = 5;
+  const get = (l) => e(0x20, uleb(l)), set = (l) => e(0x21, uleb(l));
+  const i32 = (v) => e(0x41, sleb(v));
+  const mem = (offset, align) => [align, ...uleb(offset)];
+  // the exponent mask in every lane: 0x7f800000 (f32) or 0x7ff0000000000000 (f64)
+  const maskBytes = size === 4 ? [0x00, 0x00, 0x80, 0x7f] : [0, 0, 0, 0, 0, 0, 0xf0, 0x7f];
+  e(simd(0x0c, ...Array.from({ length: 16 }, (_, i) => maskBytes[i % size]))); set(MASK);
+  i32(0); e(simd(S.splat)); set(HIT);
+  // end = the bytes of the whole vectors; tail = n's bytes
+  get(N); i32(size === 4 ? -4 : -2); e(0x71); i32(size === 4 ? 2 : 3); e(0x74); set(END);
+  get(N); i32(size === 4 ? 2 : 3); e(0x74); set(TAIL);
+  i32(IN_AT); set(AT);
+  e(0x02, 0x40, 0x03, 0x40);
+  get(AT); get(END); e(0x4f); e(0x0d, 1);
+  get(HIT); get(AT); e(simd(S.load, ...mem(IN_AT, 4))); get(MASK); e(simd(S.and)); get(MASK); e(simd(size === 4 ? S.eq32 : S.eq64)); e(simd(S.or)); set(HIT);
+  get(AT); i32(16); e(0x6a); set(AT);
+  e(0x0c, 0);
+  e(0x0b, 0x0b);
+  get(HIT); e(simd(S.anyTrue)); e(0x04, 0x40); // if any lane hit: return 1
+  i32(1); e(0x0f); e(0x0b);
+  // the last values: the high word's exponent bits (f32: the value itself)
+  e(0x02, 0x40, 0x03, 0x40);
+  get(AT); get(TAIL); e(0x4f); e(0x0d, 1);
+  get(AT); e(0x28, mem(IN_AT + size - 4, 2)); i32(size === 4 ? 0x7f800000 : 0x7ff00000); e(0x71); i32(size === 4 ? 0x7f800000 : 0x7ff00000); e(0x46);
+  e(0x04, 0x40); i32(1); e(0x0f); e(0x0b);
+  get(AT); i32(size); e(0x6a); set(AT);
+  e(0x0c, 0);
+  e(0x0b, 0x0b);
+  i32(0);
+  e(0x0b);
+  const body = [...vec([[3, I32], [2, V128]]), ...code];
+  return [...uleb(body.length), ...body];
+}
 
 /** The body of `narrow(n)`. */
 function narrowBody() {
@@ -99,9 +147,9 @@ export function chunkKernelBytes() {
     ...section(1, vec([[0x60, 1, I32, 1, I32]])),
     // the memory is the caller's (env.memory), PAGES pages, made at its full size
     ...section(2, vec([[...name('env'), ...name('memory'), 0x02, 0x00, ...uleb(PAGES)]])),
-    ...section(3, vec([[0]])),
-    ...section(7, vec([[...name('narrow'), 0x00, 0]])),
-    ...section(10, vec([narrowBody()])),
+    ...section(3, vec([[0], [0], [0]])),
+    ...section(7, vec([[...name('narrow'), 0x00, 0], [...name('nonFinite32'), 0x00, 1], [...name('nonFinite64'), 0x00, 2]])),
+    ...section(10, vec([narrowBody(), nonFiniteBody(4), nonFiniteBody(8)])),
   ]);
 }
 

@@ -2,9 +2,11 @@
  * The readers' WebAssembly SIMD chunk kernel (bytes written by bin/write-chunk-kernel.mjs into
  * chunkKernelWasm.ts): narrows a chunk of 64-bit ids (little-endian words on a little-endian host) to Int32
  * while it sums up the run's sign test and least and greatest low word, four ids per step — the work of
- * `narrowLowFirst` (elementConvert.ts), which measured 40–48 ms per 8M ids against 6–9 ms here (bench/tmpx
- * micro-benchmark, DEVELOPERS.md "Loading at scale"). A reader may read a chunk straight into the kernel's
- * input (`kernelInput`), so the file's bytes are not copied in; other callers' chunks are copied in.
+ * `narrowLowFirst` (elementConvert.ts), which measured 40–48 ms per 8M ids against 7–10 ms here
+ * (DEVELOPERS.md "Loading at scale"); and tests a chunk of floats for a non-finite value (`ChunkScan`'s question,
+ * partReads.ts), which as a JavaScript loop run once per load mostly ran before the engine had optimised it.
+ * A reader may read a chunk straight into the kernel's input (`kernelInput`), so the file's bytes are not copied
+ * in; other callers' chunks are copied in.
  *
  * One memory per thread, made at its full size once and never grown (growing detaches the buffer, after which
  * V8 checks every typed-array access of the thread). `FIELDTALLY_CHUNK_KERNEL=0` in the environment, or
@@ -15,6 +17,8 @@ import { CHUNK_KERNEL_BASE64, CHUNK_LAYOUT } from './chunkKernelWasm.ts';
 
 interface Kernel {
   narrow(n: number): number;
+  nonFinite32(n: number): number;
+  nonFinite64(n: number): number;
   /** The input region (the whole of it) and the low words written by `narrow`. */
   input: Uint8Array;
   output: Int32Array;
@@ -38,10 +42,10 @@ function instantiate(): Kernel | null {
     for (let i = 0; i < s.length; i++) bytes[i] = s.charCodeAt(i);
     if (!WebAssembly.validate(bytes)) return null;
     const memory = new WebAssembly.Memory({ initial: CHUNK_LAYOUT.pages, maximum: CHUNK_LAYOUT.pages });
-    const e = new WebAssembly.Instance(new WebAssembly.Module(bytes), { env: { memory } }).exports as unknown as { narrow(n: number): number };
+    const e = new WebAssembly.Instance(new WebAssembly.Module(bytes), { env: { memory } }).exports as unknown as Pick<Kernel, 'narrow' | 'nonFinite32' | 'nonFinite64'>;
     const b = memory.buffer;
     return {
-      narrow: e.narrow, input: new Uint8Array(b, CHUNK_LAYOUT.inAt, CHUNK_LAYOUT.inBytes),
+      narrow: e.narrow, nonFinite32: e.nonFinite32, nonFinite64: e.nonFinite64, input: new Uint8Array(b, CHUNK_LAYOUT.inAt, CHUNK_LAYOUT.inBytes),
       output: new Int32Array(b, CHUNK_LAYOUT.outAt, KERNEL_IDS), range: new Int32Array(b, CHUNK_LAYOUT.rangeAt, 2),
     };
   } catch {
@@ -92,4 +96,14 @@ export function narrowIdsInKernel(bytes: Uint8Array, count: number, out: Int32Ar
   }
   range[0] = lo; range[1] = hi;
   return sign;
+}
+
+/**
+ * Whether some of the `count` floats of `size` bytes (4 or 8, host order) in `bytes` — the kernel's input region
+ * as `kernelInput` gave it — is not finite (±∞, NaN). Undefined when the kernel is off or `bytes` is not its input.
+ */
+export function nonFiniteInKernel(bytes: Uint8Array, count: number, size: 4 | 8): boolean | undefined {
+  const k = live();
+  if (!k || bytes.buffer !== k.input.buffer || bytes.byteOffset !== k.input.byteOffset || count * size > k.input.length) return undefined;
+  return (size === 4 ? k.nonFinite32(count) : k.nonFinite64(count)) !== 0;
 }

@@ -12,7 +12,7 @@
 import type { ArrayScan } from '../model/arrayScans.ts';
 import type { NumericArray } from '../model/fieldArray.ts';
 import { ELEMENT_SIZE } from './elementTypes.ts';
-import { kernelInput } from './chunkKernel.ts';
+import { kernelInput, nonFiniteInKernel } from './chunkKernel.ts';
 import { HOST_LITTLE, convertChunk, finishDirect, isDirect, lastIdRun, rangeOfRun, type ArrayPlan } from './elementConvert.ts';
 
 /** Fills all of `target` with the file's bytes from byte `offset` (throws when the file ends first). */
@@ -31,8 +31,7 @@ export function readPartSync(plan: ArrayPlan, out: NumericArray, offset: number,
   const scan = new ChunkScan(plan, out);
   for (let i = from; i < to; i += step) {
     const k = Math.min(step, to - i);
-    readChunkSync(plan, out, outBytes, offset, i, k, fill, scratch);
-    scan.add(i, k);
+    scan.add(i, k, readChunkSync(plan, out, outBytes, offset, i, k, fill, scratch));
   }
   return scan.result();
 }
@@ -45,22 +44,33 @@ export function directBytes(plan: ArrayPlan, out: NumericArray): Uint8Array | un
 
 /**
  * Reads file elements `[i, i + k)` (k ≤ the scratch's elements) into `out` at once: a direct plan's bytes straight
- * into the final array (`outBytes`, from `directBytes`), swapped and checked there; 64-bit ids of the host's byte
- * order straight into the chunk kernel's input (chunkKernel.ts) when it is on; others through `scratch`
- * (aligned), converted. Throws the one-thread read's message for the chunk's first bad element.
+ * into the final array (`outBytes`, from `directBytes`), swapped and checked there — except floats of the host's
+ * byte order while the chunk kernel (chunkKernel.ts) is on: read into its input, tested there for a non-finite
+ * value while in cache, then copied; 64-bit ids of the host's byte order straight into the kernel's input; others
+ * through `scratch` (aligned), converted. Throws the one-thread read's message for the chunk's first bad element.
+ * Returns whether the chunk holds a non-finite float when the kernel tested it (for `ChunkScan.add`), else undefined.
  */
 export function readChunkSync(plan: ArrayPlan, out: NumericArray, outBytes: Uint8Array | undefined, offset: number, i: number, k: number,
-  fill: FillSync, scratch: Uint8Array): void {
+  fill: FillSync, scratch: Uint8Array): boolean | undefined {
   const size = ELEMENT_SIZE[plan.type];
   if (outBytes) {
+    const floatSize = (out instanceof Float32Array || out instanceof Float64Array) && (plan.littleEndian === HOST_LITTLE) ? size as 4 | 8 : 0;
+    const input = floatSize ? kernelInput(k * size) : undefined;
+    if (input) {
+      fill(offset + i * size, input);
+      const hit = nonFiniteInKernel(input, k, floatSize as 4 | 8);
+      outBytes.set(input, i * size);
+      return hit;
+    }
     fill(offset + i * size, outBytes.subarray(i * size, (i + k) * size));
     finishDirect(plan, out, i, k);
-    return;
+    return undefined;
   }
   const lowFirst = plan.target === 'ids' && (plan.type === 'Int64' || plan.type === 'UInt64') && plan.littleEndian && HOST_LITTLE;
   const buf = (lowFirst ? kernelInput(k * size) : undefined) ?? scratch.subarray(0, k * size);
   fill(offset + i * size, buf);
   convertChunk(plan, buf, k, out, i);
+  return undefined;
 }
 
 /**
@@ -83,9 +93,10 @@ export class ChunkScan {
     this.lead = plan.lead ?? 0;
   }
 
-  add(i: number, k: number): void {
+  /** `nonFinite`: whether the chunk holds a non-finite float, when known already (tested by the chunk kernel); only a chunk that does is searched. */
+  add(i: number, k: number, nonFinite?: boolean): void {
     const a0 = this.lead + i;
-    if (this.floats && this.firstNonFinite < 0) {
+    if (this.floats && this.firstNonFinite < 0 && nonFinite !== false) {
       this.firstNonFinite = this.out instanceof Float64Array ? nonFiniteIn64(this.out, a0, a0 + k) : nonFiniteIn32(this.out as Float32Array, a0, a0 + k);
     }
     if (this.ids && k > 0) {

@@ -129,8 +129,7 @@ async function readOnThisThread(src: ByteSource, fill: FillSync, offset: number,
     const scratch = outBytes ? new Uint8Array(0) : sc.bytes(Math.min(count, step) * size);
     for (let i = 0; i < count; i += step) {
       const k = Math.min(step, count - i);
-      readChunkSync(plan, out, outBytes, offset, i, k, fill, scratch);
-      scan.add(i, k);
+      scan.add(i, k, readChunkSync(plan, out, outBytes, offset, i, k, fill, scratch));
       if (progress) await progress.cp.at(progress.stage, offset + (i + k) * size);
     }
   } finally {
