@@ -18,18 +18,10 @@
 import { writeFileSync } from 'node:fs';
 import { dirname, join } from 'node:path';
 import { fileURLToPath } from 'node:url';
+import { name, section, sleb, uleb, vec } from './write-moment-kernel.mjs';
 
 /** Byte layout; PAGES of 64 KiB in all. */
 export const IN_AT = 0, IN_BYTES = 1 << 20, OUT_AT = IN_BYTES, RANGE_AT = OUT_AT + (IN_BYTES >> 1), PAGES = (RANGE_AT + 65536) >> 16;
-
-const uleb = (n) => { const b = []; do { let x = n & 0x7f; n >>>= 7; if (n) x |= 0x80; b.push(x); } while (n); return b; };
-const sleb = (n) => {
-  const b = [];
-  for (;;) { const x = n & 0x7f; n >>= 7; if ((n === 0 && !(x & 0x40)) || (n === -1 && x & 0x40)) { b.push(x); return b; } b.push(x | 0x80); }
-};
-const name = (s) => [...uleb(s.length), ...Buffer.from(s, 'utf8')];
-const section = (id, body) => [id, ...uleb(body.length), ...body];
-const vec = (items) => [...uleb(items.length), ...items.flat()];
 
 const I32 = 0x7f, V128 = 0x7b;
 const simd = (op, ...imm) => [0xfd, ...uleb(op), ...imm];

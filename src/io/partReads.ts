@@ -1,8 +1,9 @@
 /**
  * One part of an uncompressed array read on a thread of its own (`LoadOptions.readParts`): the elements
- * `[from, to)` are read chunk by chunk into the thread's scratch and copied or converted into the shared final
- * array exactly as the one-thread read (`readArray` in sourceArrays.ts) does it, with the same chunk boundaries
- * when parts start on multiples of its chunk, so values and messages are the same.
+ * `[from, to)` are read chunk by chunk (`readChunkSync`: straight into the final array, or through the chunk
+ * kernel's input or the thread's scratch) exactly as the one-thread read of a file on disk (`readArray` in
+ * sourceArrays.ts) does it, with the same chunk boundaries when parts start on multiples of its chunk, so values
+ * and messages are the same.
  *
  * Each chunk is scanned while in cache for what the piece checks would read the whole array again for (the
  * first non-finite value of floats, the range of ids), so the reader can note it (src/model/arrayScans.ts).

@@ -1,10 +1,12 @@
 /**
  * Reading one uncompressed binary array from a `ByteSource` straight into its final typed array, so
  * nothing but that array is fresh memory and no other part of the file is read:
- *  - sources that fill the caller's buffer (`readInto`: files on disk) are read chunk by chunk into the
- *    module scratch and copied or converted into the final array. Why not read straight into the final
- *    buffer: memory first written by the kernel is faulted in twice on some virtual machines (once for the
- *    kernel's write, again at the program's first touch), which costs more than the copy;
+ *  - sources with synchronous positional reads (`readIntoSync`: files on disk under Node) are read chunk by
+ *    chunk on this thread, a direct plan's bytes straight into the final array, floats and 64-bit ids through
+ *    the chunk kernel's input (chunkKernel.ts), other conversions through the module scratch (`readChunkSync`,
+ *    the read parts' code); no promise or thread-pool hop per chunk;
+ *  - other sources that fill the caller's buffer (`readInto`) are read chunk by chunk into the module
+ *    scratch (the next chunk read while this one is copied or converted) and copied or converted;
  *  - sources that hand out fresh buffers (`read` only: a Blob) give the final array itself when its file
  *    bytes are the model's bytes (viewed, swapped and checked in place), otherwise chunks to convert;
  *  - in-memory files are viewed (when allowed) or copied.
