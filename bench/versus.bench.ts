@@ -32,6 +32,7 @@ import { cpSync, existsSync, mkdirSync, mkdtempSync, readFileSync, rmSync, statS
 import { loadavg, tmpdir } from 'node:os';
 import { dirname, join, relative, resolve } from 'node:path';
 import { fileURLToPath } from 'node:url';
+import { wantsHugePages } from '../bin/hugePages.mjs';
 import { integratePlane } from '../src/cut/planeIntegrals.ts';
 import { warmUpCutKernels } from '../src/cut/warmUp.ts';
 import { loadDatasetFile } from '../src/io/nodeFiles.ts';
@@ -160,8 +161,12 @@ async function childStages(file: string, workers: number): Promise<Record<string
 }
 
 function runChild(file: string, workers: number): Record<string, unknown> {
+  // Huge pages as the command's launcher decides them (bin/hugePages.mjs: files that may decode to 256 MiB or more),
+  // so the child's memory behaves as the command's would: on the 1M files transparent huge pages made the
+  // load slower (1M hexahedra raw, core child, load average 1–3: 148–213 ms with them, 98–111 ms without).
+  const huge = wantsHugePages([file]) ? { GLIBC_TUNABLES: 'glibc.malloc.hugetlb=1' } : {};
   const r = spawnSync(process.execPath, [join(ROOT, 'bin', 'run-ts.mjs'), fileURLToPath(import.meta.url), '--child', file, String(workers)], {
-    encoding: 'utf8', maxBuffer: 16 << 20, env: { ...process.env, GLIBC_TUNABLES: 'glibc.malloc.hugetlb=1' },
+    encoding: 'utf8', maxBuffer: 16 << 20, env: { ...process.env, ...huge },
   });
   if (r.status !== 0) return { error: `fieldtally child failed: ${(r.stderr || '').trim().split('\n').pop()}` };
   return JSON.parse(r.stdout) as Record<string, unknown>;
