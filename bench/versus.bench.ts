@@ -6,8 +6,9 @@
  * - fieldtally's stages (this file with `--child`): load, first cut with integrals, later cut, first
  *   1000-sample line, later line, boundary extraction, pressure force total over the whole boundary — once on
  *   the single-thread core in one process (`core`) and once with a pool of 2 compute workers (`pool2`:
- *   workers started while the file loads, zlib blocks inflated by 2 threads, arrays decoded straight into shared
- *   memory (`sharedArrays`), as the CLI's `--workers 2`; the workers are started and warmed before the load's
+ *   workers started while the file loads, zlib blocks inflated by 2 threads, uncompressed arrays read in parts by 2
+ *   read threads (`readParts`; `FIELDTALLY_BENCH_READ_THREADS=0`: on the loading thread), arrays decoded straight
+ *   into shared memory (`sharedArrays`), as the CLI's `--workers 2`; the workers are started and warmed before the load's
  *   clock and that time is reported apart as `warmUp`, like the core's kernel warm-up);
  *   and 1 worker (`pool1`), for the speed-up from 1 to 2 workers and the memory per worker; the pool children
  *   report how each cut was split between the workers (`cutSplit`: candidate cells, triangles and cut ms per worker);
@@ -32,6 +33,7 @@ import { cpSync, existsSync, mkdirSync, mkdtempSync, readFileSync, rmSync, statS
 import { loadavg, tmpdir } from 'node:os';
 import { dirname, join, relative, resolve } from 'node:path';
 import { fileURLToPath } from 'node:url';
+import { wantsHugePages } from '../bin/hugePages.mjs';
 import { integratePlane } from '../src/cut/planeIntegrals.ts';
 import { warmUpCutKernels } from '../src/cut/warmUp.ts';
 import { loadDatasetFile } from '../src/io/nodeFiles.ts';
@@ -41,6 +43,7 @@ import type { Dataset } from '../src/model/dataset.ts';
 import { openNodePool, startNodeWorkers, workersWarm } from '../src/parallel/nodePool.ts';
 import { toSharedDataset } from '../src/parallel/sharedDataset.ts';
 import { startInflatePool } from '../src/parallel/inflatePool.ts';
+import { startReadPool } from '../src/parallel/readPool.ts';
 import type { ComputePool } from '../src/parallel/pool.ts';
 import { forceTotals } from '../src/surface/forces.ts';
 import { getBoundaryFaces } from '../src/surface/surfaceCache.ts';
@@ -109,15 +112,22 @@ async function childStages(file: string, workers: number): Promise<Record<string
     let c0 = process.cpuUsage(), t0 = performance.now();
     const ports = startNodeWorkers(workers);
     const inflaters = startInflatePool(workers);
+    // Uncompressed arrays are read in parts by as many read threads (FIELDTALLY_BENCH_READ_THREADS=1; default: on this thread, see DEVELOPERS.md).
+    const readers = process.env.FIELDTALLY_BENCH_READ_THREADS === '1' ? startReadPool(workers) : undefined;
     // As for the one-thread core above (and the app, whose compute worker starts with the page): the workers load
     // their code and warm their kernels, and this thread warms the kernels it runs for a pool, before the load's
     // clock; reported apart (warmUp). FIELDTALLY_BENCH_COLD_POOL=1 keeps all of it in the load's clock instead.
     if (process.env.FIELDTALLY_BENCH_COLD_POOL !== '1') {
-      [, out.warmUp] = await timed(() => Promise.all([workersWarm(ports), inflaters.ready(), warmUpCutKernels(), warmUpSurfaceKernels(toSharedDataset)]));
+      [, out.warmUp] = await timed(() => Promise.all([workersWarm(ports), inflaters.ready(), readers?.ready(), warmUpCutKernels(), warmUpSurfaceKernels(toSharedDataset)]));
       c0 = process.cpuUsage(); t0 = performance.now();
     }
     let loaded: Dataset;
-    try { loaded = await loadDatasetFile(file, { inflate: inflaters.inflate, sharedArrays: true }); } finally { await inflaters.close(); }
+    try {
+      loaded = await loadDatasetFile(file, { inflate: inflaters.inflate, sharedArrays: true, ...(readers ? { readParts: readers.readParts } : {}) });
+    } finally {
+      await Promise.all([inflaters.close(), readers?.close()]);
+    }
+    if (readers) out.partsRead = { ...readers.done };
     const loadDone = performance.now();
     pool = await openNodePool(loaded, workers, ports);
     const c = process.cpuUsage(c0);
@@ -154,8 +164,12 @@ async function childStages(file: string, workers: number): Promise<Record<string
 }
 
 function runChild(file: string, workers: number): Record<string, unknown> {
+  // Huge pages as the command's launcher decides them (bin/hugePages.mjs: files that may decode to 256 MiB or more),
+  // so the child's memory behaves as the command's would: on the 1M files transparent huge pages made the
+  // load slower (1M hexahedra raw, core child, load average 1–3: 148–213 ms with them, 98–111 ms without).
+  const huge = wantsHugePages([file]) ? { GLIBC_TUNABLES: 'glibc.malloc.hugetlb=1' } : {};
   const r = spawnSync(process.execPath, [join(ROOT, 'bin', 'run-ts.mjs'), fileURLToPath(import.meta.url), '--child', file, String(workers)], {
-    encoding: 'utf8', maxBuffer: 16 << 20, env: { ...process.env, GLIBC_TUNABLES: 'glibc.malloc.hugetlb=1' },
+    encoding: 'utf8', maxBuffer: 16 << 20, env: { ...process.env, ...huge },
   });
   if (r.status !== 0) return { error: `fieldtally child failed: ${(r.stderr || '').trim().split('\n').pop()}` };
   return JSON.parse(r.stdout) as Record<string, unknown>;

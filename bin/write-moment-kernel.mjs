@@ -57,14 +57,15 @@ export const RING = { none: -1, skewed: -2, ask: -3, room: -4 };
  */
 const BAND = 1e-9;
 
-const uleb = (n) => { const b = []; do { let x = n & 0x7f; n >>>= 7; if (n) x |= 0x80; b.push(x); } while (n); return b; };
-const sleb = (n) => {
+/** WebAssembly binary encoding helpers (LEB128 numbers, names, sections, vectors); bin/write-chunk-kernel.mjs uses them too. */
+export const uleb = (n) => { const b = []; do { let x = n & 0x7f; n >>>= 7; if (n) x |= 0x80; b.push(x); } while (n); return b; };
+export const sleb = (n) => {
   const b = [];
   for (;;) { const x = n & 0x7f; n >>= 7; if ((n === 0 && !(x & 0x40)) || (n === -1 && x & 0x40)) { b.push(x); return b; } b.push(x | 0x80); }
 };
-const name = (s) => [...uleb(s.length), ...Buffer.from(s, 'utf8')];
-const section = (id, body) => [id, ...uleb(body.length), ...body];
-const vec = (items) => [...uleb(items.length), ...items.flat()];
+export const name = (s) => [...uleb(s.length), ...Buffer.from(s, 'utf8')];
+export const section = (id, body) => [id, ...uleb(body.length), ...body];
+export const vec = (items) => [...uleb(items.length), ...items.flat()];
 
 const I32 = 0x7f, V128 = 0x7b;
 const simd = (op) => [0xfd, ...uleb(op)];

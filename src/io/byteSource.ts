@@ -22,6 +22,11 @@ export interface ByteSource {
   /** Fills all of `target` with bytes `[offset, offset + target.length)`; rejects if the file ends first. */
   readInto?(offset: number, target: Uint8Array): Promise<void>;
   /**
+   * `readInto` done at once on this thread (Node file sources only: positional reads of the descriptor); throws
+   * if the file ends first. Readers use it for uncompressed arrays, straight into the final array.
+   */
+  readIntoSync?(offset: number, target: Uint8Array): void;
+  /**
    * Preferred size in bytes of one read when an array is read in chunks (conversions, zlib batches); default
    * `SCRATCH_BYTES` (1 MiB). Blob reads carry a fixed cost each, so blob sources ask for larger chunks.
    */

@@ -72,10 +72,29 @@ function countTypes(rawTypes: ArrayLike<number>, where: string): { fileCellTypes
   return { fileCellTypes, higher };
 }
 
-/** `countTypes` for byte types: a histogram first (no object lookup per cell), the per-cell walk only to name a bad cell. */
+/**
+ * `countTypes` for byte types: a histogram first (no object lookup per cell), the per-cell walk only to name a
+ * bad cell. The histogram counts runs of one type (a mesh of one type is one run), not cells one by one, whose
+ * increments of one slot wait on each other (1M hexahedra: 6–16 ms against 1.4–1.8 ms).
+ */
 function countBytes(rawTypes: Uint8Array, where: string): { fileCellTypes: Record<number, number>; higher: number } {
-  const hist = new Float64Array(256);
-  for (let c = 0; c < rawTypes.length; c++) hist[rawTypes[c]!]!++;
+  const hist = new Float64Array(256), n = rawTypes.length;
+  let c = 0;
+  if (n > 0 && rawTypes.byteOffset % 4 === 0) {
+    // The first run four bytes at a time (a mesh of one type: the whole array in a quarter of the steps).
+    const t = rawTypes[0]!, word = t * 0x01010101 | 0, w = new Int32Array(rawTypes.buffer, rawTypes.byteOffset, n >> 2);
+    let j = 0;
+    while (j < w.length && w[j] === word) j++;
+    c = 4 * j;
+    hist[t] = c;
+  }
+  while (c < n) {
+    const t = rawTypes[c]!;
+    let e = c + 1;
+    while (e < n && rawTypes[e] === t) e++;
+    hist[t]! += e - c;
+    c = e;
+  }
   const fileCellTypes: Record<number, number> = {};
   let higher = 0;
   for (let t = 0; t < 256; t++) {

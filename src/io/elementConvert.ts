@@ -16,6 +16,7 @@
  */
 import type { NumericArray } from '../model/fieldArray.ts';
 import { ELEMENT_SIZE, allocateFor, type ElementType } from './elementTypes.ts';
+import { narrowIdsInKernel } from './chunkKernel.ts';
 import { claimMemory } from './memoryBudget.ts';
 
 /** What one array's file elements are and what the model makes of them. */
@@ -318,7 +319,8 @@ function narrowIds(bytes: Uint8Array, le: boolean, count: number, out: Int32Arra
   // Words of the other byte order are swapped into the host's in place: each value is then high word first.
   const swap = le !== HOST_LITTLE;
   if (swap) swapInPlace(bytes, 2 * count, 4);
-  const sign = HOST_LITTLE === !swap ? narrowLowFirst(w, count, out, o) : narrowHighFirst(w, count, out, o);
+  // Low word first (little-endian files on a little-endian host, the usual case): the SIMD kernel when it is on.
+  const sign = HOST_LITTLE === !swap ? narrowIdsInKernel(bytes, count, out, o, runRange) ?? narrowLowFirst(w, count, out, o) : narrowHighFirst(w, count, out, o);
   if (sign === 0 && runRange[0]! >= (unsigned ? Math.max(min, 0) : min) && runRange[1]! <= max) return true;
   if (swap) swapInPlace(bytes, 2 * count, 4);
   return false;

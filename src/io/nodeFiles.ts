@@ -14,6 +14,7 @@ import { pastEnd, type ByteSource } from './byteSource.ts';
 import type { InflateBlock, LoadOptions } from './loadOptions.ts';
 import { cutPath, fileErrorText } from './messageText.ts';
 import { readDatasetFrom } from './readDataset.ts';
+import { readFullySync } from './syncReads.ts';
 import { engineInflate, engineWorks } from './zlibEngine.mjs';
 import { fflateInflate } from './xmlBlocks.ts';
 
@@ -111,6 +112,9 @@ export async function openFileSource(path: string, name: string = basename(path)
     },
     async readInto(offset, target) {
       if (await fill(offset, target) !== target.length) throw pastEnd(name, offset, target.length, size);
+    },
+    readIntoSync(offset, target) {
+      readFullySync(h.fd, offset, target, name, size);
     },
     async close() {
       if (!closed) { closed = true; await h.close(); }

@@ -1,8 +1,9 @@
 /**
  * One part of an uncompressed array read on a thread of its own (`LoadOptions.readParts`): the elements
- * `[from, to)` are read chunk by chunk into the thread's scratch and copied or converted into the shared final
- * array exactly as the one-thread read (`readArray` in sourceArrays.ts) does it, with the same chunk boundaries
- * when parts start on multiples of its chunk, so values and messages are the same.
+ * `[from, to)` are read chunk by chunk (`readChunkSync`: straight into the final array, or through the chunk
+ * kernel's input or the thread's scratch) exactly as the one-thread read of a file on disk (`readArray` in
+ * sourceArrays.ts) does it, with the same chunk boundaries when parts start on multiples of its chunk, so values
+ * and messages are the same.
  *
  * Each chunk is scanned while in cache for what the piece checks would read the whole array again for (the
  * first non-finite value of floats, the range of ids), so the reader can note it (src/model/arrayScans.ts).
@@ -12,7 +13,8 @@
 import type { ArrayScan } from '../model/arrayScans.ts';
 import type { NumericArray } from '../model/fieldArray.ts';
 import { ELEMENT_SIZE } from './elementTypes.ts';
-import { convertChunk, finishDirect, isDirect, lastIdRun, rangeOfRun, type ArrayPlan } from './elementConvert.ts';
+import { kernelInput, nonFiniteInKernel } from './chunkKernel.ts';
+import { HOST_LITTLE, convertChunk, finishDirect, isDirect, lastIdRun, rangeOfRun, type ArrayPlan } from './elementConvert.ts';
 
 /** Fills all of `target` with the file's bytes from byte `offset` (throws when the file ends first). */
 export type FillSync = (offset: number, target: Uint8Array) => void;
@@ -26,21 +28,50 @@ export type FillSync = (offset: number, target: Uint8Array) => void;
  */
 export function readPartSync(plan: ArrayPlan, out: NumericArray, offset: number, from: number, to: number, step: number,
   fill: FillSync, scratch: Uint8Array): ArrayScan {
-  const size = ELEMENT_SIZE[plan.type], lead = plan.lead ?? 0;
-  const outBytes = isDirect(plan) ? new Uint8Array(out.buffer, out.byteOffset + lead * size, (out.length - lead) * size) : undefined;
+  const outBytes = directBytes(plan, out);
   const scan = new ChunkScan(plan, out);
   for (let i = from; i < to; i += step) {
-    const k = Math.min(step, to - i), buf = scratch.subarray(0, k * size);
-    fill(offset + i * size, buf);
-    if (outBytes) {
-      outBytes.set(buf, i * size);
-      finishDirect(plan, out, i, k);
-    } else {
-      convertChunk(plan, buf, k, out, i);
-    }
-    scan.add(i, k);
+    const k = Math.min(step, to - i);
+    scan.add(i, k, readChunkSync(plan, out, outBytes, offset, i, k, fill, scratch));
   }
   return scan.result();
+}
+
+/** The bytes of a direct plan's final array after its lead (where the file's bytes go as they are), or undefined for converted plans. */
+export function directBytes(plan: ArrayPlan, out: NumericArray): Uint8Array | undefined {
+  const size = ELEMENT_SIZE[plan.type], lead = plan.lead ?? 0;
+  return isDirect(plan) ? new Uint8Array(out.buffer, out.byteOffset + lead * size, (out.length - lead) * size) : undefined;
+}
+
+/**
+ * Reads file elements `[i, i + k)` (k ≤ the scratch's elements) into `out` at once: a direct plan's bytes straight
+ * into the final array (`outBytes`, from `directBytes`), swapped and checked there — except floats of the host's
+ * byte order while the chunk kernel (chunkKernel.ts) is on: read into its input, tested there for a non-finite
+ * value while in cache, then copied; 64-bit ids of the host's byte order straight into the kernel's input; others
+ * through `scratch` (aligned), converted. Throws the one-thread read's message for the chunk's first bad element.
+ * Returns whether the chunk holds a non-finite float when the kernel tested it (for `ChunkScan.add`), else undefined.
+ */
+export function readChunkSync(plan: ArrayPlan, out: NumericArray, outBytes: Uint8Array | undefined, offset: number, i: number, k: number,
+  fill: FillSync, scratch: Uint8Array): boolean | undefined {
+  const size = ELEMENT_SIZE[plan.type];
+  if (outBytes) {
+    const floatSize = (out instanceof Float32Array || out instanceof Float64Array) && (plan.littleEndian === HOST_LITTLE) ? size as 4 | 8 : 0;
+    const input = floatSize ? kernelInput(k * size) : undefined;
+    if (input) {
+      fill(offset + i * size, input);
+      const hit = nonFiniteInKernel(input, k, floatSize as 4 | 8);
+      outBytes.set(input, i * size);
+      return hit;
+    }
+    fill(offset + i * size, outBytes.subarray(i * size, (i + k) * size));
+    finishDirect(plan, out, i, k);
+    return undefined;
+  }
+  const lowFirst = plan.target === 'ids' && (plan.type === 'Int64' || plan.type === 'UInt64') && plan.littleEndian && HOST_LITTLE;
+  const buf = (lowFirst ? kernelInput(k * size) : undefined) ?? scratch.subarray(0, k * size);
+  fill(offset + i * size, buf);
+  convertChunk(plan, buf, k, out, i);
+  return undefined;
 }
 
 /**
@@ -63,9 +94,10 @@ export class ChunkScan {
     this.lead = plan.lead ?? 0;
   }
 
-  add(i: number, k: number): void {
+  /** `nonFinite`: whether the chunk holds a non-finite float, when known already (tested by the chunk kernel); only a chunk that does is searched. */
+  add(i: number, k: number, nonFinite?: boolean): void {
     const a0 = this.lead + i;
-    if (this.floats && this.firstNonFinite < 0) {
+    if (this.floats && this.firstNonFinite < 0 && nonFinite !== false) {
       this.firstNonFinite = this.out instanceof Float64Array ? nonFiniteIn64(this.out, a0, a0 + k) : nonFiniteIn32(this.out as Float32Array, a0, a0 + k);
     }
     if (this.ids && k > 0) {
@@ -94,19 +126,28 @@ export class ChunkScan {
  * searched for it. A loop per array type, so each sees one kind of element.
  */
 function nonFiniteIn64(a: Float64Array, a0: number, a1: number): number {
-  let s = 0;
-  for (let j = a0; j < a1; j++) { const x = a[j]!; s += x - x; }
-  if (s === 0) return -1;
-  for (let j = a0; j < a1; j++) { const x = a[j]!; if (x - x !== 0) return j; }
+  // Four sums, so the additions do not wait on one another.
+  let s0 = 0, s1 = 0, s2 = 0, s3 = 0, j = a0;
+  for (; j + 3 < a1; j += 4) {
+    const x0 = a[j]!, x1 = a[j + 1]!, x2 = a[j + 2]!, x3 = a[j + 3]!;
+    s0 += x0 - x0; s1 += x1 - x1; s2 += x2 - x2; s3 += x3 - x3;
+  }
+  for (; j < a1; j++) { const x = a[j]!; s0 += x - x; }
+  if (s0 + s1 + s2 + s3 === 0) return -1;
+  for (let i = a0; i < a1; i++) { const x = a[i]!; if (x - x !== 0) return i; }
   return -1;
 }
 
 /** `nonFiniteIn64` over single-precision values. */
 function nonFiniteIn32(a: Float32Array, a0: number, a1: number): number {
-  let s = 0;
-  for (let j = a0; j < a1; j++) { const x = a[j]!; s += x - x; }
-  if (s === 0) return -1;
-  for (let j = a0; j < a1; j++) { const x = a[j]!; if (x - x !== 0) return j; }
+  let s0 = 0, s1 = 0, s2 = 0, s3 = 0, j = a0;
+  for (; j + 3 < a1; j += 4) {
+    const x0 = a[j]!, x1 = a[j + 1]!, x2 = a[j + 2]!, x3 = a[j + 3]!;
+    s0 += x0 - x0; s1 += x1 - x1; s2 += x2 - x2; s3 += x3 - x3;
+  }
+  for (; j < a1; j++) { const x = a[j]!; s0 += x - x; }
+  if (s0 + s1 + s2 + s3 === 0) return -1;
+  for (let i = a0; i < a1; i++) { const x = a[i]!; if (x - x !== 0) return i; }
   return -1;
 }
 

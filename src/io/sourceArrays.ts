@@ -1,10 +1,12 @@
 /**
  * Reading one uncompressed binary array from a `ByteSource` straight into its final typed array, so
  * nothing but that array is fresh memory and no other part of the file is read:
- *  - sources that fill the caller's buffer (`readInto`: files on disk) are read chunk by chunk into the
- *    module scratch and copied or converted into the final array. Why not read straight into the final
- *    buffer: memory first written by the kernel is faulted in twice on some virtual machines (once for the
- *    kernel's write, again at the program's first touch), which costs more than the copy;
+ *  - sources with synchronous positional reads (`readIntoSync`: files on disk under Node) are read chunk by
+ *    chunk on this thread, a direct plan's bytes straight into the final array, floats and 64-bit ids through
+ *    the chunk kernel's input (chunkKernel.ts), other conversions through the module scratch (`readChunkSync`,
+ *    the read parts' code); no promise or thread-pool hop per chunk;
+ *  - other sources that fill the caller's buffer (`readInto`) are read chunk by chunk into the module
+ *    scratch (the next chunk read while this one is copied or converted) and copied or converted;
  *  - sources that hand out fresh buffers (`read` only: a Blob) give the final array itself when its file
  *    bytes are the model's bytes (viewed, swapped and checked in place), otherwise chunks to convert;
  *  - in-memory files are viewed (when allowed) or copied.
@@ -13,7 +15,7 @@ import { noteScan } from '../model/arrayScans.ts';
 import type { NumericArray } from '../model/fieldArray.ts';
 import { inMemoryBytes, readExactly, readInto, type ByteSource } from './byteSource.ts';
 import { ELEMENT_SIZE } from './elementTypes.ts';
-import { ChunkScan } from './partReads.ts';
+import { ChunkScan, directBytes, readChunkSync, type FillSync } from './partReads.ts';
 import { HOST_LITTLE, Scratch, allocateTarget, chunkElements, convertChunk, finishDirect, isDirect, type ArrayPlan } from './elementConvert.ts';
 import { PARTS_MIN_BYTES, type Checkpoint, type ReadParts } from './loadOptions.ts';
 
@@ -64,6 +66,7 @@ export async function readArray(src: ByteSource, offset: number, count: number, 
   if (parts && !mem && src.descriptor !== undefined && plan.target !== 'cellTypes' && count * size >= (parts.minBytes ?? PARTS_MIN_BYTES)) {
     return readInParts(src, src.descriptor, offset, count, plan, parts, opts.progress);
   }
+  if (!mem && src.readIntoSync) return readOnThisThread(src, src.readIntoSync.bind(src), offset, count, plan, opts.progress);
   const out = allocateTarget(plan, count);
   const outBytes = direct ? new Uint8Array(out.buffer, out.byteOffset + (plan.lead ?? 0) * size, count * size) : undefined;
   const step = chunkElements(size, src.chunkBytes);
@@ -107,6 +110,32 @@ export async function readArray(src: ByteSource, offset: number, count: number, 
   } finally {
     sc[0].release();
     sc[1].release();
+  }
+  noteScan(out, scan.result());
+  return out;
+}
+
+/**
+ * `readArray` from a source with synchronous reads (a file on disk): chunk by chunk, a direct plan's bytes read
+ * straight into the final array and finished there, others through the scratch (64-bit ids through the chunk
+ * kernel's input) — the read parts' code (`readChunkSync`), with a checkpoint between chunks.
+ */
+async function readOnThisThread(src: ByteSource, fill: FillSync, offset: number, count: number, plan: ArrayPlan, progress: ReadProgress | undefined): Promise<NumericArray> {
+  const size = ELEMENT_SIZE[plan.type];
+  const out = allocateTarget(plan, count);
+  const outBytes = directBytes(plan, out);
+  const step = chunkElements(size, src.chunkBytes);
+  const scan = new ChunkScan(plan, out);
+  const sc = new Scratch(0);
+  try {
+    const scratch = outBytes ? new Uint8Array(0) : sc.bytes(Math.min(count, step) * size);
+    for (let i = 0; i < count; i += step) {
+      const k = Math.min(step, count - i);
+      scan.add(i, k, readChunkSync(plan, out, outBytes, offset, i, k, fill, scratch));
+      if (progress) await progress.cp.at(progress.stage, offset + (i + k) * size);
+    }
+  } finally {
+    sc.release();
   }
   noteScan(out, scan.result());
   return out;

@@ -4,11 +4,10 @@
  * `readPartSync` (src/io/partReads.ts). Run by the read workers (workers/readWorkerBody.ts) and by the loading
  * thread while they start (readPool.ts), so both read a part the same way.
  */
-import { readSync } from 'node:fs';
-import { pastEnd } from '../io/byteSource.ts';
 import type { ArrayPlan } from '../io/elementConvert.ts';
 import { ELEMENT_SIZE } from '../io/elementTypes.ts';
 import { readPartSync } from '../io/partReads.ts';
+import { readFullySync } from '../io/syncReads.ts';
 import type { ArrayScan } from '../model/arrayScans.ts';
 import type { NumericArray } from '../model/fieldArray.ts';
 
@@ -33,12 +32,6 @@ let scratch = new Uint8Array(0);
 export function readPartFromFile(a: ArrayInFile, out: NumericArray, from: number, to: number): ArrayScan {
   const bytes = a.step * ELEMENT_SIZE[a.plan.type];
   if (scratch.length < bytes) scratch = new Uint8Array(bytes);
-  const fill = (at: number, target: Uint8Array): void => {
-    for (let done = 0; done < target.length;) {
-      const got = readSync(a.descriptor, target, done, target.length - done, at + done);
-      if (got === 0) throw pastEnd(a.name, at, target.length, a.size);
-      done += got;
-    }
-  };
+  const fill = (at: number, target: Uint8Array): void => readFullySync(a.descriptor, at, target, a.name, a.size);
   return readPartSync(a.plan, out, a.offset, from, to, a.step, fill, scratch);
 }

@@ -36,6 +36,11 @@ export interface ReadPool {
   readonly workers: number;
   /** Arrays and parts read so far; `partsHere`: of those parts, the ones the calling thread read. */
   readonly done: { arrays: number; parts: number; partsHere: number };
+  /**
+   * Resolves when every worker has started (posted `{ ready: true }`), so a caller that can wait (a benchmark
+   * timing its load apart from start-up) has every part read on a worker; rejects when a worker fails to start.
+   */
+  ready(): Promise<void>;
   close(): Promise<void>;
 }
 
@@ -64,9 +69,15 @@ export function startReadPool(n: number, minBytes?: number, holdWorkers = false)
   /** The arrays being read (one at a time, as readers read them, or more), each told of every worker as it starts. */
   const onStart = new Set<(w: Worker) => void>();
   let next = 1;
+  let allStarted!: () => void, notStarted!: (e: Error) => void;
+  const readyAll = new Promise<void>((res, rej) => { allStarted = res; notStarted = rej; });
+  // Nobody may ask: a failed start must not be an unhandled rejection.
+  readyAll.catch(() => undefined);
+  let startedCount = 0;
   for (const w of workers) {
     w.on('message', (m: PartReply | { ready: true }) => {
       if ('ready' in m) {
+        if (++startedCount === workers.length) allStarted();
         if (holdWorkers) return;
         started.push(w);
         for (const serve of onStart) serve(w);
@@ -76,7 +87,11 @@ export function startReadPool(n: number, minBytes?: number, holdWorkers = false)
       waiting.delete(m.id);
       p?.resolve(m);
     });
-    w.on('error', (e) => { for (const p of waiting.values()) p.reject(new Error(`read worker failed (${e.message})`)); waiting.clear(); });
+    w.on('error', (e) => {
+      notStarted(new Error(`read worker failed (${e.message})`));
+      for (const p of waiting.values()) p.reject(new Error(`read worker failed (${e.message})`));
+      waiting.clear();
+    });
   }
   const done = { arrays: 0, parts: 0, partsHere: 0 };
   const read = async (job: PartsJob): Promise<ArrayScan> => {
@@ -140,5 +155,5 @@ export function startReadPool(n: number, minBytes?: number, holdWorkers = false)
     return joinScans(replies.map((m) => m.scan));
   };
   const readParts: ReadParts = Object.assign(read, { workers: n, ...(minBytes !== undefined ? { minBytes } : {}) });
-  return { readParts, workers: n, done, close: async () => { await Promise.all(workers.map((w) => w.terminate())); } };
+  return { readParts, workers: n, done, ready: () => readyAll, close: async () => { await Promise.all(workers.map((w) => w.terminate())); } };
 }

@@ -176,3 +176,16 @@ describe('two loads at once on one read pool', () => {
     }
   });
 });
+
+describe('ready', () => {
+  it('resolves once every worker has started: every part is then read on a worker, with the one-thread bytes', async () => {
+    const file = write(buildXml('UnstructuredGrid', [latticeSpec('Int64', 'Float64')], { encoding: 'appended-raw' }));
+    const pool = startReadPool(2, 0);
+    pools.push(pool);
+    await pool.ready();
+    const d = await load(file, { readParts: pool.readParts });
+    expectSameArrays(d, await load(file, {}));
+    expect(pool.done.parts).toBeGreaterThan(0);
+    expect(pool.done.partsHere).toBe(0);
+  });
+});
