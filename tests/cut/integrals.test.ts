@@ -172,3 +172,32 @@ describe('many triangles (the integrator works through them in short runs)', () 
     expect(integrateSurface(cut, { density: 3 }).massFlowRate).toBe(r.massFlowRate);
   });
 });
+
+describe('magnitudes of 3-vectors (taken from vertex values in the triangle pass)', () => {
+  // u = (0.3 + y, −0.2x, 1 + x − z) on oblique cuts of a tetrahedral box; the same components as a 4-component
+  // field with a zero fourth component take the general path through the rule's point values: |(u, 0)| = |u| bit for bit.
+  const base = tetGrid(4, 3, 5);
+  const u = (x: number, y: number, z: number): [number, number, number] => [0.3 + y, -0.2 * x, 1 + x - z];
+  const p = withFields(base, [
+    pointFieldFrom(base, 'velocity', 3, (x, y, z, o) => { o.set(u(x, y, z)); }),
+    pointFieldFrom(base, 'padded', 4, (x, y, z, o) => { o.set([...u(x, y, z), 0]); }),
+    pointFieldFrom(base, 'p', 1, (x, y, _z, o) => { o[0] = 5 + x * y; }),
+  ]);
+  const d = datasetOf([p]);
+  for (const density of [undefined, 1.3]) {
+    it(`equal the general path's bit for bit (density ${density ?? 'none'}, p₀ ${density ? 'on' : 'off'})`, () => {
+      for (const [origin, normal] of [[[0.4, 0.5, 0.5], [1, 0.3, 0.2]], [[0.5, 0.5, 0.61], [-0.2, 0.1, 1]]] as const) {
+        const r = integratePlane(d, { origin, normal, integral: density ? { density } : {} }).integrals;
+        expect(r.magnitudeAreaMean.velocity).toBe(r.magnitudeAreaMean.padded);
+        expect(r.magnitudeMassFlowMean.velocity).toBe(r.magnitudeMassFlowMean.padded);
+        expect(r.magnitudeAreaMean.velocity).toBeGreaterThan(0.5);
+      }
+    });
+  }
+
+  it('a linear field of fixed direction has a linear magnitude, integrated exactly: |(3, 4, 0)(1 + x)| mean 7.5 on the unit square (closed form)', () => {
+    const q = withFields(hexGrid(3, 3, 2), [pointFieldFrom(hexGrid(3, 3, 2), 'velocity', 3, (x, _y, _z, o) => { o.set([3 * (1 + x), 4 * (1 + x), 0]); })]);
+    const r = integratePlane(datasetOf([q]), { origin: [0, 0, 0.5], normal: [0, 0, 1] }).integrals;
+    expect(r.magnitudeAreaMean.velocity).toBeCloseTo(7.5, 13);
+  });
+});
