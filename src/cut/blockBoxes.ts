@@ -28,50 +28,38 @@ const FINE_PER_BLOCK = CELL_BLOCK / FINE_BLOCK;
 
 const cache = new WeakMap<Int32Array, { types: Uint8Array; conn: Int32Array; points: Float64Array; boxes: Float64Array; fine: Float64Array }>();
 
-/** Whether the boxes of `p` are already computed, or can be joined from point-run boxes a first scan kept. */
-export function hasBlockBoxes(p: Piece): boolean {
-  const hit = cache.get(p.offsets) ?? pending.get(p.offsets);
-  return !!hit && hit.types === p.cellTypes && hit.conn === p.connectivity && hit.points === p.points;
-}
-
 /**
- * Keeps the boxes of the piece's runs of 2^`shift` consecutive points (`runs`, 6 numbers a run, each holding
- * at least the run's points the cells use), left by a first scan (see `crossingCells.ts`): the block boxes are
- * then joined from them when a later scan first asks, one pass over the connectivity instead of reading every
- * node's coordinates. The joined box of a block holds every node of its cells (it may be larger than the
- * nodes' own box, never smaller).
+ * Full scans of a piece (every cell read, its first scan included) before its block boxes are computed: rent or
+ * buy, as `AUTO_SCANS` in crossingCells.ts. The boxes cost about four full scans of the 1M-hexahedron pipe
+ * sample (79–92 ms of CPU against 21 ms a full scan, cold, load average ~2) and pay back on every later scan
+ * (that file's cross-section 21 → 0.8 ms, its lengthwise plane 21 → 13 ms); so four scans are rented, and a
+ * session that cuts up to four times never pays for them.
  */
-export function keepPointRunBoxes(p: Piece, runs: Float64Array, shift: number): void {
-  pending.set(p.offsets, { types: p.cellTypes, conn: p.connectivity, points: p.points, runs, shift, rents: 0 });
-}
+export const FULL_SCANS = 4;
+
+const scansOf = new WeakMap<Int32Array, { types: Uint8Array; conn: Int32Array; points: Float64Array; n: number }>();
 
 /**
- * Full scans a piece's later scans make before its block boxes are joined from the kept point-run boxes
- * (rent or buy, as `AUTO_SCANS` in crossingCells.ts): the join costs about one full scan (1M hexahedra: 16
- * against 19 ms of CPU, 1M tetrahedra with boundary triangles: about twice), so one scan is rented first and
- * the boxes are bought on the next; a session that cuts twice never pays for them.
- */
-export const RENTED_SCANS = 1;
-
-const pending = new WeakMap<Int32Array, { types: Uint8Array; conn: Int32Array; points: Float64Array; runs: Float64Array; shift: number; rents: number }>();
-
-/**
- * Whether a later scan of `p` should read every cell instead of joining the block boxes now (see
- * `RENTED_SCANS`); counts the scan when it should.
+ * Whether a scan of `p` should read every cell instead of computing the block boxes now (see `FULL_SCANS`);
+ * counts the scan when it should.
  */
 export function rentFullScan(p: Piece): boolean {
-  if (hasBlockBoxesComputed(p)) return false;
-  const left = pending.get(p.offsets);
-  if (!left || left.types !== p.cellTypes || left.conn !== p.connectivity || left.points !== p.points || left.rents >= RENTED_SCANS) return false;
-  left.rents++;
+  if (hasBlockBoxes(p)) return false;
+  let e = scansOf.get(p.offsets);
+  if (!e || e.types !== p.cellTypes || e.conn !== p.connectivity || e.points !== p.points) {
+    e = { types: p.cellTypes, conn: p.connectivity, points: p.points, n: 0 };
+    scansOf.set(p.offsets, e);
+  }
+  if (e.n >= FULL_SCANS) return false;
+  e.n++;
   return true;
 }
 
-function hasBlockBoxesComputed(p: Piece): boolean {
+/** Whether the boxes of `p` are already computed. */
+export function hasBlockBoxes(p: Piece): boolean {
   const hit = cache.get(p.offsets);
   return !!hit && hit.types === p.cellTypes && hit.conn === p.connectivity && hit.points === p.points;
 }
-let stamp = new Int32Array(0);
 
 /** The block boxes of piece `p` (see the file comment), computed on the first call for these arrays. */
 export function blockBoxes(p: Piece): Float64Array {
@@ -89,23 +77,10 @@ function boxesOf(p: Piece): { boxes: Float64Array; fine: Float64Array } {
   const nc = p.cellTypes.length, nf = Math.ceil(nc / FINE_BLOCK);
   const fine = new Float64Array(6 * nf);
   const lay = cellLayout(p);
-  const left = pending.get(p.offsets);
-  if (!p.polyFaces && left && left.types === p.cellTypes && left.conn === p.connectivity && left.points === p.points) {
-    pending.delete(p.offsets);
-    const nRuns = left.runs.length / 6;
-    if (stamp.length < nRuns) stamp = new Int32Array(Math.max(nRuns, 2 * stamp.length));
-    stamp.fill(0, 0, nRuns);
-    for (let b = 0; b < nf; b++) {
-      const c0 = b * FINE_BLOCK, c1 = Math.min(nc, c0 + FINE_BLOCK);
-      // without polyhedra a block's nodes are one stretch of the connectivity
-      joinRuns(p.connectivity, p.offsets[c0]!, p.offsets[c1]!, left.shift, b + 1, left.runs, fine, 6 * b);
-    }
-  } else {
-    for (let b = 0; b < nf; b++) {
-      const c0 = b * FINE_BLOCK, c1 = Math.min(nc, c0 + FINE_BLOCK);
-      if (c1 <= lay.leadCells) boxOfRun(p.points, p.connectivity, lay.base + lay.leadSize * c0, lay.base + lay.leadSize * c1, fine, 6 * b);
-      else boxOfCells(p, c0, c1, fine, 6 * b);
-    }
+  for (let b = 0; b < nf; b++) {
+    const c0 = b * FINE_BLOCK, c1 = Math.min(nc, c0 + FINE_BLOCK);
+    if (c1 <= lay.leadCells) boxOfRun(p.points, p.connectivity, lay.base + lay.leadSize * c0, lay.base + lay.leadSize * c1, fine, 6 * b);
+    else boxOfCells(p, c0, c1, fine, 6 * b);
   }
   const nb = Math.ceil(nc / CELL_BLOCK), boxes = new Float64Array(6 * nb);
   for (let b = 0; b < nb; b++) joinBoxes(fine, b * FINE_PER_BLOCK, Math.min(nf, (b + 1) * FINE_PER_BLOCK), boxes, 6 * b);
@@ -120,21 +95,6 @@ function joinBoxes(boxes: Float64Array, f0: number, f1: number, out: Float64Arra
   for (let k = 6 * f0; k < 6 * f1; k += 6) {
     x0 = Math.min(x0, boxes[k]!); y0 = Math.min(y0, boxes[k + 1]!); z0 = Math.min(z0, boxes[k + 2]!);
     x1 = Math.max(x1, boxes[k + 3]!); y1 = Math.max(y1, boxes[k + 4]!); z1 = Math.max(z1, boxes[k + 5]!);
-  }
-  out[o] = x0; out[o + 1] = y0; out[o + 2] = z0; out[o + 3] = x1; out[o + 4] = y1; out[o + 5] = z1;
-}
-
-/** Join of the boxes of the point runs (`runs`) that `ids[q0 … q1 − 1]` lie in, each run once (marked with `mark` in `stamp`), into `out[o … o + 5]`. */
-function joinRuns(ids: Int32Array, q0: number, q1: number, shift: number, mark: number, runs: Float64Array, out: Float64Array, o: number): void {
-  let x0 = Infinity, y0 = Infinity, z0 = Infinity, x1 = -Infinity, y1 = -Infinity, z1 = -Infinity;
-  for (let q = q0; q < q1; q++) {
-    const r = ids[q]! >> shift;
-    if (stamp[r] !== mark) {
-      stamp[r] = mark;
-      const k = 6 * r;
-      x0 = Math.min(x0, runs[k]!); y0 = Math.min(y0, runs[k + 1]!); z0 = Math.min(z0, runs[k + 2]!);
-      x1 = Math.max(x1, runs[k + 3]!); y1 = Math.max(y1, runs[k + 4]!); z1 = Math.max(z1, runs[k + 5]!);
-    }
   }
   out[o] = x0; out[o + 1] = y0; out[o + 2] = z0; out[o + 3] = x1; out[o + 4] = y1; out[o + 5] = z1;
 }

@@ -6,10 +6,9 @@
  *    visits only the boxes the plane touches);
  *  - `scan`: a sign test per cell (side code of each node: below, on or above the plane, OR-ed), over the
  *    blocks of `CELL_BLOCK` consecutive cells whose box the plane may meet, and inside them the runs of
- *    `FINE_BLOCK` cells whose box it may meet (`blockBoxes.ts`). The first scan
- *    of a piece with no polyhedra reads every cell by side bytes and leaves the boxes of 32-point runs behind
- *    (made in its point pass); the next scan reads every cell again (`RENTED_SCANS`), the one after joins the
- *    block boxes from the runs. A scan with block boxes tests them first and reads only the crossed blocks —
+ *    `FINE_BLOCK` cells whose box it may meet (`blockBoxes.ts`). The first `FULL_SCANS` scans of a piece
+ *    with no polyhedra read every cell by side bytes; the one after computes the block boxes (rent or buy).
+ *    A scan with block boxes tests them first and reads only the crossed blocks —
  *    by coordinates per node when they are few, by a side byte per point when they hold more node
  *    references than the piece has points. Pool workers compute the boxes of their share as they take it on.
  *    The scan returns exactly the cells the rule selects, in ascending order, whichever way it went.
@@ -29,7 +28,7 @@ import { cellDimension, CellType } from '../model/cellTypes.ts';
 import { cellStarts, type Dataset } from '../model/dataset.ts';
 import { cellsCrossingPlane, getCellTree, hasCellTree } from '../locate/cellTree.ts';
 import { cellLayout } from '../model/uniformCells.ts';
-import { blockBoxes, boxMayCross, CELL_BLOCK, FINE_BLOCK, fineBoxes, hasBlockBoxes, keepPointRunBoxes, rentFullScan } from './blockBoxes.ts';
+import { blockBoxes, boxMayCross, CELL_BLOCK, FINE_BLOCK, fineBoxes, rentFullScan } from './blockBoxes.ts';
 import type { Piece } from '../model/piece.ts';
 
 export type CandidateSource = 'auto' | 'tree' | 'scan';
@@ -92,11 +91,10 @@ function scan(d: Dataset, ox: number, oy: number, oz: number, nx: number, ny: nu
   let nFound = 0;
   for (let k = 0; k < d.pieces.length; k++) {
     const p = d.pieces[k]!, lay = cellLayout(p), nc = p.cellTypes.length, g0 = starts[k]!;
-    const first = !p.polyFaces && !hasBlockBoxes(p);
-    if (first || (!p.polyFaces && rentFullScan(p))) {
-      // A piece with no polyhedra, first scanned (the point pass leaves the boxes the block boxes are joined
-      // from) or scanned whole while those wait (blockBoxes.ts, RENTED_SCANS): every cell is read.
-      nFound = fullScan(p, ox, oy, oz, nx, ny, nz, tol, g0, nFound, first);
+    if (!p.polyFaces && rentFullScan(p)) {
+      // A piece with no polyhedra scanned whole while its block boxes are not worth their price yet
+      // (blockBoxes.ts, FULL_SCANS): every cell is read.
+      nFound = fullScan(p, ox, oy, oz, nx, ny, nz, tol, g0, nFound);
       continue;
     }
     const boxes = blockBoxes(p), fine = fineBoxes(p), pf = p.polyFaces, nb = boxes.length / 6;
@@ -180,31 +178,21 @@ function pointSides(pts: Float64Array, first: number, end: number, ox: number, o
   }
 }
 
-/** Points per point run of the first scan: the runs whose boxes the block boxes are joined from. */
-const POINT_BLOCK_SHIFT = 5;
 let crossing = new Int32Array(0);
 let side = new Uint8Array(0);
 
 /**
  * A scan of every cell of a piece with no polyhedra. One pass over the points: a side byte per point (1 below,
- * 2 on, 4 above) and, on the `first` scan, the box of each run of 2^POINT_BLOCK_SHIFT consecutive points, kept
- * for the piece (`keepPointRunBoxes`: a later scan joins its block boxes from them, one pass over the
- * connectivity that this first cut does not wait for). Then per cell the OR of its nodes' side bytes — the lead
+ * 2 on, 4 above). Then per cell the OR of its nodes' side bytes — the lead
  * run (`cellLayout`) with a fixed stride, the cells after it by their offsets: the candidates, exactly as the
  * scans over block boxes select them.
  */
 function fullScan(p: Piece, ox: number, oy: number, oz: number, nx: number, ny: number, nz: number,
-  tol: number, g0: number, nFound: number, first: boolean): number {
-  const nc = p.cellTypes.length, np = p.points.length / 3, nRuns = (np >> POINT_BLOCK_SHIFT) + 1;
+  tol: number, g0: number, nFound: number): number {
+  const nc = p.cellTypes.length, np = p.points.length / 3;
   const lay = cellLayout(p), m = lay.leadSize, lead = lay.leadCells, base = lay.base;
   if (side.length < np) side = new Uint8Array(Math.max(np, 2 * side.length));
-  if (first) {
-    const runs = new Float64Array(6 * nRuns);
-    pointSidesAndRuns(p.points, lay.firstPoint, lay.endPoint, ox, oy, oz, nx, ny, nz, tol, side, runs);
-    keepPointRunBoxes(p, runs, POINT_BLOCK_SHIFT);
-  } else {
-    pointSides(p.points, lay.firstPoint, lay.endPoint, ox, oy, oz, nx, ny, nz, tol, side);
-  }
+  pointSides(p.points, lay.firstPoint, lay.endPoint, ox, oy, oz, nx, ny, nz, tol, side);
   // Room for a chunk at a time: every cell's id is written, so room for all of them would be as many fresh
   // bytes as the piece has cells (40 MB at 10M cells), where the candidates are a small share.
   for (let c0 = 0; c0 < lead; c0 += SCAN_CHUNK) {
@@ -233,28 +221,6 @@ function sideBytesOfAny(types: Uint8Array, off: Int32Array, conn: Int32Array, c0
     nFound += SOLID[types[c]!]! & (m === 3 || m >= 5 ? 1 : 0);
   }
   return nFound;
-}
-
-/** Side byte of points first … end − 1 into `out`, and the box of each run of points (`runs`, 6 numbers a run; runs partly outside the range cover their part inside). */
-function pointSidesAndRuns(pts: Float64Array, first: number, end: number, ox: number, oy: number, oz: number, nx: number, ny: number, nz: number,
-  tol: number, out: Uint8Array, runs: Float64Array): void {
-  for (let r0 = first; r0 < end; r0 = ((r0 >> POINT_BLOCK_SHIFT) + 1) << POINT_BLOCK_SHIFT) {
-    sidesOfRun(pts, r0, Math.min(end, ((r0 >> POINT_BLOCK_SHIFT) + 1) << POINT_BLOCK_SHIFT), ox, oy, oz, nx, ny, nz, tol, out, runs, 6 * (r0 >> POINT_BLOCK_SHIFT));
-  }
-}
-
-function sidesOfRun(pts: Float64Array, i0: number, i1: number, ox: number, oy: number, oz: number, nx: number, ny: number, nz: number,
-  tol: number, out: Uint8Array, runs: Float64Array, o: number): void {
-  let x0 = Infinity, y0 = Infinity, z0 = Infinity, x1 = -Infinity, y1 = -Infinity, z1 = -Infinity;
-  for (let i = i0, j = 3 * i0; i < i1; i++, j += 3) {
-    const x = pts[j]!, y = pts[j + 1]!, z = pts[j + 2]!;
-    x0 = x < x0 ? x : x0; x1 = x > x1 ? x : x1;
-    y0 = y < y0 ? y : y0; y1 = y > y1 ? y : y1;
-    z0 = z < z0 ? z : z0; z1 = z > z1 ? z : z1;
-    const s = nx * (x - ox) + ny * (y - oy) + nz * (z - oz);
-    out[i] = s <= tol && s >= -tol ? 2 : s < 0 ? 1 : 4;
-  }
-  runs[o] = x0; runs[o + 1] = y0; runs[o + 2] = z0; runs[o + 3] = x1; runs[o + 4] = y1; runs[o + 5] = z1;
 }
 
 /** Cells c0 … c1 − 1 of a lead run of hexahedra (8 nodes a cell, back to back from `base`) by their nodes' side bytes; same test as `blockOf8`. */
@@ -352,7 +318,7 @@ function blockOfAny(pts: Float64Array, types: Uint8Array, off: Int32Array, conn:
 let scanLoopsWarm = false;
 
 /**
- * Runs the full scan's loops (point sides with and without run boxes, the fixed-stride side-byte loops, the
+ * Runs the full scan's loops (point sides, the fixed-stride side-byte loops, the
  * per-cell loop over a tail of triangles) on a lattice-sized set of arrays of the loaded files' types, enough
  * times that the engine optimises them: a whole-mesh warm-up cut reads a few hundred cells of a tail, and the
  * first real scan then ran the tail loop (the boundary triangles a file stores after its tetrahedra)
@@ -367,11 +333,10 @@ export function warmUpScanLoops(): void {
   for (let q = 0; q < conn.length; q++) conn[q] = (q * 2654435761 >>> 0) % np;
   for (let c = 0; c <= nc; c++) off[c] = 3 * c;
   for (let c = 0; c < nc; c += 5) types[c] = CellType.TETRA;
-  const sides = new Uint8Array(np), runs = new Float64Array(6 * ((np >> POINT_BLOCK_SHIFT) + 1)), out = new Int32Array(2 * nc);
+  const sides = new Uint8Array(np), out = new Int32Array(2 * nc);
   for (let r = 0; r < 40; r++) {
     const oz = 0.3 + 0.01 * r, nz = r % 2 === 0 ? 1 : -1;
-    if (r % 4 === 0) pointSidesAndRuns(pts, 0, np, 0.5, 0.5, oz, 0.1, 0.05, nz, 1e-12, sides, runs);
-    else pointSides(pts, 0, np, 0.5, 0.5, oz, 0.1, 0.05, nz, 1e-12, sides);
+    pointSides(pts, 0, np, 0.5, 0.5, oz, 0.1, 0.05, nz, 1e-12, sides);
     sideBytesOf8(conn, 0, 0, nc, sides, 0, out, 0);
     sideBytesOf4(conn, 0, 0, 2 * nc, sides, 0, out, 0);
     sideBytesOfAny(types, off, conn, 0, nc, sides, 0, out, 0);

@@ -1,12 +1,12 @@
 /**
- * Block boxes of the cut scan: each box holds every node of its block's cells (exact boxes from
- * `blockBoxes`, joined point-run boxes left by a first scan), and a scan that skips blocks on them returns
+ * Block boxes of the cut scan: each box holds exactly the nodes of its block's cells (computed by
+ * `blockBoxes`, on a scan's demand after `FULL_SCANS` full scans), a block skipped by its box holds no candidate, and a scan that skips blocks on them returns
  * exactly the cells of the rule, by either route of a later scan (coordinates per node when few blocks are
  * crossed, side bytes per point when many are). Reference: a brute-force pass over every cell, written here
  * from the rule in crossingCells.ts.
  */
 import { describe, expect, it } from 'vitest';
-import { blockBoxes, boxMayCross, CELL_BLOCK, FINE_BLOCK, fineBoxes } from '../../src/cut/blockBoxes.ts';
+import { blockBoxes, boxMayCross, CELL_BLOCK, FINE_BLOCK, FULL_SCANS, fineBoxes, hasBlockBoxes } from '../../src/cut/blockBoxes.ts';
 import { candidateCells } from '../../src/cut/crossingCells.ts';
 import { CellType } from '../../src/model/cellTypes.ts';
 import { datasetOf, hexGrid, tetGrid } from '../../src/model/meshBuild.ts';
@@ -67,12 +67,43 @@ describe('block boxes', () => {
     }
   });
 
-  it('left by a first scan (joined point runs) hold every node of their block, on fixed-stride and general pieces', () => {
+  it('are computed on the scan after `FULL_SCANS` full scans, exact, and later scans give the rule\'s cells throughout', () => {
     for (const p of [hexGrid(20, 20, 20), tetGrid(8, 8, 8), jitteredWedge(6)]) {
-      const d = datasetOf([p]);
-      candidateCells(d, 0.37, 0.41, 0.53, 0, 0.6, 0.8, 1e-10, 'scan');
-      expectBoxesHoldNodes(p, blockBoxes(p), false);
-      expectBoxesHoldNodes(p, fineBoxes(p), false, FINE_BLOCK);
+      const d = datasetOf([p]), o: V3 = [0.37, 0.41, 0.53], n: V3 = [0, 0.6, 0.8];
+      for (let i = 0; i < FULL_SCANS + 2; i++) {
+        expect(hasBlockBoxes(p)).toBe(i > FULL_SCANS);
+        expect(Array.from(candidateCells(d, ...o, ...n, 1e-10, 'scan').cells)).toEqual(bruteForce(d, o, n, 1e-10));
+      }
+      expectBoxesHoldNodes(p, blockBoxes(p), true);
+      expectBoxesHoldNodes(p, fineBoxes(p), true, FINE_BLOCK);
+    }
+  });
+
+  it('skip only blocks that hold no candidate: random planes and planes through nodes (brute force per cell)', () => {
+    let seed = 12345;
+    const rnd = () => { seed = (seed * 1103515245 + 12345) % 2147483648; return seed / 2147483648; };
+    for (const p of [hexGrid(12, 11, 10), tetGrid(7, 6, 8), jitteredWedge(6), jitteredPolyhedron(6)]) {
+      const d = datasetOf([p]), fine = fineBoxes(p), nc = p.cellTypes.length, np = p.points.length / 3;
+      const planes: { o: V3; n: V3 }[] = [];
+      for (let i = 0; i < 40; i++) {
+        const n: V3 = [rnd() - 0.5, rnd() - 0.5, rnd() - 0.5], l = Math.hypot(...n);
+        // half the planes pass through a node of the mesh (on-plane nodes are candidates' business)
+        const j = 3 * Math.floor(rnd() * np);
+        const o: V3 = i % 2 === 0 ? [rnd(), rnd(), rnd()] : [p.points[j]!, p.points[j + 1]!, p.points[j + 2]!];
+        planes.push({ o, n: [n[0] / l, n[1] / l, n[2] / l] });
+      }
+      for (const axis of [0, 1, 2]) { const j = 3 * Math.floor(np / 2); const n: V3 = [0, 0, 0]; n[axis] = 1; planes.push({ o: [p.points[j]!, p.points[j + 1]!, p.points[j + 2]!], n }); }
+      let skipped = 0;
+      for (const { o, n } of planes) {
+        const want = new Set(bruteForce(d, o, n, 1e-10));
+        for (let f = 0; f < fine.length / 6; f++) {
+          if (boxMayCross(fine, 6 * f, ...o, ...n, 1e-10)) continue;
+          skipped++;
+          for (let c = f * FINE_BLOCK; c < Math.min(nc, (f + 1) * FINE_BLOCK); c++) expect(want.has(c), `cell ${c} in skipped block ${f}`).toBe(false);
+        }
+        expect(Array.from(candidateCells(d, ...o, ...n, 1e-10, 'scan').cells)).toEqual([...want]);
+      }
+      expect(skipped).toBeGreaterThan(0);
     }
   });
 
