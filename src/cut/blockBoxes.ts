@@ -13,8 +13,11 @@
  *
  * Layout: `Float64Array` of 6 numbers per block — min x, min y, min z, max x, max y, max z (file's length
  * unit) — over the point ids the scan reads for the block's cells (a polyhedron stored with empty
- * connectivity: its face stream). A block with no 3D cell (computed from the cells, not joined from point
- * runs) keeps the empty box +∞ … −∞, which no plane crosses.
+ * connectivity: its face stream). A block with no 3D cell keeps the empty box +∞ … −∞, which no plane crosses.
+ * The boxes are exact (the nodes' own extremes). They were once joined from the boxes of 32-point runs left by
+ * the first scan; on the 1M sample files those runs span much of a cross-section (44 % of the pipe's runs meet
+ * its lengthwise plane), so the joined boxes let most cells through and cost as much as exact ones (see
+ * DEVELOPERS.md, "Later cut, fifth round").
  */
 import { cellDimension, CellType } from '../model/cellTypes.ts';
 import type { Piece } from '../model/piece.ts';
