@@ -341,4 +341,23 @@ export function warmUpScanLoops(): void {
     sideBytesOf4(conn, 0, 0, 2 * nc, sides, 0, out, 0);
     sideBytesOfAny(types, off, conn, 0, nc, sides, 0, out, 0);
   }
+  // The boxed scan's loops (a piece's scans after its boxes are bought): box tests, then short runs of cells
+  // by coordinates, as a file's later cuts call them thousands of times; they ran partly unoptimised there.
+  const nf = nc / FINE_BLOCK, nb = nc / CELL_BLOCK, fine = new Float64Array(6 * nf), boxes = new Float64Array(6 * nb);
+  for (let f = 0; f < nf; f++) {
+    const x = ((f * 37) % 101) / 101, y = ((f * 53) % 97) / 97, z = ((f * 71) % 89) / 89;
+    fine.set([x, y, z, x + 0.08, y + 0.08, z + 0.08], 6 * f);
+  }
+  for (let b = 0; b < nb; b++) boxes.set([0, 0, 0, 1, 1, 1], 6 * b);
+  const cross = new Int32Array(nb), from = new Int32Array(nf), to = new Int32Array(nf);
+  for (let r = 0; r < 12; r++) {
+    const ox = 0.2 + 0.05 * r, nx = r % 2 === 0 ? 0.8 : -0.8;
+    const n = blocksMayCross(boxes, nb, ox, 0.5, 0.5, nx, 0.6, 0, 1e-12, cross);
+    const runs = fineRuns(fine, nf, nc, cross, n, ox, 0.5, 0.5, nx, 0.6, 0, 1e-12, from, to);
+    for (let i = 0; i < runs; i++) {
+      blockOf8(pts, conn, 0, from[i]!, to[i]!, ox, 0.5, 0.5, nx, 0.6, 0, 1e-12, 0, out, 0);
+      blockOf4(pts, conn, 0, from[i]!, to[i]!, ox, 0.5, 0.5, nx, 0.6, 0, 1e-12, 0, out, 0);
+      blockOfAny(pts, types, off, conn, undefined, undefined, undefined, ox, 0.5, 0.5, nx, 0.6, 0, 1e-12, 0, from[i]!, to[i]!, out, 0);
+    }
+  }
 }
