@@ -10,14 +10,15 @@
  * Here a lattice of hexahedra and one of tetrahedra (with a few boundary triangles after them, as files store
  * them) go through shared memory and a structured clone, as a posted dataset does, are split into two shares,
  * and each share is cut and placed on planes that cross few blocks (coordinates) and many (side bytes), with
- * normals of both signs. Results are thrown away; nothing is kept but the engine's compiled code.
+ * normals of both signs, and the integral's blocks are summed from the merged arrays (`sumCutBlocks`). Results
+ * are thrown away; nothing is kept but the engine's compiled code.
  */
 import { prepareCut } from '../cut/cutPlane.ts';
 import { datasetOf, field, hexGrid, pointFieldFrom, tetGrid, tetsWithTriangles, withFields } from '../model/meshBuild.ts';
 import type { Piece } from '../model/piece.ts';
 import type { Vec3 } from '../cut/triangleSet.ts';
-import { planCutRuns } from './placeCuts.ts';
-import { cutShare, placeCutShare, type CutCounts, type SharedCutArrays } from './shareTasks.ts';
+import { blockSplit, planCutRuns, shareSums } from './placeCuts.ts';
+import { cutShare, placeCutShare, sumCutBlocks, type CutCounts, type SharedCutArrays } from './shareTasks.ts';
 import { toSharedDataset } from './sharedDataset.ts';
 import { shareDataset, splitCells } from './shares.ts';
 
@@ -65,6 +66,9 @@ export function warmUpShareKernels(rounds = 4): Promise<void> {
             fields: parts[0]!.fields.map((f) => shared(Float64Array, (f.association === 'point' ? nV : nT) * f.components)),
           };
           ranges.forEach((range, i) => placeCutShare(keys[i]!, range, plan.runs[i]!, into));
+          // and sums half of the integral's blocks from the merged arrays, as op `sum` does
+          const sums = nT > 0 ? shareSums(parts[0]!.fields, {}, nT) : null;
+          if (sums) sumCutBlocks(into, parts[0]!.fields, sums, 0, blockSplit(sums.done.length, 2, 1) || 1);
         }
         await new Promise<void>((resolve) => setTimeout(resolve, 0));
       }
