@@ -61,7 +61,7 @@ const asShareView = (d: Dataset): Dataset => shareDataset(d, { start: 0, end: to
 /**
  * Serves the pool's requests on `port` until the worker ends. `memory` reports this worker's memory when the
  * platform can tell. `warmUp` runs first (default: `warmUpCutKernels`, about 0.1 s, then `warmUpShareKernels` of
- * shareWarmUp.ts, about 0.1 s, then `warmUpFitKernels` of src/derive/warmUpFit.ts, about 0.15 s, then
+ * shareWarmUp.ts, about 0.4 s, then `warmUpFitKernels` of src/derive/warmUpFit.ts, about 0.15 s, then
  * `warmUpLocateKernels` of src/locate/warmUp.ts on share views, about 0.15 s): a pool's workers start while the
  * file is still being read, so their cut kernels, gradient fit and line scan are optimised by the time the first
  * cut, gradient or line arrives instead of running cold over their share (the cold first cut, and the cold wall
