@@ -59,7 +59,13 @@ function shared<T>(ctor: { new (b: SharedArrayBuffer): T; BYTES_PER_ELEMENT: num
 /** The requests the pool sends its workers for one cut, `key` naming it between the two steps. */
 export type CutRequest =
   | { op: 'cut'; key: number; origin: Vec3; normal: Vec3; options: Partial<CutOptions> }
-  | { op: 'place'; key: number; runs: Int32Array; into: SharedCutArrays | null; sums?: ShareSums | null };
+  | { op: 'place'; key: number; runs: Int32Array; into: SharedCutArrays | null }
+  | { op: 'sum'; into: SharedCutArrays; fields: CutCounts['fields']; sums: ShareSums; b0: number; b1: number };
+
+/** First block of worker `w`'s part when `nb` blocks are split evenly between `workers` (contiguous, in order; `w` = `workers` gives `nb`). */
+export function blockSplit(nb: number, workers: number, w: number): number {
+  return Math.floor((nb * w) / workers);
+}
 
 let nextKey = 1;
 
@@ -67,7 +73,7 @@ let nextKey = 1;
 const summedBy = new WeakMap<PlaneCut, SummedBlocks>();
 
 /**
- * The integral sums' blocks (`integrals.ts` `blockSums`) the pool's workers summed while placing `cut` (made by
+ * The integral sums' blocks (`integrals.ts` `blockSums`) the pool's workers summed over `cut` (made by
  * `cutInPlace` with integral options), for `integrateSurface` over the whole cut with those options; undefined
  * when none were.
  */
@@ -76,10 +82,12 @@ export function summedBlocks(cut: PlaneCut): SummedBlocks | undefined { return s
 /**
  * The cut on every share, merged in place (see the file comment): `all` sends one request to every worker (by
  * index) and resolves with their replies in worker order. The result is `cutPlane`'s on the whole dataset,
- * its arrays in shared memory. With `integral` (the options the whole cut will be integrated with), each worker
- * also sums the blocks of the integral's triangle pass that lie wholly in its cell triangles, from its own
- * arrays as it places them (`summedBlocks`); the rest (blocks across a share border, in-plane faces) are left
- * to `integrateSurface`, so the sums are the one-thread ones bit for bit.
+ * its arrays in shared memory. With `integral` (the options the whole cut will be integrated with), once every
+ * share is placed the blocks of the integral's triangle pass are split evenly between the workers, each summing
+ * its run of blocks from the merged arrays (op `sum`, `summedBlocks`): whichever share a block's triangles came
+ * from, so a worker whose share was cut sooner takes half of the summing, not only its own triangles'. Every
+ * block is summed by `blockSums` over the same triangles in the same order, so `integrateSurface` folds the
+ * one-thread sums bit for bit.
  */
 export async function cutInPlace(all: <R>(req: (i: number) => CutRequest) => Promise<R[]>, origin: Vec3, normal: Vec3,
   options: Partial<CutOptions>, integral?: Partial<IntegralOptions>): Promise<PlaneCut> {
@@ -100,8 +108,12 @@ export async function cutInPlace(all: <R>(req: (i: number) => CutRequest) => Pro
     vertexEdges: shared(Int32Array, 2 * nV), vertexT: shared(Float64Array, nV),
     fields: layout.map((f) => shared(Float64Array, (f.association === 'point' ? nV : nT) * f.components)),
   };
-  const sums = integral ? shareSums(layout, integral, nT) : null;
-  await all<null>((i) => ({ op: 'place', key, runs: plan.runs[i]!, into, sums }));
+  await all<null>((i) => ({ op: 'place', key, runs: plan.runs[i]!, into }));
+  const sums = integral && nT > 0 ? shareSums(layout, integral, nT) : null;
+  if (sums) {
+    const nb = sums.done.length, W = parts.length;
+    await all<null>((i) => ({ op: 'sum', into, fields: layout, sums, b0: blockSplit(nb, W, i), b1: blockSplit(nb, W, i + 1) }));
+  }
   const fields: SurfaceField[] = layout.map((f, j) => ({ name: f.name, association: f.association, components: f.components, values: into.fields[j]! }));
   const sum = (g: (c: CutCounts) => number) => parts.reduce((s, c) => s + g(c), 0);
   const cut: PlaneCut = {
@@ -120,7 +132,7 @@ export async function cutInPlace(all: <R>(req: (i: number) => CutRequest) => Pro
 }
 
 /** Shared room for the integral sums' blocks of a merged cut of `nT` triangles; null when the options do not fit its fields (integrateSurface then says why). */
-function shareSums(layout: CutCounts['fields'], integral: Partial<IntegralOptions>, nT: number): ShareSums | null {
+export function shareSums(layout: CutCounts['fields'], integral: Partial<IntegralOptions>, nT: number): ShareSums | null {
   let K: number;
   try { K = sumLayout(layout, integral).K; } catch { return null; }
   const nb = Math.ceil(nT / SUM_BLOCK);

@@ -96,12 +96,13 @@ export class ComputePool {
   private boundaryFaces: Promise<BoundaryFaces> | undefined;
   /**
    * Whether `integratePlane` has the workers sum the integral's blocks that lie in their own triangles as they
-   * place them (same bits as summing them all here; see `cutInPlace`). Default false: on the 1M-tetrahedron
-   * sample, pool of 2, it saved nothing (later cut 59–63 against 56–57 ms of CPU), nor on the 1M hexahedra's
-   * later cut (107–141 against 107–130 ms of CPU, loaded machine; DEVELOPERS.md). It once cost 120 ms more;
-   * that was the workers' first-transfer deoptimisations, gone since (share workers transfer nothing: shareHost.ts).
+   * place them (same bits as summing them all here; see `cutInPlace`). Default true: it takes most of the
+   * integral off this thread, which otherwise sums every triangle after the workers are done (1M hexahedra,
+   * later cut of 45 216 triangles: this thread's CPU 17–19 → 7–8 ms, each worker's +5–6 ms; DEVELOPERS.md,
+   * "The worker pool"). It was off while the workers' first-transfer deoptimisations made it cost more (gone
+   * since: share workers transfer nothing, shareHost.ts).
    */
-  sumInWorkers = false;
+  sumInWorkers = true;
   private constructor(readonly dataset: Dataset, readonly shares: readonly CellShare[], private readonly lanes: Lane[]) {}
 
   /**

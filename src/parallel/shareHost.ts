@@ -11,7 +11,7 @@
  * host says where to write it in the merged cut's shared arrays (`placeCuts.ts`).
  */
 import { totalCells, type Dataset } from '../model/dataset.ts';
-import { boundaryShare, cutShare, lineShare, placeCutShare, type LineShareOptions } from './shareTasks.ts';
+import { boundaryShare, cutShare, lineShare, placeCutShare, sumCutBlocks, type LineShareOptions } from './shareTasks.ts';
 import type { CutRequest } from './placeCuts.ts';
 import { gradientShare, type GradientShare } from './deriveShares.ts';
 import { attachKernelMesh, type SharedKernelMeshRef } from '../derive/sharedKernelMesh.ts';
@@ -61,7 +61,7 @@ const asShareView = (d: Dataset): Dataset => shareDataset(d, { start: 0, end: to
 /**
  * Serves the pool's requests on `port` until the worker ends. `memory` reports this worker's memory when the
  * platform can tell. `warmUp` runs first (default: `warmUpCutKernels`, about 0.1 s, then `warmUpShareKernels` of
- * shareWarmUp.ts, about 0.1 s, then `warmUpFitKernels` of src/derive/warmUpFit.ts, about 0.15 s, then
+ * shareWarmUp.ts, about 0.4 s, then `warmUpFitKernels` of src/derive/warmUpFit.ts, about 0.15 s, then
  * `warmUpLocateKernels` of src/locate/warmUp.ts on share views, about 0.15 s): a pool's workers start while the
  * file is still being read, so their cut kernels, gradient fit and line scan are optimised by the time the first
  * cut, gradient or line arrives instead of running cold over their share (the cold first cut, and the cold wall
@@ -82,7 +82,8 @@ export function serveShares(port: SharePort, memory: () => WorkerMemory | null =
     if (m.op === 'gradient') { if (!whole) throw new Error('worker pool: no dataset is held by this worker'); return gradientShare(whole, m); }
     if (!share || !range) throw new Error('worker pool: no dataset is held by this worker');
     if (m.op === 'cut') return cutShare(share, m.key, m.origin, m.normal, m.options);
-    if (m.op === 'place') return placeCutShare(m.key, range, m.runs, m.into, m.sums ?? null);
+    if (m.op === 'place') return placeCutShare(m.key, range, m.runs, m.into);
+    if (m.op === 'sum') return sumCutBlocks(m.into, m.fields, m.sums, m.b0, m.b1);
     if (m.op === 'line') return lineShare(share, range, m.from, m.to, m.options);
     return boundaryShare(share, range, m.withMerge);
   };

@@ -8,7 +8,7 @@
  */
 import { CUT_DEFAULTS, cutPlane, releaseCut, type CutOptions, type PlaneCut, type PlaneFaceKeys } from '../cut/cutPlane.ts';
 import { cutFieldInto, cutFieldLayout } from '../cut/cutFields.ts';
-import { blockSums, SUM_BLOCK, sumLayout, type IntegralOptions } from '../cut/integrals.ts';
+import { blockSums, sumLayout, type IntegralOptions } from '../cut/integrals.ts';
 import type { Vec3 } from '../cut/triangleSet.ts';
 import type { Dataset } from '../model/dataset.ts';
 import { lineLocator, locateLineSamples } from '../locate/lineSamples.ts';
@@ -87,10 +87,9 @@ export function cutShare(share: Dataset, key: number, origin: Vec3, normal: Vec3
  * Writes the runs of the cut held under `key` into the merged arrays and lets it go. `runs` holds 6 numbers a
  * run: source triangles t0 … t1 − 1 with their vertices v0 … v1 − 1, to triangle `dt` and vertex `dv` of the
  * merged cut; vertex numbers are moved by dv − v0 and cell ids by the share's first cell. The fields are
- * interpolated straight into their places. `into` null: only let go. With `sums`, the integral's blocks that
- * lie wholly in the share's cell triangles are summed too (`sumOwnBlocks`).
+ * interpolated straight into their places. `into` null: only let go.
  */
-export function placeCutShare(key: number, range: CellShare, runs: Int32Array, into: SharedCutArrays | null, sums: ShareSums | null = null): null {
+export function placeCutShare(key: number, range: CellShare, runs: Int32Array, into: SharedCutArrays | null): null {
   const h = held.get(key);
   held.delete(key);
   if (!into) { if (h) releaseCut(h.cut); return null; }
@@ -105,26 +104,22 @@ export function placeCutShare(key: number, range: CellShare, runs: Int32Array, i
     cellsInto(c.sourceCell, t0, t1, range.start, into.sourceCell, dt);
     for (let j = 0; j < into.fields.length; j++) cutFieldInto(h.share, c, h.fields[j]!, v0, v1, t0, t1, into.fields[j]!, h.fields[j]!.association === 'point' ? dv : dt);
   }
-  if (sums) sumOwnBlocks(c, h.fields, runs, into, sums);
   releaseCut(c);
   return null;
 }
 
 /**
- * The blocks of the integral sums that lie wholly in this share's cell triangles (the first run, when it has
- * any), summed from the share's own geometry and its fields as just written into the merged arrays, into `s`:
- * the same triangles in the same order as in the merged cut.
+ * Sums blocks b0 … b1 − 1 of the integral's triangle pass (`integrals.ts` `blockSums`) over the merged cut, read
+ * from its shared arrays once every share has placed its runs, into `s`; the same triangles in the same order
+ * as one thread sums them, so the same bits whichever thread sums a block.
  */
-function sumOwnBlocks(c: PlaneCut, layout: CutCounts['fields'], runs: Int32Array, into: SharedCutArrays, s: ShareSums): void {
-  const pf = c.planeFaces!, cells = pf.emitted.length ? pf.triStart[0]! : c.sourceCell.length;
-  if (cells === 0 || runs.length === 0) return;
-  const first = runs[4]!, dv = runs[5]!, end = first + cells, nb = Math.ceil(s.total / SUM_BLOCK);
-  const b0 = Math.ceil(first / SUM_BLOCK), b1 = end === s.total ? nb : Math.floor(end / SUM_BLOCK);
-  if (b1 <= b0) return;
-  // the fields of the share's own vertices and triangles, numbered as in its cut
-  const fields = layout.map((f, j) => ({ ...f, values: into.fields[j]!.subarray(f.components * (f.association === 'point' ? dv : first)) }));
-  blockSums({ ...c, fields }, sumLayout(fields, s.options), first, s.total, b0, b1, { un: s.un, rho: s.rho, area: s.area }, s.sums);
+export function sumCutBlocks(into: SharedCutArrays, layout: CutCounts['fields'], s: ShareSums, b0: number, b1: number): null {
+  if (b1 <= b0) return null;
+  const fields = layout.map((f, j) => ({ ...f, values: into.fields[j]! }));
+  const set = { positions: into.positions, indices: into.indices, sourceCell: into.sourceCell, fields };
+  blockSums(set, sumLayout(fields, s.options), 0, s.total, b0, b1, { un: s.un, rho: s.rho, area: s.area }, s.sums);
   s.done.fill(1, b0, b1);
+  return null;
 }
 
 function shiftInto(src: Uint32Array, a: number, b: number, shift: number, out: Uint32Array, o: number): void {

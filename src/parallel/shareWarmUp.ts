@@ -10,14 +10,15 @@
  * Here a lattice of hexahedra and one of tetrahedra (with a few boundary triangles after them, as files store
  * them) go through shared memory and a structured clone, as a posted dataset does, are split into two shares,
  * and each share is cut and placed on planes that cross few blocks (coordinates) and many (side bytes), with
- * normals of both signs. Results are thrown away; nothing is kept but the engine's compiled code.
+ * normals of both signs, and the integral's blocks are summed from the merged arrays (`sumCutBlocks`). Results
+ * are thrown away; nothing is kept but the engine's compiled code.
  */
 import { prepareCut } from '../cut/cutPlane.ts';
 import { datasetOf, field, hexGrid, pointFieldFrom, tetGrid, tetsWithTriangles, withFields } from '../model/meshBuild.ts';
 import type { Piece } from '../model/piece.ts';
 import type { Vec3 } from '../cut/triangleSet.ts';
-import { planCutRuns } from './placeCuts.ts';
-import { cutShare, placeCutShare, type CutCounts, type SharedCutArrays } from './shareTasks.ts';
+import { blockSplit, planCutRuns, shareSums } from './placeCuts.ts';
+import { cutShare, placeCutShare, sumCutBlocks, type CutCounts, type SharedCutArrays } from './shareTasks.ts';
 import { toSharedDataset } from './sharedDataset.ts';
 import { shareDataset, splitCells } from './shares.ts';
 
@@ -41,12 +42,23 @@ function shared<T>(ctor: { new (b: SharedArrayBuffer): T; BYTES_PER_ELEMENT: num
   return new ctor(new SharedArrayBuffer(n * ctor.BYTES_PER_ELEMENT));
 }
 
+/**
+ * Cells along each side of the hexahedral lattice. At 16 (4 096 cells) the block scan's loops (`scan`,
+ * `blocksMayCross`, `blockOf8` of crossingCells.ts) never got hot enough here to be optimised: they were compiled on
+ * the engine's background threads during a file's first two or three cuts, 20–120 ms of CPU each per worker, beside
+ * the workers on a two-core machine (1M hexahedra, pool of 2, load average ~5: the process's CPU for the first cut
+ * 65 ms against 17 ms on the three threads, for the first later cut 113–127 against ~70). At 32 (32 768 cells) they
+ * are optimised here: first cut 35 ms of process CPU (wall 59 → 32 ms), first later cut 65–68 (wall 124–126 → 65–67),
+ * for about 200 ms more of this warm-up's CPU (200–210 → 400 ms), spent while the file loads.
+ */
+const HEX_SIDE = 32;
+
 let warmed: Promise<void> | undefined;
 
 /** Cuts and places shares of two small lattices `rounds` times over the planes; once per thread (later calls share it). */
 export function warmUpShareKernels(rounds = 4): Promise<void> {
   warmed ??= (async () => {
-    const hex = withFlow(hexGrid(16, 16, 16)), tet = withFlow(tetsWithTriangles(tetGrid(9, 9, 9), 7));
+    const hex = withFlow(hexGrid(HEX_SIDE, HEX_SIDE, HEX_SIDE)), tet = withFlow(tetsWithTriangles(tetGrid(9, 9, 9), 7));
     for (const built of [datasetOf([hex], 'warm-up lattice'), datasetOf([tet], 'warm-up lattice')]) {
       // as a dataset posted to a worker arrives: shared arrays inside freshly cloned objects
       const whole = structuredClone(toSharedDataset(built));
@@ -65,6 +77,9 @@ export function warmUpShareKernels(rounds = 4): Promise<void> {
             fields: parts[0]!.fields.map((f) => shared(Float64Array, (f.association === 'point' ? nV : nT) * f.components)),
           };
           ranges.forEach((range, i) => placeCutShare(keys[i]!, range, plan.runs[i]!, into));
+          // and sums half of the integral's blocks from the merged arrays, as op `sum` does
+          const sums = nT > 0 ? shareSums(parts[0]!.fields, {}, nT) : null;
+          if (sums) sumCutBlocks(into, parts[0]!.fields, sums, 0, blockSplit(sums.done.length, 2, 1) || 1);
         }
         await new Promise<void>((resolve) => setTimeout(resolve, 0));
       }

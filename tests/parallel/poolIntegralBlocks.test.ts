@@ -1,6 +1,6 @@
 /**
- * Integral sums by blocks (`SUM_BLOCK` triangles, src/cut/integrals.ts): the pool's workers sum the blocks that
- * lie wholly in their cell triangles while placing them, the host the rest, and the block sums are added in
+ * Integral sums by blocks (`SUM_BLOCK` triangles, src/cut/integrals.ts): once the merged cut is placed, the
+ * pool's workers sum its blocks in even runs (`blockSplit`) from the shared arrays, and the block sums are added in
  * block order, so 1, 2 and 3 workers give the one-thread integrals bit for bit and the same triangles.
  * Reference: the single-thread core of this repository on the same mesh (exact match, `toBe`/`toEqual`), and for
  * the blocks themselves a hand fold of `blockSums` over the set; the area of the cut against the exact area of
@@ -13,7 +13,7 @@ import { datasetOf, hexGrid, pointFieldFrom, tetGrid, tetsWithTriangles, withFie
 import type { Dataset } from '../../src/model/dataset.ts';
 import type { Piece } from '../../src/model/piece.ts';
 import { openNodePool } from '../../src/parallel/nodePool.ts';
-import { summedBlocks } from '../../src/parallel/placeCuts.ts';
+import { blockSplit, summedBlocks } from '../../src/parallel/placeCuts.ts';
 import type { ComputePool } from '../../src/parallel/pool.ts';
 
 function withFlow(p: Piece): Piece {
@@ -36,10 +36,10 @@ const planes: PlaneQuery[] = [
 
 describe('integral sums by blocks', () => {
   let d: Dataset;
-  const pools: ComputePool[] = [];
+  const pools: ComputePool[] = [], defaults: boolean[] = [];
   beforeAll(async () => {
     d = bigBox();
-    for (const n of [1, 2, 3]) { const pool = await openNodePool(d, n); pool.sumInWorkers = true; pools.push(pool); }
+    for (const n of [1, 2, 3]) { const pool = await openNodePool(d, n); defaults.push(pool.sumInWorkers); pool.sumInWorkers = true; pools.push(pool); }
   }, 120_000);
   afterAll(async () => { await Promise.all(pools.map((p) => p.close())); });
 
@@ -68,8 +68,8 @@ describe('integral sums by blocks', () => {
         expect(r.integrals).toEqual(one.integrals);
         const s = summedBlocks(r.cut)!;
         expect(s.done.length).toBe(Math.ceil(one.cut.sourceCell.length / SUM_BLOCK));
-        // every block but those across a share border came from a worker
-        expect(s.done.reduce((a, b) => a + b, 0)).toBeGreaterThanOrEqual(s.done.length - pool.size);
+        // every block came from a worker, in even runs of blocks whichever share its triangles came from
+        expect(s.done.every((b) => b === 1)).toBe(true);
       }
     }
   }, 120_000);
@@ -80,7 +80,20 @@ describe('integral sums by blocks', () => {
     for (const pool of pools) expect((await pool.integratePlane(q)).integrals).toEqual(one.integrals);
   }, 60_000);
 
-  it('by default the pool sums every block on this thread, with the same bits', async () => {
+  it('the blocks are split evenly between the workers, in order, every block once', () => {
+    for (const [nb, w] of [[11, 2], [2, 2], [1, 2], [9, 3], [2, 3], [0, 2]] as const) {
+      const cuts = Array.from({ length: w + 1 }, (_, i) => blockSplit(nb, w, i));
+      expect(cuts[0]).toBe(0);
+      expect(cuts[w]).toBe(nb);
+      for (let i = 0; i < w; i++) {
+        expect(cuts[i + 1]! - cuts[i]!).toBeGreaterThanOrEqual(Math.floor(nb / w));
+        expect(cuts[i + 1]! - cuts[i]!).toBeLessThanOrEqual(Math.ceil(nb / w));
+      }
+    }
+  });
+
+  it('a pool sums in its workers by default; switched off, this thread sums every block, with the same bits', async () => {
+    expect(defaults).toEqual([true, true, true]);
     pools[1]!.sumInWorkers = false;
     const one = integratePlane(d, planes[0]!), r = await pools[1]!.integratePlane(planes[0]!);
     pools[1]!.sumInWorkers = true;
