@@ -14,6 +14,8 @@
 // the old buffer, which makes V8 check every typed-array access of the thread from then on): the 64-bit ids of
 // one chunk from byte IN_AT (IN_BYTES at most), their low words written from OUT_AT, the run's least and
 // greatest low word left at RANGE_AT (two i32). `narrow(n)` returns the sign OR. Floats are read from IN_AT too.
+// `bytes(n)`: the histogram of n bytes from IN_AT (cell types), 256 i32 counts at HIST_AT, counted by runs of one
+// value, sixteen bytes a step while they all continue the current run (a mesh of one cell type: every step).
 
 import { writeFileSync } from 'node:fs';
 import { dirname, join } from 'node:path';
@@ -21,7 +23,7 @@ import { fileURLToPath } from 'node:url';
 import { name, section, sleb, uleb, vec } from './write-moment-kernel.mjs';
 
 /** Byte layout; PAGES of 64 KiB in all. */
-export const IN_AT = 0, IN_BYTES = 1 << 20, OUT_AT = IN_BYTES, RANGE_AT = OUT_AT + (IN_BYTES >> 1), PAGES = (RANGE_AT + 65536) >> 16;
+export const IN_AT = 0, IN_BYTES = 1 << 20, OUT_AT = IN_BYTES, RANGE_AT = OUT_AT + (IN_BYTES >> 1), HIST_AT = RANGE_AT + 64, PAGES = (RANGE_AT + 65536) >> 16;
 
 const I32 = 0x7f, V128 = 0x7b;
 const simd = (op, ...imm) => [0xfd, ...uleb(op), ...imm];
@@ -132,6 +134,56 @@ function narrowBody() {
   return [...uleb(body.length), ...body];
 }
 
+/** The body of `bytes(n)`: counts of each byte value among the n bytes from IN_AT into HIST_AT (256 i32); returns 0. */
+function bytesBody() {
+  const code = [];
+  const e = (...b) => code.push(...b.flat());
+  // locals: 0 n (param); i32: 1 at, 2 end, 3 cur, 4 run, 5 b; v128: 6 cur in every lane
+  const N = 0, AT = 1, END = 2, CUR = 3, RUN = 4, B = 5, CURV = 6;
+  const get = (l) => e(0x20, uleb(l)), set = (l) => e(0x21, uleb(l));
+  const i32 = (v) => e(0x41, sleb(v));
+  const mem = (offset, align) => [align, ...uleb(offset)];
+  // every count 0
+  i32(0); set(AT);
+  e(0x02, 0x40, 0x03, 0x40);
+  get(AT); i32(1024); e(0x4f); e(0x0d, 1);
+  get(AT); i32(0); e(0x36, mem(HIST_AT, 2));
+  get(AT); i32(4); e(0x6a); set(AT);
+  e(0x0c, 0);
+  e(0x0b, 0x0b);
+  get(N); e(0x45); e(0x04, 0x40); i32(0); e(0x0f); e(0x0b); // no bytes: nothing to count
+  // cur = the first byte, run = 0; at = IN_AT, end = IN_AT + n
+  i32(0); e(0x2d, mem(IN_AT, 0)); set(CUR);
+  i32(0); set(RUN);
+  i32(IN_AT); set(AT); get(N); i32(IN_AT); e(0x6a); set(END);
+  get(CUR); e(simd(0x0f)); set(CURV);
+  e(0x02, 0x40, 0x03, 0x40);
+  get(AT); get(END); e(0x4f); e(0x0d, 1);
+  // sixteen bytes of the current run at once (a mesh of one type: every step)
+  get(AT); i32(16); e(0x6a); get(END); e(0x4d);
+  e(0x04, 0x40);
+  get(AT); e(simd(S.load, ...mem(0, 0))); get(CURV); e(simd(0x23)); e(simd(0x63));
+  e(0x04, 0x40);
+  get(RUN); i32(16); e(0x6a); set(RUN); get(AT); i32(16); e(0x6a); set(AT); e(0x0c, 2);
+  e(0x0b, 0x0b);
+  get(AT); e(0x2d, mem(0, 0)); set(B);
+  get(B); get(CUR); e(0x46);
+  e(0x04, 0x40);
+  get(RUN); i32(1); e(0x6a); set(RUN);
+  e(0x05); // a new run: the last one's length into its count
+  get(CUR); i32(2); e(0x74); get(CUR); i32(2); e(0x74); e(0x28, mem(HIST_AT, 2)); get(RUN); e(0x6a); e(0x36, mem(HIST_AT, 2));
+  get(B); set(CUR); i32(1); set(RUN); get(B); e(simd(0x0f)); set(CURV);
+  e(0x0b);
+  get(AT); i32(1); e(0x6a); set(AT);
+  e(0x0c, 0);
+  e(0x0b, 0x0b);
+  get(CUR); i32(2); e(0x74); get(CUR); i32(2); e(0x74); e(0x28, mem(HIST_AT, 2)); get(RUN); e(0x6a); e(0x36, mem(HIST_AT, 2));
+  i32(0);
+  e(0x0b);
+  const body = [...vec([[5, I32], [1, V128]]), ...code];
+  return [...uleb(body.length), ...body];
+}
+
 export function chunkKernelBytes() {
   return Uint8Array.from([
     0x00, 0x61, 0x73, 0x6d, 0x01, 0x00, 0x00, 0x00,
@@ -139,9 +191,9 @@ export function chunkKernelBytes() {
     ...section(1, vec([[0x60, 1, I32, 1, I32]])),
     // the memory is the caller's (env.memory), PAGES pages, made at its full size
     ...section(2, vec([[...name('env'), ...name('memory'), 0x02, 0x00, ...uleb(PAGES)]])),
-    ...section(3, vec([[0], [0], [0]])),
-    ...section(7, vec([[...name('narrow'), 0x00, 0], [...name('nonFinite32'), 0x00, 1], [...name('nonFinite64'), 0x00, 2]])),
-    ...section(10, vec([narrowBody(), nonFiniteBody(4), nonFiniteBody(8)])),
+    ...section(3, vec([[0], [0], [0], [0]])),
+    ...section(7, vec([[...name('narrow'), 0x00, 0], [...name('nonFinite32'), 0x00, 1], [...name('nonFinite64'), 0x00, 2], [...name('bytes'), 0x00, 3]])),
+    ...section(10, vec([narrowBody(), nonFiniteBody(4), nonFiniteBody(8), bytesBody()])),
   ]);
 }
 
@@ -153,8 +205,8 @@ export function chunkKernelSource() {
  * Written by bin/write-chunk-kernel.mjs — edit the generator, not this file.
  */
 
-/** Byte layout of the kernel's memory: a chunk of 64-bit ids in, their low words out, the run's least and greatest low word; \`pages\` of 64 KiB. */
-export const CHUNK_LAYOUT = { inAt: ${IN_AT}, inBytes: ${IN_BYTES}, outAt: ${OUT_AT}, rangeAt: ${RANGE_AT}, pages: ${PAGES} } as const;
+/** Byte layout of the kernel's memory: a chunk of 64-bit ids in, their low words out, the run's least and greatest low word, a byte histogram; \`pages\` of 64 KiB. */
+export const CHUNK_LAYOUT = { inAt: ${IN_AT}, inBytes: ${IN_BYTES}, outAt: ${OUT_AT}, rangeAt: ${RANGE_AT}, histAt: ${HIST_AT}, pages: ${PAGES} } as const;
 
 export const CHUNK_KERNEL_BASE64 =
 ${lines};

@@ -3,6 +3,7 @@
  * polygonal-data sections (verts, lines, polys, strips) become typed cells, and higher-order cells
  * are reduced to their corner nodes with a warning.
  */
+import { notedCounts } from '../model/arrayScans.ts';
 import { CELL_TYPE_NAMES, CellType, HIGHER_ORDER_TO_LINEAR, QUADRATIC_POLYGON, cellDimension } from '../model/cellTypes.ts';
 
 /** Cells as three flat arrays (see `src/model/piece.ts` for the layout). */
@@ -75,9 +76,16 @@ function countTypes(rawTypes: ArrayLike<number>, where: string): { fileCellTypes
 /**
  * `countTypes` for byte types: a histogram first (no object lookup per cell), the per-cell walk only to name a
  * bad cell. The histogram counts runs of one type (a mesh of one type is one run), not cells one by one, whose
- * increments of one slot wait on each other (1M hexahedra: 6–16 ms against 1.4–1.8 ms).
+ * increments of one slot wait on each other (1M hexahedra: 6–16 ms against 1.4–1.8 ms). A reader that counted the
+ * types while reading them (the chunk kernel, src/io/partReads.ts `ChunkScan`) leaves the counts to take instead.
  */
 function countBytes(rawTypes: Uint8Array, where: string): { fileCellTypes: Record<number, number>; higher: number } {
+  const noted = notedCounts(rawTypes);
+  return countsToTypes(noted ?? histogram(rawTypes), rawTypes, where);
+}
+
+/** How many of each byte value `rawTypes` holds, counted by runs (see `countBytes`). */
+function histogram(rawTypes: Uint8Array): Float64Array {
   const hist = new Float64Array(256), n = rawTypes.length;
   let c = 0;
   if (n > 0 && rawTypes.byteOffset % 4 === 0) {
@@ -95,6 +103,11 @@ function countBytes(rawTypes: Uint8Array, where: string): { fileCellTypes: Recor
     hist[t]! += e - c;
     c = e;
   }
+  return hist;
+}
+
+/** `countTypes`' answer from the counts of each type. */
+function countsToTypes(hist: Float64Array, rawTypes: Uint8Array, where: string): { fileCellTypes: Record<number, number>; higher: number } {
   const fileCellTypes: Record<number, number> = {};
   let higher = 0;
   for (let t = 0; t < 256; t++) {

@@ -37,6 +37,8 @@ export interface ArrayPlan {
   readonly shared?: boolean;
   /** Builds the error for a cell type outside 0..255 (`cellTypes` only); index and value as in the file. */
   readonly badCellType?: (index: number, value: number) => Error;
+  /** Bytes to count by value while each chunk is in cache (XML cell types read as UInt8 values; `ChunkScan`). */
+  readonly countBytes?: boolean;
 }
 
 /** Whether this machine stores numbers little-endian. */

@@ -13,7 +13,7 @@
 import type { ArrayScan } from '../model/arrayScans.ts';
 import type { NumericArray } from '../model/fieldArray.ts';
 import { ELEMENT_SIZE } from './elementTypes.ts';
-import { kernelInput, nonFiniteInKernel } from './chunkKernel.ts';
+import { countBytesInKernel, kernelInput, nonFiniteInKernel } from './chunkKernel.ts';
 import { HOST_LITTLE, convertChunk, finishDirect, isDirect, lastIdRun, rangeOfRun, type ArrayPlan } from './elementConvert.ts';
 
 /** Fills all of `target` with the file's bytes from byte `offset` (throws when the file ends first). */
@@ -76,7 +76,8 @@ export function readChunkSync(plan: ArrayPlan, out: NumericArray, outBytes: Uint
 
 /**
  * The scan of an array built chunk by chunk while each chunk is in cache: the first non-finite value of a
- * floating-point array, the least and greatest id of an ids array, nothing for other arrays. `add(i, k)` takes
+ * floating-point array, the least and greatest id of an ids array, how many of each type a cell-type array holds
+ * (through the chunk kernel, when it is on), nothing for other arrays. `add(i, k)` takes
  * file elements `[i, i + k)` just written (in order); `result()` is what `noteScan` records.
  */
 export class ChunkScan {
@@ -87,11 +88,14 @@ export class ChunkScan {
   private min = Infinity;
   private max = -Infinity;
   private any = false;
+  /** Cell types: the counts so far, or undefined when not counted (not cell types, or the kernel is off). */
+  private counts: Float64Array | undefined;
 
   constructor(plan: ArrayPlan, private readonly out: NumericArray) {
     this.floats = out instanceof Float64Array || out instanceof Float32Array;
     this.ids = plan.target === 'ids';
     this.lead = plan.lead ?? 0;
+    if ((plan.target === 'cellTypes' || plan.countBytes) && out instanceof Uint8Array) this.counts = new Float64Array(256);
   }
 
   /** `nonFinite`: whether the chunk holds a non-finite float, when known already (tested by the chunk kernel); only a chunk that does is searched. */
@@ -100,6 +104,7 @@ export class ChunkScan {
     if (this.floats && this.firstNonFinite < 0 && nonFinite !== false) {
       this.firstNonFinite = this.out instanceof Float64Array ? nonFiniteIn64(this.out, a0, a0 + k) : nonFiniteIn32(this.out as Float32Array, a0, a0 + k);
     }
+    if (this.counts && k > 0 && !countBytesInKernel((this.out as Uint8Array).subarray(a0, a0 + k), this.counts)) this.counts = undefined;
     if (this.ids && k > 0) {
       // The check of these ids (`finishDirect`, `convertChunk`) summed up their range already, as a rule.
       const run = lastIdRun;
@@ -116,6 +121,7 @@ export class ChunkScan {
 
   result(): ArrayScan {
     if (this.floats) return { firstNonFinite: this.firstNonFinite < 0 ? -1 : this.firstNonFinite - this.lead };
+    if (this.counts) return { counts: this.counts };
     return this.ids && this.any ? { min: this.min, max: this.max } : {};
   }
 }

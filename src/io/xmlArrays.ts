@@ -299,7 +299,7 @@ function checkIntegers(a: NumericArray, at: number, n: number, range: readonly [
 }
 
 /** What the model makes of an array: its own type, doubles (points), or Int32 ids in `[min, 2^31 − 1]` after `lead` zero slots. */
-type Want = { readonly target: 'values' | 'float64' } | { readonly target: 'ids'; readonly min: number; readonly lead: number };
+type Want = { readonly target: 'values' | 'float64'; readonly countBytes?: boolean } | { readonly target: 'ids'; readonly min: number; readonly lead: number };
 
 /** The appended offset of a DataArray, checked against the appended section. */
 function appendedOffset(ctx: XmlFileContext, el: XmlElement, where: string): { app: AppendedSection; off: number } {
@@ -349,7 +349,7 @@ function planOf(type: ElementType, ctx: XmlFileContext, want: Want, where: strin
   const shared = ctx.sharedArrays ? { shared: true } : {};
   return want.target === 'ids'
     ? { type, littleEndian: ctx.littleEndian, target: 'ids', min: want.min, lead: want.lead, where, ...shared }
-    : { type, littleEndian: ctx.littleEndian, target: want.target, where, ...shared };
+    : { type, littleEndian: ctx.littleEndian, target: want.target, where, ...shared, ...(want.countBytes ? { countBytes: true } : {}) };
 }
 
 /** Decodes the numbers of a DataArray into the form `want` asks for. */
@@ -401,6 +401,11 @@ async function decode(ctx: XmlFileContext, el: XmlElement, where: string, expect
  */
 export function readDataArray(ctx: XmlFileContext, el: XmlElement, where: string, expectedValues?: number, float64 = false): Promise<DecodedArray> {
   return decode(ctx, el, where, expectedValues, { target: float64 ? 'float64' : 'values' });
+}
+
+/** `readDataArray` for the cell types: a UInt8 array's bytes are also counted by value as they are read (`ArrayPlan.countBytes`). */
+export function readCellTypesArray(ctx: XmlFileContext, el: XmlElement, where: string, expectedValues: number): Promise<DecodedArray> {
+  return decode(ctx, el, where, expectedValues, { target: 'values', countBytes: true });
 }
 
 /**

@@ -12,7 +12,7 @@
 import type { Piece, PolyFaces } from '../model/piece.ts';
 import { validateFields, validatePiece } from '../model/validate.ts';
 import { linearizeCells, polyDataCells, type PolySection } from './cellAssembly.ts';
-import { arrayLabel, componentsOf, intAttr, readDataArray, readIdDataArray, type XmlFileContext } from './xmlArrays.ts';
+import { arrayLabel, componentsOf, intAttr, readCellTypesArray, readDataArray, readIdDataArray, type XmlFileContext } from './xmlArrays.ts';
 import { readSectionFields } from './xmlFields.ts';
 import { facesFromStream, facesFromTables } from './xmlPolyhedra.ts';
 import { appendedMatches } from './sameBlock.ts';
@@ -134,7 +134,7 @@ async function readUnstructuredCells(ctx: XmlFileContext, pieceEl: XmlElement, n
   }
   const typesEl = namedArray(cells, ['types']);
   if (!typesEl) throw new Error(`${where}: <Cells> has no DataArray named "types"`);
-  const { values: types } = await readDataArray(ctx, typesEl, `${where}: ${arrayLabel(typesEl, 'types')}`, nCells);
+  const { values: types } = await readCellTypesArray(ctx, typesEl, `${where}: ${arrayLabel(typesEl, 'types')}`, nCells);
   const offsets = await readStartOffsets(ctx, cells, where, nCells);
   const connectivity = await readIdArray(ctx, cells, ['connectivity'], where, offsets[nCells]!);
   const lin = linearizeCells(types, offsets, connectivity, where);

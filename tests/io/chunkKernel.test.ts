@@ -10,12 +10,12 @@ import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, afterEach, describe, expect, it } from 'vitest';
-import { KERNEL_IDS, kernelInput, narrowIdsInKernel, nonFiniteInKernel, useChunkKernel } from '../../src/io/chunkKernel.ts';
+import { KERNEL_IDS, countBytesInKernel, kernelInput, narrowIdsInKernel, nonFiniteInKernel, useChunkKernel } from '../../src/io/chunkKernel.ts';
 import { linearizeCells } from '../../src/io/cellAssembly.ts';
 import { convertChunk, type ArrayPlan } from '../../src/io/elementConvert.ts';
 import { openFileSource } from '../../src/io/nodeFiles.ts';
 import { readArray } from '../../src/io/sourceArrays.ts';
-import { notedFirstNonFinite, notedWithin } from '../../src/model/arrayScans.ts';
+import { notedCounts, notedFirstNonFinite, notedWithin } from '../../src/model/arrayScans.ts';
 
 const dir = mkdtempSync(join(tmpdir(), 'fieldtally-chunk-kernel-'));
 afterAll(() => rmSync(dir, { recursive: true, force: true }));
@@ -199,6 +199,60 @@ describe('cell types counted by runs', () => {
       for (let c = 0; c < types.length; c++) offsets[c + 1] = offsets[c]! + nodes(types[c]!);
       const lin = linearizeCells(types, offsets, new Int32Array(offsets[types.length]!), 'f');
       expect(lin.fileCellTypes).toEqual(tally);
+    }
+  });
+});
+
+describe('cell types counted by the kernel', () => {
+  /** A cell-by-cell tally (the reference), as 256 counts. */
+  const tally = (types: Uint8Array) => { const t = new Float64Array(256); for (const x of types) t[x]! += 1; return t; };
+
+  it('counts every byte value as a tally does: one value, runs, every value, a lone first and last byte, none', () => {
+    const every = Uint8Array.from({ length: 3000 }, (_, i) => (i * 7919) % 256);
+    const cases = [new Uint8Array(1003).fill(12), new Uint8Array([10, 10, 10, 10, 10, 12, 12, 10, 14, 14, 14, 14, 13]), every,
+      new Uint8Array([255, 0, 0, 0, 0]), new Uint8Array([3]), new Uint8Array(0), new Uint8Array((1 << 20) + 7).fill(10)];
+    cases[6]![0] = 12; cases[6]![(1 << 20) - 1] = 0; cases[6]![1 << 20] = 255; // across the kernel input's end
+    for (const types of cases) {
+      const counts = new Float64Array(256);
+      expect(countBytesInKernel(types, counts)).toBe(true);
+      expect(Array.from(counts)).toEqual(Array.from(tally(types)));
+      countBytesInKernel(types, counts); // adds on
+      expect(Array.from(counts)).toEqual(Array.from(tally(types)).map((x) => 2 * x));
+    }
+    useChunkKernel(false);
+    const counts = new Float64Array(256);
+    expect(countBytesInKernel(cases[0]!, counts)).toBe(false);
+    expect(counts.every((x) => x === 0)).toBe(true);
+  });
+
+  it('a file\'s cell types are counted as they are read (noted), and linearizeCells takes the counts: same types, same message', async () => {
+    const n = (1 << 20) + (1 << 19) + 3; // two chunks and a ragged end
+    const types = new Uint8Array(n).fill(12);
+    types[5] = 10; types[(1 << 20) - 1] = 10; types[1 << 20] = 14; types[n - 1] = 13;
+    (await onDisk('types.bin', types)).close();
+    const plan: ArrayPlan = { type: 'UInt8', littleEndian: true, target: 'cellTypes', where: 'f' };
+    const nodes = (t: number) => ({ 10: 4, 12: 8, 13: 6, 14: 5 } as Record<number, number>)[t]!;
+    const want: Record<number, number> = {};
+    for (const t of types) want[t] = (want[t] ?? 0) + 1;
+    for (const on of [true, false]) {
+      useChunkKernel(on);
+      const src = await openFileSource(join(dir, 'types.bin'));
+      try {
+        const a = await readArray(src, 5, n, plan) as Uint8Array;
+        expect(Buffer.from(a).equals(Buffer.from(types))).toBe(true);
+        expect(notedCounts(a) ? Array.from(notedCounts(a)!) : undefined).toEqual(on ? Array.from(tally(types)) : undefined);
+        const offsets = new Int32Array(n + 1);
+        for (let c = 0; c < n; c++) offsets[c + 1] = offsets[c]! + nodes(a[c]!);
+        expect(linearizeCells(a, offsets, new Int32Array(offsets[n]!), 'f').fileCellTypes).toEqual(want);
+        // a type fieldtally does not read is still named by its first cell
+        const bad = await readArray(src, 5, n, plan) as Uint8Array;
+        bad[7] = 200;
+        const noted = notedCounts(bad);
+        if (noted) { noted[12]! -= 1; noted[200]! += 1; }
+        expect(() => linearizeCells(bad, offsets, new Int32Array(offsets[n]!), 'f')).toThrow('f: cell 7 has cell type 200');
+      } finally {
+        await src.close();
+      }
     }
   });
 });
