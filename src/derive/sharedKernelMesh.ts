@@ -1,10 +1,11 @@
 /**
  * One copy of a piece's mesh and point field for every worker of a pool, in a shared WebAssembly memory: the
- * moment kernel's held mesh (kernelMesh.ts) made once, on the pool's own thread, instead of once per worker.
- * The pool's thread copies the positions, connectivity, offsets and the field (as doubles) and has the kernel
- * build the node → cells rows there (`makeSharedKernelMesh`); each worker then gets the memory (op `kernelMesh`,
- * src/parallel/shareHost.ts) and works on it through an instance of the shared-memory kernel module
- * (bin/write-moment-kernel.mjs, `momentKernelBytes(true)`) whose `base` is the start of the worker's own area:
+ * moment kernel's held mesh (kernelMesh.ts) made once for the pool instead of once per worker.
+ * The pool's thread opens the memory (`openSharedKernelMesh`), copies the connectivity and offsets and has the
+ * kernel build the node → cells rows there (`buildSharedRows`), while each worker copies its node range of the
+ * positions and the field, as doubles (`copySharedNodes`, op `kernelMesh` of src/parallel/shareHost.ts);
+ * `makeSharedKernelMesh` does all of it on one thread. Each worker then works on it through an instance of the
+ * shared-memory kernel module (bin/write-moment-kernel.mjs, `momentKernelBytes(true)`) whose `base` is the start of the worker's own area:
  * its header, its stamps per node and per cell, its two ring lists and its slots. Every address an instance
  * keeps in its CONFIG is relative to its `base` (the mesh, below the areas, at negative offsets), so the kernel's
  * code and the JavaScript around it (pairedFit.ts `walkInto`) are those of the private kernel: the same rings,
