@@ -1,10 +1,11 @@
 /**
  * One copy of a piece's mesh and point field for every worker of a pool, in a shared WebAssembly memory: the
- * moment kernel's held mesh (kernelMesh.ts) made once, on the pool's own thread, instead of once per worker.
- * The pool's thread copies the positions, connectivity, offsets and the field (as doubles) and has the kernel
- * build the node → cells rows there (`makeSharedKernelMesh`); each worker then gets the memory (op `kernelMesh`,
- * src/parallel/shareHost.ts) and works on it through an instance of the shared-memory kernel module
- * (bin/write-moment-kernel.mjs, `momentKernelBytes(true)`) whose `base` is the start of the worker's own area:
+ * moment kernel's held mesh (kernelMesh.ts) made once for the pool instead of once per worker.
+ * The pool's thread opens the memory (`openSharedKernelMesh`), copies the connectivity and offsets and has the
+ * kernel build the node → cells rows there (`buildSharedRows`), while each worker copies its node range of the
+ * positions and the field, as doubles (`copySharedNodes`, op `kernelMesh` of src/parallel/shareHost.ts);
+ * `makeSharedKernelMesh` does all of it on one thread. Each worker then works on it through an instance of the
+ * shared-memory kernel module (bin/write-moment-kernel.mjs, `momentKernelBytes(true)`) whose `base` is the start of the worker's own area:
  * its header, its stamps per node and per cell, its two ring lists and its slots. Every address an instance
  * keeps in its CONFIG is relative to its `base` (the mesh, below the areas, at negative offsets), so the kernel's
  * code and the JavaScript around it (pairedFit.ts `walkInto`) are those of the private kernel: the same rings,
@@ -69,6 +70,17 @@ function areaLayout(np: number, cells: number) {
  * isolation in a browser), or the mesh with its areas would pass MAX_HELD_BYTES + one area per worker.
  */
 export function makeSharedKernelMesh(p: Piece, workers: number): SharedKernelMesh | null {
+  const m = openSharedKernelMesh(p, workers);
+  if (m) { copySharedNodes(m.ref, p.points, null, 0, 0, m.ref.nodes); buildSharedRows(m, p); }
+  return m;
+}
+
+/**
+ * The memory of a shared kernel mesh for piece `p` and `workers` workers, its header written and nothing copied
+ * yet: the positions (and a field's values) go in by node range (`copySharedNodes`, which the pool's workers run
+ * side by side), the connectivity, offsets and rows by `buildSharedRows`. Null as for `makeSharedKernelMesh`.
+ */
+export function openSharedKernelMesh(p: Piece, workers: number): SharedKernelMesh | null {
   if (!momentKernel() || typeof SharedArrayBuffer === 'undefined') return null;
   const np = p.points.length / 3, cells = p.cellTypes.length, conn = p.connectivity.length;
   const pos = KERNEL_LAYOUT.slotsAt, val = pos + up16(24 * np), cn = val + up16(24 * np), off = cn + up16(4 * conn);
@@ -83,18 +95,42 @@ export function makeSharedKernelMesh(p: Piece, workers: number): SharedKernelMes
     return null;
   }
   if (!K) return null;
-  K.f64.set(p.points, pos / 8);
-  K.i32.set(p.connectivity, cn / 4);
-  K.i32.set(p.offsets, off / 4);
   const c = KERNEL_LAYOUT.configAt / 4, C = KERNEL_CONFIG;
   K.i32[c + C.connectivity / 4] = cn; K.i32[c + C.offsets / 4] = off; K.i32[c + C.incidence / 4] = inc + 8; K.i32[c + C.cells / 4] = ids;
-  // a new memory is all zeros: the counts need no clearing
-  buildIncidence(K, np, cells, inc, true);
+  hosts.set(memory, K);
   const ref: SharedKernelMeshRef = {
     id: nextId++, memory, nodes: np, cells, parts: { pos, val, cn, off, inc, ids },
     areas: Array.from({ length: workers }, (_, w) => first + w * area),
   };
   return { ref, points: new WeakRef(p.points), connectivity: new WeakRef(p.connectivity), offsets: new WeakRef(p.offsets), values: null, nc: 0 };
+}
+
+/** The pool thread's kernel instance over each shared mesh's memory (base 0: the rows are built through it). */
+const hosts = new WeakMap<WebAssembly.Memory, MomentKernel>();
+
+/** Copies piece `p`'s connectivity and offsets into `m` (opened by `openSharedKernelMesh`) and builds its node → cells rows there. */
+export function buildSharedRows(m: SharedKernelMesh, p: Piece): void {
+  const K = hosts.get(m.ref.memory)!, { cn, off, inc } = m.ref.parts;
+  K.i32.set(p.connectivity, cn / 4);
+  K.i32.set(p.offsets, off / 4);
+  // a new memory is all zeros: the counts need no clearing
+  buildIncidence(K, m.ref.nodes, m.ref.cells, inc, true);
+}
+
+/**
+ * Copies the positions of nodes `from .. to-1` (`points`: the whole piece's, 3 per node) into the shared mesh
+ * `ref`, and the values of a point field of `nc` components at those nodes (`values`: the whole field; null: no
+ * values). Any thread may copy any range, several at once: ranges write disjoint bytes.
+ */
+export function copySharedNodes(ref: SharedKernelMeshRef, points: NumericArray, values: NumericArray | null, nc: number, from: number, to: number): void {
+  const b = ref.memory.buffer, { pos, val } = ref.parts;
+  new Float64Array(b, pos + 24 * from, 3 * (to - from)).set(points.subarray(3 * from, 3 * to));
+  if (values) new Float64Array(b, val + 8 * nc * from, nc * (to - from)).set(values.subarray(nc * from, nc * to));
+}
+
+/** Records that `values` (`nc` components) are in `m` already (copied by node ranges with `copySharedNodes`). */
+export function valuesCopied(m: SharedKernelMesh, values: NumericArray, nc: number): void {
+  m.values = new WeakRef(values); m.nc = nc;
 }
 
 /** True when `m` holds piece `p`'s mesh (the same geometry arrays) and room for `workers` workers. */

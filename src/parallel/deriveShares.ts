@@ -18,7 +18,8 @@ import { pointGradientAt, primeGradient, primeGradientAt } from '../derive/field
 import { pointGradientRange, pointGradientRangeInto } from '../derive/rangeGradient.ts';
 import { momentKernel } from '../derive/momentKernel.ts';
 import { holdable } from '../derive/kernelMesh.ts';
-import { holdsMesh, isAttached, loadValues, makeSharedKernelMesh, sharedMeshInto, type SharedKernelMesh } from '../derive/sharedKernelMesh.ts';
+import { attachKernelMesh, buildSharedRows, copySharedNodes, holdsMesh, isAttached, loadValues, openSharedKernelMesh, sharedMeshInto, valuesCopied,
+  type SharedKernelMesh, type SharedKernelMeshRef } from '../derive/sharedKernelMesh.ts';
 import type { Piece } from '../model/piece.ts';
 import type { Dataset } from '../model/dataset.ts';
 import { findField } from '../model/piece.ts';
@@ -46,6 +47,27 @@ export interface GradientShare {
    * there when it is attached to it, else on a mesh of its own.
    */
   kernelMesh?: number;
+}
+
+/**
+ * A worker's part of a shared kernel mesh (src/derive/sharedKernelMesh.ts): its area `area`, and with `copy` the
+ * node range `from .. to-1` of piece `piece`'s positions and point field `field` to copy into the mesh first.
+ */
+export interface KernelMeshShare {
+  mesh: SharedKernelMeshRef; area: number; copy?: { piece: number; field: string; from: number; to: number };
+}
+
+/**
+ * The worker side of `pool.attachKernelMesh`: copies its node range (if any) from the dataset `d` it holds, then
+ * attaches to its area. Returns false where the kernel cannot run here.
+ */
+export function kernelMeshShare(d: Dataset | undefined, s: KernelMeshShare): boolean {
+  if (s.copy) {
+    const p = d?.pieces[s.copy.piece], f = p && findField(p, s.copy.field, 'point');
+    if (!p || !f) throw new Error(`worker pool: no point field "${s.copy.field}" on piece ${s.copy.piece} to copy into the shared kernel mesh`);
+    copySharedNodes(s.mesh, p.points, f.values, f.components, s.copy.from, s.copy.to);
+  }
+  return attachKernelMesh(s.mesh, s.area);
 }
 
 /**
@@ -122,9 +144,9 @@ export async function primeDerivedGradients(pool: ComputePool, names: readonly s
     if (quantities) {
       const missing = quantities.filter((n) => !hasPrimedQuantity(f.values, n));
       if (!missing.length) continue;
-      const v = await onKernelMesh(pool, p, f, (id) => pool.pointDerived(k, info.name, missing.map((name) => ({ name, components: DERIVED_FIELDS[name].components })), id));
+      const v = await onKernelMesh(pool, k, p, f, (id) => pool.pointDerived(k, info.name, missing.map((name) => ({ name, components: DERIVED_FIELDS[name].components })), id));
       missing.forEach((n, i) => primeQuantity(f.values, n, v[i]!));
-    } else primeGradient(f.values, await onKernelMesh(pool, p, f, (id) => pool.pointGradient(k, info.name, id)));
+    } else primeGradient(f.values, await onKernelMesh(pool, k, p, f, (id) => pool.pointGradient(k, info.name, id)));
     done++;
   }
   return done;
@@ -134,21 +156,28 @@ export async function primeDerivedGradients(pool: ComputePool, names: readonly s
 const kernelMeshes = new WeakMap<ComputePool, { mesh: SharedKernelMesh | null; queue: Promise<unknown> }>();
 
 /**
- * Runs `request` with the id of a shared kernel mesh holding piece `p` and field `f` for `pool`'s workers
+ * Runs `request` with the id of a shared kernel mesh holding piece `p` (number `k`) and field `f` for `pool`'s workers
  * (src/derive/sharedKernelMesh.ts: made once here and handed to every worker, instead of each worker copying the
  * mesh into its own kernel), or with no id where there is none to be had: a pool of one worker (its own copy
  * costs the same and saves this thread's), a field of other than 1 or 3 components, no kernel or shared memory,
  * a mesh too large. Requests on a pool's shared mesh run one at a time, since each may load its field's values.
  */
-function onKernelMesh<T>(pool: ComputePool, p: Piece, f: FieldArray, request: (id: number | undefined) => Promise<T>): Promise<T> {
+function onKernelMesh<T>(pool: ComputePool, k: number, p: Piece, f: FieldArray, request: (id: number | undefined) => Promise<T>): Promise<T> {
   let entry = kernelMeshes.get(pool);
   if (!entry) kernelMeshes.set(pool, entry = { mesh: null, queue: Promise.resolve() });
   const e = entry, nc = f.components;
   const run = async (): Promise<T> => {
     if (pool.size < 2 || (nc !== 1 && nc !== 3)) return request(undefined);
     if (!e.mesh || !holdsMesh(e.mesh, p, pool.size)) {
-      e.mesh = makeSharedKernelMesh(p, pool.size);
-      if (e.mesh && !(await pool.attachKernelMesh(e.mesh.ref))) e.mesh = null;
+      // the workers copy the positions and values by node range while this thread copies the connectivity and
+      // offsets and builds the rows (disjoint bytes); the fits start after both
+      e.mesh = null;
+      const m = openSharedKernelMesh(p, pool.size);
+      if (m) {
+        const attached = pool.attachKernelMesh(m.ref, { piece: k, field: f.name });
+        buildSharedRows(m, p);
+        if (await attached) { valuesCopied(m, f.values, nc); e.mesh = m; }
+      }
     }
     if (!e.mesh) return request(undefined);
     loadValues(e.mesh, f.values, nc);

@@ -247,11 +247,17 @@ export class ComputePool {
 
   /**
    * Hands every worker its area of a shared kernel mesh (src/derive/sharedKernelMesh.ts); `pointGradient` and
-   * `pointDerived` given its id then fit there. Resolves true when every worker took it.
+   * `pointDerived` given its id then fit there. With `copy`, each worker first copies one node range of that
+   * piece's positions and of its point field `copy.field` into the mesh (`copySharedNodes`; the ranges as
+   * `pointGradient` splits the nodes). Resolves true when every worker took it.
    */
-  async attachKernelMesh(mesh: SharedKernelMeshRef): Promise<boolean> {
+  async attachKernelMesh(mesh: SharedKernelMeshRef, copy?: { piece: number; field: string }): Promise<boolean> {
     if (mesh.areas.length < this.lanes.length) throw new Error(`worker pool: a shared kernel mesh of ${mesh.areas.length} areas for ${this.lanes.length} workers`);
-    return (await this.all<boolean>((i) => ({ op: 'kernelMesh', mesh, area: mesh.areas[i]! }))).every(Boolean);
+    const bounds = nodeRanges(mesh.nodes, this.lanes.length);
+    return (await this.all<boolean>((i) => ({
+      op: 'kernelMesh', mesh, area: mesh.areas[i]!,
+      copy: copy && i + 1 < bounds.length ? { ...copy, from: bounds[i]!, to: bounds[i + 1]! } : undefined,
+    }))).every(Boolean);
   }
   /** Memory each worker reports (bytes; null where the platform cannot tell). The shared dataset is not in it. */
   memory(): Promise<(WorkerMemory | null)[]> {

@@ -13,8 +13,7 @@
 import { totalCells, type Dataset } from '../model/dataset.ts';
 import { boundaryShare, cutShare, lineShare, placeCutShare, sumCutBlocks, type LineShareOptions } from './shareTasks.ts';
 import type { CutRequest } from './placeCuts.ts';
-import { gradientShare, type GradientShare } from './deriveShares.ts';
-import { attachKernelMesh, type SharedKernelMeshRef } from '../derive/sharedKernelMesh.ts';
+import { gradientShare, kernelMeshShare, type GradientShare, type KernelMeshShare } from './deriveShares.ts';
 import { shareDataset, type CellShare } from './shares.ts';
 import { prepareCut } from '../cut/cutPlane.ts';
 import { warmUpCutKernels } from '../cut/warmUp.ts';
@@ -33,7 +32,7 @@ export type ShareRequest =
   | { op: 'boundary'; withMerge: boolean }
   | { op: 'evaluate'; set: ProbeSet; options: Partial<EvaluateOptions> }
   | ({ op: 'gradient' } & GradientShare)
-  | { op: 'kernelMesh'; mesh: SharedKernelMeshRef; area: number }
+  | ({ op: 'kernelMesh' } & KernelMeshShare)
   | { op: 'memory' };
 
 /** A message to a share worker. */
@@ -78,7 +77,7 @@ export function serveShares(port: SharePort, memory: () => WorkerMemory | null =
     // whole probes on the whole dataset (probeSetShares.ts): the single-thread path, bit for bit
     if (m.op === 'evaluate') { if (!whole) throw new Error('worker pool: no dataset is held by this worker'); return evaluateProbeSet(whole, m.set, m.options); }
     // the pool's one copy of a mesh for the moment kernel (src/derive/sharedKernelMesh.ts), this worker's area in it
-    if (m.op === 'kernelMesh') return attachKernelMesh(m.mesh, m.area);
+    if (m.op === 'kernelMesh') return kernelMeshShare(whole, m);
     if (m.op === 'gradient') { if (!whole) throw new Error('worker pool: no dataset is held by this worker'); return gradientShare(whole, m); }
     if (!share || !range) throw new Error('worker pool: no dataset is held by this worker');
     if (m.op === 'cut') return cutShare(share, m.key, m.origin, m.normal, m.options);

@@ -20,8 +20,32 @@ import type { BoundaryFaces } from './boundaryFaces.ts';
  */
 export interface WallNodes { perPiece: Int32Array[]; cornerRow: Int32Array; facePiece: Int32Array }
 
-/** The wall nodes of the selected faces (`offsets`: the selection's corner offsets); see `WallNodes`. */
+/**
+ * The last wall nodes made, with what they depend on: the boundary faces, a copy of the selection and each
+ * piece's node count (a wall's gradient is primed, then its traction computed: both ask for the same wall).
+ */
+let last: { faces: BoundaryFaces; selection: Int32Array; nodeCounts: number[]; nodes: WallNodes } | null = null;
+
+/**
+ * The wall nodes of the selected faces (`offsets`: the selection's corner offsets); see `WallNodes`. The result
+ * is shared with the next caller asking for the same wall (read it, do not write it).
+ */
 export function wallNodes(d: Dataset, faces: BoundaryFaces, selection: Int32Array, offsets: Int32Array): WallNodes {
+  const counts = d.pieces.map((p) => p.points.length / 3);
+  if (last && last.faces === faces && sameInts(last.selection, selection) && last.nodeCounts.length === counts.length
+    && last.nodeCounts.every((n, k) => n === counts[k])) return last.nodes;
+  const nodes = makeWallNodes(d, faces, selection, offsets);
+  last = { faces, selection: selection.slice(), nodeCounts: counts, nodes };
+  return nodes;
+}
+
+function sameInts(a: Int32Array, b: Int32Array): boolean {
+  if (a.length !== b.length) return false;
+  for (let i = 0; i < a.length; i++) if (a[i] !== b[i]) return false;
+  return true;
+}
+
+function makeWallNodes(d: Dataset, faces: BoundaryFaces, selection: Int32Array, offsets: Int32Array): WallNodes {
   const fo = faces.offsets, nodes = faces.nodes, facePieceOf = faces.piece, ns = selection.length;
   const facePiece = new Int32Array(ns), cornerRow = new Int32Array(offsets[offsets.length - 1]!);
   const slots: (Int32Array | undefined)[] = d.pieces.map(() => undefined);
