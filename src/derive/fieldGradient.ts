@@ -14,6 +14,7 @@
  */
 import type { FieldArray } from '../model/fieldArray.ts';
 import type { Piece } from '../model/piece.ts';
+import { sameBytes } from '../model/sameBytes.ts';
 import { gradientInto, quadraticGradient } from './quadraticGradient.ts';
 import { cellCentres, cellStencil, pointStencil, type Stencil } from './stencils.ts';
 import { pointStencilAround } from './localStencil.ts';
@@ -94,7 +95,7 @@ function heldGradient(p: Piece, f: FieldArray): Float64Array | null {
  */
 export function pointGradientAt(p: Piece, f: FieldArray, nodes: Int32Array): Float64Array {
   const primed = primedAt.get(f.values);
-  if (primed && sameNodes(primed.nodes, nodes)) return primed.g.slice();
+  if (primed && sameBytes(primed.nodes, nodes)) return primed.g.slice();
   const out = new Float64Array(3 * f.components * nodes.length);
   const e = geometryOf(p);
   if (!e.point && heldAt(p, f, nodes, out)) return out;
@@ -102,7 +103,7 @@ export function pointGradientAt(p: Piece, f: FieldArray, nodes: Int32Array): Flo
   // whole-mesh structure is built for a wall request
   let stencil = e.point?.stencil;
   if (!stencil) {
-    if (e.around && sameNodes(e.around.nodes, nodes)) stencil = e.around.stencil;
+    if (e.around && sameBytes(e.around.nodes, nodes)) stencil = e.around.stencil;
     else {
       stencil = pointStencilAround(p, nodes);
       e.around = stencil.ids.length + stencil.offsets.length <= KEPT_AROUND_ENTRIES ? { nodes: nodes.slice(), stencil } : undefined;
@@ -130,13 +131,6 @@ function heldAt(p: Piece, f: FieldArray, nodes: Int32Array, out: Float64Array): 
 
 /** Gradients at chosen nodes computed elsewhere (the worker pool), by values array: `primeGradientAt`. */
 const primedAt = new WeakMap<object, { nodes: Int32Array; g: Float64Array }>();
-
-function sameNodes(a: Int32Array, b: Int32Array): boolean {
-  if (a === b) return true;
-  if (a.length !== b.length) return false;
-  for (let i = 0; i < a.length; i++) if (a[i] !== b[i]) return false;
-  return true;
-}
 
 /**
  * Hands `pointGradientAt` the gradient at `nodes` of the point field whose values array is `values`, computed

@@ -9,18 +9,9 @@
 import type { Dataset } from '../model/dataset.ts';
 import type { Piece } from '../model/piece.ts';
 
-type View = ArrayBufferView & { length: number };
+import { sameBytes } from '../model/sameBytes.ts';
 
-/** Whether two typed arrays hold the same bytes (NaN coordinates compare by their bits). */
-export function sameBytes(a: View, b: View): boolean {
-  if (a === b) return true;
-  if (a.byteLength !== b.byteLength || a.constructor !== b.constructor) return false;
-  const aligned = a.byteOffset % 4 === 0 && b.byteOffset % 4 === 0 && a.byteLength % 4 === 0;
-  const x = aligned ? new Uint32Array(a.buffer, a.byteOffset, a.byteLength / 4) : new Uint8Array(a.buffer, a.byteOffset, a.byteLength);
-  const y = aligned ? new Uint32Array(b.buffer, b.byteOffset, b.byteLength / 4) : new Uint8Array(b.buffer, b.byteOffset, b.byteLength);
-  for (let i = 0; i < x.length; i++) if (x[i] !== y[i]) return false;
-  return true;
-}
+export { sameBytes };
 
 function samePieceGeometry(a: Piece, b: Piece): boolean {
   if (a.points.length !== b.points.length || a.cellTypes.length !== b.cellTypes.length || a.connectivity.length !== b.connectivity.length) return false;

@@ -13,6 +13,7 @@
  */
 import type { Dataset } from '../model/dataset.ts';
 import type { FieldArray } from '../model/fieldArray.ts';
+import { sameBytes } from '../model/sameBytes.ts';
 import { applyGradientOperator, gradientOperator, type GradientOperator } from '../derive/gradientOperator.ts';
 import { pointStencilAround } from '../derive/localStencil.ts';
 import type { BoundaryFaces } from './boundaryFaces.ts';
@@ -58,13 +59,6 @@ interface Plan {
 
 const plans = new WeakMap<BoundaryFaces, Plan[]>();
 
-function sameSelection(a: Int32Array, b: Int32Array): boolean {
-  if (a === b) return true;
-  if (a.length !== b.length) return false;
-  for (let i = 0; i < a.length; i++) if (a[i] !== b[i]) return false;
-  return true;
-}
-
 function fits(plan: Plan, d: Dataset): boolean {
   if (plan.pieces.length !== d.pieces.length) return false;
   return plan.pieces.every((pp, k) => {
@@ -97,7 +91,7 @@ function build(d: Dataset, faces: BoundaryFaces, selection: Int32Array, offsets:
 function planFor(d: Dataset, faces: BoundaryFaces, selection: Int32Array, offsets: Int32Array): Plan {
   let list = plans.get(faces);
   if (!list) { list = []; plans.set(faces, list); }
-  const i = list.findIndex((p) => sameSelection(p.selection, selection) && fits(p, d));
+  const i = list.findIndex((p) => sameBytes(p.selection, selection) && fits(p, d));
   if (i >= 0) return list[i]!;
   const plan = build(d, faces, selection, offsets);
   list.unshift(plan);

@@ -10,6 +10,7 @@
  */
 import type { Dataset } from '../model/dataset.ts';
 import type { FieldArray } from '../model/fieldArray.ts';
+import { sameBytes } from '../model/sameBytes.ts';
 import { pointGradientAt } from '../derive/fieldGradient.ts';
 import type { BoundaryFaces } from './boundaryFaces.ts';
 
@@ -21,10 +22,11 @@ import type { BoundaryFaces } from './boundaryFaces.ts';
 export interface WallNodes { perPiece: Int32Array[]; cornerRow: Int32Array; facePiece: Int32Array }
 
 /**
- * The last wall nodes made, with what they depend on: the boundary faces, a copy of the selection and each
- * piece's node count (a wall's gradient is primed, then its traction computed: both ask for the same wall).
+ * The last wall nodes made on each set of boundary faces, with what else they depend on: a copy of the selection
+ * and each piece's node count (a wall's gradient is primed, then its traction computed: both ask for the same
+ * wall). Kept no longer than the faces.
  */
-let last: { faces: BoundaryFaces; selection: Int32Array; nodeCounts: number[]; nodes: WallNodes } | null = null;
+const lastOn = new WeakMap<BoundaryFaces, { selection: Int32Array; nodeCounts: number[]; nodes: WallNodes }>();
 
 /**
  * The wall nodes of the selected faces (`offsets`: the selection's corner offsets); see `WallNodes`. The result
@@ -32,17 +34,12 @@ let last: { faces: BoundaryFaces; selection: Int32Array; nodeCounts: number[]; n
  */
 export function wallNodes(d: Dataset, faces: BoundaryFaces, selection: Int32Array, offsets: Int32Array): WallNodes {
   const counts = d.pieces.map((p) => p.points.length / 3);
-  if (last && last.faces === faces && sameInts(last.selection, selection) && last.nodeCounts.length === counts.length
+  const last = lastOn.get(faces);
+  if (last && sameBytes(last.selection, selection) && last.nodeCounts.length === counts.length
     && last.nodeCounts.every((n, k) => n === counts[k])) return last.nodes;
   const nodes = makeWallNodes(d, faces, selection, offsets);
-  last = { faces, selection: selection.slice(), nodeCounts: counts, nodes };
+  lastOn.set(faces, { selection: selection.slice(), nodeCounts: counts, nodes });
   return nodes;
-}
-
-function sameInts(a: Int32Array, b: Int32Array): boolean {
-  if (a.length !== b.length) return false;
-  for (let i = 0; i < a.length; i++) if (a[i] !== b[i]) return false;
-  return true;
 }
 
 function makeWallNodes(d: Dataset, faces: BoundaryFaces, selection: Int32Array, offsets: Int32Array): WallNodes {
